@@ -1,0 +1,78 @@
+/**
+ * The waveform model every Sinecheck module takes: a capture is a time base and named channels whose
+ * samples are already in engineering units (scale, probe ratio, CT/VT ratio applied by the importer).
+ */
+
+/** What a channel measures. Inferred from the unit, else the name; 'other' when neither tells. */
+export type Quantity = 'voltage' | 'current' | 'other';
+
+/** Something an importer (or an analysis) assumed, corrected or noticed; never silent. */
+export interface Diagnostic {
+	/** Stable machine code, kebab-case, e.g. 'decimal-comma', 'rate-from-preamble'. */
+	code: string;
+	/** One sentence an electrician can read, with the values involved. */
+	message: string;
+	/** 'info' = what was detected; 'assumption' = a guess the user may override; 'warning' = doubtful data. */
+	severity: 'info' | 'assumption' | 'warning';
+	/** 1-based line of the source file, when the diagnostic points at one. */
+	line?: number;
+	/** 1-based column (characters), when known. */
+	column?: number;
+}
+
+/** One analogue channel, samples in SI units (V or A; 'other' channels keep their own unit). */
+export interface Channel {
+	/** Name without its unit: header `U1 (V)` gives name `U1`. Unique within a capture. */
+	name: string;
+	/** Normalised unit: 'V', 'A', or the source's own text for anything else ('' if none). */
+	unit: string;
+	quantity: Quantity;
+	/** Phase label when one is known or parsed from the name ('L1', 'A', 'R', ...), else undefined. */
+	phase?: string;
+	/** Samples in `unit`, all scaling already applied. Length equals the capture's sample count. */
+	samples: Float64Array;
+	/** How raw values became `samples` (value = factor * raw + offset), for the report. Omitted if none. */
+	scaling?: { factor: number; offset: number; description: string };
+}
+
+/** A binary status channel (COMTRADE digital), kept as it was recorded. */
+export interface DigitalChannel {
+	name: string;
+	/** Normal (inactive) state as declared by the source, when it declares one. */
+	normalState?: 0 | 1;
+	states: Uint8Array;
+}
+
+/** A recorded capture: uniform sampling at `sampleRateHz`, or an explicit time base in `timeS`. */
+export interface Capture {
+	/** File name as given by the caller, or '<input>'. */
+	source: string;
+	/** Sample rate in Hz (samples per second). For an explicit time base: the mean rate. */
+	sampleRateHz: number;
+	/** Time of the first sample in s, relative to the record's zero (a trigger, when there is one; may be negative). */
+	startS: number;
+	/** Absolute wall-clock start as ISO 8601 text when the source states it; undefined otherwise. */
+	startTime?: string;
+	/** Explicit per-sample times in s, only when sampling is not uniform (then `sampleRateHz` is the mean rate). */
+	timeS?: Float64Array;
+	/** Nominal system frequency in Hz when the source declares one (COMTRADE `lf`, a preamble key). */
+	nominalFrequencyHz?: number;
+	channels: Channel[];
+	digital?: DigitalChannel[];
+	/** Every key/value the source carried (preamble lines, COMTRADE header fields), verbatim. */
+	metadata: Record<string, string>;
+	/** What the importer detected, assumed or corrected; shown by every front end. */
+	diagnostics: Diagnostic[];
+}
+
+/** Number of samples per channel in a capture (0 for a capture with no channels). */
+export function sampleCount(capture: Capture): number {
+	return capture.channels[0]?.samples.length ?? capture.digital?.[0]?.states.length ?? 0;
+}
+
+/** Duration covered by the samples in s: N / fs for uniform sampling (each sample stands for 1/fs). */
+export function durationS(capture: Capture): number {
+	const n = sampleCount(capture);
+	if (capture.timeS && n > 1) return capture.timeS[n - 1] - capture.timeS[0] + 1 / capture.sampleRateHz;
+	return n / capture.sampleRateHz;
+}

@@ -1,0 +1,2 @@
+// Public API of lib/polyphase: re-exports only. The owner of this folder fills it in.
+export {};

@@ -1,0 +1,2 @@
+// Public API of lib/signal: re-exports only. The owner of this folder fills it in.
+export {};
