@@ -1,0 +1,97 @@
+/**
+ * One summary row per channel per file, for spreadsheets. Text cells are guarded against formula
+ * injection: a spreadsheet treats a cell beginning with = + - @ (or a tab or carriage return, which some
+ * programs strip before looking) as a formula, so such cells get a leading apostrophe and are quoted.
+ *
+ * Ref: OWASP "CSV Injection" guidance (common practice; from memory): prefix with a single quote and
+ * wrap in double quotes. Quoting itself follows RFC 4180 (fields with comma, quote, CR or LF are quoted,
+ * quotes doubled).
+ */
+import type { ReportJson } from './to-json.js';
+
+/** Column names of the CSV summary, in order (SI units; names follow the JSON contract). */
+export const CSV_SUMMARY_COLUMNS = [
+	'file',
+	'channel',
+	'unit',
+	'quantity',
+	'frequencyHz',
+	'cyclesAnalysed',
+	'mean',
+	'rms',
+	'acRms',
+	'rectifiedMean',
+	'peak',
+	'peakNegative',
+	'peakToPeak',
+	'crestFactor',
+	'formFactor',
+	'thdPercent',
+	'kFactor',
+	'averageRespondingReading',
+	'averageRespondingErrorPercent',
+	'fundamentalRms',
+	'lagDegToReference',
+	'limitsPass',
+] as const;
+
+/** A text cell made safe for spreadsheets and quoted per RFC 4180 when needed. */
+export function csvTextCell(text: string): string {
+	let t = text;
+	if (/^[=+\-@\t\r]/.test(t)) t = `'${t}`;
+	if (t !== text || /[",\r\n]/.test(t)) return `"${t.replace(/"/g, '""')}"`;
+	return t;
+}
+
+/** A numeric cell: shortest round-trip decimal; empty for NaN/Infinity (the data could not give it). */
+export function csvNumberCell(value: number | null | undefined): string {
+	return typeof value === 'number' && Number.isFinite(value) ? String(value) : '';
+}
+
+/** The header line of the CSV summary (no line end). */
+export function csvSummaryHeader(): string {
+	return CSV_SUMMARY_COLUMNS.join(',');
+}
+
+/** The rows (no line ends) of one report (its JSON form, see `reportToJson`): one per channel. */
+export function csvSummaryRows(report: ReportJson): string[] {
+	return report.channels.map((c) => rowOf(report, c));
+}
+
+/** A whole CSV document: header and every report's rows, CRLF line ends (RFC 4180). */
+export function reportsToCsv(reports: ReportJson[]): string {
+	const lines = [csvSummaryHeader()];
+	for (const r of reports) lines.push(...csvSummaryRows(r));
+	return lines.join('\r\n') + '\r\n';
+}
+
+function rowOf(report: ReportJson, c: ReportJson['channels'][number]): string {
+	const pair = report.pairs.find((p) => p.other === c.name);
+	const limitRows = report.limits?.rows.filter((r) => r.channel === c.name) ?? [];
+	const limitsPass = report.limits === undefined || limitRows.length === 0 ? '' : limitRows.every((r) => r.pass) ? 'pass' : 'fail';
+	const cells = [
+		csvTextCell(report.file),
+		csvTextCell(c.name),
+		csvTextCell(c.unit),
+		csvTextCell(c.quantity),
+		csvNumberCell(c.frequencyHz),
+		csvNumberCell(report.cyclesAnalysed),
+		csvNumberCell(c.mean),
+		csvNumberCell(c.rms),
+		csvNumberCell(c.acRms),
+		csvNumberCell(c.rectifiedMean),
+		csvNumberCell(c.peak),
+		csvNumberCell(c.peakNegative),
+		csvNumberCell(c.peakToPeak),
+		csvNumberCell(c.crestFactor),
+		csvNumberCell(c.formFactor),
+		csvNumberCell(c.thdPercent),
+		csvNumberCell(c.kFactor),
+		csvNumberCell(c.averageResponding.reading),
+		csvNumberCell(c.averageResponding.errorPercent),
+		csvNumberCell(c.harmonics[1]?.rms),
+		csvNumberCell(pair?.lagDeg),
+		csvTextCell(limitsPass),
+	];
+	return cells.join(',');
+}

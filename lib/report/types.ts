@@ -1,0 +1,204 @@
+/**
+ * The analysis report: what `analyseCapture` returns and, through `reportToJson`, the JSON contract
+ * shared by the CLI (`sinecheck analyse --json`) and the UI's JSON download. `report.schema.json` beside
+ * this file documents the JSON form; a change here changes the schema in the same commit.
+ *
+ * Units are SI throughout: V, A, W, var, VA, Hz, s, degrees. In memory a figure the data cannot give is
+ * NaN; in JSON it is `null` (JSON has no NaN).
+ */
+import type { Quantity } from '../capture.js';
+
+/** Schema version of the JSON report; bumped on any incompatible change. */
+export const REPORT_SCHEMA_VERSION = 1;
+
+/** Limit tables the report can evaluate (ids as the CLI's `--limits` takes them). */
+export type ReportLimitTableId = 'en50160' | 'iec61000-2-2' | 'ieee519';
+
+export const REPORT_LIMIT_TABLE_IDS: readonly ReportLimitTableId[] = ['en50160', 'iec61000-2-2', 'ieee519'];
+
+/** A voltage/current pairing the user imposes (channel names without units). */
+export interface ReportPairOverride {
+	voltage: string;
+	current: string;
+}
+
+/** Everything the analysis needs from a user; every field optional. */
+export interface AnalysisOptions {
+	/** Reference channel by name; default: the first voltage channel, else the first channel. */
+	refChannel?: string;
+	/**
+	 * 'whole-cycles' (default): every figure over the whole fundamental cycles of the reference channel
+	 * (zero-crossing boundaries); 'whole-record': time-domain figures over every sample (harmonics still
+	 * use whole cycles, which a DFT needs).
+	 */
+	span?: 'whole-cycles' | 'whole-record';
+	/** Harmonic window length in fundamental cycles; default 10 at 50 Hz, 12 at 60 Hz (IEC 61000-4-7). */
+	windowCycles?: number;
+	/** Nominal system voltage in V (line-to-neutral as recorded); chooses the IEEE 519 bus-voltage row. */
+	nominalV?: number;
+	/** Nominal system frequency in Hz (50 or 60); default: what the capture declares, else the nearer of 50/60. */
+	nominalHz?: number;
+	/** Highest harmonic order reported; default 50. */
+	maxOrder?: number;
+	/** Limit table to evaluate harmonics against; omitted = no limit evaluation. */
+	limits?: ReportLimitTableId;
+	/** IEEE 519: ratio of the maximum short-circuit current to the maximum demand load current at the PCC. */
+	iscIl?: number;
+	/** Maximum demand load current I_L in A (IEEE 519 TDD); without it TDD uses the measured fundamental. */
+	ilA?: number;
+	/** Voltage/current pairings that replace the automatic pairing by phase label. */
+	pairs?: ReportPairOverride[];
+}
+
+export interface ReportHarmonic {
+	order: number;
+	/** RMS of the order, channel's unit. Order 0 is DC (|mean|). */
+	rms: number;
+	/** 100 · rms / rms(order 1). */
+	percentOfFundamental: number;
+	/** Absolute phase, degrees, cosine reference, relative to the start of the analysis window; NaN when rms is 0. */
+	phaseDeg: number;
+}
+
+export interface ReportChannel {
+	/** Name without unit (header `U1 (V)` gives `U1`). */
+	name: string;
+	unit: string;
+	quantity: Quantity;
+	/** Phase label when known ('L1', 'A', ...), else null. */
+	phase: string | null;
+	mean: number;
+	/** True RMS including DC. */
+	rms: number;
+	/** RMS without DC: sqrt(rms² − mean²). */
+	acRms: number;
+	rectifiedMean: number;
+	peak: number;
+	peakNegative: number;
+	peakToPeak: number;
+	crestFactor: number;
+	formFactor: number;
+	/** This channel's own fundamental frequency (Hz); NaN when it has no periodic fundamental. */
+	frequencyHz: number;
+	/** THD_F to the highest reported order (see `thdMaxOrder`), percent of the fundamental. */
+	thdPercent: number;
+	/** THD relative to the total RMS (THD_R), percent. */
+	thdRPercent: number;
+	/** Order up to which THD was summed. */
+	thdMaxOrder: number;
+	/** UL K-factor Σ I_h² h² / Σ I_h² (meaningful for currents). */
+	kFactor: number;
+	/** IEEE 519 TDD in percent of I_L (currents only, when I_L is given), else NaN. */
+	tddPercent: number;
+	/** What a sine-calibrated average-responding meter reads, and its error against true RMS in percent. */
+	averageResponding: { reading: number; errorPercent: number };
+	/** Orders 0..maxOrder. */
+	harmonics: ReportHarmonic[];
+	/** Warnings about this channel's data (clipping, DC offset, few cycles...). */
+	warnings: string[];
+}
+
+export interface ReportPair {
+	ref: string;
+	other: string;
+	/** Fundamental phase of `other` behind `ref`, degrees in (−180, 180]; positive when `other` lags. */
+	lagDeg: number;
+	/** Time lag in s (cross-correlation, sub-sample); positive when `other` lags. */
+	lagS: number;
+}
+
+export type ReportLoadCharacter = 'inductive' | 'capacitive' | 'resistive';
+
+export interface ReportPower {
+	voltage: string;
+	current: string;
+	/** P, mean of v·i over the window, W. */
+	activeW: number;
+	/** S = V·I, VA. */
+	apparentVA: number;
+	/** Q1 = V1·I1·sin θ1, var; positive for an inductive load. */
+	reactiveVar: number;
+	/** PF = P / S. */
+	powerFactor: number;
+	/** cos θ1. */
+	displacementPowerFactor: number;
+	/** From the fundamental angle; null when it cannot be told (no fundamental). */
+	character: ReportLoadCharacter | null;
+	/** The full IEEE 1459-2010 single-phase set (extra detail). */
+	ieee1459: Record<string, number>;
+	/** How the pair was formed: 'phase-label', 'only-pair', 'order' or 'user'. */
+	pairedBy: string;
+}
+
+export interface ReportThreePhase {
+	/** The three channels, in the order a, b, c. */
+	channels: string[];
+	quantity: 'voltage' | 'current';
+	rotation: 'positive' | 'negative' | null;
+	/** IEC VUF: 100 · |X2| / |X1|. */
+	unbalancePercent: number;
+	/** NEMA line-voltage unbalance rate, percent (line values derived from the phase channels when they are phase values). */
+	lvurPercent: number;
+	/** IEEE phase-voltage unbalance rate: max deviation from the mean magnitude / mean, percent. */
+	pvurPercent: number;
+	/** Magnitudes of the symmetrical components (RMS, channel unit). */
+	sequence: { zero: number; positive: number; negative: number };
+	/** Angles of the symmetrical components, degrees (extra detail). */
+	sequenceDeg: { zero: number; positive: number; negative: number };
+}
+
+export interface ReportLimitRow {
+	channel: string;
+	/** Harmonic order, or 0 for a total figure (THD or TDD; see `figure`). */
+	order: number;
+	/** 'harmonic', 'thd' or 'tdd'. */
+	figure: string;
+	/** Measured value, percent. */
+	value: number;
+	/** Limit, percent. */
+	limit: number;
+	/** limit − value, percent points; negative when over. */
+	margin: number;
+	pass: boolean;
+	/** Where the limit comes from (table clause), as the table states it. */
+	source: string;
+}
+
+export interface ReportLimits {
+	table: ReportLimitTableId;
+	/** Human title of the table with its source. */
+	title: string;
+	pass: boolean;
+	rows: ReportLimitRow[];
+	/** Why some channels or orders were not evaluated. */
+	notes: string[];
+}
+
+export interface AnalysisReport {
+	schemaVersion: number;
+	file: string;
+	sampleRateHz: number;
+	durationS: number;
+	/** Whole fundamental cycles the figures were computed over (0 when none were found). */
+	cyclesAnalysed: number;
+	/** Fundamental frequency of the reference channel, Hz. */
+	frequencyHz: number;
+	referenceChannel: string | null;
+	/** The span analysed, seconds from the first sample. */
+	window: { startS: number; endS: number; span: 'whole-cycles' | 'whole-record'; harmonicWindowCycles: number; harmonicWindows: number };
+	/** Every importer diagnostic and analysis assumption, as sentences. */
+	assumptions: string[];
+	/** Importer diagnostics with their codes and locations (structured form of part of `assumptions`). */
+	diagnostics: { code: string; message: string; severity: string; line: number | null; column: number | null }[];
+	/** Capture-wide warnings (reference channel has no fundamental, ...). */
+	warnings: string[];
+	channels: ReportChannel[];
+	pairs: ReportPair[];
+	power: ReportPower[];
+	/** The first three-phase set (voltages before currents), or null. */
+	threePhase: ReportThreePhase | null;
+	/** Every three-phase set found (extra detail). */
+	threePhaseSets: ReportThreePhase[];
+	/** Present only when a limit table was asked for. */
+	limits?: ReportLimits;
+}

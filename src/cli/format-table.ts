@@ -1,0 +1,118 @@
+/**
+ * The readable report of one file for a terminal: figures as rows, channels as columns, then the
+ * relations between channels, power, three-phase, limits and every assumption made.
+ */
+import type { ReportJson } from '../../lib/report/to-json.js';
+
+type Channel = ReportJson['channels'][number];
+
+/** A number with about `digits` significant figures, no exponent for everyday magnitudes; 'n/a' for null. */
+export function formatNumber(x: number | null | undefined, digits = 5): string {
+	if (x === null || x === undefined || !Number.isFinite(x)) return 'n/a';
+	if (x === 0) return '0';
+	const ax = Math.abs(x);
+	if (ax >= 1e7 || ax < 1e-4) return x.toExponential(digits - 1);
+	const decimals = Math.max(0, Math.min(6, digits - 1 - Math.floor(Math.log10(ax))));
+	return x.toFixed(decimals);
+}
+
+function fixed(x: number | null | undefined, decimals: number): string {
+	return x === null || x === undefined || !Number.isFinite(x) ? 'n/a' : x.toFixed(decimals);
+}
+
+function table(rows: string[][], indent = '  '): string[] {
+	const widths: number[] = [];
+	for (const r of rows) r.forEach((c, i) => (widths[i] = Math.max(widths[i] ?? 0, c.length)));
+	return rows.map((r) => indent + r.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  ').trimEnd());
+}
+
+const FIGURES: [string, (c: Channel) => string][] = [
+	['true RMS (AC+DC)', (c) => formatNumber(c.rms)],
+	['AC RMS', (c) => formatNumber(c.acRms)],
+	['mean (DC)', (c) => formatNumber(c.mean)],
+	['rectified mean', (c) => formatNumber(c.rectifiedMean)],
+	['peak +', (c) => formatNumber(c.peak)],
+	['peak -', (c) => formatNumber(c.peakNegative)],
+	['peak-to-peak', (c) => formatNumber(c.peakToPeak)],
+	['crest factor', (c) => fixed(c.crestFactor, 3)],
+	['form factor', (c) => fixed(c.formFactor, 4)],
+	['frequency Hz', (c) => fixed(c.frequencyHz, 3)],
+	['fundamental RMS', (c) => formatNumber(c.harmonics[1]?.rms)],
+	['THD % of fund.', (c) => fixed(c.thdPercent, 2)],
+	['K-factor', (c) => fixed(c.kFactor, 2)],
+	['avg-responding reads', (c) => formatNumber(c.averageResponding.reading)],
+	['  its error %', (c) => fixed(c.averageResponding.errorPercent, 2)],
+];
+
+function topHarmonics(c: Channel, count: number): string {
+	const hs = c.harmonics
+		.filter((h) => h.order >= 2 && h.percentOfFundamental !== null && h.percentOfFundamental >= 0.5)
+		.sort((a, b) => (b.percentOfFundamental ?? 0) - (a.percentOfFundamental ?? 0))
+		.slice(0, count);
+	return hs.length ? hs.map((h) => `h${h.order} ${fixed(h.percentOfFundamental, 1)}%`).join(', ') : 'none >= 0.5%';
+}
+
+/** The text block for one report (lines without a trailing newline). */
+export function formatReport(r: ReportJson): string[] {
+	const out: string[] = [];
+	out.push(r.file);
+	const ref = r.referenceChannel ?? 'n/a';
+	out.push(
+		`  ${fixed(r.frequencyHz, 3)} Hz on ${ref}; ${r.cyclesAnalysed} whole cycles analysed ` +
+			`(${fixed(r.window.startS, 4)}-${fixed(r.window.endS, 4)} s of ${formatNumber(r.durationS)} s) at ${formatNumber(r.sampleRateHz)} samples/s`,
+	);
+	if (r.channels.length > 0) {
+		const head = ['', ...r.channels.map((c) => `${c.name}${c.unit ? ` (${c.unit})` : ''}`)];
+		const rows = [head, ...FIGURES.map(([label, f]) => [label, ...r.channels.map(f)])];
+		out.push('', ...table(rows));
+		out.push('', '  largest harmonics:');
+		for (const c of r.channels) out.push(`    ${c.name}: ${topHarmonics(c, 5)}`);
+	}
+	if (r.pairs.length > 0) {
+		out.push('', '  phase against the reference:');
+		for (const p of r.pairs) {
+			if (p.lagDeg === null) {
+				out.push(`    ${p.other} vs ${p.ref}: no common fundamental`);
+				continue;
+			}
+			const verb = p.lagDeg >= 0 ? 'lags' : 'leads';
+			const ms = p.lagS === null ? 'n/a' : `${fixed(Math.abs(p.lagS) * 1000, 3)} ms`;
+			out.push(`    ${p.other} ${verb} ${p.ref} by ${fixed(Math.abs(p.lagDeg), 1)} deg (${ms})`);
+		}
+	}
+	if (r.power.length > 0) {
+		out.push('', '  power (IEEE 1459):');
+		const rows = [['pair', 'P W', 'S VA', 'Q1 var', 'PF', 'DPF', 'load']];
+		for (const p of r.power) {
+			rows.push([`${p.voltage} x ${p.current}`, formatNumber(p.activeW), formatNumber(p.apparentVA), formatNumber(p.reactiveVar), fixed(p.powerFactor, 3), fixed(p.displacementPowerFactor, 3), p.character ?? 'n/a']);
+		}
+		out.push(...table(rows, '    '));
+	}
+	for (const t of r.threePhaseSets) {
+		out.push('', `  three-phase ${t.quantity}s ${t.channels.join(', ')}: ${t.rotation ?? 'unknown'} rotation`);
+		out.push(
+			`    unbalance (IEC, negative/positive sequence) ${fixed(t.unbalancePercent, 2)} %; line unbalance rate (NEMA) ${fixed(t.lvurPercent, 2)} %; phase unbalance rate (IEEE) ${fixed(t.pvurPercent, 2)} %`,
+		);
+		out.push(`    sequence components: zero ${formatNumber(t.sequence.zero)}, positive ${formatNumber(t.sequence.positive)}, negative ${formatNumber(t.sequence.negative)}`);
+	}
+	if (r.limits) {
+		const failed = r.limits.rows.filter((x) => !x.pass);
+		out.push('', `  limits ${r.limits.table} (${r.limits.title}): ${r.limits.pass ? 'PASS' : `FAIL (${failed.length} over)`}`);
+		for (const x of failed) {
+			const what = x.figure === 'harmonic' ? `h${x.order}` : x.figure.toUpperCase();
+			out.push(`    ${x.channel} ${what}: ${fixed(x.value, 2)} % over limit ${fixed(x.limit, 2)} % (margin ${fixed(x.margin, 2)}) [${x.source}]`);
+		}
+		for (const n of r.limits.notes) out.push(`    note: ${n}`);
+		out.push('    a single capture is not a compliance measurement: the standards judge a week or more of 10-minute values');
+	}
+	const warnings = [...r.warnings, ...r.channels.flatMap((c) => c.warnings.map((w) => `${c.name}: ${w}`))];
+	if (warnings.length > 0) {
+		out.push('', '  warnings:');
+		for (const w of warnings) out.push(`    ${w}`);
+	}
+	if (r.assumptions.length > 0) {
+		out.push('', '  assumptions and what the importer detected:');
+		for (const a of r.assumptions) out.push(`    ${a}`);
+	}
+	return out;
+}

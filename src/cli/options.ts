@@ -1,0 +1,108 @@
+/**
+ * Command-line option values -> the library's options. Every malformed value is a UsageError naming
+ * the option and what was expected; nothing is guessed.
+ */
+import { REPORT_LIMIT_TABLE_IDS, type AnalysisOptions, type ReportLimitTableId } from '../../lib/report/types.js';
+import { UsageError } from './usage-error.js';
+
+/** Per-file import settings the user gives on the command line (applied by the importer). */
+export interface ImportSettings {
+	/** Sample rate in Hz for files without a time base. */
+	sampleRateHz?: number;
+	/** channel name -> multiplying factor (probe ratio, CT ratio, A per V of a clamp...). */
+	scale: Record<string, number>;
+	/** channel name -> unit text ('V', 'mV', 'kA'...). */
+	unit: Record<string, string>;
+	/** channel name -> quantity. */
+	quantity: Record<string, 'voltage' | 'current' | 'other'>;
+}
+
+export interface CommandSettings {
+	analysis: AnalysisOptions;
+	import: ImportSettings;
+}
+
+/** Raw options as cac gives them (kebab-case options arrive camel-cased). */
+export type RawOptions = Record<string, unknown>;
+
+function list(value: unknown): string[] {
+	if (value === undefined || value === null || value === false) return [];
+	return (Array.isArray(value) ? value : [value]).map((v) => String(v));
+}
+
+function last(option: string, value: unknown): string | undefined {
+	const all = list(value);
+	if (all.length === 0) return undefined;
+	if (all.some((v) => v === 'true')) throw new UsageError(`--${option} needs a value`);
+	return all[all.length - 1];
+}
+
+function positiveNumber(option: string, value: unknown, what: string): number | undefined {
+	const text = last(option, value);
+	if (text === undefined) return undefined;
+	const x = Number(text.replace(',', '.'));
+	if (!Number.isFinite(x) || x <= 0) throw new UsageError(`--${option} ${text}: expected ${what} (a number above 0)`);
+	return x;
+}
+
+function assignments(option: string, value: unknown, what: string): [string, string][] {
+	return list(value).map((text) => {
+		const at = text.lastIndexOf('=');
+		if (at <= 0 || at === text.length - 1) throw new UsageError(`--${option} ${text}: expected <channel>=<${what}>, e.g. --${option} U1=${option === 'scale' ? '100' : option === 'unit' ? 'V' : 'voltage'}`);
+		return [text.slice(0, at).trim(), text.slice(at + 1).trim()];
+	});
+}
+
+/** Turns cac's option object into analysis and import settings, or throws UsageError. */
+export function settingsFromOptions(raw: RawOptions): CommandSettings {
+	const analysis: AnalysisOptions = {};
+	const limits = last('limits', raw.limits);
+	if (limits !== undefined) {
+		if (!(REPORT_LIMIT_TABLE_IDS as readonly string[]).includes(limits)) {
+			throw new UsageError(`--limits ${limits}: expected one of ${REPORT_LIMIT_TABLE_IDS.join(', ')}`);
+		}
+		analysis.limits = limits as ReportLimitTableId;
+	}
+	analysis.iscIl = positiveNumber('isc-il', raw.iscIl, 'the ratio ISC/IL at the point of common coupling');
+	analysis.ilA = positiveNumber('il', raw.il, 'the maximum demand load current in A');
+	if ((analysis.iscIl !== undefined || analysis.ilA !== undefined) && analysis.limits !== 'ieee519') {
+		if (analysis.limits !== undefined) throw new UsageError('--isc-il and --il apply to --limits ieee519 only');
+	}
+	const ref = last('ref', raw.ref);
+	if (ref !== undefined) analysis.refChannel = ref;
+	const window = positiveNumber('window', raw.window, 'a whole number of cycles');
+	if (window !== undefined) {
+		if (!Number.isInteger(window)) throw new UsageError(`--window ${window}: expected a whole number of cycles`);
+		analysis.windowCycles = window;
+	}
+	analysis.nominalV = positiveNumber('nominal', raw.nominal, 'the nominal voltage in V');
+	const hz = positiveNumber('nominal-hz', raw.nominalHz, 'the nominal frequency in Hz, 50 or 60');
+	if (hz !== undefined) {
+		if (hz !== 50 && hz !== 60) throw new UsageError(`--nominal-hz ${hz}: expected 50 or 60`);
+		analysis.nominalHz = hz;
+	}
+	const maxOrder = positiveNumber('max-order', raw.maxOrder, 'the highest harmonic order, 2 to 50');
+	if (maxOrder !== undefined) {
+		if (!Number.isInteger(maxOrder) || maxOrder < 2 || maxOrder > 100) throw new UsageError(`--max-order ${maxOrder}: expected a whole number from 2 to 100`);
+		analysis.maxOrder = maxOrder;
+	}
+	if (raw.wholeRecord === true) analysis.span = 'whole-record';
+	const pairs = assignments('pair', raw.pair, 'current channel');
+	if (pairs.length > 0) analysis.pairs = pairs.map(([voltage, current]) => ({ voltage, current }));
+	for (const key of Object.keys(analysis) as (keyof AnalysisOptions)[]) if (analysis[key] === undefined) delete analysis[key];
+
+	const settings: ImportSettings = { scale: {}, unit: {}, quantity: {} };
+	const rate = positiveNumber('rate', raw.rate, 'the sample rate in Hz');
+	if (rate !== undefined) settings.sampleRateHz = rate;
+	for (const [channel, text] of assignments('scale', raw.scale, 'factor')) {
+		const f = Number(text.replace(',', '.'));
+		if (!Number.isFinite(f) || f === 0) throw new UsageError(`--scale ${channel}=${text}: expected a non-zero number`);
+		settings.scale[channel] = f;
+	}
+	for (const [channel, unit] of assignments('unit', raw.unit, 'unit')) settings.unit[channel] = unit;
+	for (const [channel, q] of assignments('quantity', raw.quantity, 'quantity')) {
+		if (q !== 'voltage' && q !== 'current' && q !== 'other') throw new UsageError(`--quantity ${channel}=${q}: expected voltage, current or other`);
+		settings.quantity[channel] = q;
+	}
+	return { analysis, import: settings };
+}

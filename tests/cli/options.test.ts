@@ -1,0 +1,46 @@
+import { describe, expect, it } from 'vitest';
+import { settingsFromOptions } from '../../src/cli/options.js';
+import { UsageError } from '../../src/cli/usage-error.js';
+
+describe('settingsFromOptions', () => {
+	it('settingsFromOptions(raw) maps every analysis option to the library names', () => {
+		const s = settingsFromOptions({ limits: 'ieee519', iscIl: 35, il: '120', ref: 'I1', window: 12, nominal: 400, nominalHz: 60, maxOrder: 40, wholeRecord: true, pair: ['U2=I3'] });
+		expect(s.analysis).toEqual({
+			limits: 'ieee519',
+			iscIl: 35,
+			ilA: 120,
+			refChannel: 'I1',
+			windowCycles: 12,
+			nominalV: 400,
+			nominalHz: 60,
+			maxOrder: 40,
+			span: 'whole-record',
+			pairs: [{ voltage: 'U2', current: 'I3' }],
+		});
+	});
+
+	it('settingsFromOptions(raw) reads repeated channel=value assignments, the last = splitting name from value', () => {
+		const s = settingsFromOptions({ scale: ['U1=100', 'I1=0,5'], unit: ['I1=A'], quantity: ['CH3=current'], rate: '10000' });
+		expect(s.import).toEqual({ sampleRateHz: 10000, scale: { U1: 100, I1: 0.5 }, unit: { I1: 'A' }, quantity: { CH3: 'current' } });
+	});
+
+	it('settingsFromOptions(raw) takes a numeric channel name as text', () => {
+		expect(settingsFromOptions({ ref: 2 }).analysis.refChannel).toBe('2');
+	});
+
+	it.each([
+		[{ limits: 'en61000' }, /--limits en61000: expected one of en50160, iec61000-2-2, ieee519/],
+		[{ rate: 'fast' }, /--rate fast: expected the sample rate in Hz/],
+		[{ rate: -5 }, /--rate -5/],
+		[{ scale: ['U1'] }, /--scale U1: expected <channel>=<factor>/],
+		[{ scale: ['U1=x'] }, /--scale U1=x: expected a non-zero number/],
+		[{ quantity: ['U1=power'] }, /expected voltage, current or other/],
+		[{ window: 2.5 }, /--window 2.5: expected a whole number/],
+		[{ nominalHz: 55 }, /expected 50 or 60/],
+		[{ limits: 'en50160', iscIl: 20 }, /apply to --limits ieee519 only/],
+		[{ ref: true }, /--ref needs a value/],
+	])('settingsFromOptions(%o) throws a UsageError naming the option', (raw, message) => {
+		expect(() => settingsFromOptions(raw)).toThrow(UsageError);
+		expect(() => settingsFromOptions(raw)).toThrow(message);
+	});
+});
