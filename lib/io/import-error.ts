@@ -20,7 +20,8 @@ export type ImportErrorCode =
 	| 'dat-too-short'
 	| 'dat-syntax'
 	| 'missing-companion-file'
-	| 'too-large';
+	| 'too-large'
+	| 'internal-error';
 
 export class ImportError extends Error {
 	override readonly name = 'ImportError';

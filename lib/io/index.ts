@@ -1,2 +1,4 @@
 // Public API of lib/io: text or bytes -> Capture. Re-exports only.
 export * from './import-error.js';
+export { parseWav, type WavOptions, type WavChannelCalibration } from './wav.js';
+export * from './comtrade/index.js';

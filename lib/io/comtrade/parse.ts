@@ -1,0 +1,197 @@
+/**
+ * COMTRADE (.cfg + .dat) -> Capture: analog scaling a*x+b, primary or secondary values (PS flag and
+ * ratio), units normalised to V and A, time base from the sampling rate(s) or the time stamps, start
+ * relative to the trigger, digital channels kept as they were recorded.
+ * Ref: IEEE C37.111-1999/2013 = IEC 60255-24:2013 (from memory; layout as in REFERENCE.md §8).
+ */
+import type { Capture, Channel, Diagnostic, DigitalChannel } from '../../capture.js';
+import { ImportError } from '../import-error.js';
+import { type CfgAnalog, type ComtradeConfig, parseComtradeCfg } from './cfg.js';
+import { readComtradeDat } from './dat.js';
+import { stampDifferenceS } from './stamp.js';
+import { normaliseUnitText, phaseLabel, quantityFromName } from './units.js';
+
+export interface ComtradeOptions {
+	/** Report primary (default, what flows in the network) or secondary (what the recorder saw) values. */
+	values?: 'primary' | 'secondary';
+	/** Name of the data file for error messages (default: the .cfg name with .dat). */
+	datSource?: string;
+}
+
+/** Where the .dat data sits inside a larger file (CFF), for error positions. */
+export interface ComtradeDatOffsets {
+	line?: number;
+	byte?: number;
+}
+
+/**
+ * Read a COMTRADE record from its configuration text and its data bytes.
+ *
+ * value = a·x + b in the unit the .cfg gives, then ×primary/secondary (PS = S, primary wanted) or
+ * ×secondary/primary (PS = P, secondary wanted), then ×prefix (kV -> V ×1000). Time of sample n (1-based,
+ * one rate): t = t0 + (n − 1)/samp, with t0 = (first-data time − trigger time) + first time stamp × timemult.
+ *
+ * @param cfgText  the .cfg text (CRLF or LF)
+ * @param dat  the .dat bytes (ASCII text or binary records)
+ * @param source  the .cfg file name, used in errors and as the capture's source
+ * @throws ImportError cfg-syntax, cfg-count-mismatch, dat-too-short, dat-syntax, time-not-increasing, no-data
+ * @example parseComtrade(cfgText, datBytes, 'feeder.cfg').channels.map((c) => c.name) // ['Ia', ..., 'Vc']
+ */
+export function parseComtrade(cfgText: string, dat: Uint8Array, source: string, options: ComtradeOptions = {}, offsets: ComtradeDatOffsets & { cfgLine?: number } = {}): Capture {
+	const datSource = options.datSource ?? source.replace(/\.cfg$/i, (m) => (m === '.CFG' ? '.DAT' : '.dat'));
+	const cfg = parseComtradeCfg(cfgText, source, offsets.cfgLine ?? 0);
+	return buildCapture(cfg, dat, source, datSource, options, offsets);
+}
+
+/** Assemble the capture from a parsed .cfg and the data bytes (shared with the CFF reader). */
+export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: string, datSource: string, options: ComtradeOptions, offsets: ComtradeDatOffsets): Capture {
+	const diagnostics: Diagnostic[] = [...cfg.diagnostics];
+	const want = options.values ?? 'primary';
+	if (want !== 'primary' && want !== 'secondary') throw new ImportError(source, 0, 0, 'bad-option', String(want), "values: 'primary' or 'secondary'");
+	diagnostics.push({ code: 'comtrade-format', severity: 'info', message: `COMTRADE ${cfg.revYear} ${cfg.fileType}, station "${cfg.station}", device "${cfg.device}": ${cfg.analog.length} analog and ${cfg.digital.length} digital channels.` });
+	if (cfg.lineEnd === 'LF') diagnostics.push({ code: 'comtrade-lf-line-ends', severity: 'info', message: 'The .cfg uses LF line ends where the standard asks for CRLF; read as usual.' });
+
+	const lastRate = cfg.rates[cfg.rates.length - 1];
+	const expected = lastRate ? lastRate.endSample : cfg.endSampleNoRate || undefined;
+	const dat = readComtradeDat(cfg, datBytes, datSource, expected, offsets);
+	const n = dat.records;
+	if (n === 0) throw new ImportError(datSource, 1 + (offsets.line ?? 0), 0, 'no-data', '', 'at least one data record');
+	if (dat.extraRecords > 0) diagnostics.push({ code: 'comtrade-extra-records', severity: 'warning', message: `The data holds ${dat.extraRecords} record(s) past the ${n} the .cfg declares; they are ignored.` });
+	if (dat.trailingBytes > 0) diagnostics.push({ code: 'comtrade-trailing-bytes', severity: 'warning', message: `The data ends with ${dat.trailingBytes} byte(s) that do not make a whole record; they are ignored.` });
+
+	// Time stamps are in microseconds, or nanoseconds when a 2013 .cfg writes its stamps to 9 digits.
+	const stampUnitS = cfg.revYear >= 2013 && (cfg.firstData?.fracDigits ?? 0) > 6 ? 1e-9 : 1e-6;
+	const stampS = cfg.timeMult * stampUnitS;
+	let recordZeroS = 0;
+	if (cfg.firstData && cfg.trigger) recordZeroS = stampDifferenceS(cfg.firstData, cfg.trigger);
+	else diagnostics.push({ code: 'comtrade-no-trigger', severity: 'assumption', message: 'Without both the first-data and the trigger time stamps, times are counted from the first-data time.' });
+	const firstStamp = Number.isFinite(dat.stamps[0]) ? dat.stamps[0] : 0;
+	const startS = recordZeroS + firstStamp * stampS;
+	if (firstStamp !== 0) diagnostics.push({ code: 'comtrade-first-stamp', severity: 'info', message: `The first record's time stamp is ${firstStamp} × ${cfg.timeMult} × ${stampUnitS === 1e-6 ? 'µs' : 'ns'}; the record starts ${fmt(startS)} s from the trigger.` });
+
+	const { sampleRateHz, timeS } = timeBase(cfg, dat.stamps, n, startS, stampS, datSource, diagnostics);
+
+	const channels = cfg.analog.map((a, c) => scaleChannel(a, dat.raw[c], want, diagnostics));
+	uniqueNames(channels, diagnostics);
+	if (cfg.analog.length > 0) {
+		diagnostics.push({ code: 'comtrade-values', severity: 'info', message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}; each channel's scaling says how.` });
+	}
+	cfg.analog.forEach((a, c) => {
+		if (dat.missing[c] > 0) diagnostics.push({ code: 'comtrade-missing-values', severity: 'warning', line: a.line, message: `Channel ${channels[c].name}: ${dat.missing[c]} of ${n} values are marked missing in the data; they are NaN.` });
+	});
+	const skewed = cfg.analog.filter((a) => a.skewUs !== 0);
+	if (skewed.length > 0) diagnostics.push({ code: 'comtrade-skew-ignored', severity: 'info', message: `Channel skews (${skewed.map((a) => `${a.name} ${a.skewUs} µs`).join(', ')}) are reported, not corrected.` });
+
+	const digital: DigitalChannel[] = cfg.digital.map((d, c) => ({ name: d.name || `D${d.index}`, normalState: d.normalState, states: dat.digital[c] }));
+	const metadata: Record<string, string> = { ...cfg.metadata };
+	for (const a of cfg.analog) if (a.circuit) metadata[`comtrade.ccbm.${a.name}`] = a.circuit;
+	if (cfg.firstData) diagnostics.push({ code: 'comtrade-local-time', severity: 'info', message: `Start time ${cfg.firstData.iso} is the recorder's local time as written in the .cfg${metadata['comtrade.time_code'] ? ` (time_code ${metadata['comtrade.time_code']})` : ''}.` });
+
+	return {
+		source,
+		sampleRateHz,
+		startS,
+		startTime: cfg.firstData?.iso,
+		...(timeS ? { timeS } : {}),
+		nominalFrequencyHz: cfg.lineFrequencyHz > 0 ? cfg.lineFrequencyHz : undefined,
+		channels,
+		...(digital.length > 0 ? { digital } : {}),
+		metadata,
+		diagnostics,
+	};
+}
+
+function fmt(x: number): string {
+	return Number(x.toPrecision(9)).toString();
+}
+
+/** Uniform rate when one rate (or equal rates) is declared; otherwise explicit times from rates or stamps. */
+function timeBase(cfg: ComtradeConfig, stamps: Float64Array, n: number, startS: number, stampS: number, datSource: string, diagnostics: Diagnostic[]): { sampleRateHz: number; timeS?: Float64Array } {
+	const rates = cfg.rates.filter((r) => r.sampleRateHz > 0);
+	if (rates.length > 0 && rates.length === cfg.rates.length) {
+		const distinct = new Set(rates.map((r) => r.sampleRateHz));
+		if (distinct.size === 1) {
+			diagnostics.push({ code: 'comtrade-rate', severity: 'info', line: rates[0].line, message: `Sample rate ${rates[0].sampleRateHz} Hz from the .cfg; record time stamps are not used for timing.` });
+			return { sampleRateHz: rates[0].sampleRateHz };
+		}
+		// Several rates: keep every sample on its own time (no resampling) and report the mean rate.
+		const timeS = new Float64Array(n);
+		let t = startS;
+		let seg = 0;
+		for (let k = 0; k < n; k++) {
+			while (seg < rates.length - 1 && k + 1 > rates[seg].endSample) seg++;
+			if (k > 0) t += 1 / rates[seg].sampleRateHz;
+			timeS[k] = t;
+		}
+		const meanHz = n > 1 ? (n - 1) / (timeS[n - 1] - timeS[0]) : rates[0].sampleRateHz;
+		diagnostics.push({ code: 'comtrade-several-rates', severity: 'warning', line: rates[0].line, message: `The record uses ${rates.length} sampling rates (${rates.map((r) => `${r.sampleRateHz} Hz to sample ${r.endSample}`).join(', ')}); samples keep their own times, not resampled; mean rate ${fmt(meanHz)} Hz.` });
+		return { sampleRateHz: meanHz, timeS };
+	}
+	// nrates = 0 (or samp = 0): the time stamps are the time base.
+	const timeS = new Float64Array(n);
+	const first = stamps[0];
+	for (let k = 0; k < n; k++) {
+		if (!Number.isFinite(stamps[k])) throw new ImportError(datSource, cfg.fileType === 'ASCII' ? k + 1 : 0, cfg.fileType === 'ASCII' ? 0 : 1, 'dat-syntax', '', `a time stamp on record ${k + 1}: the .cfg gives no sample rate, so time stamps are the time base`);
+		timeS[k] = startS + (stamps[k] - first) * stampS;
+		if (k > 0 && timeS[k] <= timeS[k - 1]) {
+			throw new ImportError(datSource, cfg.fileType === 'ASCII' ? k + 1 : 0, cfg.fileType === 'ASCII' ? 0 : 1, 'time-not-increasing', String(stamps[k]), `a time stamp above the previous one (${stamps[k - 1]}) on record ${k + 1}`);
+		}
+	}
+	const meanHz = n > 1 ? (n - 1) / (timeS[n - 1] - timeS[0]) : NaN;
+	diagnostics.push({ code: 'comtrade-time-stamps', severity: 'info', message: `No sample rate in the .cfg: the record time stamps (× ${cfg.timeMult}) are the time base; mean rate ${fmt(meanHz)} Hz.` });
+	return { sampleRateHz: meanHz, timeS };
+}
+
+function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'secondary', diagnostics: Diagnostic[]): Channel {
+	const u = normaliseUnitText(a.unit);
+	let ratio = 1;
+	let which: string;
+	const ratioKnown = Number.isFinite(a.primary) && Number.isFinite(a.secondary) && a.primary > 0 && a.secondary > 0;
+	if (a.ps === undefined) {
+		which = 'as recorded (no PS flag in a 1991 .cfg)';
+	} else if ((a.ps === 'P') === (want === 'primary')) {
+		which = `${want} values, as recorded`;
+	} else if (!ratioKnown) {
+		which = `${a.ps === 'P' ? 'primary' : 'secondary'} values as recorded: no usable ratio ${a.primary}/${a.secondary} to convert to ${want}`;
+		diagnostics.push({ code: 'comtrade-ratio-missing', severity: 'warning', line: a.line, message: `Channel ${a.name}: ${which}.` });
+	} else {
+		ratio = a.ps === 'S' ? a.primary / a.secondary : a.secondary / a.primary;
+		which = `${want} values, converted with ratio ${a.primary}:${a.secondary}`;
+	}
+	const factor = a.a * ratio * u.factor;
+	const offset = a.b * ratio * u.factor;
+	const samples = raw; // our own array: scaled in place
+	for (let k = 0; k < samples.length; k++) samples[k] = factor * samples[k] + offset;
+	let quantity = u.quantity;
+	if (quantity === 'other' && u.unit === '') {
+		const q = quantityFromName(a.name);
+		if (q) {
+			quantity = q;
+			diagnostics.push({ code: 'comtrade-quantity-from-name', severity: 'assumption', line: a.line, message: `Channel ${a.name} has no unit; taken as ${q} from its name.` });
+		}
+	}
+	if (u.factor !== 1) diagnostics.push({ code: 'unit-normalised', severity: 'info', line: a.line, message: `Channel ${a.name}: ${a.unit} converted to ${u.unit} (×${u.factor}).` });
+	const channel: Channel = {
+		name: a.name || `A${a.index}`,
+		unit: u.unit,
+		quantity,
+		samples,
+		scaling: { factor, offset, description: `${a.a}·x + ${a.b} ${a.unit}; ${which}${u.factor !== 1 ? `; ×${u.factor} to ${u.unit}` : ''}` },
+	};
+	const ph = phaseLabel(a.phase, a.name);
+	if (ph) channel.phase = ph;
+	return channel;
+}
+
+function uniqueNames(channels: Channel[], diagnostics: Diagnostic[]): void {
+	const seen = new Map<string, number>();
+	for (const c of channels) {
+		const k = seen.get(c.name) ?? 0;
+		seen.set(c.name, k + 1);
+		if (k > 0) {
+			const renamed = `${c.name} (${k + 1})`;
+			diagnostics.push({ code: 'duplicate-channel-name', severity: 'assumption', message: `Two channels are named ${c.name}; the later one is called ${renamed}.` });
+			c.name = renamed;
+		}
+	}
+}

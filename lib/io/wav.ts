@@ -1,0 +1,180 @@
+/**
+ * WAV (RIFF WAVE) -> Capture: PCM 8/16/24/32-bit integer and 32/64-bit float, any channel count, decoded
+ * by the wavefile package. Samples are normalised to full scale (int: x / 2^(bits−1); float as stored),
+ * then multiplied by a per-channel calibration (volts or amps at full scale) when one is given, either in
+ * the options or in the file's INFO comment (`ICMT`) as `sinecheck-calibration: 1=U1 V 650; 2=I1 A 200`.
+ * Ref: Microsoft/IBM RIFF WAVE format, `fmt ` and `data` chunks (common practice; from memory).
+ */
+import * as wavefileModule from 'wavefile';
+import type { Capture, Channel, Diagnostic, Quantity } from '../capture.js';
+import { ImportError } from './import-error.js';
+import { normaliseUnitText, phaseLabel, quantityFromName } from './comtrade/units.js';
+
+/** Calibration of one WAV channel: what full scale (1.0, or the largest integer code) stands for. */
+export interface WavChannelCalibration {
+	/** Value at full scale in `unit` (e.g. 650 for 650 V at full scale; a clamp's 200 A range). */
+	fullScale: number;
+	/** 'V', 'A', 'kV', 'mA', ... (normalised to V/A) or any other text. Default ''. */
+	unit?: string;
+	name?: string;
+	quantity?: Quantity;
+	phase?: string;
+}
+
+export interface WavOptions {
+	/** Calibration per channel, in channel order; missing entries leave that channel normalised. */
+	channels?: (WavChannelCalibration | undefined)[];
+}
+
+interface WaveFileLike {
+	fmt: { audioFormat: number; numChannels: number; sampleRate: number; bitsPerSample: number; subformat?: number[] };
+	bitDepth: string;
+	getSamples(interleaved?: boolean): Float64Array;
+	getTag(tag: string): string | null;
+}
+type WaveFileCtor = new (bytes?: Uint8Array) => WaveFileLike;
+// wavefile ships an ES module (named export, used by bundlers) and a UMD build (default export under Node).
+const ns = wavefileModule as unknown as { WaveFile?: WaveFileCtor; default?: { WaveFile?: WaveFileCtor } };
+const WaveFile = (ns.WaveFile ?? ns.default?.WaveFile) as WaveFileCtor;
+
+const ascii = (b: Uint8Array, at: number) => String.fromCharCode(b[at], b[at + 1], b[at + 2], b[at + 3]);
+
+/** Walk the RIFF chunks; throw 'bad-wav' with the byte offset (column = offset + 1) of what is wrong. */
+function checkRiff(bytes: Uint8Array, source: string): { dataBytes: number; truncatedBy: number; isFloat: boolean } {
+	const fail = (offset: number, got: string, expected: string): never => {
+		throw new ImportError(source, 0, offset + 1, 'bad-wav', got, expected);
+	};
+	if (bytes.length < 12) fail(bytes.length, '', `a 12-byte RIFF header; the file has ${bytes.length} bytes`);
+	if (ascii(bytes, 0) !== 'RIFF' && ascii(bytes, 0) !== 'RIFX') fail(0, ascii(bytes, 0), "'RIFF' at the start of a WAV file");
+	if (ascii(bytes, 8) !== 'WAVE') fail(8, ascii(bytes, 8), "'WAVE' after the RIFF header");
+	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+	const le = ascii(bytes, 0) === 'RIFF';
+	let p = 12;
+	let fmtAt = -1;
+	let fmtSize = 0;
+	while (p + 8 <= bytes.length) {
+		const id = ascii(bytes, p);
+		const size = view.getUint32(p + 4, le);
+		if (id === 'fmt ') {
+			fmtAt = p;
+			fmtSize = size;
+			if (size < 16 || p + 8 + 16 > bytes.length) fail(p + 4, String(size), "a complete 'fmt ' chunk of at least 16 bytes");
+		}
+		if (id === 'data') {
+			if (fmtAt < 0) fail(p, id, "a 'fmt ' chunk before the 'data' chunk");
+			const format = view.getUint16(fmtAt + 8, le);
+			const channels = view.getUint16(fmtAt + 10, le);
+			const rate = view.getUint32(fmtAt + 12, le);
+			const bits = view.getUint16(fmtAt + 22, le);
+			const sub = format === 0xfffe && fmtSize >= 40 && fmtAt + 8 + 26 <= bytes.length ? view.getUint16(fmtAt + 8 + 24, le) : format;
+			if (sub !== 1 && sub !== 3) fail(fmtAt + 8, String(format), 'PCM integer (format 1) or IEEE float (format 3) samples; compressed WAV is not read');
+			if (channels < 1) fail(fmtAt + 10, String(channels), 'at least one channel');
+			if (rate < 1) fail(fmtAt + 12, String(rate), 'a sample rate above 0 Hz');
+			const okBits = sub === 1 ? [8, 16, 24, 32] : [32, 64];
+			if (!okBits.includes(bits)) fail(fmtAt + 22, String(bits), `${okBits.join(', ')} bits per sample for ${sub === 1 ? 'integer' : 'float'} data`);
+			const available = bytes.length - (p + 8);
+			return { dataBytes: Math.min(size, available), truncatedBy: Math.max(0, size - available), isFloat: sub === 3 };
+		}
+		if (p + 8 + size > bytes.length) fail(p + 4, `${id} ${size}`, `a '${id}' chunk that fits in the file (${bytes.length - p - 8} bytes left)`);
+		p += 8 + size + (size & 1);
+	}
+	return fail(Math.min(p, bytes.length), '', fmtAt < 0 ? "a 'fmt ' chunk" : "a 'data' chunk");
+}
+
+/** Calibration read from the INFO comment: `sinecheck-calibration: 1=U1 V 650; 2=I1 A 200`. */
+function calibrationFromComment(comment: string | null): (WavChannelCalibration | undefined)[] | undefined {
+	const m = comment ? /sinecheck-calibration:\s*([^\n]*)/i.exec(comment) : null;
+	if (!m) return undefined;
+	const out: (WavChannelCalibration | undefined)[] = [];
+	for (const part of m[1].split(';')) {
+		const e = /^\s*(\d+)\s*=\s*(\S+)\s+(\S+)\s+([-+0-9.eE]+)\s*$/.exec(part);
+		if (!e) continue;
+		const fullScale = Number(e[4]);
+		if (Number.isFinite(fullScale) && fullScale !== 0) out[Number(e[1]) - 1] = { name: e[2], unit: e[3], fullScale };
+	}
+	return out.length > 0 ? out : undefined;
+}
+
+/**
+ * Read a WAV file.
+ *
+ * value = fullScale · x / 2^(bits−1) for integer samples (8-bit: (x − 128)/128), fullScale · x for float samples.
+ *
+ * @param bytes  the whole file
+ * @param source  the file name, for errors and the capture
+ * @param options  per-channel calibration; without one (here or in the file) a channel stays normalised
+ *   (−1 … 1, unit '', quantity 'other') and an 'assumption' diagnostic says so
+ * @throws ImportError 'bad-wav' (line 0, column = byte offset + 1), 'bad-option'
+ * @example parseWav(bytes, 'clamp.wav', { channels: [{ fullScale: 650, unit: 'V', name: 'U1' }] }).channels[0].unit // 'V'
+ */
+export function parseWav(bytes: Uint8Array, source: string, options: WavOptions = {}): Capture {
+	const { dataBytes, truncatedBy, isFloat } = checkRiff(bytes, source);
+	let wav: WaveFileLike;
+	try {
+		wav = new WaveFile(bytes);
+	} catch (e) {
+		throw new ImportError(source, 0, 1, 'bad-wav', e instanceof Error ? e.message : String(e), 'a WAV file the decoder can read');
+	}
+	const { numChannels, sampleRate, bitsPerSample } = wav.fmt;
+	const diagnostics: Diagnostic[] = [
+		{ code: 'wav-format', severity: 'info', message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples.` },
+	];
+	const blockBytes = (numChannels * bitsPerSample) / 8;
+	const frames = Math.floor(dataBytes / blockBytes);
+	if (truncatedBy > 0) diagnostics.push({ code: 'wav-truncated', severity: 'warning', message: `The data chunk is ${truncatedBy} bytes shorter than its header says; the ${frames} whole sample frames present are read.` });
+	const optionCal = options.channels;
+	if (optionCal && optionCal.length > numChannels) {
+		throw new ImportError(source, 0, 0, 'bad-option', `${optionCal.length} calibrations`, `at most ${numChannels} channel calibrations (the file has ${numChannels} channels)`);
+	}
+	const fileCal = optionCal ? undefined : calibrationFromComment(safeTag(wav, 'ICMT'));
+	if (fileCal) diagnostics.push({ code: 'wav-calibration-from-file', severity: 'info', message: 'Channel calibration taken from the file\'s INFO comment (sinecheck-calibration).' });
+	const calibration = optionCal ?? fileCal ?? [];
+
+	const interleaved = wav.getSamples(true);
+	const scaleIn = isFloat ? 1 : bitsPerSample === 8 ? 1 / 128 : 1 / 2 ** (bitsPerSample - 1);
+	const shift = !isFloat && bitsPerSample === 8 ? 128 : 0;
+	const channels: Channel[] = [];
+	const uncalibrated: string[] = [];
+	for (let c = 0; c < numChannels; c++) {
+		const cal = calibration[c];
+		if (cal && !(Number.isFinite(cal.fullScale) && cal.fullScale !== 0)) {
+			throw new ImportError(source, 0, 0, 'bad-option', String(cal.fullScale), `a non-zero full-scale value for channel ${c + 1}`);
+		}
+		const u = normaliseUnitText(cal?.unit ?? '');
+		const name = cal?.name ?? `ch${c + 1}`;
+		const factor = cal ? cal.fullScale * u.factor * scaleIn : scaleIn;
+		const offset = -shift * factor;
+		const samples = new Float64Array(frames);
+		for (let k = 0, j = c; k < frames; k++, j += numChannels) samples[k] = factor * interleaved[j] + offset;
+		const quantity = cal?.quantity ?? (u.quantity !== 'other' ? u.quantity : cal ? quantityFromName(name) ?? 'other' : 'other');
+		const ch: Channel = {
+			name,
+			unit: u.unit,
+			quantity,
+			samples,
+			scaling: { factor, offset, description: cal ? `${cal.fullScale} ${cal.unit ?? ''} at full scale` : 'normalised to full scale (no calibration)' },
+		};
+		const ph = cal?.phase ?? (cal ? phaseLabel(undefined, name) : undefined);
+		if (ph) ch.phase = ph;
+		if (!cal) uncalibrated.push(name);
+		else diagnostics.push({ code: 'wav-calibration', severity: 'info', message: `Channel ${c + 1} (${name}): full scale = ${cal.fullScale} ${cal.unit ?? ''}.` });
+		channels.push(ch);
+	}
+	if (uncalibrated.length > 0) {
+		diagnostics.push({ code: 'wav-uncalibrated', severity: 'assumption', message: `No calibration for ${uncalibrated.join(', ')}: samples are left as fractions of full scale (−1 … 1), unit '' and quantity 'other'. Give volts or amps at full scale to get real values.` });
+	}
+	const metadata: Record<string, string> = { 'wav.channels': String(numChannels), 'wav.sampleRateHz': String(sampleRate), 'wav.bitDepth': wav.bitDepth };
+	for (const tag of ['INAM', 'ICMT', 'ICRD', 'ISFT']) {
+		const v = safeTag(wav, tag);
+		if (v) metadata[`wav.${tag}`] = v;
+	}
+	return { source, sampleRateHz: sampleRate, startS: 0, channels, metadata, diagnostics };
+}
+
+function safeTag(wav: WaveFileLike, tag: string): string | null {
+	try {
+		return wav.getTag(tag);
+	} catch {
+		return null;
+	}
+}
