@@ -1,2 +1,5 @@
-// Public API of lib/trend: re-exports only. The owner of this folder fills it in.
-export {};
+// Public API of lib/trend: re-exports only.
+export * from './types.js';
+export { createTrendAnalyser, TREND_DEFAULT_THRESHOLDS, type TrendAnalyser } from './analyser.js';
+export { analyseTrend } from './analyse-capture.js';
+export { declaredVoltageFromRms, COMMON_NOMINAL_VOLTAGES_V } from './declared-voltage.js';

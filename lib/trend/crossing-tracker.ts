@@ -1,0 +1,169 @@
+/**
+ * Streaming zero-crossing tracker of one channel: finds the half-cycle boundaries of the fundamental,
+ * sample by sample, and from them the Urms(1/2) values (one-cycle RMS refreshed every half cycle).
+ *
+ * Crossing rule: a sign change becomes a boundary once the signal has gone past a hysteresis band of
+ * 10 % of the previous half-cycle's peak (at least 2 % of a slowly decaying long-term peak), and no
+ * sooner than half a period after the previous boundary; harmonics and noise near zero therefore do not
+ * add boundaries. When no crossing comes for 1.5 half periods (interruption, deep dip), the tracker
+ * free-runs at the last measured period, so Urms(1/2) keeps being produced on a dead channel.
+ *
+ * Ref: IEC 61000-4-30:2015, 3.35 and 5.4.1: Urms(1/2) is measured over 1 cycle, commencing at a
+ * fundamental zero crossing, refreshed each half-cycle, independently on each channel (from memory;
+ * REFERENCE §3.2).
+ */
+
+/** Receives what the tracker finds. Indices are absolute sample indices from the recording start. */
+export interface CrossingSink {
+	/**
+	 * A Urms(1/2) value over one cycle from crossing time `startT` to `endT` (samples, interpolated;
+	 * the samples summed are those from index ceil-ish(startT) up to the newest boundary).
+	 */
+	halfCycle(channel: number, startT: number, endT: number, rms: number): void;
+	/** A rising boundary at `index`; `timeSamples` interpolated between samples; forced = free-run. */
+	rising(channel: number, index: number, timeSamples: number, forced: boolean): void;
+}
+
+const MIN_HZ = 40;
+const MAX_HZ = 72;
+
+export class CrossingTracker {
+	private polarity = 0;
+	private prev = 0;
+	private last = -1;
+	private prevBoundaryT = NaN;
+	private lastT = NaN;
+	private prevSumSq = 0;
+	private prevN = 0;
+	private cand = -1;
+	private candT = 0;
+	private halfPeak = 0;
+	private h = 0;
+	private peakRef = 0;
+	private halfPeriod: number;
+	private readonly minHalf: number;
+	private readonly maxHalf: number;
+	/** Time (samples, interpolated) of the last real rising / falling crossing; NaN after a free-run. */
+	private lastRiseT = NaN;
+	private lastFallT = NaN;
+	/** Number of free-run boundaries inserted so far. */
+	forcedCount = 0;
+
+	constructor(
+		readonly channel: number,
+		/** The channel's ring buffer (power-of-two length), written by the caller before `scan`. */
+		private readonly ring: Float64Array,
+		sampleRateHz: number,
+		nominalHz: number | undefined,
+		private readonly sink: CrossingSink,
+		/** Whether Urms(1/2) values are wanted (voltage channels) or only rising boundaries. */
+		private readonly wantHalfCycles: boolean,
+	) {
+		this.minHalf = sampleRateHz / (2 * MAX_HZ);
+		this.maxHalf = sampleRateHz / (2 * MIN_HZ);
+		this.halfPeriod = sampleRateHz / (2 * (nominalHz ?? 55));
+	}
+
+	/** Half period now assumed, samples. */
+	get halfPeriodSamples(): number {
+		return this.halfPeriod;
+	}
+
+	/** Scan xs[from..to) whose first sample has absolute index abs0. */
+	scan(xs: Float64Array, from: number, to: number, abs0: number): void {
+		let prev = this.prev;
+		let polarity = this.polarity;
+		let peak = this.halfPeak;
+		const off = abs0 - from;
+		for (let k = from; k < to; k++) {
+			const x = xs[k];
+			const i = k + off;
+			const ax = x < 0 ? -x : x;
+			if (ax > peak) peak = ax;
+			if (polarity > 0) {
+				if (x < 0) {
+					if (prev >= 0) {
+						this.cand = i;
+						this.candT = i - 1 + prev / (prev - x);
+					}
+					if (-x > this.h && this.cand >= 0) {
+						if (this.last < 0 || this.cand - this.last >= 0.5 * this.halfPeriod) {
+							this.halfPeak = peak;
+							this.commit(this.cand, this.candT, false, false);
+							peak = 0;
+							polarity = -1;
+						} else this.cand = -1;
+					}
+				}
+			} else if (polarity < 0) {
+				if (x >= 0) {
+					if (prev < 0) {
+						this.cand = i;
+						this.candT = i - 1 + prev / (prev - x);
+					}
+					if (x > this.h && this.cand >= 0) {
+						if (this.last < 0 || this.cand - this.last >= 0.5 * this.halfPeriod) {
+							this.halfPeak = peak;
+							this.commit(this.cand, this.candT, true, false);
+							peak = 0;
+							polarity = 1;
+						} else this.cand = -1;
+					}
+				}
+			} else if (x !== 0) {
+				polarity = x > 0 ? 1 : -1;
+			}
+			if (this.last >= 0 && i - this.last > 1.5 * this.halfPeriod) {
+				// Lost the crossings: free-run one half period after the last boundary (still in the ring).
+				const b = this.last + Math.round(this.halfPeriod);
+				this.halfPeak = peak;
+				this.forcedCount++;
+				this.commit(b, b, polarity < 0, true);
+				peak = 0;
+				polarity = polarity < 0 ? 1 : -1;
+			}
+			prev = x;
+		}
+		this.prev = prev;
+		this.polarity = polarity;
+		this.halfPeak = peak;
+	}
+
+	private commit(b: number, t: number, rising: boolean, forced: boolean): void {
+		const last = this.last;
+		if (last >= 0 && this.wantHalfCycles) {
+			const ring = this.ring;
+			const mask = ring.length - 1;
+			let s = 0;
+			for (let j = last; j < b; j++) {
+				const v = ring[j & mask];
+				s += v * v;
+			}
+			// Divide by the interpolated duration, not the sample count: samples next to a crossing hold
+			// almost no energy, so this keeps a one-cycle window exact when fs/f is not a whole number.
+			const n = t - this.lastT;
+			if (this.prevN > 0) this.sink.halfCycle(this.channel, this.prevBoundaryT, t, Math.sqrt((s + this.prevSumSq) / (n + this.prevN)));
+			this.prevSumSq = s;
+			this.prevN = n;
+		}
+		this.prevBoundaryT = this.lastT;
+		// The period comes from same-direction crossings, so a DC offset (unequal halves) does not bias it.
+		if (forced) {
+			this.lastRiseT = NaN;
+			this.lastFallT = NaN;
+		} else {
+			const same = rising ? this.lastRiseT : this.lastFallT;
+			const half = (t - same) / 2;
+			if (half >= this.minHalf && half <= this.maxHalf) this.halfPeriod = half;
+			if (rising) this.lastRiseT = t;
+			else this.lastFallT = t;
+		}
+		this.last = b;
+		this.lastT = t;
+		this.cand = -1;
+		const p = this.halfPeak;
+		this.peakRef = Math.max(this.peakRef * 0.999, p);
+		this.h = Math.max(0.1 * p, 0.02 * this.peakRef);
+		if (rising) this.sink.rising(this.channel, b, t, forced);
+	}
+}

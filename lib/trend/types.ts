@@ -1,0 +1,124 @@
+/**
+ * The contract of lib/trend: options of the streaming analyser and the plain objects it returns.
+ * Every time is in seconds from the first sample of the recording (not the record's trigger zero).
+ */
+import type { Diagnostic, Quantity } from '../capture.js';
+
+/** One channel as the analyser sees it: samples arrive through `push`, in this order. */
+export interface TrendChannelSpec {
+	name: string;
+	quantity: Quantity;
+	/** 'V', 'A' or the source's own unit text. */
+	unit: string;
+}
+
+/** Event thresholds in % of the declared voltage Udin. Ref: REFERENCE §3.4 (typical settings). */
+export interface TrendThresholds {
+	/** A dip starts when Urms(1/2) falls below this. Default 90. */
+	dipPercent: number;
+	/** A swell starts when Urms(1/2) rises above this. Default 110. */
+	swellPercent: number;
+	/** An interruption starts when Urms(1/2) of every voltage channel is below this. Default 5 (10 also used). */
+	interruptionPercent: number;
+	/** Hysteresis added to (dip, interruption) or taken from (swell) the threshold to end an event. Default 2. */
+	hysteresisPercent: number;
+}
+
+/** Optional harmonic analysis of one 10/12-cycle window, called once per channel and window. */
+export type TrendWindowHarmonics = (
+	window: Float64Array,
+	sampleRateHz: number,
+	fundamentalHz: number,
+	cycles: number,
+) => { thdPercent: number };
+
+export interface TrendOptions {
+	sampleRateHz: number;
+	channels: TrendChannelSpec[];
+	/** Nominal power frequency; when absent it is taken from the first cycles (reported as an assumption). */
+	nominalHz?: 50 | 60;
+	/** Declared supply voltage Udin in V (line-to-neutral when the voltage channels are). Inferred if absent. */
+	declaredV?: number;
+	/** Where the declared voltage came from, for the report (e.g. '12.47 kV system, line-to-neutral'). */
+	declaredVNote?: string;
+	thresholds?: Partial<TrendThresholds>;
+	/** Index of the channel whose zero crossings time the 10/12-cycle windows and frequency. Default: first voltage channel, else 0. */
+	referenceChannel?: number;
+	/** Seconds of the recording's start used to infer the declared voltage when none is given. Default 1. */
+	inferenceS?: number;
+	/** Called with every aggregate row once final (its event flag known), in time order per interval kind. */
+	onRow?: (row: TrendRow) => void;
+	/** Which rows the result keeps (memory grows with length only through these). Default: all kept. */
+	keep?: { cycles10?: boolean; cycles150?: boolean; min10?: boolean };
+	/** THD per 10/12-cycle window; when absent THD is NaN. */
+	harmonics?: TrendWindowHarmonics;
+}
+
+/** Aggregation interval kinds of IEC 61000-4-30 (REFERENCE §3.2). */
+export type TrendInterval = '10/12-cycle' | '150/180-cycle' | '10-min';
+
+/** One aggregate: a value per channel (same order as the options' channels). */
+export interface TrendRow {
+	interval: TrendInterval;
+	startS: number;
+	durationS: number;
+	/** Fundamental cycles of the timing reference covered (10/12 for a basic row; 150/180 for a full 3 s row). */
+	cycles: number;
+	/** False for a group cut short by the end of the recording (or, for 150/180-cycle, by a 10-min tick). */
+	complete: boolean;
+	/** True when any part of the interval overlaps a dip, swell or interruption (REFERENCE §3.5). */
+	flagged: boolean;
+	/** RMS per channel, channel's unit. Longer intervals: √(mean of the squared 10/12-cycle values). */
+	rms: number[];
+	/** THD per channel in % of the fundamental (NaN when not computed); aggregated like rms. */
+	thdPercent: number[];
+}
+
+/** Power frequency over one 10 s interval: whole cycles / their duration (REFERENCE §3.3). */
+export interface TrendFrequencyRow {
+	startS: number;
+	durationS: number;
+	/** NaN when the interval held no whole measured cycle (e.g. during an interruption). */
+	frequencyHz: number;
+	/** Whole cycles counted. */
+	cycles: number;
+	complete: boolean;
+	flagged: boolean;
+}
+
+export type TrendEventKind = 'dip' | 'swell' | 'interruption';
+
+export interface TrendEvent {
+	kind: TrendEventKind;
+	/** Channels that crossed the threshold during the event (all voltage channels for an interruption). */
+	channels: string[];
+	startS: number;
+	durationS: number;
+	/** Dips and interruptions: lowest Urms(1/2) on any channel during the event, V. */
+	residualV?: number;
+	/** Swells: highest Urms(1/2) on any channel during the event, V. */
+	maximumV?: number;
+	/** residualV or maximumV in % of the declared voltage. */
+	percentOfDeclared: number;
+	/** False when the recording ended during the event (then the duration is a lower bound). */
+	ended: boolean;
+}
+
+export interface TrendResult {
+	sampleRateHz: number;
+	nominalHz: number;
+	/** Udin in V; NaN when there is no voltage channel. */
+	declaredV: number;
+	declaredVSource: 'given' | 'inferred' | 'none';
+	thresholds: TrendThresholds;
+	channels: TrendChannelSpec[];
+	referenceChannel: string;
+	/** Samples pushed / sample rate. */
+	durationS: number;
+	cycles10: TrendRow[];
+	cycles150: TrendRow[];
+	min10: TrendRow[];
+	frequency: TrendFrequencyRow[];
+	events: TrendEvent[];
+	diagnostics: Diagnostic[];
+}
