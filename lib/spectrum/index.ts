@@ -1,3 +1,14 @@
-// Public API of lib/spectrum: re-exports only. The owner of this folder fills it in.
-export {};
+// Public API of lib/spectrum: re-exports only.
 export * from './types.js';
+export { dftPlan, dftReal, DFT_MAX_LENGTH, type DftPlan } from './dft.js';
+export { iecHarmonicGroups } from './groups.js';
+export { thdFPercent, thdRPercent, thdFigures } from './thd.js';
+export { harmonicWindow, defaultWindowCycles, type HarmonicWindowOptions } from './harmonics.js';
+export {
+	harmonicAnalysis,
+	aggregateHarmonicWindows,
+	type HarmonicAggregate,
+	type HarmonicAnalysis,
+	type HarmonicAnalysisOptions,
+} from './harmonic-analysis.js';
+export { syncResample, SYNC_RESAMPLE_HALF_TAPS } from './sync-resample.js';
