@@ -1,2 +1,4 @@
-// Public API of lib/polyphase: re-exports only. The owner of this folder fills it in.
-export {};
+// Public API of lib/polyphase: re-exports only.
+export * from './sequence.js';
+export * from './rotation.js';
+export * from './unbalance.js';

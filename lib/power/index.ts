@@ -1,2 +1,10 @@
-// Public API of lib/power: re-exports only. The owner of this folder fills it in.
-export {};
+// Public API of lib/power: re-exports only.
+export * from './phasor.js';
+export * from './window.js';
+export * from './phase-angle.js';
+export * from './time-lag.js';
+export * from './load-character.js';
+export * from './single-phase.js';
+export * from './three-phase.js';
+export * from './phase-label.js';
+export * from './pairing.js';

@@ -1,0 +1,164 @@
+/**
+ * Pairs voltage and current channels of a capture by phase label, with a user override of every pair.
+ */
+import type { Channel, Diagnostic } from '../capture.js';
+import { inferPhaseFamily, parsePhaseLabel, phaseDisplayLabel, resolvePhaseToken, type ParsedPhaseLabel, type PhaseFamily, type PhaseIndex } from './phase-label.js';
+
+/** A voltage channel and a current channel of the same phase. */
+export interface PowerChannelPair {
+	/** Phase index 1..3 in the capture's own family. */
+	phase: PhaseIndex;
+	/** Phase as the capture names it: 'L1', 'A', 'R', 'U'... */
+	label: string;
+	voltage: string;
+	current: string;
+	/** 'auto' = matched by label; 'override' = given by the user. */
+	origin: 'auto' | 'override';
+}
+
+/** A user-chosen pair; `phase` defaults to the voltage channel's label, else the override's position (1, 2, 3). */
+export interface PowerPairOverride {
+	voltage: string;
+	current: string;
+	phase?: PhaseIndex;
+}
+
+/** Result of pairPowerChannels: pairs, the other roles found, what was left and why. */
+export interface PowerChannelPairing {
+	/** Pairs sorted by phase. */
+	pairs: PowerChannelPair[];
+	/** Label family the capture uses ('numeric' for L1/1/U1 style). */
+	family: PhaseFamily;
+	/** Line-to-neutral (or line-to-reference) voltage channels by phase. */
+	phaseVoltages: { phase: PhaseIndex; name: string }[];
+	/** Line current channels by phase. */
+	phaseCurrents: { phase: PhaseIndex; name: string }[];
+	/** Line-to-line voltage channels (U12, L1-L2, Vab...): from → to. */
+	lineVoltages: { name: string; from: PhaseIndex; to: PhaseIndex }[];
+	/** Neutral current channel, if one is named so (IN, I_N). */
+	neutralCurrent?: string;
+	/** Neutral(-to-earth) voltage channel, if one is named so (UN, V_N). */
+	neutralVoltage?: string;
+	/** Channels in no pair and not a line-to-line or neutral channel (a phase voltage without its current is here too). */
+	unpaired: string[];
+	diagnostics: Diagnostic[];
+}
+
+type ChannelInfo = Pick<Channel, 'name' | 'quantity'> & Partial<Pick<Channel, 'phase' | 'unit'>>;
+
+/**
+ * Pairs voltage and current channels by phase label and quantity.
+ *
+ * Each channel's label is read from `channel.phase` when set, else from its name (parsePhaseLabel);
+ * its quantity from `channel.quantity`, else from the name's prefix (reported as an assumption).
+ * The letter family (A/B/C, R/S/T, R/Y/B, U/V/W) is inferred once for the capture, so 'B' is phase 2 of
+ * A/B/C but phase 3 of R/Y/B. A phase pairs when it has exactly one voltage and one current channel.
+ * Overrides are applied first and take their channels out of the automatic matching.
+ * Ref: common practice (no standard fixes channel naming).
+ * @param channels  the capture's channels (only name, quantity, phase and unit are read)
+ * @param overrides  user pairs; every name must exist and be used once
+ * @throws RangeError for an override naming an unknown channel or using a channel twice
+ * @example pairPowerChannels(capture.channels).pairs // [{ phase: 1, label: 'A', voltage: 'Va', current: 'Ia', origin: 'auto' }, ...]
+ */
+export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: readonly PowerPairOverride[] = []): PowerChannelPairing {
+	const diagnostics: Diagnostic[] = [];
+	const names = new Set(channels.map((c) => c.name));
+	const parsed = new Map<string, ParsedPhaseLabel | undefined>();
+	for (const c of channels) parsed.set(c.name, (c.phase ? parsePhaseLabel(c.phase) : undefined) ?? parsePhaseLabel(c.name));
+	const labels = [...parsed.values()].filter((p): p is ParsedPhaseLabel => p !== undefined);
+	const fam = inferPhaseFamily(labels);
+	if (fam.assumed) {
+		diagnostics.push({ code: 'pairing-family-assumed', severity: 'assumption', message: `phase letters are ambiguous; read as ${fam.family === 'ABC' ? 'A/B/C (B = phase 2, not R/Y/B where B = phase 3)' : 'R/S/T'}. Override the pairs if that is wrong.` });
+	}
+	if (fam.conflicting.length > 0) {
+		diagnostics.push({ code: 'pairing-family-mixed', severity: 'warning', message: `channel names mix phase-letter families (${[fam.family, ...fam.conflicting].join(', ')}); letters were read as ${fam.family}.` });
+	}
+
+	const quantityOf = (c: ChannelInfo): 'voltage' | 'current' | 'other' => {
+		if (c.quantity !== 'other') return c.quantity;
+		const hint = parsed.get(c.name)?.quantityHint;
+		if (hint) {
+			diagnostics.push({ code: 'pairing-quantity-from-name', severity: 'assumption', message: `channel ${c.name} has no V or A unit; taken as a ${hint} channel from its name.` });
+			return hint;
+		}
+		return 'other';
+	};
+
+	const used = new Set<string>();
+	const pairs: PowerChannelPair[] = [];
+	overrides.forEach((o, k) => {
+		for (const n of [o.voltage, o.current]) {
+			if (!names.has(n)) throw new RangeError(`pairing override names channel "${n}", which the capture does not have (it has: ${[...names].join(', ')})`);
+			if (used.has(n)) throw new RangeError(`pairing override uses channel "${n}" twice`);
+			used.add(n);
+		}
+		const lab = parsed.get(o.voltage);
+		const fromLabel = lab?.kind === 'phase' ? resolvePhaseToken(lab.tokens[0], fam.family) : undefined;
+		const phase = o.phase ?? fromLabel ?? (((k % 3) + 1) as PhaseIndex);
+		pairs.push({ phase, label: phaseDisplayLabel(phase, fam.family), voltage: o.voltage, current: o.current, origin: 'override' });
+		diagnostics.push({ code: 'pairing-override', severity: 'info', message: `${o.voltage} paired with ${o.current} as phase ${phaseDisplayLabel(phase, fam.family)} (set by the user).` });
+	});
+
+	const phaseVoltages: { phase: PhaseIndex; name: string }[] = [];
+	const phaseCurrents: { phase: PhaseIndex; name: string }[] = [];
+	const lineVoltages: { name: string; from: PhaseIndex; to: PhaseIndex }[] = [];
+	let neutralCurrent: string | undefined;
+	let neutralVoltage: string | undefined;
+	const unlabelled: string[] = [];
+	for (const c of channels) {
+		const q = quantityOf(c);
+		const lab = parsed.get(c.name);
+		if (!lab || q === 'other') {
+			if (q !== 'other') unlabelled.push(c.name);
+			continue;
+		}
+		if (lab.kind === 'neutral') {
+			if (q === 'current' && neutralCurrent === undefined) (neutralCurrent = c.name), used.add(c.name);
+			else if (q === 'voltage' && neutralVoltage === undefined) (neutralVoltage = c.name), used.add(c.name);
+			continue;
+		}
+		const idx = lab.tokens.map((t) => resolvePhaseToken(t, fam.family));
+		if (idx.some((i) => i === undefined)) {
+			diagnostics.push({ code: 'pairing-label-family', severity: 'warning', message: `channel ${c.name}: its phase letter does not belong to the ${fam.family} family the other channels use; not paired.` });
+			continue;
+		}
+		if (lab.kind === 'line-to-line') {
+			if (q === 'voltage') lineVoltages.push({ name: c.name, from: idx[0]!, to: idx[1]! }), used.add(c.name);
+			continue;
+		}
+		if (q === 'voltage') phaseVoltages.push({ phase: idx[0]!, name: c.name });
+		else phaseCurrents.push({ phase: idx[0]!, name: c.name });
+	}
+
+	for (const phase of [1, 2, 3] as PhaseIndex[]) {
+		const label = phaseDisplayLabel(phase, fam.family);
+		if (pairs.some((p) => p.phase === phase)) continue;
+		const vs = phaseVoltages.filter((v) => v.phase === phase && !used.has(v.name));
+		const is = phaseCurrents.filter((i) => i.phase === phase && !used.has(i.name));
+		if (vs.length === 1 && is.length === 1) {
+			pairs.push({ phase, label, voltage: vs[0].name, current: is[0].name, origin: 'auto' });
+			used.add(vs[0].name).add(is[0].name);
+			diagnostics.push({ code: 'pairing-auto', severity: 'info', message: `${vs[0].name} paired with ${is[0].name} as phase ${label} (matched by phase label).` });
+		} else if (vs.length > 1 || is.length > 1) {
+			diagnostics.push({ code: 'pairing-ambiguous', severity: 'warning', message: `phase ${label} has ${vs.length} voltage and ${is.length} current channels (${[...vs, ...is].map((x) => x.name).join(', ')}); not paired: give the pair explicitly.` });
+		} else if (vs.length + is.length === 1) {
+			const only = vs[0] ?? is[0];
+			diagnostics.push({ code: 'pairing-missing-partner', severity: 'info', message: `phase ${label} has ${vs.length ? 'a voltage' : 'a current'} channel (${only.name}) but no ${vs.length ? 'current' : 'voltage'} channel: no power for that phase.` });
+		}
+	}
+	if (unlabelled.length > 0) {
+		diagnostics.push({ code: 'pairing-unlabelled', severity: 'info', message: `no phase label could be read from ${unlabelled.join(', ')}; pair them by hand if they belong to a phase.` });
+	}
+	pairs.sort((a, b) => a.phase - b.phase);
+	return {
+		pairs,
+		family: fam.family,
+		phaseVoltages,
+		phaseCurrents,
+		lineVoltages,
+		...(neutralCurrent !== undefined ? { neutralCurrent } : {}),
+		...(neutralVoltage !== undefined ? { neutralVoltage } : {}),
+		unpaired: channels.map((c) => c.name).filter((n) => !used.has(n)),
+		diagnostics,
+	};
+}
