@@ -1,0 +1,206 @@
+import { coarseFrequencyHz } from './coarse-frequency.js';
+import { fitFundamental } from './fundamental-fit.js';
+import { fmt } from './format.js';
+
+/**
+ * Whole fundamental cycles of a record: the rising zero crossings of its fundamental, as fractional
+ * sample indices (index 0 = first sample; 12.25 lies a quarter of the way from sample 12 to 13).
+ */
+export interface CycleWindow {
+	/** First used rising crossing, fractional sample index. */
+	startIndex: number;
+	/** Last used rising crossing, fractional sample index. */
+	endIndex: number;
+	/** Whole cycles between startIndex and endIndex (crossings.length − 1). */
+	cycles: number;
+	/** cycles / ((endIndex − startIndex) / fs), Hz: the IEC 61000-4-30 "whole cycles / their duration" reading. */
+	frequencyHz: number;
+	/** Every used rising crossing, ascending, fractional sample indices (cycles + 1 of them). */
+	crossings: Float64Array;
+}
+
+/** Why no whole cycles (or frequency) could be given: typed, with a sentence for the user. */
+export type SignalFailure = {
+	ok: false;
+	code: 'too-short' | 'no-fundamental' | 'dc-only' | 'bad-parameter';
+	message: string;
+};
+
+/** Smallest ratio of fundamental RMS to everything else (harmonics + noise) accepted as "a fundamental". */
+const MIN_FUNDAMENTAL_RATIO = 0.1;
+/** Largest spread (coefficient of variation) of cycle lengths accepted as periodic. */
+const MAX_PERIOD_SPREAD = 0.1;
+
+/**
+ * Finds the whole cycles of the fundamental in a record, from interpolated rising zero crossings.
+ *
+ * Method: a coarse frequency from the spectrum peak (or `opts.frequencyHz`), then a tracker steps one
+ * period at a time and places each crossing from a least-squares fit of the fundamental over the two
+ * periods around it (see `fundamental-fit.ts`): DC offset, harmonics and most noise do not move the
+ * crossings, and slow frequency drift is followed. The frequency is then re-estimated from the crossings
+ * (whole cycles / their duration) and the search repeated until it settles (at most 6 passes).
+ * Crossings outside [0, N − 1] are not used, so a record of exactly 10 cycles gives 9 whole cycles
+ * crossing to crossing.
+ *
+ * Ref: IEC 61000-4-30:2015, 5.1 power frequency: integral cycles over their duration, harmonics attenuated
+ * first to avoid multiple zero crossings (from memory); IEEE Std 1057-2017 sine fit (from memory).
+ *
+ * @param samples  signal, any unit; not modified
+ * @param sampleRateHz  samples per second
+ * @param opts.frequencyHz  known or previously estimated frequency: skips the spectral search (the
+ *   crossings still set the reported frequency)
+ * @param opts.nominalHz  nominal system frequency (50, 60, 400…): the search covers 0.7…1.3 × nominal
+ * @param opts.maxCycles  use at most this many whole cycles from the start of the record
+ * @returns the window, or a failure: 'bad-parameter' (rate, options, or a NaN/infinite sample),
+ *   'dc-only' (no variation), 'too-short' (under 2 whole cycles), 'no-fundamental' (noise, no periodicity)
+ * @example findWholeCycles(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 9.37 }), 10_000)
+ *   // { ok: true, startIndex: 0, endIndex: 1800, cycles: 9, frequencyHz: 50, … } (up to rounding)
+ */
+export function findWholeCycles(
+	samples: Float64Array,
+	sampleRateHz: number,
+	opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number } = {},
+): ({ ok: true } & CycleWindow) | SignalFailure {
+	const bad = checkParameters(sampleRateHz, opts);
+	if (bad) return fail('bad-parameter', bad);
+	const n = samples.length;
+	if (n < 8) return fail('too-short', `The record has ${n} sample${n === 1 ? '' : 's'}; at least two whole cycles are needed.`);
+	let mean = 0;
+	for (let i = 0; i < n; i++) {
+		if (!Number.isFinite(samples[i])) {
+			return fail('bad-parameter', `Sample at index ${i} is ${samples[i]}: remove or repair non-numeric samples before analysis.`);
+		}
+		mean += samples[i];
+	}
+	mean /= n;
+	let acSquares = 0;
+	for (let i = 0; i < n; i++) acSquares += (samples[i] - mean) ** 2;
+	const acRms = Math.sqrt(acSquares / n);
+	if (!(acRms > 1e-9 * Math.abs(mean))) {
+		return fail('dc-only', `The record is constant (${fmt(mean)}): no alternating signal, so no cycles or frequency.`);
+	}
+
+	let frequencyHz = opts.frequencyHz ?? coarseFrequencyHz(samples, sampleRateHz, { nominalHz: opts.nominalHz });
+	if (!Number.isFinite(frequencyHz) || frequencyHz <= 0) {
+		return fail('no-fundamental', 'No periodic fundamental stands out in the spectrum of this record.');
+	}
+	const recordCycles = (n * frequencyHz) / sampleRateHz;
+	if (recordCycles < 1.8) return tooShort(recordCycles, frequencyHz);
+
+	let track: Track | undefined;
+	for (let pass = 0; pass < 6; pass++) {
+		track = trackCrossings(samples, sampleRateHz / frequencyHz);
+		if (track.crossings.length < 3) return tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
+		const c = track.crossings;
+		const next = ((c.length - 1) * sampleRateHz) / (c[c.length - 1] - c[0]);
+		const settled = Math.abs(next - frequencyHz) <= 1e-9 * frequencyHz;
+		frequencyHz = next;
+		if (settled) break;
+	}
+	const t = track as Track;
+	if (!(t.fundamentalRatio >= MIN_FUNDAMENTAL_RATIO) || !(t.periodSpread <= MAX_PERIOD_SPREAD)) {
+		return fail(
+			'no-fundamental',
+			`No steady fundamental: near ${fmt(frequencyHz)} Hz the fundamental is ${fmt(t.fundamentalRatio)} × the rest of ` +
+				`the signal (needs ≥ ${MIN_FUNDAMENTAL_RATIO}) and cycle lengths vary by ${fmt(100 * t.periodSpread)} % ` +
+				`(needs ≤ ${100 * MAX_PERIOD_SPREAD} %). The record looks like noise or a non-periodic signal.`,
+		);
+	}
+	let crossings = Float64Array.from(t.crossings);
+	if (opts.maxCycles !== undefined && crossings.length - 1 > opts.maxCycles) crossings = crossings.slice(0, opts.maxCycles + 1);
+	const cycles = crossings.length - 1;
+	const startIndex = crossings[0];
+	const endIndex = crossings[cycles];
+	return { ok: true, startIndex, endIndex, cycles, frequencyHz: (cycles * sampleRateHz) / (endIndex - startIndex), crossings };
+}
+
+interface Track {
+	crossings: number[];
+	/** Pooled fundamental RMS / residual RMS over all fits. */
+	fundamentalRatio: number;
+	/** Coefficient of variation of the crossing-to-crossing intervals. */
+	periodSpread: number;
+}
+
+function trackCrossings(samples: Float64Array, periodSamples: number): Track {
+	const n = samples.length;
+	const last = n - 1;
+	let fundamentalSquares = 0;
+	let residualSquares = 0;
+	const fit = (expected: number) => {
+		const f = fitFundamental(samples, expected, periodSamples);
+		fundamentalSquares += (f.amplitude * f.amplitude) / 2;
+		residualSquares += f.residualRms * f.residualRms;
+		return f.crossingIndex;
+	};
+	// Anchor near the start (one period in), refit once so the anchor's own window is centred on it.
+	let anchor = fit(Math.min(periodSamples, last / 2));
+	anchor = fit(anchor);
+	const forward: number[] = [];
+	const backward: number[] = [];
+	let irregular = false;
+	for (let prev = anchor, guess = anchor + periodSamples; guess <= last + periodSamples / 2; guess = prev + periodSamples) {
+		const c = fit(guess);
+		if (!(c > prev + periodSamples / 2)) {
+			irregular = true;
+			break;
+		}
+		forward.push(c);
+		prev = c;
+	}
+	for (let prev = anchor, guess = anchor - periodSamples; guess >= -periodSamples / 2; guess = prev - periodSamples) {
+		const c = fit(guess);
+		if (!(c < prev - periodSamples / 2)) {
+			irregular = true;
+			break;
+		}
+		backward.push(c);
+		prev = c;
+	}
+	const all = [...backward.reverse(), anchor, ...forward].filter((c) => c >= 0 && c <= last);
+	let sum = 0;
+	let sumSquares = 0;
+	for (let i = 1; i < all.length; i++) {
+		const d = all[i] - all[i - 1];
+		sum += d;
+		sumSquares += d * d;
+	}
+	const k = all.length - 1;
+	const meanPeriod = sum / k;
+	const spread = k > 0 ? Math.sqrt(Math.max(0, sumSquares / k - meanPeriod * meanPeriod)) / meanPeriod : NaN;
+	return {
+		crossings: all,
+		fundamentalRatio: Math.sqrt(fundamentalSquares / Math.max(residualSquares, 1e-300)),
+		periodSpread: irregular ? Infinity : spread,
+	};
+}
+
+function checkParameters(
+	sampleRateHz: number,
+	opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number },
+): string | undefined {
+	if (!(Number.isFinite(sampleRateHz) && sampleRateHz > 0)) return `Sample rate must be a positive number of Hz, got ${sampleRateHz}.`;
+	if (opts.frequencyHz !== undefined && !(opts.frequencyHz > 0 && opts.frequencyHz < sampleRateHz / 2)) {
+		return `Frequency must lie between 0 and half the sample rate (${fmt(sampleRateHz / 2)} Hz), got ${opts.frequencyHz}.`;
+	}
+	if (opts.nominalHz !== undefined && !(opts.nominalHz > 0 && opts.nominalHz < sampleRateHz / 2)) {
+		return `Nominal frequency must lie between 0 and half the sample rate (${fmt(sampleRateHz / 2)} Hz), got ${opts.nominalHz}.`;
+	}
+	if (opts.maxCycles !== undefined && !(Number.isInteger(opts.maxCycles) && opts.maxCycles >= 1)) {
+		return `maxCycles must be a whole number ≥ 1, got ${opts.maxCycles}.`;
+	}
+	return undefined;
+}
+
+function tooShort(recordCycles: number, frequencyHz: number, wholeCycles?: number): SignalFailure {
+	const found =
+		wholeCycles === undefined ? '' : `, of which ${Math.max(0, wholeCycles)} whole between rising zero crossings`;
+	return fail(
+		'too-short',
+		`The record holds about ${fmt(recordCycles)} cycles of ${fmt(frequencyHz)} Hz${found}; at least two whole cycles are needed.`,
+	);
+}
+
+function fail(code: SignalFailure['code'], message: string): SignalFailure {
+	return { ok: false, code, message };
+}

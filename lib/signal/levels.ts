@@ -1,0 +1,201 @@
+import type { Diagnostic } from '../capture.js';
+import { findWholeCycles, type CycleWindow } from './cycles.js';
+import { signalWarnings } from './warnings.js';
+import { extremaIn, windowIntegral } from './window-integral.js';
+
+/**
+ * Scale factor of a sine-calibrated average-responding meter: K = π / (2√2) ≈ 1.110720735, the form
+ * factor of a sine. The meter shows K × rectified mean.
+ * Ref: REFERENCE §1.1 (instrument makers' notes, read); common practice.
+ */
+export const AVERAGE_RESPONDING_FACTOR = Math.PI / (2 * Math.SQRT2);
+
+/**
+ * What a sine-calibrated average-responding meter shows: K × rectified mean, K = π / (2√2).
+ *
+ * @param rectifiedMean  mean of |x − mean| (what an AC-coupled rectifier averages), same unit as samples
+ * @returns the reading, same unit; NaN for NaN input
+ * @example averageRespondingReading(2 * 325 / Math.PI) // 229.81 (a 325 V peak sine: reads its true RMS)
+ */
+export function averageRespondingReading(rectifiedMean: number): number {
+	return AVERAGE_RESPONDING_FACTOR * rectifiedMean;
+}
+
+/** Time-domain figures of one channel over whole cycles (or the whole record). Same unit as samples unless stated. */
+export interface WaveformFigures {
+	/** Arithmetic mean (the DC component). */
+	mean: number;
+	/** True RMS, AC + DC: √(mean of x²). */
+	rms: number;
+	/** RMS of x − mean: √(rms² − mean²). What an AC-coupled true-RMS meter shows. */
+	acRms: number;
+	/** Mean of |x − mean|: what an AC-coupled rectifier averages (equals mean |x| when there is no DC). */
+	rectifiedMean: number;
+	/** Highest sample value (max x). */
+	peak: number;
+	/** Lowest sample value (min x; negative for an AC signal). */
+	peakNegative: number;
+	/** peak − peakNegative. */
+	peakToPeak: number;
+	/** max(|peak|, |peakNegative|) / rms, ratio (rms = true RMS). √2 for a sine. */
+	crestFactor: number;
+	/** rms / rectifiedMean, ratio (rms = true RMS, as issue 2 states). π/(2√2) ≈ 1.1107 for a sine. */
+	formFactor: number;
+	/**
+	 * Sine-calibrated average-responding meter: reading = K × rectifiedMean (same unit);
+	 * errorPercent = 100 × (reading / rms − 1), against the true RMS (AC + DC);
+	 * errorPercentAc = 100 × (reading / acRms − 1), against the AC RMS (what an AC-coupled true-RMS meter shows).
+	 * The two agree when the mean is zero (mains signals); with DC, compare like with like using errorPercentAc.
+	 */
+	averageResponding: { reading: number; errorPercent: number; errorPercentAc: number };
+	/** What the figures cover. */
+	span: 'whole-cycles' | 'whole-record';
+	/** Window start, fractional sample index (0 for the whole record). */
+	startIndex: number;
+	/** Window end, fractional sample index (N − 1 for the whole record). */
+	endIndex: number;
+	/** Whole cycles covered; for the whole record N·f/fs when the frequency is known, else NaN. */
+	cycles: number;
+	/** Fallback notices plus `signalWarnings` for the record (few cycles, clipping, DC offset, frequency range…). */
+	warnings: Diagnostic[];
+}
+
+/**
+ * Mean, true RMS, AC RMS, rectified mean, peaks, crest and form factor and the average-responding
+ * meter reading of a record, over whole fundamental cycles by default.
+ *
+ *   mean = (1/T)∫x dt,  rms = √((1/T)∫x² dt),  acRms = √((1/T)∫(x − mean)² dt),
+ *   rectifiedMean = (1/T)∫|x − mean| dt,  crestFactor = max(|peak|, |peakNegative|)/rms,
+ *   formFactor = rms/rectifiedMean,  reading = π/(2√2) · rectifiedMean
+ *
+ * 'whole-cycles' (default): T runs from the first to the last rising zero crossing of the fundamental
+ * (`findWholeCycles`, or `opts.window`); each sample stands for the 1/fs centred on it and counts by the
+ * part of that inside the window (see `window-integral.ts`), so the fractional crossing positions are
+ * honoured and a record of 9.37 cycles gives the figures of its whole cycles; peaks come from the samples
+ * inside the window. When no fundamental is found, the whole record is used and a
+ * 'whole-record-fallback' warning says why. 'whole-record': plain sample means over all N samples.
+ *
+ * Empty record: every figure NaN, warning 'no-samples'. NaN or ±Infinity in the samples: every figure NaN
+ * (never a silent skip), warning 'non-finite-samples'.
+ *
+ * Ref: definitions REFERENCE §1.1 (true RMS, rectified average, form and crest factor; read);
+ * issue 2 (rectified mean about the DC, error against true RMS); IEC 61000-4-30 whole-cycle windows (from memory).
+ *
+ * @param samples  signal (V, A, …); not modified
+ * @param sampleRateHz  samples per second (RangeError if not positive)
+ * @param opts.span  'whole-cycles' (default) or 'whole-record'
+ * @param opts.window  whole cycles already found (e.g. on the voltage channel, reused for the current)
+ * @param opts.frequencyHz  known frequency for the cycle search
+ * @param opts.nominalHz  nominal frequency for the cycle search and range warning
+ * @param opts.maxOrder  highest harmonic order wanted, for the sample-rate warning
+ * @example waveformFigures(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 9.37 }), 10_000)
+ *   // { rms: 229.81, rectifiedMean: 206.90, formFactor: 1.1107, crestFactor: 1.4142, averageResponding: { errorPercent: 0 }, cycles: 9, … }
+ */
+export function waveformFigures(
+	samples: Float64Array,
+	sampleRateHz: number,
+	opts: {
+		span?: 'whole-cycles' | 'whole-record';
+		window?: CycleWindow;
+		frequencyHz?: number;
+		nominalHz?: number;
+		maxOrder?: number;
+	} = {},
+): WaveformFigures {
+	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
+	const n = samples.length;
+	const warnings: Diagnostic[] = [];
+	if (n === 0) {
+		warnings.push({ code: 'no-samples', message: 'The channel has no samples: no figures.', severity: 'warning' });
+		return nanFigures('whole-record', 0, -1, NaN, warnings);
+	}
+	let frequencyHz = opts.window?.frequencyHz ?? opts.frequencyHz;
+	let window = opts.window;
+	if (opts.span !== 'whole-record' && window === undefined) {
+		const found = findWholeCycles(samples, sampleRateHz, { frequencyHz: opts.frequencyHz, nominalHz: opts.nominalHz });
+		if (found.ok) {
+			window = found;
+			frequencyHz = found.frequencyHz;
+		} else if (found.code !== 'bad-parameter' || !hasNonFinite(samples)) {
+			warnings.push({
+				code: 'whole-record-fallback',
+				message: `Figures cover the whole record (${n} samples), not whole cycles: ${found.message} A partial cycle biases mean, RMS and rectified mean.`,
+				severity: 'warning',
+			});
+		}
+	}
+	if (window !== undefined && !(window.startIndex >= 0 && window.endIndex <= n - 1 && window.endIndex > window.startIndex)) {
+		throw new RangeError(`window ${window.startIndex}…${window.endIndex} does not lie inside the record's 0…${n - 1}`);
+	}
+	warnings.push(
+		...signalWarnings(samples, sampleRateHz, { frequencyHz, cycles: window?.cycles, nominalHz: opts.nominalHz, maxOrder: opts.maxOrder }),
+	);
+	const span = window ? 'whole-cycles' : 'whole-record';
+	const startIndex = window ? window.startIndex : 0;
+	const endIndex = window ? window.endIndex : n - 1;
+	const cycles = window ? window.cycles : frequencyHz !== undefined ? (n * frequencyHz) / sampleRateHz : NaN;
+	if (hasNonFinite(samples)) return nanFigures(span, startIndex, endIndex, cycles, warnings);
+
+	// Whole record: each sample weighs 1/N. Whole cycles: trapezoid over the fractional window.
+	const average = window
+		? (g: (x: number) => number) => windowIntegral(samples, startIndex, endIndex, g) / (endIndex - startIndex)
+		: (g: (x: number) => number) => {
+				let s = 0;
+				for (let i = 0; i < n; i++) s += g(samples[i]);
+				return s / n;
+			};
+	const mean = average((x) => x);
+	const rms = Math.sqrt(average((x) => x * x));
+	const acRms = Math.sqrt(average((x) => (x - mean) * (x - mean)));
+	const rectifiedMean = average((x) => Math.abs(x - mean));
+	const { max: peak, min: peakNegative } = extremaIn(samples, startIndex, endIndex);
+	const reading = averageRespondingReading(rectifiedMean);
+	return {
+		mean,
+		rms,
+		acRms,
+		rectifiedMean,
+		peak,
+		peakNegative,
+		peakToPeak: peak - peakNegative,
+		crestFactor: Math.max(Math.abs(peak), Math.abs(peakNegative)) / rms,
+		formFactor: rms / rectifiedMean,
+		averageResponding: { reading, errorPercent: 100 * (reading / rms - 1), errorPercentAc: 100 * (reading / acRms - 1) },
+		span,
+		startIndex,
+		endIndex,
+		cycles,
+		warnings,
+	};
+}
+
+function hasNonFinite(samples: Float64Array): boolean {
+	for (let i = 0; i < samples.length; i++) if (!Number.isFinite(samples[i])) return true;
+	return false;
+}
+
+function nanFigures(
+	span: WaveformFigures['span'],
+	startIndex: number,
+	endIndex: number,
+	cycles: number,
+	warnings: Diagnostic[],
+): WaveformFigures {
+	return {
+		mean: NaN,
+		rms: NaN,
+		acRms: NaN,
+		rectifiedMean: NaN,
+		peak: NaN,
+		peakNegative: NaN,
+		peakToPeak: NaN,
+		crestFactor: NaN,
+		formFactor: NaN,
+		averageResponding: { reading: NaN, errorPercent: NaN, errorPercentAc: NaN },
+		span,
+		startIndex,
+		endIndex,
+		cycles,
+		warnings,
+	};
+}

@@ -1,0 +1,180 @@
+import type { Diagnostic } from '../capture.js';
+import { fmt } from './format.js';
+
+/** IEC 61000-4-30 power-frequency measurement ranges, Hz (REFERENCE §3.3; from memory). */
+export const MAINS_FREQUENCY_RANGES_HZ = {
+	50: { lowHz: 42.5, highHz: 57.5 },
+	60: { lowHz: 51, highHz: 69 },
+} as const;
+
+/** Records shorter than this many cycles get a 'few-cycles' warning (IEC 61000-4-30 10-cycle basic interval). */
+export const MIN_RECOMMENDED_CYCLES = 10;
+
+/** DC offsets above this fraction of the AC RMS get a 'dc-offset' warning (common practice: a few %). */
+export const DC_OFFSET_WARNING_RATIO = 0.05;
+
+/**
+ * The warnings a careful engineer raises about a record before trusting its figures. Each is a
+ * `Diagnostic` with severity 'warning', a kebab-case code and a sentence with the numbers in it:
+ *
+ * - 'non-finite-samples': NaN or ±Infinity present (the other data checks are then skipped);
+ * - 'few-cycles': the record holds fewer than 10 cycles of `frequencyHz` (IEC 61000-4-30 basic interval);
+ * - 'sample-rate-low-for-harmonics': fs ≤ 2·maxOrder·f1 (Nyquist), naming the highest measurable order
+ *   ⌈fs / (2 f1)⌉ − 1;
+ * - 'sample-rate-low-for-accuracy': the sampled peak of a sine may read low by up to 1 − cos(π f1/fs),
+ *   more than `peakAccuracyPercent` (the rate needed is given);
+ * - 'clipping': runs of equal samples at the record's highest or lowest value, longer than a sine of that
+ *   amplitude would show at this quantisation step and rate (a square wave or a stepped inverter output
+ *   triggers it too: judge from the plot);
+ * - 'dc-offset': |mean| above 5 % of the AC RMS (whole record);
+ * - 'frequency-out-of-range': f1 outside 42.5–57.5 Hz (50 Hz systems) or 51–69 Hz (60 Hz systems), the
+ *   IEC 61000-4-30 measurement ranges; without `nominalHz`, outside both.
+ *
+ * Ref: IEC 61000-4-30:2015 5.1 (frequency range) and 4.4 (10/12-cycle interval) (from memory);
+ * Nyquist–Shannon sampling theorem; clipping and DC-offset thresholds are common practice.
+ *
+ * @param samples  the record, any unit (messages quote values in that unit)
+ * @param sampleRateHz  samples per second; must be positive (RangeError otherwise)
+ * @param info.frequencyHz  measured fundamental, Hz (frequency checks are skipped without it)
+ * @param info.cycles  whole cycles analysed, quoted in the 'few-cycles' message
+ * @param info.maxOrder  highest harmonic order the user asked for
+ * @param info.nominalHz  nominal system frequency (50 or 60 select the range; others skip the range check)
+ * @param info.peakAccuracyPercent  accuracy wanted on peak values, %
+ * @returns warnings, possibly none
+ * @example signalWarnings(sine 230 V 50 Hz at 1 kS/s for 0.1 s, 1000, { frequencyHz: 50, maxOrder: 40 })
+ *   // [{ code: 'few-cycles', … }, { code: 'sample-rate-low-for-harmonics', message: '… highest order measurable is 9.' }]
+ */
+export function signalWarnings(
+	samples: Float64Array,
+	sampleRateHz: number,
+	info: { frequencyHz?: number; cycles?: number; maxOrder?: number; nominalHz?: number; peakAccuracyPercent?: number },
+): Diagnostic[] {
+	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
+	const out: Diagnostic[] = [];
+	const warn = (code: string, message: string) => out.push({ code, message, severity: 'warning' });
+	const n = samples.length;
+	const f = info.frequencyHz !== undefined && info.frequencyHz > 0 && Number.isFinite(info.frequencyHz) ? info.frequencyHz : undefined;
+
+	let bad = -1;
+	let badCount = 0;
+	for (let i = 0; i < n; i++) {
+		if (!Number.isFinite(samples[i])) {
+			if (bad < 0) bad = i;
+			badCount++;
+		}
+	}
+	if (bad >= 0) {
+		warn('non-finite-samples', `${badCount} sample(s) are not numbers (first at index ${bad}, value ${samples[bad]}); figures that include them are NaN.`);
+	}
+
+	if (f !== undefined && n > 0) {
+		const recordCycles = (n * f) / sampleRateHz;
+		if (recordCycles < MIN_RECOMMENDED_CYCLES - 1e-3) {
+			const analysed = info.cycles !== undefined ? `, ${info.cycles} whole cycle(s) analysed` : '';
+			warn(
+				'few-cycles',
+				`The record holds only ${fmt(recordCycles)} cycles (${fmt((1000 * n) / sampleRateHz)} ms at ${fmt(f)} Hz${analysed}); ` +
+					`IEC 61000-4-30 basic values use 10 cycles at 50 Hz or 12 at 60 Hz, so these figures may vary more between captures.`,
+			);
+		}
+	}
+	if (f !== undefined && info.maxOrder !== undefined && info.maxOrder >= 1 && sampleRateHz <= 2 * info.maxOrder * f) {
+		const highest = Math.ceil(sampleRateHz / (2 * f)) - 1;
+		warn(
+			'sample-rate-low-for-harmonics',
+			`Sample rate ${fmt(sampleRateHz)} Hz is too low for harmonics up to order ${info.maxOrder} of ${fmt(f)} Hz: ` +
+				`it must exceed ${fmt(2 * info.maxOrder * f)} Hz (Nyquist); the highest order measurable is ${highest}.`,
+		);
+	}
+	if (f !== undefined && info.peakAccuracyPercent !== undefined && info.peakAccuracyPercent > 0) {
+		const worstPercent = 100 * (1 - Math.cos((Math.PI * f) / sampleRateHz));
+		if (worstPercent > info.peakAccuracyPercent) {
+			const neededHz = (Math.PI * f) / Math.acos(1 - info.peakAccuracyPercent / 100);
+			warn(
+				'sample-rate-low-for-accuracy',
+				`At ${fmt(sampleRateHz)} Hz (${fmt(sampleRateHz / f)} samples per cycle) a sampled peak can read up to ${fmt(worstPercent)} % low, ` +
+					`more than the ${fmt(info.peakAccuracyPercent)} % asked; that needs at least ${fmt(neededHz)} Hz.`,
+			);
+		}
+	}
+	if (bad < 0 && n > 0) {
+		const clip = clippingWarning(samples, f === undefined ? undefined : sampleRateHz / f);
+		if (clip) warn('clipping', clip);
+		const dc = dcOffsetWarning(samples);
+		if (dc) warn('dc-offset', dc);
+	}
+	if (f !== undefined) {
+		const range =
+			info.nominalHz === 50 ? [MAINS_FREQUENCY_RANGES_HZ[50]] : info.nominalHz === 60 ? [MAINS_FREQUENCY_RANGES_HZ[60]]
+			: info.nominalHz === undefined ? [MAINS_FREQUENCY_RANGES_HZ[50], MAINS_FREQUENCY_RANGES_HZ[60]] : [];
+		if (range.length > 0 && !range.some((r) => f >= r.lowHz && f <= r.highHz)) {
+			const which = range.map((r) => `${r.lowHz}–${r.highHz} Hz`).join(' or ');
+			warn(
+				'frequency-out-of-range',
+				`Frequency ${fmt(f)} Hz is outside the mains measurement range ${which} (IEC 61000-4-30): check the sample rate ` +
+					`stated in the file, or this is not a ${info.nominalHz ?? '50/60'} Hz mains signal.`,
+			);
+		}
+	}
+	return out;
+}
+
+function clippingWarning(samples: Float64Array, periodSamples: number | undefined): string | undefined {
+	const n = samples.length;
+	let max = -Infinity;
+	let min = Infinity;
+	let step = Infinity; // quantisation step: smallest non-zero change between neighbours
+	for (let i = 0; i < n; i++) {
+		const x = samples[i];
+		if (x > max) max = x;
+		if (x < min) min = x;
+		if (i > 0) {
+			const d = Math.abs(x - samples[i - 1]);
+			if (d > 0 && d < step) step = d;
+		}
+	}
+	if (!(max > min)) return undefined;
+	// A sine of this amplitude stays within one step of its crest for 2·acos(1 − q/a) rad.
+	const amplitude = (max - min) / 2;
+	const crestRad = 2 * Math.acos(Math.max(-1, 1 - Math.min(step, 2 * amplitude) / amplitude));
+	const natural = periodSamples === undefined ? 1 : Math.floor((crestRad / (2 * Math.PI)) * periodSamples) + 1;
+	const minRun = Math.max(3, 2 * natural + 1);
+	let runs = 0;
+	let longest = 0;
+	let shortest = Infinity;
+	// A signal resting at exactly zero (a rectifier or a switched load that is off) is not clipped.
+	for (const level of [max, min].filter((v) => v !== 0)) {
+		let run = 0;
+		for (let i = 0; i <= n; i++) {
+			if (i < n && samples[i] === level) run++;
+			else {
+				if (run >= minRun) {
+					runs++;
+					longest = Math.max(longest, run);
+					shortest = Math.min(shortest, run);
+				}
+				run = 0;
+			}
+		}
+	}
+	if (runs === 0) return undefined;
+	return (
+		`Possible clipping: ${runs} flat run(s) of ${shortest === longest ? longest : `${shortest} to ${longest}`} equal samples at the extreme values ${fmt(max)} / ${fmt(min)}; ` +
+		`an overdriven input or a range set too low cuts the peaks, so peak, RMS and harmonics read wrong. Check the recorder's range.`
+	);
+}
+
+function dcOffsetWarning(samples: Float64Array): string | undefined {
+	const n = samples.length;
+	let mean = 0;
+	for (let i = 0; i < n; i++) mean += samples[i];
+	mean /= n;
+	let acSquares = 0;
+	for (let i = 0; i < n; i++) acSquares += (samples[i] - mean) ** 2;
+	const acRms = Math.sqrt(acSquares / n);
+	if (!(acRms > 0) || Math.abs(mean) <= DC_OFFSET_WARNING_RATIO * acRms) return undefined;
+	return (
+		`DC offset of ${fmt(mean)} is ${fmt((100 * Math.abs(mean)) / acRms)} % of the AC RMS (${fmt(acRms)}): check the probe or clamp zero ` +
+		`and the coupling; true RMS includes it, AC RMS does not.`
+	);
+}
