@@ -207,6 +207,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const sink: CrossingSink = {
 		halfCycle(ch, start, _endT, rms) {
 			records.push({ start, ch: vIndex[ch], rms });
+			opts.onHalfCycle?.(ch, start / fs, rms);
 		},
 		rising(ch, index, t, forced) {
 			if (ch === ref) onRising(index, t, forced);
@@ -344,7 +345,8 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				nominalHz = 50;
 				diagnostics.push({ code: 'nominal-frequency-unknown', severity: 'warning', message: 'Too few zero crossings to tell 50 from 60 Hz; 50 Hz assumed.' });
 			}
-			if (fCount > 0 || abs > fStart) closeFrequency(Math.max(abs, fStart), false);
+			while (abs >= fStart + freqLen) closeFrequency(fStart + freqLen, true);
+			if (abs > fStart) closeFrequency(abs, false);
 			if (seq >= ws && seq - ws > 0) diagnostics.push({ code: 'last-window-partial', severity: 'info', message: `The last ${seq - ws} cycle(s) do not fill a ${cyclesPerWindow}-cycle window and are left out of the aggregates.` });
 			afterBlock(true);
 			emitGroupRows(g150.size === 15, false);

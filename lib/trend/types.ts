@@ -48,6 +48,11 @@ export interface TrendOptions {
 	inferenceS?: number;
 	/** Called with every aggregate row once final (its event flag known), in time order per interval kind. */
 	onRow?: (row: TrendRow) => void;
+	/**
+	 * Called with every Urms(1/2) value of every voltage channel as it is measured (channel index in the
+	 * options' order; window start in s; value in V). For plots of a short stretch or for checks.
+	 */
+	onHalfCycle?: (channel: number, startS: number, rmsV: number) => void;
 	/** Which rows the result keeps (memory grows with length only through these). Default: all kept. */
 	keep?: { cycles10?: boolean; cycles150?: boolean; min10?: boolean };
 	/** THD per 10/12-cycle window; when absent THD is NaN. */
