@@ -1,0 +1,74 @@
+/**
+ * Scanned columns + layout -> Capture: the time base, channels in V and A with their scaling applied,
+ * and every detection, assumption and warning as a Diagnostic.
+ */
+import type { Capture, Channel, Diagnostic } from '../../capture.js';
+import { ImportError } from '../import-error.js';
+import { setUpChannel } from './channel-setup.js';
+import type { RowScanner } from './scan-rows.js';
+import { secondsPerUnit } from './time-column.js';
+import { timeBaseFromColumn, type TimeBase } from './timebase.js';
+import type { CsvLayout, CsvOptions } from './types.js';
+
+export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: string, options: CsvOptions, extra: Diagnostic[]): Capture {
+	const cols = scanner.result();
+	const n = scanner.rows;
+	const diagnostics: Diagnostic[] = [...extra, ...layout.diagnostics];
+	if (n === 0) throw new ImportError(source, layout.bodyLine, 0, 'no-data', '', 'at least one row of numbers');
+	if (scanner.blankLines > 0)
+		diagnostics.push({ code: 'blank-lines', severity: 'info', line: scanner.firstBlankLine, message: `${scanner.blankLines} blank line(s) among the data were skipped, the first at line ${scanner.firstBlankLine}.` });
+	if (scanner.nonFinite > 0)
+		diagnostics.push({ code: 'non-finite-values', severity: 'warning', line: scanner.firstNonFiniteLine, message: `${scanner.nonFinite} cell(s) hold NaN or Infinity, the first at line ${scanner.firstNonFiniteLine}; they are kept as such.` });
+
+	let tb: TimeBase;
+	const stated = layout.statedSampleRateHz;
+	if (layout.timeColumn !== null) {
+		const t = cols[layout.timeColumn];
+		const f = layout.timeUnit === 'index' ? 1 / stated! : secondsPerUnit(layout.timeUnit as 's');
+		if (f !== 1) for (let i = 0; i < n; i++) t[i] *= f;
+		const col = layout.columns[layout.timeColumn];
+		tb = timeBaseFromColumn(t, {
+			name: col.header || col.name,
+			bodyLine: layout.bodyLine,
+			rowsAreLines: scanner.blankLines === 0,
+			jitterTolerance: options.jitterTolerance ?? 0.1,
+			statedSampleRateHz: stated,
+			repeatedTimes: scanner.repeatedTimes,
+			firstRepeatLine: scanner.firstRepeatLine,
+		});
+		if (!(tb.sampleRateHz > 0))
+			throw new ImportError(source, layout.bodyLine, layout.timeColumn + 1, 'no-time-base', '', 'at least two rows with different times, or a stated sample rate');
+	} else {
+		tb = { sampleRateHz: stated!, startS: 0, diagnostics: [] };
+	}
+	diagnostics.push(...tb.diagnostics);
+	if (layout.decimation && !diagnostics.some((d) => d.code === 'decimated'))
+		diagnostics.push({ code: 'decimated', severity: 'warning', message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.` });
+
+	const channels: Channel[] = [];
+	const seen = new Set<string>();
+	for (const col of layout.columns) {
+		if (col.role !== 'channel') continue;
+		const s = setUpChannel(col, layout, options);
+		diagnostics.push(...s.diagnostics);
+		const samples = cols[col.index];
+		// A pure power-of-ten division (mV, mA) divides, so 3.25 mA gives the double nearest 0.00325 A.
+		const divisor = 1 / s.factor;
+		if (s.offset === 0 && Number.isInteger(divisor) && 1 / divisor === s.factor) for (let i = 0; i < n; i++) samples[i] /= divisor;
+		else if (s.factor !== 1 || s.offset !== 0) for (let i = 0; i < n; i++) samples[i] = s.factor * samples[i] + s.offset;
+		let name = s.name;
+		for (let k = 2; seen.has(name); k++) name = `${s.name} (${k})`;
+		if (name !== s.name) diagnostics.push({ code: 'duplicate-name', severity: 'warning', column: col.index + 1, message: `Two columns are named "${s.name}"; column ${col.index + 1} was renamed "${name}".` });
+		seen.add(name);
+		const ch: Channel = { name, unit: s.unit, quantity: s.quantity, samples };
+		if (s.phase !== undefined) ch.phase = s.phase;
+		if (s.description) ch.scaling = { factor: s.factor, offset: s.offset, description: s.description };
+		channels.push(ch);
+	}
+	if (channels.length === 0) throw new ImportError(source, layout.headerLine ?? layout.bodyLine, 0, 'no-data', '', 'at least one data column besides the time column');
+	const capture: Capture = { source, sampleRateHz: tb.sampleRateHz, startS: tb.startS, channels, metadata: layout.metadata, diagnostics };
+	if (tb.timeS) capture.timeS = tb.timeS;
+	if (layout.startTime) capture.startTime = layout.startTime;
+	if (layout.nominalFrequencyHz) capture.nominalFrequencyHz = layout.nominalFrequencyHz;
+	return capture;
+}

@@ -1,0 +1,205 @@
+/**
+ * Layout detection on the head of a CSV file: line break, delimiter and decimal mark (scored together,
+ * so `0,707;-3,25` reads as semicolon + decimal comma), the first data row, header and units row,
+ * preamble, trailing empty columns, and the time column. Every finding becomes a Diagnostic; every
+ * finding can be overridden through CsvOptions.
+ */
+import type { Diagnostic } from '../../capture.js';
+import { ImportError } from '../import-error.js';
+import { isNumberCell, splitCells, trimTrailingEmpty } from './cells.js';
+import { readPreamble } from './preamble.js';
+import { chooseTimeColumn } from './time-column.js';
+import type { CsvColumnLayout, CsvLayout, CsvOptions } from './types.js';
+import { looksLikeUnitsRow, splitNameUnit } from './units.js';
+
+type Delimiter = CsvLayout['delimiter'];
+type Mark = CsvLayout['decimalMark'];
+
+const CANDIDATES: [Delimiter, Mark][] = [
+	[',', '.'], [';', '.'], [';', ','], ['\t', '.'], ['\t', ','], [' ', '.'], [' ', ','], [',', ','],
+];
+const NAMES: Record<Delimiter, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', ' ': 'spaces' };
+const MAX_LINES = 2000;
+
+/**
+ * Detects the layout of a CSV file from its head (the first few tens of kB, as text).
+ *
+ * @param head       start of the file as text (a UTF-8 BOM is recognised and skipped)
+ * @param options    user overrides; each replaces the matching detection
+ * @param wholeFile  true when `head` is the whole file (its last line is then complete)
+ * @returns the layout, with a Diagnostic for everything detected or assumed
+ * @throws ImportError 'empty-file' for no text, 'no-data' when no row of numbers is found,
+ *         'bad-option' when an override points outside the file, 'no-time-base' when neither a time
+ *         column nor a sample rate is available
+ * @example detectCsvLayout('Time (ms);U1 (V)\r\n0,0;0,707\r\n0,1;-3,25\r\n').decimalMark // ','
+ */
+export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFile = false, source = '<input>'): CsvLayout {
+	const diagnostics: Diagnostic[] = [];
+	const bom = head.charCodeAt(0) === 0xfeff;
+	const text = bom ? head.slice(1) : head;
+	if (text.trim() === '') throw new ImportError(source, 1, 0, 'empty-file', '', 'rows of numbers (the file holds no text)');
+	const crlf = count(text, '\r\n');
+	const lf = count(text, '\n') - crlf;
+	const cr = count(text, '\r') - crlf;
+	const lineBreak: CsvLayout['lineBreak'] = cr > 0 && lf === 0 && crlf === 0 ? '\r' : crlf > 0 && crlf >= lf ? '\r\n' : '\n';
+	const eol = lineBreak === '\r' ? '\r' : '\n';
+	let lines = text.split(eol, MAX_LINES + 1);
+	const complete = wholeFile && lines.length <= MAX_LINES;
+	if (lines.length > MAX_LINES || (!complete && !text.endsWith(eol) && lines.length > 1)) lines.pop();
+	if (lines.length > 0 && lines[lines.length - 1] === '' && text.endsWith(eol)) lines.pop();
+	lines = lines.map((l) => (l.endsWith('\r') ? l.slice(0, -1) : l));
+	if (bom) diagnostics.push(info('utf8-bom', 'The file starts with a UTF-8 byte order mark; it was skipped.'));
+	if (lineBreak !== '\n') diagnostics.push(info('line-break', `Lines end with ${lineBreak === '\r\n' ? 'CR LF (Windows)' : 'CR alone (old Mac)'}.`));
+
+	// Delimiter and decimal mark, scored together on the rows that are all numbers.
+	let best: { d: Delimiter; mark: Mark; k: number; rows: number } | null = null;
+	for (const [d, mark] of CANDIDATES) {
+		if (options.delimiter !== undefined && options.delimiter !== d) continue;
+		if (options.decimalMark !== undefined && options.decimalMark !== mark) continue;
+		const widths = new Map<number, number>();
+		for (const line of lines) {
+			const { cells } = trimTrailingEmpty(splitCells(line, d));
+			if (cells.length > 0 && cells.every((c) => isNumberCell(c, mark))) widths.set(cells.length, (widths.get(cells.length) ?? 0) + 1);
+		}
+		for (const [k, rows] of widths) if (!best || rows > best.rows || (rows === best.rows && k > best.k)) best = { d, mark, k, rows };
+	}
+	if (!best) {
+		const lastIdx = lastNonBlank(lines);
+		throw new ImportError(source, lastIdx + 1, 0, 'no-data', lines[lastIdx] ?? '', 'rows of numbers separated by commas, semicolons, tabs or spaces');
+	}
+	const { d: delimiter, mark: decimalMark, k: columnCount } = best;
+	const split = (line: string) => splitCells(line, delimiter);
+	const numericRow = (i: number) => {
+		const { cells } = trimTrailingEmpty(split(lines[i]));
+		return cells.length === columnCount && cells.every((c) => isNumberCell(c, decimalMark));
+	};
+	diagnostics.push(info('delimiter', `Columns are separated by ${NAMES[delimiter]}${options.delimiter ? ' (as set)' : ''}.`));
+	const sawComma = decimalMark === ',' && lines.some((l) => /\d,\d/.test(l));
+	diagnostics.push(info(decimalMark === ',' ? 'decimal-comma' : 'decimal-point', decimalMark === ',' ? `Numbers use a decimal comma (0,5 = one half)${sawComma ? '' : ' as set'}.` : 'Numbers use a decimal point.'));
+
+	// Header, units row and the first data row.
+	let headerIdx: number | null = null;
+	let unitsIdx: number | null = null;
+	let bodyIdx: number;
+	if (typeof options.headerRow === 'number') {
+		if (!Number.isInteger(options.headerRow) || options.headerRow < 1 || options.headerRow > lines.length)
+			throw new ImportError(source, 0, 0, 'bad-option', String(options.headerRow), `a header line between 1 and ${lines.length}`);
+		headerIdx = options.headerRow - 1;
+		if (options.unitsRow === true) unitsIdx = headerIdx + 1;
+		const from = (unitsIdx ?? headerIdx) + 1;
+		bodyIdx = firstIndex(lines.length, from, numericRow);
+		if (options.unitsRow === undefined && bodyIdx === headerIdx + 2 && looksLikeUnitsRow(split(lines[headerIdx + 1]))) unitsIdx = headerIdx + 1;
+	} else {
+		bodyIdx = firstIndex(lines.length, 0, (i) => numericRow(i) && (i + 1 >= lines.length || numericRow(i + 1) || lines[i + 1].trim() === ''));
+		if (bodyIdx < 0) bodyIdx = firstIndex(lines.length, 0, numericRow);
+		if (options.headerRow !== 'none') {
+			const above = previousNonBlank(lines, bodyIdx);
+			if (above >= 0 && isTextRow(split(lines[above]), columnCount, decimalMark)) {
+				headerIdx = above;
+				const above2 = previousNonBlank(lines, above);
+				const unitsLike = looksLikeUnitsRow(split(lines[above]));
+				if (options.unitsRow !== false && above2 >= 0 && (options.unitsRow === true || unitsLike) && isTextRow(split(lines[above2]), columnCount, decimalMark)) {
+					unitsIdx = above;
+					headerIdx = above2;
+				}
+			}
+		}
+	}
+	if (bodyIdx < 0) throw new ImportError(source, lines.length, 0, 'no-data', '', 'rows of numbers below the header');
+	const preambleEnd = headerIdx ?? bodyIdx;
+	const facts = readPreamble(lines.slice(0, preambleEnd), 1, split, delimiter, decimalMark);
+	diagnostics.push(...facts.diagnostics);
+	if (Object.keys(facts.metadata).length > 0)
+		diagnostics.push(info('preamble', `Lines 1-${preambleEnd} are a preamble of ${Object.keys(facts.metadata).length} entries, kept as metadata.`, 1));
+
+	// Columns: names and units from the header (and units row), trailing empty columns.
+	const headerCells = headerIdx === null ? [] : split(lines[headerIdx]);
+	const unitCells = unitsIdx === null ? [] : split(lines[unitsIdx]);
+	let trailingEmptyColumns = 0;
+	let quoted = false;
+	const preview: string[][] = [];
+	for (let i = bodyIdx; i < lines.length; i++) {
+		if (lines[i].includes('"')) quoted = true;
+		const cells = split(lines[i]);
+		const t = trimTrailingEmpty(cells);
+		trailingEmptyColumns = Math.max(trailingEmptyColumns, t.dropped);
+		if (preview.length < 2000 && t.cells.length > 0) preview.push(t.cells.map((c) => c.trim()));
+	}
+	if (headerIdx !== null && lines[headerIdx].includes('"')) quoted = true;
+	if (quoted) diagnostics.push(info('quoted-fields', 'Some fields are in double quotes; the quotes were removed.'));
+	if (trailingEmptyColumns > 0)
+		diagnostics.push(info('trailing-empty-columns', `Data rows end with ${trailingEmptyColumns} empty column(s) (a delimiter at line end); ignored.`));
+	const columns: CsvColumnLayout[] = [];
+	for (let c = 0; c < columnCount; c++) {
+		const header = (headerCells[c] ?? '').trim();
+		const nu = header === '' ? { name: `col${c + 1}`, unitText: '' } : splitNameUnit(header);
+		const unitText = (unitCells[c] ?? '').trim().replace(/^[([{]\s*|\s*[)\]}]$/g, '') || nu.unitText;
+		columns.push({ index: c, header, name: nu.name, unitText, role: 'channel' });
+	}
+	if (headerIdx !== null) {
+		diagnostics.push(info('header', `Line ${headerIdx + 1} holds the channel names${unitsIdx !== null ? `, line ${unitsIdx + 1} their units` : ''}.`, headerIdx + 1));
+		const extra = trimTrailingEmpty(headerCells).cells.length - columnCount;
+		if (extra > 0) diagnostics.push({ code: 'header-longer', severity: 'warning', line: headerIdx + 1, message: `The header names ${extra} more column(s) than the data rows hold; those names were ignored.` });
+	} else {
+		diagnostics.push({ code: 'no-header', severity: 'assumption', line: bodyIdx + 1, message: `No header line: columns are named col1..col${columnCount}.` });
+	}
+	const layout: CsvLayout = {
+		delimiter, decimalMark, lineBreak, bom, quoted,
+		headerLine: headerIdx === null ? null : headerIdx + 1,
+		unitsLine: unitsIdx === null ? null : unitsIdx + 1,
+		bodyLine: bodyIdx + 1,
+		columnCount, trailingEmptyColumns, columns,
+		timeColumn: null, timeUnit: null,
+		metadata: facts.metadata,
+		statedSampleRateHz: options.sampleRateHz ?? facts.sampleRateHz,
+		startTime: facts.startTime,
+		nominalFrequencyHz: facts.nominalFrequencyHz,
+		preambleChannels: facts.channels,
+		preambleAll: facts.all,
+		decimation: facts.decimation,
+		preview: preview.slice(0, 20),
+		bytesPerRow: bytesPerRow(lines, bodyIdx, lineBreak.length),
+		diagnostics,
+	};
+	chooseTimeColumn(layout, preview, options, facts.timeUnit, source);
+	return layout;
+}
+
+function info(code: string, message: string, line?: number): Diagnostic {
+	return line === undefined ? { code, message, severity: 'info' } : { code, message, severity: 'info', line };
+}
+
+function count(text: string, s: string): number {
+	let n = 0;
+	for (let i = text.indexOf(s); i >= 0; i = text.indexOf(s, i + s.length)) n++;
+	return n;
+}
+
+function firstIndex(n: number, from: number, pred: (i: number) => boolean): number {
+	for (let i = from; i < n; i++) if (pred(i)) return i;
+	return -1;
+}
+
+function previousNonBlank(lines: string[], i: number): number {
+	for (let j = i - 1; j >= 0; j--) if (lines[j].trim() !== '') return j;
+	return -1;
+}
+
+function lastNonBlank(lines: string[]): number {
+	for (let j = lines.length - 1; j >= 0; j--) if (lines[j].trim() !== '') return j;
+	return 0;
+}
+
+/** A header or units row: no number in it, and as many cells as the data (extra trailing names allowed). */
+function isTextRow(cells: string[], columnCount: number, mark: Mark): boolean {
+	const t = trimTrailingEmpty(cells).cells;
+	if (t.length < Math.min(columnCount, 2) || t.length < columnCount - 1) return false;
+	return t.every((c) => c.trim() === '' || !isNumberCell(c, mark));
+}
+
+function bytesPerRow(lines: string[], bodyIdx: number, eolBytes: number): number {
+	let bytes = 0;
+	let rows = 0;
+	for (let i = bodyIdx; i < lines.length; i++, rows++) bytes += lines[i].length + eolBytes;
+	return rows > 0 ? bytes / rows : 64;
+}

@@ -1,0 +1,193 @@
+/**
+ * Streaming CSV reader: feed the file in chunks (a CLI read stream, a browser File sliced), get a
+ * Capture at the end. Layout detection runs on the first 64 KiB; after that the bytes go straight to the
+ * row scanner, so the text of the file is never held whole.
+ */
+import type { Capture, Diagnostic } from '../../capture.js';
+import { ImportError } from '../import-error.js';
+import { assembleCapture } from './assemble.js';
+import { detectCsvLayout } from './detect.js';
+import { RowScanner } from './scan-rows.js';
+import type { CsvLayout, CsvOptions, CsvStreamOptions } from './types.js';
+
+const HEAD_BYTES = 64 * 1024;
+const HEAD_MAX_BYTES = 4 * 1024 * 1024;
+
+/**
+ * Reads a CSV recording pushed in chunks.
+ *
+ * @example
+ * const reader = new CsvStreamReader('feeder.csv', {}, { totalBytes: file.size, onProgress });
+ * for await (const chunk of stream) reader.push(chunk);
+ * const capture = reader.finish();
+ */
+export class CsvStreamReader {
+	private head = new Uint8Array(HEAD_BYTES);
+	private headLen = 0;
+	private detectAt = HEAD_BYTES;
+	private scanner: RowScanner | null = null;
+	private carry = new Uint8Array(4096);
+	private carryLen = 0;
+	private eol = 10;
+	private bytesDone = 0;
+	private transcode: InstanceType<typeof TextDecoder> | null = null;
+	private readonly notes: Diagnostic[] = [];
+	private detected: CsvLayout | null = null;
+	private finished = false;
+
+	constructor(
+		readonly source: string,
+		private readonly options: CsvOptions = {},
+		private readonly stream: CsvStreamOptions = {},
+	) {}
+
+	/** The layout detected from the head, once enough bytes have arrived (null before). */
+	get layout(): CsvLayout | null {
+		return this.detected;
+	}
+
+	/** Takes the next chunk. The chunk may be reused by the caller afterwards (nothing keeps a reference). */
+	push(chunk: Uint8Array): void {
+		if (this.finished) throw new Error('CsvStreamReader: push() after finish()');
+		this.bytesDone += chunk.length;
+		let bytes = chunk;
+		if (this.transcode) bytes = new TextEncoder().encode(this.transcode.decode(chunk, { stream: true }));
+		if (this.scanner) this.feed(bytes);
+		else {
+			this.appendHead(bytes);
+			if (this.headLen >= this.detectAt) this.tryStart();
+		}
+		this.stream.onProgress?.(this.bytesDone, this.stream.totalBytes ?? 0);
+	}
+
+	/** Ends the input and returns the capture; throws ImportError for anything it cannot read. */
+	finish(): Capture {
+		if (this.finished) throw new Error('CsvStreamReader: finish() called twice');
+		this.finished = true;
+		if (!this.scanner) this.start(true);
+		if (this.transcode) this.feed(new TextEncoder().encode(this.transcode.decode()));
+		if (this.carryLen > 0) {
+			this.appendCarry(new Uint8Array([this.eol]));
+			this.scanner!.scan(this.carry, 0, this.carryLen);
+			this.carryLen = 0;
+		}
+		return assembleCapture(this.detected!, this.scanner!, this.source, this.options, this.notes);
+	}
+
+	private tryStart(): void {
+		try {
+			this.start(false);
+		} catch (e) {
+			if (e instanceof ImportError && e.code === 'no-data' && this.headLen < HEAD_MAX_BYTES) this.detectAt = this.headLen * 2;
+			else throw e;
+		}
+	}
+
+	private start(wholeFile: boolean): void {
+		let head = this.head.subarray(0, this.headLen);
+		if (head.length === 0) throw new ImportError(this.source, 1, 0, 'empty-file', '', 'rows of numbers (the file is empty)');
+		if ((head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff)) {
+			this.transcode = new TextDecoder(head[0] === 0xff ? 'utf-16le' : 'utf-16be');
+			head = new TextEncoder().encode(this.transcode.decode(head, { stream: !wholeFile }));
+			this.notes.push({ code: 'utf16', severity: 'info', message: 'The file is UTF-16 text; it was read as such.' });
+			this.head = head;
+			this.headLen = head.length;
+		}
+		checkNotBinary(head, this.source);
+		const bom = head[0] === 0xef && head[1] === 0xbb && head[2] === 0xbf;
+		let textEnd = head.length;
+		if (!wholeFile) {
+			const lastLf = Math.max(head.lastIndexOf(10), head.lastIndexOf(13));
+			if (lastLf > 0) textEnd = lastLf + 1;
+		}
+		let text: string;
+		let encoding = 'utf-8';
+		try {
+			text = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true }).decode(head.subarray(0, textEnd));
+		} catch {
+			encoding = 'windows-1252';
+			text = new TextDecoder(encoding).decode(head.subarray(0, textEnd));
+			this.notes.push({ code: 'encoding', severity: 'assumption', message: 'The file is not valid UTF-8; its text was read as Windows-1252 (Latin-1).' });
+		}
+		const layout = detectCsvLayout(text, this.options, wholeFile, this.source);
+		this.detected = layout;
+		this.eol = layout.lineBreak === '\r' ? 13 : 10;
+		const total = this.stream.totalBytes;
+		const capacityRows = total && total > 0 ? (total / Math.max(4, layout.bytesPerRow)) * 1.1 + 1024 : 65536;
+		this.scanner = new RowScanner(
+			{
+				delimiter: layout.delimiter,
+				decimalMark: layout.decimalMark,
+				lineBreak: layout.lineBreak,
+				columnCount: layout.columnCount,
+				bodyLine: layout.bodyLine,
+				timeColumn: layout.timeColumn ?? -1,
+				capacityRows,
+			},
+			this.source,
+			encoding,
+		);
+		// The BOM belongs to line 1 but is not part of its first field.
+		this.feed(head.subarray(bom ? 3 : 0));
+		this.head = new Uint8Array(0);
+	}
+
+	private feed(chunk: Uint8Array): void {
+		const eol = this.eol;
+		let start = 0;
+		if (this.carryLen > 0) {
+			const i = chunk.indexOf(eol);
+			if (i < 0) {
+				this.appendCarry(chunk);
+				return;
+			}
+			this.appendCarry(chunk.subarray(0, i + 1));
+			this.scanner!.scan(this.carry, 0, this.carryLen);
+			this.carryLen = 0;
+			start = i + 1;
+		}
+		const last = chunk.lastIndexOf(eol);
+		if (last >= start) {
+			this.scanner!.scan(chunk, start, last + 1);
+			start = last + 1;
+		}
+		if (start < chunk.length) this.appendCarry(chunk.subarray(start));
+	}
+
+	private appendCarry(bytes: Uint8Array): void {
+		if (this.carryLen + bytes.length > this.carry.length) {
+			const next = new Uint8Array(Math.max(this.carry.length * 2, this.carryLen + bytes.length));
+			next.set(this.carry.subarray(0, this.carryLen));
+			this.carry = next;
+		}
+		this.carry.set(bytes, this.carryLen);
+		this.carryLen += bytes.length;
+	}
+
+	private appendHead(bytes: Uint8Array): void {
+		if (this.headLen + bytes.length > this.head.length) {
+			const next = new Uint8Array(Math.max(this.head.length * 2, this.headLen + bytes.length));
+			next.set(this.head.subarray(0, this.headLen));
+			this.head = next;
+		}
+		this.head.set(bytes, this.headLen);
+		this.headLen += bytes.length;
+	}
+}
+
+/** A NUL byte, or more than 1% control bytes, in the head: not a text file. */
+function checkNotBinary(head: Uint8Array, source: string): void {
+	const n = Math.min(head.length, HEAD_BYTES);
+	let control = 0;
+	for (let i = 0; i < n; i++) {
+		const b = head[i];
+		if (b === 0) throw binaryError(source, head, i, 'a text file (found a NUL byte: this looks like a binary file)');
+		if ((b < 9 || (b > 13 && b < 32 && b !== 26) || b === 127) && ++control > Math.max(4, n / 100))
+			throw binaryError(source, head, i, 'a text file (found many control bytes: this looks like a binary file)');
+	}
+}
+
+function binaryError(source: string, head: Uint8Array, at: number, expected: string): ImportError {
+	const bytes = Array.from(head.subarray(at, at + 8), (b) => b.toString(16).padStart(2, '0')).join(' ');
+	return new ImportError(source, 0, at + 1, 'binary-as-text', bytes, expected);
+}

@@ -1,0 +1,109 @@
+/**
+ * Which column is the time base: by name or unit in the header, else (no header, or an unnamed first
+ * column) a first column that rises in near-equal steps. Its unit: option, header, preamble, else guessed
+ * from the step size (an 'assumption'). Without a time column the rate must come from the preamble or
+ * options, else 'no-time-base'.
+ */
+import { ImportError } from '../import-error.js';
+import { cellValue } from './cells.js';
+import { isIndexName, isTimeName } from './names.js';
+import type { CsvLayout, CsvOptions } from './types.js';
+import { readUnit } from './units.js';
+
+type TimeUnit = NonNullable<CsvLayout['timeUnit']>;
+const UNIT_OF_FACTOR: [number, TimeUnit][] = [[1, 's'], [1e-3, 'ms'], [1e-6, 'us'], [1e-9, 'ns']];
+const FACTOR: Record<Exclude<TimeUnit, 'index'>, number> = { s: 1, ms: 1e-3, us: 1e-6, ns: 1e-9 };
+
+/** Seconds per unit of a time column ('index' has none: it needs the sample rate). */
+export function secondsPerUnit(unit: Exclude<TimeUnit, 'index'>): number {
+	return FACTOR[unit];
+}
+
+/** Sets layout.timeColumn, layout.timeUnit and the column roles; adds the diagnostics. */
+export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options: CsvOptions, preambleUnit: TimeUnit | undefined, source: string): void {
+	const say = (code: string, message: string, severity: 'info' | 'assumption' | 'warning' = 'info') =>
+		layout.diagnostics.push({ code, message, severity });
+	const cols = layout.columns;
+	let tc: number | null = null;
+	let role: 'time' | 'index' = 'time';
+	let how = '';
+	if (typeof options.timeColumn === 'number') {
+		if (!Number.isInteger(options.timeColumn) || options.timeColumn < 0 || options.timeColumn >= cols.length)
+			throw new ImportError(source, 0, 0, 'bad-option', String(options.timeColumn), `a time column index from 0 to ${cols.length - 1}`);
+		tc = options.timeColumn;
+		role = options.timeUnit === 'index' || isIndexName(cols[tc].name) ? 'index' : 'time';
+		how = 'as set';
+	} else if (options.timeColumn !== 'none' && cols.length > 1) {
+		for (const c of cols) {
+			const u = readUnit(c.unitText);
+			if (isTimeName(c.name) || u?.kind === 'time') { tc = c.index; role = 'time'; how = `named "${c.header}"`; break; }
+			if (isIndexName(c.name)) { tc = c.index; role = 'index'; how = `named "${c.header}"`; break; }
+		}
+		if (tc === null && cols[0].header === '' && risesEvenly(preview, layout.decimalMark)) {
+			tc = 0;
+			const ints = preview.every((r, i) => i === 0 || cellValue(r[0], layout.decimalMark) - cellValue(preview[i - 1][0], layout.decimalMark) === 1);
+			role = ints && Number.isInteger(cellValue(preview[0][0], layout.decimalMark)) ? 'index' : 'time';
+			how = 'because its values rise in equal steps';
+			say('time-column-guessed', `The first column was taken as the ${role === 'index' ? 'sample number' : 'time'} ${how}; set timeColumn to change this.`, 'assumption');
+		}
+	}
+	if (tc === null) {
+		layout.timeColumn = null;
+		layout.timeUnit = null;
+		if (layout.statedSampleRateHz === undefined || !(layout.statedSampleRateHz > 0))
+			throw new ImportError(source, layout.headerLine ?? layout.bodyLine, 0, 'no-time-base', '', 'a time column, a sample rate or interval in the preamble, or a sample rate in the options');
+		say('no-time-column', `No time column: samples are taken as evenly spaced at ${layout.statedSampleRateHz} Hz (${options.sampleRateHz ? 'as set' : 'from the preamble'}).`, 'assumption');
+		return;
+	}
+	cols[tc].role = role;
+	layout.timeColumn = tc;
+	const name = cols[tc].header || `col${tc + 1}`;
+	if (role === 'index' || options.timeUnit === 'index') {
+		cols[tc].role = 'index';
+		layout.timeUnit = 'index';
+		if (layout.statedSampleRateHz === undefined || !(layout.statedSampleRateHz > 0))
+			throw new ImportError(source, layout.headerLine ?? layout.bodyLine, tc + 1, 'no-time-base', name, 'a sample rate or interval in the preamble or options (the first column is a sample number, not a time)');
+		say('sample-index', `Column "${name}" holds sample numbers (${how}); times are number / ${layout.statedSampleRateHz} Hz.`);
+		return;
+	}
+	const headerUnit = readUnit(cols[tc].unitText);
+	let unit: TimeUnit | undefined;
+	let from = '';
+	if (options.timeUnit) { unit = options.timeUnit; from = 'as set'; }
+	else if (headerUnit?.kind === 'time') { unit = UNIT_OF_FACTOR.find(([f]) => f === headerUnit.factor)?.[1]; from = 'from the header'; }
+	else if (preambleUnit) { unit = preambleUnit; from = 'from the preamble'; }
+	if (!unit) {
+		unit = guessUnit(preview, tc, layout.decimalMark, layout.statedSampleRateHz);
+		say('time-unit-assumed', `The time column "${name}" states no unit; ${unit} assumed from its step size${layout.statedSampleRateHz ? ' and the stated sample rate' : ''}. Set timeUnit to change this.`, 'assumption');
+		from = 'assumed';
+	}
+	layout.timeUnit = unit;
+	say('time-column', `Column "${name}" is the time base (${how}), in ${unit} (${from}).`);
+}
+
+function risesEvenly(preview: string[][], mark: '.' | ','): boolean {
+	if (preview.length < 3) return false;
+	const v = preview.map((r) => cellValue(r[0], mark));
+	const steps: number[] = [];
+	for (let i = 1; i < v.length; i++) {
+		if (!(v[i] > v[i - 1])) return false;
+		steps.push(v[i] - v[i - 1]);
+	}
+	const sorted = [...steps].sort((a, b) => a - b);
+	const med = sorted[sorted.length >> 1];
+	return steps.every((s) => Math.abs(s - med) <= 0.5 * med);
+}
+
+/** Unit that makes the step a plausible mains-recording interval (200 Hz .. 100 MHz), or matches the stated rate. */
+function guessUnit(preview: string[][], tc: number, mark: '.' | ',', statedHz: number | undefined): Exclude<TimeUnit, 'index'> {
+	const v = preview.map((r) => cellValue(r[tc], mark)).filter(Number.isFinite);
+	const step = v.length > 1 ? (v[v.length - 1] - v[0]) / (v.length - 1) : NaN;
+	if (!(step > 0)) return 's';
+	if (statedHz && statedHz > 0) {
+		for (const [f, u] of UNIT_OF_FACTOR) if (Math.abs(step * f * statedHz - 1) < 0.05 && u !== 'index') return u as Exclude<TimeUnit, 'index'>;
+	}
+	if (step < 5e-3) return 's';
+	if (step < 5) return 'ms';
+	if (step < 5000) return 'us';
+	return 'ns';
+}

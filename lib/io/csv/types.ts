@@ -1,0 +1,113 @@
+/**
+ * Options and detected layout of the CSV importer. Every detection has an override here; every override
+ * and every detection is reported as a Diagnostic on the capture.
+ */
+import type { Diagnostic, Quantity } from '../../capture.js';
+
+/** Per-channel settings, keyed by channel name (without unit, as in the header) or `col<N>` (1-based). */
+export interface CsvChannelOptions {
+	/** Rename the channel. */
+	name?: string;
+	/** Unit of the values as written in the file ('V', 'mV', 'kV', 'A', 'mA', 'kA', 'counts', ...). */
+	unit?: string;
+	quantity?: Quantity;
+	/** value = scale * raw + offset, applied before unit normalisation (e.g. ADC counts to volts). */
+	scale?: number;
+	offset?: number;
+	/** Voltage probe attenuation (x10 probe: 10): the file holds probe-output volts. */
+	probeRatio?: number;
+	/** Current clamp sensitivity in mV per A: the file holds clamp-output volts; the channel becomes A. */
+	clampMvPerA?: number;
+	/** Current shunt resistance in ohm: the file holds the shunt voltage; the channel becomes A. */
+	shuntOhms?: number;
+	/** CT ratio primary/secondary (e.g. 200/5 = 40): the file holds secondary amps. */
+	ctRatio?: number;
+	/** VT ratio primary/secondary (e.g. 11000/110 = 100): the file holds secondary volts. */
+	vtRatio?: number;
+}
+
+export interface CsvOptions {
+	delimiter?: ',' | ';' | '\t' | ' ';
+	decimalMark?: '.' | ',';
+	/** 1-based line of the channel names, or 'none' for a file without a header. */
+	headerRow?: number | 'none';
+	/** true: the line right under the names holds the units; false: it does not. */
+	unitsRow?: boolean;
+	/** 0-based column index of the time (or sample index) column, or 'none'. */
+	timeColumn?: number | 'none';
+	/** What the time column holds: seconds, ms, us, ns, or 'index' (a sample number). */
+	timeUnit?: 's' | 'ms' | 'us' | 'ns' | 'index';
+	/** Sample rate in Hz when the file has no time column (or a sample-index column). */
+	sampleRateHz?: number;
+	/** Per-channel unit, quantity and scaling, keyed by channel name or `col<N>` (1-based column). */
+	channels?: Record<string, CsvChannelOptions>;
+	/**
+	 * Largest deviation of a time stamp from the uniform grid, as a fraction of one sample interval, still
+	 * taken as uniform sampling (default 0.1). Beyond it the capture keeps its explicit time base.
+	 */
+	jitterTolerance?: number;
+}
+
+/** Progress reporting and pre-sizing for the streaming reader. */
+export interface CsvStreamOptions {
+	/** Total size of the input in bytes, when known: pre-sizes the output columns and feeds progress. */
+	totalBytes?: number;
+	/** Called after each chunk with bytes consumed so far and the total (0 when unknown). */
+	onProgress?: (bytesDone: number, bytesTotal: number) => void;
+}
+
+/** What one column of the table was taken to be. */
+export interface CsvColumnLayout {
+	/** 0-based column index. */
+	index: number;
+	/** Header cell as written ('' when there is no header). */
+	header: string;
+	/** Name without its unit, or `col<N>` when the file has no header. */
+	name: string;
+	/** Unit text as written (from the header, the units row, the preamble or options), '' if none. */
+	unitText: string;
+	role: 'time' | 'index' | 'channel';
+}
+
+/** The layout detected from the head of a file (and the options applied to it). */
+export interface CsvLayout {
+	delimiter: ',' | ';' | '\t' | ' ';
+	decimalMark: '.' | ',';
+	lineBreak: '\n' | '\r\n' | '\r';
+	bom: boolean;
+	/** Quoted fields seen in the head. */
+	quoted: boolean;
+	/** 1-based line of the names, or null when the file has no header. */
+	headerLine: number | null;
+	/** 1-based line of the units row, or null. */
+	unitsLine: number | null;
+	/** 1-based line of the first data row. */
+	bodyLine: number;
+	/** Number of data columns (trailing empty columns not counted). */
+	columnCount: number;
+	/** Empty columns seen at the end of data rows (a delimiter at line end), accepted and ignored. */
+	trailingEmptyColumns: number;
+	columns: CsvColumnLayout[];
+	/** 0-based index of the time or sample-index column, or null. */
+	timeColumn: number | null;
+	/** Unit of the time column ('index' for a sample number), or null without a time column. */
+	timeUnit: 's' | 'ms' | 'us' | 'ns' | 'index' | null;
+	/** Every preamble key/value, verbatim (value and unit joined by a space). */
+	metadata: Record<string, string>;
+	/** Sample rate stated by the preamble or options, in Hz. */
+	statedSampleRateHz?: number;
+	/** Start time stated by the preamble, ISO 8601 when it could be read as one. */
+	startTime?: string;
+	nominalFrequencyHz?: number;
+	/** Per-channel settings gathered from the preamble (scale, offset, unit), merged under options. */
+	preambleChannels: Record<string, CsvChannelOptions>;
+	/** Settings stated in the preamble for every channel (a global scale/offset). */
+	preambleAll: CsvChannelOptions;
+	/** Decimation noted by the preamble (factor, when stated). */
+	decimation?: { factor?: number; text: string };
+	/** The first data rows as cells, for a live preview. */
+	preview: string[][];
+	/** Average bytes per data line in the head (for pre-sizing). */
+	bytesPerRow: number;
+	diagnostics: Diagnostic[];
+}
