@@ -1,0 +1,211 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { ImportError, parseComtrade, parseComtradeCff } from '../../lib/index.js';
+import { comtradeCffBytes, comtradeCfgText, comtradeDatBytes, type WriterSpec } from '../../sample-waves/writers/comtrade.js';
+
+const FIX = 'tests/fixtures/comtrade/';
+const text = (name: string) => readFileSync(FIX + name, 'utf8');
+const bytes = (name: string) => new Uint8Array(readFileSync(FIX + name));
+const open = (base: string, opts = {}) => parseComtrade(text(base + '.cfg'), bytes(base + '.dat'), base + '.cfg', opts);
+
+function thrown(f: () => unknown): ImportError {
+	try {
+		f();
+	} catch (e) {
+		expect(e).toBeInstanceOf(ImportError);
+		return e as ImportError;
+	}
+	throw new Error('expected an ImportError');
+}
+
+describe('parseComtrade on a hand-written 1999 ASCII record (tests/fixtures/comtrade/good-1999)', () => {
+	// Expected values worked by hand from the fixture text: value = a·x + b, then the PS conversion
+	// (C37.111-1999, analog channel line, from memory: PS says which side a·x+b gives).
+	const c = open('good-1999');
+
+	it('parseComtrade(good-1999) applies a·x+b and kV -> V ×1000 on a primary (P) channel', () => {
+		// U1: a = 0.01 kV, b = 0: raw 100 -> 1 kV = 1000 V; raw -50 -> -500 V; raw 0 -> 0 V
+		const u1 = c.channels[0];
+		expect(u1.name).toBe('U1');
+		expect(u1.unit).toBe('V');
+		expect(u1.quantity).toBe('voltage');
+		expect(u1.samples[0]).toBeCloseTo(1000, 9);
+		expect(u1.samples[1]).toBeCloseTo(-500, 9);
+		expect(u1.samples[2]).toBe(0);
+	});
+
+	it('parseComtrade(good-1999) reports the ASCII missing value 99999 as NaN with a warning', () => {
+		expect(c.channels[0].samples[3]).toBeNaN();
+		const d = c.diagnostics.find((x) => x.code === 'comtrade-missing-values');
+		expect(d?.severity).toBe('warning');
+		expect(d?.message).toContain('1 of 4');
+	});
+
+	it('parseComtrade(good-1999) converts a secondary (S) channel to primary with ×primary/secondary', () => {
+		// I1: a = 0.5, b = -1 secondary A, CT 200:5 -> ×40: raw 10 -> 4 A sec -> 160 A; 20 -> 360; 30 -> 560; 40 -> 760
+		expect(Array.from(c.channels[1].samples)).toEqual([160, 360, 560, 760].map((v) => expect.closeTo(v, 9)));
+		expect(c.channels[1].scaling?.factor).toBeCloseTo(0.5 * 40, 12);
+		expect(c.diagnostics.some((d) => d.code === 'comtrade-values' && /primary/.test(d.message))).toBe(true);
+	});
+
+	it('parseComtrade(good-1999, { values: secondary }) gives what the instrument saw', () => {
+		const s = open('good-1999', { values: 'secondary' });
+		// U1 is primary in the file: 1000 V × 110/11000 = 10 V; I1 is secondary already: 4, 9, 14, 19 A
+		expect(s.channels[0].samples[0]).toBeCloseTo(10, 9);
+		expect(Array.from(s.channels[1].samples)).toEqual([4, 9, 14, 19].map((v) => expect.closeTo(v, 9)));
+	});
+
+	it('parseComtrade(good-1999) keeps rate, lf, start relative to the trigger and the digital channel', () => {
+		expect(c.sampleRateHz).toBe(1000);
+		expect(c.timeS).toBeUndefined();
+		expect(c.nominalFrequencyHz).toBe(50);
+		// first data 10:00:00.000000, trigger 10:00:00.002000, first stamp 0: the record starts 2 ms before the trigger
+		expect(c.startS).toBeCloseTo(-0.002, 12);
+		expect(c.startTime).toBe('2026-02-01T10:00:00.000000');
+		expect(c.channels[0].phase).toBe('L1');
+		expect(c.digital?.[0].name).toBe('breaker');
+		expect(c.digital?.[0].normalState).toBe(0);
+		expect(Array.from(c.digital![0].states)).toEqual([0, 0, 1, 1]);
+		expect(c.metadata['comtrade.station']).toBe('Sawpit Lane');
+	});
+
+	it('parseComtrade reads LF and CRLF versions of the same record identically', () => {
+		const crlf = parseComtrade(text('good-1999.cfg').replace(/\n/g, '\r\n'), new TextEncoder().encode(text('good-1999.dat').replace(/\n/g, '\r\n')), 'x.cfg');
+		expect(crlf.channels.map((ch) => Array.from(ch.samples))).toEqual(c.channels.map((ch) => Array.from(ch.samples)));
+		expect(crlf.diagnostics.some((d) => d.code === 'comtrade-lf-line-ends')).toBe(false);
+		expect(c.diagnostics.some((d) => d.code === 'comtrade-lf-line-ends')).toBe(true);
+	});
+});
+
+describe('parseComtrade on binary records built byte by byte in the test', () => {
+	// BINARY layout (REFERENCE.md §8.2, read from python-comtrade's reader): uint32 n, uint32 stamp,
+	// int16 per analog, uint16 per 16 digital channels, little-endian.
+	const cfg = ['Bench,rig,1999', '2,1A,1D', '1,Ia,A,feeder,A,0.001,0.5,0,-32767,32767,100,1,P', '1,trip,,,1', '60', '1', '2000,3',
+		'05/03/2026,12:00:00.000000', '05/03/2026,12:00:00.000000', 'BINARY', '1', ''].join('\r\n');
+	const record = (n: number, stamp: number, value: number, bits: number) => {
+		const b = new Uint8Array(12);
+		const v = new DataView(b.buffer);
+		v.setUint32(0, n, true);
+		v.setUint32(4, stamp, true);
+		v.setInt16(8, value, true);
+		v.setUint16(10, bits, true);
+		return [...b];
+	};
+	const dat = new Uint8Array([...record(1, 0, 1000, 1), ...record(2, 500, -0x8000, 0), ...record(3, 1000, -2000, 1)]);
+
+	it('parseComtrade(BINARY) decodes int16 values, 0x8000 as missing and LSB-first status bits', () => {
+		const c = parseComtrade(cfg, dat, 'bin.cfg');
+		// 0.001 × 1000 + 0.5 = 1.5 A; 0.001 × (-2000) + 0.5 = -1.5 A
+		expect(c.channels[0].samples[0]).toBeCloseTo(1.5, 12);
+		expect(c.channels[0].samples[1]).toBeNaN();
+		expect(c.channels[0].samples[2]).toBeCloseTo(-1.5, 12);
+		expect(Array.from(c.digital![0].states)).toEqual([1, 0, 1]);
+		expect(c.digital![0].normalState).toBe(1);
+		expect(c.sampleRateHz).toBe(2000);
+		expect(c.startS).toBe(0);
+		expect(c.channels[0].phase).toBe('A');
+	});
+
+	it('parseComtrade(BINARY) shorter than the cfg says throws dat-too-short at byte offset = length + 1', () => {
+		const e = thrown(() => parseComtrade(cfg, dat.subarray(0, 30), 'bin.cfg'));
+		expect(e.code).toBe('dat-too-short');
+		expect(e.source).toBe('bin.dat');
+		expect([e.line, e.column]).toEqual([0, 31]);
+	});
+});
+
+function spec(fileType: WriterSpec['fileType'], extra: Partial<WriterSpec> = {}): WriterSpec {
+	const n = 64;
+	const va = Float64Array.from({ length: n }, (_, k) => 325 * Math.sin((2 * Math.PI * k) / 32));
+	const ia = Float64Array.from({ length: n }, (_, k) => 14 * Math.sin((2 * Math.PI * k) / 32 - 0.5));
+	return {
+		station: 'Kiln Yard', device: 'relay-7', revYear: 2013, lineFrequencyHz: 50, rates: [{ sampleRateHz: 1600, endSample: n }],
+		firstData: '01/03/2026,08:00:00.000000', trigger: '01/03/2026,08:00:00.010000', fileType,
+		analog: [{ name: 'VA', unit: 'V', values: va }, { name: 'IA', unit: 'A', values: ia }],
+		digital: Array.from({ length: 17 }, (_, d) => ({ name: `S${d + 1}`, states: Array.from({ length: n }, (_, k) => ((k >> (d % 5)) & 1)) })),
+		...extra,
+	};
+}
+
+describe('parseComtrade round trip through the writer in sample-waves/writers', () => {
+	for (const ft of ['ASCII', 'BINARY', 'BINARY32', 'FLOAT32'] as const) {
+		it(`parseComtrade(${ft}) returns the written signal within one quantisation step a/2`, () => {
+			const s = spec(ft);
+			const cfgText = comtradeCfgText(s);
+			const c = parseComtrade(cfgText, comtradeDatBytes(s), 'rt.cfg');
+			// the multiplier a is field 6 of each analog line of the written .cfg
+			const a = cfgText.split('\r\n').slice(2, 4).map((l) => Number(l.split(',')[5]));
+			s.analog.forEach((ch, i) => {
+				const tol = ft === 'FLOAT32' ? 1e-4 * 325 : a[i] / 2 + 1e-9;
+				for (let k = 0; k < 64; k++) expect(Math.abs(c.channels[i].samples[k] - ch.values[k])).toBeLessThanOrEqual(tol);
+			});
+			expect(c.digital).toHaveLength(17);
+			for (let d = 0; d < 17; d++) expect(Array.from(c.digital![d].states)).toEqual(Array.from(s.digital![d].states));
+			expect(c.startS).toBeCloseTo(-0.01, 12);
+		});
+	}
+
+	it('parseComtradeCff reads the single-file form with the same content, ASCII and binary', () => {
+		for (const ft of ['ASCII', 'BINARY32'] as const) {
+			const s = spec(ft);
+			const split = parseComtrade(comtradeCfgText(s), comtradeDatBytes(s), 'x.cfg');
+			const single = parseComtradeCff(comtradeCffBytes(s, 'header note'), 'x.cff');
+			expect(single.channels.map((ch) => Array.from(ch.samples))).toEqual(split.channels.map((ch) => Array.from(ch.samples)));
+			expect(single.metadata['comtrade.hdr']).toBe('header note');
+		}
+	});
+
+	it('parseComtrade with nrates = 0 takes the time stamps × timemult as the time base', () => {
+		// stamps 0, 100, 250, 450 with timemult 2 -> 0, 200, 500, 900 µs after the first sample
+		const s = spec('ASCII', { rates: [], stampsUs: [0, 100, 250, 450], timeMult: 2, analog: [{ name: 'VA', unit: 'V', values: [1, 2, 3, 4] }], digital: [] });
+		const c = parseComtrade(comtradeCfgText(s), comtradeDatBytes(s), 'ts.cfg');
+		expect(Array.from(c.timeS!)).toEqual([0, 200e-6, 500e-6, 900e-6].map((t) => expect.closeTo(t - 0.01, 12)));
+		// mean rate = (N − 1)/(t_last − t_first) = 3 / 900 µs
+		expect(c.sampleRateHz).toBeCloseTo(3 / 900e-6, 6);
+		expect(c.diagnostics.some((d) => d.code === 'comtrade-time-stamps')).toBe(true);
+	});
+
+	it('parseComtrade with two sampling rates keeps each sample at its own time and warns', () => {
+		// 4 samples at 1000 Hz then 2 at 250 Hz: times 0, 1, 2, 3, 7, 11 ms from the first sample
+		const s = spec('ASCII', { rates: [{ sampleRateHz: 1000, endSample: 4 }, { sampleRateHz: 250, endSample: 6 }], analog: [{ name: 'VA', unit: 'V', values: [1, 2, 3, 4, 5, 6] }], digital: [] });
+		const c = parseComtrade(comtradeCfgText(s), comtradeDatBytes(s), 'mr.cfg');
+		expect(Array.from(c.timeS!)).toEqual([0, 1, 2, 3, 7, 11].map((ms) => expect.closeTo(ms / 1000 - 0.01, 12)));
+		expect(c.sampleRateHz).toBeCloseTo(5 / 0.011, 9);
+		expect(c.diagnostics.find((d) => d.code === 'comtrade-several-rates')?.severity).toBe('warning');
+	});
+});
+
+describe('parseComtrade errors: one fixture per code with its line and column', () => {
+	const cases: [string, string, number, (l: string[]) => number][] = [
+		// [fixture, code, line, expected column computed from the fixture text]
+		['err-cfg-syntax', 'cfg-syntax', 3, (l) => l[2].indexOf('x0.01') + 1],
+		['err-cfg-count-total', 'cfg-count-mismatch', 2, () => 1],
+		['err-cfg-count-lines', 'cfg-count-mismatch', 5, () => 1], // the digital line where a third analog line should be
+		['err-dat-too-short', 'dat-too-short', 5, () => 0], // cfg says 6 records, the .dat ends after line 4
+		['err-dat-syntax', 'dat-syntax', 3, (l) => l[2].indexOf('3O') + 1],
+		['err-time-not-increasing', 'time-not-increasing', 3, () => 0],
+	];
+	for (const [base, code, line, column] of cases) {
+		it(`parseComtrade(${base}) throws ${code} at line ${line}`, () => {
+			const e = thrown(() => open(base));
+			const inDat = code.startsWith('dat') || code === 'time-not-increasing';
+			const lines = text(base + (inDat ? '.dat' : '.cfg')).split('\n');
+			expect(e.code).toBe(code);
+			expect(e.source).toBe(base + (inDat ? '.dat' : '.cfg'));
+			expect(e.line).toBe(line);
+			expect(e.column).toBe(column(lines));
+		});
+	}
+
+	it('parseComtrade of a .cfg cut after the channel lines throws cfg-syntax at the line past the end', () => {
+		const cut = text('good-1999.cfg').split('\n').slice(0, 6).join('\n');
+		const e = thrown(() => parseComtrade(cut, bytes('good-1999.dat'), 'cut.cfg'));
+		expect([e.code, e.line]).toEqual(['cfg-syntax', 7]);
+	});
+
+	it('parseComtradeCff reports CFG errors with lines counted in the .cff', () => {
+		const cff = new TextEncoder().encode('--- file type: CFG ---\n' + text('err-cfg-syntax.cfg') + '--- file type: DAT ASCII ---\n' + text('good-1999.dat'));
+		const e = thrown(() => parseComtradeCff(cff, 'x.cff'));
+		expect([e.code, e.line]).toEqual(['cfg-syntax', 4]);
+	});
+});
