@@ -1,2 +1,21 @@
-// Public API of lib/report: re-exports only. The owner of this folder fills it in.
-export {};
+// Public API of lib/report: re-exports only. Analysis results -> plain objects (the JSON contract of
+// report.schema.json, shared by the CLI and the UI).
+export { analyseCapture, REPORT_DEFAULT_MAX_ORDER } from './analyse.js';
+export {
+	REPORT_SCHEMA_VERSION,
+	REPORT_LIMIT_TABLE_IDS,
+	type AnalysisOptions,
+	type AnalysisReport,
+	type ReportChannel,
+	type ReportHarmonic,
+	type ReportPair,
+	type ReportPower,
+	type ReportLoadCharacter,
+	type ReportThreePhase,
+	type ReportLimits,
+	type ReportLimitRow,
+	type ReportLimitTableId,
+	type ReportPairOverride,
+} from './types.js';
+export { reportToJson, reportValueToJson, type ReportJson, type ReportJsonValue, type Jsonified } from './to-json.js';
+export { CSV_SUMMARY_COLUMNS, csvTextCell, csvNumberCell, csvSummaryHeader, csvSummaryRows, reportsToCsv } from './csv-summary.js';

@@ -1,3 +1,68 @@
 #!/usr/bin/env node
-// Placeholder entry; the CLI issue wires the commands here.
-console.log('sinecheck: commands arrive with the CLI issue');
+// Entry of the sinecheck command: wiring only. Commands return exit codes; this file sets them.
+import { cac } from 'cac';
+import { analyseCommand } from './analyse-command.js';
+import { ANALYSE_EXAMPLES, EXIT_CODES, SAFETY_CAUTION, wrap } from './help-text.js';
+import { UsageError } from './usage-error.js';
+
+const cli = cac('sinecheck');
+
+cli
+	.command('analyse [...paths]', 'Analyse capture files and folders (CSV, WAV, COMTRADE): RMS, harmonics, THD, phase, power, three-phase, limits')
+	.alias('analyze')
+	.option('--json', 'One JSON report per file on stdout (JSON Lines when several files); schema: lib/report/report.schema.json')
+	.option('--csv', 'One summary row per channel per file, for spreadsheets')
+	.option('--limits <table>', 'Evaluate harmonics against a limit table: en50160, iec61000-2-2, ieee519 (sets exit code 1 on a failure)')
+	.option('--isc-il <ratio>', 'IEEE 519: short-circuit to maximum demand load current ratio at the point of common coupling')
+	.option('--il <A>', 'IEEE 519: maximum demand load current I_L in A (for TDD)')
+	.option('--ref <channel>', 'Reference channel for frequency, window and phase (default: the first voltage channel)')
+	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
+	.option('--scale <channel=factor>', 'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable', { type: [String] })
+	.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
+	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', { type: [String] })
+	.option('--pair <voltage=current>', 'Pair a voltage and a current channel for power (replaces pairing by phase label); repeatable', { type: [String] })
+	.option('--window <cycles>', 'Harmonic window length in cycles (default 10 at 50 Hz, 12 at 60 Hz)')
+	.option('--nominal <V>', 'Nominal voltage in V (chooses the IEEE 519 voltage row)')
+	.option('--nominal-hz <Hz>', 'Nominal frequency, 50 or 60 (default: from the file, else the nearer one)')
+	.option('--max-order <n>', 'Highest harmonic order reported (default 50)')
+	.option('--whole-record', 'Time-domain figures over every sample instead of whole cycles')
+	.option('--jobs <n>', 'Worker threads (default: one per core, up to 8; 0 = none)')
+	.option('--quiet', 'With --json/--csv: do not repeat the assumptions on stderr')
+	.option('--no-progress', 'No progress bar (it is drawn only when stderr is a terminal anyway)')
+	.action(async (paths: string[], options: Record<string, unknown>) => {
+		process.exitCode = await analyseCommand(paths, options);
+	});
+
+cli.help((sections) => {
+	const examples = ANALYSE_EXAMPLES.map((l) => (l.startsWith('#') ? `  ${l}` : `  $ ${l}`)).join('\n');
+	sections.push({ title: 'Examples', body: examples });
+	sections.push({ body: wrap(EXIT_CODES, 100, '') });
+	sections.push({ body: wrap(SAFETY_CAUTION, 100, '') });
+	return sections;
+});
+cli.version('0.1.0');
+
+async function main(): Promise<number> {
+	try {
+		cli.parse(process.argv, { run: false });
+		if (cli.options.help || cli.options.version) return 0;
+		if (!cli.matchedCommand) {
+			if (cli.args.length > 0) throw new UsageError(`unknown command ${JSON.stringify(cli.args[0])}; try sinecheck --help`);
+			cli.outputHelp();
+			return 2;
+		}
+		await cli.runMatchedCommand();
+		return typeof process.exitCode === 'number' ? process.exitCode : 0;
+	} catch (e) {
+		if (e instanceof UsageError || (e instanceof Error && e.name === 'CACError')) {
+			process.stderr.write(`sinecheck: ${e.message}\n`);
+			return 2;
+		}
+		const message = e instanceof Error ? e.message : String(e);
+		process.stderr.write(`sinecheck: internal error: ${message}\n`);
+		if (process.env.SINECHECK_DEBUG) process.stderr.write(`${(e as Error).stack}\n`);
+		return 2;
+	}
+}
+
+process.exitCode = await main();

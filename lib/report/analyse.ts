@@ -1,0 +1,180 @@
+/**
+ * The one analysis entry point of Sinecheck: a Capture in, an AnalysisReport out. The CLI and the UI both
+ * call it, so every figure a user sees comes from this code.
+ */
+import { durationS, type Capture, type Diagnostic } from '../capture.js';
+import { findWholeCycles } from '../signal/cycles.js';
+import { waveformFigures } from '../signal/levels.js';
+import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
+import { chooseReference } from './reference.js';
+import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
+import { channelSpectrum, planWindows, type ChannelSpectrum } from './spectra.js';
+import { REPORT_SCHEMA_VERSION, type AnalysisOptions, type AnalysisReport, type ReportChannel } from './types.js';
+
+/** Highest harmonic order reported by default (IEC 61000-4-30 Ed.3 and IEEE 519 use 50; from memory). */
+export const REPORT_DEFAULT_MAX_ORDER = 50;
+
+function diagnosticText(d: Diagnostic): string {
+	const at = d.line ? ` (line ${d.line}${d.column ? `, column ${d.column}` : ''})` : '';
+	return `${d.message}${at}`;
+}
+
+function checkOptions(o: AnalysisOptions): void {
+	const positive = (name: string, x: number | undefined) => {
+		if (x !== undefined && !(Number.isFinite(x) && x > 0)) throw new RangeError(`${name} must be a positive number, got ${x}`);
+	};
+	positive('nominalV', o.nominalV);
+	positive('nominalHz', o.nominalHz);
+	positive('iscIl', o.iscIl);
+	positive('ilA', o.ilA);
+	if (o.windowCycles !== undefined && !(Number.isInteger(o.windowCycles) && o.windowCycles >= 1)) throw new RangeError(`windowCycles must be a whole number >= 1, got ${o.windowCycles}`);
+	if (o.maxOrder !== undefined && !(Number.isInteger(o.maxOrder) && o.maxOrder >= 1)) throw new RangeError(`maxOrder must be a whole number >= 1, got ${o.maxOrder}`);
+}
+
+/**
+ * Analyses every channel of a capture on the reference channel's whole cycles.
+ *
+ * 1. Reference: `options.refChannel`, else the first voltage channel (then current, then any) with a
+ *    periodic fundamental; its whole cycles (interpolated zero crossings of the fundamental) and frequency
+ *    are measured once.
+ * 2. Every channel: time-domain figures over those cycles (or the whole record), its own frequency,
+ *    harmonics 0…maxOrder on consecutive windows of `windowCycles` cycles (10 at 50 Hz, 12 at 60 Hz,
+ *    IEC 61000-4-7) aggregated as RMS over the windows, THD_F and THD_R, K-factor, TDD (given I_L).
+ * 3. Relations: phase and time lag of each channel against the reference; IEEE 1459 power for each
+ *    voltage/current pair; three-phase sets (rotation, sequence components, VUF/LVUR/PVUR).
+ * 4. Limits, when a table is named.
+ *
+ * Every importer diagnostic and every choice made here is listed in `assumptions`.
+ * @throws RangeError for bad options (including a reference channel the capture does not have)
+ * @returns the report; figures the data cannot give are NaN (null in JSON)
+ * @example analyseCapture(capture).channels[0].thdPercent // 5.00 for a 230 V sine with an 11.5 V 5th
+ */
+export function analyseCapture(capture: Capture, options: AnalysisOptions = {}): AnalysisReport {
+	checkOptions(options);
+	const fs = capture.sampleRateHz;
+	const maxOrder = options.maxOrder ?? REPORT_DEFAULT_MAX_ORDER;
+	const span = options.span ?? 'whole-cycles';
+	const assumptions = capture.diagnostics.map(diagnosticText);
+	const warnings: string[] = [];
+	const n = capture.channels[0]?.samples.length ?? 0;
+
+	const searchHz = options.nominalHz ?? capture.nominalFrequencyHz;
+	const ref = chooseReference(capture, options.refChannel, searchHz);
+	assumptions.push(...ref.assumptions);
+	const window = ref.window;
+	const frequencyHz = window?.frequencyHz ?? NaN;
+	const nominalHz = options.nominalHz ?? capture.nominalFrequencyHz ?? (window ? (Math.abs(frequencyHz - 60) < Math.abs(frequencyHz - 50) ? 60 : 50) : undefined);
+	if (options.nominalHz === undefined && capture.nominalFrequencyHz === undefined && nominalHz !== undefined) {
+		assumptions.push(`Nominal frequency taken as ${nominalHz} Hz (nearest to the measured ${frequencyHz.toFixed(3)} Hz).`);
+	}
+	const windowCycles = options.windowCycles ?? (nominalHz === 60 ? 12 : 10);
+	if (timeBaseIrregular(capture)) warnings.push('The time base is not uniform; figures assume the mean sample rate.');
+	if (!window) {
+		warnings.push(`No periodic fundamental found (${ref.failure ?? 'no channels'}): figures cover the whole record; harmonics, phase and power are not given.`);
+	}
+	const slots = window ? planWindows(window, fs, windowCycles) : [];
+	if (window && window.cycles < windowCycles) {
+		warnings.push(`Only ${window.cycles} whole cycles: harmonics come from one ${window.cycles}-cycle window (IEC 61000-4-7 uses ${windowCycles}).`);
+	} else if (window && slots.length * windowCycles < window.cycles) {
+		assumptions.push(`Harmonics from ${slots.length} window(s) of ${windowCycles} cycles; the last ${window.cycles - slots.length * windowCycles} cycle(s) are not in a full window.`);
+	}
+	const spectra: (ChannelSpectrum | undefined)[] = capture.channels.map((c) => (slots.length > 0 ? channelSpectrum(c.samples, fs, slots, maxOrder) : undefined));
+
+	const channels: ReportChannel[] = capture.channels.map((c, i) => {
+		const figs = waveformFigures(c.samples, fs, window && span === 'whole-cycles' ? { span, window, nominalHz, maxOrder } : { span: 'whole-record', frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder });
+		const own = i === ref.index && window ? { ok: true as const, frequencyHz: window.frequencyHz } : findWholeCycles(c.samples, fs, window ? { frequencyHz } : searchHz !== undefined ? { nominalHz: searchHz } : {});
+		const channelHz = own.ok ? own.frequencyHz : NaN;
+		const agg = spectra[i]?.aggregate;
+		const set = agg?.set;
+		const rmsByOrder = set ? set.orders.map((o) => o.rms) : [];
+		const h1 = rmsByOrder[1] ?? NaN;
+		const thdOrder = Math.min(maxOrder, 50, agg?.highestValidOrder ?? 50);
+		const chWarnings = figs.warnings.map((d) => d.message);
+		return {
+			name: c.name,
+			unit: c.unit,
+			quantity: c.quantity,
+			phase: c.phase ?? null,
+			mean: figs.mean,
+			rms: figs.rms,
+			acRms: figs.acRms,
+			rectifiedMean: figs.rectifiedMean,
+			peak: figs.peak,
+			peakNegative: figs.peakNegative,
+			peakToPeak: figs.peakToPeak,
+			crestFactor: figs.crestFactor,
+			formFactor: figs.formFactor,
+			frequencyHz: channelHz,
+			thdPercent: set ? thdFPercent(rmsByOrder, thdOrder) : NaN,
+			thdRPercent: set ? thdRPercent(rmsByOrder, thdOrder) : NaN,
+			thdMaxOrder: thdOrder,
+			kFactor: set ? ulKFactor(rmsByOrder, thdOrder) : NaN,
+			tddPercent: set && c.quantity === 'current' && options.ilA !== undefined ? tddPercent(rmsByOrder, thdOrder, options.ilA) : NaN,
+			averageResponding: { reading: figs.averageResponding.reading, errorPercent: figs.averageResponding.errorPercent },
+			harmonics: set ? set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })) : [],
+			warnings: chWarnings,
+		};
+	});
+
+	const report: AnalysisReport = {
+		schemaVersion: REPORT_SCHEMA_VERSION,
+		file: capture.source,
+		sampleRateHz: fs,
+		durationS: durationS(capture),
+		cyclesAnalysed: window?.cycles ?? 0,
+		frequencyHz,
+		referenceChannel: ref.index >= 0 ? capture.channels[ref.index].name : null,
+		window: {
+			startS: window && span === 'whole-cycles' ? window.startIndex / fs : 0,
+			endS: window && span === 'whole-cycles' ? window.endIndex / fs : n / fs,
+			span: window ? span : 'whole-record',
+			harmonicWindowCycles: slots[0]?.cycles ?? NaN,
+			harmonicWindows: slots.length,
+		},
+		assumptions,
+		diagnostics: capture.diagnostics.map((d) => ({ code: d.code, message: d.message, severity: d.severity, line: d.line ?? null, column: d.column ?? null })),
+		warnings,
+		channels,
+		pairs: [],
+		power: [],
+		threePhase: null,
+		threePhaseSets: [],
+	};
+	if (window && ref.index >= 0) {
+		const phasors = alignedFundamentals(spectra, ref.index);
+		const powerWindow = { startIndex: window.startIndex, endIndex: window.endIndex, cycles: window.cycles };
+		report.pairs = pairsAgainstReference(capture, ref.index, phasors, powerWindow);
+		const pairing = pairChannels(capture.channels, options.pairs);
+		assumptions.push(...pairing.assumptions);
+		report.power = pairing.pairs.map((p) => pairPower(capture, p, spectra, powerWindow));
+		const three = threePhaseSets(capture.channels, pairing.pairing, phasors);
+		assumptions.push(...three.assumptions);
+		report.threePhaseSets = three.sets;
+		report.threePhase = three.sets[0] ?? null;
+	} else if (options.pairs && options.pairs.length > 0) {
+		warnings.push('Pairs were given but no fundamental was found: no power figures.');
+	}
+	return report;
+}
+
+/** IEEE 519 TDD = 100 · √(Σ_{h=2}^{H} I_h²) / I_L (Ref: IEEE Std 519-2014, 3.1 (from memory); REFERENCE.md §4.3). */
+function tddPercent(rmsByOrder: number[], maxOrder: number, ilA: number): number {
+	let s = 0;
+	for (let h = 2; h <= maxOrder && h < rmsByOrder.length; h++) s += rmsByOrder[h] ** 2;
+	return (100 * Math.sqrt(s)) / ilA;
+}
+
+function timeBaseIrregular(capture: Capture): boolean {
+	return capture.timeS !== undefined;
+}
+
+/** UL K-factor Σ I_h² h² / Σ I_h², h = 1…H (Ref: REFERENCE.md §6, UL 1561/1562 via IEEE C57.110 F_HL; read). */
+function ulKFactor(rmsByOrder: number[], maxOrder: number): number {
+	let num = 0;
+	let den = 0;
+	for (let h = 1; h <= maxOrder && h < rmsByOrder.length; h++) {
+		num += rmsByOrder[h] ** 2 * h * h;
+		den += rmsByOrder[h] ** 2;
+	}
+	return den > 0 ? num / den : NaN;
+}

@@ -1,0 +1,184 @@
+/**
+ * Relations between channels analysed on the same windows: phase against the reference, power of each
+ * voltage/current pair (IEEE 1459) and three-phase sets (rotation, sequence components, unbalance).
+ */
+import type { Capture, Channel } from '../capture.js';
+import { currentUnbalance, voltageUnbalance } from '../polyphase/unbalance.js';
+import { phaseRotation } from '../polyphase/rotation.js';
+import { symmetricalComponents } from '../polyphase/sequence.js';
+import { loadCharacterFromAngle } from '../power/load-character.js';
+import { pairPowerChannels, type PowerChannelPairing } from '../power/pairing.js';
+import { complexPower, phasorAbs, phasorArgDeg, phasorFromHarmonic, phasorMul, wrapAngleDeg, type ComplexPhasor } from '../power/phasor.js';
+import { ieee1459FromComponents } from '../power/single-phase.js';
+import { crossCorrelationLag } from '../power/time-lag.js';
+import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
+import type { ChannelSpectrum } from './spectra.js';
+import type { ReportPairOverride, ReportPair, ReportPower, ReportThreePhase } from './types.js';
+
+/**
+ * Each channel's fundamental phasor averaged over the windows after turning every window so that the
+ * reference fundamental lies at 0°: a stable phasor per channel even when the windows start at different
+ * points of the wave. Magnitudes are RMS; the reference comes out real and positive.
+ */
+export function alignedFundamentals(spectra: (ChannelSpectrum | undefined)[], refIndex: number): (ComplexPhasor | undefined)[] {
+	const ref = spectra[refIndex];
+	if (!ref) return spectra.map(() => undefined);
+	const turns = ref.windows.map((w) => {
+		const a = phasorArgDeg(phasorFromHarmonic(w.set.orders[1]));
+		const rad = Number.isNaN(a) ? 0 : (-a * Math.PI) / 180;
+		return { re: Math.cos(rad), im: Math.sin(rad) };
+	});
+	return spectra.map((s) => {
+		if (!s) return undefined;
+		let re = 0;
+		let im = 0;
+		s.windows.forEach((w, k) => {
+			const p = phasorMul(phasorFromHarmonic(w.set.orders[1]), turns[k]);
+			re += p.re;
+			im += p.im;
+		});
+		return { re: re / s.windows.length, im: im / s.windows.length };
+	});
+}
+
+/** Every other channel with a fundamental against the reference: phasor angle and cross-correlation time lag. */
+export function pairsAgainstReference(capture: Capture, refIndex: number, phasors: (ComplexPhasor | undefined)[], window: PowerSampleWindow): ReportPair[] {
+	const ref = capture.channels[refIndex];
+	const out: ReportPair[] = [];
+	capture.channels.forEach((c, i) => {
+		if (i === refIndex) return;
+		const p = phasors[i];
+		const lagDeg = p && phasorAbs(p) > 0 ? wrapAngleDeg(-phasorArgDeg(p)) : NaN;
+		let lagS = NaN;
+		if (!Number.isNaN(lagDeg)) lagS = crossCorrelationLag(ref.samples, c.samples, capture.sampleRateHz, window).lagS;
+		out.push({ ref: ref.name, other: c.name, lagDeg, lagS });
+	});
+	return out;
+}
+
+export interface PairingResult {
+	pairs: { voltage: number; current: number; pairedBy: string }[];
+	pairing: PowerChannelPairing;
+	assumptions: string[];
+}
+
+/** Voltage/current pairs: by phase label (lib/power), the user's overrides first; one V and one I pair anyway. */
+export function pairChannels(channels: Channel[], overrides: ReportPairOverride[] | undefined): PairingResult {
+	const pairing = pairPowerChannels(channels, overrides ?? []);
+	const assumptions = pairing.diagnostics.filter((d) => d.severity !== 'info' || d.code === 'pairing-auto').map((d) => d.message);
+	const idx = (name: string) => channels.findIndex((c) => c.name === name);
+	const pairs = pairing.pairs.map((p) => ({ voltage: idx(p.voltage), current: idx(p.current), pairedBy: p.origin === 'override' ? 'user' : 'phase-label' }));
+	if (pairs.length === 0 && !(overrides && overrides.length)) {
+		const vs = channels.map((c, i) => (c.quantity === 'voltage' ? i : -1)).filter((i) => i >= 0);
+		const is = channels.map((c, i) => (c.quantity === 'current' ? i : -1)).filter((i) => i >= 0);
+		if (vs.length === 1 && is.length === 1) {
+			pairs.push({ voltage: vs[0], current: is[0], pairedBy: 'only-pair' });
+			assumptions.push(`${channels[vs[0]].name} and ${channels[is[0]].name} paired for power: the only voltage and the only current channel.`);
+		}
+	}
+	return { pairs, pairing, assumptions };
+}
+
+/** IEEE 1459 single-phase power of one pair over the whole-cycle window. */
+export function pairPower(
+	capture: Capture,
+	pair: { voltage: number; current: number; pairedBy: string },
+	spectra: (ChannelSpectrum | undefined)[],
+	window: PowerSampleWindow,
+): ReportPower {
+	const v = capture.channels[pair.voltage];
+	const i = capture.channels[pair.current];
+	const sv = spectra[pair.voltage];
+	const si = spectra[pair.current];
+	let theta1Deg = NaN;
+	let v1 = NaN;
+	let i1 = NaN;
+	if (sv && si) {
+		// Fundamental complex power averaged over the windows: θ1 = its angle (P1 + jQ1 = V1·I1*).
+		let re = 0;
+		let im = 0;
+		sv.windows.forEach((w, k) => {
+			const s = complexPower(phasorFromHarmonic(w.set.orders[1]), phasorFromHarmonic(si.windows[k].set.orders[1]));
+			re += s.re;
+			im += s.im;
+		});
+		theta1Deg = phasorArgDeg({ re, im });
+		v1 = sv.aggregate.set.orders[1].rms;
+		i1 = si.aggregate.set.orders[1].rms;
+	}
+	const q = ieee1459FromComponents({
+		voltageRmsV: powerWindowRms(v.samples, window),
+		currentRmsA: powerWindowRms(i.samples, window),
+		v1RmsV: v1,
+		i1RmsA: i1,
+		theta1Deg,
+		activePowerW: activePowerFromSamplesW(v.samples, i.samples, window),
+	});
+	const ch = loadCharacterFromAngle(theta1Deg);
+	const { ...all } = q as unknown as Record<string, number>;
+	return {
+		voltage: v.name,
+		current: i.name,
+		activeW: q.activePowerW,
+		apparentVA: q.apparentPowerVA,
+		reactiveVar: q.fundamentalReactivePowerVar,
+		powerFactor: q.powerFactor,
+		displacementPowerFactor: q.displacementPowerFactor,
+		character: ch.character === 'undetermined' ? null : ch.character,
+		ieee1459: all,
+		pairedBy: pair.pairedBy,
+	};
+}
+
+/** Three-phase sets: phase voltages (or currents) labelled 1, 2, 3; else exactly three unlabelled channels of a kind. */
+export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing, phasors: (ComplexPhasor | undefined)[]): { sets: ReportThreePhase[]; assumptions: string[] } {
+	const sets: ReportThreePhase[] = [];
+	const assumptions: string[] = [];
+	const idx = (name: string) => channels.findIndex((c) => c.name === name);
+	for (const quantity of ['voltage', 'current'] as const) {
+		const labelled = quantity === 'voltage' ? pairing.phaseVoltages : pairing.phaseCurrents;
+		let members: number[] | undefined;
+		const byPhase = [1, 2, 3].map((p) => labelled.filter((x) => x.phase === p));
+		if (byPhase.every((l) => l.length === 1)) members = byPhase.map((l) => idx(l[0].name));
+		else {
+			const all = channels.map((c, i) => (c.quantity === quantity ? i : -1)).filter((i) => i >= 0);
+			const lines = new Set(pairing.lineVoltages.map((l) => l.name));
+			const plain = all.filter((i) => !lines.has(channels[i].name) && channels[i].name !== pairing.neutralCurrent && channels[i].name !== pairing.neutralVoltage);
+			if (labelled.length === 0 && plain.length === 3) {
+				members = plain;
+				assumptions.push(`${plain.map((i) => channels[i].name).join(', ')} taken as phases 1, 2, 3 in column order (no phase labels could be read).`);
+			}
+		}
+		if (!members) continue;
+		const ph = members.map((i) => phasors[i]);
+		if (ph.some((p) => p === undefined)) continue;
+		const [a, b, c] = ph as ComplexPhasor[];
+		const seq = symmetricalComponents(a, b, c);
+		const rot = phaseRotation(a, b, c);
+		let unbalancePercent: number;
+		let lvurPercent: number;
+		let pvurPercent: number;
+		if (quantity === 'voltage') {
+			const u = voltageUnbalance(a, b, c);
+			unbalancePercent = u.vufPercent;
+			lvurPercent = u.lvurPercent;
+			pvurPercent = u.pvurPercent;
+		} else {
+			const u = currentUnbalance(a, b, c);
+			unbalancePercent = u.negativeSequencePercent;
+			lvurPercent = NaN;
+			pvurPercent = u.maxDeviationPercent;
+		}
+		sets.push({
+			channels: members.map((i) => channels[i].name),
+			quantity,
+			rotation: rot.rotation === 'undetermined' ? null : rot.rotation,
+			unbalancePercent,
+			lvurPercent,
+			pvurPercent,
+			sequence: { zero: seq.zeroRms, positive: seq.positiveRms, negative: seq.negativeRms },
+			sequenceDeg: { zero: phasorArgDeg(seq.zero), positive: seq.positivePhaseDeg, negative: seq.negativePhaseDeg },
+		});
+	}
+	return { sets, assumptions };
+}

@@ -1,0 +1,85 @@
+/**
+ * `sinecheck analyse <file|folder>...`: collects the files, analyses them on worker threads, prints
+ * one report per file (table, JSON or CSV) in the order given, problems once each on stderr.
+ * Returns the exit code: 0 analysed and within limits, 1 a limit failed, 2 bad input or usage.
+ */
+import { availableParallelism } from 'node:os';
+import { csvSummaryHeader, csvSummaryRows } from '../../lib/report/csv-summary.js';
+import type { ReportJson } from '../../lib/report/to-json.js';
+import { problemText, type UnitResult } from './analyse-unit.js';
+import { collectUnits } from './collect-files.js';
+import { formatReport } from './format-table.js';
+import { settingsFromOptions, type RawOptions } from './options.js';
+import { runUnits } from './pool.js';
+import { progressBar } from './progress.js';
+import { UsageError } from './usage-error.js';
+
+export interface Io {
+	out: (text: string) => void;
+	err: (text: string) => void;
+}
+
+const stdio: Io = {
+	out: (t) => void process.stdout.write(t),
+	err: (t) => void process.stderr.write(t),
+};
+
+function jobsFrom(raw: unknown, units: number): number {
+	if (raw === undefined) return units > 1 ? Math.min(availableParallelism(), units, 8) : 0;
+	const n = Number(raw);
+	if (!Number.isInteger(n) || n < 0) throw new UsageError(`--jobs ${String(raw)}: expected a whole number, 0 to analyse in this thread`);
+	return n;
+}
+
+export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = stdio): Promise<number> {
+	if (raw.json && raw.csv) throw new UsageError('--json and --csv cannot be used together');
+	const settings = settingsFromOptions(raw);
+	if (paths.length === 0) throw new UsageError('name at least one capture file or folder, e.g. sinecheck analyse board.csv');
+	const { units, skipped } = collectUnits(paths);
+	const mode = raw.json ? 'json' : raw.csv ? 'csv' : 'table';
+	if (skipped.length > 0 && raw.quiet !== true) io.err(`note: skipped ${skipped.length} file(s) that are not captures (e.g. ${skipped[0]})\n`);
+	if (units.length === 0) {
+		io.err(`no capture files found in ${paths.join(', ')} (looked for ${['.csv', '.txt', '.tsv', '.wav', '.cfg', '.cff'].join(' ')})\n`);
+		return 2;
+	}
+	const jobs = jobsFrom(raw.jobs, units.length);
+	const progress = raw.progress === false ? progressBar(0) : progressBar(units.length);
+
+	let badInput = false;
+	let limitFailed = false;
+	let printedAny = false;
+	if (mode === 'csv') io.out(csvSummaryHeader() + '\r\n');
+	const emit = (res: UnitResult) => {
+		progress.clear();
+		for (const p of res.problems) {
+			badInput = true;
+			io.err(`${problemText(p)}\n`);
+		}
+		for (const r of res.reports) {
+			if (r.limits && r.limits.pass === false) limitFailed = true;
+			io.out(render(r, mode, units.length > 1, printedAny));
+			if (mode !== 'table' && raw.quiet !== true) for (const a of r.assumptions) io.err(`${r.file}: ${a}\n`);
+			printedAny = true;
+		}
+	};
+	// Results arrive in completion order; print them in the order the files were given.
+	const pending = new Map<number, UnitResult>();
+	let nextToPrint = 0;
+	await runUnits(units, settings, jobs, (index, result) => {
+		progress.tick(units[index].files[0]);
+		pending.set(index, result);
+		while (pending.has(nextToPrint)) {
+			emit(pending.get(nextToPrint)!);
+			pending.delete(nextToPrint);
+			nextToPrint++;
+		}
+	});
+	progress.done();
+	return badInput ? 2 : limitFailed ? 1 : 0;
+}
+
+function render(r: ReportJson, mode: 'json' | 'csv' | 'table', several: boolean, printedAny: boolean): string {
+	if (mode === 'json') return several ? JSON.stringify(r) + '\n' : JSON.stringify(r, null, 2) + '\n';
+	if (mode === 'csv') return csvSummaryRows(r).map((line) => line + '\r\n').join('');
+	return (printedAny ? '\n' : '') + formatReport(r).join('\n') + '\n';
+}

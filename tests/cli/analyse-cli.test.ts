@@ -1,0 +1,211 @@
+/**
+ * End-to-end: the BUILT command (node dist/src/cli/main.js) run as a child process on capture files
+ * written here from closed-form signals. Expected figures come from formulas (named beside each check),
+ * from REFERENCE.md's computed vectors, or from the library called in this process on the same file.
+ */
+import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import Ajv2020 from 'ajv/dist/2020.js';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { writeCsvCapture } from './fixtures.js';
+
+const root = join(import.meta.dirname, '..', '..');
+const main = join(root, 'dist', 'src', 'cli', 'main.js');
+const dir = mkdtempSync(join(tmpdir(), 'sinecheck-cli-'));
+const schema = JSON.parse(readFileSync(join(root, 'lib', 'report', 'report.schema.json'), 'utf8'));
+const ajv = new Ajv2020({ allErrors: true, strict: false });
+const validate = ajv.compile(schema);
+
+function run(args: string[]): { code: number; stdout: string; stderr: string } {
+	const r = spawnSync(process.execPath, [main, ...args], { cwd: dir, encoding: 'utf8', timeout: 60_000 });
+	return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+}
+
+const FS = 10_000;
+const F = 50;
+// 230 V rms fundamental with a 5 % 5th harmonic (11.5 V rms); 10 A rms current lagging 30 degrees.
+const U1 = { header: 'U1 (V)', tones: [{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }] };
+const I1 = { header: 'I1 (A)', tones: [{ order: 1, rms: 10, phaseDeg: -30 }] };
+
+beforeAll(() => {
+	execFileSync(process.execPath, [join(root, 'node_modules', 'typescript', 'bin', 'tsc'), '-p', join(root, 'tsconfig.cli.json')], { cwd: root, stdio: 'inherit' });
+	writeCsvCapture(join(dir, 'feeder.csv'), [U1, I1], { frequencyHz: F, sampleRateHz: FS, cycles: 20 });
+	// REFERENCE.md section 5.4 / 7 set: 230 V at 0 deg, 220 V at -118 deg, 235 V at +121 deg.
+	writeCsvCapture(
+		join(dir, 'board.csv'),
+		[
+			{ header: 'L1 (V)', tones: [{ order: 1, rms: 230, phaseDeg: 0 }] },
+			{ header: 'L2 (V)', tones: [{ order: 1, rms: 220, phaseDeg: -118 }] },
+			{ header: 'L3 (V)', tones: [{ order: 1, rms: 235, phaseDeg: 121 }] },
+		],
+		{ frequencyHz: F, sampleRateHz: FS, cycles: 20 },
+	);
+	writeCsvCapture(join(dir, 'distorted.csv'), [{ header: 'U1 (V)', tones: [{ order: 1, rms: 230 }, { order: 5, rms: 16.1 }] }], { frequencyHz: F, sampleRateHz: FS, cycles: 20 });
+	writeCsvCapture(join(dir, 'formula.csv'), [{ header: '=HYPERLINK("http://example.invalid") (V)', tones: [{ order: 1, rms: 230 }] }], { frequencyHz: F, sampleRateHz: FS, cycles: 12 });
+	mkdirSync(join(dir, 'survey'));
+	writeCsvCapture(join(dir, 'survey', 'a-good.csv'), [U1, I1], { frequencyHz: F, sampleRateHz: FS, cycles: 12 });
+	writeFileSync(join(dir, 'survey', 'b-bad.csv'), 't (s),U1 (V)\n0,1\n0.0001,2\n0.0002,abc\n0.0003,4\n');
+	writeCsvCapture(join(dir, 'survey', 'c-good.csv'), [U1], { frequencyHz: F, sampleRateHz: FS, cycles: 12 });
+}, 120_000);
+
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe('sinecheck analyse --json', () => {
+	it('analyse --json prints one document that validates against report.schema.json', () => {
+		const r = run(['analyse', 'feeder.csv', '--json']);
+		expect(r.stderr).not.toMatch(/at .*\.js:\d+/); // no stack trace
+		expect(r.code).toBe(0);
+		const doc = JSON.parse(r.stdout);
+		expect(validate(doc), JSON.stringify(validate.errors)).toBe(true);
+		expect(doc.file).toBe('feeder.csv');
+		expect(doc.sampleRateHz).toBe(FS);
+		expect(doc.durationS).toBeCloseTo(20 / F, 9); // N / fs
+	});
+
+	it('analyse --json gives true RMS sqrt(230^2 + 11.5^2) and THD 5.00 % on a sine with a 5 % 5th (RMS of a sum of harmonics, REFERENCE.md 1.3)', () => {
+		const doc = JSON.parse(run(['analyse', 'feeder.csv', '--json']).stdout);
+		const u = doc.channels.find((c: { name: string }) => c.name === 'U1');
+		expect(u.unit).toBe('V');
+		expect(u.quantity).toBe('voltage');
+		expect(u.rms).toBeCloseTo(Math.hypot(230, 11.5), 2);
+		expect(u.acRms).toBeCloseTo(Math.hypot(230, 11.5), 2);
+		expect(u.mean).toBeCloseTo(0, 6);
+		expect(u.thdPercent).toBeCloseTo(5, 2);
+		expect(u.frequencyHz).toBeCloseTo(50, 3);
+		expect(u.harmonics).toHaveLength(51); // orders 0..50
+		expect(u.harmonics[1].rms).toBeCloseTo(230, 2);
+		expect(u.harmonics[5].percentOfFundamental).toBeCloseTo(5, 2);
+		// 20 cycles recorded: whole cycles crossing to crossing are at most 20 (lib/signal may drop one at each end)
+		expect(doc.cyclesAnalysed).toBeGreaterThanOrEqual(18);
+		expect(doc.cyclesAnalysed).toBeLessThanOrEqual(20);
+	});
+
+	it('analyse --json gives lag 30 deg = 1.667 ms and P = 230·10·cos 30°, Q1 = 230·10·sin 30° for a current lagging 30° (IEEE 1459 definitions, REFERENCE.md 5.1)', () => {
+		const doc = JSON.parse(run(['analyse', 'feeder.csv', '--json']).stdout);
+		const pair = doc.pairs.find((p: { other: string }) => p.other === 'I1');
+		expect(pair.ref).toBe('U1');
+		expect(pair.lagDeg).toBeCloseTo(30, 1);
+		expect(pair.lagS).toBeCloseTo(30 / 360 / F, 5);
+		expect(doc.power).toHaveLength(1);
+		const p = doc.power[0];
+		expect(p.voltage).toBe('U1');
+		expect(p.current).toBe('I1');
+		const cos30 = Math.cos(Math.PI / 6);
+		expect(p.activeW).toBeCloseTo(230 * 10 * cos30, 0); // the 5th has no current partner: P = P1
+		expect(p.reactiveVar).toBeCloseTo(230 * 10 * 0.5, 0);
+		expect(p.apparentVA).toBeCloseTo(Math.hypot(230, 11.5) * 10, 0);
+		expect(p.powerFactor).toBeCloseTo((230 * cos30) / Math.hypot(230, 11.5), 3);
+		expect(p.displacementPowerFactor).toBeCloseTo(cos30, 3);
+		expect(p.character).toBe('inductive');
+	});
+
+	it('analyse --json on an unbalanced three-phase set gives VUF 2.7699 %, PVUR 3.6496 %, LVUR 2.4680 % (REFERENCE.md section 7 computed vectors)', () => {
+		const r = run(['analyse', 'board.csv', '--json']);
+		expect(r.code).toBe(0);
+		const doc = JSON.parse(r.stdout);
+		expect(validate(doc), JSON.stringify(validate.errors)).toBe(true);
+		const t = doc.threePhase;
+		expect(t.channels).toEqual(['L1', 'L2', 'L3']);
+		expect(t.rotation).toBe('positive');
+		expect(t.unbalancePercent).toBeCloseTo(2.7699, 2);
+		expect(t.pvurPercent).toBeCloseTo(3.6496, 2);
+		expect(t.lvurPercent).toBeCloseTo(2.468, 2);
+		expect(t.sequence.zero).toBeCloseTo(3.0537, 1);
+		expect(t.sequence.positive).toBeCloseTo(228.3105, 1);
+		expect(t.sequence.negative).toBeCloseTo(6.324, 1);
+	});
+});
+
+describe('sinecheck analyse exit codes', () => {
+	it('analyse --limits en50160 exits 0 with a 5 % 5th (EN 50160 limit 6 %, REFERENCE.md 4.1)', () => {
+		const r = run(['analyse', 'feeder.csv', '--limits', 'en50160', '--json']);
+		expect(r.code).toBe(0);
+		const doc = JSON.parse(r.stdout);
+		expect(validate(doc), JSON.stringify(validate.errors)).toBe(true);
+		expect(doc.limits.table).toBe('en50160');
+		expect(doc.limits.pass).toBe(true);
+		const h5 = doc.limits.rows.find((x: { channel: string; order: number; figure: string }) => x.channel === 'U1' && x.order === 5 && x.figure === 'harmonic');
+		expect(h5.limit).toBe(6);
+		expect(h5.value).toBeCloseTo(5, 2);
+		expect(h5.margin).toBeCloseTo(1, 2);
+		expect(h5.pass).toBe(true);
+	});
+
+	it('analyse --limits en50160 exits 1 with a 7 % 5th (over the 6 % limit, REFERENCE.md 4.1)', () => {
+		const r = run(['analyse', 'distorted.csv', '--limits', 'en50160']);
+		expect(r.code).toBe(1);
+		expect(r.stdout).toMatch(/FAIL/);
+	});
+
+	it('analyse on a folder with a bad file reports it with line and column, still analyses the others, and exits 2', () => {
+		const r = run(['analyse', 'survey', '--json']);
+		expect(r.code).toBe(2);
+		expect(r.stderr).toMatch(/b-bad\.csv:4:\d+/);
+		expect(r.stderr).not.toMatch(/\n\s+at /); // no stack trace
+		const docs = r.stdout.trim().split('\n').map((l) => JSON.parse(l));
+		expect(docs.map((d) => d.file)).toEqual([join('survey', 'a-good.csv'), join('survey', 'c-good.csv')]);
+		for (const d of docs) expect(validate(d), JSON.stringify(validate.errors)).toBe(true);
+	});
+
+	it('analyse with an unknown limit table, a missing file or an unknown option exits 2 with one line and no stack trace', () => {
+		for (const args of [['analyse', 'feeder.csv', '--limits', 'nope'], ['analyse', 'missing.csv'], ['analyse', 'feeder.csv', '--frobnicate'], ['analyse', 'feeder.csv', '--scale', 'U1']]) {
+			const r = run(args);
+			expect(r.code, args.join(' ')).toBe(2);
+			expect(r.stderr.trim().split('\n')).toHaveLength(1);
+			expect(r.stderr).not.toMatch(/\n\s+at /);
+		}
+	});
+
+	it('analyse --ref with a channel the file does not have exits 2 naming the channel', () => {
+		const r = run(['analyse', 'feeder.csv', '--ref', 'U9']);
+		expect(r.code).toBe(2);
+		expect(r.stderr).toMatch(/feeder\.csv.*U9/);
+	});
+});
+
+describe('sinecheck analyse output forms', () => {
+	it('analyse --csv guards a channel named =HYPERLINK(...) so a spreadsheet shows text (OWASP CSV injection, from memory)', () => {
+		const r = run(['analyse', 'formula.csv', '--csv']);
+		expect(r.code).toBe(0);
+		const lines = r.stdout.trim().split(/\r?\n/);
+		expect(lines[0].startsWith('file,channel,unit,quantity')).toBe(true);
+		expect(lines).toHaveLength(2);
+		expect(lines[1]).toContain(`"'=HYPERLINK(""http://example.invalid"")"`);
+		expect(lines[1]).not.toMatch(/,=HYPERLINK/);
+	});
+
+	it('analyse --csv on several files gives one header and one row per channel per file', () => {
+		const r = run(['analyse', 'feeder.csv', 'board.csv', '--csv']);
+		expect(r.code).toBe(0);
+		const lines = r.stdout.trim().split(/\r?\n/);
+		expect(lines).toHaveLength(1 + 2 + 3);
+		expect(lines.filter((l) => l.startsWith('file,'))).toHaveLength(1);
+	});
+
+	it('analyse prints a readable table with the figures, the pair in words and the assumptions', () => {
+		const r = run(['analyse', 'feeder.csv']);
+		expect(r.code).toBe(0);
+		expect(r.stdout).toMatch(/true RMS/);
+		expect(r.stdout).toMatch(/I1 lags U1 by 30\.0 deg \(1\.667 ms\)/);
+		expect(r.stdout).toMatch(/inductive/);
+	});
+
+	it('--help shows examples for the common tasks, the exit codes and the safety caution, and exits 0', () => {
+		const r = run(['analyse', '--help']);
+		expect(r.code).toBe(0);
+		expect(r.stdout).toMatch(/--limits en50160/);
+		expect(r.stdout).toMatch(/--csv/);
+		expect(r.stdout).toMatch(/Exit codes/);
+		expect(r.stdout).toMatch(/recorded data only/);
+		expect(r.stdout).toMatch(/never a scope floated/);
+		const top = run(['--help']);
+		expect(top.code).toBe(0);
+		expect(top.stdout).toMatch(/analyse/);
+	});
+
+	it('the built entry file starts with a node shebang (needed for the bin link)', () => {
+		expect(readFileSync(main, 'utf8').split('\n')[0]).toBe('#!/usr/bin/env node');
+	});
+});
