@@ -17,6 +17,7 @@
  * Ref: IEC 61000-4-30:2015, 4.4-4.7, 5.1, 5.4 (from memory); REFERENCE §3.2-3.5.
  */
 import type { Diagnostic } from '../capture.js';
+import { harmonicWindow } from '../spectrum/harmonics.js';
 import { CrossingTracker, type CrossingSink } from './crossing-tracker.js';
 import { declaredVoltageFromRms } from './declared-voltage.js';
 import { EventDetector } from './event-detector.js';
@@ -90,7 +91,11 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	while (ringLen < Math.ceil(0.5 * fs) + BLOCK + 16) ringLen *= 2;
 	const mask = ringLen - 1;
 	const rings = channels.map(() => new Float64Array(ringLen));
-	const scratch = opts.harmonics ? new Float64Array(ringLen) : undefined;
+	const wantThd = opts.thd ?? true;
+	const scratch = wantThd ? new Float64Array(ringLen) : undefined;
+	/** Samples beyond each end of a window kept for the DFT's resampling kernel. */
+	const PAD = 16;
+	const windowsToClose: { start: number; end: number; startT: number; endT: number }[] = [];
 	const holdback = Math.ceil(0.1 * fs) + 2;
 	const tickLen = Math.round(TEN_MIN_S * fs);
 	const freqLen = Math.round(FREQ_S * fs);
@@ -143,10 +148,13 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				s += v * v;
 			}
 			rms[c] = Math.sqrt(s / lengthT);
-			if (scratch && opts.harmonics) {
-				const w = scratch.subarray(0, end - start);
-				for (let j = start; j < end; j++) w[j - start] = ring[j & mask];
-				thd[c] = opts.harmonics(w, fs, (cyclesPerWindow * fs) / lengthT, cyclesPerWindow).thdPercent;
+			if (scratch) {
+				const s0 = Math.max(0, abs - ringLen + 1, Math.floor(startT) - PAD);
+				const e0 = Math.min(abs, Math.ceil(endT) + PAD);
+				const w = scratch.subarray(0, e0 - s0);
+				for (let j = s0; j < e0; j++) w[j - s0] = ring[j & mask];
+				const f1 = (cyclesPerWindow * fs) / lengthT;
+				thd[c] = f1 < fs / 2 ? harmonicWindow(w, fs, { fundamentalHz: f1, startIndex: startT - s0, cycles: cyclesPerWindow, maxOrder: 50 }).thd.thdS50Percent : NaN;
 			} else thd[c] = NaN;
 		}
 		pendingRows.push({
@@ -192,7 +200,8 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		}
 		if (seq - ws < cyclesPerWindow) return;
 		const start = logIdx[ws % LOG];
-		closeWindow(start, index, logT[ws % LOG], t);
+		// Closed after the block, once the samples just past its end (for the DFT) are in every ring.
+		windowsToClose.push({ start, end: index, startT: logT[ws % LOG], endT: t });
 		ws = seq;
 		while (nextTick <= start) nextTick += tickLen;
 		if (start < nextTick && nextTick <= index) {
@@ -299,6 +308,10 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	}
 
 	function afterBlock(final: boolean): void {
+		while (windowsToClose.length > 0 && (final || windowsToClose[0].end + PAD <= abs)) {
+			const w = windowsToClose.shift()!;
+			closeWindow(w.start, w.end, w.startT, w.endT);
+		}
 		const pos = final ? Infinity : abs - holdback;
 		if (!detector) {
 			if (!final && pos < inferenceEnd && Number.isNaN(declaredV) === true) return;
@@ -357,7 +370,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 			}
 			if (seq < 0) diagnostics.push({ code: 'no-zero-crossings', severity: 'warning', message: `${channels[ref].name}: no zero crossing found; no aggregate could be formed.` });
 			if (abs >= tickLen) diagnostics.push({ code: 'ten-minute-from-start', severity: 'info', message: '10-min intervals count from the start of the recording (no wall-clock synchronisation).' });
-			if (!opts.harmonics) diagnostics.push({ code: 'thd-not-computed', severity: 'info', message: 'THD was not computed for this run (no harmonic analysis attached).' });
+			if (!wantThd) diagnostics.push({ code: 'thd-not-computed', severity: 'info', message: 'THD was not computed for this run (no harmonic analysis attached).' });
 			const events: TrendEvent[] = (detector?.events ?? []).map((e) => {
 				const ended = !Number.isNaN(e.end);
 				const end = ended ? e.end : abs;

@@ -24,14 +24,6 @@ export interface TrendThresholds {
 	hysteresisPercent: number;
 }
 
-/** Optional harmonic analysis of one 10/12-cycle window, called once per channel and window. */
-export type TrendWindowHarmonics = (
-	window: Float64Array,
-	sampleRateHz: number,
-	fundamentalHz: number,
-	cycles: number,
-) => { thdPercent: number };
-
 export interface TrendOptions {
 	sampleRateHz: number;
 	channels: TrendChannelSpec[];
@@ -55,8 +47,11 @@ export interface TrendOptions {
 	onHalfCycle?: (channel: number, startS: number, rmsV: number) => void;
 	/** Which rows the result keeps (memory grows with length only through these). Default: all kept. */
 	keep?: { cycles10?: boolean; cycles150?: boolean; min10?: boolean };
-	/** THD per 10/12-cycle window; when absent THD is NaN. */
-	harmonics?: TrendWindowHarmonics;
+	/**
+	 * THD per channel and 10/12-cycle window (IEC 61000-4-7 synchronised DFT, lib/spectrum). Default true;
+	 * false leaves thdPercent NaN and saves the DFTs.
+	 */
+	thd?: boolean;
 }
 
 /** Aggregation interval kinds of IEC 61000-4-30 (REFERENCE §3.2). */
@@ -75,7 +70,11 @@ export interface TrendRow {
 	flagged: boolean;
 	/** RMS per channel, channel's unit. Longer intervals: √(mean of the squared 10/12-cycle values). */
 	rms: number[];
-	/** THD per channel in % of the fundamental (NaN when not computed); aggregated like rms. */
+	/**
+	 * THD per channel in % of the fundamental: harmonic subgroups 2-50 over the 10/12-cycle window (THDS,
+	 * IEC 61000-4-7 as used by IEC 61000-4-30 class A, REFERENCE §2.2; orders above fs/2 left out).
+	 * NaN when not computed; longer intervals aggregate it like rms.
+	 */
 	thdPercent: number[];
 }
 

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { createTrendAnalyser, type TrendOptions, type TrendResult } from '../../lib/trend/index.js';
+import { harmonicSamples } from '../helpers/synth.js';
 import { makeChannels, type ChannelSpec } from './signals.js';
 
 const V3 = ['L1', 'L2', 'L3'].map((name) => ({ name, quantity: 'voltage' as const, unit: 'V' }));
@@ -194,6 +195,24 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 			expect(Math.abs(row.frequencyHz - expected)).toBeLessThan(0.001); // Class A ±10 mHz (REFERENCE §3.3)
 			expect(row.cycles).toBe(m2 - m1);
 			expect(row.flagged).toBe(false);
+		}
+	});
+
+	it('10-cycle RMS and THD of the REFERENCE §1.3 mixture (230 V + 4.6 V h3 + 11.5 V h5 + 6.9 V h7) are 230.43659 V and 6.16441 %', () => {
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 3, rms: 4.6 },
+				{ order: 5, rms: 11.5 },
+				{ order: 7, rms: 6.9 },
+			],
+			{ frequencyHz: 50, sampleRateHz: 10_240, cycles: 32 },
+		);
+		const r = run([x], { sampleRateHz: 10_240, declaredV: 230, nominalHz: 50 });
+		expect(r.cycles10.length).toBe(3);
+		for (const row of r.cycles10) {
+			expect(row.rms[0]).toBeCloseTo(230.43659, 4); // REFERENCE §1.3 [COMPUTED]
+			expect(row.thdPercent[0]).toBeCloseTo(6.16441, 4); // every tone on a bin: THDS = THDF
 		}
 	});
 
