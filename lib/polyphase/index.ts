@@ -2,3 +2,6 @@
 export * from './sequence.js';
 export * from './rotation.js';
 export * from './unbalance.js';
+export * from './line-voltages.js';
+export * from './neutral.js';
+export * from './connection.js';
