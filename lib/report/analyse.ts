@@ -6,6 +6,7 @@ import { durationS, type Capture, type Diagnostic } from '../capture.js';
 import { findWholeCycles } from '../signal/cycles.js';
 import { waveformFigures } from '../signal/levels.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
+import { limitsReport } from './limits-report.js';
 import { chooseReference } from './reference.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
 import { channelSpectrum, planWindows, type ChannelSpectrum } from './spectra.js';
@@ -154,6 +155,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	} else if (options.pairs && options.pairs.length > 0) {
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}
+	if (options.limits) report.limits = limitsReport(report, options);
 	return report;
 }
 

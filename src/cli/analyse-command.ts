@@ -58,7 +58,7 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 		for (const r of res.reports) {
 			if (r.limits && r.limits.pass === false) limitFailed = true;
 			io.out(render(r, mode, units.length > 1, printedAny));
-			if (mode !== 'table' && raw.quiet !== true) for (const a of r.assumptions) io.err(`${r.file}: ${a}\n`);
+			if (mode !== 'table' && raw.quiet !== true) for (const a of noteworthy(r)) io.err(`${r.file}: ${a}\n`);
 			printedAny = true;
 		}
 	};
@@ -82,4 +82,10 @@ function render(r: ReportJson, mode: 'json' | 'csv' | 'table', several: boolean,
 	if (mode === 'json') return several ? JSON.stringify(r) + '\n' : JSON.stringify(r, null, 2) + '\n';
 	if (mode === 'csv') return csvSummaryRows(r).map((line) => line + '\r\n').join('');
 	return (printedAny ? '\n' : '') + formatReport(r).join('\n') + '\n';
+}
+
+/** What --json/--csv repeat on stderr: the importer's assumptions and warnings, and every analysis warning. */
+function noteworthy(r: ReportJson): string[] {
+	const importer = (r.diagnostics ?? []).filter((d) => d.severity !== 'info').map((d) => (d.line ? `${d.message} (line ${d.line})` : d.message));
+	return [...importer, ...r.warnings, ...r.channels.flatMap((c) => (c.warnings ?? []).map((w) => `${c.name}: ${w}`))];
 }

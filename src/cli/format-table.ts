@@ -26,21 +26,31 @@ function table(rows: string[][], indent = '  '): string[] {
 	return rows.map((r) => indent + r.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  ').trimEnd());
 }
 
+/** Levels of a channel with as many decimals as 5 significant figures of its RMS need (so -1e-14 V reads 0.00). */
+function level(c: Channel, x: number | null): string {
+	if (x === null || !Number.isFinite(x)) return 'n/a';
+	const scale = c.rms !== null && c.rms > 0 ? c.rms : Math.abs(x);
+	if (!(scale > 0)) return '0';
+	const decimals = Math.max(0, Math.min(9, 4 - Math.floor(Math.log10(scale))));
+	const text = x.toFixed(decimals);
+	return /^-0\.?0*$/.test(text) ? text.slice(1) : text;
+}
+
 const FIGURES: [string, (c: Channel) => string][] = [
-	['true RMS (AC+DC)', (c) => formatNumber(c.rms)],
-	['AC RMS', (c) => formatNumber(c.acRms)],
-	['mean (DC)', (c) => formatNumber(c.mean)],
-	['rectified mean', (c) => formatNumber(c.rectifiedMean)],
-	['peak +', (c) => formatNumber(c.peak)],
-	['peak -', (c) => formatNumber(c.peakNegative)],
-	['peak-to-peak', (c) => formatNumber(c.peakToPeak)],
+	['true RMS (AC+DC)', (c) => level(c, c.rms)],
+	['AC RMS', (c) => level(c, c.acRms)],
+	['mean (DC)', (c) => level(c, c.mean)],
+	['rectified mean', (c) => level(c, c.rectifiedMean)],
+	['peak +', (c) => level(c, c.peak)],
+	['peak -', (c) => level(c, c.peakNegative)],
+	['peak-to-peak', (c) => level(c, c.peakToPeak)],
 	['crest factor', (c) => fixed(c.crestFactor, 3)],
 	['form factor', (c) => fixed(c.formFactor, 4)],
 	['frequency Hz', (c) => fixed(c.frequencyHz, 3)],
-	['fundamental RMS', (c) => formatNumber(c.harmonics[1]?.rms)],
+	['fundamental RMS', (c) => level(c, c.harmonics[1]?.rms ?? null)],
 	['THD % of fund.', (c) => fixed(c.thdPercent, 2)],
 	['K-factor', (c) => fixed(c.kFactor, 2)],
-	['avg-responding reads', (c) => formatNumber(c.averageResponding.reading)],
+	['avg-responding reads', (c) => level(c, c.averageResponding.reading)],
 	['  its error %', (c) => fixed(c.averageResponding.errorPercent, 2)],
 ];
 
@@ -103,7 +113,6 @@ export function formatReport(r: ReportJson): string[] {
 			out.push(`    ${x.channel} ${what}: ${fixed(x.value, 2)} % over limit ${fixed(x.limit, 2)} % (margin ${fixed(x.margin, 2)}) [${x.source}]`);
 		}
 		for (const n of r.limits.notes) out.push(`    note: ${n}`);
-		out.push('    a single capture is not a compliance measurement: the standards judge a week or more of 10-minute values');
 	}
 	const warnings = [...r.warnings, ...r.channels.flatMap((c) => c.warnings.map((w) => `${c.name}: ${w}`))];
 	if (warnings.length > 0) {

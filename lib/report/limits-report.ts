@@ -1,0 +1,86 @@
+/**
+ * Limit evaluation of a report's channels against one table (lib/limits), as report rows: per channel,
+ * per order and for the total (THD, or TDD for IEEE 519 currents), measured %, limit %, margin, pass.
+ */
+import { evaluateLimits, LIMIT_TABLES } from '../limits/evaluate.js';
+import type { LimitEvaluation } from '../limits/types.js';
+import type { AnalysisOptions, AnalysisReport, ReportChannel, ReportLimitRow, ReportLimits } from './types.js';
+
+function rowsOf(channel: string, e: LimitEvaluation): { rows: ReportLimitRow[]; unmeasured: string[] } {
+	const rows: ReportLimitRow[] = [];
+	const unmeasured: string[] = [];
+	for (const c of [...e.checks, e.total]) {
+		if (c.pass === null) {
+			unmeasured.push(c.label);
+			continue;
+		}
+		rows.push({
+			channel,
+			order: c.order ?? 0,
+			figure: c.order === null ? c.label.toLowerCase() : 'harmonic',
+			value: c.measuredPercent,
+			limit: c.limitPercent,
+			margin: c.marginPercent,
+			pass: c.pass,
+			source: `${c.source} ${c.provenance}`.trim(),
+		});
+	}
+	return { rows, unmeasured };
+}
+
+function percents(c: ReportChannel): number[] {
+	return c.harmonics.map((h) => h.percentOfFundamental);
+}
+
+/**
+ * Evaluates every voltage channel (and, for IEEE 519, every current channel) of a report.
+ *
+ * EN 50160 and IEC 61000-2-2 are voltage tables: current channels are listed in `notes`, not judged.
+ * IEEE 519 voltages use Table 1 by bus voltage (options.nominalV; when absent, √3 × the highest measured
+ * voltage RMS, said in the notes); currents use Tables 2–4 by options.iscIl (required for them), in % of
+ * I_L = options.ilA, or of the measured fundamental when I_L is not given (said in the notes: TDD then
+ * equals THD, the worst case for a load running at its maximum demand).
+ * Ref: lib/limits tables (each row carries its source); REFERENCE.md §4.
+ */
+export function limitsReport(report: AnalysisReport, options: AnalysisOptions): ReportLimits {
+	const id = options.limits!;
+	const table = LIMIT_TABLES[id];
+	const notes: string[] = [];
+	const rows: ReportLimitRow[] = [];
+	const measured = report.channels.filter((c) => c.harmonics.length > 1);
+	for (const c of report.channels) if (c.harmonics.length <= 1) notes.push(`${c.name}: no harmonics (no fundamental found); not evaluated.`);
+	let busVoltageV = options.nominalV;
+	if (id === 'ieee519' && busVoltageV === undefined) {
+		const vmax = Math.max(0, ...measured.filter((c) => c.quantity === 'voltage').map((c) => c.rms).filter(Number.isFinite));
+		busVoltageV = vmax > 0 ? Math.sqrt(3) * vmax : 400;
+		notes.push(`Bus voltage for the IEEE 519 row taken as ${busVoltageV.toFixed(0)} V (${vmax > 0 ? '√3 × the highest measured voltage' : 'no voltage channel: a low-voltage bus assumed'}); give --nominal to set it.`);
+	}
+	let firstEvaluation: LimitEvaluation | undefined;
+	const add = (name: string, e: LimitEvaluation) => {
+		firstEvaluation ??= e;
+		const r = rowsOf(name, e);
+		rows.push(...r.rows);
+		if (r.unmeasured.length > 0) notes.push(`${name}: ${r.unmeasured.join(', ')} not measured (above the Nyquist order or not analysed).`);
+		if (e.selection !== 'all orders of the table') notes.push(`${name}: ${e.selection}.`);
+	};
+	for (const c of measured) {
+		if (c.quantity === 'voltage') {
+			add(c.name, evaluateLimits(id, id === 'ieee519' ? { quantity: 'voltage', percentOfFundamental: percents(c), busVoltageV } : { percentOfFundamental: percents(c) }));
+		} else if (c.quantity === 'current' && id === 'ieee519') {
+			if (options.iscIl === undefined) {
+				notes.push(`${c.name}: IEEE 519 current limits need the ratio I_SC/I_L (--isc-il); not evaluated.`);
+				continue;
+			}
+			const i1 = c.harmonics[1].rms;
+			const ilA = options.ilA ?? i1;
+			if (options.ilA === undefined) notes.push(`${c.name}: I_L taken as the measured fundamental ${i1.toFixed(3)} A (give --il, the maximum demand current); TDD then equals THD.`);
+			const percentOfIl = c.harmonics.map((h) => (100 * h.rms) / ilA);
+			add(c.name, evaluateLimits(id, { quantity: 'current', percentOfIl, busVoltageV, iscIlRatio: options.iscIl }));
+		} else {
+			notes.push(`${c.name}: ${table.name} sets no limits for a ${c.quantity} channel; not evaluated.`);
+		}
+	}
+	if (rows.length === 0) notes.push('Nothing was evaluated against the table.');
+	if (firstEvaluation) notes.push(...firstEvaluation.notes, firstEvaluation.complianceNote);
+	return { table: id, title: `${table.name} (${table.source})`, pass: rows.every((r) => r.pass), rows, notes: [...new Set(notes)] };
+}
