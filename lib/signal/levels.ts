@@ -69,13 +69,14 @@ export interface WaveformFigures {
  *   formFactor = rms/rectifiedMean,  reading = π/(2√2) · rectifiedMean
  *
  * 'whole-cycles' (default): T runs from the first to the last rising zero crossing of the fundamental
- * (`findWholeCycles`, or `opts.window`); each sample stands for the 1/fs centred on it and counts by the
- * part of that inside the window (see `window-integral.ts`), so the fractional crossing positions are
- * honoured and a record of 9.37 cycles gives the figures of its whole cycles; peaks come from the samples
- * inside the window. When no fundamental is found, the whole record is used and a
+ * (`findWholeCycles`, or `opts.window`), integrated by the trapezoid rule with the integrand interpolated
+ * at the fractional crossing positions (see `window-integral.ts`: equal to the plain sample mean when a
+ * cycle holds a whole number of samples), so a record of 9.37 cycles gives the figures of its whole
+ * cycles; peaks come from the samples inside the window. When no fundamental is found, the whole record is used and a
  * 'whole-record-fallback' warning says why. 'whole-record': plain sample means over all N samples.
  *
- * Empty record: every figure NaN, warning 'no-samples'. NaN or ±Infinity in the samples: every figure NaN
+ * Ratios with a zero denominator are NaN: crestFactor when rms = 0; formFactor when rectifiedMean = 0
+ * (a constant); errorPercentAc when acRms = 0. Empty record: every figure NaN, warning 'no-samples'. NaN or ±Infinity in the samples: every figure NaN
  * (never a silent skip), warning 'non-finite-samples'.
  *
  * Ref: definitions REFERENCE §1.1 (true RMS, rectified average, form and crest factor; read);
@@ -158,15 +159,24 @@ export function waveformFigures(
 		peak,
 		peakNegative,
 		peakToPeak: peak - peakNegative,
-		crestFactor: Math.max(Math.abs(peak), Math.abs(peakNegative)) / rms,
-		formFactor: rms / rectifiedMean,
-		averageResponding: { reading, errorPercent: 100 * (reading / rms - 1), errorPercentAc: 100 * (reading / acRms - 1) },
+		crestFactor: ratio(Math.max(Math.abs(peak), Math.abs(peakNegative)), rms),
+		formFactor: ratio(rms, rectifiedMean),
+		averageResponding: {
+			reading,
+			errorPercent: 100 * (ratio(reading, rms) - 1),
+			errorPercentAc: 100 * (ratio(reading, acRms) - 1),
+		},
 		span,
 		startIndex,
 		endIndex,
 		cycles,
 		warnings,
 	};
+}
+
+/** a / b, or NaN when b is 0 (a ratio to nothing is undefined, not infinite). */
+function ratio(a: number, b: number): number {
+	return b === 0 ? NaN : a / b;
 }
 
 function hasNonFinite(samples: Float64Array): boolean {

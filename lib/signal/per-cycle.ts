@@ -22,7 +22,7 @@ export interface PerCycleFigures {
  * to the next, and the worst cycle by RMS and by peak: the figures UPS and generator sizing start from
  * (an inrush or a motor start shows as one cycle far above the rest).
  *
- *   rms_k = √( (1/T_k) ∫ x² dt )  over [crossing_k, crossing_k+1], samples weighted by their share of it
+ *   rms_k = √( (1/T_k) ∫ x² dt )  over [crossing_k, crossing_k+1], trapezoid rule, ends interpolated
  *
  * Peaks come from the samples inside each cycle. A NaN sample makes its cycle's figures NaN, and NaN
  * cycles are never named worst.

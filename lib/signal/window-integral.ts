@@ -1,17 +1,18 @@
 /**
- * Integral of g(x) over a window with fractional ends, each sample standing for the 1/fs of time centred
- * on it (its cell [j − ½, j + ½]) and weighted by how much of that cell lies in the window. Internal to
- * lib/signal.
+ * Integral of g(x) over a window with fractional ends: the trapezoid rule on the values g(x[j]), with g
+ * linearly interpolated between the two samples around each fractional end. Internal to lib/signal.
  *
- *   ∫ₛᵉ g(x(t)) dt ≈ Σⱼ |[j − ½, j + ½] ∩ [s, e]| · g(x[j])      (t in samples)
+ *   ∫ₛᵉ g(x(t)) dt ≈ ∫ₛᵉ G(t) dt,   G = the piecewise-linear curve through the points (j, g(x[j]))
  *
- * Why: over a window of P·k samples (k whole periods) this is exactly the plain sample mean Σ g(x[j]) / N
- * that meters and scopes compute, wherever the fractional ends fall, also for waveforms with jumps
- * (square, sawtooth), because the partial cells at the two ends add up to one whole period's worth of
- * samples. For smooth waveforms the ends add an error of order 1/P² of one sample's contribution, so a
- * record of 9.37 cycles gives the same figures as one of 9.
+ * Why this rule: over k whole periods of a record with a whole number P of samples per period, the two
+ * end pieces add up to exactly one interior trapezoid (e and s sit at the same place between samples),
+ * so the result equals the plain sample mean Σ g(x[j]) / (kP) that meters and scopes compute, wherever
+ * the ends fall, even for waveforms with jumps (square, sawtooth). For non-integer P the ends add an error
+ * of order 1/P² of one sample's share, and a linear g (the mean) of a smooth signal is integrated almost
+ * exactly. So a record of 9.37 cycles gives the same figures as one of 9.
  *
- * Ref: composite midpoint rule; the 1/fs-per-sample convention is the one `durationS` in lib/capture.ts uses.
+ * Ref: composite trapezoid rule; on periodic integrands over a whole period it equals the rectangle sum
+ * (Trefethen & Weideman 2014, SIAM Review 56(3) 385–458; from memory).
  *
  * @param samples  signal; not modified
  * @param startIndex  window start, fractional sample index, 0 ≤ startIndex ≤ endIndex ≤ N − 1
@@ -25,12 +26,23 @@ export function windowIntegral(
 	endIndex: number,
 	g: (x: number) => number,
 ): number {
-	const lo = Math.floor(startIndex + 0.5);
-	const hi = Math.min(samples.length - 1, Math.floor(endIndex + 0.5));
-	if (lo >= hi) return g(samples[lo]) * (endIndex - startIndex);
-	let inner = 0;
-	for (let j = lo + 1; j < hi; j++) inner += g(samples[j]);
-	return g(samples[lo]) * (lo + 0.5 - startIndex) + inner + g(samples[hi]) * (endIndex - (hi - 0.5));
+	const last = samples.length - 1;
+	const i0 = Math.min(Math.floor(startIndex), last);
+	const i1 = Math.min(Math.floor(endIndex), last);
+	const g0 = g(samples[i0]);
+	const gStart = i0 < last ? g0 + (startIndex - i0) * (g(samples[i0 + 1]) - g0) : g0;
+	const g1 = g(samples[i1]);
+	const gEnd = i1 < last ? g1 + (endIndex - i1) * (g(samples[i1 + 1]) - g1) : g1;
+	if (i0 === i1) return ((gStart + gEnd) / 2) * (endIndex - startIndex);
+	const first = i0 + 1;
+	const gFirst = g(samples[first]);
+	let sum = ((gStart + gFirst) / 2) * (first - startIndex);
+	if (i1 > first) {
+		let inner = 0;
+		for (let j = first + 1; j < i1; j++) inner += g(samples[j]);
+		sum += inner + (gFirst + g1) / 2;
+	}
+	return sum + ((g1 + gEnd) / 2) * (endIndex - i1);
 }
 
 /** Largest and smallest sample with index in [ceil(startIndex), floor(endIndex)]. */
