@@ -9,6 +9,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Ajv2020 from 'ajv/dist/2020.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { openCaptures } from '../../lib/io/open.js';
+import { analyseCapture } from '../../lib/report/analyse.js';
+import { reportToJson } from '../../lib/report/to-json.js';
 import { writeCsvCapture } from './fixtures.js';
 
 const root = join(import.meta.dirname, '..', '..');
@@ -99,6 +102,14 @@ describe('sinecheck analyse --json', () => {
 		expect(p.powerFactor).toBeCloseTo((230 * cos30) / Math.hypot(230, 11.5), 3);
 		expect(p.displacementPowerFactor).toBeCloseTo(cos30, 3);
 		expect(p.character).toBe('inductive');
+	});
+
+	it('analyse --json prints exactly what the library gives for the same file (one analysis code for CLI and UI)', () => {
+		const doc = JSON.parse(run(['analyse', 'feeder.csv', '--json', '--limits', 'ieee519', '--isc-il', '35']).stdout);
+		const opened = openCaptures([{ name: 'feeder.csv', bytes: readFileSync(join(dir, 'feeder.csv')) }]);
+		expect(opened.errors).toEqual([]);
+		const lib = reportToJson(analyseCapture(opened.captures[0], { limits: 'ieee519', iscIl: 35 }));
+		expect(doc).toEqual(JSON.parse(JSON.stringify(lib)));
 	});
 
 	it('analyse --json on an unbalanced three-phase set gives VUF 2.7699 %, PVUR 3.6496 %, LVUR 2.4680 % (REFERENCE.md section 7 computed vectors)', () => {

@@ -1,0 +1,211 @@
+/**
+ * analyseCapture on captures built from closed-form signals (tests/helpers/synth.ts). Expected values come
+ * from formulas written out here, REFERENCE.md's tables and computed vectors, or independent sums over the
+ * samples; never from the code under test.
+ */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import Ajv2020 from 'ajv/dist/2020.js';
+import { describe, expect, it } from 'vitest';
+import type { Capture, Channel, Quantity } from '../../lib/capture.js';
+import { analyseCapture } from '../../lib/report/analyse.js';
+import { reportToJson } from '../../lib/report/to-json.js';
+import { harmonicSamples, sineSamples, type Tone } from '../helpers/synth.js';
+
+const schema = JSON.parse(readFileSync(join(import.meta.dirname, '..', '..', 'lib', 'report', 'report.schema.json'), 'utf8'));
+const validate = new Ajv2020({ allErrors: true, strict: false }).compile(schema);
+
+const FS = 10_000;
+
+function channel(name: string, unit: string, quantity: Quantity, samples: Float64Array): Channel {
+	return { name, unit, quantity, samples };
+}
+
+function capture(channels: Channel[], sampleRateHz = FS): Capture {
+	return { source: 'test.csv', sampleRateHz, startS: 0, channels, metadata: {}, diagnostics: [{ code: 'test-note', message: 'Made by the test.', severity: 'info' }] };
+}
+
+function tones(list: Tone[], cycles: number, frequencyHz = 50, offset?: number): Float64Array {
+	return harmonicSamples(list, { frequencyHz, sampleRateHz: FS, cycles, offset });
+}
+
+describe('analyseCapture: one channel', () => {
+	// 230 V rms fundamental, 11.5 V rms 5th (5 %), 10 V DC.
+	const u = tones([{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }], 20.4, 50, 10);
+	const report = analyseCapture(capture([channel('U1', 'V', 'voltage', u)]));
+	const c = report.channels[0];
+
+	it('analyseCapture(capture) separates DC: mean 10, acRms √(230² + 11.5²), rms √(acRms² + 10²) (RMS of a sum of harmonics, REFERENCE.md 1.3)', () => {
+		const ac = Math.hypot(230, 11.5);
+		expect(c.mean).toBeCloseTo(10, 6);
+		expect(c.acRms).toBeCloseTo(ac, 6);
+		expect(c.rms).toBeCloseTo(Math.hypot(ac, 10), 6);
+		expect(c.harmonics[0].rms).toBeCloseTo(10, 6); // order 0 is |DC|
+	});
+
+	it('analyseCapture(capture) gives THD_F 5 % and THD_R 5/√(1+0.05²) % for a 5 % 5th (THD definitions, REFERENCE.md 2.2)', () => {
+		expect(c.thdPercent).toBeCloseTo(5, 6);
+		expect(c.thdRPercent).toBeCloseTo(5 / Math.sqrt(1 + 0.05 ** 2), 6);
+		expect(c.harmonics[5].percentOfFundamental).toBeCloseTo(5, 6);
+		expect(c.harmonics).toHaveLength(51);
+	});
+
+	it('analyseCapture(capture) gives K-factor (230² + 11.5²·25)/(230² + 11.5²) (UL K-factor, REFERENCE.md 6)', () => {
+		expect(c.kFactor).toBeCloseTo((230 ** 2 + 11.5 ** 2 * 25) / (230 ** 2 + 11.5 ** 2), 6);
+	});
+
+	it('analyseCapture(capture) measures 50 Hz and analyses whole cycles only', () => {
+		expect(report.frequencyHz).toBeCloseTo(50, 6);
+		expect(c.frequencyHz).toBeCloseTo(50, 6);
+		expect(Number.isInteger(report.cyclesAnalysed)).toBe(true);
+		expect(report.cyclesAnalysed).toBeLessThanOrEqual(20);
+		expect(report.window.endS - report.window.startS).toBeCloseTo(report.cyclesAnalysed / 50, 6);
+	});
+
+	it('analyseCapture(capture) lists the importer diagnostics among the assumptions and names the reference', () => {
+		expect(report.assumptions).toContain('Made by the test.');
+		expect(report.assumptions.some((a) => a.includes('Reference channel U1'))).toBe(true);
+		expect(report.referenceChannel).toBe('U1');
+	});
+
+	it('reportToJson(analyseCapture(capture)) validates against report.schema.json', () => {
+		const json = reportToJson(report);
+		expect(validate(json), JSON.stringify(validate.errors)).toBe(true);
+	});
+});
+
+describe('analyseCapture: windows and span', () => {
+	it('analyseCapture(capture) cuts 10-cycle harmonic windows at 50 Hz and 12-cycle ones at 60 Hz (IEC 61000-4-7, REFERENCE.md 2.1)', () => {
+		const r50 = analyseCapture(capture([channel('U1', 'V', 'voltage', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 52 }))]));
+		expect(r50.window.harmonicWindowCycles).toBe(10);
+		expect(r50.window.harmonicWindows).toBe(Math.floor(r50.cyclesAnalysed / 10));
+		const r60 = analyseCapture(capture([channel('U1', 'V', 'voltage', sineSamples({ amplitude: 170, frequencyHz: 60, sampleRateHz: FS, cycles: 52 }))]));
+		expect(r60.window.harmonicWindowCycles).toBe(12);
+		expect(r60.channels[0].harmonics[1].rms).toBeCloseTo(170 / Math.SQRT2, 6);
+	});
+
+	it("analyseCapture(capture, { span: 'whole-record' }) gives the plain RMS of every sample", () => {
+		const x = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 9.3, phaseDeg: 45 });
+		let s = 0;
+		for (const v of x) s += v * v;
+		const plain = Math.sqrt(s / x.length);
+		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', x)]), { span: 'whole-record' });
+		expect(r.window.span).toBe('whole-record');
+		expect(r.channels[0].rms).toBeCloseTo(plain, 9);
+		const cycles = analyseCapture(capture([channel('U1', 'V', 'voltage', x)]));
+		expect(cycles.channels[0].rms).toBeCloseTo(325 / Math.SQRT2, 3); // whole cycles: A/√2
+	});
+
+	it('analyseCapture(capture) of a DC-only capture gives figures over the whole record, no harmonics, and null-safe JSON', () => {
+		const x = new Float64Array(2000).fill(12);
+		const r = analyseCapture(capture([channel('Udc', 'V', 'voltage', x)]));
+		expect(r.cyclesAnalysed).toBe(0);
+		expect(r.channels[0].mean).toBe(12);
+		expect(r.channels[0].harmonics).toEqual([]);
+		expect(r.channels[0].thdPercent).toBeNaN();
+		expect(r.warnings.join(' ')).toMatch(/No periodic fundamental/);
+		const json = reportToJson(r);
+		expect(json.channels[0].thdPercent).toBeNull();
+		expect(validate(json), JSON.stringify(validate.errors)).toBe(true);
+	});
+});
+
+describe('analyseCapture: reference and relations', () => {
+	const cycles = 20;
+	const i = tones([{ order: 1, rms: 5, phaseDeg: 20 }], cycles); // leads the voltage by 20°
+	const u = tones([{ order: 1, rms: 230 }], cycles);
+
+	it('analyseCapture(capture) takes the first voltage channel as reference even when a current comes first', () => {
+		const r = analyseCapture(capture([channel('I1', 'A', 'current', i), channel('U1', 'V', 'voltage', u)]));
+		expect(r.referenceChannel).toBe('U1');
+		expect(r.pairs).toHaveLength(1);
+		expect(r.pairs[0].other).toBe('I1');
+		expect(r.pairs[0].lagDeg).toBeCloseTo(-20, 6); // leads: negative lag
+		expect(r.pairs[0].lagS).toBeCloseTo(-20 / 360 / 50, 6);
+	});
+
+	it('analyseCapture(capture) pairs the only voltage with the only current and calls a leading current capacitive (Q1 = V1·I1·sin θ1 < 0, IEEE 1459)', () => {
+		const r = analyseCapture(capture([channel('V', 'V', 'voltage', u), channel('I', 'A', 'current', i)]));
+		expect(r.power).toHaveLength(1);
+		expect(r.power[0].pairedBy).toBe('only-pair');
+		expect(r.power[0].reactiveVar).toBeCloseTo(230 * 5 * Math.sin((-20 * Math.PI) / 180), 4);
+		expect(r.power[0].activeW).toBeCloseTo(230 * 5 * Math.cos((20 * Math.PI) / 180), 4);
+		expect(r.power[0].character).toBe('capacitive');
+	});
+
+	it('analyseCapture(capture, { refChannel }) measures phase against that channel', () => {
+		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u), channel('I1', 'A', 'current', i)]), { refChannel: 'I1' });
+		expect(r.referenceChannel).toBe('I1');
+		expect(r.pairs[0].other).toBe('U1');
+		expect(r.pairs[0].lagDeg).toBeCloseTo(20, 6);
+	});
+
+	it('analyseCapture(capture, { refChannel }) throws a RangeError naming the missing channel and the ones there are', () => {
+		expect(() => analyseCapture(capture([channel('U1', 'V', 'voltage', u)]), { refChannel: 'U9' })).toThrow(/"U9" not found; the channels are U1/);
+	});
+
+	it('analyseCapture(capture, { pairs }) uses the pairing the user gives', () => {
+		const r = analyseCapture(capture([channel('Ua', 'V', 'voltage', u), channel('Ib', 'A', 'current', i)]), { pairs: [{ voltage: 'Ua', current: 'Ib' }] });
+		expect(r.power.map((p) => [p.voltage, p.current, p.pairedBy])).toEqual([['Ua', 'Ib', 'user']]);
+	});
+
+	it('analyseCapture(capture) finds rotation of a balanced set positive, VUF 0, and swapping two phases makes it negative (Fortescue, REFERENCE.md 7)', () => {
+		const set = (b: number, c: number) =>
+			capture([
+				channel('L1', 'V', 'voltage', tones([{ order: 1, rms: 230, phaseDeg: 0 }], cycles)),
+				channel('L2', 'V', 'voltage', tones([{ order: 1, rms: 230, phaseDeg: b }], cycles)),
+				channel('L3', 'V', 'voltage', tones([{ order: 1, rms: 230, phaseDeg: c }], cycles)),
+			]);
+		const pos = analyseCapture(set(-120, 120)).threePhase!;
+		expect(pos.rotation).toBe('positive');
+		expect(pos.unbalancePercent).toBeCloseTo(0, 6);
+		expect(pos.sequence.positive).toBeCloseTo(230, 6);
+		expect(pos.sequence.zero).toBeCloseTo(0, 6);
+		const neg = analyseCapture(set(120, -120)).threePhase!;
+		expect(neg.rotation).toBe('negative');
+		expect(neg.sequence.negative).toBeCloseTo(230, 6);
+		expect(neg.sequence.positive).toBeCloseTo(0, 6);
+	});
+});
+
+describe('analyseCapture: limits', () => {
+	const cycles = 20;
+	const u = tones([{ order: 1, rms: 230 }, { order: 3, rms: 230 * 0.045 }], cycles);
+	const i = tones([{ order: 1, rms: 100, phaseDeg: -10 }, { order: 5, rms: 10 }], cycles);
+
+	it("analyseCapture(capture, { limits: 'iec61000-2-2' }) passes a 4.5 % 3rd against the 5 % level (IEC 61000-2-2 Table 1, REFERENCE.md 4.2)", () => {
+		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u)]), { limits: 'iec61000-2-2' });
+		const h3 = r.limits!.rows.find((x) => x.order === 3 && x.figure === 'harmonic')!;
+		expect(h3.limit).toBe(5);
+		expect(h3.value).toBeCloseTo(4.5, 6);
+		expect(h3.margin).toBeCloseTo(0.5, 6);
+		expect(r.limits!.pass).toBe(true);
+	});
+
+	it("analyseCapture(capture, { limits: 'ieee519', iscIl: 30 }) fails a 10 % 5th current against 7 % of I_L (IEEE 519 Table 2, 20 < ISC/IL < 50, REFERENCE.md 4.3)", () => {
+		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u), channel('I1', 'A', 'current', i)]), { limits: 'ieee519', iscIl: 30, nominalV: 400 });
+		const h5 = r.limits!.rows.find((x) => x.channel === 'I1' && x.order === 5)!;
+		expect(h5.limit).toBe(7);
+		expect(h5.value).toBeCloseTo(10, 6); // I_L not given: the measured fundamental
+		expect(h5.pass).toBe(false);
+		expect(r.limits!.pass).toBe(false);
+		expect(r.limits!.notes.join(' ')).toMatch(/I_L taken as the measured fundamental/);
+	});
+
+	it("analyseCapture(capture, { limits: 'ieee519', iscIl: 30, ilA: 200 }) passes the same current as 5 % of I_L, TDD 5 % under 8 % (REFERENCE.md 4.3)", () => {
+		const r = analyseCapture(capture([channel('I1', 'A', 'current', i)]), { limits: 'ieee519', iscIl: 30, ilA: 200, nominalV: 400 });
+		const h5 = r.limits!.rows.find((x) => x.order === 5)!;
+		expect(h5.value).toBeCloseTo(5, 6);
+		const tdd = r.limits!.rows.find((x) => x.figure === 'tdd')!;
+		expect(tdd.value).toBeCloseTo(5, 6);
+		expect(tdd.limit).toBe(8);
+		expect(r.limits!.pass).toBe(true);
+		expect(r.channels[0].tddPercent).toBeCloseTo(5, 6);
+	});
+
+	it("analyseCapture(capture, { limits: 'en50160' }) does not judge current channels and says so", () => {
+		const r = analyseCapture(capture([channel('I1', 'A', 'current', i)]), { limits: 'en50160' });
+		expect(r.limits!.rows).toEqual([]);
+		expect(r.limits!.notes.join(' ')).toMatch(/I1: .* no limits for a current channel/);
+	});
+});
