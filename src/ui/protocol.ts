@@ -1,0 +1,52 @@
+/**
+ * Messages between the page and the analysis worker (src/ui/worker.ts). Samples travel as transferable
+ * Float64Arrays (moved, not copied); reports are plain objects.
+ */
+import type { Capture } from '../../lib/capture.js';
+import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
+import type { OpenOptions } from '../../lib/io/open.js';
+
+/** What the user overrode on import (CSV layout, per-channel unit, quantity and scale): lib/io's options. */
+export type ImportOverrides = OpenOptions;
+
+/** One file as bytes (moved to the worker). */
+export interface FileBytes {
+	name: string;
+	bytes: ArrayBuffer;
+}
+
+/** An importer error as data (structured clone drops the ImportError prototype). */
+export interface ImportProblem {
+	source: string;
+	line: number;
+	column: number;
+	code: string;
+	text: string;
+	expected: string;
+	message: string;
+}
+
+export type ToWorker =
+	| { type: 'open'; jobId: number; captureKey: string; files: FileBytes[]; overrides: ImportOverrides; analysis: AnalysisOptions }
+	| { type: 'analyse'; jobId: number; captureKey: string; analysis: AnalysisOptions }
+	| { type: 'seed'; captureKey: string; capture: Capture }
+	| { type: 'forget'; captureKey: string };
+
+export type FromWorker =
+	| { type: 'progress'; jobId: number; stage: string; fraction: number | null }
+	| { type: 'opened'; jobId: number; captureKey: string; capture: Capture; report: AnalysisReport; extras: ReportExtras }
+	| { type: 'import-failed'; jobId: number; captureKey: string; problems: ImportProblem[] }
+	| { type: 'analysed'; jobId: number; captureKey: string; report: AnalysisReport; extras: ReportExtras }
+	| { type: 'missing'; jobId: number; captureKey: string }
+	| { type: 'failed'; jobId: number; message: string };
+
+/**
+ * Figures the worker gets from lib beyond the report itself, for drawing: the whole-cycle boundaries of the
+ * reference channel (seconds from the first sample) and the harmonic groups per channel, when lib offers them.
+ */
+export interface ReportExtras {
+	cycleBoundariesS: number[];
+	groups: Record<string, { order: number; rms: number; percentOfFundamental: number }[]>;
+	/** Sample index of each channel's positive and negative peak within the analysed window (-1 when none). */
+	peakIndex: Record<string, { max: number; min: number }>;
+}

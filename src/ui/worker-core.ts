@@ -1,0 +1,132 @@
+/**
+ * The analysis worker's logic, free of worker globals so tests can run it in-process: open files with
+ * lib/io, analyse with lib/report (the same code the CLI runs), post progress and results. Captures stay
+ * cached here by key so a new reference channel or limit table re-analyses without re-reading the file.
+ */
+import type { Capture } from '../../lib/capture.js';
+import { isImportError } from '../../lib/io/import-error.js';
+import { openCaptures } from '../../lib/io/open.js';
+import { analyseCapture } from '../../lib/report/analyse.js';
+import { chooseReference } from '../../lib/report/reference.js';
+import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
+import type { FromWorker, ImportProblem, ReportExtras, ToWorker } from './protocol.js';
+
+export type Post = (msg: FromWorker, transfer?: Transferable[]) => void;
+
+const cache = new Map<string, Capture>();
+
+/** An importer failure (or any other thrown value) as data the page can show in place. */
+export function toProblem(e: unknown, fallbackSource: string): ImportProblem {
+	if (isImportError(e)) {
+		return { source: e.source, line: e.line, column: e.column, code: e.code, text: e.text, expected: e.expected, message: e.message };
+	}
+	const message = e instanceof Error ? e.message : String(e);
+	return { source: fallbackSource, line: 0, column: 0, code: 'unreadable', text: '', expected: 'a file Sinecheck can read', message };
+}
+
+/** Copy of a capture whose sample buffers can be moved to the page (the cached original stays intact). */
+function transferableCopy(c: Capture): { capture: Capture; transfer: Transferable[] } {
+	const transfer: Transferable[] = [];
+	const channels = c.channels.map((ch) => {
+		const samples = ch.samples.slice();
+		transfer.push(samples.buffer);
+		return { ...ch, samples };
+	});
+	const timeS = c.timeS?.slice();
+	if (timeS) transfer.push(timeS.buffer);
+	return { capture: { ...c, channels, timeS }, transfer };
+}
+
+/** Sample index of the largest and smallest value of `x` between i0 and i1 (-1 when all NaN). */
+function peakIndices(x: Float64Array, i0: number, i1: number): { max: number; min: number } {
+	let max = -1;
+	let min = -1;
+	for (let i = i0; i < i1; i++) {
+		const v = x[i];
+		if (v === v) {
+			if (max < 0 || v > x[max]) max = i;
+			if (min < 0 || v < x[min]) min = i;
+		}
+	}
+	return { max, min };
+}
+
+/**
+ * What the plots need beside the report: where the analysed window's peaks sit and the whole-cycle
+ * boundaries (the reference crossings lib/report used, found again by the same call).
+ */
+export function extrasFor(capture: Capture, report: AnalysisReport, analysis: AnalysisOptions): ReportExtras {
+	const fs = capture.sampleRateHz;
+	const n = capture.channels[0]?.samples.length ?? 0;
+	const i0 = Math.max(0, Math.floor(report.window.startS * fs));
+	const i1 = Math.min(n, Math.ceil(report.window.endS * fs));
+	const peakIndex: ReportExtras['peakIndex'] = {};
+	for (const ch of capture.channels) peakIndex[ch.name] = peakIndices(ch.samples, i0, i1);
+	const cycleBoundariesS: number[] = [];
+	if (report.cyclesAnalysed > 0 && report.referenceChannel !== null) {
+		const ref = chooseReference(capture, report.referenceChannel, analysis.nominalHz ?? capture.nominalFrequencyHz);
+		if (ref.window) for (const x of ref.window.crossings) cycleBoundariesS.push(x / fs);
+	}
+	return { cycleBoundariesS, groups: {}, peakIndex };
+}
+
+/** Handles one message from the page. */
+export function handleMessage(msg: ToWorker, post: Post): void {
+	switch (msg.type) {
+		case 'seed':
+			cache.set(msg.captureKey, msg.capture);
+			return;
+		case 'forget':
+			cache.delete(msg.captureKey);
+			return;
+		case 'analyse': {
+			const capture = cache.get(msg.captureKey);
+			if (!capture) {
+				post({ type: 'missing', jobId: msg.jobId, captureKey: msg.captureKey });
+				return;
+			}
+			try {
+				post({ type: 'progress', jobId: msg.jobId, stage: `Analysing ${capture.source}`, fraction: null });
+				const report = analyseCapture(capture, msg.analysis);
+				post({ type: 'analysed', jobId: msg.jobId, captureKey: msg.captureKey, report, extras: extrasFor(capture, report, msg.analysis) });
+			} catch (e) {
+				post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
+			}
+			return;
+		}
+		case 'open': {
+			const names = msg.files.map((f) => f.name).join(', ');
+			post({ type: 'progress', jobId: msg.jobId, stage: `Reading ${names}`, fraction: 0 });
+			let captures: Capture[] = [];
+			const problems: ImportProblem[] = [];
+			try {
+				const result = openCaptures(
+					msg.files.map((f) => ({ name: f.name, bytes: new Uint8Array(f.bytes) })),
+					msg.overrides,
+				);
+				captures = result.captures;
+				for (const e of result.errors) problems.push(toProblem(e, names));
+			} catch (e) {
+				problems.push(toProblem(e, names));
+			}
+			if (problems.length > 0 || captures.length === 0) {
+				if (problems.length === 0) problems.push(toProblem(new Error('no capture found in these files'), names));
+				post({ type: 'import-failed', jobId: msg.jobId, captureKey: msg.captureKey, problems });
+				return;
+			}
+			const capture = captures[0];
+			try {
+				post({ type: 'progress', jobId: msg.jobId, stage: `Analysing ${capture.source}`, fraction: null });
+				const report = analyseCapture(capture, msg.analysis);
+				cache.set(msg.captureKey, capture);
+				const { capture: copy, transfer } = transferableCopy(capture);
+				post({ type: 'opened', jobId: msg.jobId, captureKey: msg.captureKey, capture: copy, report, extras: extrasFor(capture, report, msg.analysis) }, transfer);
+			} catch (e) {
+				post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
+			}
+			return;
+		}
+	}
+}
+
+export type { AnalysisOptions };
