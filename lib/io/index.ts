@@ -1,4 +1,6 @@
 // Public API of lib/io: text or bytes -> Capture. Re-exports only.
 export * from './import-error.js';
+export * from './csv/index.js';
 export { parseWav, type WavOptions, type WavChannelCalibration } from './wav.js';
 export * from './comtrade/index.js';
+export { openCaptures, openCapture, type InputFile, type OpenOptions } from './open.js';

@@ -1,0 +1,126 @@
+/**
+ * Format dispatch: file names and bytes -> captures, the one entry point the CLI and the UI share.
+ * Picks the reader by content first (a RIFF WAVE header, a CFF section line), then by extension:
+ * .csv/.txt/.tsv CSV, .wav WAV, .cfg with the .dat of the same base name (case-insensitive) COMTRADE,
+ * .cff single-file COMTRADE. Platform-free: takes bytes, never paths.
+ */
+import type { Capture } from '../capture.js';
+import { type ComtradeOptions, parseComtrade } from './comtrade/parse.js';
+import { parseComtradeCff } from './comtrade/cff.js';
+import { decodeText } from './comtrade/text.js';
+import { type CsvOptions, parseCsv } from './csv/index.js';
+import { ImportError, isImportError } from './import-error.js';
+import { parseWav, type WavOptions } from './wav.js';
+
+/** A file handed to the importers: its name (with extension; a path is fine) and its bytes. */
+export interface InputFile {
+	name: string;
+	bytes: Uint8Array;
+}
+
+/** Per-format options, passed on to the reader that takes the file. */
+export interface OpenOptions {
+	csv?: CsvOptions;
+	wav?: WavOptions;
+	comtrade?: ComtradeOptions;
+}
+
+const COMTRADE_COMPANIONS = ['dat', 'hdr', 'inf'];
+
+function splitName(name: string): { base: string; ext: string } {
+	const slash = Math.max(name.lastIndexOf('/'), name.lastIndexOf('\\'));
+	const dot = name.lastIndexOf('.');
+	if (dot <= slash + 1) return { base: name.toLowerCase(), ext: '' };
+	return { base: name.slice(0, dot).toLowerCase(), ext: name.slice(dot + 1).toLowerCase() };
+}
+
+const startsWithAscii = (b: Uint8Array, text: string, at = 0) => {
+	if (b.length < at + text.length) return false;
+	for (let i = 0; i < text.length; i++) if (b[at + i] !== text.charCodeAt(i)) return false;
+	return true;
+};
+
+function isWav(b: Uint8Array): boolean {
+	return (startsWithAscii(b, 'RIFF') || startsWithAscii(b, 'RIFX')) && startsWithAscii(b, 'WAVE', 8);
+}
+
+function isCff(b: Uint8Array): boolean {
+	const at = startsWithAscii(b, '\xEF\xBB\xBF') ? 3 : 0;
+	return /^---\s*file type:\s*cfg/i.test(new TextDecoder('latin1').decode(b.subarray(at, at + 40)));
+}
+
+function looksBinary(b: Uint8Array): boolean {
+	const n = Math.min(b.length, 4096);
+	for (let i = 0; i < n; i++) if (b[i] === 0) return true;
+	return false;
+}
+
+/** Read one file with the reader its content and name call for; companions supply a .cfg's .dat. */
+function readOne(file: InputFile, companions: InputFile[], options: OpenOptions): Capture {
+	const { base, ext } = splitName(file.name);
+	if (file.bytes.length === 0) throw new ImportError(file.name, 0, 0, 'empty-file', '', 'a file with data in it');
+	if (isWav(file.bytes)) return parseWav(file.bytes, file.name, options.wav);
+	if (ext === 'wav') return parseWav(file.bytes, file.name, options.wav); // not RIFF: the reader says why
+	if (ext === 'cff' || isCff(file.bytes)) return parseComtradeCff(file.bytes, file.name, options.comtrade);
+	const sibling = (wanted: string) => companions.find((c) => c !== file && splitName(c.name).base === base && splitName(c.name).ext === wanted);
+	if (ext === 'cfg') {
+		const dat = sibling('dat');
+		if (!dat) throw new ImportError(file.name, 0, 0, 'missing-companion-file', '', `the data file ${file.name.replace(/\.cfg$/i, '.dat')} next to this .cfg (give both files)`);
+		const capture = parseComtrade(decodeText(file.bytes).text, dat.bytes, file.name, { ...options.comtrade, datSource: dat.name });
+		for (const kind of ['hdr', 'inf']) {
+			const f = sibling(kind);
+			if (f) capture.metadata[`comtrade.${kind}`] = decodeText(f.bytes).text.trim();
+		}
+		return capture;
+	}
+	if (COMTRADE_COMPANIONS.includes(ext)) {
+		throw new ImportError(file.name, 0, 0, 'missing-companion-file', '', `the configuration file ${file.name.replace(/\.[^.]+$/, '.cfg')} that describes this COMTRADE .${ext} file`);
+	}
+	if (ext === 'csv' || ext === 'txt' || ext === 'tsv') return parseCsv(file.bytes, file.name, options.csv);
+	if (looksBinary(file.bytes)) {
+		throw new ImportError(file.name, 0, 0, 'unsupported-format', ext ? `.${ext}` : '', 'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file');
+	}
+	const capture = parseCsv(file.bytes, file.name, options.csv);
+	capture.diagnostics.unshift({ code: 'format-from-content', severity: 'assumption', message: `The name ${file.name} does not say the format; the text was read as a delimited table.` });
+	return capture;
+}
+
+function wrap(file: InputFile, e: unknown): ImportError {
+	if (isImportError(e)) return e;
+	// A reader failing any other way is a bug; the user still gets a typed error for that one file.
+	return new ImportError(file.name, 0, 0, 'internal-error', e instanceof Error ? e.message : String(e), 'a file the reader could handle (this is a fault in Sinecheck; please report it)');
+}
+
+/**
+ * Open every capture in a set of files. A .cfg takes the .dat (and .hdr/.inf) of the same base name,
+ * case-insensitively; every other file stands alone. One bad file never stops the others: its error is
+ * returned in `errors`, in input order.
+ * @example openCaptures([{ name: 'a.cfg', bytes: cfg }, { name: 'A.DAT', bytes: dat }]).captures.length // 1
+ */
+export function openCaptures(files: InputFile[], options: OpenOptions = {}): { captures: Capture[]; errors: ImportError[] } {
+	const captures: Capture[] = [];
+	const errors: ImportError[] = [];
+	const cfgBases = new Set(files.filter((f) => splitName(f.name).ext === 'cfg').map((f) => splitName(f.name).base));
+	for (const file of files) {
+		const { base, ext } = splitName(file.name);
+		if (COMTRADE_COMPANIONS.includes(ext) && cfgBases.has(base)) continue; // read with its .cfg
+		try {
+			captures.push(readOne(file, files, options));
+		} catch (e) {
+			errors.push(wrap(file, e));
+		}
+	}
+	return { captures, errors };
+}
+
+/**
+ * Open one capture; `companions` supplies the .dat (and .hdr/.inf) of a .cfg.
+ * @throws ImportError for anything that cannot be read (including 'missing-companion-file')
+ */
+export function openCapture(file: InputFile, companions: InputFile[] = [], options: OpenOptions = {}): Capture {
+	try {
+		return readOne(file, [file, ...companions], options);
+	} catch (e) {
+		throw wrap(file, e);
+	}
+}
