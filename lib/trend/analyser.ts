@@ -142,8 +142,15 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		const thd: number[] = new Array(nCh);
 		for (let c = 0; c < nCh; c++) {
 			const ring = rings[c];
-			let s = 0;
-			for (let j = start; j < end; j++) {
+			// Sample j stands for [j − ½, j + ½); the two edge samples count by the part inside the window,
+			// so the window is exactly startT..endT on every channel, not only on the reference (whose edge
+			// samples are near zero anyway).
+			const ja = Math.round(startT);
+			const jb = Math.round(endT);
+			const va = ring[ja & mask];
+			const vb = ring[jb & mask];
+			let s = (ja + 0.5 - startT) * va * va + (endT - jb + 0.5) * vb * vb;
+			for (let j = ja + 1; j < jb; j++) {
 				const v = ring[j & mask];
 				s += v * v;
 			}
@@ -160,7 +167,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		pendingRows.push({
 			start,
 			end,
-			row: { interval: '10/12-cycle', startS: startT / fs, durationS: lengthT / fs, cycles: cyclesPerWindow, complete: true, flagged: false, rms, thdPercent: thd },
+			row: { interval: '10/12-cycle', startS: startT / fs, durationS: lengthT / fs, cycles: cyclesPerWindow, frequencyHz: (cyclesPerWindow * fs) / lengthT, complete: true, flagged: false, rms, thdPercent: thd },
 		});
 	}
 

@@ -13,6 +13,7 @@ export class RowGroup {
 	private readonly sumSqThd: Float64Array;
 	private count = 0;
 	private cycles = 0;
+	private windowsS = 0;
 	private flagged = false;
 	private startS = NaN;
 	private endS = NaN;
@@ -38,6 +39,7 @@ export class RowGroup {
 			this.sumSqThd[c] += row.thdPercent[c] * row.thdPercent[c];
 		}
 		this.cycles += row.cycles;
+		this.windowsS += row.durationS;
 		this.count++;
 		if (row.flagged) this.flagged = true;
 	}
@@ -51,6 +53,7 @@ export class RowGroup {
 			startS: this.startS,
 			durationS: this.endS - this.startS,
 			cycles: this.cycles,
+			frequencyHz: this.cycles / this.windowsS,
 			complete,
 			flagged: this.flagged,
 			rms: Array.from(this.sumSqRms, (s) => Math.sqrt(s / n)),
@@ -60,6 +63,7 @@ export class RowGroup {
 		this.sumSqThd.fill(0);
 		this.count = 0;
 		this.cycles = 0;
+		this.windowsS = 0;
 		this.flagged = false;
 		return row;
 	}

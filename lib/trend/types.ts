@@ -64,6 +64,8 @@ export interface TrendRow {
 	durationS: number;
 	/** Fundamental cycles of the timing reference covered (10/12 for a basic row; 150/180 for a full 3 s row). */
 	cycles: number;
+	/** Mean fundamental frequency over the interval: cycles / summed window durations, Hz. */
+	frequencyHz: number;
 	/** False for a group cut short by the end of the recording (or, for 150/180-cycle, by a 10-min tick). */
 	complete: boolean;
 	/** True when any part of the interval overlaps a dip, swell or interruption (REFERENCE §3.5). */

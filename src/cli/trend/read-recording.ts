@@ -12,13 +12,19 @@ import { CsvStreamReader } from '../../../lib/io/csv/stream-reader.js';
 import { ImportError } from '../../../lib/io/import-error.js';
 import { openCapture, type InputFile, type OpenOptions } from '../../../lib/io/open.js';
 import { createTrendAnalyser } from '../../../lib/trend/analyser.js';
-import type { TrendOptions, TrendResult } from '../../../lib/trend/types.js';
+import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
 import { isWavHead, openWavStream } from './wav-stream.js';
 
 export type AnalyserSettings = Omit<TrendOptions, 'sampleRateHz' | 'channels'>;
 
 /** Called now and then with the fraction of the file done (0…1). */
 export type OnProgress = (fraction: number) => void;
+
+export interface AnalyseFileHooks {
+	onProgress?: OnProgress;
+	/** Called once the channels are known, before the first sample is analysed. */
+	onChannels?: (channels: TrendChannelSpec[]) => void;
+}
 
 const BLOCK_FRAMES = 65_536;
 
@@ -33,7 +39,8 @@ function head(path: string, bytes: number): Uint8Array {
 	}
 }
 
-function analyseWhole(capture: Capture, settings: AnalyserSettings, onProgress?: OnProgress): TrendResult {
+function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+	const onProgress = hooks.onProgress;
 	const nominal = settings.nominalHz ?? (capture.nominalFrequencyHz === 50 || capture.nominalFrequencyHz === 60 ? capture.nominalFrequencyHz : undefined);
 	const a = createTrendAnalyser({
 		...settings,
@@ -41,6 +48,7 @@ function analyseWhole(capture: Capture, settings: AnalyserSettings, onProgress?:
 		sampleRateHz: capture.sampleRateHz,
 		channels: capture.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
 	});
+	hooks.onChannels?.(capture.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })));
 	const n = capture.channels[0]?.samples.length ?? 0;
 	for (let off = 0; off < n; off += BLOCK_FRAMES) {
 		const end = Math.min(n, off + BLOCK_FRAMES);
@@ -73,7 +81,8 @@ function companions(path: string): InputFile[] {
  * @param source  the name to show in messages and errors
  * @throws ImportError for anything the readers cannot take (file, line, column, what was expected)
  */
-export function analyseFile(path: string, source: string, open: OpenOptions, settings: AnalyserSettings, onProgress?: OnProgress): TrendResult {
+export function analyseFile(path: string, source: string, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks = {}): TrendResult {
+	const onProgress = hooks.onProgress;
 	const size = statSync(path).size;
 	const first = head(path, 64);
 	const ext = extname(path).toLowerCase();
@@ -81,7 +90,9 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 		const wav = openWavStream(path, source, open.wav, BLOCK_FRAMES);
 		try {
 			const h = wav.header;
-			const a = createTrendAnalyser({ ...settings, sampleRateHz: wav.sampleRateHz, channels: h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })) });
+			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
+			const a = createTrendAnalyser({ ...settings, sampleRateHz: wav.sampleRateHz, channels: specs });
+			hooks.onChannels?.(specs);
 			const bufs = h.channels.map(() => new Float64Array(BLOCK_FRAMES));
 			let done = 0;
 			for (;;) {
@@ -100,7 +111,7 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 		const file = { name: basename(path), bytes: new Uint8Array(readFileSync(path)) };
 		const capture = openCapture(file, ext === '.cfg' ? companions(path) : [], open);
 		capture.source = source;
-		return analyseWhole(capture, settings, onProgress);
+		return analyseWhole(capture, settings, hooks);
 	}
 	if (ext === '.dat' || ext === '.hdr' || ext === '.inf') {
 		throw new ImportError(source, 0, 0, 'unsupported-format', ext, 'the .cfg file of a COMTRADE record (its .dat is found beside it)');
@@ -120,5 +131,5 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 		closeSync(fd);
 	}
 	const capture = reader.finish();
-	return analyseWhole(capture, settings, onProgress ? (f) => onProgress(0.5 + 0.5 * f) : undefined);
+	return analyseWhole(capture, settings, { ...hooks, onProgress: onProgress ? (f) => onProgress(0.5 + 0.5 * f) : undefined });
 }

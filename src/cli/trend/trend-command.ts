@@ -1,0 +1,149 @@
+/**
+ * `sinecheck trend <file...>`: per-cycle trends and voltage events of long recordings.
+ * CSV of the aggregates on stdout (rows written as they are measured), or with --json one JSON document
+ * per file. Events, diagnostics and errors go to stderr, one line each; progress only on a terminal.
+ * Returns the exit code: 0 ok, 2 usage or input error.
+ */
+import { existsSync, statSync } from 'node:fs';
+import { isImportError } from '../../../lib/io/import-error.js';
+import type { OpenOptions } from '../../../lib/io/open.js';
+import type { TrendInterval, TrendResult, TrendRow, TrendThresholds } from '../../../lib/trend/types.js';
+import { analyseFile, type AnalyserSettings } from './read-recording.js';
+import { csvHeader, csvRow, eventLine, trendJson } from './trend-output.js';
+
+export interface TrendCommandOptions {
+	/** Declared voltage Udin in V (line-to-neutral when the channels are). Inferred when absent. */
+	nominal?: number | string;
+	/** Nominal frequency, 50 or 60 Hz; from the file or the first cycles when absent. */
+	frequency?: number | string;
+	json?: boolean;
+	/** Which aggregate rows the CSV holds: '10/12-cycle' (default; also '200ms'), '150/180-cycle' ('3s'), '10-min' ('10min'). */
+	interval?: string;
+	dipPercent?: number | string;
+	swellPercent?: number | string;
+	interruptionPercent?: number | string;
+	hysteresisPercent?: number | string;
+	/** false skips the harmonic analysis (THD columns empty). Default true. */
+	thd?: boolean;
+	/** Importer options (calibration, CSV layout...) prepared by the caller. */
+	open?: OpenOptions;
+	/** Output streams (tests); default process.stdout / process.stderr. */
+	stdout?: NodeJS.WritableStream;
+	stderr?: NodeJS.WritableStream & { isTTY?: boolean };
+}
+
+class TrendUsageError extends Error {}
+
+const INTERVALS: Record<string, TrendInterval> = {
+	'10/12-cycle': '10/12-cycle',
+	'200ms': '10/12-cycle',
+	'150/180-cycle': '150/180-cycle',
+	'3s': '150/180-cycle',
+	'10-min': '10-min',
+	'10min': '10-min',
+};
+
+function num(option: string, value: number | string | undefined, check: (x: number) => boolean, what: string): number | undefined {
+	if (value === undefined || value === null || value === '') return undefined;
+	const x = typeof value === 'number' ? value : Number(String(value).replace(',', '.'));
+	if (!Number.isFinite(x) || !check(x)) throw new TrendUsageError(`--${option} ${value}: expected ${what}`);
+	return x;
+}
+
+function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSettings; interval: TrendInterval } {
+	const declaredV = num('nominal', options.nominal, (x) => x > 0, 'the declared voltage in V (a number above 0)');
+	const hz = num('frequency', options.frequency, (x) => x === 50 || x === 60, '50 or 60 (Hz)');
+	const thresholds: Partial<TrendThresholds> = {};
+	const pct = (o: string, v: number | string | undefined) => num(o, v, (x) => x >= 0 && x <= 1000, 'a percentage of the declared voltage');
+	const dip = pct('dip-percent', options.dipPercent);
+	const swell = pct('swell-percent', options.swellPercent);
+	const intr = pct('interruption-percent', options.interruptionPercent);
+	const hyst = pct('hysteresis-percent', options.hysteresisPercent);
+	if (dip !== undefined) thresholds.dipPercent = dip;
+	if (swell !== undefined) thresholds.swellPercent = swell;
+	if (intr !== undefined) thresholds.interruptionPercent = intr;
+	if (hyst !== undefined) thresholds.hysteresisPercent = hyst;
+	const interval = INTERVALS[options.interval ?? '10/12-cycle'];
+	if (!interval) throw new TrendUsageError(`--interval ${options.interval}: expected one of ${Object.keys(INTERVALS).join(', ')}`);
+	return {
+		settings: { declaredV, nominalHz: hz as 50 | 60 | undefined, thresholds, thd: options.thd !== false },
+		interval,
+	};
+}
+
+/** Runs the trend command over `files`; see the module comment. */
+export async function trendCommand(files: string[], options: TrendCommandOptions = {}): Promise<number> {
+	const out = options.stdout ?? process.stdout;
+	const err = options.stderr ?? process.stderr;
+	const tty = (err as { isTTY?: boolean }).isTTY === true;
+	let parsed: ReturnType<typeof settingsFrom>;
+	try {
+		if (files.length === 0) throw new TrendUsageError('trend: give at least one recording file');
+		parsed = settingsFrom(options);
+	} catch (e) {
+		err.write(`${e instanceof Error ? e.message : String(e)}\n`);
+		return 2;
+	}
+	const { settings, interval } = parsed;
+	const several = files.length > 1;
+	const docs: unknown[] = [];
+	let failed = 0;
+	let headerFor = '';
+	for (const file of files) {
+		try {
+			if (!existsSync(file) || !statSync(file).isFile()) throw new TrendUsageError(`${file}: no such file`);
+			let pending: string[] = [];
+			const flush = () => {
+				if (pending.length > 0) out.write(pending.join(''));
+				pending = [];
+			};
+			let lastDraw = 0;
+			const onProgress = tty
+				? (f: number) => {
+						const now = Date.now();
+						if (now - lastDraw < 250) return;
+						lastDraw = now;
+						err.write(`\r${file}: ${(100 * f).toFixed(0)} %\x1b[K`);
+					}
+				: undefined;
+			const result: TrendResult = analyseFile(
+				file,
+				file,
+				options.open ?? {},
+				{
+					...settings,
+					// CSV rows go out as they are measured, so nothing accumulates; JSON keeps them all.
+					keep: options.json ? undefined : { cycles10: false, cycles150: false, min10: false },
+					onRow: options.json
+						? undefined
+						: (row) => {
+								if (row.interval !== interval) return;
+								pending.push(csvRow(row, several ? file : undefined));
+								if (pending.length >= 256) flush();
+							},
+				},
+				{
+					onProgress,
+					onChannels: (chs) => {
+						const header = csvHeader(chs, several);
+						if (!options.json && header !== headerFor) pending.push(header);
+						headerFor = header;
+					},
+				},
+			);
+			flush();
+			if (tty) err.write('\r\x1b[K');
+			for (const d of result.diagnostics) err.write(`${file}: ${d.severity}: ${d.message}\n`);
+			if (options.json) docs.push(trendJson(file, result));
+			else for (const e of result.events) err.write(`${file}: ${eventLine(e, result.declaredV)}\n`);
+		} catch (e) {
+			if (tty) err.write('\r\x1b[K');
+			failed++;
+			if (isImportError(e)) err.write(`${e.message}\n`);
+			else if (e instanceof TrendUsageError || e instanceof RangeError) err.write(`${file}: ${e.message}\n`);
+			else err.write(`${file}: cannot analyse: ${e instanceof Error ? e.message : String(e)}\n`);
+		}
+	}
+	if (options.json && docs.length > 0) out.write(`${JSON.stringify(several ? docs : docs[0], null, 1)}\n`);
+	return failed > 0 ? 2 : 0;
+}

@@ -1,0 +1,76 @@
+/** Text forms of trend results: CSV lines of aggregate rows, the JSON document, one-line event text. */
+import type { TrendChannelSpec, TrendEvent, TrendResult, TrendRow } from '../../../lib/trend/types.js';
+
+/** CSV cell: quoted when it holds a comma, quote or line break; a leading = + - @ is defused for spreadsheets. */
+function cell(text: string): string {
+	const t = /^[=+\-@]/.test(text) && !/^-?\d/.test(text) ? `'${text}` : text;
+	return /[",\r\n]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t;
+}
+
+function n(x: number, digits: number): string {
+	return Number.isFinite(x) ? x.toFixed(digits) : '';
+}
+
+/** Header line: interval, times, frequency, flags, then `<name> rms (<unit>)` and `<name> THD (%)` per channel. */
+export function csvHeader(channels: TrendChannelSpec[], withFile: boolean): string {
+	const cols = [
+		...(withFile ? ['file'] : []),
+		'interval',
+		'start_s',
+		'duration_s',
+		'cycles',
+		'frequency_hz',
+		'complete',
+		'flagged',
+		...channels.flatMap((c) => [`${c.name} rms${c.unit ? ` (${c.unit})` : ''}`, `${c.name} THD (%)`]),
+	];
+	return `${cols.map(cell).join(',')}\n`;
+}
+
+export function csvRow(row: TrendRow, file?: string): string {
+	const cols = [
+		...(file !== undefined ? [cell(file)] : []),
+		row.interval,
+		n(row.startS, 4),
+		n(row.durationS, 4),
+		String(row.cycles),
+		n(row.frequencyHz, 4),
+		row.complete ? '1' : '0',
+		row.flagged ? '1' : '0',
+		...row.rms.flatMap((v, i) => [n(v, 3), n(row.thdPercent[i], 3)]),
+	];
+	return `${cols.join(',')}\n`;
+}
+
+/** One line for stderr: 'dip on L2 at 0.5057 s for 0.0600 s, residual 161.0 V (70.0 % of 230 V)'. */
+export function eventLine(e: TrendEvent, declaredV: number): string {
+	const what = e.kind === 'swell' ? `maximum ${e.maximumV!.toFixed(1)} V` : `residual ${e.residualV!.toFixed(1)} V`;
+	const open = e.ended ? '' : ' (still going at the end of the recording)';
+	return `${e.kind} on ${e.channels.join(', ')} at ${e.startS.toFixed(4)} s for ${e.durationS.toFixed(4)} s${open}, ${what} (${e.percentOfDeclared.toFixed(1)} % of ${declaredV} V)`;
+}
+
+/**
+ * The JSON document of one file:
+ * { source, declaredV, declaredVSource, nominalHz, sampleRateHz, durationS, referenceChannel, thresholds,
+ *   channels: [{name, quantity, unit}], aggregates: [TrendRow...] (10/12-cycle, then 150/180-cycle,
+ *   then 10-min; rms/thdPercent in channel order), frequency: [10 s rows], events: [{ kind, channels,
+ *   startS, durationS, residualV | maximumV, percentOfDeclared, ended }], diagnostics }.
+ * Times in s from the first sample. NaN becomes null.
+ */
+export function trendJson(source: string, r: TrendResult): unknown {
+	return {
+		source,
+		declaredV: r.declaredV,
+		declaredVSource: r.declaredVSource,
+		nominalHz: r.nominalHz,
+		sampleRateHz: r.sampleRateHz,
+		durationS: r.durationS,
+		referenceChannel: r.referenceChannel,
+		thresholds: r.thresholds,
+		channels: r.channels,
+		aggregates: [...r.cycles10, ...r.cycles150, ...r.min10],
+		frequency: r.frequency,
+		events: r.events,
+		diagnostics: r.diagnostics,
+	};
+}
