@@ -5,3 +5,4 @@ export * from './unbalance.js';
 export * from './line-voltages.js';
 export * from './neutral.js';
 export * from './connection.js';
+export * from './from-samples.js';

@@ -8,3 +8,4 @@ export * from './single-phase.js';
 export * from './three-phase.js';
 export * from './phase-label.js';
 export * from './pairing.js';
+export * from './from-samples.js';
