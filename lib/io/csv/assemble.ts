@@ -32,6 +32,7 @@ export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: 
 			bodyLine: layout.bodyLine,
 			rowsAreLines: scanner.blankLines === 0,
 			jitterTolerance: options.jitterTolerance ?? 0.1,
+			resolutionS: layout.timeResolution === null ? undefined : layout.timeResolution * f,
 			statedSampleRateHz: stated,
 			repeatedTimes: scanner.repeatedTimes,
 			firstRepeatLine: scanner.firstRepeatLine,
@@ -54,7 +55,7 @@ export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: 
 		const samples = cols[col.index];
 		// A pure power-of-ten division (mV, mA) divides, so 3.25 mA gives the double nearest 0.00325 A.
 		const divisor = 1 / s.factor;
-		if (s.offset === 0 && Number.isInteger(divisor) && 1 / divisor === s.factor) for (let i = 0; i < n; i++) samples[i] /= divisor;
+		if (s.factor !== 1 && s.offset === 0 && Number.isInteger(divisor) && 1 / divisor === s.factor) for (let i = 0; i < n; i++) samples[i] /= divisor;
 		else if (s.factor !== 1 || s.offset !== 0) for (let i = 0; i < n; i++) samples[i] = s.factor * samples[i] + s.offset;
 		let name = s.name;
 		for (let k = 2; seen.has(name); k++) name = `${s.name} (${k})`;

@@ -52,7 +52,7 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 	if (lineBreak !== '\n') diagnostics.push(info('line-break', `Lines end with ${lineBreak === '\r\n' ? 'CR LF (Windows)' : 'CR alone (old Mac)'}.`));
 
 	// Delimiter and decimal mark, scored together on the rows that are all numbers.
-	let best: { d: Delimiter; mark: Mark; k: number; rows: number } | null = null;
+	let best: { d: Delimiter; mark: Mark; k: number; rows: number; hits: number } | null = null;
 	for (const [d, mark] of CANDIDATES) {
 		if (options.delimiter !== undefined && options.delimiter !== d) continue;
 		if (options.decimalMark !== undefined && options.decimalMark !== mark) continue;
@@ -61,7 +61,13 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 			const { cells } = trimTrailingEmpty(splitCells(line, d));
 			if (cells.length > 0 && cells.every((c) => isNumberCell(c, mark))) widths.set(cells.length, (widths.get(cells.length) ?? 0) + 1);
 		}
-		for (const [k, rows] of widths) if (!best || rows > best.rows || (rows === best.rows && k > best.k)) best = { d, mark, k, rows };
+		// the most common width of all-number rows; on a tie the one seen first (the top of the table)
+		let k = 0;
+		let rows = 0;
+		for (const [w, r] of widths) if (r > rows) [k, rows] = [w, r];
+		// on a tie (one-column data), the delimiter the text lines above use
+		const hits = d === ' ' ? 0 : lines.slice(0, 50).filter((l) => l.includes(d) && /[A-Za-z]/.test(l)).length;
+		if (rows > 0 && (!best || rows > best.rows || (rows === best.rows && (k > best.k || (k === best.k && hits > best.hits))))) best = { d, mark, k, rows, hits };
 	}
 	if (!best) {
 		const lastIdx = lastNonBlank(lines);
@@ -149,7 +155,7 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		unitsLine: unitsIdx === null ? null : unitsIdx + 1,
 		bodyLine: bodyIdx + 1,
 		columnCount, trailingEmptyColumns, columns,
-		timeColumn: null, timeUnit: null,
+		timeColumn: null, timeUnit: null, timeResolution: null,
 		metadata: facts.metadata,
 		statedSampleRateHz: options.sampleRateHz ?? facts.sampleRateHz,
 		startTime: facts.startTime,

@@ -1,7 +1,7 @@
 /**
  * The data-body scanner: bytes straight into one growable Float64Array per column, no strings, no row
  * objects. Numbers are read in the scanner (decimal point or comma) and come out bit-identical to
- * parseFloat: a decimal significand of at most 15 digits (< 2^53, exact) scaled by an exact power of ten
+ * parseFloat: a decimal significand below 2^53 (exact) scaled by an exact power of ten
  * (10^0..10^22 are exact in binary64) takes one correctly rounded multiply or divide (Clinger's fast
  * path, W. D. Clinger, "How to read floating point numbers accurately", PLDI 1990); anything else goes to
  * parseFloat on the same characters.
@@ -11,6 +11,9 @@
 import { ImportError } from '../import-error.js';
 
 const POW10 = new Float64Array(23).map((_, i) => Number(`1e${i}`));
+// m * 10 + d is exact while the result stays below 2^53, and m only grows: a final m <= 2^53 - 1 was
+// accumulated without rounding.
+const MAX_EXACT = Number.MAX_SAFE_INTEGER;
 
 export interface ScanLayout {
 	delimiter: string;
@@ -108,24 +111,21 @@ export class RowScanner {
 				const numStart = p;
 				const dec = quoted ? decQ : decB;
 				let m = 0;
-				let sig = 0;
-				let frac = 0;
-				let digits = 0;
 				while (b >= 48 && b <= 57) {
 					m = m * 10 + (b - 48);
-					if (m !== 0) sig++;
-					digits++;
 					b = buf[++p];
 				}
+				let digits = p - numStart;
+				let frac = 0;
 				if (b === dec) {
-					b = buf[++p];
+					const fracStart = ++p;
+					b = buf[p];
 					while (b >= 48 && b <= 57) {
 						m = m * 10 + (b - 48);
-						if (m !== 0) sig++;
-						frac++;
-						digits++;
 						b = buf[++p];
 					}
+					frac = p - fracStart;
+					digits += frac;
 				}
 				let v: number;
 				if (digits === 0) {
@@ -151,7 +151,7 @@ export class RowScanner {
 						if (eneg) e = -e;
 					}
 					const e10 = e - frac;
-					if (sig <= 15 && e10 >= -22 && e10 <= 22) v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
+					if (m <= MAX_EXACT && e10 >= -22 && e10 <= 22) v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
 					else v = slowNumber(buf, numStart, p, dec);
 					if (neg) v = -v;
 				}

@@ -57,6 +57,7 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	}
 	cols[tc].role = role;
 	layout.timeColumn = tc;
+	layout.timeResolution = printedResolution(preview.map((r) => r[tc!] ?? ''), layout.decimalMark);
 	const name = cols[tc].header || `col${tc + 1}`;
 	if (role === 'index' || options.timeUnit === 'index') {
 		cols[tc].role = 'index';
@@ -106,4 +107,19 @@ function guessUnit(preview: string[][], tc: number, mark: '.' | ',', statedHz: n
 	if (step < 5) return 'ms';
 	if (step < 5000) return 'us';
 	return 'ns';
+}
+
+/**
+ * Finest printed resolution among the cells, 10^(exponent - digits after the mark); null without cells.
+ * The finest, because writers that drop trailing zeros print 3 for 3.0.
+ */
+function printedResolution(cells: string[], mark: '.' | ','): number | null {
+	const r: number[] = [];
+	for (const c of cells) {
+		const m = /^[-+]?\d*(?:[.,](\d*))?(?:[eE]([-+]?\d+))?$/.exec(c.trim());
+		if (m && c.trim() !== '') r.push(10 ** (Number(m[2] ?? 0) - (m[1]?.length ?? 0)));
+	}
+	if (r.length === 0) return null;
+	void mark;
+	return Math.min(...r);
 }

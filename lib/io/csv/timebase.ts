@@ -20,6 +20,8 @@ export interface TimeFacts {
 	bodyLine: number;
 	rowsAreLines: boolean;
 	jitterTolerance: number;
+	/** Resolution of the printed stamps in s: rounding to it moves a stamp by up to half of it. */
+	resolutionS?: number;
 	statedSampleRateHz?: number;
 	repeatedTimes: number;
 	firstRepeatLine: number;
@@ -65,20 +67,22 @@ export function timeBaseFromColumn(t: Float64Array, facts: TimeFacts): TimeBase 
 	}
 	const dtFit = span / (n - 1);
 	const tol = facts.jitterTolerance;
+	const halfRes = (facts.resolutionS ?? 0) / 2;
+	// deviation from the grid beyond what printing the stamps to their resolution explains, per interval
 	const gridDeviation = (dt: number) => {
 		let worst = 0;
 		for (let i = 0; i < n; i++) {
 			const d = Math.abs(t[i] - (t[0] + i * dt));
 			if (d > worst) worst = d;
 		}
-		return worst / dt;
+		return Math.max(0, worst - halfRes * (1 + 1e-9)) / dt;
 	};
 	if (gaps === 0 && facts.repeatedTimes === 0) {
 		const devStated = stated ? gridDeviation(1 / stated) : Infinity;
 		const devFit = devStated <= tol ? devStated : gridDeviation(dtFit);
 		if (devStated <= tol || devFit <= tol) {
 			const fs = devStated <= tol ? stated! : 1 / dtFit;
-			say('uniform-time', `Time column "${facts.name}": ${n} samples evenly spaced at ${round(fs)} Hz${devStated <= tol ? ' (as the preamble/options state)' : ''}, every stamp within ${pct(Math.min(devStated, devFit))} of a sample interval of the grid (tolerance ${pct(tol)}).`, 'info');
+			say('uniform-time', `Time column "${facts.name}": ${n} samples evenly spaced at ${round(fs)} Hz${devStated <= tol ? ' (as the preamble/options state)' : ''}, every stamp within ${pct(Math.min(devStated, devFit))} of a sample interval of the grid${halfRes > 0 ? ' beyond the rounding of the printed digits' : ''} (tolerance ${pct(tol)}).`, 'info');
 			if (devStated > tol && stated) compareStated(stated, fs, say);
 			return { sampleRateHz: fs, startS: t[0], diagnostics };
 		}
