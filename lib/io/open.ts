@@ -66,7 +66,9 @@ function readOne(file: InputFile, companions: InputFile[], options: OpenOptions)
 	if (ext === 'cfg') {
 		const dat = sibling('dat');
 		if (!dat) throw new ImportError(file.name, 0, 0, 'missing-companion-file', '', `the data file ${file.name.replace(/\.cfg$/i, '.dat')} next to this .cfg (give both files)`);
-		const capture = parseComtrade(decodeText(file.bytes).text, dat.bytes, file.name, { ...options.comtrade, datSource: dat.name });
+		const { text, encoding } = decodeText(file.bytes);
+		const capture = parseComtrade(text, dat.bytes, file.name, { ...options.comtrade, datSource: dat.name });
+		if (encoding === 'latin1') capture.diagnostics.push({ code: 'comtrade-latin1', severity: 'assumption', message: `${file.name} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.` });
 		for (const kind of ['hdr', 'inf']) {
 			const f = sibling(kind);
 			if (f) capture.metadata[`comtrade.${kind}`] = decodeText(f.bytes).text.trim();

@@ -151,7 +151,7 @@ export function comtradeDatBytes(spec: WriterSpec): Uint8Array {
 export function comtradeCffBytes(spec: WriterSpec, hdrText = ''): Uint8Array {
 	const eol = spec.lineEnd ?? '\r\n';
 	const dat = comtradeDatBytes(spec);
-	const datHeader = spec.fileType === 'ASCII' ? `--- file type: DAT ASCII ---` : `--- file type: DAT ${spec.fileType === 'FLOAT32' ? 'BINARY' : spec.fileType}: ${dat.length} ---`;
+	const datHeader = spec.fileType === 'ASCII' ? `--- file type: DAT ASCII ---` : `--- file type: DAT ${spec.fileType}: ${dat.length} ---`;
 	const head = `--- file type: CFG ---${eol}${comtradeCfgText(spec)}--- file type: INF ---${eol}--- file type: HDR ---${eol}${hdrText ? hdrText + eol : ''}${datHeader}${eol}`;
 	const headBytes = new TextEncoder().encode(head);
 	const out = new Uint8Array(headBytes.length + dat.length);

@@ -6,6 +6,7 @@ import { comtradeCffBytes, comtradeCfgText, comtradeDatBytes, type WriterSpec } 
 const FIX = 'tests/fixtures/comtrade/';
 const text = (name: string) => readFileSync(FIX + name, 'utf8');
 const bytes = (name: string) => new Uint8Array(readFileSync(FIX + name));
+const enc = (s: string) => new TextEncoder().encode(s);
 const open = (base: string, opts = {}) => parseComtrade(text(base + '.cfg'), bytes(base + '.dat'), base + '.cfg', opts);
 
 function thrown(f: () => unknown): ImportError {
@@ -172,6 +173,44 @@ describe('parseComtrade round trip through the writer in sample-waves/writers', 
 		expect(Array.from(c.timeS!)).toEqual([0, 1, 2, 3, 7, 11].map((ms) => expect.closeTo(ms / 1000 - 0.01, 12)));
 		expect(c.sampleRateHz).toBeCloseTo(5 / 0.011, 9);
 		expect(c.diagnostics.find((d) => d.code === 'comtrade-several-rates')?.severity).toBe('warning');
+	});
+});
+
+describe('parseComtrade on other revisions and value types', () => {
+	it('parseComtrade(1991 .cfg: no revision year, no PS, mm/dd/yy dates, no timemult) reads and says what it assumed', () => {
+		const c = open('old-1991');
+		// VA: a = 0.5, b = 0: raw 10, 20, -30 -> 5, 10, -15 V
+		expect(Array.from(c.channels[0].samples)).toEqual([5, 10, -15]);
+		expect(c.channels[0].scaling?.description).toContain('no PS flag');
+		expect(c.diagnostics.find((d) => d.code === 'comtrade-revision-assumed')?.severity).toBe('assumption');
+		expect(c.diagnostics.some((d) => d.code === 'comtrade-1991-date')).toBe(true);
+		// 02/01/91 in the 1991 order mm/dd/yy is 1 February 1991
+		expect(c.startTime).toBe('1991-02-01T09:30:00.000');
+		expect(c.startS).toBeCloseTo(-0.001, 12);
+		expect(c.digital![0]).toMatchObject({ name: 'CB open', normalState: 1 });
+	});
+
+	it('parseComtrade(BINARY32, FLOAT32) marks the missing values 0x80000000 and NaN as NaN', () => {
+		for (const ft of ['BINARY32', 'FLOAT32'] as const) {
+			const s = spec(ft, { analog: [{ name: 'VA', unit: 'V', values: [1, NaN, 3, 4], a: 0.5 }], digital: [], rates: [{ sampleRateHz: 1000, endSample: 4 }] });
+			const c = parseComtrade(comtradeCfgText(s), comtradeDatBytes(s), 'm.cfg');
+			expect(Array.from(c.channels[0].samples)).toEqual([1, NaN, 3, 4]);
+			expect(c.diagnostics.find((d) => d.code === 'comtrade-missing-values')?.message).toContain('1 of 4');
+		}
+	});
+
+	it('parseComtrade(2013 .cfg with 9-digit time stamps) reads the .dat stamps as nanoseconds', () => {
+		// stamps 0, 250, 750 ns with nrates = 0; first data 1 µs before the trigger
+		const cfg = ['Lab,r,2013', '1,1A,0D', '1,VA,,,V,1,0,0,-99999,99998,1,1,P', '50', '0', '0,3', '01/01/2026,00:00:00.000000000', '01/01/2026,00:00:00.000001000', 'ASCII', '1', '0,0', '0,0', ''].join('\r\n');
+		const c = parseComtrade(cfg, enc('1,0,1\r\n2,250,2\r\n3,750,3\r\n'), 'ns.cfg');
+		expect(Array.from(c.timeS!)).toEqual([-1e-6, -0.75e-6, -0.25e-6].map((t) => expect.closeTo(t, 15)));
+	});
+
+	it('parseComtrade of a .cfg with more channel lines than line 2 declares throws cfg-count-mismatch', () => {
+		// good-1999 declares 2A,1D; saying 1A,1D leaves the I1 line where the digital line should be
+		const cfg = text('good-1999.cfg').replace('3,2A,1D', '2,1A,1D');
+		const e = thrown(() => parseComtrade(cfg, bytes('good-1999.dat'), 'x.cfg'));
+		expect([e.code, e.line, e.column]).toEqual(['cfg-count-mismatch', 4, 1]);
 	});
 });
 
