@@ -58,9 +58,12 @@ const PREFIXES: [number, string][] = [
  * A value with its unit and an SI prefix chosen so 1 ≤ |mantissa| < 1000, to `significant` digits:
  * formatQuantity(0.00512, 'A') → "5.120 mA"; formatQuantity(230.14, 'V') → "230.1 V";
  * formatQuantity(12345, 'W') → "12.35 kW". Units other than V, A, W, VA, var, Hz, s, Ω are shown unprefixed.
+ * |value| < `resolution` is shown as "0 V" (computed noise such as a 1e-14 V mean of a pure sine).
  */
-export function formatQuantity(value: number | null | undefined, unit: string, significant = 4): string {
+export function formatQuantity(value: number | null | undefined, unit: string, significant = 4, resolution = 0): string {
 	if (value === null || value === undefined || !Number.isFinite(value)) return NO_VALUE;
+	// below the stated resolution (e.g. a millionth of the channel's RMS: rounding noise) show a plain zero
+	if (Math.abs(value) < resolution) return unit ? `${formatFixed(0, 0)} ${unit}` : formatFixed(0, 0);
 	const prefixable = ['V', 'A', 'W', 'VA', 'var', 'Hz', 's', 'Ω'].includes(unit);
 	let scale = 1;
 	let prefix = '';

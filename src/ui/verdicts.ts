@@ -30,6 +30,9 @@ export const LOW_POWER_FACTOR = 0.9;
 /** Voltage unbalance above 2 %: the EN 50160 limit for 95 % of 10-minute values (from memory). */
 export const UNBALANCE_LIMIT_PERCENT = 2;
 
+/** Short names of the limit tables for sentences (the report carries the full title with its source). */
+export const LIMIT_TABLE_NAMES: Record<string, string> = { en50160: 'EN 50160', 'iec61000-2-2': 'IEC 61000-2-2', ieee519: 'IEEE 519' };
+
 /** "I1 lags U1 by 32.0°, 1.78 ms" (or "leads"); "in phase" within ±0.05°. */
 export function lagSentence(pair: Pick<ReportPair, 'ref' | 'other' | 'lagDeg' | 'lagS'>): string {
 	if (!Number.isFinite(pair.lagDeg)) return `${pair.other} has no fundamental to compare with ${pair.ref}`;
@@ -49,19 +52,21 @@ function distortion(report: AnalysisReport, ch: ReportChannel): Verdict {
 	const thd = `THD ${formatPercent(ch.thdPercent)}`;
 	const rows = report.limits?.rows.filter((r) => r.channel === ch.name) ?? [];
 	if (!report.limits || rows.length === 0) {
-		return { id, topic: 'distortion', level: 'info', text: `${ch.name}: distortion ${thd}${report.limits ? ' (no limit of this table applies to this channel)' : ' (no limit table chosen)'}.`, figure: thd, target };
+		return { id, topic: 'distortion', level: 'info', text: `${ch.name}: distortion ${thd}${report.limits ? ` (the ${LIMIT_TABLE_NAMES[report.limits.table] ?? report.limits.table} table has no limits for a ${ch.quantity})` : ' (no limit table chosen)'}.`, figure: thd, target };
 	}
 	const over = rows.filter((r) => !r.pass).sort((a, b) => a.margin - b.margin);
-	const table = report.limits.title;
+	const table = `the ${LIMIT_TABLE_NAMES[report.limits.table] ?? report.limits.table} limits`;
 	if (over.length === 0) {
-		const tightest = [...rows].sort((a, b) => a.margin - b.margin)[0];
+		// the figure using the largest share of its own limit: the one to watch
+		const share = (r: (typeof rows)[number]) => (r.limit > 0 ? r.value / r.limit : -Infinity);
+		const tightest = [...rows].sort((a, b) => share(b) - share(a))[0];
 		const what = tightest.figure === 'harmonic' ? `${ordinal(tightest.order)} harmonic` : tightest.figure.toUpperCase();
 		return {
 			id,
 			topic: 'distortion',
 			level: 'ok',
-			text: `${ch.name}: every harmonic is within ${table}.`,
-			figure: `${thd}; closest to its limit: ${what} ${formatPercent(tightest.value)} of ${formatPercent(tightest.limit)} allowed`,
+			text: `${ch.name}: harmonics within ${table}.`,
+			figure: `${thd}; nearest its limit: ${what} at ${formatPercent(tightest.value)} of ${formatPercent(tightest.limit)} allowed`,
 			target,
 		};
 	}

@@ -30,7 +30,8 @@ export function scaleKey(quantity: string, unit: string): string {
 
 /**
  * The overlay for the reference and the compared channel (levels and peaks of all channels would hide the
- * waves): each gets ±RMS (dashed), ±rectified mean (dotted) and its two peaks; plus the window and the lag.
+ * waves): each gets its RMS (dashed) and rectified mean (dotted) levels and its two peaks; plus the window
+ * and the lag.
  * @param timeOfIndex  time in s of a sample index (peaks are located by index in `extras`)
  */
 export function overlayFor(
@@ -53,18 +54,9 @@ export function overlayFor(
 		const ch = channels.find((c) => c.name === name);
 		const fig = report.channels.find((c) => c.name === name);
 		if (!ch || !fig) continue;
-		for (const sign of [1, -1]) {
-			const tag = sign > 0 ? '' : '−';
-			items.push({ kind: 'level', scale: ch.scale, value: sign * fig.rms, colour: ch.colour, dash: [7, 4], label: `${name} RMS ${tag}${formatQuantity(fig.rms, ch.unit)}` });
-			items.push({
-				kind: 'level',
-				scale: ch.scale,
-				value: sign * fig.rectifiedMean,
-				colour: ch.colour,
-				dash: [2, 3],
-				label: `${name} rect. mean ${tag}${formatQuantity(fig.rectifiedMean, ch.unit)}`,
-			});
-		}
+		// positive side only: the negative half mirrors it and would double the lines over the waves
+		items.push({ kind: 'level', scale: ch.scale, value: fig.rms, colour: ch.colour, dash: [7, 4], label: `${name} RMS ${formatQuantity(fig.rms, ch.unit)}` });
+		items.push({ kind: 'level', scale: ch.scale, value: fig.rectifiedMean, colour: ch.colour, dash: [2, 3], label: `${name} rectified mean ${formatQuantity(fig.rectifiedMean, ch.unit)}` });
 		const p = extras.peakIndex[name];
 		if (p && p.max >= 0) items.push({ kind: 'peak', scale: ch.scale, tS: timeOfIndex(p.max), value: fig.peak, colour: ch.colour, label: `${name} peak ${formatQuantity(fig.peak, ch.unit)}`, below: false });
 		if (p && p.min >= 0) items.push({ kind: 'peak', scale: ch.scale, tS: timeOfIndex(p.min), value: fig.peakNegative, colour: ch.colour, label: `${name} peak ${formatQuantity(fig.peakNegative, ch.unit)}`, below: true });
@@ -103,7 +95,7 @@ export function drawOverlay(u: uPlot, items: readonly OverlayItem[]): void {
 				ctx.fillRect(a, top, b - a, height);
 				ctx.fillStyle = '#2d5a36';
 				ctx.textAlign = 'left';
-				ctx.fillText(it.label, a + 4 * pr, top + 8 * pr);
+				ctx.fillText(it.label, a + 4 * pr, top + height - 16 * pr);
 			}
 		} else if (it.kind === 'cycle-ticks') {
 			const visible = it.timesS.filter((t) => t >= xMin && t <= xMax);
