@@ -1,6 +1,7 @@
 /**
  * Why a sine-calibrated average-responding meter misreads a distorted wave, told from its spectrum.
  */
+import { dftPlan } from './dft.js';
 import type { HarmonicSet } from './types.js';
 
 /** π/(2√2): the sine's form factor, the scale an average-responding meter applies to the rectified mean. */
@@ -45,20 +46,36 @@ interface Comp {
 	phaseRad: number;
 }
 
-/** RMS, rectified mean and peak of one period of Σ amp·cos(hθ + φ), sampled at POINTS points. */
+let buffers = { p: 0, re: new Float64Array(0), im: new Float64Array(0), outRe: new Float64Array(0), outIm: new Float64Array(0) };
+
+/**
+ * RMS, rectified mean and peak of one period of Σ amp·cos(hθ + φ), rebuilt on P points by one DFT:
+ * with z[h] = amp·e^{−jφ}, Re Σ_h z[h]·e^{−j2πhi/P} = Σ_h amp·cos(2πhi/P + φ).
+ */
 function shapeFigures(comps: Comp[]): { rms: number; mav: number; peak: number } {
+	let top = 0;
+	for (const c of comps) top = Math.max(top, c.order);
+	let p = POINTS;
+	while (p < 4 * top) p *= 2;
+	const b = (buffers.p === p ? buffers : (buffers = { p, re: new Float64Array(p), im: new Float64Array(p), outRe: new Float64Array(p), outIm: new Float64Array(p) }));
+	const { re, im, outRe, outIm } = b;
+	re.fill(0);
+	im.fill(0);
+	for (const c of comps) {
+		re[c.order] += c.amp * Math.cos(c.phaseRad);
+		im[c.order] -= c.amp * Math.sin(c.phaseRad);
+	}
+	dftPlan(p).forwardComplex(re, im, outRe, outIm);
 	let sumSq = 0;
 	let sumAbs = 0;
 	let peak = 0;
-	for (let i = 0; i < POINTS; i++) {
-		const th = (2 * Math.PI * i) / POINTS;
-		let v = 0;
-		for (const c of comps) v += c.order === 0 ? c.amp : c.amp * Math.cos(c.order * th + c.phaseRad);
+	for (let i = 0; i < p; i++) {
+		const v = outRe[i];
 		sumSq += v * v;
 		sumAbs += Math.abs(v);
 		peak = Math.max(peak, Math.abs(v));
 	}
-	return { rms: Math.sqrt(sumSq / POINTS), mav: sumAbs / POINTS, peak };
+	return { rms: Math.sqrt(sumSq / p), mav: sumAbs / p, peak };
 }
 
 function errorPercent(comps: Comp[]): number {
