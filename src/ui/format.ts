@@ -97,12 +97,12 @@ export function formatDeg(value: number | null | undefined): string {
 	return `${formatFixed(value, 1)}°`;
 }
 
-/** A time span in s shown in ms below 1 s: formatDuration(0.00178) → "1.78 ms". */
+/** A time span in s shown in ms from 0.1 ms to 1 s, in µs below: formatDuration(0.00178) → "1.78 ms". */
 export function formatDuration(seconds: number | null | undefined): string {
 	if (seconds === null || seconds === undefined || !Number.isFinite(seconds)) return NO_VALUE;
 	const a = Math.abs(seconds);
 	if (a >= 1) return `${formatFixed(seconds, decimalsFor(seconds, 4))} s`;
-	if (a >= 1e-3 || a === 0) return `${formatFixed(seconds * 1e3, a === 0 ? 0 : 2)} ms`;
+	if (a >= 1e-4 || a === 0) return `${formatFixed(seconds * 1e3, a === 0 ? 0 : 2)} ms`;
 	return `${formatFixed(seconds * 1e6, 1)} µs`;
 }
 
