@@ -20,6 +20,7 @@ export function isIndexName(name: string): boolean {
 
 /** min/max envelope columns of a peak-detect export: 'U1 min', 'U1_max', 'min(U1)', 'Max U1'. */
 export function minMaxOf(name: string): { base: string; which: 'min' | 'max' } | null {
+	if (name.length > 120) return null;
 	let m = /^(.+?)[\s_.-]*\b(min|max|minimum|maximum)$/i.exec(name.trim());
 	if (m) return { base: m[1], which: m[2].toLowerCase().startsWith('min') ? 'min' : 'max' };
 	m = /^(min|max|minimum|maximum)\b[\s_.(-]*(.+?)\)?$/i.exec(name.trim());
@@ -29,7 +30,7 @@ export function minMaxOf(name: string): { base: string; which: 'min' | 'max' } |
 
 /** Voltage or current from the name alone, or null when the name does not say. */
 export function quantityFromName(name: string): Quantity | null {
-	const n = name.trim();
+	const n = name.trim().slice(0, 120);
 	if (/(volt|voltage|spannung|tension|tensi[oó]n|u_?ln|u_?ll)/i.test(n)) return 'voltage';
 	if (/(current|strom|courant|corriente|amp)/i.test(n)) return 'current';
 	if (/^(u|v|e)(?![a-z]{2})[\s_-]?(l?[1-3]|[a-c]|[rsty]|[uvw]|n)?([\s_-]?(n|l?[1-3]|[a-c]))?\b/i.test(n)) return 'voltage';
@@ -44,7 +45,7 @@ export function quantityFromName(name: string): Quantity | null {
  * Line-to-line names give 'L1-L2'; the neutral gives 'N'.
  */
 export function phaseFromName(name: string): string | undefined {
-	const n = name.trim();
+	const n = name.trim().slice(0, 120);
 	let m = /^(?:[uvei][\s_-]?)?(l?[1-3]|[a-c])[\s_-]?(l?[1-3]|[a-c])$/i.exec(n);
 	if (m && m[1].toUpperCase() !== m[2].toUpperCase() && !/n/i.test(m[2])) return `${m[1].toUpperCase()}-${m[2].toUpperCase()}`;
 	m = /^(?:[uvi][\s_-]?)?(l[1-3]|[1-3]|[abc]|[rst]|y|[uvw]|n)(?:[\s_-]?n)?$/i.exec(n);

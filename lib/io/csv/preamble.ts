@@ -48,6 +48,10 @@ export function readPreamble(lines: string[], firstLine: number, split: (line: s
 		const line = raw.replace(/^\uFEFF/, '').trim();
 		if (line === '') return;
 		const body = line.replace(/^(#+|\/\/|%|!|;+)\s*/, '');
+		if (body.length > 500) {
+			facts.metadata[`line ${lineNo}`] = body;
+			return;
+		}
 		let key: string;
 		let value: string;
 		const kv = /^([^:=]*[A-Za-z][^:=]*?)\s*[:=]\s*(.*)$/.exec(body);

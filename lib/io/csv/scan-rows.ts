@@ -229,6 +229,7 @@ export class RowScanner {
 
 	private nonFiniteToken(buf: Uint8Array, at: number, neg: boolean): number {
 		const len = tokenLength(buf, at);
+		if (len > 8) return NaN;
 		const word = String.fromCharCode(...buf.subarray(at, at + len)).toLowerCase();
 		if (word === 'inf' || word === 'infinity') return neg ? -Infinity : Infinity;
 		return NaN;

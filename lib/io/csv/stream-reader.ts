@@ -113,7 +113,7 @@ export class CsvStreamReader {
 		this.detected = layout;
 		this.eol = layout.lineBreak === '\r' ? 13 : 10;
 		const total = this.stream.totalBytes;
-		const capacityRows = total && total > 0 ? (total / Math.max(4, layout.bytesPerRow)) * 1.1 + 1024 : 65536;
+		const capacityRows = total && total > 0 ? (total / Math.max(4, layout.bytesPerRow)) * 1.1 + 1024 : 16384;
 		this.scanner = new RowScanner(
 			{
 				delimiter: layout.delimiter,

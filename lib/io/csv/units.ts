@@ -15,6 +15,7 @@ const PREFIX: Record<string, number> = { n: 1e-9, u: 1e-6, µ: 1e-6, μ: 1e-6, m
 
 /** Reads unit text such as 'mV', 'kA', '(V)', 'Volts', 'ms', 'µs', 'counts'. Null when empty. */
 export function readUnit(text: string): ReadUnit | null {
+	if (text.length > 40) return { unit: text, factor: 1, kind: 'other' };
 	let t = text.trim().replace(/^[([{]\s*|\s*[)\]}]$/g, '').trim();
 	if (t === '') return null;
 	t = t.replace(/\s*(rms|pk|peak|inst)$/i, '').replace(/^(volts?|v)$/i, 'V').replace(/^(amps?|amperes?|a)$/i, 'A');
@@ -33,6 +34,8 @@ export function readUnit(text: string): ReadUnit | null {
 /** Splits a header cell into name and unit text: `U1 (V)`, `U1 [mV]`, `U1/V`, `U1 in V`, `U1 V`. */
 export function splitNameUnit(cell: string): { name: string; unitText: string } {
 	const c = cell.trim();
+	// long cells are not names; the patterns below would also backtrack on them for too long
+	if (c.length > 120) return { name: c, unitText: '' };
 	let m = /^(.*?)\s*[([{]\s*([^()[\]{}]*?)\s*[)\]}]$/.exec(c);
 	if (m && m[1] !== '') return { name: m[1].trim(), unitText: m[2] };
 	m = /^(.*?\S)\s*\/\s*([^/\s]+)$/.exec(c);
