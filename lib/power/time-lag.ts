@@ -2,7 +2,7 @@
  * Time lag between two channels by cross-correlation over whole cycles, with sub-sample resolution:
  * the shift a user reads between two traces on a scope screen.
  */
-import { checkPowerWindow, windowMean, type PowerSampleWindow } from './window.js';
+import { checkPowerWindow, powerWindowWeights, type PowerSampleWindow } from './window.js';
 
 /** Result of crossCorrelationLag. */
 export interface ChannelTimeLag {
@@ -63,13 +63,31 @@ export function crossCorrelationLag(
 	const nan: ChannelTimeLag = { lagS: NaN, lagSamples: NaN, lagDeg: NaN, periodS, cyclesUsed: Math.max(cycles, 0), correlationCoefficient: NaN };
 	if (cycles < 1) return nan;
 
-	const meanX = windowMean((n) => ref[n], s, e);
-	const meanY = windowMean((n) => other[n], s, e);
+	const { firstIndex: f0, weights } = powerWindowWeights(s, e);
+	const m = weights.length;
+	let meanX = 0;
+	let meanY = 0;
+	for (let j = 0; j < m; j++) (meanX += weights[j] * ref[f0 + j]), (meanY += weights[j] * other[f0 + j]);
+	// weighted, mean-removed reference once; then each lag is one dot product over typed arrays
+	const wx = new Float64Array(m);
+	let rxx = 0;
+	let ryy = 0;
+	for (let j = 0; j < m; j++) {
+		const x = ref[f0 + j] - meanX;
+		wx[j] = weights[j] * x;
+		rxx += wx[j] * x;
+		const y = other[f0 + j] - meanY;
+		ryy += weights[j] * y * y;
+	}
 	const r = new Float64Array(2 * reach + 1);
-	for (let k = -reach; k <= reach; k++) r[k + reach] = windowMean((n) => (ref[n] - meanX) * (other[n + k] - meanY), s, e);
-	const rxx = windowMean((n) => (ref[n] - meanX) ** 2, s, e);
-	const ryy = windowMean((n) => (other[n] - meanY) ** 2, s, e);
-	if (!(rxx > 0 && ryy > 0)) return nan;
+	for (let k = -reach; k <= reach; k++) {
+		let acc = 0;
+		const base = f0 + k;
+		for (let j = 0; j < m; j++) acc += wx[j] * (other[base + j] - meanY);
+		r[k + reach] = acc;
+	}
+	// a constant channel leaves only rounding (≈1e-32 of its square) after removing its mean
+	if (!(rxx > 1e-20 * meanX * meanX && ryy > 1e-20 * meanY * meanY && rxx > 0 && ryy > 0)) return nan;
 
 	let k0 = -half;
 	for (let k = -half; k <= half; k++) if (r[k + reach] > r[k0 + reach]) k0 = k;

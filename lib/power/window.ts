@@ -49,6 +49,40 @@ export function windowMean(f: (n: number) => number, s: number, e: number): numb
 }
 
 /**
+ * Weights of windowMean as a vector: mean = Σ_j weights[j]·f(firstIndex + j), Σ weights = 1.
+ * Lets hot loops (cross-correlation) run over typed arrays instead of calling a closure per sample.
+ * The caller guarantees 0 ≤ s < e ≤ last index.
+ */
+export function powerWindowWeights(s: number, e: number): { firstIndex: number; weights: Float64Array } {
+	const n0 = Math.floor(s);
+	const n1 = Math.floor(e);
+	const a = s - n0;
+	const b = e - n1;
+	const w = new Float64Array(n1 - n0 + 2);
+	if (n0 === n1) {
+		// mean of the two interpolated end values, as windowMean
+		const bb = e - n0;
+		w[0] = (1 - a + (1 - bb)) / 2;
+		w[1] = (a + bb) / 2;
+	} else {
+		const len = e - s;
+		const l1 = 1 - a;
+		w[0] += (l1 * (1 - a)) / 2 / len;
+		w[1] += (l1 * (1 + a)) / 2 / len;
+		for (let n = n0 + 1; n < n1; n++) {
+			w[n - n0] += 0.5 / len;
+			w[n + 1 - n0] += 0.5 / len;
+		}
+		if (b > 0) {
+			w[n1 - n0] += (b * (2 - b)) / 2 / len;
+			w[n1 + 1 - n0] += (b * b) / 2 / len;
+		}
+	}
+	// drop a zero last weight so callers never read past the window's last sample
+	return { firstIndex: n0, weights: w[w.length - 1] === 0 ? w.subarray(0, w.length - 1) : w };
+}
+
+/**
  * Active power P = (1/T)∫ v·i dt over a whole-cycle window, in W when v is in V and i in A.
  * Ref: IEEE Std 1459-2010, 3.1.2.1 (P = (1/kT)∫ p dt over k whole cycles) (from memory).
  * @param voltage, current  equal-length sample arrays on the same time base

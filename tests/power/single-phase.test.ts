@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { activePowerFromSamplesW, ieee1459FromComponents, loadCharacterFromAngle, powerWindowRms, singlePhasePowerFromHarmonics } from '../../lib/power/index.js';
+import { activePowerFromSamplesW, ieee1459FromComponents, loadCharacterFromAngle, powerWindowRms, powerWindowWeights, singlePhasePowerFromHarmonics, windowMean } from '../../lib/power/index.js';
 import { harmonicSamples, sineSamples } from '../helpers/synth.js';
 import { setFromSineTones } from './harmonic-set.js';
 
@@ -166,5 +166,18 @@ describe('ieee1459FromComponents edge cases', () => {
 	it('P ≤ S for any example (invariant)', () => {
 		const r = singlePhasePowerFromHarmonics(setFromSineTones([{ order: 1, rms: 230 }, { order: 7, rms: 9 }]), setFromSineTones([{ order: 1, rms: 3, phaseDeg: -70 }, { order: 7, rms: 2, phaseDeg: 5 }]));
 		expect(Math.abs(r.activePowerW)).toBeLessThanOrEqual(r.apparentPowerVA);
+	});
+});
+
+describe('windowMean and powerWindowWeights (trapezoid rule with fractional ends)', () => {
+	const cases: [number, number][] = [[0, 10], [0.3, 7.8], [2.25, 2.75], [1.5, 9], [3, 3.4]];
+	it.each(cases)('the mean of f(n) = n over [%d, %d] is the midpoint (exact for a linear integrand, closed form)', (s, e) => {
+		expect(windowMean((n) => n, s, e)).toBeCloseTo((s + e) / 2, 12);
+		const { firstIndex, weights } = powerWindowWeights(s, e);
+		let m = 0;
+		let sum = 0;
+		weights.forEach((w, j) => ((m += w * (firstIndex + j)), (sum += w)));
+		expect(sum).toBeCloseTo(1, 14);
+		expect(m).toBeCloseTo((s + e) / 2, 12);
 	});
 });
