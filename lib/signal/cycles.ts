@@ -137,35 +137,38 @@ function trackCrossings(samples: Float64Array, periodSamples: number): Track {
 	const last = n - 1;
 	let fundamentalSquares = 0;
 	let residualSquares = 0;
-	const fit = (expected: number) => {
-		const f = fitFundamental(samples, expected, periodSamples);
+	const fit = (expected: number, period: number) => {
+		const f = fitFundamental(samples, expected, period);
 		fundamentalSquares += (f.amplitude * f.amplitude) / 2;
 		residualSquares += f.residualRms * f.residualRms;
 		return f.crossingIndex;
 	};
 	// Anchor near the start (one period in), refit once so the anchor's own window is centred on it.
-	let anchor = fit(Math.min(periodSamples, last / 2));
-	anchor = fit(anchor);
+	let anchor = fit(Math.min(periodSamples, last / 2), periodSamples);
+	anchor = fit(anchor, periodSamples);
 	const forward: number[] = [];
 	const backward: number[] = [];
 	let irregular = false;
-	for (let prev = anchor, guess = anchor + periodSamples; guess <= last + periodSamples / 2; guess = prev + periodSamples) {
-		const c = fit(guess);
-		if (!(c > prev + periodSamples / 2)) {
-			irregular = true;
-			break;
+	// Each step fits with the local period (smoothed from the last cycles), so a drifting frequency is followed
+	// and the off-centre windows at the record's ends extrapolate the phase at the right rate.
+	for (const direction of [1, -1]) {
+		const out = direction > 0 ? forward : backward;
+		// Backwards, start from the first cycle measured forwards: the anchor sits one period in.
+		let period = direction < 0 && forward.length > 0 ? forward[0] - anchor : periodSamples;
+		let prev = anchor;
+		for (;;) {
+			const guess = prev + direction * period;
+			if (guess > last + period / 2 || guess < -period / 2) break;
+			const c = fit(guess, period);
+			const step = direction * (c - prev);
+			if (!(step > periodSamples / 2 && step < 1.5 * periodSamples)) {
+				irregular = true;
+				break;
+			}
+			out.push(c);
+			period = 0.5 * period + 0.5 * step;
+			prev = c;
 		}
-		forward.push(c);
-		prev = c;
-	}
-	for (let prev = anchor, guess = anchor - periodSamples; guess >= -periodSamples / 2; guess = prev - periodSamples) {
-		const c = fit(guess);
-		if (!(c < prev - periodSamples / 2)) {
-			irregular = true;
-			break;
-		}
-		backward.push(c);
-		prev = c;
 	}
 	// A crossing within 1e-9 samples of either end is taken as on it, so rounding in the fit (or scaling the
 	// record) cannot add or drop a cycle.
