@@ -6,6 +6,7 @@ import { durationS, type Capture, type Diagnostic } from '../capture.js';
 import { findWholeCycles } from '../signal/cycles.js';
 import { waveformFigures } from '../signal/levels.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
+import { meterExplanation, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
 import { limitsReport } from './limits-report.js';
 import { chooseReference } from './reference.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
@@ -111,8 +112,9 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			thdMaxOrder: thdOrder,
 			kFactor: set ? ulKFactor(rmsByOrder, thdOrder) : NaN,
 			tddPercent: set && c.quantity === 'current' && options.ilA !== undefined ? tddPercent(rmsByOrder, thdOrder, options.ilA) : NaN,
-			averageResponding: { reading: figs.averageResponding.reading, errorPercent: figs.averageResponding.errorPercent },
+			averageResponding: { reading: figs.averageResponding.reading, errorPercent: figs.averageResponding.errorPercent, ...(spectra[i] ? { explanation: meterExplanation(spectra[i], c.unit) } : {}) },
 			harmonics: set ? set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })) : [],
+			worstCycle: window ? worstCycle(c.samples, window, fs) : null,
 			warnings: chWarnings,
 		};
 	});
@@ -140,6 +142,8 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		power: [],
 		threePhase: null,
 		threePhaseSets: [],
+		threePhasePower: null,
+		neutral: null,
 	};
 	if (window && ref.index >= 0) {
 		const phasors = alignedFundamentals(spectra, ref.index);
@@ -152,6 +156,13 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		assumptions.push(...three.assumptions);
 		report.threePhaseSets = three.sets;
 		report.threePhase = three.sets[0] ?? null;
+		report.threePhasePower = threePhasePower(capture, pairing.pairs, spectra, powerWindow) ?? null;
+		const currentSet = three.sets.findIndex((t) => t.quantity === 'current');
+		if (currentSet >= 0) {
+			const neutralName = pairing.pairing.neutralCurrent;
+			const neutralIndex = neutralName === undefined ? undefined : capture.channels.findIndex((c) => c.name === neutralName);
+			report.neutral = neutralCurrent(capture, three.members[currentSet], neutralIndex, spectra, slots, powerWindow, maxOrder);
+		}
 	} else if (options.pairs && options.pairs.length > 0) {
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}

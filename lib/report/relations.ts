@@ -57,7 +57,7 @@ export function pairsAgainstReference(capture: Capture, refIndex: number, phasor
 }
 
 export interface PairingResult {
-	pairs: { voltage: number; current: number; pairedBy: string }[];
+	pairs: { voltage: number; current: number; pairedBy: string; phase: number | null }[];
 	pairing: PowerChannelPairing;
 	assumptions: string[];
 }
@@ -67,12 +67,12 @@ export function pairChannels(channels: Channel[], overrides: ReportPairOverride[
 	const pairing = pairPowerChannels(channels, overrides ?? []);
 	const assumptions = pairing.diagnostics.filter((d) => d.severity !== 'info' || d.code === 'pairing-auto').map((d) => d.message);
 	const idx = (name: string) => channels.findIndex((c) => c.name === name);
-	const pairs = pairing.pairs.map((p) => ({ voltage: idx(p.voltage), current: idx(p.current), pairedBy: p.origin === 'override' ? 'user' : 'phase-label' }));
+	const pairs: PairingResult['pairs'] = pairing.pairs.map((p) => ({ voltage: idx(p.voltage), current: idx(p.current), pairedBy: p.origin === 'override' ? 'user' : 'phase-label', phase: p.phase }));
 	if (pairs.length === 0 && !(overrides && overrides.length)) {
 		const vs = channels.map((c, i) => (c.quantity === 'voltage' ? i : -1)).filter((i) => i >= 0);
 		const is = channels.map((c, i) => (c.quantity === 'current' ? i : -1)).filter((i) => i >= 0);
 		if (vs.length === 1 && is.length === 1) {
-			pairs.push({ voltage: vs[0], current: is[0], pairedBy: 'only-pair' });
+			pairs.push({ voltage: vs[0], current: is[0], pairedBy: 'only-pair', phase: null });
 			assumptions.push(`${channels[vs[0]].name} and ${channels[is[0]].name} paired for power: the only voltage and the only current channel.`);
 		}
 	}
@@ -82,7 +82,7 @@ export function pairChannels(channels: Channel[], overrides: ReportPairOverride[
 /** IEEE 1459 single-phase power of one pair over the whole-cycle window. */
 export function pairPower(
 	capture: Capture,
-	pair: { voltage: number; current: number; pairedBy: string },
+	pair: PairingResult['pairs'][number],
 	spectra: (ChannelSpectrum | undefined)[],
 	window: PowerSampleWindow,
 ): ReportPower {
@@ -127,12 +127,14 @@ export function pairPower(
 		character: ch.character === 'undetermined' ? null : ch.character,
 		ieee1459: all,
 		pairedBy: pair.pairedBy,
+		phase: pair.phase,
 	};
 }
 
 /** Three-phase sets: phase voltages (or currents) labelled 1, 2, 3; else exactly three unlabelled channels of a kind. */
-export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing, phasors: (ComplexPhasor | undefined)[]): { sets: ReportThreePhase[]; assumptions: string[] } {
+export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing, phasors: (ComplexPhasor | undefined)[]): { sets: ReportThreePhase[]; members: number[][]; assumptions: string[] } {
 	const sets: ReportThreePhase[] = [];
+	const memberList: number[][] = [];
 	const assumptions: string[] = [];
 	const idx = (name: string) => channels.findIndex((c) => c.name === name);
 	for (const quantity of ['voltage', 'current'] as const) {
@@ -169,10 +171,13 @@ export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing
 			lvurPercent = NaN;
 			pvurPercent = u.maxDeviationPercent;
 		}
+		memberList.push(members);
 		sets.push({
 			channels: members.map((i) => channels[i].name),
 			quantity,
 			rotation: rot.rotation === 'undetermined' ? null : rot.rotation,
+			rotationClarity: rot.clarity,
+			rotationSentence: rot.sentence,
 			unbalancePercent,
 			lvurPercent,
 			pvurPercent,
@@ -180,5 +185,5 @@ export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing
 			sequenceDeg: { zero: phasorArgDeg(seq.zero), positive: seq.positivePhaseDeg, negative: seq.negativePhaseDeg },
 		});
 	}
-	return { sets, assumptions };
+	return { sets, members: memberList, assumptions };
 }

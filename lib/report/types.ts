@@ -91,11 +91,54 @@ export interface ReportChannel {
 	/** IEEE 519 TDD in percent of I_L (currents only, when I_L is given), else NaN. */
 	tddPercent: number;
 	/** What a sine-calibrated average-responding meter reads, and its error against true RMS in percent. */
-	averageResponding: { reading: number; errorPercent: number };
+	averageResponding: { reading: number; errorPercent: number; explanation?: { summary: string; reasons: string[] } };
 	/** Orders 0..maxOrder. */
 	harmonics: ReportHarmonic[];
+	/** The worst whole cycle by RMS and by peak, null without whole cycles. */
+	worstCycle: ReportWorstCycle | null;
 	/** Warnings about this channel's data (clipping, DC offset, few cycles...). */
 	warnings: string[];
+}
+
+/** Worst whole cycle of a channel (per-cycle RMS from one rising zero crossing of the reference to the next). */
+export interface ReportWorstCycle {
+	/** 0-based index of the cycle with the highest RMS, within the analysed cycles. */
+	rmsCycle: number;
+	rms: number;
+	/** Start of that cycle, s from the first sample. */
+	rmsStartS: number;
+	/** Index of the cycle with the highest peak magnitude. */
+	peakCycle: number;
+	/** Its peak, signed (the larger in magnitude of its positive and negative peak). */
+	peak: number;
+	peakStartS: number;
+	/** Lowest cycle RMS (a dip shows here). */
+	lowestRms: number;
+}
+
+/** IEEE 1459-2010 three-phase quantities of three V/I pairs (effective V, I, S, positive-sequence powers...). */
+export interface ReportThreePhasePower {
+	/** [voltage, current] names of phases 1, 2, 3. */
+	channels: string[][];
+	wiring: string;
+	/** Every scalar IEEE 1459 three-phase figure, names with unit suffixes (effectiveApparentPowerVA, ...). */
+	figures: Record<string, number>;
+}
+
+/** Neutral current of a three-phase current set. */
+export interface ReportNeutral {
+	/** The measured neutral channel, or null when computed as the sum of the phase currents. */
+	channel: string | null;
+	source: 'measured' | 'computed';
+	neutralRmsA: number;
+	percentOfMeanPhase: number;
+	percentOfMaxPhase: number;
+	fundamentalRmsA: number;
+	triplenRmsA: number;
+	triplenPercentOfNeutral: number;
+	largestTriplenOrder: number;
+	largestTriplenRmsA: number;
+	sentence: string;
 }
 
 export interface ReportPair {
@@ -122,6 +165,8 @@ export interface ReportPower {
 	powerFactor: number;
 	/** cos θ1. */
 	displacementPowerFactor: number;
+	/** Phase label of the pair (1, 2, 3) when it was paired by label or given, else null. */
+	phase: number | null;
 	/** From the fundamental angle; null when it cannot be told (no fundamental). */
 	character: ReportLoadCharacter | null;
 	/** The full IEEE 1459-2010 single-phase set (extra detail). */
@@ -135,6 +180,10 @@ export interface ReportThreePhase {
 	channels: string[];
 	quantity: 'voltage' | 'current';
 	rotation: 'positive' | 'negative' | null;
+	/** How clear the rotation is: 'clear' (weaker sequence under 10 % of the stronger), 'probable', 'doubtful'. */
+	rotationClarity: string;
+	/** The rotation in words, with the numbers. */
+	rotationSentence: string;
 	/** IEC VUF: 100 · |X2| / |X1|. */
 	unbalancePercent: number;
 	/** NEMA line-voltage unbalance rate, percent (line values derived from the phase channels when they are phase values). */
@@ -199,6 +248,10 @@ export interface AnalysisReport {
 	threePhase: ReportThreePhase | null;
 	/** Every three-phase set found (extra detail). */
 	threePhaseSets: ReportThreePhase[];
+	/** IEEE 1459 three-phase power when phases 1, 2, 3 each have a V/I pair; else null. */
+	threePhasePower: ReportThreePhasePower | null;
+	/** Neutral current when three phase currents form a set; else null. */
+	neutral: ReportNeutral | null;
 	/** Present only when a limit table was asked for. */
 	limits?: ReportLimits;
 }

@@ -77,6 +77,26 @@ export function formatReport(r: ReportJson): string[] {
 		out.push('', ...table(rows));
 		out.push('', '  largest harmonics:');
 		for (const c of r.channels) out.push(`    ${c.name}: ${topHarmonics(c, 5)}`);
+		// Only channels whose cycles differ by more than 2 %: on a steady wave the "worst" cycle is rounding.
+		const worst = r.channels.filter((c) => {
+			const w = c.worstCycle;
+			return w && w.rmsCycle !== null && w.rmsCycle >= 0 && w.rms !== null && w.lowestRms !== null && w.rms > 1.02 * w.lowestRms;
+		});
+		if (worst.length > 0) {
+			out.push('', '  worst cycle (one-cycle RMS):');
+			for (const c of worst) {
+				const w = c.worstCycle!;
+				out.push(`    ${c.name}: highest ${level(c, w.rms)} ${c.unit} at ${fixed(w.rmsStartS, 4)} s, lowest ${level(c, w.lowestRms)} ${c.unit}; largest peak ${level(c, w.peak)} ${c.unit} at ${fixed(w.peakStartS, 4)} s`);
+			}
+		}
+		const meters = r.channels.filter((c) => c.averageResponding.explanation && Math.abs(c.averageResponding.errorPercent ?? 0) >= 1);
+		if (meters.length > 0) {
+			out.push('', '  average-responding meters:');
+			for (const c of meters) {
+				out.push(`    ${c.name}: ${c.averageResponding.explanation!.summary}`);
+				for (const why of c.averageResponding.explanation!.reasons) out.push(`      ${why}`);
+			}
+		}
 	}
 	if (r.pairs.length > 0) {
 		out.push('', '  phase against the reference:');
@@ -98,12 +118,24 @@ export function formatReport(r: ReportJson): string[] {
 		}
 		out.push(...table(rows, '    '));
 	}
-	for (const t of r.threePhaseSets) {
-		out.push('', `  three-phase ${t.quantity}s ${t.channels.join(', ')}: ${t.rotation ?? 'unknown'} rotation`);
+	if (r.threePhasePower) {
+		const f = r.threePhasePower.figures;
 		out.push(
-			`    unbalance (IEC, negative/positive sequence) ${fixed(t.unbalancePercent, 2)} %; line unbalance rate (NEMA) ${fixed(t.lvurPercent, 2)} %; phase unbalance rate (IEEE) ${fixed(t.pvurPercent, 2)} %`,
+			'',
+			`  three-phase power (IEEE 1459, ${r.threePhasePower.wiring}): P ${formatNumber(f.activePowerW)} W, S_e ${formatNumber(f.effectiveApparentPowerVA)} VA, ` +
+				`PF_e ${fixed(f.effectivePowerFactor, 3)}; positive sequence P1+ ${formatNumber(f.positiveSequenceActivePowerW)} W, Q1+ ${formatNumber(f.positiveSequenceReactivePowerVar)} var, PF1+ ${fixed(f.positiveSequencePowerFactor, 3)}`,
 		);
-		out.push(`    sequence components: zero ${formatNumber(t.sequence.zero)}, positive ${formatNumber(t.sequence.positive)}, negative ${formatNumber(t.sequence.negative)}`);
+	}
+	if (r.neutral) out.push('', `  neutral: ${r.neutral.sentence}`);
+	for (const t of r.threePhaseSets) {
+		out.push('', `  three-phase ${t.quantity}s ${t.channels.join(', ')}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`);
+		out.push(
+			t.quantity === 'voltage'
+				? `    unbalance: VUF (IEC, |V2|/|V1|) ${fixed(t.unbalancePercent, 2)} %; LVUR (NEMA, line voltages) ${fixed(t.lvurPercent, 2)} %; PVUR (IEEE, phase voltages) ${fixed(t.pvurPercent, 2)} %`
+				: `    unbalance: |I2|/|I1| ${fixed(t.unbalancePercent, 2)} %; max deviation from the mean current ${fixed(t.pvurPercent, 2)} %`,
+		);
+		const seq = (x: number | null) => (x !== null && t.sequence.positive !== null && Math.abs(x) < 1e-9 * Math.abs(t.sequence.positive) ? '0' : formatNumber(x));
+		out.push(`    sequence components (RMS): zero ${seq(t.sequence.zero)}, positive ${seq(t.sequence.positive)}, negative ${seq(t.sequence.negative)}`);
 	}
 	if (r.limits) {
 		const failed = r.limits.rows.filter((x) => !x.pass);

@@ -209,3 +209,54 @@ describe('analyseCapture: limits', () => {
 		expect(r.limits!.notes.join(' ')).toMatch(/I1: .* no limits for a current channel/);
 	});
 });
+
+describe('analyseCapture: three-phase power and neutral', () => {
+	const cycles = 20;
+	// Balanced 230 V set; each line current 10 A lagging 30° plus 3 A of 3rd harmonic. The 3rd of phase k has
+	// phase 3·(−120°·k) ≡ 0°: zero sequence, so the three add in the neutral (REFERENCE.md §7, triplens).
+	const make = () =>
+		capture(
+			[0, 1, 2].flatMap((k) => [
+				channel(`L${k + 1}`, 'V', 'voltage', tones([{ order: 1, rms: 230, phaseDeg: -120 * k }], cycles)),
+				channel(`I${k + 1}`, 'A', 'current', tones([{ order: 1, rms: 10, phaseDeg: -120 * k - 30 }, { order: 3, rms: 3, phaseDeg: -360 * k }], cycles)),
+			]),
+		);
+	const r = analyseCapture(make());
+
+	it('analyseCapture(capture) gives a computed neutral of 3 × 3 A = 9 A, all triplen (Kirchhoff; zero-sequence triplens, REFERENCE.md 7)', () => {
+		expect(r.neutral).not.toBeNull();
+		expect(r.neutral!.source).toBe('computed');
+		expect(r.neutral!.neutralRmsA).toBeCloseTo(9, 6);
+		expect(r.neutral!.triplenRmsA).toBeCloseTo(9, 6);
+		expect(r.neutral!.percentOfMaxPhase).toBeCloseTo((100 * 9) / Math.hypot(10, 3), 4);
+	});
+
+	it('analyseCapture(capture) gives P = 3·230·10·cos 30° and S_e = 3·V_e·I_e with I_e = √((ΣI² + I_N²)/3) (IEEE 1459 4-wire, REFERENCE.md 5.2)', () => {
+		const t = r.threePhasePower!;
+		expect(t.channels).toEqual([['L1', 'I1'], ['L2', 'I2'], ['L3', 'I3']]);
+		expect(t.figures.activePowerW).toBeCloseTo(3 * 230 * 10 * Math.cos(Math.PI / 6), 3);
+		const ie = Math.sqrt((3 * (100 + 9) + 81) / 3);
+		expect(t.figures.effectiveCurrentA).toBeCloseTo(ie, 4);
+		expect(t.figures.effectiveVoltageV).toBeCloseTo(230, 4);
+		expect(t.figures.effectiveApparentPowerVA).toBeCloseTo(3 * 230 * ie, 2);
+		expect(r.power.map((p) => p.phase)).toEqual([1, 2, 3]);
+	});
+
+	it('analyseCapture(capture) reports both the voltage and the current set, voltages first', () => {
+		expect(r.threePhaseSets.map((t) => t.quantity)).toEqual(['voltage', 'current']);
+		expect(r.threePhase!.channels).toEqual(['L1', 'L2', 'L3']);
+		expect(r.threePhaseSets[1].rotation).toBe('positive');
+	});
+
+	it('analyseCapture(capture) names the worst cycle of a current with one cycle at double amplitude (per-cycle RMS, IEC 61000-4-30 Urms(1))', () => {
+		const x = sineSamples({ amplitude: 14.142, frequencyHz: 50, sampleRateHz: FS, cycles: 12 });
+		for (let n = 5 * 200; n < 6 * 200; n++) x[n] *= 2; // cycle 5 (0-based), whole cycle from a zero crossing
+		const w = analyseCapture(capture([channel('I1', 'A', 'current', x)])).channels[0].worstCycle!;
+		// lib/signal places the crossings beside an amplitude step within about 2 samples, so the cycle RMS
+		// is within 1 % of 2 × 14.142/√2 = 20 A and its start within 0.3 ms of 0.1 s.
+		expect(w.rmsCycle).toBe(5);
+		expect(Math.abs(w.rms - 20)).toBeLessThan(0.2);
+		expect(Math.abs(w.rmsStartS - 0.1)).toBeLessThan(3e-4);
+		expect(w.lowestRms).toBeCloseTo(10, 2);
+	});
+});

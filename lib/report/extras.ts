@@ -1,0 +1,91 @@
+/**
+ * Figures the report carries beyond the listed contract, each from its library area: the worst cycle of
+ * a channel, why an average-responding meter misreads it, IEEE 1459 three-phase power and the neutral
+ * current of a three-phase current set.
+ */
+import type { Capture } from '../capture.js';
+import { lineToLineSamples } from '../polyphase/line-voltages.js';
+import { neutralCurrentFigures, sumPhaseCurrents } from '../polyphase/neutral.js';
+import { threePhasePowerFromHarmonics, type ThreePhaseInputPhase } from '../power/three-phase.js';
+import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
+import type { CycleWindow } from '../signal/cycles.js';
+import { perCycleFigures } from '../signal/per-cycle.js';
+import { averageMeterExplanation } from '../spectrum/average-meter.js';
+import { channelSpectrum, type ChannelSpectrum, type WindowSlot } from './spectra.js';
+import type { ReportNeutral, ReportThreePhasePower, ReportWorstCycle } from './types.js';
+
+/** The cycle with the highest RMS and the one with the highest peak magnitude (UPS and generator sizing). */
+export function worstCycle(samples: Float64Array, window: CycleWindow, sampleRateHz: number): ReportWorstCycle {
+	const p = perCycleFigures(samples, window);
+	const peakOf = (k: number) => (k < 0 ? NaN : Math.abs(p.peak[k]) >= Math.abs(p.peakNegative[k]) ? p.peak[k] : p.peakNegative[k]);
+	return {
+		rmsCycle: p.worstRmsCycle,
+		rms: p.worstRmsCycle >= 0 ? p.rms[p.worstRmsCycle] : NaN,
+		rmsStartS: p.worstRmsCycle >= 0 ? p.startIndex[p.worstRmsCycle] / sampleRateHz : NaN,
+		peakCycle: p.worstPeakCycle,
+		peak: peakOf(p.worstPeakCycle),
+		peakStartS: p.worstPeakCycle >= 0 ? p.startIndex[p.worstPeakCycle] / sampleRateHz : NaN,
+		lowestRms: p.rms.length > 0 ? Math.min(...p.rms) : NaN,
+	};
+}
+
+/** The spectrum's account of the average-responding meter's error: a summary and the orders behind it. */
+export function meterExplanation(spectrum: ChannelSpectrum | undefined, unit: string): { summary: string; reasons: string[] } | undefined {
+	if (!spectrum) return undefined;
+	const e = averageMeterExplanation(spectrum.aggregate.set, unit);
+	return { summary: e.summary, reasons: e.reasons.map((r) => r.text) };
+}
+
+/**
+ * IEEE 1459 three-phase quantities of three V/I pairs labelled phases 1, 2, 3 (pairing by label), per
+ * window of the shared harmonic windows, time-domain P and RMS over the whole cycles. 4-wire when the
+ * capture has phase-to-neutral voltages (the only kind paired here).
+ */
+export function threePhasePower(
+	capture: Capture,
+	pairs: { voltage: number; current: number; phase: number | null }[],
+	spectra: (ChannelSpectrum | undefined)[],
+	window: PowerSampleWindow,
+): ReportThreePhasePower | undefined {
+	const byPhase = [1, 2, 3].map((ph) => pairs.find((p) => p.phase === ph));
+	if (byPhase.some((p) => p === undefined)) return undefined;
+	const phases = byPhase.map((p): ThreePhaseInputPhase => {
+		const v = capture.channels[p!.voltage];
+		const i = capture.channels[p!.current];
+		return {
+			voltage: spectra[p!.voltage]!.aggregate.set,
+			current: spectra[p!.current]!.aggregate.set,
+			totals: { voltageRmsV: powerWindowRms(v.samples, window), currentRmsA: powerWindowRms(i.samples, window), activePowerW: activePowerFromSamplesW(v.samples, i.samples, window) },
+		};
+	}) as [ThreePhaseInputPhase, ThreePhaseInputPhase, ThreePhaseInputPhase];
+	// Line voltages and the neutral from the time domain, as lib/power recommends: summing them per order
+	// from the sets would also stumble on orders whose phase is undefined (RMS at rounding level).
+	const v = byPhase.map((p) => capture.channels[p!.voltage].samples);
+	const i = byPhase.map((p) => capture.channels[p!.current].samples);
+	const lineVoltageRmsV = [0, 1, 2].map((k) => powerWindowRms(lineToLineSamples(v[k], v[(k + 1) % 3]), window)) as [number, number, number];
+	const neutralCurrentRmsA = powerWindowRms(sumPhaseCurrents(i[0], i[1], i[2]), window);
+	const q = threePhasePowerFromHarmonics('4-wire', phases, { lineVoltageRmsV, neutralCurrentRmsA });
+	const { perPhase: _perPhase, positiveSequenceVoltage: _v, positiveSequenceCurrent: _i, wiring, ...figures } = q;
+	return { channels: byPhase.map((p) => [capture.channels[p!.voltage].name, capture.channels[p!.current].name]), wiring, figures: figures as unknown as Record<string, number> };
+}
+
+/** Neutral current of a three-phase current set: measured when a neutral channel exists, else the sum of the phases. */
+export function neutralCurrent(
+	capture: Capture,
+	currents: number[],
+	neutralIndex: number | undefined,
+	spectra: (ChannelSpectrum | undefined)[],
+	slots: WindowSlot[],
+	window: PowerSampleWindow,
+	maxOrder: number,
+): ReportNeutral {
+	const phaseRms = currents.map((k) => powerWindowRms(capture.channels[k].samples, window)) as [number, number, number];
+	if (neutralIndex !== undefined) {
+		const f = neutralCurrentFigures('measured', powerWindowRms(capture.channels[neutralIndex].samples, window), phaseRms, spectra[neutralIndex]?.aggregate.set);
+		return { channel: capture.channels[neutralIndex].name, ...f };
+	}
+	const sum = sumPhaseCurrents(capture.channels[currents[0]].samples, capture.channels[currents[1]].samples, capture.channels[currents[2]].samples);
+	const set = slots.length > 0 ? channelSpectrum(sum, capture.sampleRateHz, slots, maxOrder).aggregate.set : undefined;
+	const f = neutralCurrentFigures('computed', powerWindowRms(sum, window), phaseRms, set);
+	return { channel: null, ...f };
+}
