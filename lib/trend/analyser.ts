@@ -22,6 +22,7 @@ import { CrossingTracker, type CrossingSink } from './crossing-tracker.js';
 import { declaredVoltageFromRms } from './declared-voltage.js';
 import { EventDetector } from './event-detector.js';
 import { RowGroup } from './row-group.js';
+import { WindowThd } from './window-thd.js';
 import type { TrendEvent, TrendFrequencyRow, TrendOptions, TrendResult, TrendRow, TrendThresholds } from './types.js';
 
 /** A streaming analyser made by `createTrendAnalyser`. */
@@ -92,7 +93,11 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const mask = ringLen - 1;
 	const rings = channels.map(() => new Float64Array(ringLen));
 	const wantThd = opts.thd ?? true;
-	const scratch = wantThd ? new Float64Array(ringLen) : undefined;
+	const thdMethod = opts.thdMethod ?? 'lagrange';
+	if (thdMethod !== 'lagrange' && thdMethod !== 'sinc') throw new RangeError(`thdMethod must be 'lagrange' or 'sinc', got ${thdMethod}`);
+	const scratch = wantThd && thdMethod === 'sinc' ? new Float64Array(ringLen) : undefined;
+	let fastThd: WindowThd | undefined;
+	let fastThdCycles = 0;
 	/** Samples beyond each end of a window kept for the DFT's resampling kernel. */
 	const PAD = 16;
 	const windowsToClose: { start: number; end: number; startT: number; endT: number }[] = [];
@@ -155,13 +160,19 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				s += v * v;
 			}
 			rms[c] = Math.sqrt(s / lengthT);
-			if (scratch) {
+			if (thdMethod === 'sinc' && scratch) {
 				const s0 = Math.max(0, abs - ringLen + 1, Math.floor(startT) - PAD);
 				const e0 = Math.min(abs, Math.ceil(endT) + PAD);
 				const w = scratch.subarray(0, e0 - s0);
 				for (let j = s0; j < e0; j++) w[j - s0] = ring[j & mask];
 				const f1 = (cyclesPerWindow * fs) / lengthT;
 				thd[c] = f1 < fs / 2 ? harmonicWindow(w, fs, { fundamentalHz: f1, startIndex: startT - s0, cycles: cyclesPerWindow, maxOrder: 50 }).thd.thdS50Percent : NaN;
+			} else if (wantThd) {
+				if (!fastThd || fastThdCycles !== cyclesPerWindow) {
+					fastThd = new WindowThd(cyclesPerWindow);
+					fastThdCycles = cyclesPerWindow;
+				}
+				thd[c] = fastThd.thdPercent(ring, mask, startT, endT, fs);
 			} else thd[c] = NaN;
 		}
 		pendingRows.push({

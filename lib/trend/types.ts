@@ -52,6 +52,12 @@ export interface TrendOptions {
 	 * false leaves thdPercent NaN and saves the DFTs.
 	 */
 	thd?: boolean;
+	/**
+	 * How each window is resampled onto the DFT grid: 'lagrange' (default; 8-point Lagrange, fast, orders
+	 * up to 0.15·fs within 0.06 %, see window-thd.ts) or 'sinc' (lib/spectrum's harmonicWindow, 24-tap
+	 * Kaiser sinc, exact to ~1e-6 but several times slower).
+	 */
+	thdMethod?: 'lagrange' | 'sinc';
 }
 
 /** Aggregation interval kinds of IEC 61000-4-30 (REFERENCE §3.2). */

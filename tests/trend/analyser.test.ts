@@ -216,6 +216,41 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 		}
 	});
 
+	it('THD at an off-nominal 49.93 Hz (windows resampled) equals the closed form √(4.6² + 11.5² + 6.9²)/230 = 6.16441 % with both resamplers', () => {
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 3, rms: 4.6, phaseDeg: 40 },
+				{ order: 5, rms: 11.5, phaseDeg: -75 },
+				{ order: 7, rms: 6.9, phaseDeg: 120 },
+			],
+			{ frequencyHz: 49.93, sampleRateHz: 10_000, cycles: 42 },
+		);
+		const expected = (100 * Math.hypot(4.6, 11.5, 6.9)) / 230; // closed form
+		for (const thdMethod of ['lagrange', 'sinc'] as const) {
+			const r = run([x], { sampleRateHz: 10_000, declaredV: 230, nominalHz: 50, thdMethod });
+			expect(r.cycles10.length).toBe(4);
+			for (const row of r.cycles10) expect(Math.abs(row.thdPercent[0] - expected)).toBeLessThan(1e-4);
+		}
+	});
+
+	it('THD of a 2 % 49th harmonic at 10 kS/s (0.245·fs): Lagrange within its stated 2.3 %, sinc within 0.01 %', () => {
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 49, rms: 4.6 },
+			],
+			{ frequencyHz: 49.93, sampleRateHz: 10_000, cycles: 32 },
+		);
+		const lag = run([x], { sampleRateHz: 10_000, declaredV: 230, nominalHz: 50 });
+		const sinc = run([x], { sampleRateHz: 10_000, declaredV: 230, nominalHz: 50, thdMethod: 'sinc' });
+		for (const row of lag.cycles10) {
+			expect(row.thdPercent[0]).toBeLessThanOrEqual(2 * 1.0001);
+			expect(row.thdPercent[0]).toBeGreaterThanOrEqual(2 * (1 - 0.023)); // window-thd.ts accuracy statement
+		}
+		for (const row of sinc.cycles10) expect(Math.abs(row.thdPercent[0] - 2)).toBeLessThan(2e-4);
+	});
+
 	it('60 Hz is inferred from the first cycles and gives 12-cycle windows, reported as an assumption', () => {
 		const xs = makeChannels([{ rms: 120, phaseDeg: 30 }], { f0Hz: 60 }, 7680, 1);
 		const r = run(xs, { sampleRateHz: 7680 });

@@ -1,0 +1,82 @@
+/**
+ * THD of one 10/12-cycle window straight from a channel's ring buffer, fast enough to run on every
+ * window of every channel of a long recording (about 1/7 of the cost of lib/spectrum's harmonicWindow,
+ * whose 24-tap sinc resampler is exact to 1e-6 but costs ~0.2 ms per window).
+ *
+ * Method (IEC 61000-4-7 synchronised window): the window from zero crossing startT to endT (c whole
+ * cycles, fractional samples) is resampled onto M = 2048 points by 8-point Lagrange interpolation, so
+ * DFT bin c·h is harmonic h exactly; then a radix-2 real FFT (fft.js); C_k = √2·|X_k|/M; harmonic
+ * subgroups G_sg,h² = C²_{ch−1} + C²_{ch} + C²_{ch+1}; THDS = √(Σ_{h=2..50} G_sg,h²) / G_sg,1 · 100 %.
+ * Orders at or above fs/2 are left out.
+ *
+ * Accuracy of the interpolation (worst fractional position; computed from the 8-point Lagrange
+ * frequency response): magnitude error < 0.003 % up to 0.1·fs, < 0.06 % up to 0.15·fs, < 0.5 % at
+ * 0.2·fs, < 2.3 % at 0.25·fs (the 50th harmonic at 10 kS/s); IEC 61000-4-7 class I allows ±5 % of the
+ * reading. Low orders, which dominate THD, are exact to ~1e-5 relative.
+ *
+ * Ref: IEC 61000-4-7:2002, 4.4.1 and 3.3 (subgroups), via REFERENCE §2.1-2.2 (from memory); IEC
+ * 61000-4-30:2015 class A uses subgroups up to the 50th order (REFERENCE §2.2, from memory).
+ */
+import FFT from 'fft.js';
+
+const M = 2048;
+const TAPS = 8;
+const PHASES = 1024;
+const MAX_ORDER = 50;
+
+let weights: Float64Array | undefined;
+
+/** Lagrange weights for taps at offsets −3 … 4 around a point at fraction f of the way from 0 to 1. */
+function weightTable(): Float64Array {
+	if (weights) return weights;
+	const w = new Float64Array((PHASES + 1) * TAPS);
+	for (let p = 0; p <= PHASES; p++) {
+		const f = p / PHASES;
+		for (let j = 0; j < TAPS; j++) {
+			const xj = j - 3;
+			let v = 1;
+			for (let m = 0; m < TAPS; m++) if (m !== j) v *= (f - (m - 3)) / (xj - (m - 3));
+			w[p * TAPS + j] = v;
+		}
+	}
+	weights = w;
+	return w;
+}
+
+export class WindowThd {
+	private readonly fft = new FFT(M);
+	private readonly input = new Float64Array(M);
+	private readonly spectrum = new Float64Array(2 * M);
+
+	constructor(private readonly cycles: number) {
+		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2) throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
+	}
+
+	/**
+	 * THDS in % of the window [startT, endT) (sample indices, fractional) of `ring` (power-of-two length,
+	 * index & mask); needs samples from startT − 4 to endT + 5 in the ring. NaN when the fundamental is 0.
+	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the REFERENCE §1.3 mix
+	 */
+	thdPercent(ring: Float64Array, mask: number, startT: number, endT: number, sampleRateHz: number): number {
+		const tab = weightTable();
+		const x = this.input;
+		const step = (endT - startT) / M;
+		for (let m = 0; m < M; m++) {
+			const t = startT + m * step;
+			const i = Math.floor(t);
+			const p = Math.round((t - i) * PHASES) * TAPS;
+			let acc = 0;
+			for (let j = 0; j < TAPS; j++) acc += tab[p + j] * ring[(i - 3 + j) & mask];
+			x[m] = acc;
+		}
+		this.fft.realTransform(this.spectrum, x);
+		const s = this.spectrum;
+		const c = this.cycles;
+		const f1 = (c * sampleRateHz) / (endT - startT);
+		const power = (k: number) => s[2 * k] * s[2 * k] + s[2 * k + 1] * s[2 * k + 1];
+		const g1 = power(c - 1) + power(c) + power(c + 1);
+		let gh = 0;
+		for (let h = 2; h <= MAX_ORDER && h * f1 < sampleRateHz / 2; h++) gh += power(c * h - 1) + power(c * h) + power(c * h + 1);
+		return g1 > 0 ? 100 * Math.sqrt(gh / g1) : NaN;
+	}
+}
