@@ -197,6 +197,23 @@ describe('parseCsv: time base', () => {
 		expect(diag(c, 'decimated')?.message).toMatch(/2 times/);
 	});
 
+	it('parseCsv(a preamble that says the export is decimated) warns that not every sample is there', () => {
+		const c = parseCsv('Decimation;4\nt (ms);U1\n0;1\n0,4;2\n0,8;3\n', 'a.csv');
+		expect(diag(c, 'decimated')?.message).toMatch(/Decimation: 4/);
+	});
+
+	it('parseCsv(a stated rate that fits no integer ratio) warns and uses the time column', () => {
+		const c = parseCsv('Sample rate;7000;Hz\nt (ms);U1\n0;1\n0,1;2\n0,2;3\n', 'a.csv');
+		expect(c.sampleRateHz).toBeCloseTo(10_000, 6);
+		expect(diag(c, 'rate-mismatch')?.severity).toBe('warning');
+	});
+
+	it('parseCsv(a header written as a comment: # t, U1) reads the names', () => {
+		const c = parseCsv('# t (s), U1 (V)\n0, 1\n0.5, 2\n1, 3\n', 'a.csv');
+		expect(c.channels.map((ch) => ch.name)).toEqual(['U1']);
+		expect(c.sampleRateHz).toBe(2);
+	});
+
 	it('parseCsv(min and max rows sharing each time stamp) recognises a peak-detect export', () => {
 		const c = parseCsv('t (s);U1\n0;-1\n0;1\n1;-2\n1;2\n2;-3\n2;3\n', 'a.csv');
 		expect(codes(c)).toContain('min-max-rows');

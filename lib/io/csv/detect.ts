@@ -119,7 +119,8 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		diagnostics.push(info('preamble', `Lines 1-${preambleEnd} are a preamble of ${Object.keys(facts.metadata).length} entries, kept as metadata.`, 1));
 
 	// Columns: names and units from the header (and units row), trailing empty columns.
-	const headerCells = headerIdx === null ? [] : split(lines[headerIdx]);
+	// a header may be written as a comment: '# t, U1, U2'
+	const headerCells = headerIdx === null ? [] : split(lines[headerIdx].replace(/^\s*(#+|\/\/|%)\s*/, ''));
 	const unitCells = unitsIdx === null ? [] : split(lines[unitsIdx]);
 	let trailingEmptyColumns = 0;
 	let quoted = false;

@@ -21,7 +21,7 @@ export function isIndexName(name: string): boolean {
 /** min/max envelope columns of a peak-detect export: 'U1 min', 'U1_max', 'min(U1)', 'Max U1'. */
 export function minMaxOf(name: string): { base: string; which: 'min' | 'max' } | null {
 	if (name.length > 120) return null;
-	let m = /^(.+?)[\s_.-]*\b(min|max|minimum|maximum)$/i.exec(name.trim());
+	let m = /^(.+?)[\s_.-]+(min|max|minimum|maximum)$/i.exec(name.trim());
 	if (m) return { base: m[1], which: m[2].toLowerCase().startsWith('min') ? 'min' : 'max' };
 	m = /^(min|max|minimum|maximum)\b[\s_.(-]*(.+?)\)?$/i.exec(name.trim());
 	if (m) return { base: m[2], which: m[1].toLowerCase().startsWith('min') ? 'min' : 'max' };

@@ -156,6 +156,12 @@ export class RowScanner {
 					if (neg) v = -v;
 				}
 				cols[c][n] = v;
+				// common case first: the delimiter right after an unquoted number
+				if (b === delim && !space && !quoted && c < K - 1) {
+					b = buf[++p];
+					while (b === 32 || (b === 9 && delim !== 9)) b = buf[++p];
+					continue;
+				}
 				// after the number: blanks, closing quote, then the delimiter or the line end
 				const numEnd = p;
 				while (b === 32 || (b === 9 && delim !== 9)) b = buf[++p];

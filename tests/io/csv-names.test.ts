@@ -1,0 +1,69 @@
+// Header cells, units and channel names. Unit prefixes per the SI brochure (BIPM, 9th edition, 2019,
+// table 7: m = 1e-3, k = 1e3, µ = 1e-6, n = 1e-9); letter and phase conventions are common practice.
+import { describe, expect, it } from 'vitest';
+import { isIndexName, isTimeName, minMaxOf, phaseFromName, quantityFromName } from '../../lib/io/csv/names.js';
+import { looksLikeUnitsRow, readUnit, splitNameUnit } from '../../lib/io/csv/units.js';
+
+describe('splitNameUnit', () => {
+	it('splitNameUnit(cell) reads the four usual forms U1 (V), U1 [V], U1/V, U1 in V', () => {
+		for (const cell of ['U1 (V)', 'U1 [V]', 'U1/V', 'U1 in V', ' U1 (V) ']) expect(splitNameUnit(cell)).toEqual({ name: 'U1', unitText: 'V' });
+	});
+
+	it('splitNameUnit(cell) leaves names that only look like fractions or phases alone', () => {
+		expect(splitNameUnit('L1/L2')).toEqual({ name: 'L1/L2', unitText: '' });
+		expect(splitNameUnit('Phase A')).toEqual({ name: 'Phase A', unitText: '' });
+		expect(splitNameUnit('U1')).toEqual({ name: 'U1', unitText: '' });
+	});
+});
+
+describe('readUnit', () => {
+	it('readUnit(text) gives the SI prefix factors for V, A and s', () => {
+		expect(readUnit('mV')).toEqual({ unit: 'V', factor: 1e-3, kind: 'voltage' });
+		expect(readUnit('kV')).toEqual({ unit: 'V', factor: 1e3, kind: 'voltage' });
+		expect(readUnit('mA')).toEqual({ unit: 'A', factor: 1e-3, kind: 'current' });
+		expect(readUnit('kA')).toEqual({ unit: 'A', factor: 1e3, kind: 'current' });
+		expect(readUnit('µs')).toEqual({ unit: 's', factor: 1e-6, kind: 'time' });
+		expect(readUnit('us')).toEqual({ unit: 's', factor: 1e-6, kind: 'time' });
+		expect(readUnit('ms')).toEqual({ unit: 's', factor: 1e-3, kind: 'time' });
+		expect(readUnit('(V)')).toEqual({ unit: 'V', factor: 1, kind: 'voltage' });
+		expect(readUnit('Volts')).toEqual({ unit: 'V', factor: 1, kind: 'voltage' });
+	});
+
+	it('readUnit(text) keeps unknown units as text and recognises raw counts', () => {
+		expect(readUnit('W')).toEqual({ unit: 'W', factor: 1, kind: 'other' });
+		expect(readUnit('counts')?.kind).toBe('counts');
+		expect(readUnit('')).toBeNull();
+	});
+
+	it('looksLikeUnitsRow(cells) accepts a row of units and rejects names', () => {
+		expect(looksLikeUnitsRow(['s', 'V', '[mA]', ''])).toBe(true);
+		expect(looksLikeUnitsRow(['t', 'U1', 'I1'])).toBe(false);
+	});
+});
+
+describe('channel names', () => {
+	it('quantityFromName(name) reads U/V as voltage and I as current, else null', () => {
+		for (const n of ['U1', 'UL2', 'V_A', 'Voltage L3', 'U12', 'L1-N', 'Spannung L1']) expect(quantityFromName(n), n).toBe('voltage');
+		for (const n of ['I1', 'IL3', 'Ia', 'IN', 'Current', 'Strom L2']) expect(quantityFromName(n), n).toBe('current');
+		for (const n of ['CH1', 'Temp', 'P', 'Probe 3']) expect(quantityFromName(n), n).toBeNull();
+	});
+
+	it('phaseFromName(name) reads the phase schemes and line-to-line pairs', () => {
+		const cases: [string, string | undefined][] = [
+			['U1', '1'], ['UL2', 'L2'], ['UL3-N', 'L3'], ['Ia', 'A'], ['V_B', 'B'], ['IR', 'R'], ['US', 'S'], ['UT', 'T'],
+			['VY', 'Y'], ['IW', 'W'], ['IN', 'N'], ['L1', 'L1'], ['L1-L2', 'L1-L2'], ['Uab', 'A-B'], ['Phase C', 'C'],
+			['U', undefined], ['CH1', undefined], ['Temp', undefined],
+		];
+		for (const [n, ph] of cases) expect(phaseFromName(n), n).toBe(ph);
+	});
+
+	it('isTimeName / isIndexName / minMaxOf recognise time, sample number and envelope columns', () => {
+		for (const n of ['t', 'Time', 'TIME', 'Zeit', 'timestamp', 'x']) expect(isTimeName(n), n).toBe(true);
+		for (const n of ['Sample', 'No.', 'index', '#', 'Sample no']) expect(isIndexName(n), n).toBe(true);
+		expect(isTimeName('U1')).toBe(false);
+		expect(minMaxOf('U1 min')).toEqual({ base: 'U1', which: 'min' });
+		expect(minMaxOf('I2_Max')).toEqual({ base: 'I2', which: 'max' });
+		expect(minMaxOf('min(U3)')).toEqual({ base: 'U3', which: 'min' });
+		expect(minMaxOf('U1')).toBeNull();
+	});
+});
