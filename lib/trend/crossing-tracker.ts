@@ -71,9 +71,15 @@ export class CrossingTracker {
 
 	/** Scan xs[from..to) whose first sample has absolute index abs0. */
 	scan(xs: Float64Array, from: number, to: number, abs0: number): void {
+		// Hot loop: tracker fields live in locals and are written back around the (rare) commits.
 		let prev = this.prev;
 		let polarity = this.polarity;
 		let peak = this.halfPeak;
+		let cand = this.cand;
+		let candT = this.candT;
+		let h = this.h;
+		let earliest = this.last >= 0 ? this.last + 0.5 * this.halfPeriod : -Infinity;
+		let deadline = this.last >= 0 ? this.last + 1.5 * this.halfPeriod : Infinity;
 		const off = abs0 - from;
 		for (let k = from; k < to; k++) {
 			const x = xs[k];
@@ -83,37 +89,45 @@ export class CrossingTracker {
 			if (polarity > 0) {
 				if (x < 0) {
 					if (prev >= 0) {
-						this.cand = i;
-						this.candT = i - 1 + prev / (prev - x);
+						cand = i;
+						candT = i - 1 + prev / (prev - x);
 					}
-					if (-x > this.h && this.cand >= 0) {
-						if (this.last < 0 || this.cand - this.last >= 0.5 * this.halfPeriod) {
+					if (ax > h && cand >= 0) {
+						if (cand >= earliest) {
 							this.halfPeak = peak;
-							this.commit(this.cand, this.candT, false, false);
+							this.commit(cand, candT, false, false);
 							peak = 0;
 							polarity = -1;
-						} else this.cand = -1;
+							h = this.h;
+							earliest = this.last + 0.5 * this.halfPeriod;
+							deadline = this.last + 1.5 * this.halfPeriod;
+						}
+						cand = -1;
 					}
 				}
 			} else if (polarity < 0) {
 				if (x >= 0) {
 					if (prev < 0) {
-						this.cand = i;
-						this.candT = i - 1 + prev / (prev - x);
+						cand = i;
+						candT = i - 1 + prev / (prev - x);
 					}
-					if (x > this.h && this.cand >= 0) {
-						if (this.last < 0 || this.cand - this.last >= 0.5 * this.halfPeriod) {
+					if (ax > h && cand >= 0) {
+						if (cand >= earliest) {
 							this.halfPeak = peak;
-							this.commit(this.cand, this.candT, true, false);
+							this.commit(cand, candT, true, false);
 							peak = 0;
 							polarity = 1;
-						} else this.cand = -1;
+							h = this.h;
+							earliest = this.last + 0.5 * this.halfPeriod;
+							deadline = this.last + 1.5 * this.halfPeriod;
+						}
+						cand = -1;
 					}
 				}
 			} else if (x !== 0) {
 				polarity = x > 0 ? 1 : -1;
 			}
-			if (this.last >= 0 && i - this.last > 1.5 * this.halfPeriod) {
+			if (i > deadline) {
 				// Lost the crossings: free-run one half period after the last boundary (still in the ring).
 				const b = this.last + Math.round(this.halfPeriod);
 				this.halfPeak = peak;
@@ -121,12 +135,18 @@ export class CrossingTracker {
 				this.commit(b, b, polarity < 0, true);
 				peak = 0;
 				polarity = polarity < 0 ? 1 : -1;
+				cand = -1;
+				h = this.h;
+				earliest = this.last + 0.5 * this.halfPeriod;
+				deadline = this.last + 1.5 * this.halfPeriod;
 			}
 			prev = x;
 		}
 		this.prev = prev;
 		this.polarity = polarity;
 		this.halfPeak = peak;
+		this.cand = cand;
+		this.candT = candT;
 	}
 
 	private commit(b: number, t: number, rising: boolean, forced: boolean): void {
@@ -160,7 +180,6 @@ export class CrossingTracker {
 		}
 		this.last = b;
 		this.lastT = t;
-		this.cand = -1;
 		const p = this.halfPeak;
 		this.peakRef = Math.max(this.peakRef * 0.999, p);
 		this.h = Math.max(0.1 * p, 0.02 * this.peakRef);
