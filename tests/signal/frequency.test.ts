@@ -34,7 +34,7 @@ describe('estimateFrequency accuracy', () => {
 		[59.87, 7_800],
 		[59.87, 12_800],
 		[60, 12_800],
-	])('estimateFrequency(%s Hz at %s S/s, 10 cycles, 1 %% white noise + 20 %% 5th harmonic) is within 10 mHz over 10 noise seeds', (f, fs) => {
+	])('estimateFrequency(%s Hz at %s S/s, 10 cycles, 1 percent white noise + 20 percent 5th harmonic) is within 10 mHz over 10 noise seeds', (f, fs) => {
 		for (let seed = 1; seed <= 10; seed++) {
 			const clean = mains(f, fs, 10, [{ order: 5, rms: 0.2, phaseDeg: 40 * seed }]);
 			// "1 % white noise": standard deviation 1 % of the fundamental's peak (√2 · 1)
@@ -49,7 +49,7 @@ describe('estimateFrequency accuracy', () => {
 		[59.87, 7_800],
 		[59.87, 12_800],
 		[50.2, 12_800],
-	])('estimateFrequency(%s Hz at %s S/s with 30 %% DC offset and 30/30/20 %% 3rd/5th/7th harmonics) is within 1 mHz', (f, fs) => {
+	])('estimateFrequency(%s Hz at %s S/s with 30 percent DC offset and 30/30/20 percent 3rd/5th/7th harmonics) is within 1 mHz', (f, fs) => {
 		const x = mains(f, fs, 10, [{ order: 3, rms: 0.3, phaseDeg: 100 }, { order: 5, rms: 0.3, phaseDeg: -60 }, { order: 7, rms: 0.2 }], 0.3 * Math.SQRT2);
 		expect(Math.abs(frequencyOf(x, fs) - f)).toBeLessThan(1e-3);
 	});
