@@ -6,3 +6,4 @@ export * from './line-voltages.js';
 export * from './neutral.js';
 export * from './connection.js';
 export * from './from-samples.js';
+export * from './artificial-neutral.js';

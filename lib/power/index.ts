@@ -9,3 +9,4 @@ export * from './three-phase.js';
 export * from './phase-label.js';
 export * from './pairing.js';
 export * from './from-samples.js';
+export * from './harmonic-power.js';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { activePowerFromSamplesW, ieee1459FromComponents, loadCharacterFromAngle, powerWindowRms, powerWindowWeights, singlePhasePowerFromHarmonics, windowMean } from '../../lib/power/index.js';
+import { activePowerFromSamplesW, ieee1459FromComponents, loadCharacterFromAngle, powerWindowRms, powerPerOrder, powerWindowWeights, singlePhasePowerFromHarmonics, windowMean } from '../../lib/power/index.js';
 import { harmonicSamples, sineSamples } from '../helpers/synth.js';
 import { setFromSineTones } from './harmonic-set.js';
 
@@ -179,5 +179,20 @@ describe('windowMean and powerWindowWeights (trapezoid rule with fractional ends
 		weights.forEach((w, j) => ((m += w * (firstIndex + j)), (sum += w)));
 		expect(sum).toBeCloseTo(1, 14);
 		expect(m).toBeCloseTo((s + e) / 2, 12);
+	});
+});
+
+describe('powerPerOrder', () => {
+	it('splits REFERENCE.md §5.3 into P3 = 6.9·3·cos 60° = 10.35 W and P5 = 11.5·2·cos 45° W, summing to P_H = 26.6135 W [COMPUTED]', () => {
+		const u = setFromSineTones([{ order: 1, rms: 230 }, { order: 3, rms: 6.9 }, { order: 5, rms: 11.5 }]);
+		const i = setFromSineTones([{ order: 1, rms: 10, phaseDeg: -30 }, { order: 3, rms: 3, phaseDeg: 60 }, { order: 5, rms: 2, phaseDeg: -45 }]);
+		const per = powerPerOrder(u, i);
+		expect(per[1].reactiveVar).toBeCloseTo(1150, 9);
+		expect(per[3].activeW).toBeCloseTo(10.35, 9);
+		expect(per[3].reactiveVar).toBeCloseTo(-20.7 * Math.sin(60 * DEG), 9);
+		expect(per[3].thetaDeg).toBeCloseTo(-60, 9);
+		expect(per[5].activeW).toBeCloseTo(23 * Math.cos(45 * DEG), 9);
+		expect(per[3].activeW + per[5].activeW).toBeCloseTo(26.613456, 5);
+		expect(per[2].thetaDeg).toBeNaN();
 	});
 });
