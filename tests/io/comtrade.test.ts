@@ -181,7 +181,7 @@ describe('parseComtrade on other revisions and value types', () => {
 		const c = open('old-1991');
 		// VA: a = 0.5, b = 0: raw 10, 20, -30 -> 5, 10, -15 V
 		expect(Array.from(c.channels[0].samples)).toEqual([5, 10, -15]);
-		expect(c.channels[0].scaling?.description).toContain('no PS flag');
+		expect(c.channels[0].scaling?.description).toContain('no P/S flag');
 		expect(c.diagnostics.find((d) => d.code === 'comtrade-revision-assumed')?.severity).toBe('assumption');
 		expect(c.diagnostics.some((d) => d.code === 'comtrade-1991-date')).toBe(true);
 		// 02/01/91 in the 1991 order mm/dd/yy is 1 February 1991

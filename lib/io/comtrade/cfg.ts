@@ -141,7 +141,10 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 				: 'an analog channel line of 10 or 13 fields: An,ch_id,ph,ccbm,uu,a,b,skew,min,max,primary,secondary,PS');
 		}
 		const psText = (f[12]?.text ?? '').toUpperCase();
-		if (f.length >= 13 && psText !== 'P' && psText !== 'S') fail(k, f[12].column, 'cfg-syntax', f[12].text, 'P or S (primary or secondary values)');
+		if (f.length >= 13 && psText !== 'P' && psText !== 'S' && psText !== '') fail(k, f[12].column, 'cfg-syntax', f[12].text, 'P or S (primary or secondary values)');
+		if (f.length >= 13 && psText === '') {
+			diagnostics.push({ code: 'comtrade-ps-blank', severity: 'assumption', line: lineNo(k), column: f[12].column, message: `Channel ${f[1].text} leaves the P/S flag blank; its values are taken as recorded.` });
+		}
 		analog.push({
 			index: num(f[0], k, 'the channel index (an integer)', { int: true }),
 			name: f[1].text,
@@ -153,7 +156,7 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 			skewUs: num(f[7], k, 'the skew in microseconds (a number)', { blank: 0 }),
 			primary: f.length >= 13 ? num(f[10], k, 'the primary ratio factor (a number)', { blank: NaN }) : NaN,
 			secondary: f.length >= 13 ? num(f[11], k, 'the secondary ratio factor (a number)', { blank: NaN }) : NaN,
-			ps: f.length >= 13 ? (psText as 'P' | 'S') : undefined,
+			ps: f.length >= 13 && psText !== '' ? (psText as 'P' | 'S') : undefined,
 			line: lineNo(k),
 		});
 	}

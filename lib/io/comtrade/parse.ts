@@ -148,7 +148,7 @@ function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'second
 	let which: string;
 	const ratioKnown = Number.isFinite(a.primary) && Number.isFinite(a.secondary) && a.primary > 0 && a.secondary > 0;
 	if (a.ps === undefined) {
-		which = 'as recorded (no PS flag in a 1991 .cfg)';
+		which = 'as recorded (no P/S flag in the .cfg)';
 	} else if ((a.ps === 'P') === (want === 'primary')) {
 		which = `${want} values, as recorded`;
 	} else if (!ratioKnown) {
