@@ -236,6 +236,29 @@ describe('parseComtrade errors: one fixture per code with its line and column', 
 		});
 	}
 
+	it('parseComtrade(.dat row errors) point at the column: short row, long row, bad digital state', () => {
+		const cfg = text('good-1999.cfg');
+		const rows = ['1,0,100,10,0', '2,1000,-50,20,0', '3,2000,0,30,1', '4,3000,5,40,1'];
+		const at = (bad: string, k: number) => {
+			const r = rows.slice();
+			r[k] = bad;
+			return thrown(() => parseComtrade(cfg, enc(r.join('\n') + '\n'), 'r.cfg'));
+		};
+		// short: 4 of 5 fields; the column is just past the end of the line (length 12 + 1)
+		expect([at('3,2000,0,30', 2).code, at('3,2000,0,30', 2).line, at('3,2000,0,30', 2).column]).toEqual(['dat-syntax', 3, 12]);
+		// long: a sixth field "7" starts at column 15 of "3,2000,0,30,1,7"
+		expect([at('3,2000,0,30,1,7', 2).line, at('3,2000,0,30,1,7', 2).column]).toEqual([3, 15]);
+		// digital state 2 at column 13 of "4,3000,5,40,2"
+		expect([at('4,3000,5,40,2', 3).line, at('4,3000,5,40,2', 3).column]).toEqual([4, 13]);
+	});
+
+	it('parseComtrade(.dat with a trailing comma and a blank analog field) reads the row, the blank as missing', () => {
+		const c = parseComtrade(text('good-1999.cfg'), enc('1,0,100,10,0,\r\n2,1000,,20,0\r\n3,2000,0,30,1\r\n4,3000,5,40,1\r\n'), 'b.cfg');
+		expect(c.channels[0].samples[0]).toBeCloseTo(1000, 9);
+		expect(c.channels[0].samples[1]).toBeNaN();
+		expect(c.channels[0].samples[3]).toBeCloseTo(50, 9);
+	});
+
 	it('parseComtrade of a .cfg cut after the channel lines throws cfg-syntax at the line past the end', () => {
 		const cut = text('good-1999.cfg').split('\n').slice(0, 6).join('\n');
 		const e = thrown(() => parseComtrade(cut, bytes('good-1999.dat'), 'cut.cfg'));
