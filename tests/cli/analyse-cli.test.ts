@@ -3,19 +3,19 @@
  * written here from closed-form signals. Expected figures come from formulas (named beside each check),
  * from REFERENCE.md's computed vectors, or from the library called in this process on the same file.
  */
-import { execFileSync, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Ajv2020 from 'ajv/dist/2020.js';
+import { ensureBuiltCli, mainJs, root } from './built-cli.js';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { openCaptures } from '../../lib/io/open.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { reportToJson } from '../../lib/report/to-json.js';
 import { writeCsvCapture } from './fixtures.js';
 
-const root = join(import.meta.dirname, '..', '..');
-const main = join(root, 'dist', 'src', 'cli', 'main.js');
+const main = mainJs;
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-cli-'));
 const schema = JSON.parse(readFileSync(join(root, 'lib', 'report', 'report.schema.json'), 'utf8'));
 const ajv = new Ajv2020({ allErrors: true, strict: false });
@@ -40,14 +40,8 @@ const F = 50;
 const U1 = { header: 'U1 (V)', tones: [{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }] };
 const I1 = { header: 'I1 (A)', tones: [{ order: 1, rms: 10, phaseDeg: -30 }] };
 
-beforeAll(() => {
-	// Build the CLI as `npm run build:cli` does. tsc still writes the files when some other area has a type
-	// error in progress; `npm test` type-checks everything before the tests run, so only warn here.
-	try {
-		execFileSync(process.execPath, [join(root, 'node_modules', 'typescript', 'bin', 'tsc'), '-p', join(root, 'tsconfig.cli.json')], { cwd: root, stdio: 'pipe' });
-	} catch (e) {
-		console.warn(`tsc -p tsconfig.cli.json reported errors; testing the files it wrote:\n${String((e as { stdout?: Buffer }).stdout ?? e)}`);
-	}
+beforeAll(async () => {
+	await ensureBuiltCli();
 	writeCsvCapture(join(dir, 'feeder.csv'), [U1, I1], { frequencyHz: F, sampleRateHz: FS, cycles: 20 });
 	// REFERENCE.md section 5.4 / 7 set: 230 V at 0 deg, 220 V at -118 deg, 235 V at +121 deg.
 	writeCsvCapture(

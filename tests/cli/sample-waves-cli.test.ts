@@ -1,0 +1,95 @@
+/**
+ * The built CLI on the demo captures in sample-waves/, checked against ground-truth.json: the closed-form
+ * figures of the signals the demo script built (true RMS, THD, IEEE 1459 power, sequence components).
+ * Tolerances allow for the rounding of each file format (printed decimals, COMTRADE int16 steps, float32).
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import Ajv2020 from 'ajv/dist/2020.js';
+import { ensureBuiltCli, mainJs, root } from './built-cli.js';
+import { beforeAll, describe, expect, it } from 'vitest';
+
+const main = mainJs;
+const truthPath = join(root, 'sample-waves', 'ground-truth.json');
+const present = existsSync(truthPath);
+if (!present) console.warn('sample-waves/ground-truth.json is absent: the CLI sample-waves checks are skipped');
+
+interface Truth {
+	files: {
+		file: string;
+		channels: { name: string; envelope: unknown[]; expected: { steadyRms: number; fundamentalRms: number; thdFPct: number } }[];
+		power: { voltage: string; current: string; activePowerW: number; fundamentalReactivePowerVar: number; apparentPowerVA: number; powerFactor: number; displacementPowerFactor: number }[];
+		threePhase: { channels: string[]; rotation: string; positiveRms: number; negativeRms: number; zeroRms: number; unbalanceNegativePct: number; window?: string }[];
+	}[];
+}
+
+const docs = new Map<string, any>();
+let code = -1;
+let stderr = '';
+
+beforeAll(async () => {
+	await ensureBuiltCli();
+	if (!present) return;
+	const r = spawnSync(process.execPath, [main, 'analyse', 'sample-waves', '--json', '--quiet'], { cwd: root, encoding: 'utf8', timeout: 120_000 });
+	code = r.status ?? -1;
+	stderr = r.stderr;
+	for (const line of r.stdout.trim().split('\n')) {
+		const d = JSON.parse(line);
+		docs.set(d.file.replace(/^sample-waves[\\/]/, ''), d);
+	}
+}, 180_000);
+
+const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
+
+describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
+	const truth: Truth = present ? JSON.parse(readFileSync(truthPath, 'utf8')) : { files: [] };
+	const schema = JSON.parse(readFileSync(join(root, 'lib', 'report', 'report.schema.json'), 'utf8'));
+	const validate = new Ajv2020({ allErrors: true, strict: false }).compile(schema);
+
+	it('analyse sample-waves exits 0, reports every demo capture and each validates against the schema', () => {
+		expect(code, stderr).toBe(0);
+		expect([...docs.keys()].sort()).toEqual(truth.files.map((f) => f.file).sort());
+		for (const d of docs.values()) expect(validate(d), JSON.stringify(validate.errors)).toBe(true);
+	});
+
+	for (const f of truth.files) {
+		const steady = f.channels.every((c) => c.envelope.length === 0);
+		it.skipIf(!steady)(`${f.file}: true RMS, fundamental and THD of every channel match the ground truth (closed form)`, () => {
+			const d = docs.get(f.file);
+			for (const c of f.channels) {
+				const got = d.channels.find((x: { name: string }) => x.name === c.name);
+				expect(rel(got.rms, c.expected.steadyRms), `${c.name} rms`).toBeLessThan(2e-3);
+				expect(rel(got.harmonics[1].rms, c.expected.fundamentalRms), `${c.name} h1`).toBeLessThan(2e-3);
+				expect(Math.abs(got.thdPercent - c.expected.thdFPct), `${c.name} thd`).toBeLessThan(0.05);
+			}
+		});
+
+		it.skipIf(!steady || f.power.length === 0)(`${f.file}: P, Q1, S, PF and DPF of every pair match IEEE 1459 computed from the construction`, () => {
+			const d = docs.get(f.file);
+			for (const p of f.power) {
+				const got = d.power.find((x: { voltage: string; current: string }) => x.voltage === p.voltage && x.current === p.current);
+				expect(got, `${p.voltage}/${p.current} paired`).toBeDefined();
+				expect(rel(got.activeW, p.activePowerW)).toBeLessThan(3e-3);
+				expect(Math.abs(got.reactiveVar - p.fundamentalReactivePowerVar)).toBeLessThan(3e-3 * p.apparentPowerVA);
+				expect(rel(got.apparentVA, p.apparentPowerVA)).toBeLessThan(3e-3);
+				expect(Math.abs(got.powerFactor - p.powerFactor)).toBeLessThan(3e-3);
+				expect(Math.abs(got.displacementPowerFactor - p.displacementPowerFactor)).toBeLessThan(3e-3);
+			}
+		});
+
+		const sets = f.threePhase.filter((t) => t.window === undefined);
+		it.skipIf(!steady || sets.length === 0)(`${f.file}: rotation, sequence components and VUF match the Fortescue transform of the construction`, () => {
+			const d = docs.get(f.file);
+			for (const t of sets) {
+				const got = d.threePhaseSets.find((x: { channels: string[] }) => x.channels.join() === t.channels.join());
+				expect(got, t.channels.join()).toBeDefined();
+				expect(t.rotation.startsWith(got.rotation)).toBe(true);
+				expect(rel(got.sequence.positive, t.positiveRms)).toBeLessThan(2e-3);
+				expect(Math.abs(got.sequence.negative - t.negativeRms)).toBeLessThan(2e-3 * t.positiveRms);
+				expect(Math.abs(got.sequence.zero - t.zeroRms)).toBeLessThan(2e-3 * t.positiveRms);
+				expect(Math.abs(got.unbalancePercent - t.unbalanceNegativePct)).toBeLessThan(0.05);
+			}
+		});
+	}
+});
