@@ -47,6 +47,7 @@ export class WindowThd {
 	private readonly fft = new FFT(M);
 	private readonly input = new Float64Array(M);
 	private readonly spectrum = new Float64Array(2 * M);
+	private raw = new Float64Array(M + 64);
 
 	constructor(private readonly cycles: number) {
 		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2) throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
@@ -59,15 +60,28 @@ export class WindowThd {
 	 */
 	thdPercent(ring: Float64Array, mask: number, startT: number, endT: number, sampleRateHz: number): number {
 		const tab = weightTable();
+		// Copy the window (with the taps' margin) out of the ring once, so the tap loop needs no masking.
+		const first = Math.floor(startT) - 3;
+		const count = Math.floor(endT) + 5 - first;
+		if (this.raw.length < count) this.raw = new Float64Array(count);
+		const w = this.raw;
+		for (let j = 0; j < count; j++) w[j] = ring[(first + j) & mask];
 		const x = this.input;
 		const step = (endT - startT) / M;
+		const t0 = startT - first - 3;
 		for (let m = 0; m < M; m++) {
-			const t = startT + m * step;
+			const t = t0 + m * step;
 			const i = Math.floor(t);
 			const p = Math.round((t - i) * PHASES) * TAPS;
-			let acc = 0;
-			for (let j = 0; j < TAPS; j++) acc += tab[p + j] * ring[(i - 3 + j) & mask];
-			x[m] = acc;
+			x[m] =
+				tab[p] * w[i] +
+				tab[p + 1] * w[i + 1] +
+				tab[p + 2] * w[i + 2] +
+				tab[p + 3] * w[i + 3] +
+				tab[p + 4] * w[i + 4] +
+				tab[p + 5] * w[i + 5] +
+				tab[p + 6] * w[i + 6] +
+				tab[p + 7] * w[i + 7];
 		}
 		this.fft.realTransform(this.spectrum, x);
 		const s = this.spectrum;
