@@ -6,7 +6,7 @@ import type { Diagnostic } from '../capture.js';
 import { harmonicSetsOnReferenceWindow, type AnalysedWindow, type FromSamplesOptions, type PowerSampleFailure } from '../power/from-samples.js';
 import { phasorAbs, phasorAdd, phasorFromHarmonic, phasorSub, type ComplexPhasor } from '../power/phasor.js';
 import { threePhasePowerFromHarmonics, type PowerWiring, type ThreePhaseInputPhase, type ThreePhasePower } from '../power/three-phase.js';
-import { activePowerFromSamplesW, powerWindowRms } from '../power/window.js';
+import { activePowerFromSamplesW, powerWindowRms } from '../power/sample-span.js';
 import type { HarmonicSet } from '../spectrum/types.js';
 import { starDeltaHints } from './connection.js';
 import { lineToLineSamples, lineVoltagePhasors, sqrt3Check, type Sqrt3Check } from './line-voltages.js';

@@ -9,7 +9,7 @@ import { loadCharacterFromAngle, type LoadCharacter } from './load-character.js'
 import { describePhaseLag, fundamentalLagDeg, harmonicLagsDeg, type OrderLag } from './phase-angle.js';
 import { singlePhasePowerFromHarmonics, type SinglePhasePower } from './single-phase.js';
 import { crossCorrelationLag, type ChannelTimeLag } from './time-lag.js';
-import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from './window.js';
+import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from './sample-span.js';
 
 /** Why a sample-level analysis could not run (no whole cycles in the reference channel, ...). */
 export interface PowerSampleFailure {
@@ -46,11 +46,11 @@ export function harmonicSetsOnReferenceWindow(
 	for (const c of channels) if (c.length !== reference.length) throw new RangeError(`channels differ in length: ${c.length} vs ${reference.length} samples`);
 	const w = findWholeCycles(reference, sampleRateHz, { ...(opts.nominalHz ? { nominalHz: opts.nominalHz } : {}), ...(opts.maxCycles ? { maxCycles: opts.maxCycles } : {}) });
 	if (!w.ok) return { ok: false, code: w.code, message: w.message };
-	const window: AnalysedWindow = { startIndex: w.startIndex, endIndex: w.endIndex, cycles: w.cycles, frequencyHz: w.frequencyHz };
+	const span: AnalysedWindow = { startIndex: w.startIndex, endIndex: w.endIndex, cycles: w.cycles, frequencyHz: w.frequencyHz };
 	const sets = channels.map(
-		(c) => harmonicWindow(c, sampleRateHz, { fundamentalHz: w.frequencyHz, startIndex: w.startIndex, cycles: w.cycles, maxOrder: opts.maxOrder ?? 50 }).set,
+		(c) => harmonicWindow(c, sampleRateHz, { fundamentalHz: span.frequencyHz, startIndex: span.startIndex, cycles: span.cycles, maxOrder: opts.maxOrder ?? 50 }).set,
 	);
-	return { ok: true, window, sets };
+	return { ok: true, window: span, sets };
 }
 
 /** Phase relation of two channels from samples. */

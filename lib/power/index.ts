@@ -1,6 +1,6 @@
 // Public API of lib/power: re-exports only.
 export * from './phasor.js';
-export * from './window.js';
+export * from './sample-span.js';
 export * from './phase-angle.js';
 export * from './time-lag.js';
 export * from './load-character.js';

@@ -2,7 +2,7 @@
  * Time lag between two channels by cross-correlation over whole cycles, with sub-sample resolution:
  * the shift a user reads between two traces on a scope screen.
  */
-import { checkPowerWindow, powerWindowWeights, type PowerSampleWindow } from './window.js';
+import { checkPowerWindow, powerWindowWeights, type PowerSampleWindow } from './sample-span.js';
 
 /** Result of crossCorrelationLag. */
 export interface ChannelTimeLag {
@@ -33,7 +33,7 @@ export interface ChannelTimeLag {
  * at that end (see `cyclesUsed`); at most `maxCycles` cycles are correlated (cost ∝ cycles · P²).
  * Ref: cross-correlation time-delay estimation with cosine peak interpolation (common practice).
  * @param ref, other  equal-length sample arrays on the same time base
- * @param window  whole-cycle window of the fundamental, fractional sample indices (from findWholeCycles)
+ * @param span  whole-cycle window of the fundamental, fractional sample indices (from findWholeCycles)
  * @returns the lag; fields NaN when fewer than one whole cycle remains or the data hold NaN or are constant
  * @throws RangeError for unequal lengths, a bad window or a bad sampleRateHz
  * @example crossCorrelationLag(u1, i1, 10_000, win).lagS // 0.0016667 for a current 30° behind at 50 Hz
@@ -42,21 +42,21 @@ export function crossCorrelationLag(
 	ref: Float64Array,
 	other: Float64Array,
 	sampleRateHz: number,
-	window: PowerSampleWindow,
+	span: PowerSampleWindow,
 	opts: { maxCycles?: number } = {},
 ): ChannelTimeLag {
 	if (ref.length !== other.length) throw new RangeError(`ref has ${ref.length} samples, other ${other.length}`);
 	if (!(sampleRateHz > 0)) throw new RangeError(`sampleRateHz must be > 0, got ${sampleRateHz}`);
-	checkPowerWindow(window, ref.length);
+	checkPowerWindow(span, ref.length);
 	const maxCycles = opts.maxCycles ?? 50;
 	if (!(maxCycles >= 1)) throw new RangeError(`maxCycles must be >= 1, got ${maxCycles}`);
-	const periodSamples = (window.endIndex - window.startIndex) / window.cycles;
+	const periodSamples = (span.endIndex - span.startIndex) / span.cycles;
 	const periodS = periodSamples / sampleRateHz;
 	const half = Math.ceil(periodSamples / 2);
 	const reach = half + 1; // the refinement needs one lag beyond the search range
-	let s = window.startIndex;
-	let e = window.endIndex;
-	let cycles = window.cycles;
+	let s = span.startIndex;
+	let e = span.endIndex;
+	let cycles = span.cycles;
 	while (cycles >= 1 && Math.floor(s) - reach < 0) (s += periodSamples), cycles--;
 	while (cycles >= 1 && Math.ceil(e) + reach > ref.length - 1) (e -= periodSamples), cycles--;
 	if (cycles > maxCycles) (e -= (cycles - maxCycles) * periodSamples), (cycles = maxCycles);
