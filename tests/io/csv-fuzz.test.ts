@@ -14,6 +14,7 @@ const VALID = [
 	'Sample interval;0,2;ms\nU1 scale;0,5;V\nSample;U1 (counts)\n0;100\n1;200\n2;300\n',
 	'  time   U1   I1\n  0.000  1.0  2.0\n  0.001  1.5  2.5\n  0.002  NaN  3.0\n',
 	't [s]\tU1 [V]\tU2 [kV]\t\n0\t1,5\t0,2\t\n0,001\t2,5\t0,3\t\n',
+	'Timestamp;U1 [V]\n2031-05-14 23:59:59,9990;1,5\n2031-05-14 23:59:59,9995;2\n2031-05-15 00:00:00,0000;3\n',
 ];
 
 function check(run: () => Capture): void {

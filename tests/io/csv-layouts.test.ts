@@ -197,6 +197,25 @@ describe('parseCsv: time base', () => {
 		expect(diag(c, 'decimated')?.message).toMatch(/2 times/);
 	});
 
+	it('parseCsv(date-and-time stamps with a decimal comma, across midnight) counts time from the first stamp', () => {
+		const c = parseCsv('Timestamp;U1 [V]\n2031-05-14 23:59:59,9990;1,5\n2031-05-14 23:59:59,9995;2\n2031-05-15 00:00:00,0000;3\n2031-05-15 00:00:00,0005;4\n', 'a.csv');
+		// 0.5 ms steps = 2 kHz; the first stamp is the wall-clock start
+		expect(c.sampleRateHz).toBeCloseTo(2000, 3);
+		expect(c.startS).toBe(0);
+		expect(c.startTime).toBe('2031-05-14T23:59:59.9990');
+		expect(values(c, 0)).toEqual([1.5, 2, 3, 4]);
+	});
+
+	it('parseCsv(time-of-day stamps without a date, across midnight) counts the new day', () => {
+		const c = parseCsv('time,U1 (V)\n23:59:59.998,1\n23:59:59.999,2\n00:00:00.000,3\n00:00:00.001,4\n', 'a.csv');
+		expect(c.sampleRateHz).toBeCloseTo(1000, 3);
+		expect(c.timeS).toBeUndefined();
+	});
+
+	it('parseCsv(a broken time-of-day stamp) throws bad-number at that cell', () => {
+		expect(() => parseCsv('time,U1\n12:00:00.000,1\n12:00:00.001,2\n12:00:0x,3\n', 'a.csv')).toThrow(/a.csv:4:1: bad-number/);
+	});
+
 	it('parseCsv(a preamble that says the export is decimated) warns that not every sample is there', () => {
 		const c = parseCsv('Decimation;4\nt (ms);U1\n0;1\n0,4;2\n0,8;3\n', 'a.csv');
 		expect(diag(c, 'decimated')?.message).toMatch(/Decimation: 4/);

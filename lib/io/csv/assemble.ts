@@ -6,6 +6,7 @@ import type { Capture, Channel, Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';
 import { setUpChannel } from './channel-setup.js';
 import type { RowScanner } from './scan-rows.js';
+import { isoOf } from './preamble.js';
 import { secondsPerUnit } from './time-column.js';
 import { timeBaseFromColumn, type TimeBase } from './timebase.js';
 import type { CsvLayout, CsvOptions } from './types.js';
@@ -24,8 +25,17 @@ export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: 
 	const stated = layout.statedSampleRateHz;
 	if (layout.timeColumn !== null) {
 		const t = cols[layout.timeColumn];
-		const f = layout.timeUnit === 'index' ? 1 / stated! : secondsPerUnit(layout.timeUnit as 's');
+		const f = layout.timeUnit === 'index' ? 1 / stated! : layout.timeUnit === 'clock' ? 1 : secondsPerUnit(layout.timeUnit as 's');
 		if (f !== 1) for (let i = 0; i < n; i++) t[i] *= f;
+		if (layout.timeUnit === 'clock') {
+			// times from the first stamp; the stamp itself becomes the wall-clock start
+			const t0 = t[0];
+			for (let i = 0; i < n; i++) t[i] -= t0;
+			const first = layout.preview[0]?.[0] ?? '';
+			const iso = isoOf(first.replace(/^"|"$/g, ''));
+			if (iso && !layout.startTime) layout.startTime = iso;
+			layout.metadata['first time stamp'] ??= first;
+		}
 		const col = layout.columns[layout.timeColumn];
 		tb = timeBaseFromColumn(t, {
 			name: col.header || col.name,

@@ -9,6 +9,7 @@
  * Contract: every range handed to scan() consists of whole lines, each ending with the line-break byte.
  */
 import { ImportError } from '../import-error.js';
+import { ClockCounter } from './clock-time.js';
 
 const POW10 = new Float64Array(23).map((_, i) => Number(`1e${i}`));
 // m * 10 + d is exact while the result stays below 2^53, and m only grows: a final m <= 2^53 - 1 was
@@ -24,6 +25,8 @@ export interface ScanLayout {
 	bodyLine: number;
 	/** 0-based time column, or -1: its values must not decrease. */
 	timeColumn: number;
+	/** 0-based column holding time-of-day stamps, or -1 (absent = -1). */
+	clockColumn?: number;
 	/** Initial rows to allocate. */
 	capacityRows: number;
 }
@@ -40,6 +43,7 @@ export class RowScanner {
 	repeatedTimes = 0;
 	firstRepeatLine = 0;
 	private prevTime = -Infinity;
+	private readonly clock = new ClockCounter();
 	private readonly delim: number;
 	private readonly eol: number;
 	private readonly decQuoted: number;
@@ -65,6 +69,7 @@ export class RowScanner {
 		const tc = this.layout.timeColumn;
 		const decQ = this.decQuoted;
 		const decB = this.decBare;
+		const clockCol = this.layout.clockColumn ?? -1;
 		const bodyLine = this.layout.bodyLine;
 		let cols = this.columns;
 		let cap = cols.length > 0 ? cols[0].length : 0;
@@ -103,57 +108,66 @@ export class RowScanner {
 					while (b === 32) b = buf[++p];
 				}
 				const fieldStart = p;
-				let neg = false;
-				if (b === 45) {
-					neg = true;
-					b = buf[++p];
-				} else if (b === 43) b = buf[++p];
-				const numStart = p;
-				const dec = quoted ? decQ : decB;
-				let m = 0;
-				while (b >= 48 && b <= 57) {
-					m = m * 10 + (b - 48);
-					b = buf[++p];
-				}
-				let digits = p - numStart;
-				let frac = 0;
-				if (b === dec) {
-					const fracStart = ++p;
+				let v: number;
+				if (c === clockCol) {
+					let e = p;
+					while (e < end && buf[e] !== delim && buf[e] !== eol && buf[e] !== 13 && buf[e] !== 34) e++;
+					v = this.clock.secondsOf(String.fromCharCode(...buf.subarray(p, Math.min(e, p + 48))));
+					if (Number.isNaN(v)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a time of day such as 12:00:00.000, like the rows above');
+					p = e;
 					b = buf[p];
+				} else {
+					let neg = false;
+					if (b === 45) {
+						neg = true;
+						b = buf[++p];
+					} else if (b === 43) b = buf[++p];
+					const numStart = p;
+					const dec = quoted ? decQ : decB;
+					let m = 0;
 					while (b >= 48 && b <= 57) {
 						m = m * 10 + (b - 48);
 						b = buf[++p];
 					}
-					frac = p - fracStart;
-					digits += frac;
-				}
-				let v: number;
-				if (digits === 0) {
-					v = this.nonFiniteToken(buf, numStart, neg);
-					if (Number.isNaN(v) && !isNanToken(buf, numStart)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
-					p = numStart + (Number.isNaN(v) ? 3 : tokenLength(buf, numStart));
-					b = buf[p];
-					if (this.nonFinite++ === 0) this.firstNonFiniteLine = line;
-				} else {
-					let e = 0;
-					if (b === 101 || b === 69) {
-						b = buf[++p];
-						let eneg = false;
-						if (b === 45) {
-							eneg = true;
-							b = buf[++p];
-						} else if (b === 43) b = buf[++p];
-						if (!(b >= 48 && b <= 57)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number (digits after the exponent mark)');
+					let digits = p - numStart;
+					let frac = 0;
+					if (b === dec) {
+						const fracStart = ++p;
+						b = buf[p];
 						while (b >= 48 && b <= 57) {
-							if (e < 100000) e = e * 10 + (b - 48);
+							m = m * 10 + (b - 48);
 							b = buf[++p];
 						}
-						if (eneg) e = -e;
+						frac = p - fracStart;
+						digits += frac;
 					}
-					const e10 = e - frac;
-					if (m <= MAX_EXACT && e10 >= -22 && e10 <= 22) v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
-					else v = slowNumber(buf, numStart, p, dec);
-					if (neg) v = -v;
+					if (digits === 0) {
+						v = this.nonFiniteToken(buf, numStart, neg);
+						if (Number.isNaN(v) && !isNanToken(buf, numStart)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
+						p = numStart + (Number.isNaN(v) ? 3 : tokenLength(buf, numStart));
+						b = buf[p];
+						if (this.nonFinite++ === 0) this.firstNonFiniteLine = line;
+					} else {
+						let e = 0;
+						if (b === 101 || b === 69) {
+							b = buf[++p];
+							let eneg = false;
+							if (b === 45) {
+								eneg = true;
+								b = buf[++p];
+							} else if (b === 43) b = buf[++p];
+							if (!(b >= 48 && b <= 57)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number (digits after the exponent mark)');
+							while (b >= 48 && b <= 57) {
+								if (e < 100000) e = e * 10 + (b - 48);
+								b = buf[++p];
+							}
+							if (eneg) e = -e;
+						}
+						const e10 = e - frac;
+						if (m <= MAX_EXACT && e10 >= -22 && e10 <= 22) v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
+						else v = slowNumber(buf, numStart, p, dec);
+						if (neg) v = -v;
+					}
 				}
 				cols[c][n] = v;
 				// common case first: the delimiter right after an unquoted number

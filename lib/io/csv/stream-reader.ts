@@ -122,6 +122,7 @@ export class CsvStreamReader {
 				columnCount: layout.columnCount,
 				bodyLine: layout.bodyLine,
 				timeColumn: layout.timeColumn ?? -1,
+				clockColumn: layout.timeUnit === 'clock' ? layout.timeColumn ?? -1 : -1,
 				capacityRows,
 			},
 			this.source,

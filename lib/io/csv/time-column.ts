@@ -6,16 +6,17 @@
  */
 import { ImportError } from '../import-error.js';
 import { cellValue } from './cells.js';
+import { clockFractionDigits, isClockCell } from './clock-time.js';
 import { isIndexName, isTimeName } from './names.js';
 import type { CsvLayout, CsvOptions } from './types.js';
 import { readUnit } from './units.js';
 
 type TimeUnit = NonNullable<CsvLayout['timeUnit']>;
 const UNIT_OF_FACTOR: [number, TimeUnit][] = [[1, 's'], [1e-3, 'ms'], [1e-6, 'us'], [1e-9, 'ns']];
-const FACTOR: Record<Exclude<TimeUnit, 'index'>, number> = { s: 1, ms: 1e-3, us: 1e-6, ns: 1e-9 };
+const FACTOR: Record<Exclude<TimeUnit, 'index' | 'clock'>, number> = { s: 1, ms: 1e-3, us: 1e-6, ns: 1e-9 };
 
 /** Seconds per unit of a time column ('index' has none: it needs the sample rate). */
-export function secondsPerUnit(unit: Exclude<TimeUnit, 'index'>): number {
+export function secondsPerUnit(unit: Exclude<TimeUnit, 'index' | 'clock'>): number {
 	return FACTOR[unit];
 }
 
@@ -27,6 +28,16 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	let tc: number | null = null;
 	let role: 'time' | 'index' = 'time';
 	let how = '';
+	if (preview.length > 0 && isClockCell(preview[0][0] ?? '') && options.timeColumn !== 'none') {
+		// time-of-day stamps can only be the time base (detection allows them in the first column only)
+		cols[0].role = 'time';
+		layout.timeColumn = 0;
+		layout.timeUnit = 'clock';
+		const digits = Math.max(0, ...preview.map((r) => clockFractionDigits(r[0] ?? '')));
+		layout.timeResolution = 10 ** -digits;
+		say('time-column', `Column "${cols[0].header || 'col1'}" holds time-of-day stamps (first ${preview[0][0]}); times are counted from the first stamp.`);
+		return;
+	}
 	if (typeof options.timeColumn === 'number') {
 		if (!Number.isInteger(options.timeColumn) || options.timeColumn < 0 || options.timeColumn >= cols.length)
 			throw new ImportError(source, 0, 0, 'bad-option', String(options.timeColumn), `a time column index from 0 to ${cols.length - 1}`);
@@ -96,12 +107,12 @@ function risesEvenly(preview: string[][], mark: '.' | ','): boolean {
 }
 
 /** Unit that makes the step a plausible mains-recording interval (200 Hz .. 100 MHz), or matches the stated rate. */
-function guessUnit(preview: string[][], tc: number, mark: '.' | ',', statedHz: number | undefined): Exclude<TimeUnit, 'index'> {
+function guessUnit(preview: string[][], tc: number, mark: '.' | ',', statedHz: number | undefined): Exclude<TimeUnit, 'index' | 'clock'> {
 	const v = preview.map((r) => cellValue(r[tc], mark)).filter(Number.isFinite);
 	const step = v.length > 1 ? (v[v.length - 1] - v[0]) / (v.length - 1) : NaN;
 	if (!(step > 0)) return 's';
 	if (statedHz && statedHz > 0) {
-		for (const [f, u] of UNIT_OF_FACTOR) if (Math.abs(step * f * statedHz - 1) < 0.05 && u !== 'index') return u as Exclude<TimeUnit, 'index'>;
+		for (const [f, u] of UNIT_OF_FACTOR) if (Math.abs(step * f * statedHz - 1) < 0.05 && u !== 'index') return u as Exclude<TimeUnit, 'index' | 'clock'>;
 	}
 	if (step < 5e-3) return 's';
 	if (step < 5) return 'ms';

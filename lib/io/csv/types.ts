@@ -88,10 +88,10 @@ export interface CsvLayout {
 	/** Empty columns seen at the end of data rows (a delimiter at line end), accepted and ignored. */
 	trailingEmptyColumns: number;
 	columns: CsvColumnLayout[];
-	/** 0-based index of the time or sample-index column, or null. */
+	/** 0-based index of the time or sample-index column, or null. 'clock' time stamps are in column 0. */
 	timeColumn: number | null;
 	/** Unit of the time column ('index' for a sample number), or null without a time column. */
-	timeUnit: 's' | 'ms' | 'us' | 'ns' | 'index' | null;
+	timeUnit: 's' | 'ms' | 'us' | 'ns' | 'index' | 'clock' | null;
 	/** Resolution of the printed time stamps in the time column's unit (0.001 for 0.123), or null. */
 	timeResolution: number | null;
 	/** Every preamble key/value, verbatim (value and unit joined by a space). */
