@@ -5,10 +5,11 @@
 import type { Diagnostic } from '../capture.js';
 
 /**
- * Common low-voltage nominal values in V, line-to-neutral and line-to-line (common practice: IEC 60038
- * 230/400 V, 120/208 V, 120/240 V split phase, 277/480 V, 347/600 V; from memory).
+ * Common low-voltage system nominal values in V, line-to-neutral and line-to-line (common practice: IEC 60038
+ * 230/400 V, 120/208 V, 120/240 V split phase, 277/480 V, 347/600 V; from memory). Equipment ratings such
+ * as 110 or 115 V are left out: they are not system nominals.
  */
-export const COMMON_NOMINAL_VOLTAGES_V = [100, 110, 115, 120, 127, 208, 220, 230, 240, 277, 347, 380, 400, 415, 480, 600, 690] as const;
+export const COMMON_NOMINAL_VOLTAGES_V = [100, 120, 127, 208, 220, 230, 240, 277, 347, 380, 400, 415, 480, 600, 690] as const;
 
 /**
  * Picks the declared voltage Udin for event detection from RMS values of the first seconds.

@@ -173,6 +173,29 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 		expect(r.events).toEqual([]);
 	});
 
+	it('at the 10-min tick the 10/12-cycle series restarts at the first cycle after it; the 10-min value is the RMS of its 3000 windows', () => {
+		// 1 kS/s keeps the 10 min short to compute. Windows start at the first detected rising crossing (20 ms).
+		const fs = 1000;
+		const [x] = makeChannels([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 300, toS: 360, rms: 240 }] }], { f0Hz: 50 }, fs, 602);
+		const r = run([x], { sampleRateHz: fs, declaredV: 230, nominalHz: 50, keep: { cycles10: true } }, 100_000);
+		expect(r.min10.length).toBe(2);
+		const [a, b] = r.min10;
+		expect(a.complete).toBe(true);
+		expect(a.startS).toBeCloseTo(0.02, 6);
+		expect(a.cycles).toBe(30_000); // 3000 windows of 10 cycles from 0.02 s; the last one ends 20 ms after the tick
+		// 60 s at 240 V (300 windows) and 540 s at 230 V (2700 windows): √((300·240² + 2700·230²)/3000)
+		expect(a.rms[0]).toBeCloseTo(Math.sqrt((300 * 240 ** 2 + 2700 * 230 ** 2) / 3000), 6);
+		expect(b.complete).toBe(false);
+		expect(b.startS).toBeGreaterThanOrEqual(600 - 1e-9);
+		expect(b.startS).toBeLessThan(600.021);
+		const before = r.cycles10.filter((w) => w.startS < 600);
+		const after = r.cycles10.filter((w) => w.startS >= 600 - 1e-9);
+		expect(before.length).toBe(3000);
+		expect(after[0].startS).toBeLessThan(before[before.length - 1].startS + before[before.length - 1].durationS); // overlap at the tick
+		expect(r.cycles150.filter((g) => g.startS < 600).every((g) => g.complete && g.cycles === 150)).toBe(true);
+		expect(r.diagnostics.some((d) => d.code === 'ten-minute-from-start')).toBe(true);
+	});
+
 	it('frequency per 10 s of a ramp 49.5 -> 50.5 Hz equals whole cycles / their duration from the closed-form crossing times', () => {
 		const fs = 5000;
 		const f0 = 49.5;
