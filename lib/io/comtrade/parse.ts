@@ -37,10 +37,10 @@ export interface ComtradeDatOffsets {
  * @throws ImportError cfg-syntax, cfg-count-mismatch, dat-too-short, dat-syntax, time-not-increasing, no-data
  * @example parseComtrade(cfgText, datBytes, 'feeder.cfg').channels.map((c) => c.name) // ['Ia', ..., 'Vc']
  */
-export function parseComtrade(cfgText: string, dat: Uint8Array, source: string, options: ComtradeOptions = {}, offsets: ComtradeDatOffsets & { cfgLine?: number } = {}): Capture {
+export function parseComtrade(cfgText: string, dat: Uint8Array, source: string, options: ComtradeOptions = {}): Capture {
 	const datSource = options.datSource ?? source.replace(/\.cfg$/i, (m) => (m === '.CFG' ? '.DAT' : '.dat'));
-	const cfg = parseComtradeCfg(cfgText, source, offsets.cfgLine ?? 0);
-	return buildCapture(cfg, dat, source, datSource, options, offsets);
+	const cfg = parseComtradeCfg(cfgText, source);
+	return buildCapture(cfg, dat, source, datSource, options, {});
 }
 
 /** Assemble the capture from a parsed .cfg and the data bytes (shared with the CFF reader). */

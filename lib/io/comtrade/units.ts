@@ -30,11 +30,15 @@ export function normaliseUnitText(text: string): NormalisedUnit {
 	return { unit: t, factor: 1, quantity: 'other' };
 }
 
-/** Quantity guessed from a channel name's first letter (U/V voltage, I current); undefined when it does not tell. */
+/**
+ * Quantity guessed from a channel name: U/V followed by a phase tag (or nothing), or a name with "volt", is a
+ * voltage; I likewise, or "current"/"amp", a current (`Va`, `UL1`, `V_AN`, `U1`, `Ib`, `IN`). Undefined otherwise.
+ */
 export function quantityFromName(name: string): Quantity | undefined {
 	const n = name.trim();
-	if (/^(u|v)(?![a-z]{3})/i.test(n)) return 'voltage';
-	if (/^i(?![a-z]{3})/i.test(n)) return 'current';
+	const tail = '(?:[_ -]?(?:l[123n]|[abcnrst]{1,2}))?(?:$|[^a-z])';
+	if (new RegExp(`^[uv]${tail}`, 'i').test(n) || /volt/i.test(n)) return 'voltage';
+	if (new RegExp(`^i${tail}`, 'i').test(n) || /current|amp/i.test(n)) return 'current';
 	return undefined;
 }
 
