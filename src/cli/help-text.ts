@@ -24,6 +24,13 @@ export const ANALYSE_EXAMPLES: string[] = [
 	'sinecheck analyse board.csv --pair U2=I3',
 ];
 
+export const TREND_EXAMPLES: string[] = [
+	'# a week of logger files: 10/12-cycle RMS rows as CSV, dips and swells on stderr',
+	'sinecheck trend logger/week1.csv --nominal 230 > week1-trend.csv',
+	'# 10-minute aggregates with a 85 % dip threshold, as JSON',
+	'sinecheck trend incomer.cfg --interval 10-min --dip-percent 85 --json',
+];
+
 export const EXIT_CODES =
 	'Exit codes: 0 analysed and within limits; 1 analysed but a limit failed; 2 bad input or usage ' +
 	'(the message names file, line and column; a bad file in a folder does not stop the others).';

@@ -2,7 +2,10 @@
 // Entry of the sinecheck command: wiring only. Commands return exit codes; this file sets them.
 import { cac } from 'cac';
 import { analyseCommand } from './analyse-command.js';
-import { ANALYSE_EXAMPLES, EXIT_CODES, SAFETY_CAUTION, wrap } from './help-text.js';
+import { ANALYSE_EXAMPLES, EXIT_CODES, SAFETY_CAUTION, TREND_EXAMPLES, wrap } from './help-text.js';
+import { importOptionsFrom } from './import-settings.js';
+import { settingsFromOptions } from './options.js';
+import { trendCommand } from './trend/index.js';
 import { UsageError } from './usage-error.js';
 
 const cli = cac('sinecheck');
@@ -33,8 +36,44 @@ cli
 		process.exitCode = await analyseCommand(paths, options);
 	});
 
+cli
+	.command('trend [...files]', 'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings')
+	.option('--json', 'One JSON document per file instead of CSV rows')
+	.option('--interval <which>', 'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s) or 10-min (10min)')
+	.option('--nominal <V>', 'Declared voltage Udin in V (line-to-neutral when the channels are); inferred when absent')
+	.option('--frequency <Hz>', 'Nominal frequency, 50 or 60; from the file or the first cycles when absent')
+	.option('--dip-percent <pct>', 'Dip threshold, % of the declared voltage')
+	.option('--swell-percent <pct>', 'Swell threshold, % of the declared voltage')
+	.option('--interruption-percent <pct>', 'Interruption threshold, % of the declared voltage')
+	.option('--hysteresis-percent <pct>', 'Hysteresis, % of the declared voltage')
+	.option('--no-thd', 'Skip the harmonic analysis (THD columns empty; faster)')
+	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
+	.option('--scale <channel=factor>', 'Multiply a channel by a factor (CSV files); repeatable', { type: [String] })
+	.option('--unit <channel=unit>', 'Set the unit of a channel (CSV files); repeatable', { type: [String] })
+	.option('--quantity <channel=kind>', 'Say what a channel measures (CSV files); repeatable', { type: [String] })
+	.action(async (files: string[], options: Record<string, unknown>) => {
+		const settings = settingsFromOptions({ rate: options.rate, scale: options.scale, unit: options.unit, quantity: options.quantity }).import;
+		const perChannel = Object.keys(settings.scale).length + Object.keys(settings.unit).length + Object.keys(settings.quantity).length > 0;
+		const notCsv = files.find((f) => /\.(wav|cfg|cff|dat)$/i.test(f));
+		// The trend reader streams WAV and COMTRADE itself: per-channel settings reach only the CSV reader.
+		if (perChannel && notCsv) throw new UsageError(`trend: --scale, --unit and --quantity apply to CSV files only (${notCsv} is not one)`);
+		const open = importOptionsFrom(settings);
+		process.exitCode = await trendCommand(files, {
+			json: options.json === true,
+			interval: options.interval === undefined ? undefined : String(options.interval),
+			nominal: options.nominal as number | string | undefined,
+			frequency: options.frequency as number | string | undefined,
+			dipPercent: options.dipPercent as number | string | undefined,
+			swellPercent: options.swellPercent as number | string | undefined,
+			interruptionPercent: options.interruptionPercent as number | string | undefined,
+			hysteresisPercent: options.hysteresisPercent as number | string | undefined,
+			thd: options.thd !== false,
+			open,
+		});
+	});
+
 cli.help((sections) => {
-	const examples = ANALYSE_EXAMPLES.map((l) => (l.startsWith('#') ? `  ${l}` : `  $ ${l}`)).join('\n');
+	const examples = [...ANALYSE_EXAMPLES, ...TREND_EXAMPLES].map((l) => (l.startsWith('#') ? `  ${l}` : `  $ ${l}`)).join('\n');
 	sections.push({ title: 'Examples', body: examples });
 	sections.push({ body: wrap(EXIT_CODES, 100, '') });
 	sections.push({ body: wrap(SAFETY_CAUTION, 100, '') });
