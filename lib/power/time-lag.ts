@@ -30,7 +30,8 @@ export interface ChannelTimeLag {
  * a sine, so on a pure sine the lag equals the phasor angle (to the trapezoid rule's O(1/fs²) error);
  * for distorted signals it is the lag of best overall match, which may differ from the fundamental angle.
  * When the window leaves less than half a period of samples before or after it, a whole cycle is dropped
- * at that end (see `cyclesUsed`); at most `maxCycles` cycles are correlated (cost ∝ cycles · P²).
+ * at that end (see `cyclesUsed`); at most `maxCycles` cycles (default 10, about the 200 ms of an IEC 61000-4-7
+ * window) are correlated from the start, since the cost grows as cycles · P² (P = samples per period).
  * Ref: cross-correlation time-delay estimation with cosine peak interpolation (common practice).
  * @param ref, other  equal-length sample arrays on the same time base
  * @param span  whole-cycle window of the fundamental, fractional sample indices (from findWholeCycles)
@@ -48,7 +49,7 @@ export function crossCorrelationLag(
 	if (ref.length !== other.length) throw new RangeError(`ref has ${ref.length} samples, other ${other.length}`);
 	if (!(sampleRateHz > 0)) throw new RangeError(`sampleRateHz must be > 0, got ${sampleRateHz}`);
 	checkPowerWindow(span, ref.length);
-	const maxCycles = opts.maxCycles ?? 50;
+	const maxCycles = opts.maxCycles ?? 10;
 	if (!(maxCycles >= 1)) throw new RangeError(`maxCycles must be >= 1, got ${maxCycles}`);
 	const periodSamples = (span.endIndex - span.startIndex) / span.cycles;
 	const periodS = periodSamples / sampleRateHz;
@@ -79,22 +80,29 @@ export function crossCorrelationLag(
 		const y = other[f0 + j] - meanY;
 		ryy += weights[j] * y * y;
 	}
-	const r = new Float64Array(2 * reach + 1);
-	for (let k = -reach; k <= reach; k++) {
-		let acc = 0;
-		const base = f0 + k;
-		for (let j = 0; j < m; j++) acc += wx[j] * (other[base + j] - meanY);
-		r[k + reach] = acc;
-	}
-	// a constant channel leaves only rounding (≈1e-32 of its square) after removing its mean
+	const r = new Float64Array(2 * reach + 1).fill(NaN);
+	const corr = (k: number): number => {
+		if (Number.isNaN(r[k + reach])) {
+			let acc = 0;
+			const base = f0 + k;
+			for (let j = 0; j < m; j++) acc += wx[j] * (other[base + j] - meanY);
+			r[k + reach] = acc;
+		}
+		return r[k + reach];
+	};
 	if (!(rxx > 1e-20 * meanX * meanX && ryy > 1e-20 * meanY * meanY && rxx > 0 && ryy > 0)) return nan;
 
-	let k0 = -half;
-	for (let k = -half; k <= half; k++) if (r[k + reach] > r[k0 + reach]) k0 = k;
+	// coarse-to-fine: lags every P/64 samples (5.6° of the fundamental), then every sample around the best.
+	// Mains correlations are smooth at that scale unless harmonics above about the 30th dominate.
+	const step = Math.max(1, Math.floor(periodSamples / 64));
+	let kc = -half;
+	for (let k = -half; k <= half; k += step) if (corr(k) > corr(kc)) kc = k;
+	let k0 = kc;
+	for (let k = Math.max(-half, kc - step); k <= Math.min(half, kc + step); k++) if (corr(k) > corr(k0)) k0 = k;
 	const w = (2 * Math.PI) / periodSamples;
-	const rm = r[k0 - 1 + reach];
-	const r0 = r[k0 + reach];
-	const rp = r[k0 + 1 + reach];
+	const rm = corr(k0 - 1);
+	const r0 = corr(k0);
+	const rp = corr(k0 + 1);
 	const delta = Math.atan((rp - rm) / (2 * r0 * Math.sin(w))) / w;
 	const d = Number.isFinite(delta) && Math.abs(delta) <= 1 ? delta : 0;
 	// peak height of the fitted cosine, so a scaled shifted copy scores 1 even between samples
