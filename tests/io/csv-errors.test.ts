@@ -60,6 +60,8 @@ describe('parseCsv errors', () => {
 	it('parseCsv(options pointing outside the file) throws bad-option', () => {
 		expect(errorOf(() => parseCsv('t,U1\n0,1\n1,2\n', 'a.csv', { timeColumn: 5 })).code).toBe('bad-option');
 		expect(errorOf(() => parseCsv('t,U1\n0,1\n1,2\n', 'a.csv', { headerRow: 9 })).code).toBe('bad-option');
+		expect(errorOf(() => parseCsv('U1\n1\n2\n', 'a.csv', { sampleRateHz: -5 })).text).toBe('sampleRateHz = -5');
+		expect(errorOf(() => parseCsv('t,U1\n0,1\n1,2\n', 'a.csv', { channels: { U1: { shuntOhms: 0 } } })).code).toBe('bad-option');
 	});
 
 	it('parseCsv(an empty cell) throws bad-number at that cell, not a silent NaN', () => {

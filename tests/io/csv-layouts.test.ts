@@ -254,6 +254,21 @@ describe('parseCsv: scaling, quantities and phases', () => {
 		expect(c.channels[0].unit).toBe('V');
 	});
 
+	it('parseCsv(settings for a channel that is not there) warns instead of ignoring them silently', () => {
+		const c = parseCsv('U9 scale;2\nt;U1\n0;1\n1;2\n', 'a.csv', { channels: { U2: { probeRatio: 10 } } });
+		expect(codes(c)).toEqual(expect.arrayContaining(['preamble-channel-unmatched', 'option-channel-unmatched']));
+		expect(values(c, 0)).toEqual([1, 2]);
+	});
+
+	it('parseCsv(a scope-style preamble with interval, trigger and a units list) reads rate and time', () => {
+		const text = 'Record Length,4\nSample Interval,1.0E-05\nUnits,V,V\nTime,CH1,CH2\n-2.0E-05,0.125,-1.5\n-1.0E-05,0.25,-1.25\n0.0E+00,0.5,-1\n1.0E-05,1,-0.5\n';
+		const c = parseCsv(text, 'scope.csv');
+		expect(c.sampleRateHz).toBeCloseTo(100_000, 3);
+		expect(c.startS).toBeCloseTo(-2e-5, 15);
+		expect(values(c, 1)).toEqual([-1.5, -1.25, -1, -0.5]);
+		expect(c.metadata.Units).toBe('V V');
+	});
+
 	it('parseCsv(raw counts and no scale) warns that the values are counts', () => {
 		const c = parseCsv('Sample rate;1000;Hz\nU1 (counts)\n4\n8\n', 'a.csv');
 		expect(diag(c, 'raw-counts-unscaled')?.severity).toBe('warning');

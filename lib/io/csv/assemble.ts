@@ -76,6 +76,11 @@ export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: 
 		if (s.description) ch.scaling = { factor: s.factor, offset: s.offset, description: s.description };
 		channels.push(ch);
 	}
+	const known = new Set(layout.columns.flatMap((col) => [col.name, col.header, `col${col.index + 1}`]));
+	for (const name of Object.keys(layout.preambleChannels))
+		if (!known.has(name)) diagnostics.push({ code: 'preamble-channel-unmatched', severity: 'warning', message: `The preamble gives settings for "${name}", which is not a column name; they were not applied.` });
+	for (const name of Object.keys(options.channels ?? {}))
+		if (!known.has(name)) diagnostics.push({ code: 'option-channel-unmatched', severity: 'warning', message: `Channel settings were given for "${name}", which is not a column name (names: ${layout.columns.map((col) => col.name).join(', ')}); they were not applied.` });
 	if (channels.length === 0) throw new ImportError(source, layout.headerLine ?? layout.bodyLine, 0, 'no-data', '', 'at least one data column besides the time column');
 	const capture: Capture = { source, sampleRateHz: tb.sampleRateHz, startS: tb.startS, channels, metadata: layout.metadata, diagnostics };
 	if (tb.timeS) capture.timeS = tb.timeS;

@@ -35,6 +35,7 @@ const MAX_LINES = 2000;
  * @example detectCsvLayout('Time (ms);U1 (V)\r\n0,0;0,707\r\n0,1;-3,25\r\n').decimalMark // ','
  */
 export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFile = false, source = '<input>'): CsvLayout {
+	checkOptions(options, source);
 	const diagnostics: Diagnostic[] = [];
 	const bom = head.charCodeAt(0) === 0xfeff;
 	const text = bom ? head.slice(1) : head;
@@ -210,4 +211,21 @@ function bytesPerRow(lines: string[], bodyIdx: number, eolBytes: number): number
 	let rows = 0;
 	for (let i = bodyIdx; i < lines.length; i++, rows++) bytes += lines[i].length + eolBytes;
 	return rows > 0 ? bytes / rows : 64;
+}
+
+/** Options that cannot be right are refused before reading ('bad-option', line 0). */
+function checkOptions(o: CsvOptions, source: string): void {
+	const bad = (what: string, value: unknown, expected: string) => {
+		throw new ImportError(source, 0, 0, 'bad-option', `${what} = ${String(value)}`, expected);
+	};
+	if (o.sampleRateHz !== undefined && !(Number.isFinite(o.sampleRateHz) && o.sampleRateHz > 0)) bad('sampleRateHz', o.sampleRateHz, 'a sample rate in Hz above 0');
+	if (o.jitterTolerance !== undefined && !(o.jitterTolerance >= 0 && o.jitterTolerance < 1e6)) bad('jitterTolerance', o.jitterTolerance, 'a fraction of a sample interval, 0 or more');
+	for (const [name, ch] of Object.entries(o.channels ?? {})) {
+		for (const key of ['scale', 'offset', 'probeRatio', 'ctRatio', 'vtRatio', 'clampMvPerA', 'shuntOhms'] as const) {
+			const v = ch[key];
+			if (v === undefined) continue;
+			const positive = key !== 'offset' && key !== 'scale';
+			if (!Number.isFinite(v) || (positive && v <= 0) || (key === 'scale' && v === 0)) bad(`channels.${name}.${key}`, v, positive ? 'a finite number above 0' : 'a finite number (scale not 0)');
+		}
+	}
 }

@@ -121,6 +121,8 @@ function readFact(facts: PreambleFacts, key: string, value: string, lineNo: numb
 	const target: CsvChannelOptions = channel ? (facts.channels[channel] ??= {}) : facts.all;
 	const what = m[2].toLowerCase().replace(/[\s_-]+/g, ' ');
 	if (what === 'unit' || what === 'units') {
+		// 'Units;V;V;A' lists several units: kept as metadata, not applied to every channel
+		if (!channel && /\s/.test(value.trim())) return;
 		target.unit = value.trim();
 		return;
 	}
