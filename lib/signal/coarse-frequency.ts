@@ -11,8 +11,8 @@ import FFT from 'fft.js';
  * 3rd harmonic dominates still gives its 50/60 Hz fundamental. With `nominalHz`, only 0.7…1.3 × nominal
  * is searched (wide enough for the 42.5–57.5 / 51–69 Hz ranges of IEC 61000-4-30).
  *
- * Long records: only the first ~65 536 samples after block-averaging to about 20 kS/s are transformed
- * (several seconds of mains), which is ample for a coarse figure.
+ * Long records: only the first 8192 samples after block-averaging to about 20 kS/s are transformed
+ * (at least 0.4 s, 20 cycles of 50 Hz), which is ample for a coarse figure.
  *
  * Ref: peak-picking and Hann windowing, Harris 1978, Proc. IEEE 66(1) 51–83, doi:10.1109/PROC.1978.10837;
  * parabolic interpolation of the log-magnitude peak is standard practice (from memory).
@@ -34,7 +34,7 @@ export function coarseFrequencyHz(
 	// Block-average long, fast records down to about 20 kS/s (a sinc low-pass, harmless below ~2 kHz).
 	const block = Math.max(1, Math.floor(sampleRateHz / 20_000));
 	const rate = sampleRateHz / block;
-	const m = Math.min(Math.floor(n / block), 65_536);
+	const m = Math.min(Math.floor(n / block), SEGMENT_SAMPLES);
 	if (m < 8) return NaN;
 	const seg = new Float64Array(m);
 	let mean = 0;
@@ -51,7 +51,8 @@ export function coarseFrequencyHz(
 	while (size < 4 * m) size *= 2;
 	const padded = new Float64Array(size);
 	padded.set(seg);
-	const fft = new FFT(size);
+	let fft = transforms.get(size);
+	if (!fft) transforms.set(size, (fft = new FFT(size)));
 	const out = fft.createComplexArray();
 	fft.realTransform(out, padded);
 	const half = size / 2;
@@ -83,6 +84,11 @@ export function coarseFrequencyHz(
 	}
 	return interpolatedPeak(mag, best) * binHz;
 }
+
+/** Samples transformed at most: 8192 at ≥ 20 kS/s is ≥ 0.4 s, 20 cycles of 50 Hz, ample for a coarse peak. */
+const SEGMENT_SAMPLES = 8192;
+/** fft.js builds its twiddle tables in the constructor; reuse them (at most a few sizes ever occur). */
+const transforms = new Map<number, FFT>();
 
 function peakBin(mag: Float64Array, lo: number, hi: number): number {
 	let best = -1;

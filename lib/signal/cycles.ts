@@ -37,10 +37,15 @@ const MAX_PERIOD_SPREAD = 0.1;
  * Method: a coarse frequency from the spectrum peak (or `opts.frequencyHz`), then a tracker steps one
  * period at a time and places each crossing from a least-squares fit of the fundamental over the two
  * periods around it (see `fundamental-fit.ts`): DC offset, harmonics and most noise do not move the
- * crossings, and slow frequency drift is followed. The frequency is then re-estimated from the crossings
- * (whole cycles / their duration) and the search repeated until it settles (at most 6 passes).
- * Crossings outside [0, N − 1] are not used, so a record of exactly 10 cycles gives 9 whole cycles
- * crossing to crossing.
+ * crossings, and slow frequency drift is followed (each step uses the period of the last 4 cycles). The
+ * frequency is then re-estimated from the crossings (whole cycles / their duration) and the search repeated
+ * until the two agree to 1e-12 (secant steps, at most 8 passes; 2–4 in practice). Crossings outside
+ * [0, N − 1] are not used, so a record of exactly 10 cycles gives 9 whole cycles crossing to crossing.
+ *
+ * Accepted as a fundamental when its RMS is at least 0.1 × the RMS of the rest (harmonics + noise: a
+ * neutral current whose 3rd harmonic is 5 × its fundamental still passes) and the cycle lengths vary by
+ * at most 10 %; white noise fails both. A NaN or infinite sample is a 'bad-parameter' failure naming its
+ * index (never skipped silently).
  *
  * Ref: IEC 61000-4-30:2015, 5.1 power frequency: integral cycles over their duration, harmonics attenuated
  * first to avoid multiple zero crossings (from memory); IEEE Std 1057-2017 sine fit (from memory).
@@ -50,7 +55,8 @@ const MAX_PERIOD_SPREAD = 0.1;
  * @param opts.frequencyHz  known or previously estimated frequency: skips the spectral search (the
  *   crossings still set the reported frequency)
  * @param opts.nominalHz  nominal system frequency (50, 60, 400…): the search covers 0.7…1.3 × nominal
- * @param opts.maxCycles  use at most this many whole cycles from the start of the record
+ * @param opts.maxCycles  use at most this many whole cycles from the start of the record (tracking stops
+ *   there, so it is also the cheap way to look at the start of a long record)
  * @returns the window, or a failure: 'bad-parameter' (rate, options, or a NaN/infinite sample),
  *   'dc-only' (no variation), 'too-short' (under 2 whole cycles), 'no-fundamental' (noise, no periodicity)
  * @example findWholeCycles(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 9.37 }), 10_000)
@@ -93,7 +99,8 @@ export function findWholeCycles(
 	let track: Track | undefined;
 	let previous: { fitHz: number; gapHz: number } | undefined;
 	for (let pass = 0; pass < 8; pass++) {
-		track = trackCrossings(samples, sampleRateHz / frequencyHz);
+		track = trackCrossings(samples, sampleRateHz / frequencyHz, opts.maxCycles);
+		if (track.irregular) break;
 		if (track.crossings.length < 3) return tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
 		const c = track.crossings;
 		const measuredHz = ((c.length - 1) * sampleRateHz) / (c[c.length - 1] - c[0]);
@@ -108,12 +115,15 @@ export function findWholeCycles(
 		frequencyHz = nextHz;
 	}
 	const t = track as Track;
-	if (!(t.fundamentalRatio >= MIN_FUNDAMENTAL_RATIO) || !(t.periodSpread <= MAX_PERIOD_SPREAD)) {
+	if (t.irregular || !(t.periodSpread <= MAX_PERIOD_SPREAD)) {
+		const spread = t.irregular ? 'successive zero crossings jump by more than half a cycle' : `cycle lengths vary by ${fmt(100 * t.periodSpread)} % (at most ${100 * MAX_PERIOD_SPREAD} % accepted)`;
+		return fail('no-fundamental', `No steady fundamental near ${fmt(frequencyHz)} Hz: ${spread}. The record looks like noise or a non-periodic signal.`);
+	}
+	if (!(t.fundamentalRatio >= MIN_FUNDAMENTAL_RATIO)) {
 		return fail(
 			'no-fundamental',
-			`No steady fundamental: near ${fmt(frequencyHz)} Hz the fundamental is ${fmt(t.fundamentalRatio)} × the rest of ` +
-				`the signal (needs ≥ ${MIN_FUNDAMENTAL_RATIO}) and cycle lengths vary by ${fmt(100 * t.periodSpread)} % ` +
-				`(needs ≤ ${100 * MAX_PERIOD_SPREAD} %). The record looks like noise or a non-periodic signal.`,
+			`No clear fundamental: near ${fmt(frequencyHz)} Hz it is only ${fmt(t.fundamentalRatio)} × the rest of the signal ` +
+				`(at least ${MIN_FUNDAMENTAL_RATIO} accepted). The record looks like noise or a non-periodic signal.`,
 		);
 	}
 	let crossings = Float64Array.from(t.crossings);
@@ -126,13 +136,19 @@ export function findWholeCycles(
 
 interface Track {
 	crossings: number[];
+	/** A step between crossings fell outside 0.5…1.5 periods: not a periodic signal at this frequency. */
+	irregular: boolean;
 	/** Pooled fundamental RMS / residual RMS over all fits. */
 	fundamentalRatio: number;
 	/** Coefficient of variation of the crossing-to-crossing intervals. */
 	periodSpread: number;
 }
 
-function trackCrossings(samples: Float64Array, periodSamples: number): Track {
+/**
+ * Rising crossings of the fundamental of period `periodSamples`, tracked from an anchor one period in,
+ * forwards to the end (or `maxCycles` + 1 crossings) and backwards to the start.
+ */
+function trackCrossings(samples: Float64Array, periodSamples: number, maxCycles?: number): Track {
 	const n = samples.length;
 	const last = n - 1;
 	let fundamentalSquares = 0;
@@ -149,12 +165,15 @@ function trackCrossings(samples: Float64Array, periodSamples: number): Track {
 	const forward: number[] = [];
 	const backward: number[] = [];
 	let irregular = false;
-	// Each step fits with the local period (smoothed from the last cycles), so a drifting frequency is followed
-	// and the off-centre windows at the record's ends extrapolate the phase at the right rate.
+	// Each step fits with the local period (mean of the last few cycles), so a drifting frequency is followed
+	// and the off-centre windows at the record's ends extrapolate the phase at the right rate. Four cycles
+	// average out noise on single intervals while lagging a 0.1 Hz/s ramp by under 1e-4 of a period.
+	const recent = 4;
 	for (const direction of [1, -1]) {
 		const out = direction > 0 ? forward : backward;
-		// Backwards, start from the first cycle measured forwards: the anchor sits one period in.
-		let period = direction < 0 && forward.length > 0 ? forward[0] - anchor : periodSamples;
+		// Backwards, start from the first cycles measured forwards: the anchor sits one period in.
+		const seen = direction < 0 ? [anchor, ...forward.slice(0, recent)] : [anchor];
+		let period = seen.length > 1 ? (seen[seen.length - 1] - seen[0]) / (seen.length - 1) : periodSamples;
 		let prev = anchor;
 		for (;;) {
 			const guess = prev + direction * period;
@@ -166,8 +185,10 @@ function trackCrossings(samples: Float64Array, periodSamples: number): Track {
 				break;
 			}
 			out.push(c);
-			period = 0.5 * period + 0.5 * step;
+			const k = Math.min(out.length, recent);
+			period = direction * (c - (out.length > k ? out[out.length - 1 - k] : anchor)) / k;
 			prev = c;
+			if (direction > 0 && maxCycles !== undefined && out.length > maxCycles) break;
 		}
 	}
 	// A crossing within 1e-9 samples of either end is taken as on it, so rounding in the fit (or scaling the
@@ -187,7 +208,8 @@ function trackCrossings(samples: Float64Array, periodSamples: number): Track {
 	return {
 		crossings: all,
 		fundamentalRatio: Math.sqrt(fundamentalSquares / Math.max(residualSquares, 1e-300)),
-		periodSpread: irregular ? Infinity : spread,
+		irregular,
+		periodSpread: spread,
 	};
 }
 

@@ -1,3 +1,13 @@
+/** Result of `fitFundamental`. Internal to lib/signal. */
+export interface FundamentalFit {
+	/** Rising zero crossing of the fitted fundamental, fractional sample index (may lie outside the window). */
+	crossingIndex: number;
+	/** Peak amplitude R of the fitted fundamental, same unit as samples. */
+	amplitude: number;
+	/** Weighted RMS of what the fit leaves (harmonics, noise), same unit as samples. */
+	residualRms: number;
+}
+
 /**
  * Local least-squares fit of the fundamental around one expected zero crossing: the building block of
  * the whole-cycle search. Internal to lib/signal.
@@ -12,18 +22,19 @@
  * exactly; over two whole periods the Hann weights make every harmonic of ω orthogonal to the fit
  * (their frequencies fall on the window's spectral zeros), so harmonics and DC shift no crossing.
  *
+ * Near the record's ends the window is shifted inwards, so the crossing is extrapolated from the fitted
+ * phase at the given period; records shorter than two periods use all their samples.
+ *
+ * @param samples  signal, any unit; not modified
+ * @param expectedIndex  fractional sample index near which a rising crossing is expected (the fit's phase reference)
+ * @param periodSamples  period of the fundamental in samples (fs / f)
+ * @returns the crossing nearest `expectedIndex` (within half a period), the amplitude and residual;
+ *   crossingIndex NaN when the window is degenerate
+ * @example fitFundamental(sine 50 Hz at 10 kS/s starting at phase 0, 195, 200).crossingIndex // 200
+ *
  * Ref: sine-wave fitting by least squares, IEEE Std 1057-2017, 3-parameter fit (from memory);
  * Hann window zeros, Harris 1978, Proc. IEEE 66(1) 51–83, doi:10.1109/PROC.1978.10837.
  */
-export interface FundamentalFit {
-	/** Rising zero crossing of the fitted fundamental, fractional sample index (may lie outside the window). */
-	crossingIndex: number;
-	/** Peak amplitude R of the fitted fundamental, same unit as samples. */
-	amplitude: number;
-	/** Weighted RMS of what the fit leaves (harmonics, noise), same unit as samples. */
-	residualRms: number;
-}
-
 export function fitFundamental(
 	samples: Float64Array,
 	expectedIndex: number,

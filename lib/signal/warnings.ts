@@ -1,5 +1,6 @@
 import type { Diagnostic } from '../capture.js';
 import { fmt } from './format.js';
+import { windowIntegral } from './window-integral.js';
 
 /** IEC 61000-4-30 power-frequency measurement ranges, Hz (REFERENCE §3.3; from memory). */
 export const MAINS_FREQUENCY_RANGES_HZ = {
@@ -26,7 +27,8 @@ export const DC_OFFSET_WARNING_RATIO = 0.05;
  * - 'clipping': runs of equal samples at the record's highest or lowest value, longer than a sine of that
  *   amplitude would show at this quantisation step and rate (a square wave or a stepped inverter output
  *   triggers it too: judge from the plot);
- * - 'dc-offset': |mean| above 5 % of the AC RMS (whole record);
+ * - 'dc-offset': |mean| above 5 % of the AC RMS (over whole periods from the first sample when the
+ *   frequency is known, else the whole record);
  * - 'frequency-out-of-range': f1 outside 42.5–57.5 Hz (50 Hz systems) or 51–69 Hz (60 Hz systems), the
  *   IEC 61000-4-30 measurement ranges; without `nominalHz`, outside both.
  *
@@ -100,7 +102,7 @@ export function signalWarnings(
 	if (bad < 0 && n > 0) {
 		const clip = clippingWarning(samples, f === undefined ? undefined : sampleRateHz / f);
 		if (clip) warn('clipping', clip);
-		const dc = dcOffsetWarning(samples);
+		const dc = dcOffsetWarning(samples, f === undefined ? undefined : sampleRateHz / f);
 		if (dc) warn('dc-offset', dc);
 	}
 	if (f !== undefined) {
@@ -164,14 +166,25 @@ function clippingWarning(samples: Float64Array, periodSamples: number | undefine
 	);
 }
 
-function dcOffsetWarning(samples: Float64Array): string | undefined {
+function dcOffsetWarning(samples: Float64Array, periodSamples: number | undefined): string | undefined {
 	const n = samples.length;
-	let mean = 0;
-	for (let i = 0; i < n; i++) mean += samples[i];
-	mean /= n;
-	let acSquares = 0;
-	for (let i = 0; i < n; i++) acSquares += (samples[i] - mean) ** 2;
-	const acRms = Math.sqrt(acSquares / n);
+	// Over whole periods when the frequency is known: a partial cycle alone would fake an offset of up to
+	// peak/(π·cycles).
+	const wholePeriods = periodSamples === undefined ? 0 : Math.floor((n - 1) / periodSamples);
+	let mean: number;
+	let acRms: number;
+	if (periodSamples !== undefined && wholePeriods >= 1) {
+		const end = wholePeriods * periodSamples;
+		mean = windowIntegral(samples, 0, end, (x) => x) / end;
+		acRms = Math.sqrt(windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean)) / end);
+	} else {
+		mean = 0;
+		for (let i = 0; i < n; i++) mean += samples[i];
+		mean /= n;
+		let acSquares = 0;
+		for (let i = 0; i < n; i++) acSquares += (samples[i] - mean) ** 2;
+		acRms = Math.sqrt(acSquares / n);
+	}
 	if (!(acRms > 0) || Math.abs(mean) <= DC_OFFSET_WARNING_RATIO * acRms) return undefined;
 	return (
 		`DC offset of ${fmt(mean)} is ${fmt((100 * Math.abs(mean)) / acRms)} % of the AC RMS (${fmt(acRms)}): check the probe or clamp zero ` +

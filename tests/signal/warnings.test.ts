@@ -67,6 +67,13 @@ describe('signalWarnings', () => {
 		expect(codes(signalWarnings(sine({ cycles: 10, offset: 0.01 * acRms }), 10_000, { frequencyHz: 50 }))).not.toContain('dc-offset');
 	});
 
+	it('signalWarnings(5.5 cycles of a pure sine) raises no dc-offset: the half cycle alone would fake a mean of A/(5.5π), 8.2 % of the AC RMS', () => {
+		// mean of A·sin over 5.5 cycles = A·(1 − cos π)/(2π·5.5) = A/(5.5π); AC RMS ≈ A/√2: ratio √2/(5.5π) = 8.2 %
+		const x = sine({ cycles: 5.5 });
+		expect(codes(signalWarnings(x, 10_000, { frequencyHz: 50 }))).not.toContain('dc-offset');
+		expect(codes(signalWarnings(x, 10_000, {}))).toContain('dc-offset'); // without a frequency, the whole record is all it has
+	});
+
 	it.each([
 		[41, undefined, true],
 		[50, undefined, false],
