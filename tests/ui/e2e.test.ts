@@ -53,7 +53,7 @@ function sameJson(a: unknown, b: unknown, at: string, out: string[]): void {
 	}
 	if (Array.isArray(a) && Array.isArray(b)) {
 		if (a.length !== b.length) out.push(`${at}: length ${a.length} vs ${b.length}`);
-		else a.forEach((x, i) => sameJson(x, b[i], `${at}[${i}]`, out));
+		else a.forEach((x, i) => sameJson(x, (b as unknown[])[i], `${at}[${i}]`, out));
 		return;
 	}
 	if (a && b && typeof a === 'object' && typeof b === 'object') {
