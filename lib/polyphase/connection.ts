@@ -111,8 +111,8 @@ export interface StarDeltaEvidence {
 	lineVoltages?: [ComplexPhasor, ComplexPhasor, ComplexPhasor];
 	/** Line currents of phases 1, 2, 3. */
 	lineCurrents?: [ComplexPhasor, ComplexPhasor, ComplexPhasor];
-	/** True when a neutral-current channel was recorded. */
-	neutralMeasured?: boolean;
+	/** Wiring the user declared, if any: a 3-wire circuit whose line currents do not sum to zero is a warning. */
+	wiring?: '3-wire' | '4-wire';
 }
 
 /** Agreement required between a measured line voltage and the difference of two phase voltages: ±2 % (our choice). */
@@ -146,14 +146,15 @@ export function starDeltaHints(e: StarDeltaEvidence): Diagnostic[] {
 	}
 	if (e.lineCurrents) {
 		const s = symmetricalComponents(e.lineCurrents[0], e.lineCurrents[1], e.lineCurrents[2]);
-		const inPercent = s.positiveRms > 0 ? (100 * 3 * s.zeroRms) / s.positiveRms : NaN;
+		const major = Math.max(s.positiveRms, s.negativeRms);
+		const inPercent = major > 0 ? (100 * 3 * s.zeroRms) / major : NaN;
 		if (inPercent < 1) {
-			out.push({ code: 'currents-sum-to-zero', severity: 'info', message: `the line currents sum to ${inPercent.toFixed(2)} % of the positive sequence: a 3-wire connection (delta, or star without neutral), or a balanced star.` });
+			out.push({ code: 'currents-sum-to-zero', severity: 'info', message: `the line currents sum to ${inPercent.toFixed(2)} % of the dominant sequence current: a 3-wire connection (delta, or star without neutral), or a balanced star.` });
 		} else if (inPercent >= 1) {
 			out.push({
 				code: 'currents-leave-neutral-current',
-				severity: e.neutralMeasured === false ? 'warning' : 'info',
-				message: `the line currents do not sum to zero (fundamental residual ${inPercent.toFixed(1)} % of the positive sequence): current returns through a neutral (star with neutral) or to earth${e.neutralMeasured === false ? '; no neutral channel was recorded, and a 3-wire circuit cannot do this: check the current clamps' : ''}.`,
+				severity: e.wiring === '3-wire' ? 'warning' : 'info',
+				message: `the line currents do not sum to zero (fundamental residual ${inPercent.toFixed(1)} % of the dominant sequence current): current returns through a neutral (star with neutral) or to earth${e.wiring === '3-wire' ? '; a 3-wire circuit cannot do this: check the current clamps and their ratios' : ''}.`,
 			});
 		}
 		if (e.phaseVoltages) {

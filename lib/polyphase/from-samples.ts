@@ -121,7 +121,7 @@ export function threePhaseFromSamples(input: ThreePhaseSamples, sampleRateHz: nu
 				});
 			}
 		}
-		diagnostics.push(...starDeltaHints({ phaseVoltages: v1, lineCurrents: i1, neutralMeasured: input.neutralCurrent !== undefined }));
+		diagnostics.push(...starDeltaHints({ phaseVoltages: v1, lineCurrents: i1, ...(input.wiring ? { wiring: input.wiring } : {}) }));
 	} else {
 		diagnostics.push(...starDeltaHints({ phaseVoltages: v1 }));
 	}

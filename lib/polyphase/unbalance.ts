@@ -19,6 +19,16 @@ export interface UnbalanceFigure {
 	percent: number;
 }
 
+const ROTATION_NOTE: Record<MeasuredRotation, string> = {
+	positive: '',
+	negative: ' (the phase labels run in negative rotation, so the dominant sequence is taken as the positive one)',
+};
+
+/** The dominant (major) and the other (minor) of |X1| and |X2|, and which one dominates. */
+function dominantSequence(positiveRms: number, negativeRms: number): { major: number; minor: number; measuredRotation: MeasuredRotation } {
+	return negativeRms > positiveRms ? { major: negativeRms, minor: positiveRms, measuredRotation: 'negative' } : { major: positiveRms, minor: negativeRms, measuredRotation: 'positive' };
+}
+
 /** NEMA-style rate: max |x − mean| / mean × 100 over three magnitudes. NaN when the mean is 0. */
 export function maxDeviationFromMeanPercent(a: number, b: number, c: number): number {
 	const avg = (a + b + c) / 3;
@@ -61,12 +71,21 @@ function lvurFigure(percent: number): UnbalanceFigure {
 	return { code: 'lvur-nema', name: 'LVUR (NEMA line-voltage unbalance rate)', definition: 'max deviation of the line-voltage magnitudes from their average / average', reference: 'NEMA MG 1, 14.35 (from memory)', percent };
 }
 
+/**
+ * Which sequence dominates a set as labelled: 'positive' normally; 'negative' when the phase labels run
+ * against the actual rotation (two phases swapped). Unbalance ratios are then taken against the dominant
+ * sequence, i.e. in the measured rotation, as the magnitude-only β formula (which cannot see rotation) does.
+ */
+export type MeasuredRotation = 'positive' | 'negative';
+
 /** Voltage unbalance of a three-phase set of line-to-neutral fundamental phasors. */
 export interface VoltageUnbalance {
-	/** IEC VUF = |V2|/|V1| × 100, %. */
+	/** IEC VUF = |V2|/|V1| × 100 in the measured rotation (= minor/major sequence), %. */
 	vufPercent: number;
-	/** |V0|/|V1| × 100, %. */
+	/** |V0|/|V1| × 100 in the measured rotation (|V0| over the dominant sequence), %. */
 	zeroSequencePercent: number;
+	/** Sequence that dominates as labelled; 'negative' means the labels run against the rotation. */
+	measuredRotation: MeasuredRotation;
 	/** NEMA LVUR of the line-voltage magnitudes |Va − Vb|, |Vb − Vc|, |Vc − Va|, %. */
 	lvurPercent: number;
 	/** IEEE PVUR = max deviation of the phase magnitudes from their average / average × 100, %. */
@@ -79,6 +98,8 @@ export interface VoltageUnbalance {
 
 /**
  * Every voltage-unbalance definition of a set of line-to-neutral fundamental phasors (Va, Vb, Vc).
+ * Ratios are taken in the measured rotation: when the labels run in negative rotation (|V2| > |V1| as
+ * labelled), the roles of V1 and V2 swap, so a mislabelled but healthy supply does not read 5000 %.
  * Ref: IEC 61000-4-30:2015, 5.7.1 (u2 = |U2|/|U1|, u0 = |U0|/|U1|) (from memory); NEMA MG 1, 14.35
  * (from memory); IEEE Std 141 / Pillay & Manyage, IEEE Power Eng. Review 21(5), 2001 (PVUR) (from memory).
  * @returns percentages; NaN when |V1| (or the average magnitude) is 0
@@ -86,8 +107,8 @@ export interface VoltageUnbalance {
  */
 export function voltageUnbalance(va: ComplexPhasor, vb: ComplexPhasor, vc: ComplexPhasor): VoltageUnbalance {
 	const seq = symmetricalComponents(va, vb, vc);
-	const v1 = seq.positiveRms;
-	const vufPercent = v1 > 0 ? (100 * seq.negativeRms) / v1 : NaN;
+	const { major: v1, minor: v2, measuredRotation } = dominantSequence(seq.positiveRms, seq.negativeRms);
+	const vufPercent = v1 > 0 ? (100 * v2) / v1 : NaN;
 	const zeroSequencePercent = v1 > 0 ? (100 * seq.zeroRms) / v1 : NaN;
 	const ma = phasorAbs(va);
 	const mb = phasorAbs(vb);
@@ -99,12 +120,13 @@ export function voltageUnbalance(va: ComplexPhasor, vb: ComplexPhasor, vc: Compl
 	return {
 		vufPercent,
 		zeroSequencePercent,
+		measuredRotation,
 		lvurPercent: line.lvurPercent,
 		pvurPercent,
 		pvurMaxMinPercent,
 		figures: [
-			{ code: 'vuf-iec', name: 'VUF (IEC negative-sequence unbalance u2)', definition: '|V2| / |V1| of the fundamental phasors', reference: 'IEC 61000-4-30:2015, 5.7.1; EN 50160 (from memory)', percent: vufPercent },
-			{ code: 'zero-sequence-ratio', name: 'Zero-sequence unbalance u0', definition: '|V0| / |V1| of the fundamental phasors', reference: 'IEC 61000-4-30:2015, 5.7.1 (from memory)', percent: zeroSequencePercent },
+			{ code: 'vuf-iec', name: 'VUF (IEC negative-sequence unbalance u2)', definition: `|V2| / |V1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`, reference: 'IEC 61000-4-30:2015, 5.7.1; EN 50160 (from memory)', percent: vufPercent },
+			{ code: 'zero-sequence-ratio', name: 'Zero-sequence unbalance u0', definition: `|V0| / |V1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`, reference: 'IEC 61000-4-30:2015, 5.7.1 (from memory)', percent: zeroSequencePercent },
 			...line.figures,
 			{ code: 'pvur-ieee', name: 'PVUR (IEEE phase-voltage unbalance rate)', definition: 'max deviation of the phase-voltage magnitudes from their average / average', reference: 'IEEE Std 141 (from memory); Pillay & Manyage 2001 (from memory)', percent: pvurPercent },
 			{ code: 'pvur-ieee-max-min', name: 'PVUR, older IEEE variant', definition: '(max − min) of the phase-voltage magnitudes / average', reference: 'older IEEE texts (from memory)', percent: pvurMaxMinPercent },
@@ -117,15 +139,17 @@ export function voltageUnbalance(va: ComplexPhasor, vb: ComplexPhasor, vc: Compl
  * Line voltages carry no zero sequence, so only VUF = |V2|/|V1| and NEMA LVUR are defined.
  * @example lineVoltageUnbalance(u12, u23, u31).vufPercent // 2.1465 for the 460/467/450 V triangle
  */
-export function lineVoltageUnbalance(v12: ComplexPhasor, v23: ComplexPhasor, v31: ComplexPhasor): { vufPercent: number; lvurPercent: number; figures: UnbalanceFigure[] } {
+export function lineVoltageUnbalance(v12: ComplexPhasor, v23: ComplexPhasor, v31: ComplexPhasor): { vufPercent: number; lvurPercent: number; measuredRotation: MeasuredRotation; figures: UnbalanceFigure[] } {
 	const seq = symmetricalComponents(v12, v23, v31);
-	const vufPercent = seq.positiveRms > 0 ? (100 * seq.negativeRms) / seq.positiveRms : NaN;
+	const { major, minor, measuredRotation } = dominantSequence(seq.positiveRms, seq.negativeRms);
+	const vufPercent = major > 0 ? (100 * minor) / major : NaN;
 	const lvurPercent = maxDeviationFromMeanPercent(phasorAbs(v12), phasorAbs(v23), phasorAbs(v31));
 	return {
 		vufPercent,
 		lvurPercent,
+		measuredRotation,
 		figures: [
-			{ code: 'vuf-iec', name: 'VUF (IEC negative-sequence unbalance u2)', definition: '|V2| / |V1| of the fundamental line-voltage phasors', reference: 'IEC 61000-4-30:2015, 5.7.1 (from memory)', percent: vufPercent },
+			{ code: 'vuf-iec', name: 'VUF (IEC negative-sequence unbalance u2)', definition: `|V2| / |V1| of the fundamental line-voltage phasors${ROTATION_NOTE[measuredRotation]}`, reference: 'IEC 61000-4-30:2015, 5.7.1 (from memory)', percent: vufPercent },
 			lvurFigure(lvurPercent),
 		],
 	};
@@ -136,18 +160,19 @@ export function lineVoltageUnbalance(v12: ComplexPhasor, v23: ComplexPhasor, v31
  * @returns negative- and zero-sequence ratios |I2|/|I1|, |I0|/|I1| and the max deviation of magnitudes, %
  * @example currentUnbalance(10∠−30°, 12∠−150°, 8∠90°).maxDeviationPercent // 20
  */
-export function currentUnbalance(ia: ComplexPhasor, ib: ComplexPhasor, ic: ComplexPhasor): { negativeSequencePercent: number; zeroSequencePercent: number; maxDeviationPercent: number; figures: UnbalanceFigure[] } {
+export function currentUnbalance(ia: ComplexPhasor, ib: ComplexPhasor, ic: ComplexPhasor): { negativeSequencePercent: number; zeroSequencePercent: number; maxDeviationPercent: number; measuredRotation: MeasuredRotation; figures: UnbalanceFigure[] } {
 	const seq = symmetricalComponents(ia, ib, ic);
-	const i1 = seq.positiveRms;
-	const negativeSequencePercent = i1 > 0 ? (100 * seq.negativeRms) / i1 : NaN;
+	const { major: i1, minor: i2, measuredRotation } = dominantSequence(seq.positiveRms, seq.negativeRms);
+	const negativeSequencePercent = i1 > 0 ? (100 * i2) / i1 : NaN;
 	const zeroSequencePercent = i1 > 0 ? (100 * seq.zeroRms) / i1 : NaN;
 	const maxDeviationPercent = maxDeviationFromMeanPercent(phasorAbs(ia), phasorAbs(ib), phasorAbs(ic));
 	return {
 		negativeSequencePercent,
 		zeroSequencePercent,
 		maxDeviationPercent,
+		measuredRotation,
 		figures: [
-			{ code: 'iuf-negative', name: 'Current unbalance, negative sequence', definition: '|I2| / |I1| of the fundamental phasors', reference: 'by analogy with IEC 61000-4-30 u2 (common practice)', percent: negativeSequencePercent },
+			{ code: 'iuf-negative', name: 'Current unbalance, negative sequence', definition: `|I2| / |I1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`, reference: 'by analogy with IEC 61000-4-30 u2 (common practice)', percent: negativeSequencePercent },
 			{ code: 'iuf-zero', name: 'Current unbalance, zero sequence', definition: '|I0| / |I1| (|I0| = one third of the fundamental neutral current)', reference: 'common practice', percent: zeroSequencePercent },
 			{ code: 'current-max-deviation', name: 'Current unbalance, max deviation from average', definition: 'max deviation of the line-current magnitudes from their average / average', reference: 'NEMA-style rate applied to currents (common practice)', percent: maxDeviationPercent },
 		],

@@ -68,7 +68,12 @@ export interface ThreePhasePower {
 	effectiveHarmonicApparentPowerVA: number;
 	/** N_e = √(S_e² − P²), var. */
 	effectiveNonActivePowerVar: number;
-	/** Positive-sequence fundamental phasors V1+, I1+ (RMS, per phase). */
+	/**
+	 * 'as-labelled', or 'phases-2-3-swapped' when the voltage labels run in negative rotation (|V2| > |V1|):
+	 * the positive sequence is then taken in the measured rotation, so P1+, S1+ and S_U1 stay meaningful.
+	 */
+	sequenceOrder: 'as-labelled' | 'phases-2-3-swapped';
+	/** Positive-sequence fundamental phasors V1+, I1+ (RMS, per phase), in the measured rotation. */
 	positiveSequenceVoltage: ComplexPhasor;
 	positiveSequenceCurrent: ComplexPhasor;
 	/** P1+ = 3·V1+·I1+·cos θ1+ (W), Q1+ = 3·V1+·I1+·sin θ1+ (var), S1+ = 3·V1+·I1+ (VA); θ1+ = ∠V1+ − ∠I1+. */
@@ -96,6 +101,8 @@ export interface ThreePhasePower {
  * 3-wire:             I_e = √((I1² + I2² + I3²)/3);          V_e = √(ΣV_xy²/9)
  * S_e = 3·V_e·I_e; S_e1 from the fundamentals; S_eN² = S_e² − S_e1²; D_eI = 3V_e1I_eH; D_eV = 3V_eHI_e1;
  * S_eH = 3V_eHI_eH; S1+ = 3·V1+·I1+; S_U1 = √(S_e1² − S1+²); PF_e = P/S_e.
+ * The positive sequence is taken in the measured rotation (phases 2 and 3 swapped when the labels run in
+ * negative rotation; see `sequenceOrder`).
  *
  * Ref: IEEE Std 1459-2010, 3.2 (three-phase, non-sinusoidal and unbalanced) (from memory; formulas as in
  * REFERENCE.md §5.2).
@@ -131,8 +138,10 @@ export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): Three
 	const Se = 3 * Ve * Ie;
 	const Se1 = 3 * Ve1 * Ie1;
 	const P = sum(c.activePowerW);
-	const vSeq = symmetricalComponents(c.v1[0], c.v1[1], c.v1[2]);
-	const iSeq = symmetricalComponents(c.i1[0], c.i1[1], c.i1[2]);
+	const asLabelled = symmetricalComponents(c.v1[0], c.v1[1], c.v1[2]);
+	const swap = asLabelled.negativeRms > asLabelled.positiveRms;
+	const vSeq = swap ? symmetricalComponents(c.v1[0], c.v1[2], c.v1[1]) : asLabelled;
+	const iSeq = swap ? symmetricalComponents(c.i1[0], c.i1[2], c.i1[1]) : symmetricalComponents(c.i1[0], c.i1[1], c.i1[2]);
 	const s1p = complexPower(vSeq.positive, iSeq.positive);
 	const S1p = 3 * phasorAbs(s1p);
 	const q1 = perPhase[0].fundamentalReactivePowerVar + perPhase[1].fundamentalReactivePowerVar + perPhase[2].fundamentalReactivePowerVar;
@@ -157,6 +166,7 @@ export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): Three
 		effectiveVoltageDistortionPowerVar: 3 * VeH * Ie1,
 		effectiveHarmonicApparentPowerVA: 3 * VeH * IeH,
 		effectiveNonActivePowerVar: sqrtPos(Se * Se - P * P),
+		sequenceOrder: swap ? 'phases-2-3-swapped' : 'as-labelled',
 		positiveSequenceVoltage: vSeq.positive,
 		positiveSequenceCurrent: iSeq.positive,
 		positiveSequenceActivePowerW: 3 * s1p.re,

@@ -128,13 +128,14 @@ describe('starDeltaHints', () => {
 		expect(starDeltaHints({ phaseVoltages: b, lineVoltages: ll }).find((d) => d.code === 'line-voltage-agreement')!.severity).toBe('info');
 	});
 
-	it('line currents summing to zero suggest 3-wire; a residual without a neutral channel is a warning', () => {
+	it('line currents summing to zero suggest 3-wire; a residual in a declared 3-wire circuit is a warning, in a 4-wire one information', () => {
 		const i3: ReturnType<typeof balanced> = [P(10, -20), P(10, -140), P(10, 100)];
 		expect(starDeltaHints({ lineCurrents: i3 }).map((d) => d.code)).toEqual(['currents-sum-to-zero']);
 		const unb: ReturnType<typeof balanced> = [P(10, -30), P(12, -150), P(8, 90)];
-		const h = starDeltaHints({ lineCurrents: unb, neutralMeasured: false });
+		const h = starDeltaHints({ lineCurrents: unb, wiring: '3-wire' });
 		expect(h[0].code).toBe('currents-leave-neutral-current');
 		expect(h[0].severity).toBe('warning');
+		expect(starDeltaHints({ lineCurrents: unb, wiring: '4-wire' })[0].severity).toBe('info');
 	});
 
 	it('notes voltage/current angles all near 30° (line voltages taken for phase voltages on a resistive load)', () => {

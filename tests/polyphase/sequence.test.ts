@@ -155,3 +155,18 @@ describe('currentUnbalance', () => {
 		expect(u.zeroSequencePercent).toBeCloseTo((100 * inMag) / 3 / symmetricalComponents(ia, ib, ic).positiveRms, 10);
 	});
 });
+
+describe('unbalance with phase labels in negative rotation', () => {
+	it('swapping labels 2 and 3 of the §5.4 set keeps VUF 2.7699 % and V0/V1 1.3375 % [COMPUTED] and reports the rotation', () => {
+		const u = voltageUnbalance(P(230, 0), P(235, 121), P(220, -118));
+		expect(u.measuredRotation).toBe('negative');
+		expect(u.vufPercent).toBeCloseTo(2.7699, 4);
+		expect(u.zeroSequencePercent).toBeCloseTo(1.3375, 4);
+		expect(u.figures[0].definition).toMatch(/negative rotation/);
+	});
+	it('currentUnbalance of a balanced set in negative rotation is 0 %, not 100 %', () => {
+		const c = currentUnbalance(P(10, 0), P(10, 120), P(10, -120));
+		expect(c.negativeSequencePercent).toBeCloseTo(0, 9);
+		expect(c.measuredRotation).toBe('negative');
+	});
+});

@@ -101,3 +101,16 @@ describe('threePhasePowerFromHarmonics', () => {
 		expect(() => threePhasePowerFromHarmonics('3-wire', [{ voltage: s, current: s }, { voltage: s, current: s }, { voltage: s, current: s }])).toThrow(RangeError);
 	});
 });
+
+describe('ieee1459ThreePhaseFromComponents with phase labels in negative rotation', () => {
+	it('takes the positive sequence in the measured rotation: swapping labels 2 and 3 of the §5.4 set keeps S1+ 6849.315 VA and S_U1 1780.565 VA [COMPUTED]', () => {
+		const v: Three<ComplexPhasor> = [P(230, 0), P(235, 121), P(220, -118)];
+		const i: Three<ComplexPhasor> = [P(10, -30), P(8, 90), P(12, -150)];
+		const r = fundamentalOnly(v, i, '4-wire');
+		expect(r.sequenceOrder).toBe('phases-2-3-swapped');
+		expect(r.positiveSequenceApparentPowerVA).toBeCloseTo(6849.315, 3);
+		expect(r.positiveSequenceActivePowerW).toBeCloseTo(5871.907, 3);
+		expect(r.fundamentalUnbalancePowerVA).toBeCloseTo(1780.565, 3);
+		expect(r.effectiveApparentPowerVA).toBeCloseTo(7076.97, 2);
+	});
+});
