@@ -22,7 +22,7 @@ import { CrossingTracker, type CrossingSink } from './crossing-tracker.js';
 import { declaredVoltageFromRms } from './declared-voltage.js';
 import { EventDetector } from './event-detector.js';
 import { RowGroup } from './row-group.js';
-import { WindowThd } from './window-thd.js';
+import { TREND_MAX_ORDER, WindowThd } from './window-thd.js';
 import type { TrendEvent, TrendFrequencyRow, TrendOptions, TrendResult, TrendRow, TrendThresholds } from './types.js';
 
 /** A streaming analyser made by `createTrendAnalyser`. */
@@ -96,6 +96,8 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const thdMethod = opts.thdMethod ?? 'lagrange';
 	if (thdMethod !== 'lagrange' && thdMethod !== 'sinc') throw new RangeError(`thdMethod must be 'lagrange' or 'sinc', got ${thdMethod}`);
 	const scratch = wantThd && thdMethod === 'sinc' ? new Float64Array(ringLen) : undefined;
+	const wantHarmonics = wantThd && thdMethod === 'lagrange' && opts.harmonics === true;
+	const harmScratch = wantHarmonics ? new Float64Array(TREND_MAX_ORDER + 1) : undefined;
 	let fastThd: WindowThd | undefined;
 	let fastThdCycles = 0;
 	/** Samples beyond each end of a window kept for the DFT's resampling kernel. */
@@ -145,6 +147,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		const lengthT = endT - startT;
 		const rms: number[] = new Array(nCh);
 		const thd: number[] = new Array(nCh);
+		const harm: number[][] | undefined = wantHarmonics ? [] : undefined;
 		for (let c = 0; c < nCh; c++) {
 			const ring = rings[c];
 			// Sample j stands for [j − ½, j + ½); the two edge samples count by the part inside the window,
@@ -172,7 +175,8 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 					fastThd = new WindowThd(cyclesPerWindow);
 					fastThdCycles = cyclesPerWindow;
 				}
-				thd[c] = fastThd.thdPercent(ring, mask, startT, endT, fs);
+				thd[c] = fastThd.thdPercent(ring, mask, startT, endT, fs, harmScratch);
+				if (harm) harm.push(Array.from(harmScratch!));
 			} else thd[c] = NaN;
 		}
 		pendingRows.push({
@@ -180,6 +184,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 			end,
 			row: { interval: '10/12-cycle', startS: startT / fs, durationS: lengthT / fs, cycles: cyclesPerWindow, frequencyHz: (cyclesPerWindow * fs) / lengthT, complete: true, flagged: false, rms, thdPercent: thd },
 		});
+		if (harm) pendingRows[pendingRows.length - 1].row.harmonicsPercent = harm;
 	}
 
 	function closeFrequency(end: number, complete: boolean): void {
@@ -195,6 +200,8 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	}
 
 	function onRising(index: number, t: number, forced: boolean): void {
+		// A window must not start before the interpolation taps of the THD have samples (t ≥ 8).
+		if (t < 8) return;
 		// frequency: cycles straddling a 10 s boundary are discarded
 		while (t >= fStart + freqLen) closeFrequency(fStart + freqLen, true);
 		if (!forced && !Number.isNaN(fLastT)) {

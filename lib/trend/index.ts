@@ -3,3 +3,4 @@ export * from './types.js';
 export { createTrendAnalyser, TREND_DEFAULT_THRESHOLDS, type TrendAnalyser } from './analyser.js';
 export { analyseTrend } from './analyse-capture.js';
 export { declaredVoltageFromRms, COMMON_NOMINAL_VOLTAGES_V } from './declared-voltage.js';
+export { TREND_MAX_ORDER } from './window-thd.js';

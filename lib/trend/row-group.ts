@@ -11,6 +11,7 @@ import type { TrendInterval, TrendRow } from './types.js';
 export class RowGroup {
 	private readonly sumSqRms: Float64Array;
 	private readonly sumSqThd: Float64Array;
+	private sumSqHarm: Float64Array[] | undefined;
 	private count = 0;
 	private cycles = 0;
 	private windowsS = 0;
@@ -38,6 +39,14 @@ export class RowGroup {
 			this.sumSqRms[c] += row.rms[c] * row.rms[c];
 			this.sumSqThd[c] += row.thdPercent[c] * row.thdPercent[c];
 		}
+		if (row.harmonicsPercent) {
+			this.sumSqHarm ??= row.harmonicsPercent.map((h) => new Float64Array(h.length));
+			for (let c = 0; c < this.channelCount; c++) {
+				const src = row.harmonicsPercent[c];
+				const dst = this.sumSqHarm[c];
+				for (let k = 0; k < src.length; k++) dst[k] += src[k] * src[k];
+			}
+		}
 		this.cycles += row.cycles;
 		this.windowsS += row.durationS;
 		this.count++;
@@ -59,6 +68,10 @@ export class RowGroup {
 			rms: Array.from(this.sumSqRms, (s) => Math.sqrt(s / n)),
 			thdPercent: Array.from(this.sumSqThd, (s) => Math.sqrt(s / n)),
 		};
+		if (this.sumSqHarm) {
+			row.harmonicsPercent = this.sumSqHarm.map((h) => Array.from(h, (v) => Math.sqrt(v / n)));
+			for (const h of this.sumSqHarm) h.fill(0);
+		}
 		this.sumSqRms.fill(0);
 		this.sumSqThd.fill(0);
 		this.count = 0;

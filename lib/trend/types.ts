@@ -58,6 +58,11 @@ export interface TrendOptions {
 	 * Kaiser sinc, exact to ~1e-6 but several times slower).
 	 */
 	thdMethod?: 'lagrange' | 'sinc';
+	/**
+	 * Also report each harmonic order 0-50 per channel and row (`harmonicsPercent`), with the 'lagrange'
+	 * method. Default false (the rows stay small).
+	 */
+	harmonics?: boolean;
 }
 
 /** Aggregation interval kinds of IEC 61000-4-30 (REFERENCE §3.2). */
@@ -84,6 +89,11 @@ export interface TrendRow {
 	 * NaN when not computed; longer intervals aggregate it like rms.
 	 */
 	thdPercent: number[];
+	/**
+	 * With the `harmonics` option: per channel, index = order 0-50, the harmonic subgroup in % of the
+	 * fundamental's (NaN for order 0 and above fs/2); longer intervals aggregate each order like rms.
+	 */
+	harmonicsPercent?: number[][];
 }
 
 /** Power frequency over one 10 s interval: whole cycles / their duration (REFERENCE §3.3). */

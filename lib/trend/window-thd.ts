@@ -22,7 +22,9 @@ import FFT from 'fft.js';
 const M = 2048;
 const TAPS = 8;
 const PHASES = 1024;
-const MAX_ORDER = 50;
+/** Highest harmonic order analysed (IEC 61000-4-30 class A: 50). */
+export const TREND_MAX_ORDER = 50;
+const MAX_ORDER = TREND_MAX_ORDER;
 
 let weights: Float64Array | undefined;
 
@@ -56,9 +58,11 @@ export class WindowThd {
 	/**
 	 * THDS in % of the window [startT, endT) (sample indices, fractional) of `ring` (power-of-two length,
 	 * index & mask); needs samples from startT − 4 to endT + 5 in the ring. NaN when the fundamental is 0.
+	 * When `harmonicsOut` (length ≥ 51) is given it receives each order's subgroup in % of the
+	 * fundamental's subgroup (index = order; [1] = 100; NaN at or above fs/2 and for order 0).
 	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the REFERENCE §1.3 mix
 	 */
-	thdPercent(ring: Float64Array, mask: number, startT: number, endT: number, sampleRateHz: number): number {
+	thdPercent(ring: Float64Array, mask: number, startT: number, endT: number, sampleRateHz: number, harmonicsOut?: Float64Array): number {
 		const tab = weightTable();
 		// Copy the window (with the taps' margin) out of the ring once, so the tap loop needs no masking.
 		const first = Math.floor(startT) - 3;
@@ -90,7 +94,15 @@ export class WindowThd {
 		const power = (k: number) => s[2 * k] * s[2 * k] + s[2 * k + 1] * s[2 * k + 1];
 		const g1 = power(c - 1) + power(c) + power(c + 1);
 		let gh = 0;
-		for (let h = 2; h <= MAX_ORDER && h * f1 < sampleRateHz / 2; h++) gh += power(c * h - 1) + power(c * h) + power(c * h + 1);
+		if (harmonicsOut) {
+			harmonicsOut.fill(NaN);
+			harmonicsOut[1] = g1 > 0 ? 100 : NaN;
+		}
+		for (let h = 2; h <= MAX_ORDER && h * f1 < sampleRateHz / 2; h++) {
+			const g = power(c * h - 1) + power(c * h) + power(c * h + 1);
+			gh += g;
+			if (harmonicsOut) harmonicsOut[h] = g1 > 0 ? 100 * Math.sqrt(g / g1) : NaN;
+		}
 		return g1 > 0 ? 100 * Math.sqrt(gh / g1) : NaN;
 	}
 }

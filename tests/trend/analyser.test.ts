@@ -255,6 +255,20 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 			expect(r.cycles10.length).toBe(4);
 			for (const row of r.cycles10) expect(Math.abs(row.thdPercent[0] - expected)).toBeLessThan(1e-4);
 		}
+		// harmonics: each order in % of the fundamental, closed form 100·Vh/230
+		const h = run([x], { sampleRateHz: 10_000, declaredV: 230, nominalHz: 50, harmonics: true });
+		for (const row of [...h.cycles10, ...h.min10]) {
+			const p = row.harmonicsPercent![0];
+			expect(p.length).toBe(51);
+			expect(p[0]).toBeNaN();
+			expect(p[1]).toBe(100);
+			// within 0.0005 percentage points (crossing-time interpolation leaves the window ~1e-7 off 10 periods)
+			expect(p[3]).toBeCloseTo((100 * 4.6) / 230, 3);
+			expect(p[5]).toBeCloseTo((100 * 11.5) / 230, 3);
+			expect(p[7]).toBeCloseTo((100 * 6.9) / 230, 3);
+			expect(p[2]).toBeLessThan(1e-4);
+			expect(p[49]).toBeLessThan(1e-4);
+		}
 	});
 
 	it('THD of a 2 % 49th harmonic at 10 kS/s (0.245·fs): Lagrange within its stated 2.3 %, sinc within 0.01 %', () => {

@@ -89,6 +89,19 @@ describe('trendCommand', () => {
 		expect(err.text()).toMatch(/board\.wav: dip on L2 at 0\.\d+ s/);
 	});
 
+	it('trendCommand([wav], { harmonics }) adds 49 columns per channel, H2-H50, each ~0 % for pure sines', async () => {
+		const out = sink();
+		const code = await trendCommand([wavPath], { nominal: 230, harmonics: true, stdout: out, stderr: sink() });
+		expect(code).toBe(0);
+		const lines = out.text().trim().split('\n');
+		const head = lines[0].split(',');
+		expect(head.length).toBe(15 + 4 * 49);
+		expect(head[15]).toBe('L1 H2 (%)');
+		expect(head[head.length - 1]).toBe('I1 H50 (%)');
+		const cells = lines[1].split(',').slice(15).map(Number);
+		expect(Math.max(...cells)).toBeLessThan(0.01);
+	});
+
 	it('trendCommand([csv]) reads a CSV recording and gives the same 230 V aggregates', async () => {
 		const fs = 5000;
 		const [u] = makeChannels([{ rms: 230, phaseDeg: 10 }], { f0Hz: 50 }, fs, 1);

@@ -25,6 +25,8 @@ export interface TrendCommandOptions {
 	hysteresisPercent?: number | string;
 	/** false skips the harmonic analysis (THD columns empty). Default true. */
 	thd?: boolean;
+	/** Also each harmonic order 2-50 per channel (% of the fundamental): JSON `harmonicsPercent`, CSV columns `<name> H<n> (%)`. */
+	harmonics?: boolean;
 	/** Importer options (calibration, CSV layout...) prepared by the caller. */
 	open?: OpenOptions;
 	/** Output streams (tests); default process.stdout / process.stderr. */
@@ -66,7 +68,7 @@ function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSetting
 	const interval = INTERVALS[options.interval ?? '10/12-cycle'];
 	if (!interval) throw new TrendUsageError(`--interval ${options.interval}: expected one of ${Object.keys(INTERVALS).join(', ')}`);
 	return {
-		settings: { declaredV, nominalHz: hz as 50 | 60 | undefined, thresholds, thd: options.thd !== false },
+		settings: { declaredV, nominalHz: hz as 50 | 60 | undefined, thresholds, thd: options.thd !== false, harmonics: options.harmonics === true && options.thd !== false },
 		interval,
 	};
 }
@@ -125,7 +127,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 				{
 					onProgress,
 					onChannels: (chs) => {
-						const header = csvHeader(chs, several);
+						const header = csvHeader(chs, several, settings.harmonics === true);
 						if (!options.json && header !== headerFor) pending.push(header);
 						headerFor = header;
 					},

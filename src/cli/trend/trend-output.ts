@@ -12,7 +12,7 @@ function n(x: number, digits: number): string {
 }
 
 /** Header line: interval, times, frequency, flags, then `<name> rms (<unit>)` and `<name> THD (%)` per channel. */
-export function csvHeader(channels: TrendChannelSpec[], withFile: boolean): string {
+export function csvHeader(channels: TrendChannelSpec[], withFile: boolean, harmonics = false): string {
 	const cols = [
 		...(withFile ? ['file'] : []),
 		'interval',
@@ -23,6 +23,7 @@ export function csvHeader(channels: TrendChannelSpec[], withFile: boolean): stri
 		'complete',
 		'flagged',
 		...channels.flatMap((c) => [`${c.name} rms${c.unit ? ` (${c.unit})` : ''}`, `${c.name} THD (%)`]),
+		...(harmonics ? channels.flatMap((c) => Array.from({ length: 49 }, (_, k) => `${c.name} H${k + 2} (%)`)) : []),
 	];
 	return `${cols.map(cell).join(',')}\n`;
 }
@@ -38,6 +39,7 @@ export function csvRow(row: TrendRow, file?: string): string {
 		row.complete ? '1' : '0',
 		row.flagged ? '1' : '0',
 		...row.rms.flatMap((v, i) => [n(v, 3), n(row.thdPercent[i], 3)]),
+		...(row.harmonicsPercent ? row.harmonicsPercent.flatMap((h) => h.slice(2).map((v) => n(v, 3))) : []),
 	];
 	return `${cols.join(',')}\n`;
 }
