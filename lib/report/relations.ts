@@ -3,12 +3,12 @@
  * voltage/current pair (IEEE 1459) and three-phase sets (rotation, sequence components, unbalance).
  */
 import type { Capture, Channel } from '../capture.js';
-import { currentUnbalance, voltageUnbalance } from '../polyphase/unbalance.js';
+import { currentUnbalance, lineVoltageUnbalance, voltageUnbalance } from '../polyphase/unbalance.js';
 import { phaseRotation } from '../polyphase/rotation.js';
 import { symmetricalComponents } from '../polyphase/sequence.js';
 import { loadCharacterFromAngle } from '../power/load-character.js';
 import { pairPowerChannels, type PowerChannelPairing } from '../power/pairing.js';
-import { complexPower, phasorAbs, phasorArgDeg, phasorFromHarmonic, phasorMul, wrapAngleDeg, type ComplexPhasor } from '../power/phasor.js';
+import { complexPower, phasorAbs, phasorArgDeg, phasorFromHarmonic, phasorMul, phasorScale, wrapAngleDeg, type ComplexPhasor } from '../power/phasor.js';
 import { ieee1459FromComponents } from '../power/single-phase.js';
 import { crossCorrelationLag } from '../power/time-lag.js';
 import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
@@ -175,6 +175,7 @@ export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing
 		sets.push({
 			channels: members.map((i) => channels[i].name),
 			quantity,
+			connection: quantity === 'voltage' ? 'line-to-neutral' : 'line',
 			rotation: rot.rotation === 'undetermined' ? null : rot.rotation,
 			rotationClarity: rot.clarity,
 			rotationSentence: rot.sentence,
@@ -185,5 +186,51 @@ export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing
 			sequenceDeg: { zero: phasorArgDeg(seq.zero), positive: seq.positivePhaseDeg, negative: seq.negativePhaseDeg },
 		});
 	}
+	if (!sets.some((t) => t.quantity === 'voltage')) {
+		const line = lineToLineSet(channels, pairing, phasors);
+		if (line) {
+			sets.unshift(line.set);
+			memberList.unshift(line.members);
+		}
+	}
 	return { sets, members: memberList, assumptions };
+}
+
+/**
+ * A set of three line-to-line voltage channels (U12, U23, U31 or the like; a channel written the other
+ * way round, U21, counts negated). Line voltages hold no zero sequence; VUF from their sequence
+ * components equals the phase-voltage VUF; PVUR needs phase voltages and is NaN.
+ */
+function lineToLineSet(channels: Channel[], pairing: PowerChannelPairing, phasors: (ComplexPhasor | undefined)[]): { set: ReportThreePhase; members: number[] } | undefined {
+	const want: [number, number][] = [[1, 2], [2, 3], [3, 1]];
+	const found = want.map(([a, b]) => {
+		const same = pairing.lineVoltages.find((l) => l.from === a && l.to === b);
+		const reversed = pairing.lineVoltages.find((l) => l.from === b && l.to === a);
+		const hit = same ?? reversed;
+		if (!hit) return undefined;
+		const index = channels.findIndex((c) => c.name === hit.name);
+		const p = phasors[index];
+		return p ? { index, phasor: same ? p : phasorScale(p, -1) } : undefined;
+	});
+	if (found.some((f) => f === undefined)) return undefined;
+	const [a, b, c] = found.map((f) => f!.phasor);
+	const seq = symmetricalComponents(a, b, c);
+	const rot = phaseRotation(a, b, c);
+	const u = lineVoltageUnbalance(a, b, c);
+	return {
+		members: found.map((f) => f!.index),
+		set: {
+			channels: found.map((f) => channels[f!.index].name),
+			quantity: 'voltage',
+			connection: 'line-to-line',
+			rotation: rot.rotation === 'undetermined' ? null : rot.rotation,
+			rotationClarity: rot.clarity,
+			rotationSentence: rot.sentence,
+			unbalancePercent: u.vufPercent,
+			lvurPercent: u.lvurPercent,
+			pvurPercent: NaN,
+			sequence: { zero: seq.zeroRms, positive: seq.positiveRms, negative: seq.negativeRms },
+			sequenceDeg: { zero: phasorArgDeg(seq.zero), positive: seq.positivePhaseDeg, negative: seq.negativePhaseDeg },
+		},
+	};
 }

@@ -179,6 +179,8 @@ export interface ReportThreePhase {
 	/** The three channels, in the order a, b, c. */
 	channels: string[];
 	quantity: 'voltage' | 'current';
+	/** 'line-to-neutral' phase voltages, 'line-to-line' voltages (U12, U23, U31), or 'line' currents. */
+	connection: 'line-to-neutral' | 'line-to-line' | 'line';
 	rotation: 'positive' | 'negative' | null;
 	/** How clear the rotation is: 'clear' (weaker sequence under 10 % of the stronger), 'probable', 'doubtful'. */
 	rotationClarity: string;

@@ -128,7 +128,8 @@ export function formatReport(r: ReportJson): string[] {
 	}
 	if (r.neutral) out.push('', `  neutral: ${r.neutral.sentence}`);
 	for (const t of r.threePhaseSets) {
-		out.push('', `  three-phase ${t.quantity}s ${t.channels.join(', ')}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`);
+		const kind = t.connection === 'line-to-line' ? 'line-to-line voltages' : `${t.quantity}s`;
+		out.push('', `  three-phase ${kind} ${t.channels.join(', ')}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`);
 		out.push(
 			t.quantity === 'voltage'
 				? `    unbalance: VUF (IEC, |V2|/|V1|) ${fixed(t.unbalancePercent, 2)} %; LVUR (NEMA, line voltages) ${fixed(t.lvurPercent, 2)} %; PVUR (IEEE, phase voltages) ${fixed(t.pvurPercent, 2)} %`

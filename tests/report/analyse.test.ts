@@ -260,3 +260,22 @@ describe('analyseCapture: three-phase power and neutral', () => {
 		expect(w.lowestRms).toBeCloseTo(10, 2);
 	});
 });
+
+describe('analyseCapture: line-to-line voltages', () => {
+	it('analyseCapture(capture) of U12, U23, U31 gives the phase-voltage VUF 2.7699 % and LVUR 2.4680 % (line voltages hold no zero sequence; REFERENCE.md 7 computed vectors)', () => {
+		const cycles = 20;
+		const va = tones([{ order: 1, rms: 230, phaseDeg: 0 }], cycles);
+		const vb = tones([{ order: 1, rms: 220, phaseDeg: -118 }], cycles);
+		const vc = tones([{ order: 1, rms: 235, phaseDeg: 121 }], cycles);
+		const diff = (x: Float64Array, y: Float64Array) => x.map((v, k) => v - y[k]);
+		const r = analyseCapture(capture([channel('U12', 'V', 'voltage', diff(va, vb)), channel('U23', 'V', 'voltage', diff(vb, vc)), channel('U31', 'V', 'voltage', diff(vc, va))]));
+		const t = r.threePhase!;
+		expect(t.connection).toBe('line-to-line');
+		expect(t.channels).toEqual(['U12', 'U23', 'U31']);
+		expect(t.rotation).toBe('positive');
+		expect(t.unbalancePercent).toBeCloseTo(2.7699, 3);
+		expect(t.lvurPercent).toBeCloseTo(2.468, 3);
+		expect(t.pvurPercent).toBeNaN();
+		expect(t.sequence.zero).toBeCloseTo(0, 6);
+	});
+});

@@ -93,7 +93,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	let headerFor = '';
 	for (const file of files) {
 		try {
-			if (!existsSync(file) || !statSync(file).isFile()) throw new TrendUsageError(`${file}: no such file`);
+			if (!existsSync(file) || !statSync(file).isFile()) throw new TrendUsageError('no such file');
 			let pending: string[] = [];
 			const flush = () => {
 				if (pending.length > 0) out.write(pending.join(''));
