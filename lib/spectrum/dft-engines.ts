@@ -5,6 +5,7 @@
  * the first allocates nothing. Engines are not re-entrant (shared buffers); JavaScript is single-threaded.
  */
 import FFT from 'fft.js';
+import { MixedRadixEngine, smoothFactors } from './mixed-radix.js';
 
 /** X[k] = Σ_{n<N} z[n]·e^{−j2πkn/N}, non-normalised; `src` and `dst` interleaved, length 2N, distinct. */
 export interface ComplexEngine {
@@ -149,9 +150,14 @@ class BluesteinEngine implements ComplexEngine {
 	}
 }
 
-/** The cheapest exact engine for length n (n ≥ 1). */
+/**
+ * The cheapest exact engine for length n (n ≥ 1): a direct sum below 8, fft.js for powers of two, the
+ * mixed-radix Stockham FFT when every prime factor is ≤ 13 (2000, 5000, 1560, 100 000 …), Bluestein
+ * for anything else (primes, lengths with a large prime factor).
+ */
 export function complexEngine(n: number): ComplexEngine {
 	if (n < 8) return new DirectEngine(n);
 	if (isPowerOfTwo(n)) return new Pow2Engine(n);
+	if (smoothFactors(n)) return new MixedRadixEngine(n);
 	return new BluesteinEngine(n);
 }

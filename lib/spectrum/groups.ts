@@ -30,10 +30,13 @@ export function iecHarmonicGroups(binRms: Float64Array, cycles: number, maxOrder
 	const need = cycles * (maxOrder + 1) + 1;
 	if (binRms.length < need) throw new RangeError(`need ${need} bins for order ${maxOrder} at ${cycles} cycles, got ${binRms.length}`);
 	const c = cycles;
-	const p2 = (k: number) => (k < 0 ? 0 : binRms[k] * binRms[k]);
+	// bin powers once; plain loops (not prefix sums, which would lose small groups beside a large fundamental)
+	const pw = new Float64Array(need);
+	for (let k = 0; k < need; k++) pw[k] = binRms[k] * binRms[k];
+	const p2 = (k: number) => pw[k];
 	const sum = (from: number, to: number) => {
 		let s = 0;
-		for (let k = from; k <= to; k++) s += p2(k);
+		for (let k = from; k <= to; k++) s += pw[k];
 		return s;
 	};
 	const g = new Float64Array(maxOrder + 1);

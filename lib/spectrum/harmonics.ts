@@ -126,7 +126,8 @@ export function harmonicWindow(samples: Float64Array, sampleRateHz: number, opts
 		m = 4;
 		while (m < len || m < 2 * nBins) m *= 2;
 		w = work(m);
-		input = syncResample(samples, start, len, w.resampled);
+		// keep every reported bin, up to order maxOrder + 1, inside the interpolator's passband
+		input = syncResample(samples, start, len, w.resampled, Math.min(0.49, ((maxOrder + 1) * f1) / fs));
 	}
 	dftPlan(m).forward(input, w.re, w.im);
 
@@ -137,7 +138,7 @@ export function harmonicWindow(samples: Float64Array, sampleRateHz: number, opts
 	const binRms = new Float64Array(nBins);
 	for (let k = 0; k < nBins; k++) {
 		const valid = k * binHz < fs / 2 && k <= m >> 1;
-		binRms[k] = valid ? ((k === 0 ? 1 : Math.SQRT2) * Math.hypot(w.re[k], w.im[k])) / m : NaN;
+		binRms[k] = valid ? ((k === 0 ? 1 : Math.SQRT2) * Math.sqrt(w.re[k] * w.re[k] + w.im[k] * w.im[k])) / m : NaN;
 	}
 
 	const orders: HarmonicPhasor[] = new Array(maxOrder + 1);

@@ -11,6 +11,6 @@ export {
 	type HarmonicAnalysis,
 	type HarmonicAnalysisOptions,
 } from './harmonic-analysis.js';
-export { syncResample, SYNC_RESAMPLE_HALF_TAPS } from './sync-resample.js';
+export { syncResample, syncResampleHalfTaps } from './sync-resample.js';
 export { tddPercent, ulKFactor, factorK, percentOfIl } from './distortion.js';
 export { averageMeterExplanation, type AverageMeterExplanation, type AverageMeterReason } from './average-meter.js';

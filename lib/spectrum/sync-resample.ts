@@ -4,12 +4,28 @@
  * exact M-point period for the DFT (the software form of IEC 61000-4-7's synchronised sampling).
  */
 
-/** Taps on each side of the interpolation point (the kernel spans 2·W input samples). */
-export const SYNC_RESAMPLE_HALF_TAPS = 12;
-/** Kaiser window shape parameter of the interpolation kernel. */
-const KAISER_BETA = 11;
+/** Stopband attenuation the kernel is designed for, dB (images of in-band content stay ≤ 1e-5 of it). */
+const ATTENUATION_DB = 110;
+/** Kaiser shape for that attenuation: β = 0.1102·(A − 8.7) (Kaiser's design rule, from memory). */
+const KAISER_BETA = 0.1102 * (ATTENUATION_DB - 8.7);
 /** Kernel table resolution: points per input-sample interval (linear interpolation between them). */
 const TABLE_PHASES = 1024;
+const MIN_HALF_TAPS = 4;
+const MAX_HALF_TAPS = 32;
+
+/**
+ * Half-width W (taps per side) that keeps a passband up to `passbandRatio`·fs within the design
+ * attenuation: the transition runs from ν_p to 1 − ν_p (where the images of in-band content fall), and
+ * Kaiser's length rule 2W − 1 = (A − 7.95)/(2.285·2π·(1 − 2ν_p)) gives W (4 … 32).
+ * E.g. 8 taps per side for bins to order 51 of 50 Hz at 10 kS/s (ν_p = 0.255), 5 at 25.6 kS/s,
+ * 17 for 60 Hz at 7.8 kS/s (ν_p = 0.39).
+ * @param passbandRatio  highest frequency to keep ÷ sample rate, 0 … 0.49
+ */
+export function syncResampleHalfTaps(passbandRatio: number): number {
+	const dnu = 1 - 2 * Math.min(Math.max(passbandRatio, 0), 0.49);
+	const taps = (ATTENUATION_DB - 7.95) / (2.285 * 2 * Math.PI * dnu) + 1;
+	return Math.min(MAX_HALF_TAPS, Math.max(MIN_HALF_TAPS, Math.ceil(taps / 2)));
+}
 
 /** Modified Bessel function of the first kind, order 0, by its power series (converges for all x). */
 function besselI0(x: number): number {
@@ -24,59 +40,79 @@ function besselI0(x: number): number {
 	return sum;
 }
 
-let kernelTable: Float64Array | undefined;
+interface Kernel {
+	/** (value, slope) pairs at d = q/TABLE_PHASES. */
+	tab: Float64Array;
+	/** Sum of all 2W weights at fraction f = q/TABLE_PHASES, (value, slope) pairs: renormalises the output so DC is exact. */
+	sums: Float64Array;
+}
+
+const kernels = new Map<number, Kernel>();
 
 /**
- * Kaiser-windowed sinc on |d| ∈ [0, W], sampled at 1/TABLE_PHASES with one zero guard point:
+ * Kaiser-windowed sinc of half-width W on |d| ∈ [0, W], sampled at 1/TABLE_PHASES and interleaved as
+ * (value, slope to the next point) so a lookup is two adjacent loads:
  * h(d) = sinc(d) · I0(β·√(1 − (d/W)²)) / I0(β).
  * Ref: J. F. Kaiser, "Nonrecursive digital filter design using the I0-sinh window function",
  * Proc. IEEE ISCAS 1974 (from memory); windowed-sinc interpolation is textbook (e.g. Oppenheim & Schafer).
  */
-function kernel(): Float64Array {
-	if (kernelTable) return kernelTable;
-	const w = SYNC_RESAMPLE_HALF_TAPS;
+function kernel(w: number): Kernel {
+	const cached = kernels.get(w);
+	if (cached) return cached;
 	const size = w * TABLE_PHASES + 2;
 	const t = new Float64Array(size);
 	const i0b = besselI0(KAISER_BETA);
 	for (let q = 0; q < size; q++) {
 		const d = q / TABLE_PHASES;
 		if (d >= w) break;
-		const s = d === 0 ? 1 : Math.sin(Math.PI * d) / (Math.PI * d);
+		const sinc = d === 0 ? 1 : Math.sin(Math.PI * d) / (Math.PI * d);
 		const r = d / w;
-		t[q] = (s * besselI0(KAISER_BETA * Math.sqrt(1 - r * r))) / i0b;
+		t[q] = (sinc * besselI0(KAISER_BETA * Math.sqrt(1 - r * r))) / i0b;
 	}
-	// interleave (value, slope to next point) so one lookup needs two adjacent loads
 	const vs = new Float64Array(2 * size);
 	for (let q = 0; q < size; q++) {
 		vs[2 * q] = t[q];
 		vs[2 * q + 1] = q + 1 < size ? t[q + 1] - t[q] : 0;
 	}
-	kernelTable = vs;
-	return vs;
+	const sumsAt = new Float64Array(TABLE_PHASES + 1);
+	for (let q = 0; q <= TABLE_PHASES; q++) {
+		let sum = 0;
+		for (let r = 0; r < w; r++) sum += t[q + r * TABLE_PHASES] + t[TABLE_PHASES - q + r * TABLE_PHASES];
+		sumsAt[q] = sum;
+	}
+	const sums = new Float64Array(2 * (TABLE_PHASES + 1));
+	for (let q = 0; q <= TABLE_PHASES; q++) {
+		sums[2 * q] = sumsAt[q];
+		sums[2 * q + 1] = q < TABLE_PHASES ? sumsAt[q + 1] - sumsAt[q] : 0;
+	}
+	const k = { tab: vs, sums };
+	kernels.set(w, k);
+	return k;
 }
 
 /**
- * out[m] = x(start + m·L/M), m = 0 … M−1, with x(t) the band-limited interpolation of `samples`
- * (Kaiser-windowed sinc, 2·12 taps, β = 11, weights renormalised to sum 1 so DC is exact). Where the
- * kernel reaches past the ends of the capture, the missing sample is taken one window length away
- * (x(t ± L), linear between its neighbours): the window holds whole cycles, so this is the signal's own
- * continuation.
+ * out[m] = x(start + m·L/M), m = 0 … M−1, with x(t) the band-limited interpolation of `samples`:
+ * a Kaiser-windowed sinc designed for 110 dB, its half-width chosen from `passbandRatio` by
+ * syncResampleHalfTaps, weights renormalised to sum 1 so DC is exact. Where the kernel reaches past the
+ * ends of the capture, the missing sample is taken one window length away (x(t ± L), linear between its
+ * neighbours): the window holds whole cycles, so this is the signal's own continuation.
  *
- * Accuracy (tests/spectrum/sync-resample.test.ts, a sine through this function, point by point): error
- * < 1e-5 of the amplitude for components up to 0.35·fs (mains harmonics to order 50 at 7.2 kS/s and up);
- * the kernel rolls off above that (1.5 % low at 0.40·fs, 25 % at 0.45·fs).
+ * Accuracy (tests/spectrum/sync-resample.test.ts, a cosine through this function, point by point): error
+ * < 2e-5 of the amplitude (measured ≤ 1.4e-5) for components up to passbandRatio·fs. Content above it is attenuated, and its
+ * images fall above passbandRatio·fs in the M-point DFT, never on the bins below it.
  *
  * @param samples  the capture's samples; not modified
  * @param start    window start, fractional sample index, ≥ 0
  * @param lengthSamples  window length L in input samples (fractional), start + L ≤ samples.length
  * @param out      M output points (its length sets M); hot path: pass a reused buffer
+ * @param passbandRatio  highest frequency that must be kept ÷ input sample rate (< 0.5); default 0.4
  * @returns `out`
  */
-export function syncResample(samples: Float64Array, start: number, lengthSamples: number, out: Float64Array): Float64Array {
+export function syncResample(samples: Float64Array, start: number, lengthSamples: number, out: Float64Array, passbandRatio = 0.4): Float64Array {
 	const n = samples.length;
 	const m = out.length;
-	const w = SYNC_RESAMPLE_HALF_TAPS;
-	const tab = kernel();
+	const w = syncResampleHalfTaps(passbandRatio);
+	const { tab, sums } = kernel(w);
 	const step = lengthSamples / m;
 	for (let i = 0; i < m; i++) {
 		const t = start + i * step;
@@ -91,25 +127,20 @@ export function syncResample(samples: Float64Array, start: number, lengthSamples
 		const qb0 = Math.floor(qb);
 		const wb = qb - qb0;
 		let acc = 0;
-		let wsum = 0;
 		if (i0 - w + 1 >= 0 && i0 + w < n) {
 			for (let r = 0, pa = 2 * qa0, pb = 2 * qb0; r < w; r++, pa += 2 * TABLE_PHASES, pb += 2 * TABLE_PHASES) {
-				const ka = tab[pa] + wa * tab[pa + 1];
-				const kb = tab[pb] + wb * tab[pb + 1];
-				acc += ka * samples[i0 - r] + kb * samples[i0 + 1 + r];
-				wsum += ka + kb;
+				acc += (tab[pa] + wa * tab[pa + 1]) * samples[i0 - r] + (tab[pb] + wb * tab[pb + 1]) * samples[i0 + 1 + r];
 			}
 		} else {
 			for (let r = 0; r < w; r++) {
 				const pa = 2 * (qa0 + r * TABLE_PHASES);
-				const ka = tab[pa] + wa * tab[pa + 1];
 				const pb = 2 * (qb0 + r * TABLE_PHASES);
-				const kb = tab[pb] + wb * tab[pb + 1];
-				acc += ka * sampleOrWrap(samples, i0 - r, lengthSamples) + kb * sampleOrWrap(samples, i0 + 1 + r, lengthSamples);
-				wsum += ka + kb;
+				acc += (tab[pa] + wa * tab[pa + 1]) * sampleOrWrap(samples, i0 - r, lengthSamples);
+				acc += (tab[pb] + wb * tab[pb + 1]) * sampleOrWrap(samples, i0 + 1 + r, lengthSamples);
 			}
 		}
-		out[i] = acc / wsum;
+		// the weights' sum depends on f only: tabulated, so the renormalisation costs one lookup
+		out[i] = acc / (sums[2 * qa0] + wa * sums[2 * qa0 + 1]);
 	}
 	return out;
 }

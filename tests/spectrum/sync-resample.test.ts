@@ -1,14 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { syncResample } from '../../lib/index.js';
+import { syncResample, syncResampleHalfTaps } from '../../lib/index.js';
 
 function cosine(n: number, cyclesPerSample: number, phaseRad: number): Float64Array {
 	return new Float64Array(n).map((_, i) => Math.cos(2 * Math.PI * cyclesPerSample * i + phaseRad));
 }
 
 /** Largest |out[m] − cos(2πν·t_m + φ)| with t_m = start + m·L/M (the exact value of the sampled cosine). */
-function maxError(nu: number, start: number, len: number, m: number, n = 6000): number {
+function maxError(nu: number, start: number, len: number, m: number, passbandRatio?: number, n = 6000): number {
 	const x = cosine(n, nu, 0.3);
-	const out = syncResample(x, start, len, new Float64Array(m));
+	const out = syncResample(x, start, len, new Float64Array(m), passbandRatio);
 	let err = 0;
 	for (let i = 0; i < m; i++) err = Math.max(err, Math.abs(out[i] - Math.cos(2 * Math.PI * nu * (start + (i * len) / m) + 0.3)));
 	return err;
@@ -20,6 +20,22 @@ describe('syncResample', () => {
 			expect(maxError(nu, 1000.37, 2222.71, 4096)).toBeLessThan(1e-5);
 		});
 	}
+
+	for (const passband of [0.1, 0.255, 0.303, 0.39]) {
+		it(`with passbandRatio ${passband} (${syncResampleHalfTaps(passband)} taps a side) reproduces cosines up to ${passband}·fs to 2e-5`, () => {
+			let worst = 0;
+			for (let nu = 0.002; nu <= passband; nu += passband / 12) worst = Math.max(worst, maxError(nu, 700.81, 2001.17, 2048, passband));
+			expect(worst).toBeLessThan(2e-5);
+		});
+	}
+
+	it('syncResampleHalfTaps grows as the passband nears fs/2 and stays within 4…32', () => {
+		expect(syncResampleHalfTaps(0.255)).toBe(8);
+		expect(syncResampleHalfTaps(0.1)).toBeLessThan(syncResampleHalfTaps(0.3));
+		// Kaiser's rule for 110 dB with the widest transition (0 … 1): 2W − 1 ≥ 102.05/(2.285·2π)
+		expect(syncResampleHalfTaps(0)).toBe(Math.ceil(((110 - 7.95) / (2.285 * 2 * Math.PI) + 1) / 2));
+		expect(syncResampleHalfTaps(0.5)).toBeLessThanOrEqual(32);
+	});
 
 	it('keeps a constant exactly (weights renormalised to sum 1)', () => {
 		const out = syncResample(new Float64Array(500).fill(3.25), 10.5, 400.3, new Float64Array(512));
