@@ -252,6 +252,20 @@ describe('parseComtrade errors: one fixture per code with its line and column', 
 		expect([at('4,3000,5,40,2', 3).line, at('4,3000,5,40,2', 3).column]).toEqual([4, 13]);
 	});
 
+	it('parseComtrade warns when sample numbers skip (records missing) and points at the first break', () => {
+		const c = parseComtrade(text('good-1999.cfg'), enc('1,0,100,10,0\n2,1000,-50,20,0\n4,3000,0,30,1\n5,4000,5,40,1\n'), 'g.cfg');
+		const d = c.diagnostics.find((x) => x.code === 'comtrade-sample-number-break');
+		expect([d?.severity, d?.line]).toEqual(['warning', 3]);
+	});
+
+	it('parseComtrade warns when the time stamps span a different time than the sample rate gives', () => {
+		// 4 samples at 1000 Hz span 3 ms; stamps 0 … 6000 µs span 6 ms
+		const c = parseComtrade(text('good-1999.cfg'), enc('1,0,100,10,0\n2,2000,-50,20,0\n3,4000,0,30,1\n4,6000,5,40,1\n'), 'g.cfg');
+		expect(c.diagnostics.find((x) => x.code === 'comtrade-stamps-disagree')?.severity).toBe('warning');
+		expect(c.sampleRateHz).toBe(1000);
+		expect(open('good-1999').diagnostics.some((x) => x.code === 'comtrade-stamps-disagree' || x.code === 'comtrade-sample-number-break')).toBe(false);
+	});
+
 	it('parseComtrade(.dat with a trailing comma and a blank analog field) reads the row, the blank as missing', () => {
 		const c = parseComtrade(text('good-1999.cfg'), enc('1,0,100,10,0,\r\n2,1000,,20,0\r\n3,2000,0,30,1\r\n4,3000,5,40,1\r\n'), 'b.cfg');
 		expect(c.channels[0].samples[0]).toBeCloseTo(1000, 9);

@@ -43,6 +43,14 @@ describe.skipIf(!present)('parseComtrade on the real feeder-sag recording (PROVE
 		expect(capture.startTime).toBe('2012-07-11T08:44:21.051022');
 	});
 
+	it('has time stamps that agree with the rate, so the reader raises no warning', () => {
+		// by hand: stamps run from -41663 to 424965 µs = 0.466628 s; 3583 intervals / 7678.4833984375 Hz = 0.466629 s
+		expect(rows[rows.length - 1][1] - rows[0][1]).toBe(466628);
+		expect(3583 / 7678.4833984375).toBeCloseTo(0.466629, 6);
+		expect(rows.every((r, k) => r[0] === k + 1)).toBe(true);
+		expect(capture.diagnostics.filter((d) => d.severity === 'warning')).toEqual([]);
+	});
+
 	it('reports primary values (PS = P in every channel line), with a diagnostic saying so', () => {
 		expect(ab.every((x) => x.ps === 'P')).toBe(true);
 		expect(capture.diagnostics.some((d) => d.code === 'comtrade-values' && d.message.includes('primary'))).toBe(true);

@@ -61,6 +61,9 @@ export function readAsciiDat(cfg: ComtradeConfig, bytes: Uint8Array, source: str
 	};
 	const fieldName = (f: number) => (f === 0 ? 'a sample number' : f === 1 ? 'a time stamp (an integer) or a blank field' : f < 2 + nA ? `a number for analog channel ${f - 1} (${cfg.analog[f - 2].name})` : `0 or 1 for digital channel ${f - 1 - nA} (${cfg.digital[f - 2 - nA].name})`);
 
+	let previousNumber = 0;
+	let breaks = 0;
+	let firstBreak = 0;
 	for (let r = 0; r < n; r++) {
 		lineStart = p;
 		lineNo = r + 1;
@@ -107,6 +110,8 @@ export function readAsciiDat(cfg: ComtradeConfig, bytes: Uint8Array, source: str
 			const value = blank ? NaN : simple && digits <= 15 ? (neg ? -intValue : intValue) : Number(latin1(bytes, start, end));
 			if (f === 0) {
 				if (blank) fail(start - lineStart + 1, '', fieldName(0));
+				if (r > 0 && value !== previousNumber + 1 && breaks++ === 0) firstBreak = r + 1;
+				previousNumber = value;
 			} else if (f === 1) {
 				stamps[r] = value;
 			} else if (f < 2 + nA) {
@@ -133,7 +138,7 @@ export function readAsciiDat(cfg: ComtradeConfig, bytes: Uint8Array, source: str
 		if (p < len && bytes[p] === CR) p++;
 		if (p < len && bytes[p] === LF) p++;
 	}
-	return { raw, missing, stamps, digital, records: n, extraRecords: lineCount - n, trailingBytes: 0 };
+	return { raw, missing, stamps, digital, records: n, extraRecords: lineCount - n, trailingBytes: 0, sampleNumberBreaks: breaks, firstBreakRecord: firstBreak };
 }
 
 function latin1(bytes: Uint8Array, start: number, end: number): string {

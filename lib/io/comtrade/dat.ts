@@ -19,6 +19,9 @@ export interface DatContent {
 	records: number;
 	/** Records found past the count the .cfg gives (ignored). */
 	extraRecords: number;
+	/** Records whose sample number is not the previous one + 1, and the 1-based record of the first such. */
+	sampleNumberBreaks: number;
+	firstBreakRecord: number;
 	/** Trailing bytes that do not make a whole record (binary only). */
 	trailingBytes: number;
 }
@@ -60,9 +63,14 @@ function readBinary(cfg: ComtradeConfig, bytes: Uint8Array, source: string, expe
 	const out = allocate(nA, nD, n);
 	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	const type = cfg.fileType;
+	let breaks = 0;
+	let firstBreak = 0;
 	for (let r = 0; r < n; r++) {
 		const ts = view.getUint32(r * recordBytes + 4, true);
 		out.stamps[r] = ts === 0xffffffff ? NaN : ts;
+		if (r > 0 && view.getUint32(r * recordBytes, true) !== view.getUint32((r - 1) * recordBytes, true) + 1) {
+			if (breaks++ === 0) firstBreak = r + 1;
+		}
 	}
 	// One pass per channel and type: keeps the inner loop free of branches on the file type.
 	for (let c = 0; c < nA; c++) {
@@ -103,5 +111,5 @@ function readBinary(cfg: ComtradeConfig, bytes: Uint8Array, source: string, expe
 		const bit = c & 15;
 		for (let r = 0, p = statusAt + 2 * (c >> 4); r < n; r++, p += recordBytes) states[r] = (view.getUint16(p, true) >> bit) & 1;
 	}
-	return { ...out, records: n, extraRecords: available - n, trailingBytes: bytes.length - available * recordBytes };
+	return { ...out, records: n, extraRecords: available - n, trailingBytes: bytes.length - available * recordBytes, sampleNumberBreaks: breaks, firstBreakRecord: firstBreak };
 }

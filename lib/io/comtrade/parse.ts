@@ -70,6 +70,18 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 	if (firstStamp !== 0) diagnostics.push({ code: 'comtrade-first-stamp', severity: 'info', message: `The first record's time stamp is ${firstStamp} × ${cfg.timeMult} × ${stampUnitS === 1e-6 ? 'µs' : 'ns'}; the record starts ${fmt(startS)} s from the trigger.` });
 
 	const { sampleRateHz, timeS } = timeBase(cfg, dat.stamps, n, startS, stampS, datSource, diagnostics);
+	if (dat.sampleNumberBreaks > 0) {
+		diagnostics.push({ code: 'comtrade-sample-number-break', severity: 'warning', ...(cfg.fileType === 'ASCII' ? { line: dat.firstBreakRecord + (offsets.line ?? 0) } : {}), message: `Sample numbers do not run on by one at ${dat.firstBreakRecord === 0 ? 'some records' : `record ${dat.firstBreakRecord}`} (${dat.sampleNumberBreaks} place(s)): records may be missing; times follow the ${timeS && !cfg.rates.length ? 'time stamps' : 'sample rate'}.` });
+	}
+	// With a rate as the time base, the record time stamps should tell the same span; say so when they do not.
+	const lastStamp = dat.stamps[n - 1];
+	if (cfg.rates.length > 0 && !timeS && n > 1 && Number.isFinite(lastStamp) && Number.isFinite(dat.stamps[0])) {
+		const byStampsS = (lastStamp - dat.stamps[0]) * stampS;
+		const byRateS = (n - 1) / sampleRateHz;
+		if (Math.abs(byStampsS - byRateS) > 0.01 * byRateS + 2 * stampS) {
+			diagnostics.push({ code: 'comtrade-stamps-disagree', severity: 'warning', message: `The record time stamps span ${fmt(byStampsS)} s but ${n} samples at ${sampleRateHz} Hz span ${fmt(byRateS)} s; times follow the sample rate.` });
+		}
+	}
 
 	const channels = cfg.analog.map((a, c) => scaleChannel(a, dat.raw[c], want, diagnostics));
 	uniqueNames(channels, diagnostics);
