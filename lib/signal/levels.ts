@@ -111,11 +111,11 @@ export function waveformFigures(
 		return nanFigures('whole-record', 0, -1, NaN, warnings);
 	}
 	let frequencyHz = opts.window?.frequencyHz ?? opts.frequencyHz;
-	let window = opts.window;
-	if (opts.span !== 'whole-record' && window === undefined) {
+	let cycleWindow = opts.window;
+	if (opts.span !== 'whole-record' && cycleWindow === undefined) {
 		const found = findWholeCycles(samples, sampleRateHz, { frequencyHz: opts.frequencyHz, nominalHz: opts.nominalHz });
 		if (found.ok) {
-			window = found;
+			cycleWindow = found;
 			frequencyHz = found.frequencyHz;
 		} else if (found.code !== 'bad-parameter' || !hasNonFinite(samples)) {
 			warnings.push({
@@ -125,20 +125,20 @@ export function waveformFigures(
 			});
 		}
 	}
-	if (window !== undefined && !(window.startIndex >= 0 && window.endIndex <= n - 1 && window.endIndex > window.startIndex)) {
-		throw new RangeError(`window ${window.startIndex}…${window.endIndex} does not lie inside the record's 0…${n - 1}`);
+	if (cycleWindow !== undefined && !(cycleWindow.startIndex >= 0 && cycleWindow.endIndex <= n - 1 && cycleWindow.endIndex > cycleWindow.startIndex)) {
+		throw new RangeError(`window ${cycleWindow.startIndex}…${cycleWindow.endIndex} does not lie inside the record's 0…${n - 1}`);
 	}
 	warnings.push(
-		...signalWarnings(samples, sampleRateHz, { frequencyHz, cycles: window?.cycles, nominalHz: opts.nominalHz, maxOrder: opts.maxOrder }),
+		...signalWarnings(samples, sampleRateHz, { frequencyHz, cycles: cycleWindow?.cycles, nominalHz: opts.nominalHz, maxOrder: opts.maxOrder }),
 	);
-	const span = window ? 'whole-cycles' : 'whole-record';
-	const startIndex = window ? window.startIndex : 0;
-	const endIndex = window ? window.endIndex : n - 1;
-	const cycles = window ? window.cycles : frequencyHz !== undefined ? (n * frequencyHz) / sampleRateHz : NaN;
+	const span = cycleWindow ? 'whole-cycles' : 'whole-record';
+	const startIndex = cycleWindow ? cycleWindow.startIndex : 0;
+	const endIndex = cycleWindow ? cycleWindow.endIndex : n - 1;
+	const cycles = cycleWindow ? cycleWindow.cycles : frequencyHz !== undefined ? (n * frequencyHz) / sampleRateHz : NaN;
 	if (hasNonFinite(samples)) return nanFigures(span, startIndex, endIndex, cycles, warnings);
 
 	// Whole record: each sample weighs 1/N. Whole cycles: trapezoid over the fractional window.
-	const average = window
+	const average = cycleWindow
 		? (g: (x: number) => number) => windowIntegral(samples, startIndex, endIndex, g) / (endIndex - startIndex)
 		: (g: (x: number) => number) => {
 				let s = 0;

@@ -30,12 +30,12 @@ export interface PerCycleFigures {
  * Ref: IEC 61000-4-30:2015 5.2, Urms(1) one-cycle RMS from a fundamental zero crossing (from memory).
  *
  * @param samples  signal (V, A, …); not modified
- * @param window  whole cycles from `findWholeCycles` on this record (or on a channel recorded with it)
- * @returns per-cycle arrays of length window.cycles
+ * @param cycleWindow  whole cycles from `findWholeCycles` on this record (or on a channel recorded with it)
+ * @returns per-cycle arrays of length cycleWindow.cycles
  * @example perCycleFigures(current, findWholeCycles(current, 10_000)).worstRmsCycle // 3 (the motor-start cycle)
  */
-export function perCycleFigures(samples: Float64Array, window: CycleWindow): PerCycleFigures {
-	const c = window.crossings;
+export function perCycleFigures(samples: Float64Array, cycleWindow: CycleWindow): PerCycleFigures {
+	const c = cycleWindow.crossings;
 	const cycles = Math.max(0, c.length - 1);
 	if (cycles > 0 && !(c[0] >= 0 && c[cycles] <= samples.length - 1)) {
 		throw new RangeError(`window ${c[0]}…${c[cycles]} does not lie inside the record's 0…${samples.length - 1}`);
