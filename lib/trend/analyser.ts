@@ -110,6 +110,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	let nominalHz: number | undefined = opts.nominalHz;
 	let declaredV = opts.declaredV ?? NaN;
 	let detector: EventDetector | undefined;
+	let detectEvents = voltage.length > 0;
 	const inferenceEnd = Math.round((opts.inferenceS ?? 1) * fs);
 	let abs = 0;
 	let finished = false;
@@ -264,6 +265,12 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 			declaredV = d.declaredV;
 			diagnostics.push(d.diagnostic);
 		}
+		if (Number.isNaN(declaredV)) {
+			detectEvents = false;
+			diagnostics.push({ code: 'events-not-detected', severity: 'warning', message: 'No declared voltage: dips, swells and interruptions were not looked for. Give the declared voltage (--nominal) to detect them.' });
+			detector = new EventDetector(0, { dipV: 0, dipEndV: 0, swellV: 0, swellEndV: 0, interruptionV: 0, interruptionEndV: 0 });
+			return;
+		}
 		const u = declaredV / 100;
 		detector = new EventDetector(voltage.length, {
 			dipV: th.dipPercent * u,
@@ -347,7 +354,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		const d = detector!;
 		while (k < records.length && records[k].start <= pos) {
 			const r = records[k++];
-			d.update(r.ch, r.start, r.rms);
+			if (detectEvents) d.update(r.ch, r.start, r.rms);
 		}
 		records = k === records.length ? [] : records.slice(k);
 		finalize(pos);
@@ -415,7 +422,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				sampleRateHz: fs,
 				nominalHz,
 				declaredV,
-				declaredVSource: voltage.length === 0 ? 'none' : opts.declaredV !== undefined ? 'given' : 'inferred',
+				declaredVSource: !detectEvents ? 'none' : opts.declaredV !== undefined ? 'given' : 'inferred',
 				thresholds: th,
 				channels,
 				referenceChannel: channels[ref].name,

@@ -15,9 +15,9 @@ export const COMMON_NOMINAL_VOLTAGES_V = [100, 120, 127, 208, 220, 230, 240, 277
  * Picks the declared voltage Udin for event detection from RMS values of the first seconds.
  *
  * @param rmsValuesV  Urms(1/2) or 10/12-cycle RMS values of the voltage channels, V (NaN ignored)
- * @returns declaredV (NaN when no finite value) and one diagnostic: 'assumption' when a common nominal
- *   matched, 'warning' when none lies within ±15 % (then the median itself, rounded to 3 significant
- *   digits, is used and the user should give the declared voltage).
+ * @returns declaredV and one diagnostic: 'assumption' when a common nominal matched; NaN and a 'warning'
+ *   when there is no finite value or no common nominal lies within ±15 % (medium-voltage records, or a
+ *   recording that starts inside an event): a guess there would invent dips or swells, so none is made.
  * @example declaredVoltageFromRms([231.2, 229.8, 230.5]) // { declaredV: 230, ... }
  */
 export function declaredVoltageFromRms(rmsValuesV: ArrayLike<number>): { declaredV: number; diagnostic: Diagnostic } {
@@ -50,13 +50,12 @@ export function declaredVoltageFromRms(rmsValuesV: ArrayLike<number>): { declare
 			},
 		};
 	}
-	const rounded = Number(median.toPrecision(3));
 	return {
-		declaredV: rounded,
+		declaredV: NaN,
 		diagnostic: {
-			code: 'declared-voltage-from-measurement',
+			code: 'declared-voltage-unknown',
 			severity: 'warning',
-			message: `No common nominal voltage within 15 % of the measured ${median.toFixed(1)} V; the measured value ${rounded} V is used as declared voltage. For medium-voltage records give the system's declared value.`,
+			message: `No common low-voltage nominal lies within 15 % of the measured ${median.toFixed(1)} V, so no declared voltage is assumed. Give it (for a medium-voltage record, the system's line-to-neutral value, e.g. 7200 V on a 12.47 kV feeder).`,
 		},
 	};
 }

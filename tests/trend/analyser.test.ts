@@ -345,3 +345,15 @@ describe('createTrendAnalyser: streaming', () => {
 		expect(r.diagnostics.some((d) => d.code === 'no-zero-crossings')).toBe(true);
 	});
 });
+
+describe('createTrendAnalyser: no declared voltage to be had', () => {
+	it('a recording far from every common nominal (3 kV) gets aggregates but no events, and a warning', () => {
+		const xs = makeChannels([{ rms: 3000, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 0.7, rms: 1000 }] }], { f0Hz: 50 }, 10_000, 1.5);
+		const r = run(xs, { sampleRateHz: 10_000, nominalHz: 50 });
+		expect(r.declaredV).toBeNaN();
+		expect(r.declaredVSource).toBe('none');
+		expect(r.events).toEqual([]);
+		expect(r.diagnostics.some((d) => d.code === 'events-not-detected' && d.severity === 'warning')).toBe(true);
+		expect(r.cycles10[0].rms[0]).toBeCloseTo(3000, 6);
+	});
+});

@@ -14,9 +14,9 @@ describe('declaredVoltageFromRms', () => {
 		expect(declaredVoltageFromRms([117, 116.8]).declaredV).toBe(120);
 	});
 
-	it('declaredVoltageFromRms of medium-voltage values (7 870 V) warns and uses the measured value: MV systems must be declared', () => {
+	it('declaredVoltageFromRms of medium-voltage values (7 870 V) assumes nothing and warns: MV systems must be declared', () => {
 		const r = declaredVoltageFromRms([7873, 7858, 7870]);
-		expect(r.declaredV).toBe(7870);
+		expect(r.declaredV).toBeNaN();
 		expect(r.diagnostic.severity).toBe('warning');
 	});
 
