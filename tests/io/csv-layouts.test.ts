@@ -54,6 +54,13 @@ describe('parseCsv: delimiters and decimal marks', () => {
 		expect(codes(c)).toContain('trailing-empty-columns');
 	});
 
+	it('parseCsv(blank lines and delimiter-only rows among and after the data) skips them and says where', () => {
+		const c = parseCsv('t;U1;I1\r\n0;1;2\r\n\r\n1;3;4\r\n;;\r\n2;5;6\r\n;;\r\n', 'a.csv');
+		expect(values(c, 0)).toEqual([1, 3, 5]);
+		const b = diag(c, 'blank-lines');
+		expect([b?.line, b?.message]).toEqual([3, '3 blank line(s) among the data were skipped, the first at line 3.']);
+	});
+
 	it('parseCsv(UTF-8 BOM, CR-only line breaks) skips the BOM and splits on CR', () => {
 		const c = parseCsv('\uFEFFt,U1\r0,1\r0.5,2\r1,3\r', 'a.csv');
 		expect(values(c, 0)).toEqual([1, 2, 3]);
@@ -283,6 +290,12 @@ describe('parseCsv: scaling, quantities and phases', () => {
 		expect(values(c, 2)).toEqual([25, 50]); // 0.25 V / 0.01 ohm
 		expect(values(c, 3)).toEqual([40, 80]); // 1 A x 200/5
 		expect(c.channels.map((ch) => [ch.unit, ch.quantity])).toEqual([['V', 'voltage'], ['A', 'current'], ['A', 'current'], ['A', 'current']]);
+	});
+
+	it('parseCsv(a current-named channel recorded in volts) keeps the unit and warns about the disagreement', () => {
+		const c = parseCsv('t (s);I1 (mV)\n0;100\n1;200\n', 'a.csv');
+		expect([c.channels[0].unit, c.channels[0].quantity]).toEqual(['V', 'voltage']);
+		expect(diag(c, 'name-unit-disagree')?.severity).toBe('warning');
 	});
 
 	it('parseCsv(phase names in the usual schemes) fills Channel.phase', () => {

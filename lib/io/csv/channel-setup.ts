@@ -60,6 +60,8 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 		quantity ??= read.kind;
 	}
 	const fromName = quantityFromName(name);
+	if (quantity && fromName && fromName !== quantity && !s.quantity && s.clampMvPerA === undefined && s.shuntOhms === undefined)
+		say('name-unit-disagree', `Channel "${name}" reads as a ${fromName} by its name but is in ${unitText}; taken as a ${quantity}. If it is a clamp or shunt output, give clampMvPerA or shuntOhms.`, 'warning');
 	if (!quantity && fromName) {
 		quantity = fromName;
 		if (!unit || unit === '') {

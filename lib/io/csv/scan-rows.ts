@@ -86,12 +86,19 @@ export class RowScanner {
 				continue;
 			}
 			while (b === 32 || b === 9) b = buf[++p];
-			if (b === eol || (b === 13 && buf[p + 1] === eol)) {
-				if (this.blankLines++ === 0) this.firstBlankLine = line;
-				while (b !== eol) b = buf[++p];
-				p++;
-				line++;
-				continue;
+			if (b === delim || b === eol || b === 13) {
+				// a blank line, or one of delimiters only (';;;' rows that spreadsheets leave at the end)
+				let q = p;
+				while (buf[q] === delim || buf[q] === 32 || buf[q] === 9) q++;
+				if (eol !== 13 && buf[q] === 13 && buf[q + 1] === eol) q++;
+				if (buf[q] !== eol) q = -1;
+				if (q >= 0) {
+					if (this.blankLines++ === 0) this.firstBlankLine = line;
+					p = q + 1;
+					line++;
+					b = buf[p];
+					continue;
+				}
 			}
 			if (n === cap) {
 				this.rows = n;
