@@ -47,6 +47,7 @@ cli
 	.option('--interruption-percent <pct>', 'Interruption threshold, % of the declared voltage')
 	.option('--hysteresis-percent <pct>', 'Hysteresis, % of the declared voltage')
 	.option('--no-thd', 'Skip the harmonic analysis (THD columns empty; faster)')
+	.option('--harmonics', 'Also every harmonic order 2-50 per channel, % of the fundamental')
 	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
 	.option('--scale <channel=factor>', 'Multiply a channel by a factor (CSV files); repeatable', { type: [String] })
 	.option('--unit <channel=unit>', 'Set the unit of a channel (CSV files); repeatable', { type: [String] })
@@ -68,6 +69,7 @@ cli
 			interruptionPercent: options.interruptionPercent as number | string | undefined,
 			hysteresisPercent: options.hysteresisPercent as number | string | undefined,
 			thd: options.thd !== false,
+			harmonics: options.harmonics === true,
 			open,
 		});
 	});
