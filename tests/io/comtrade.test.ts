@@ -70,6 +70,13 @@ describe('parseComtrade on a hand-written 1999 ASCII record (tests/fixtures/comt
 		expect(c.metadata['comtrade.station']).toBe('Sawpit Lane');
 	});
 
+	it('parseComtrade reads a .cfg whose every line ends in a comma like the plain one', () => {
+		const commas = text('good-1999.cfg').replace(/\n/g, ',\n');
+		const t = parseComtrade(commas, bytes('good-1999.dat'), 'commas.cfg');
+		expect(t.channels.map((ch) => Array.from(ch.samples))).toEqual(c.channels.map((ch) => Array.from(ch.samples)));
+		expect([t.sampleRateHz, t.startS, t.digital?.length, t.metadata['comtrade.timemult']]).toEqual([c.sampleRateHz, c.startS, 1, '1']);
+	});
+
 	it('parseComtrade reads LF and CRLF versions of the same record identically', () => {
 		const crlf = parseComtrade(text('good-1999.cfg').replace(/\n/g, '\r\n'), new TextEncoder().encode(text('good-1999.dat').replace(/\n/g, '\r\n')), 'x.cfg');
 		expect(crlf.channels.map((ch) => Array.from(ch.samples))).toEqual(c.channels.map((ch) => Array.from(ch.samples)));

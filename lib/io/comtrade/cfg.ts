@@ -66,6 +66,11 @@ export interface ComtradeConfig {
 	diagnostics: Diagnostic[];
 }
 
+/** Drop one trailing empty field (a line ending in a comma) when the line has one field more than `wanted`. */
+function trimTrailing(f: Field[], wanted: number): Field[] {
+	return f.length === wanted + 1 && f[wanted].text === '' ? f.slice(0, wanted) : f;
+}
+
 /**
  * Read a .cfg text. `lineOffset` shifts reported line numbers (a CFF section starts below line 1).
  * @throws ImportError 'cfg-syntax' (a field that cannot be read, with its line and column) or
@@ -164,7 +169,8 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 	// 4. digital channel lines: Dn,ch_id,ph,ccbm,y (1991: Dn,ch_id,y)
 	const digital: CfgDigital[] = [];
 	for (let c = 0; c < nD; c++) {
-		const f = next(`digital channel line ${c + 1} of ${nD}`);
+		const raw = next(`digital channel line ${c + 1} of ${nD}`);
+		const f = trimTrailing(trimTrailing(raw, 5), 3);
 		const k = i - 1;
 		channelLineCheck(k, f, 'digital', nD, c);
 		if (f.length >= 10) fail(k, 1, 'cfg-count-mismatch', lines[k], `${nD} digital channel lines after ${nA} analog ones as line ${lineNo(countLine)} declares; this looks like an analog channel line`);
@@ -183,17 +189,17 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 	}
 
 	// 5. lf
-	const lfFields = next('the line frequency `lf`');
+	const lfFields = trimTrailing(next('the line frequency `lf`'), 1);
 	if (lfFields.length > 2) fail(i - 1, 1, 'cfg-count-mismatch', lines[i - 1], `the line frequency after ${nA} analog and ${nD} digital channel lines (line ${lineNo(countLine)}); this looks like one more channel line`);
 	const lineFrequencyHz = num(lfFields[0], i - 1, 'the line frequency in Hz (a number)', { min: 0 });
 
 	// 6-7. nrates, then samp,endsamp per rate (nrates = 0 may be followed by `0,endsamp`)
-	const nrFields = next('the number of sampling rates `nrates`');
+	const nrFields = trimTrailing(next('the number of sampling rates `nrates`'), 1);
 	const nrates = num(nrFields[0], i - 1, 'the number of sampling rates (an integer)', { int: true, min: 0 });
 	const rates: CfgRate[] = [];
 	let endSampleNoRate: number | undefined;
 	for (let r = 0; r < nrates; r++) {
-		const f = next(`sampling rate line ${r + 1} of ${nrates} (samp,endsamp)`);
+		const f = trimTrailing(next(`sampling rate line ${r + 1} of ${nrates} (samp,endsamp)`), 2);
 		const k = i - 1;
 		if (f.length !== 2) fail(k, 1, 'cfg-syntax', lines[k], 'a sampling rate line `samp,endsamp`');
 		const sampleRateHz = num(f[0], k, 'a sample rate in Hz (a number >= 0)', { min: 0 });
@@ -202,7 +208,7 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 		rates.push({ sampleRateHz, endSample, line: lineNo(k) });
 	}
 	if (nrates === 0 && i < lines.length) {
-		const f = splitFields(lines[i]);
+		const f = trimTrailing(splitFields(lines[i]), 2);
 		if (f.length === 2 && !f[0].text.includes('/') && Number.isFinite(strictNumber(f[1].text))) {
 			i++;
 			endSampleNoRate = num(f[1], i - 1, 'the last sample number (an integer >= 0)', { int: true, min: 0 });
@@ -211,7 +217,7 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 
 	// 8-9. first-data and trigger time stamps
 	const stampAt = (what: string): CfgStamp | undefined => {
-		const f = next(`the ${what} time stamp dd/mm/yyyy,hh:mm:ss.ssssss`);
+		const f = trimTrailing(next(`the ${what} time stamp dd/mm/yyyy,hh:mm:ss.ssssss`), 2);
 		const k = i - 1;
 		if (f.length === 2 && f[0].text === '' && f[1].text === '') {
 			diagnostics.push({ code: 'comtrade-no-time-stamp', severity: 'warning', line: lineNo(k), message: `The ${what} time stamp is blank.` });
@@ -230,7 +236,7 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 	const trigger = stampAt('trigger');
 
 	// 10. ft
-	const ftFields = next('the data file type (ASCII, BINARY, BINARY32 or FLOAT32)');
+	const ftFields = trimTrailing(next('the data file type (ASCII, BINARY, BINARY32 or FLOAT32)'), 1);
 	const fileTypeLine = lineNo(i - 1);
 	const ft = ftFields[0].text.toUpperCase();
 	if (ftFields.length !== 1 || !['ASCII', 'BINARY', 'BINARY32', 'FLOAT32'].includes(ft)) {
@@ -239,7 +245,7 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 	// 11. timemult (1999 and later; absent in 1991 files)
 	let timeMult = 1;
 	if (i < lines.length) {
-		const f = splitFields(lines[i]);
+		const f = trimTrailing(splitFields(lines[i]), 1);
 		if (f.length === 1) {
 			i++;
 			timeMult = num(f[0], i - 1, 'the time stamp multiplier timemult (a number > 0)', { min: 0 });
