@@ -6,13 +6,16 @@
  * Per sample it keeps a ring buffer per channel (≥ 0.5 s) and tracks zero crossings of the voltage
  * channels and of the timing reference (crossing-tracker.ts). From these it produces:
  * - Urms(1/2) per voltage channel -> dips, swells, interruptions (event-detector.ts);
- * - 10/12-cycle windows of the reference's whole cycles -> RMS (and THD when `harmonics` is given) of
- *   every channel, gapless; 150/180-cycle and 10-min aggregates (row-group.ts). Without a wall clock the
+ * - 10/12-cycle windows of the reference's whole cycles (edges at interpolated zero crossings) -> RMS,
+ *   THD (window-thd.ts) and optionally each harmonic order of every channel, gapless; 150/180-cycle and
+ *   10-min aggregates (row-group.ts). Without a wall clock the
  *   10-min ticks count from the recording start; at each tick the 10/12-cycle series restarts at the
  *   first cycle after the tick (the window holding the tick completes and overlaps), and the 150/180-cycle
  *   group is cut there;
  * - power frequency per 10 s: whole measured cycles inside the interval / their duration.
- * Aggregates overlapping an event are flagged (REFERENCE §3.5).
+ * Aggregates overlapping an event are flagged (REFERENCE §3.5). One declared voltage serves every voltage
+ * channel: give line-to-neutral channels of one system (a line-to-line channel would read as a swell).
+ * Memory: rings (channels × 2^k ≥ 0.5 s + 4096 samples) plus the rows kept (`keep`) and the events.
  *
  * Ref: IEC 61000-4-30:2015, 4.4-4.7, 5.1, 5.4 (from memory); REFERENCE §3.2-3.5.
  */
