@@ -79,6 +79,15 @@ describe('parseCsv errors', () => {
 		expect([e.code, e.line, e.column]).toEqual(['short-row', 3, 4]);
 	});
 
+	it('parseCsv(UTF-16 text without a byte order mark) says so in the binary-as-text error', () => {
+		const text = 't,U1\n0,1\n1,2\n';
+		const bytes = new Uint8Array(text.length * 2);
+		for (let i = 0; i < text.length; i++) bytes[2 * i] = text.charCodeAt(i);
+		const e = errorOf(() => parseCsv(bytes, 'a.csv'));
+		expect([e.code, e.line, e.column]).toEqual(['binary-as-text', 0, 2]);
+		expect(e.expected).toMatch(/UTF-16/);
+	});
+
 	it('ImportError message names file, line, column, code and the offending text', () => {
 		const e = errorOf(() => parseCsv(fixture('bad-number.csv'), 'bad-number.csv'));
 		expect(e.message).toBe('bad-number.csv:4:8: bad-number: expected a number, got "2.7 V"');

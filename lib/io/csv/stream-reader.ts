@@ -182,7 +182,12 @@ function checkNotBinary(head: Uint8Array, source: string): void {
 	let control = 0;
 	for (let i = 0; i < n; i++) {
 		const b = head[i];
-		if (b === 0) throw binaryError(source, head, i, 'a text file (found a NUL byte: this looks like a binary file)');
+		if (b === 0) {
+			let zeros = 0;
+			for (let j = i & 1; j < Math.min(n, 256); j += 2) if (head[j] === 0) zeros++;
+			const utf16 = zeros * 2 >= Math.min(n, 256) - 2;
+			throw binaryError(source, head, i, utf16 ? 'UTF-8 text (this looks like UTF-16 text without a byte order mark: save it as UTF-8)' : 'a text file (found a NUL byte: this looks like a binary file)');
+		}
 		if ((b < 9 || (b > 13 && b < 32 && b !== 26) || b === 127) && ++control > Math.max(4, n / 100))
 			throw binaryError(source, head, i, 'a text file (found many control bytes: this looks like a binary file)');
 	}
