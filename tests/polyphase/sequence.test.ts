@@ -170,3 +170,24 @@ describe('unbalance with phase labels in negative rotation', () => {
 		expect(c.measuredRotation).toBe('negative');
 	});
 });
+
+describe('edge cases: zero and NaN input', () => {
+	const z = { re: 0, im: 0 };
+	it('voltageUnbalance of an all-zero set gives NaN ratios, not 0 % or a throw', () => {
+		const u = voltageUnbalance(z, z, z);
+		expect(u.vufPercent).toBeNaN();
+		expect(u.pvurPercent).toBeNaN();
+		expect(u.lvurPercent).toBeNaN();
+	});
+	it('lineMagnitudeUnbalance(0, 0, 0) gives NaN β, VUF and LVUR', () => {
+		const u = lineMagnitudeUnbalance(0, 0, 0);
+		expect(u.betaRatio).toBeNaN();
+		expect(u.vufPercent).toBeNaN();
+		expect(u.lvurPercent).toBeNaN();
+	});
+	it('a NaN phasor propagates to NaN sequence components and an undetermined rotation', () => {
+		const n = { re: NaN, im: 0 };
+		expect(symmetricalComponents(n, P(1, -120), P(1, 120)).positiveRms).toBeNaN();
+		expect(phaseRotation(n, P(1, -120), P(1, 120)).rotation).toBe('undetermined');
+	});
+});

@@ -62,3 +62,13 @@ describe('crossCorrelationLag', () => {
 		expect(() => crossCorrelationLag(x, x, 0, { startIndex: 0, endIndex: 200, cycles: 1 })).toThrow(RangeError);
 	});
 });
+
+describe('crossCorrelationLag edge cases', () => {
+	it('throws RangeError for empty arrays (no window fits) and returns NaN when a sample is NaN', () => {
+		expect(() => crossCorrelationLag(new Float64Array(0), new Float64Array(0), 10_000, { startIndex: 0, endIndex: 1, cycles: 1 })).toThrow(RangeError);
+		const ref = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, samples: 2600 });
+		const other = ref.slice();
+		other[1000] = NaN;
+		expect(crossCorrelationLag(ref, other, 10_000, { startIndex: 200, endIndex: 2200, cycles: 10 }).lagS).toBeNaN();
+	});
+});
