@@ -92,4 +92,14 @@ describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
 			}
 		});
 	}
+
+	it('trend incomer-dip.cfg (wired as sinecheck trend) reports the dip on Ub: residual 55 % of 230 V, 0.12 s within one cycle (ground truth; IEC 61000-4-30 duration uncertainty, REFERENCE.md 3.4)', () => {
+		const r = spawnSync(process.execPath, [main, 'trend', join('sample-waves', 'incomer-dip.cfg')], { cwd: root, encoding: 'utf8', timeout: 120_000 });
+		expect(r.status, r.stderr).toBe(0);
+		expect(r.stdout.split('\n')[0]).toMatch(/^interval,start_s/);
+		const m = /dip on Ub at [-\d.]+ s for ([\d.]+) s, residual ([\d.]+) V/.exec(r.stderr);
+		expect(m, r.stderr).not.toBeNull();
+		expect(Math.abs(Number(m![1]) - 0.12)).toBeLessThanOrEqual(0.02 + 1e-9);
+		expect(Math.abs(Number(m![2]) - 126.525)).toBeLessThan(0.5);
+	});
 });
