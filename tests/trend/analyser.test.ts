@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { createTrendAnalyser, type TrendOptions, type TrendResult } from '../../lib/trend/index.js';
-import { harmonicSamples } from '../helpers/synth.js';
+import { addSignals, gaussianNoise, harmonicSamples } from '../helpers/synth.js';
 import { makeChannels, type ChannelSpec } from './signals.js';
 
 const V3 = ['L1', 'L2', 'L3'].map((name) => ({ name, quantity: 'voltage' as const, unit: 'V' }));
@@ -343,6 +343,32 @@ describe('createTrendAnalyser: streaming', () => {
 		expect(r.cycles10).toEqual([]);
 		expect(r.events).toEqual([]);
 		expect(r.diagnostics.some((d) => d.code === 'no-zero-crossings')).toBe(true);
+	});
+});
+
+describe('createTrendAnalyser: distorted, noisy supply', () => {
+	it('230 V with 5 % 5th, 3 % 7th and 2 V rms noise: no event, and each 10-cycle RMS is √(230² + 11.5² + 6.9² + 2²) within 0.1 %', () => {
+		const fs = 10_000;
+		const clean = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 5, rms: 11.5, phaseDeg: 180 },
+				{ order: 7, rms: 6.9, phaseDeg: 30 },
+			],
+			{ frequencyHz: 50.02, sampleRateHz: fs, samples: 3 * fs },
+		);
+		const x = addSignals(clean, gaussianNoise(clean.length, 2, 7));
+		const halves: number[] = [];
+		const r = run([x], { sampleRateHz: fs, declaredV: 230, nominalHz: 50, onHalfCycle: (_c, _t, v) => halves.push(v) });
+		expect(r.events).toEqual([]);
+		const expected = Math.sqrt(230 ** 2 + 11.5 ** 2 + 6.9 ** 2 + 2 ** 2); // RMS of a sum of orthogonal parts
+		expect(r.cycles10.length).toBeGreaterThanOrEqual(13);
+		for (const row of r.cycles10) expect(Math.abs(row.rms[0] / expected - 1)).toBeLessThan(0.001);
+		// Urms(1/2) keeps one value per half cycle: no extra or missing crossings from the noise or the harmonics
+		expect(Math.abs(halves.length - 2 * 50.02 * 3)).toBeLessThanOrEqual(4);
+		for (const v of halves) expect(Math.abs(v / expected - 1)).toBeLessThan(0.003);
+		// THD: √(5² + 3²) = 5.83 %; white noise adds its in-band part, within 0.05 percentage points
+		for (const row of r.cycles10) expect(Math.abs(row.thdPercent[0] - Math.hypot(5, 3))).toBeLessThan(0.05);
 	});
 });
 
