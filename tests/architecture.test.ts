@@ -36,10 +36,19 @@ describe('dependency direction', () => {
 		const offenders: string[] = [];
 		for (const f of libFiles) {
 			const code = readFileSync(f, 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
-			const m = code.match(/\b(document|window|process|Buffer|require)\s*[.(]/);
+			// `window` is a fine local name in signal code (a harmonic window), so only its browser members count.
+			const m = code.match(/\b(document\.\w|process\.\w|Buffer\.\w|require\s*\(|window\.(?:document|location|navigator|localStorage|addEventListener|postMessage)\b|typeof\s+window\b)/);
 			if (m) offenders.push(`${relative('.', f)} uses ${m[1]}`);
 		}
 		expect(offenders).toEqual([]);
+	});
+
+	it('the global check flags browser/Node globals but not a local variable named window', () => {
+		const re = /\b(document\.\w|process\.\w|Buffer\.\w|require\s*\(|window\.(?:document|location|navigator|localStorage|addEventListener|postMessage)\b|typeof\s+window\b)/;
+		expect(re.test('const n = window.startIndex + 1;')).toBe(false);
+		expect(re.test('document.createElement("a")')).toBe(true);
+		expect(re.test('process.exit(1)')).toBe(true);
+		expect(re.test('window.localStorage.getItem("k")')).toBe(true);
 	});
 
 	it('the checker itself catches a forbidden import (guards against a check that cannot fail)', () => {
