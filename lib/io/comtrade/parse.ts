@@ -71,7 +71,8 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 
 	const { sampleRateHz, timeS } = timeBase(cfg, dat.stamps, n, startS, stampS, datSource, diagnostics);
 	if (dat.sampleNumberBreaks > 0) {
-		diagnostics.push({ code: 'comtrade-sample-number-break', severity: 'warning', ...(cfg.fileType === 'ASCII' ? { line: dat.firstBreakRecord + (offsets.line ?? 0) } : {}), message: `Sample numbers do not run on by one at ${dat.firstBreakRecord === 0 ? 'some records' : `record ${dat.firstBreakRecord}`} (${dat.sampleNumberBreaks} place(s)): records may be missing; times follow the ${timeS && !cfg.rates.length ? 'time stamps' : 'sample rate'}.` });
+		const where = cfg.fileType === 'ASCII' ? `record ${dat.firstBreakRecord} (line ${dat.firstBreakRecord + (offsets.line ?? 0)} of ${datSource})` : `record ${dat.firstBreakRecord} of ${datSource}`;
+		diagnostics.push({ code: 'comtrade-sample-number-break', severity: 'warning', message: `Sample numbers do not run on by one from ${where}, ${dat.sampleNumberBreaks} place(s) in all: records may be missing; times follow the ${timeS && !cfg.rates.length ? 'time stamps' : 'sample rate'}.` });
 	}
 	// With a rate as the time base, the record time stamps should tell the same span; say so when they do not.
 	const lastStamp = dat.stamps[n - 1];
@@ -85,8 +86,11 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 
 	const channels = cfg.analog.map((a, c) => scaleChannel(a, dat.raw[c], want, diagnostics));
 	uniqueNames(channels, diagnostics);
-	if (cfg.analog.length > 0) {
-		diagnostics.push({ code: 'comtrade-values', severity: 'info', message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}; each channel's scaling says how.` });
+	const unflagged = cfg.analog.filter((a) => a.ps === undefined).length;
+	if (cfg.analog.length > unflagged) {
+		diagnostics.push({ code: 'comtrade-values', severity: 'info', message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}${unflagged > 0 ? `, except ${unflagged} channel(s) without a P/S flag, kept as recorded` : ''}; each channel's scaling says how.` });
+	} else if (unflagged > 0) {
+		diagnostics.push({ code: 'comtrade-values', severity: 'assumption', message: 'The .cfg gives no P/S flags: analog values are reported as recorded (a·x + b), not known to be primary or secondary.' });
 	}
 	cfg.analog.forEach((a, c) => {
 		if (dat.missing[c] > 0) diagnostics.push({ code: 'comtrade-missing-values', severity: 'warning', line: a.line, message: `Channel ${channels[c].name}: ${dat.missing[c]} of ${n} values are marked missing in the data; they are NaN.` });
