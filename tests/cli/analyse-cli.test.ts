@@ -177,6 +177,18 @@ describe('sinecheck analyse exit codes', () => {
 		}
 	});
 
+	it('no command, an unknown command or analyse without a path exits 2 with a hint', () => {
+		const none = run([]);
+		expect(none.code).toBe(2);
+		expect(none.stdout).toMatch(/Usage/);
+		const unknown = run(['analyze-all', 'x.csv']);
+		expect(unknown.code).toBe(2);
+		expect(unknown.stderr).toMatch(/unknown command "analyze-all"/);
+		const empty = run(['analyse']);
+		expect(empty.code).toBe(2);
+		expect(empty.stderr).toMatch(/name at least one capture file or folder/);
+	});
+
 	it('analyse --ref with a channel the file does not have exits 2 naming the channel', () => {
 		const r = run(['analyse', 'feeder.csv', '--ref', 'U9']);
 		expect(r.code).toBe(2);
