@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { decimateMinMax, indexAtOrAfter, makeDecimationBuffers, timeAt } from '../../src/ui/charts/decimate.js';
+import { buildMinMaxBlocks, decimateMinMax, indexAtOrAfter, makeDecimationBuffers, timeAt } from '../../src/ui/charts/decimate.js';
 import { sineSamples } from '../helpers/synth.js';
 
 const base = (fs: number) => ({ startS: 0, sampleRateHz: fs });
@@ -94,5 +94,41 @@ describe('timeAt / indexAtOrAfter', () => {
 		const b = { startS: 0, sampleRateHz: 1, timeS: new Float64Array([0, 0.5, 0.7, 2, 3]) };
 		expect(indexAtOrAfter(b, 5, 0.6)).toBe(2);
 		expect(indexAtOrAfter(b, 5, 2)).toBe(3);
+	});
+});
+
+describe('buildMinMaxBlocks + decimateMinMax', () => {
+	it('decimateMinMax with block tables gives the same column minima and maxima as reading every sample (invariant)', () => {
+		let seed = 7;
+		const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31) * 2 - 1;
+		const x = Float64Array.from({ length: 300_017 }, rand);
+		x[123_456] = NaN;
+		const blocks = [buildMinMaxBlocks(x, 64)];
+		for (const [i0, i1, cols] of [
+			[0, x.length, 500],
+			[1234, 250_000, 333],
+			[99_999, 100_000 + 64 * 9, 2],
+		] as const) {
+			const a = makeDecimationBuffers(1, cols);
+			const b = makeDecimationBuffers(1, cols);
+			const ra = decimateMinMax([x], base(1), i0, i1, cols, a);
+			const rb = decimateMinMax([x], base(1), i0, i1, cols, b, blocks);
+			expect(rb.count).toBe(ra.count);
+			for (let c = 0; c < ra.count; c += 2) {
+				expect(Math.min(b.ys[0][c], b.ys[0][c + 1])).toBe(Math.min(a.ys[0][c], a.ys[0][c + 1]));
+				expect(Math.max(b.ys[0][c], b.ys[0][c + 1])).toBe(Math.max(a.ys[0][c], a.ys[0][c + 1]));
+			}
+		}
+	});
+
+	it('buildMinMaxBlocks of a sine with 64-sample blocks holds the extremes of each block', () => {
+		const x = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 6400, cycles: 3 }); // 128 samples per cycle
+		const b = buildMinMaxBlocks(x, 64);
+		expect(b.mins.length).toBe(6);
+		// first half-cycle (samples 0..63) rises to the crest: max sin(2π·32/128) = 1, min sin(0) = 0
+		expect(b.maxs[0]).toBeCloseTo(1, 12);
+		expect(b.mins[0]).toBeCloseTo(0, 12);
+		expect(b.minFirst[0]).toBe(1);
+		expect(() => buildMinMaxBlocks(x, 1)).toThrow(RangeError);
 	});
 });

@@ -38,6 +38,53 @@ export function indexAtOrAfter(base: TimeBase, n: number, tS: number): number {
 	return lo;
 }
 
+/**
+ * Per-block minima and maxima of one channel (block = a fixed run of samples), so a column spanning many
+ * blocks reads one value pair per block instead of every sample: at 1e7 samples and blocks of 64, a view of
+ * the whole record reads 156 250 pairs per channel instead of 10 million samples.
+ */
+export interface MinMaxBlocks {
+	block: number;
+	mins: Float64Array;
+	maxs: Float64Array;
+	/** 1 when the block's minimum comes before its maximum (keeps the drawn order of the extremes). */
+	minFirst: Uint8Array;
+}
+
+/**
+ * Block minima and maxima of `samples` (NaN skipped; an all-NaN block has min +∞ and max −∞).
+ * @param block  samples per block, an integer >= 2 (RangeError otherwise)
+ */
+export function buildMinMaxBlocks(samples: Float64Array, block = 64): MinMaxBlocks {
+	if (!Number.isInteger(block) || block < 2) throw new RangeError(`block must be an integer >= 2, got ${block}`);
+	const count = Math.floor(samples.length / block);
+	const mins = new Float64Array(count);
+	const maxs = new Float64Array(count);
+	const minFirst = new Uint8Array(count);
+	for (let j = 0; j < count; j++) {
+		let lo = Infinity;
+		let hi = -Infinity;
+		let iLo = 0;
+		let iHi = 0;
+		const s = j * block;
+		for (let i = s; i < s + block; i++) {
+			const v = samples[i];
+			if (v < lo) {
+				lo = v;
+				iLo = i;
+			}
+			if (v > hi) {
+				hi = v;
+				iHi = i;
+			}
+		}
+		mins[j] = lo;
+		maxs[j] = hi;
+		minFirst[j] = iLo <= iHi ? 1 : 0;
+	}
+	return { block, mins, maxs, minFirst };
+}
+
 /** Output buffers for `decimateMinMax`: x and one y buffer per channel, each of length >= 2 · maxColumns + 2. */
 export interface DecimationBuffers {
 	x: Float64Array;
@@ -59,6 +106,8 @@ export function makeDecimationBuffers(channelCount: number, maxColumns: number):
  * @param i1        last sample index (exclusive); clamped to the length
  * @param columns   pixel columns available (>= 1); RangeError otherwise
  * @param out       buffers from `makeDecimationBuffers` with room for 2 · columns points
+ * @param blocks    optional `buildMinMaxBlocks` of each channel: columns spanning four blocks or more read the
+ *   block extremes for their whole blocks (same values, far fewer reads)
  * @returns number of points written to out.x and each out.ys[k]; `full` is true when samples were copied
  *   one for one (no decimation)
  * @example 10 s of 50 Hz at 1 MS/s (1e7 samples) on 1000 columns → 2000 points, each column's pair the
@@ -71,6 +120,7 @@ export function decimateMinMax(
 	i1: number,
 	columns: number,
 	out: DecimationBuffers,
+	blocks?: readonly (MinMaxBlocks | undefined)[],
 ): { count: number; full: boolean } {
 	if (!(columns >= 1) || !Number.isFinite(columns)) throw new RangeError(`columns must be >= 1, got ${columns}`);
 	const cols = Math.floor(columns);
@@ -100,7 +150,12 @@ export function decimateMinMax(
 			let hi = -Infinity;
 			let iLo = s;
 			let iHi = s;
-			for (let i = s; i < e; i++) {
+			const bl = blocks?.[k];
+			// whole blocks inside [s, e) come from the block table; the ragged ends from the samples
+			const b0 = bl && e - s >= 4 * bl.block ? Math.ceil(s / bl.block) : 0;
+			const b1 = bl && e - s >= 4 * bl.block ? Math.min(bl.mins.length, Math.floor(e / bl.block)) : 0;
+			const rawEnd = b1 > b0 ? b0 * bl!.block : e;
+			for (let i = s; i < rawEnd; i++) {
 				const v = src[i];
 				// NaN compares false both ways and is skipped, so a gap does not hide the samples around it
 				if (v < lo) {
@@ -110,6 +165,30 @@ export function decimateMinMax(
 				if (v > hi) {
 					hi = v;
 					iHi = i;
+				}
+			}
+			if (b1 > b0) {
+				const B = bl!.block;
+				for (let j = b0; j < b1; j++) {
+					if (bl!.mins[j] < lo) {
+						lo = bl!.mins[j];
+						iLo = j * B + (bl!.minFirst[j] ? 0 : B - 1);
+					}
+					if (bl!.maxs[j] > hi) {
+						hi = bl!.maxs[j];
+						iHi = j * B + (bl!.minFirst[j] ? B - 1 : 0);
+					}
+				}
+				for (let i = b1 * B; i < e; i++) {
+					const v = src[i];
+					if (v < lo) {
+						lo = v;
+						iLo = i;
+					}
+					if (v > hi) {
+						hi = v;
+						iHi = i;
+					}
 				}
 			}
 			const dst = out.ys[k];

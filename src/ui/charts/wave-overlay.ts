@@ -86,6 +86,19 @@ export function drawOverlay(u: uPlot, items: readonly OverlayItem[]): void {
 	ctx.font = `${11 * pr}px system-ui, sans-serif`;
 	ctx.textBaseline = 'middle';
 	const labelsAtRight: { yPx: number; text: string; colour: string }[] = [];
+	// peak labels are moved down or up a line at a time until they do not overprint one another
+	const placed: { x0: number; x1: number; y0: number; y1: number }[] = [];
+	const place = (x: number, y: number, w: number, h: number): number => {
+		for (const dy of [0, 1, -1, 2, -2, 3, -3]) {
+			const y0 = y + dy * h - h / 2;
+			const clash = placed.some((r) => x < r.x1 && x + w > r.x0 && y0 < r.y1 && y0 + h > r.y0);
+			if (!clash) {
+				placed.push({ x0: x, x1: x + w, y0, y1: y0 + h });
+				return y + dy * h;
+			}
+		}
+		return y;
+	};
 	for (const it of items) {
 		if (it.kind === 'window') {
 			const a = x(Math.max(it.startS, xMin));
@@ -141,8 +154,12 @@ export function drawOverlay(u: uPlot, items: readonly OverlayItem[]): void {
 			ctx.fill();
 			ctx.stroke();
 			ctx.textAlign = 'left';
+			const w = ctx.measureText(it.label).width;
+			const ly = place(px + 1.4 * s, py + d * 1.2 * s, w, 13 * pr);
+			ctx.fillStyle = 'rgba(255,255,255,0.75)';
+			ctx.fillRect(px + 1.4 * s - 2 * pr, ly - 6.5 * pr, w + 4 * pr, 13 * pr);
 			ctx.fillStyle = it.colour;
-			ctx.fillText(it.label, px + 1.4 * s, py + d * 1.2 * s);
+			ctx.fillText(it.label, px + 1.4 * s, ly);
 		} else if (it.kind === 'lag') {
 			if (u.scales[it.scale] === undefined) continue;
 			const a = x(it.fromS);

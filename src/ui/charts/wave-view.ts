@@ -2,10 +2,13 @@
  * The visible time range of a wave plot and the decimated data for it. Buffers are allocated once per
  * capture and reused on every zoom step. No DOM, no uPlot: the chart component and the bench drive it.
  */
-import { decimateMinMax, indexAtOrAfter, makeDecimationBuffers, timeAt, type DecimationBuffers, type TimeBase } from './decimate.js';
+import { buildMinMaxBlocks, decimateMinMax, indexAtOrAfter, makeDecimationBuffers, timeAt, type DecimationBuffers, type MinMaxBlocks, type TimeBase } from './decimate.js';
 
 /** Largest plot width in device pixels the buffers are sized for. */
 export const MAX_COLUMNS = 8192;
+/** Records longer than this get block min/max tables (built once, on the first wide view). */
+export const BLOCKS_FROM_SAMPLES = 1 << 18;
+const BLOCK = 64;
 
 export class WaveView {
 	readonly n: number;
@@ -14,6 +17,7 @@ export class WaveView {
 	minS: number;
 	maxS: number;
 	#buf: DecimationBuffers;
+	#blocks: MinMaxBlocks[] | undefined;
 	/** True when the last `data` call copied samples one for one (no decimation). */
 	fullDetail = false;
 
@@ -87,7 +91,11 @@ export class WaveView {
 		const cols = Math.max(1, Math.min(MAX_COLUMNS, Math.floor(columns)));
 		const i0 = Math.max(0, indexAtOrAfter(this.base, this.n, this.minS) - 1);
 		const i1 = Math.min(this.n, indexAtOrAfter(this.base, this.n, this.maxS) + 1);
-		const r = decimateMinMax(this.channels, this.base, i0, i1, cols, this.#buf);
+		// block tables pay off only when a column spans several blocks; build them the first time one does
+		if (!this.#blocks && this.n >= BLOCKS_FROM_SAMPLES && (i1 - i0) / cols >= 4 * BLOCK) {
+			this.#blocks = this.channels.map((c) => buildMinMaxBlocks(c, BLOCK));
+		}
+		const r = decimateMinMax(this.channels, this.base, i0, i1, cols, this.#buf, this.#blocks);
 		this.fullDetail = r.full;
 		return [this.#buf.x.subarray(0, r.count), ...this.#buf.ys.map((y) => y.subarray(0, r.count))];
 	}
