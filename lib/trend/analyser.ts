@@ -25,6 +25,7 @@ import { CrossingTracker, type CrossingSink } from './crossing-tracker.js';
 import { declaredVoltageFromRms } from './declared-voltage.js';
 import { EventDetector } from './event-detector.js';
 import { RowGroup } from './row-group.js';
+import { RvcDetector } from './rvc-detector.js';
 import { TREND_MAX_ORDER, WindowThd } from './window-thd.js';
 import type { TrendEvent, TrendFrequencyRow, TrendOptions, TrendResult, TrendRow, TrendThresholds } from './types.js';
 
@@ -113,6 +114,12 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	let nominalHz: number | undefined = opts.nominalHz;
 	let declaredV = opts.declaredV ?? NaN;
 	let detector: EventDetector | undefined;
+	let rvc: RvcDetector | undefined;
+	if (opts.rvc) {
+		const t = opts.rvc.thresholdPercent;
+		const hy = opts.rvc.hysteresisPercent ?? t / 2;
+		if (!(t > 0 && hy >= 0 && hy < t)) throw new RangeError(`rvc needs thresholdPercent > 0 and 0 <= hysteresisPercent < thresholdPercent, got ${t} and ${hy}`);
+	}
 	let detectEvents = voltage.length > 0;
 	const inferenceEnd = Math.round((opts.inferenceS ?? 1) * fs);
 	let abs = 0;
@@ -275,6 +282,11 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 			return;
 		}
 		const u = declaredV / 100;
+		if (opts.rvc) {
+			const t = opts.rvc.thresholdPercent;
+			const hy = opts.rvc.hysteresisPercent ?? t / 2;
+			rvc = new RvcDetector(voltage.length, (nominalHz ?? 50) === 60 ? 120 : 100, t * u, (t - hy) * u, th.dipPercent * u, th.swellPercent * u);
+		}
 		detector = new EventDetector(voltage.length, {
 			dipV: th.dipPercent * u,
 			dipEndV: (th.dipPercent + th.hysteresisPercent) * u,
@@ -357,7 +369,10 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		const d = detector!;
 		while (k < records.length && records[k].start <= pos) {
 			const r = records[k++];
-			if (detectEvents) d.update(r.ch, r.start, r.rms);
+			if (detectEvents) {
+				d.update(r.ch, r.start, r.rms);
+				rvc?.update(r.ch, r.start, r.rms);
+			}
 		}
 		records = k === records.length ? [] : records.slice(k);
 		finalize(pos);
@@ -421,6 +436,19 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				else ev.residualV = e.extremeV;
 				return ev;
 			});
+			for (const e of rvc?.events ?? []) {
+				events.push({
+					kind: 'rvc',
+					channels: [...e.channels].sort((a, b) => a - b).map((k) => channels[voltage[k]].name),
+					startS: e.start / fs,
+					durationS: (e.end - e.start) / fs,
+					deltaUmaxV: e.deltaUmaxV,
+					deltaUssV: e.deltaUssV,
+					percentOfDeclared: (100 * e.deltaUmaxV) / declaredV,
+					ended: true,
+				});
+			}
+			events.sort((a, b) => a.startS - b.startS);
 			return {
 				sampleRateHz: fs,
 				nominalHz,

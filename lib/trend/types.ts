@@ -34,6 +34,11 @@ export interface TrendOptions {
 	/** Where the declared voltage came from, for the report (e.g. '12.47 kV system, line-to-neutral'). */
 	declaredVNote?: string;
 	thresholds?: Partial<TrendThresholds>;
+	/**
+	 * Detect rapid voltage changes (IEC 61000-4-30 5.11) with this threshold, % of Udin (1-6 % is usual;
+	 * 3.3-6 % for LV), and hysteresis (default half the threshold). Off when absent.
+	 */
+	rvc?: { thresholdPercent: number; hysteresisPercent?: number };
 	/** Index of the channel whose zero crossings time the 10/12-cycle windows and frequency. Default: first voltage channel, else 0. */
 	referenceChannel?: number;
 	/** Seconds of the recording's start used to infer the declared voltage when none is given. Default 1. */
@@ -108,7 +113,8 @@ export interface TrendFrequencyRow {
 	flagged: boolean;
 }
 
-export type TrendEventKind = 'dip' | 'swell' | 'interruption';
+/** 'rvc' (rapid voltage change) only when the `rvc` option is given. */
+export type TrendEventKind = 'dip' | 'swell' | 'interruption' | 'rvc';
 
 export interface TrendEvent {
 	kind: TrendEventKind;
@@ -120,7 +126,11 @@ export interface TrendEvent {
 	residualV?: number;
 	/** Swells: highest Urms(1/2) on any channel during the event, V. */
 	maximumV?: number;
-	/** residualV or maximumV in % of the declared voltage. */
+	/** Rapid voltage changes: largest |Urms(1/2) − mean of the 100/120 values before| on any channel, V. */
+	deltaUmaxV?: number;
+	/** Rapid voltage changes: largest |steady mean after − steady mean before| on any channel, V. */
+	deltaUssV?: number;
+	/** residualV, maximumV or (rvc) deltaUmaxV in % of the declared voltage. */
 	percentOfDeclared: number;
 	/** False when the recording ended during the event (then the duration is a lower bound). */
 	ended: boolean;

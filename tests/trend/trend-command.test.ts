@@ -129,6 +129,7 @@ describe('trendCommand', () => {
 			[[join(dir, 'absent.wav')], {}],
 			[[wavPath], { nominal: 'abc' }],
 			[[wavPath], { interval: '7min' }],
+			[[wavPath], { rvcPercent: '-3' }],
 			[[], {}],
 		] as const) {
 			const out = sink();
@@ -138,7 +139,7 @@ describe('trendCommand', () => {
 			const lines = err.text().trim().split('\n');
 			expect(lines.length).toBe(1);
 			expect(lines[0]).not.toMatch(/\n\s+at /);
-			if (files.length > 0 && !('nominal' in opts) && !('interval' in opts)) expect(lines[0]).toContain(files[0]);
+			if (files.length > 0 && Object.keys(opts).length === 0) expect(lines[0]).toContain(files[0]);
 		}
 	});
 

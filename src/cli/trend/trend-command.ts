@@ -23,6 +23,8 @@ export interface TrendCommandOptions {
 	swellPercent?: number | string;
 	interruptionPercent?: number | string;
 	hysteresisPercent?: number | string;
+	/** Also detect rapid voltage changes with this threshold, % of the declared voltage (hysteresis half of it). */
+	rvcPercent?: number | string;
 	/** false skips the harmonic analysis (THD columns empty). Default true. */
 	thd?: boolean;
 	/** Also each harmonic order 2-50 per channel (% of the fundamental): JSON `harmonicsPercent`, CSV columns `<name> H<n> (%)`. */
@@ -65,10 +67,11 @@ function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSetting
 	if (swell !== undefined) thresholds.swellPercent = swell;
 	if (intr !== undefined) thresholds.interruptionPercent = intr;
 	if (hyst !== undefined) thresholds.hysteresisPercent = hyst;
+	const rvcPercent = num('rvc-percent', options.rvcPercent, (x) => x > 0 && x < 100, 'a rapid-voltage-change threshold in % of the declared voltage (e.g. 3)');
 	const interval = INTERVALS[options.interval ?? '10/12-cycle'];
 	if (!interval) throw new TrendUsageError(`--interval ${options.interval}: expected one of ${Object.keys(INTERVALS).join(', ')}`);
 	return {
-		settings: { declaredV, nominalHz: hz as 50 | 60 | undefined, thresholds, thd: options.thd !== false, harmonics: options.harmonics === true && options.thd !== false },
+		settings: { declaredV, nominalHz: hz as 50 | 60 | undefined, thresholds, rvc: rvcPercent === undefined ? undefined : { thresholdPercent: rvcPercent }, thd: options.thd !== false, harmonics: options.harmonics === true && options.thd !== false },
 		interval,
 	};
 }

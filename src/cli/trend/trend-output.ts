@@ -44,9 +44,14 @@ export function csvRow(row: TrendRow, file?: string): string {
 	return `${cols.join(',')}\n`;
 }
 
-/** One line for stderr: 'dip on L2 at 0.5057 s for 0.0600 s, residual 161.0 V (70.0 % of 230 V)'. */
+/** One line for stderr: 'dip on L2 at 0.5057 s for 0.0600 s, residual 161.0 V (70.0 % of 230 V)'; 'rvc' is a rapid voltage change. */
 export function eventLine(e: TrendEvent, declaredV: number): string {
-	const what = e.kind === 'swell' ? `maximum ${e.maximumV!.toFixed(1)} V` : `residual ${e.residualV!.toFixed(1)} V`;
+	const what =
+		e.kind === 'rvc'
+			? `largest change ${e.deltaUmaxV!.toFixed(1)} V, step between steady states ${e.deltaUssV!.toFixed(1)} V`
+			: e.kind === 'swell'
+				? `maximum ${e.maximumV!.toFixed(1)} V`
+				: `residual ${e.residualV!.toFixed(1)} V`;
 	const open = e.ended ? '' : ' (still going at the end of the recording)';
 	return `${e.kind} on ${e.channels.join(', ')} at ${e.startS.toFixed(4)} s for ${e.durationS.toFixed(4)} s${open}, ${what} (${e.percentOfDeclared.toFixed(1)} % of ${declaredV} V)`;
 }
