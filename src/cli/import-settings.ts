@@ -22,10 +22,14 @@ export function importOptionsFrom(s: ImportSettings): OpenOptions {
 		if (s.quantity[name] !== undefined) o.quantity = s.quantity[name];
 		channels[name] = o;
 	}
-	const csv: OpenOptions['csv'] = {};
+	const csv: NonNullable<OpenOptions['csv']> = {};
 	if (s.sampleRateHz !== undefined) csv.sampleRateHz = s.sampleRateHz;
 	if (names.size > 0) csv.channels = channels;
-	return { csv };
+	if (s.delimiter !== undefined) csv.delimiter = s.delimiter;
+	if (s.decimalMark !== undefined) csv.decimalMark = s.decimalMark;
+	if (s.timeColumn !== undefined) csv.timeColumn = s.timeColumn;
+	if (s.timeUnit !== undefined) csv.timeUnit = s.timeUnit;
+	return { csv, ...(s.comtradeValues ? { comtrade: { values: s.comtradeValues } } : {}) };
 }
 
 function readByCsv(source: string): boolean {

@@ -15,7 +15,17 @@ export interface ImportSettings {
 	unit: Record<string, string>;
 	/** channel name -> quantity. */
 	quantity: Record<string, 'voltage' | 'current' | 'other'>;
+	/** CSV layout overrides (every detection of the CSV reader can be overridden). */
+	delimiter?: ',' | ';' | '\t' | ' ';
+	decimalMark?: '.' | ',';
+	/** 0-based index of the time column, or 'none'. */
+	timeColumn?: number | 'none';
+	timeUnit?: 's' | 'ms' | 'us' | 'ns' | 'index';
+	/** COMTRADE: primary (network side, default) or secondary (what the recorder saw) values. */
+	comtradeValues?: 'primary' | 'secondary';
 }
+
+const DELIMITERS: Record<string, ',' | ';' | '\t' | ' '> = { comma: ',', ',': ',', semicolon: ';', ';': ';', tab: '\t', space: ' ' };
 
 export interface CommandSettings {
 	analysis: AnalysisOptions;
@@ -100,6 +110,29 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 		settings.scale[channel] = f;
 	}
 	for (const [channel, unit] of assignments('unit', raw.unit, 'unit')) settings.unit[channel] = unit;
+	const delimiter = last('delimiter', raw.delimiter);
+	if (delimiter !== undefined) {
+		if (!(delimiter in DELIMITERS)) throw new UsageError(`--delimiter ${delimiter}: expected comma, semicolon, tab or space`);
+		settings.delimiter = DELIMITERS[delimiter];
+	}
+	const decimal = last('decimal', raw.decimal);
+	if (decimal !== undefined) {
+		if (decimal !== 'point' && decimal !== 'comma') throw new UsageError(`--decimal ${decimal}: expected point or comma`);
+		settings.decimalMark = decimal === 'point' ? '.' : ',';
+	}
+	const timeColumn = last('time-column', raw.timeColumn);
+	if (timeColumn !== undefined) {
+		const n = Number(timeColumn);
+		if (timeColumn === 'none') settings.timeColumn = 'none';
+		else if (Number.isInteger(n) && n >= 1) settings.timeColumn = n - 1;
+		else throw new UsageError(`--time-column ${timeColumn}: expected a column number from 1, or none`);
+	}
+	const timeUnit = last('time-unit', raw.timeUnit);
+	if (timeUnit !== undefined) {
+		if (!['s', 'ms', 'us', 'ns', 'index'].includes(timeUnit)) throw new UsageError(`--time-unit ${timeUnit}: expected s, ms, us, ns or index`);
+		settings.timeUnit = timeUnit as ImportSettings['timeUnit'];
+	}
+	if (raw.secondary === true) settings.comtradeValues = 'secondary';
 	for (const [channel, q] of assignments('quantity', raw.quantity, 'quantity')) {
 		if (q !== 'voltage' && q !== 'current' && q !== 'other') throw new UsageError(`--quantity ${channel}=${q}: expected voltage, current or other`);
 		settings.quantity[channel] = q;

@@ -24,6 +24,12 @@ describe('settingsFromOptions', () => {
 		expect(s.import).toEqual({ sampleRateHz: 10000, scale: { U1: 100, I1: 0.5 }, unit: { I1: 'A' }, quantity: { CH3: 'current' } });
 	});
 
+	it('settingsFromOptions(raw) maps the CSV layout and COMTRADE overrides', () => {
+		const s = settingsFromOptions({ delimiter: 'semicolon', decimal: 'comma', timeColumn: 1, timeUnit: 'ms', secondary: true });
+		expect(s.import).toMatchObject({ delimiter: ';', decimalMark: ',', timeColumn: 0, timeUnit: 'ms', comtradeValues: 'secondary' });
+		expect(settingsFromOptions({ timeColumn: 'none' }).import.timeColumn).toBe('none');
+	});
+
 	it('settingsFromOptions(raw) takes a numeric channel name as text', () => {
 		expect(settingsFromOptions({ ref: 2 }).analysis.refChannel).toBe('2');
 	});
@@ -39,6 +45,8 @@ describe('settingsFromOptions', () => {
 		[{ nominalHz: 55 }, /expected 50 or 60/],
 		[{ limits: 'en50160', iscIl: 20 }, /apply to --limits ieee519 only/],
 		[{ ref: true }, /--ref needs a value/],
+		[{ delimiter: 'pipe' }, /--delimiter pipe: expected comma, semicolon, tab or space/],
+		[{ timeColumn: 0 }, /--time-column 0: expected a column number from 1/],
 	])('settingsFromOptions(%o) throws a UsageError naming the option', (raw, message) => {
 		expect(() => settingsFromOptions(raw)).toThrow(UsageError);
 		expect(() => settingsFromOptions(raw)).toThrow(message);
