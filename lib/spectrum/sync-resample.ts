@@ -40,14 +40,8 @@ function besselI0(x: number): number {
 	return sum;
 }
 
-interface Kernel {
-	/** (value, slope) pairs of h(q/TABLE_PHASES + r), index 2·(q·W + r). */
-	tab: Float64Array;
-	/** Sum of all 2W weights at fraction f = q/TABLE_PHASES, (value, slope) pairs: renormalises the output so DC is exact. */
-	sums: Float64Array;
-}
-
-const kernels = new Map<number, Kernel>();
+/** Per half-width W: for each fractional phase q, the 2W tap weights in sample order as (value, slope) pairs, index 2·(q·2W + j). */
+const kernels = new Map<number, Float64Array>();
 
 /**
  * Kaiser-windowed sinc of half-width W on |d| ∈ [0, W], sampled at 1/TABLE_PHASES and stored as
@@ -56,7 +50,7 @@ const kernels = new Map<number, Kernel>();
  * Ref: J. F. Kaiser, "Nonrecursive digital filter design using the I0-sinh window function",
  * Proc. IEEE ISCAS 1974 (from memory); windowed-sinc interpolation is textbook (e.g. Oppenheim & Schafer).
  */
-function kernel(w: number): Kernel {
+function kernel(w: number): Float64Array {
 	const cached = kernels.get(w);
 	if (cached) return cached;
 	const size = w * TABLE_PHASES + 2;
@@ -69,36 +63,39 @@ function kernel(w: number): Kernel {
 		const r = d / w;
 		t[q] = (sinc * besselI0(KAISER_BETA * Math.sqrt(1 - r * r))) / i0b;
 	}
-	// phase-major layout: the W taps of one fractional phase sit together (two cache lines per side for
-	// W = 8), where a distance-major table would cost one cache miss per tap
-	const vs = new Float64Array(2 * (TABLE_PHASES + 1) * w);
-	for (let q = 0; q <= TABLE_PHASES; q++) {
-		for (let r = 0; r < w; r++) {
-			const d = q + r * TABLE_PHASES;
-			vs[2 * (q * w + r)] = t[d];
-			vs[2 * (q * w + r) + 1] = t[d + 1] - t[d];
-		}
-	}
-	const sumsAt = new Float64Array(TABLE_PHASES + 1);
-	for (let q = 0; q <= TABLE_PHASES; q++) {
+	// Row q (fraction f = q/P) holds the 2W weights in sample order, i0 − W + 1 … i0 + W, as (value, slope)
+	// pairs that both interpolate with the same fraction wa = qa − q: one contiguous row per output point.
+	// Each row is normalised to sum 1, so every interpolated weight set sums to 1 and DC passes exactly.
+	const rowAt = (q: number): Float64Array => {
+		const r = new Float64Array(2 * w);
 		let sum = 0;
-		for (let r = 0; r < w; r++) sum += t[q + r * TABLE_PHASES] + t[TABLE_PHASES - q + r * TABLE_PHASES];
-		sumsAt[q] = sum;
+		for (let j = 0; j < 2 * w; j++) {
+			// left taps at distance f + (W − 1 − j), right taps at distance (1 − f) + (j − W)
+			r[j] = j < w ? t[q + (w - 1 - j) * TABLE_PHASES] : t[TABLE_PHASES - q + (j - w) * TABLE_PHASES];
+			sum += r[j];
+		}
+		for (let j = 0; j < 2 * w; j++) r[j] /= sum;
+		return r;
+	};
+	const vs = new Float64Array(4 * w * TABLE_PHASES);
+	let cur = rowAt(0);
+	for (let q = 0; q < TABLE_PHASES; q++) {
+		const next = rowAt(q + 1);
+		for (let j = 0; j < 2 * w; j++) {
+			vs[2 * (q * 2 * w + j)] = cur[j];
+			vs[2 * (q * 2 * w + j) + 1] = next[j] - cur[j];
+		}
+		cur = next;
 	}
-	const sums = new Float64Array(2 * (TABLE_PHASES + 1));
-	for (let q = 0; q <= TABLE_PHASES; q++) {
-		sums[2 * q] = sumsAt[q];
-		sums[2 * q + 1] = q < TABLE_PHASES ? sumsAt[q + 1] - sumsAt[q] : 0;
-	}
-	const k = { tab: vs, sums };
-	kernels.set(w, k);
-	return k;
+	kernels.set(w, vs);
+	return vs;
 }
 
 /**
  * out[m] = x(start + m·L/M), m = 0 … M−1, with x(t) the band-limited interpolation of `samples`:
  * a Kaiser-windowed sinc designed for 110 dB, its half-width chosen from `passbandRatio` by
- * syncResampleHalfTaps, weights renormalised to sum 1 so DC is exact. Where the kernel reaches past the
+ * syncResampleHalfTaps, tabulated at 1024 phases per sample with each phase normalised to sum 1 (so DC
+ * passes exactly). Where the kernel reaches past the
  * ends of the capture, the missing sample is taken one window length away (x(t ± L), linear between its
  * neighbours): the window holds whole cycles, so this is the signal's own continuation.
  *
@@ -117,35 +114,30 @@ export function syncResample(samples: Float64Array, start: number, lengthSamples
 	const n = samples.length;
 	const m = out.length;
 	const w = syncResampleHalfTaps(passbandRatio);
-	const { tab, sums } = kernel(w);
+	const tab = kernel(w);
 	const step = lengthSamples / m;
 	for (let i = 0; i < m; i++) {
 		const t = start + i * step;
 		const i0 = Math.floor(t);
 		const f = t - i0;
-		// Both tap runs have a constant fractional table position: left taps at distances f + r,
-		// right taps at (1 − f) + r, r = 0 … W−1, so each run needs one interpolation weight only.
 		const qa = f * TABLE_PHASES;
 		const qa0 = Math.floor(qa);
 		const wa = qa - qa0;
-		const qb = (1 - f) * TABLE_PHASES;
-		const qb0 = Math.floor(qb);
-		const wb = qb - qb0;
+		const base = i0 - w + 1;
 		let acc = 0;
-		if (i0 - w + 1 >= 0 && i0 + w < n) {
-			for (let r = 0, pa = 2 * qa0 * w, pb = 2 * qb0 * w; r < w; r++, pa += 2, pb += 2) {
-				acc += (tab[pa] + wa * tab[pa + 1]) * samples[i0 - r] + (tab[pb] + wb * tab[pb + 1]) * samples[i0 + 1 + r];
+		let p = 4 * w * qa0;
+		if (base >= 0 && i0 + w < n) {
+			// two accumulators: the add latency, not the loads, bounds a single-sum loop
+			let acc2 = 0;
+			for (let j = base, end = base + 2 * w; j < end; j += 2, p += 4) {
+				acc += (tab[p] + wa * tab[p + 1]) * samples[j];
+				acc2 += (tab[p + 2] + wa * tab[p + 3]) * samples[j + 1];
 			}
+			acc += acc2;
 		} else {
-			for (let r = 0; r < w; r++) {
-				const pa = 2 * (qa0 * w + r);
-				const pb = 2 * (qb0 * w + r);
-				acc += (tab[pa] + wa * tab[pa + 1]) * sampleOrWrap(samples, i0 - r, lengthSamples);
-				acc += (tab[pb] + wb * tab[pb + 1]) * sampleOrWrap(samples, i0 + 1 + r, lengthSamples);
-			}
+			for (let j = 0; j < 2 * w; j++, p += 2) acc += (tab[p] + wa * tab[p + 1]) * sampleOrWrap(samples, base + j, lengthSamples);
 		}
-		// the weights' sum depends on f only: tabulated, so the renormalisation costs one lookup
-		out[i] = acc / (sums[2 * qa0] + wa * sums[2 * qa0 + 1]);
+		out[i] = acc;
 	}
 	return out;
 }

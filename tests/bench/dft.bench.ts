@@ -16,22 +16,22 @@ const kiss = require('kissfft-wasm') as any;
 for (let i = 0; i < 500 && !kiss.wasmKissFFT; i++) await new Promise((r) => setTimeout(r, 10));
 if (!kiss.wasmKissFFT) throw new Error('kissfft-wasm did not load');
 
-/** Microseconds per call: best of `rounds` batches, each batch long enough (~minMs) to time well. */
+/**
+ * CPU microseconds (user + system of this process) per call: best of `rounds` batches, each batch long
+ * enough (~minMs) to time well. CPU time keeps other processes on a shared machine out of the figure.
+ */
 function usPerCall(fn: () => void, minMs = 40, rounds = 15): number {
 	fn();
+	const cpuUs = (reps: number) => {
+		const c0 = process.cpuUsage();
+		for (let i = 0; i < reps; i++) fn();
+		const c = process.cpuUsage(c0);
+		return c.user + c.system;
+	};
 	let reps = 1;
-	for (;;) {
-		const t0 = performance.now();
-		for (let i = 0; i < reps; i++) fn();
-		if (performance.now() - t0 > minMs / 4) break;
-		reps *= 2;
-	}
+	while (cpuUs(reps) < (minMs * 1000) / 4) reps *= 2;
 	let best = Infinity;
-	for (let r = 0; r < rounds; r++) {
-		const t0 = performance.now();
-		for (let i = 0; i < reps; i++) fn();
-		best = Math.min(best, ((performance.now() - t0) * 1000) / reps);
-	}
+	for (let r = 0; r < rounds; r++) best = Math.min(best, cpuUs(reps) / reps);
 	return best;
 }
 
