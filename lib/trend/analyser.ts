@@ -104,6 +104,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const harmScratch = wantHarmonics ? new Float64Array(TREND_MAX_ORDER + 1) : undefined;
 	let fastThd: WindowThd | undefined;
 	let fastThdCycles = 0;
+	let nonFiniteWindows = 0;
 	/** Samples beyond each end of a window kept for the DFT's resampling kernel. */
 	const PAD = 16;
 	const windowsToClose: { start: number; end: number; startT: number; endT: number }[] = [];
@@ -174,6 +175,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				s += v * v;
 			}
 			rms[c] = Math.sqrt(s / lengthT);
+			if (!Number.isFinite(rms[c])) nonFiniteWindows++;
 			if (thdMethod === 'sinc' && scratch) {
 				const s0 = Math.max(0, abs - ringLen + 1, Math.floor(startT) - PAD);
 				const e0 = Math.min(abs, Math.ceil(endT) + PAD);
@@ -417,6 +419,9 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				if (t.forcedCount > 0) {
 					diagnostics.push({ code: 'zero-crossings-lost', severity: 'info', message: `${channels[t.channel].name}: no zero crossing for ${t.forcedCount} half cycle(s) (interruption or very low signal); timing free-ran at the last measured period there.` });
 				}
+			}
+			if (nonFiniteWindows > 0) {
+				diagnostics.push({ code: 'non-finite-samples', severity: 'warning', message: `${nonFiniteWindows} channel window(s) of 10/12 cycles hold missing or non-finite samples: their values are NaN, and no event can be detected from them.` });
 			}
 			if (seq < 0) diagnostics.push({ code: 'no-zero-crossings', severity: 'warning', message: `${channels[ref].name}: no zero crossing found; no aggregate could be formed.` });
 			if (abs >= tickLen) diagnostics.push({ code: 'ten-minute-from-start', severity: 'info', message: '10-min intervals count from the start of the recording (no wall-clock synchronisation).' });

@@ -337,6 +337,17 @@ describe('createTrendAnalyser: streaming', () => {
 		expect(() => a.push([new Float64Array(3)])).toThrow(RangeError);
 	});
 
+	it('missing (NaN) samples make their windows NaN and are reported, not hidden', () => {
+		const [x] = makeChannels([{ rms: 230, phaseDeg: 10 }], { f0Hz: 50 }, 5000, 2);
+		x.fill(NaN, 3000, 3010);
+		const r = run([x], { sampleRateHz: 5000, declaredV: 230, nominalHz: 50 });
+		const nan = r.cycles10.filter((w) => Number.isNaN(w.rms[0]));
+		expect(nan.length).toBe(1);
+		expect(nan[0].startS).toBeLessThanOrEqual(0.6);
+		expect(nan[0].startS + nan[0].durationS).toBeGreaterThanOrEqual(0.602);
+		expect(r.diagnostics.find((d) => d.code === 'non-finite-samples')?.severity).toBe('warning');
+	});
+
 	it('an empty recording finishes with no rows, no events and a diagnostic', () => {
 		const a = createTrendAnalyser({ sampleRateHz: 1000, channels: V3 });
 		const r = a.finish();
