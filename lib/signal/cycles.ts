@@ -1,5 +1,5 @@
 import { coarseFrequencyHz } from './coarse-frequency.js';
-import { fitFundamental } from './fundamental-fit.js';
+import { fitFundamental, type FundamentalFit } from './fundamental-fit.js';
 import { fmt } from './format.js';
 
 /**
@@ -17,6 +17,11 @@ export interface CycleWindow {
 	frequencyHz: number;
 	/** Every used rising crossing, ascending, fractional sample indices (cycles + 1 of them). */
 	crossings: Float64Array;
+	/**
+	 * How many crossings were carried on at the last measured period because the fundamental vanished there
+	 * (an interruption); 0 or absent when every crossing was measured.
+	 */
+	bridgedCrossings?: number;
 }
 
 /** Why no whole cycles (or frequency) could be given: typed, with a sentence for the user. */
@@ -28,6 +33,9 @@ export type SignalFailure = {
 
 /** Smallest ratio of fundamental RMS to everything else (harmonics + noise) accepted as "a fundamental". */
 const MIN_FUNDAMENTAL_RATIO = 0.1;
+/** Fits weaker than this fraction of the strongest are bridged (IEC 61000-4-30 interruptions are typically
+ * below 5 or 10 % of the declared voltage; from memory). */
+const BRIDGE_BELOW = 0.05;
 /** Largest spread (coefficient of variation) of cycle lengths accepted as periodic. */
 const MAX_PERIOD_SPREAD = 0.1;
 
@@ -41,6 +49,10 @@ const MAX_PERIOD_SPREAD = 0.1;
  * frequency is then re-estimated from the crossings (whole cycles / their duration) and the search repeated
  * until the two agree to 1e-12 (secant steps, at most 8 passes; 2–4 in practice). Crossings outside
  * [0, N − 1] are not used, so a record of exactly 10 cycles gives 9 whole cycles crossing to crossing.
+ *
+ * Where the fundamental vanishes for a while (an interruption: its fitted amplitude under 5 % of the
+ * strongest seen), the crossings are carried on at the last measured period and counted in
+ * `bridgedCrossings`, so a record with an interruption still has whole cycles.
  *
  * Accepted as a fundamental when its RMS is at least 0.1 × the RMS of the rest (harmonics + noise: a
  * neutral current whose 3rd harmonic is 5 × its fundamental still passes) and the cycle lengths vary by
@@ -131,13 +143,23 @@ export function findWholeCycles(
 	const cycles = crossings.length - 1;
 	const startIndex = crossings[0];
 	const endIndex = crossings[cycles];
-	return { ok: true, startIndex, endIndex, cycles, frequencyHz: (cycles * sampleRateHz) / (endIndex - startIndex), crossings };
+	return {
+		ok: true,
+		startIndex,
+		endIndex,
+		cycles,
+		frequencyHz: (cycles * sampleRateHz) / (endIndex - startIndex),
+		crossings,
+		bridgedCrossings: t.bridged,
+	};
 }
 
 interface Track {
 	crossings: number[];
 	/** A step between crossings fell outside 0.5…1.5 periods: not a periodic signal at this frequency. */
 	irregular: boolean;
+	/** Crossings carried on at the last period where the fundamental vanished. */
+	bridged: number;
 	/** Pooled fundamental RMS / residual RMS over all fits. */
 	fundamentalRatio: number;
 	/** Coefficient of variation of the crossing-to-crossing intervals. */
@@ -153,15 +175,34 @@ function trackCrossings(samples: Float64Array, periodSamples: number, maxCycles?
 	const last = n - 1;
 	let fundamentalSquares = 0;
 	let residualSquares = 0;
-	const fit = (expected: number, period: number) => {
-		const f = fitFundamental(samples, expected, period);
+	let previousAmplitude = NaN;
+	let previousQuality = NaN;
+	/** What the fit leaves relative to what it explains: near 0 for a clean sine, jumps at a step. */
+	const quality = (g: FundamentalFit) => g.residualRms / Math.max(g.amplitude, 1e-300);
+	/** Centred fit; `strongest` is compared with its amplitude (bridging) before any one-sided refit. */
+	const fit = (expected: number, period: number, centredAmplitude?: { value: number }) => {
+		let f = fitFundamental(samples, expected, period);
+		if (centredAmplitude) centredAmplitude.value = f.amplitude;
+		// A sudden change of amplitude (dip, swell, interruption edge) inside the window biases the phase of a
+		// centred fit; the fit from the side the step is not on, one period off-centre, is then cleaner.
+		if (Math.abs(f.amplitude / previousAmplitude - 1) > 0.02 || quality(f) > 1.5 * previousQuality + 1e-9) {
+			for (const side of [-period, period]) {
+				const g = fitFundamental(samples, expected, period, expected + side);
+				if (quality(g) < 0.5 * quality(f)) f = g; // only a clearly cleaner fit: off-centre ones extrapolate
+			}
+		}
 		fundamentalSquares += (f.amplitude * f.amplitude) / 2;
 		residualSquares += f.residualRms * f.residualRms;
-		return f.crossingIndex;
+		return f;
 	};
 	// Anchor near the start (one period in), refit once so the anchor's own window is centred on it.
-	let anchor = fit(Math.min(periodSamples, last / 2), periodSamples);
-	anchor = fit(anchor, periodSamples);
+	const first = fit(Math.min(periodSamples, last / 2), periodSamples);
+	const anchorFit = fit(first.crossingIndex, periodSamples);
+	const anchor = anchorFit.crossingIndex;
+	previousAmplitude = anchorFit.amplitude;
+	previousQuality = quality(anchorFit);
+	let strongest = anchorFit.amplitude;
+	let bridged = 0;
 	const forward: number[] = [];
 	const backward: number[] = [];
 	let irregular = false;
@@ -175,15 +216,32 @@ function trackCrossings(samples: Float64Array, periodSamples: number, maxCycles?
 		const seen = direction < 0 ? [anchor, ...forward.slice(0, recent)] : [anchor];
 		let period = seen.length > 1 ? (seen[seen.length - 1] - seen[0]) / (seen.length - 1) : periodSamples;
 		let prev = anchor;
+		previousAmplitude = anchorFit.amplitude;
+		previousQuality = quality(anchorFit);
+	previousQuality = quality(anchorFit);
 		for (;;) {
 			const guess = prev + direction * period;
 			if (guess > last + period / 2 || guess < -period / 2) break;
-			const c = fit(guess, period);
-			const step = direction * (c - prev);
-			if (!(step > periodSamples / 2 && step < 1.5 * periodSamples)) {
+			const centred = { value: 0 };
+			const f = fit(guess, period, centred);
+			strongest = Math.max(strongest, centred.value);
+			const step = direction * (f.crossingIndex - prev);
+			const regular = step > periodSamples / 2 && step < 1.5 * periodSamples;
+			// Where the fundamental vanishes (an interruption: under 5 % of the strongest fit, or a wild step
+			// under half of it) its phase means nothing: carry the crossings on at the last period.
+			if (centred.value < BRIDGE_BELOW * strongest || (!regular && f.amplitude < 0.5 * strongest)) {
+				out.push(guess);
+				bridged++;
+				prev = guess;
+				continue;
+			}
+			if (!regular) {
 				irregular = true;
 				break;
 			}
+			const c = f.crossingIndex;
+			previousAmplitude = f.amplitude;
+			previousQuality = quality(f);
 			out.push(c);
 			const k = Math.min(out.length, recent);
 			period = direction * (c - (out.length > k ? out[out.length - 1 - k] : anchor)) / k;
@@ -208,7 +266,9 @@ function trackCrossings(samples: Float64Array, periodSamples: number, maxCycles?
 	return {
 		crossings: all,
 		fundamentalRatio: Math.sqrt(fundamentalSquares / Math.max(residualSquares, 1e-300)),
-		irregular,
+		// mostly bridged = mostly no fundamental
+		irregular: irregular || bridged > all.length / 2,
+		bridged,
 		periodSpread: spread,
 	};
 }

@@ -28,6 +28,8 @@ export interface FundamentalFit {
  * @param samples  signal, any unit; not modified
  * @param expectedIndex  fractional sample index near which a rising crossing is expected (the fit's phase reference)
  * @param periodSamples  period of the fundamental in samples (fs / f)
+ * @param centreIndex  centre of the two-period window (default: expectedIndex); one period either side
+ *   gives a fit from one side only, for a crossing next to a step in amplitude
  * @returns the crossing nearest `expectedIndex` (within half a period), the amplitude and residual;
  *   crossingIndex NaN when the window is degenerate
  * @example fitFundamental(sine 50 Hz at 10 kS/s starting at phase 0, 195, 200).crossingIndex // 200
@@ -39,10 +41,11 @@ export function fitFundamental(
 	samples: Float64Array,
 	expectedIndex: number,
 	periodSamples: number,
+	centreIndex = expectedIndex,
 ): FundamentalFit {
 	const n = samples.length;
 	let length = 2 * periodSamples;
-	let start = expectedIndex - periodSamples;
+	let start = centreIndex - periodSamples;
 	if (length > n - 1) {
 		length = n - 1;
 		start = 0;

@@ -128,6 +128,15 @@ export function waveformFigures(
 	if (cycleWindow !== undefined && !(cycleWindow.startIndex >= 0 && cycleWindow.endIndex <= n - 1 && cycleWindow.endIndex > cycleWindow.startIndex)) {
 		throw new RangeError(`window ${cycleWindow.startIndex}…${cycleWindow.endIndex} does not lie inside the record's 0…${n - 1}`);
 	}
+	if (cycleWindow?.bridgedCrossings) {
+		warnings.push({
+			code: 'fundamental-bridged',
+			message:
+				`The fundamental vanished for about ${cycleWindow.bridgedCrossings} cycle(s) (under 5 % of its largest amplitude, ` +
+				`e.g. an interruption); cycle boundaries there were carried on at the last measured period.`,
+			severity: 'warning',
+		});
+	}
 	warnings.push(
 		...signalWarnings(samples, sampleRateHz, { frequencyHz, cycles: cycleWindow?.cycles, nominalHz: opts.nominalHz, maxOrder: opts.maxOrder }),
 	);

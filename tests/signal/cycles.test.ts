@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { findWholeCycles, type CycleWindow } from '../../lib/signal/index.js';
-import { harmonicSamples, sineSamples } from '../helpers/synth.js';
+import { gaussianNoise, harmonicSamples, sineSamples } from '../helpers/synth.js';
 
 // Expected crossings come from the closed form of the synthesised fundamental
 // x = A·sin(2π f n/fs + φ): it rises through zero where 2π f n/fs + φ = 2πk, i.e. n = (k − φ/2π)·fs/f.
@@ -87,6 +87,35 @@ describe('findWholeCycles crossings', () => {
 		expectCrossingsNear(w.crossings, expected, 0.02);
 		expectCrossingsNear(w.crossings.slice(1, -1), expected.slice(1, -1), 0.002);
 		expect(w.frequencyHz).toBeCloseTo((expected.length - 1) / ((expected[expected.length - 1] - expected[0]) / fs), 4);
+	});
+
+	it('findWholeCycles bridges a 5-cycle interruption (noise only) at the last period and counts the bridged crossings', () => {
+		const x = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 30, phaseDeg: 20 });
+		const noise = gaussianNoise(1000, 0.5, 9); // 0.5 V of pickup while the supply is off
+		for (let i = 0; i < 1000; i++) x[4000 + i] = noise[i];
+		const w = ok(findWholeCycles(x, 10_000));
+		const expected = expectedCrossings(50, 10_000, 20, x.length);
+		// every crossing is where the undisturbed supply would cross: before, during (carried on at the last
+		// period) and after; the crossings next to the gap come from one-sided fits, so they stay exact too
+		expectCrossingsNear(w.crossings, expected, 0.01);
+		expect(w.bridgedCrossings).toBeGreaterThanOrEqual(3);
+		expect(w.frequencyHz).toBeCloseTo(50, 3);
+	});
+
+	it('findWholeCycles places crossings next to a dip to 40 % (amplitude step inside the fit window) within 0.01 sample', () => {
+		const x = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 30, phaseDeg: -50 });
+		for (let i = 3000; i < 4400; i++) x[i] *= 0.4; // dip starting and ending mid-cycle
+		const w = ok(findWholeCycles(x, 10_000));
+		expectCrossingsNear(w.crossings, expectedCrossings(50, 10_000, -50, x.length), 0.01);
+		expect(w.bridgedCrossings ?? 0).toBe(0);
+	});
+
+	it("findWholeCycles(white noise with a 2-cycle burst of sine) still fails with 'no-fundamental' (mostly nothing to bridge from)", () => {
+		const x = gaussianNoise(4000, 1, 4);
+		const burst = sineSamples({ amplitude: 3, frequencyHz: 50, sampleRateHz: 10_000, samples: 400 });
+		for (let i = 0; i < 400; i++) x[1800 + i] += burst[i];
+		const r = findWholeCycles(x, 10_000);
+		expect(r.ok ? 'ok' : r.code).toBe('no-fundamental');
 	});
 
 	it('findWholeCycles(9.37 cycles) gives whole cycles only: 8 or 9 depending on the starting phase', () => {

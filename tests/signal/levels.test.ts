@@ -218,6 +218,17 @@ describe('waveformFigures spans and edge cases', () => {
 		expect(w.rms).toBeCloseTo(10 / Math.SQRT2, 9); // whole cycles of the current too
 	});
 
+	it("waveformFigures(sine with a 5-cycle interruption) keeps whole cycles, warns 'fundamental-bridged', and rms = A/√2·√(on-time share)", () => {
+		const x = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 30.4 });
+		x.fill(0, 2000, 3000); // supply off for cycles 10…14 exactly
+		const w = waveformFigures(x, 10_000);
+		expect(w.span).toBe('whole-cycles');
+		expect(w.warnings.map((d) => d.code)).toContain('fundamental-bridged');
+		// crossings at 0, 200, …, 6000: 30 cycles, 25 of them live → mean square = (A²/2)·25/30
+		expect(w.cycles).toBe(30);
+		expect(w.rms).toBeCloseTo((325 / Math.SQRT2) * Math.sqrt(25 / 30), 6);
+	});
+
 	it('waveformFigures(x, 0) throws RangeError (a bad parameter, not data)', () => {
 		expect(() => waveformFigures(new Float64Array(10), 0)).toThrow(RangeError);
 	});
