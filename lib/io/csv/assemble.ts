@@ -31,7 +31,7 @@ export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: 
 			// times from the first stamp; the stamp itself becomes the wall-clock start
 			const t0 = t[0];
 			for (let i = 0; i < n; i++) t[i] -= t0;
-			const first = layout.preview[0]?.[0] ?? '';
+			const first = (layout.preview[0] ?? []).slice(0, layout.clockFields).join(' ');
 			const iso = isoOf(first.replace(/^"|"$/g, ''));
 			if (iso && !layout.startTime) layout.startTime = iso;
 			layout.metadata['first time stamp'] ??= first;

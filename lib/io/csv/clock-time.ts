@@ -13,6 +13,22 @@ export function isClockCell(cell: string): boolean {
 	return t.length <= 40 && CLOCK.test(t.replace(/^"|"$/g, ''));
 }
 
+const DATE = /^(?:\d{4}[-/.]\d{1,2}[-/.]\d{1,2}|\d{1,2}[./]\d{1,2}[./]\d{4})$/;
+
+/** True for a cell that is a date alone (a Date column next to a Time column). */
+export function isDateCell(cell: string): boolean {
+	return DATE.test(cell.trim().replace(/^"|"$/g, ''));
+}
+
+/** Cells of a data row are numbers, except a clock stamp (or a date then a clock) at the start. */
+export function isDataRow(cells: string[], isNumber: (cell: string) => boolean): boolean {
+	let from = 0;
+	if (cells.length > 0 && isClockCell(cells[0])) from = 1;
+	else if (cells.length > 1 && isDateCell(cells[0]) && isClockCell(cells[1])) from = 2;
+	for (let i = from; i < cells.length; i++) if (!isNumber(cells[i])) return false;
+	return true;
+}
+
 /** Digits after the seconds' decimal mark of a clock cell, or -1 when it is not one. */
 export function clockFractionDigits(cell: string): number {
 	const m = CLOCK.exec(cell.trim());

@@ -7,7 +7,7 @@
 import type { Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';
 import { isNumberCell, splitCells, trimTrailingEmpty } from './cells.js';
-import { isClockCell } from './clock-time.js';
+import { isClockCell, isDataRow, isDateCell } from './clock-time.js';
 import { readPreamble } from './preamble.js';
 import { chooseTimeColumn } from './time-column.js';
 import type { CsvColumnLayout, CsvLayout, CsvOptions } from './types.js';
@@ -61,7 +61,7 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		const widths = new Map<number, number>();
 		for (const line of lines) {
 			const { cells } = trimTrailingEmpty(splitCells(line, d));
-			if (cells.length > 0 && cells.every((c, i) => isNumberCell(c, mark) || (i === 0 && isClockCell(c)))) widths.set(cells.length, (widths.get(cells.length) ?? 0) + 1);
+			if (cells.length > 0 && isDataRow(cells, (c) => isNumberCell(c, mark))) widths.set(cells.length, (widths.get(cells.length) ?? 0) + 1);
 		}
 		// the most common width of all-number rows; on a tie the one seen first (the top of the table)
 		let k = 0;
@@ -79,7 +79,7 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 	const split = (line: string) => splitCells(line, delimiter);
 	const numericRow = (i: number) => {
 		const { cells } = trimTrailingEmpty(split(lines[i]));
-		return cells.length === columnCount && cells.every((c, j) => isNumberCell(c, decimalMark) || (j === 0 && isClockCell(c)));
+		return cells.length === columnCount && isDataRow(cells, (c) => isNumberCell(c, decimalMark));
 	};
 	diagnostics.push(info('delimiter', `Columns are separated by ${NAMES[delimiter]}${options.delimiter ? ' (as set)' : ''}.`));
 	const sawComma = decimalMark === ',' && lines.some((l) => /\d,\d/.test(l));
@@ -158,7 +158,7 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		unitsLine: unitsIdx === null ? null : unitsIdx + 1,
 		bodyLine: bodyIdx + 1,
 		columnCount, trailingEmptyColumns, columns,
-		timeColumn: null, timeUnit: null, timeResolution: null,
+		timeColumn: null, timeUnit: null, timeResolution: null, clockFields: 1,
 		metadata: facts.metadata,
 		statedSampleRateHz: options.sampleRateHz ?? facts.sampleRateHz,
 		startTime: facts.startTime,
@@ -203,7 +203,7 @@ function lastNonBlank(lines: string[]): number {
 function isTextRow(cells: string[], columnCount: number, mark: Mark): boolean {
 	const t = trimTrailingEmpty(cells).cells;
 	if (t.length < Math.min(columnCount, 2) || t.length < columnCount - 1) return false;
-	return t.every((c) => c.trim() === '' || (!isNumberCell(c, mark) && !isClockCell(c)));
+	return t.every((c) => c.trim() === '' || (!isNumberCell(c, mark) && !isClockCell(c) && !isDateCell(c)));
 }
 
 function bytesPerRow(lines: string[], bodyIdx: number, eolBytes: number): number {

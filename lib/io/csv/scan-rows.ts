@@ -27,6 +27,8 @@ export interface ScanLayout {
 	timeColumn: number;
 	/** 0-based column holding time-of-day stamps, or -1 (absent = -1). */
 	clockColumn?: number;
+	/** 2 when the stamp is a date field then a time field. */
+	clockFields?: 1 | 2;
 	/** Initial rows to allocate. */
 	capacityRows: number;
 }
@@ -119,8 +121,17 @@ export class RowScanner {
 				if (c === clockCol) {
 					let e = p;
 					while (e < end && buf[e] !== delim && buf[e] !== eol && buf[e] !== 13 && buf[e] !== 34) e++;
-					v = this.clock.secondsOf(String.fromCharCode(...buf.subarray(p, Math.min(e, p + 48))));
+					if (this.layout.clockFields === 2 && c + 1 < K) {
+						// a date field, the delimiter (a run of blanks when that is the delimiter), then the time field
+						if (e < end && buf[e] === delim) e++;
+						while (space && (buf[e] === 32 || buf[e] === 9)) e++;
+						if (buf[e] === 34) e++;
+						while (e < end && buf[e] !== delim && buf[e] !== eol && buf[e] !== 13 && buf[e] !== 34) e++;
+					}
+					const text = String.fromCharCode(...buf.subarray(p, Math.min(e, p + 64))).split(this.layout.delimiter).join(' ').replace(/"/g, '');
+					v = this.clock.secondsOf(text);
 					if (Number.isNaN(v)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a time of day such as 12:00:00.000, like the rows above');
+					if (this.layout.clockFields === 2 && c + 1 < K) cols[c++][n] = v;
 					p = e;
 					b = buf[p];
 				} else {

@@ -123,6 +123,7 @@ export class CsvStreamReader {
 				bodyLine: layout.bodyLine,
 				timeColumn: layout.timeColumn ?? -1,
 				clockColumn: layout.timeUnit === 'clock' ? layout.timeColumn ?? -1 : -1,
+				clockFields: layout.clockFields,
 				capacityRows,
 			},
 			this.source,

@@ -6,7 +6,7 @@
  */
 import { ImportError } from '../import-error.js';
 import { cellValue } from './cells.js';
-import { clockFractionDigits, isClockCell } from './clock-time.js';
+import { clockFractionDigits, isClockCell, isDateCell } from './clock-time.js';
 import { isIndexName, isTimeName } from './names.js';
 import type { CsvLayout, CsvOptions } from './types.js';
 import { readUnit } from './units.js';
@@ -28,14 +28,20 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	let tc: number | null = null;
 	let role: 'time' | 'index' = 'time';
 	let how = '';
-	if (preview.length > 0 && isClockCell(preview[0][0] ?? '') && options.timeColumn !== 'none') {
-		// time-of-day stamps can only be the time base (detection allows them in the first column only)
+	const split = preview.length > 0 && cols.length > 2 && isDateCell(preview[0][0] ?? '') && isClockCell(preview[0][1] ?? '');
+	if (preview.length > 0 && (split || isClockCell(preview[0][0] ?? '')) && options.timeColumn !== 'none') {
+		// time-of-day stamps can only be the time base (detection allows them at the start of a row only)
+		const clockAt = split ? 1 : 0;
 		cols[0].role = 'time';
+		cols[clockAt].role = 'time';
 		layout.timeColumn = 0;
 		layout.timeUnit = 'clock';
-		const digits = Math.max(0, ...preview.map((r) => clockFractionDigits(r[0] ?? '')));
+		layout.clockFields = split ? 2 : 1;
+		const digits = Math.max(0, ...preview.map((r) => clockFractionDigits(r[clockAt] ?? '')));
 		layout.timeResolution = 10 ** -digits;
-		say('time-column', `Column "${cols[0].header || 'col1'}" holds time-of-day stamps (first ${preview[0][0]}); times are counted from the first stamp.`);
+		const first = preview[0].slice(0, clockAt + 1).join(' ');
+		const where = split ? `Columns "${cols[0].header || 'col1'}" and "${cols[1].header || 'col2'}" hold date and time of day` : `Column "${cols[0].header || 'col1'}" holds time-of-day stamps`;
+		say('time-column', `${where} (first ${first}); times are counted from the first stamp.`);
 		return;
 	}
 	if (typeof options.timeColumn === 'number') {

@@ -65,7 +65,12 @@ export function timeBaseFromColumn(t: Float64Array, facts: TimeFacts): TimeBase 
 			? `Time stamps come in pairs (${facts.repeatedTimes} repeats): the export holds a min and a max row per time step (peak detect), not single samples.`
 			: `${facts.repeatedTimes} row(s) repeat the previous time stamp, first at line ${facts.firstRepeatLine}.`, 'warning', facts.firstRepeatLine);
 	}
-	const dtFit = span / (n - 1);
+	// a step that is a whole number of printed digits within rounding error is taken as exactly that
+	// (1e-3 s rather than 1.0000000034e-3 s from summing clock readings)
+	const res = facts.resolutionS ?? 0;
+	const dtRaw = span / (n - 1);
+	const dtSnap = res > 0 ? Math.round(dtRaw / res) * res : dtRaw;
+	const dtFit = dtSnap > 0 && Math.abs(dtSnap - dtRaw) <= 1e-6 * dtRaw ? dtSnap : dtRaw;
 	const tol = facts.jitterTolerance;
 	const halfRes = (facts.resolutionS ?? 0) / 2;
 	// deviation from the grid beyond what printing the stamps to their resolution explains, per interval

@@ -92,6 +92,8 @@ export interface CsvLayout {
 	timeColumn: number | null;
 	/** Unit of the time column ('index' for a sample number), or null without a time column. */
 	timeUnit: 's' | 'ms' | 'us' | 'ns' | 'index' | 'clock' | null;
+	/** 2 when the time-of-day stamps are split over a date column and a time column, else 1. */
+	clockFields: 1 | 2;
 	/** Resolution of the printed time stamps in the time column's unit (0.001 for 0.123), or null. */
 	timeResolution: number | null;
 	/** Every preamble key/value, verbatim (value and unit joined by a space). */
