@@ -65,8 +65,10 @@ export function threePhasePower(
 	const lineVoltageRmsV = [0, 1, 2].map((k) => powerWindowRms(lineToLineSamples(v[k], v[(k + 1) % 3]), window)) as [number, number, number];
 	const neutralCurrentRmsA = powerWindowRms(sumPhaseCurrents(i[0], i[1], i[2]), window);
 	const q = threePhasePowerFromHarmonics('4-wire', phases, { lineVoltageRmsV, neutralCurrentRmsA });
-	const { perPhase: _perPhase, positiveSequenceVoltage: _v, positiveSequenceCurrent: _i, wiring, ...figures } = q;
-	return { channels: byPhase.map((p) => [capture.channels[p!.voltage].name, capture.channels[p!.current].name]), wiring, figures: figures as unknown as Record<string, number> };
+	// Scalar figures only: lib/power's result also holds phasors, per-phase sets and words.
+	const figures: Record<string, number> = {};
+	for (const [k, x] of Object.entries(q)) if (typeof x === 'number') figures[k] = x;
+	return { channels: byPhase.map((p) => [capture.channels[p!.voltage].name, capture.channels[p!.current].name]), wiring: q.wiring, sequenceOrder: q.sequenceOrder, figures };
 }
 
 /** Neutral current of a three-phase current set: measured when a neutral channel exists, else the sum of the phases. */

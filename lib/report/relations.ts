@@ -115,7 +115,8 @@ export function pairPower(
 		activePowerW: activePowerFromSamplesW(v.samples, i.samples, window),
 	});
 	const ch = loadCharacterFromAngle(theta1Deg);
-	const { ...all } = q as unknown as Record<string, number>;
+	const all: Record<string, number> = {};
+	for (const [k, x] of Object.entries(q)) if (typeof x === 'number') all[k] = x;
 	return {
 		voltage: v.name,
 		current: i.name,

@@ -121,6 +121,8 @@ export interface ReportThreePhasePower {
 	/** [voltage, current] names of phases 1, 2, 3. */
 	channels: string[][];
 	wiring: string;
+	/** 'as-labelled', or 'phases-2-3-swapped' when the set rotates negatively and lib/power took it in positive order. */
+	sequenceOrder: string;
 	/** Every scalar IEEE 1459 three-phase figure, names with unit suffixes (effectiveApparentPowerVA, ...). */
 	figures: Record<string, number>;
 }

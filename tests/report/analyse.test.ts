@@ -242,6 +242,11 @@ describe('analyseCapture: three-phase power and neutral', () => {
 		expect(r.power.map((p) => p.phase)).toEqual([1, 2, 3]);
 	});
 
+	it('reportToJson(analyseCapture(capture)) with three-phase power and neutral validates against report.schema.json', () => {
+		const json = reportToJson(r);
+		expect(validate(json), JSON.stringify(validate.errors)).toBe(true);
+	});
+
 	it('analyseCapture(capture) reports both the voltage and the current set, voltages first', () => {
 		expect(r.threePhaseSets.map((t) => t.quantity)).toEqual(['voltage', 'current']);
 		expect(r.threePhase!.channels).toEqual(['L1', 'L2', 'L3']);
