@@ -72,12 +72,22 @@ export interface WaveformFigures {
  * (`findWholeCycles`, or `opts.window`), integrated by the trapezoid rule with the integrand interpolated
  * at the fractional crossing positions (see `window-integral.ts`: equal to the plain sample mean when a
  * cycle holds a whole number of samples), so a record of 9.37 cycles gives the figures of its whole
- * cycles; peaks come from the samples inside the window. When no fundamental is found, the whole record is used and a
- * 'whole-record-fallback' warning says why. 'whole-record': plain sample means over all N samples.
+ * cycles; peaks come from the samples inside the window. When no fundamental is found, the whole record
+ * is used and a 'whole-record-fallback' warning says why. 'whole-record': plain sample means over all N
+ * samples.
+ *
+ * Which RMS: `formFactor` and `averageResponding.errorPercent` use the true RMS (AC + DC), as issue 2
+ * states, while `rectifiedMean` is taken about the DC (what an AC-coupled rectifier averages). With no DC
+ * (mains voltage and most currents) that is the textbook form factor and meter error. With DC the two
+ * mix coupling modes, so `averageResponding.errorPercentAc` (against `acRms`) is given too: it is the
+ * like-for-like error of an AC-coupled average-responding meter against an AC-coupled true-RMS meter.
+ * Example: a half-wave rectified sine gives formFactor 1.425 (not the DC-coupled table value π/2),
+ * errorPercent −22.05 % and errorPercentAc +1.07 % (REFERENCE §1.2 AC-coupled row).
  *
  * Ratios with a zero denominator are NaN: crestFactor when rms = 0; formFactor when rectifiedMean = 0
- * (a constant); errorPercentAc when acRms = 0. Empty record: every figure NaN, warning 'no-samples'. NaN or ±Infinity in the samples: every figure NaN
- * (never a silent skip), warning 'non-finite-samples'.
+ * (a constant); errorPercentAc when acRms = 0. Empty record: every figure NaN, warning 'no-samples'.
+ * NaN or ±Infinity in the samples: every figure NaN (never a silent skip), warning 'non-finite-samples'.
+ * Whole cycles bridged across an interruption (see `findWholeCycles`) add a 'fundamental-bridged' warning.
  *
  * Ref: definitions REFERENCE §1.1 (true RMS, rectified average, form and crest factor; read);
  * issue 2 (rectified mean about the DC, error against true RMS); IEC 61000-4-30 whole-cycle windows (from memory).
