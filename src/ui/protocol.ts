@@ -5,6 +5,7 @@
 import type { Capture } from '../../lib/capture.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
 import type { OpenOptions } from '../../lib/io/open.js';
+import type { TrendResult } from '../../lib/trend/types.js';
 
 /** What the user overrode on import (CSV layout, per-channel unit, quantity and scale): lib/io's options. */
 export type ImportOverrides = OpenOptions;
@@ -49,4 +50,15 @@ export interface ReportExtras {
 	groups: Record<string, { order: number; rms: number; percentOfFundamental: number }[]>;
 	/** Sample index of each channel's positive and negative peak within the analysed window (-1 when none). */
 	peakIndex: Record<string, { max: number; min: number }>;
+	/** Trends and voltage events (lib/trend), with the Urms(1/2) series; null when it could not be run. */
+	trend: TrendView | null;
+}
+
+/** lib/trend's result plus the RMS over one cycle refreshed every half cycle, per channel. */
+export interface TrendView {
+	/** Null when the trend analyser refused the capture (see `problem`). */
+	result: TrendResult | null;
+	halfCycle: { timeS: Float64Array; rms: Float64Array[]; channels: string[] };
+	/** Why there is no trend when the analyser refused the capture. */
+	problem?: string;
 }

@@ -6,7 +6,7 @@ import type { AnalysisReport, ReportChannel, ReportPair } from '../../lib/report
 import { formatDeg, formatDuration, formatPercent, formatQuantity, formatRatio } from './format.js';
 
 export type VerdictLevel = 'ok' | 'attention' | 'fail' | 'info';
-export type ViewTab = 'waves' | 'harmonics' | 'phasors' | 'check' | 'report';
+export type ViewTab = 'waves' | 'harmonics' | 'phasors' | 'trends' | 'check' | 'report';
 
 export interface Verdict {
 	id: string;

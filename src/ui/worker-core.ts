@@ -9,11 +9,46 @@ import { openCaptures } from '../../lib/io/open.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { chooseReference } from '../../lib/report/reference.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
-import type { FromWorker, ImportProblem, ReportExtras, ToWorker } from './protocol.js';
+import { analyseTrend } from '../../lib/trend/analyse-capture.js';
+import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
 
 export type Post = (msg: FromWorker, transfer?: Transferable[]) => void;
 
 const cache = new Map<string, Capture>();
+const trends = new Map<string, TrendView | null>();
+
+/**
+ * Trends and events of a capture (lib/trend), collecting the Urms(1/2) values it reports per half cycle.
+ * Null with no voltage or current channel; a refusal by the analyser becomes `problem`.
+ */
+export function trendFor(capture: Capture): TrendView | null {
+	const channels = capture.channels.filter((c) => c.quantity !== 'other');
+	if (channels.length === 0) return null;
+	const times: number[][] = capture.channels.map(() => []);
+	const values: number[][] = capture.channels.map(() => []);
+	try {
+		const result = analyseTrend(capture, {
+			onHalfCycle: (channel, startS, rmsV) => {
+				times[channel].push(startS);
+				values[channel].push(rmsV);
+			},
+		});
+		const used = capture.channels.map((c, k) => ({ c, k })).filter(({ k }) => values[k].length > 0);
+		const n = Math.min(...used.map(({ k }) => values[k].length));
+		const first = used[0]?.k ?? 0;
+		return {
+			result,
+			halfCycle: {
+				timeS: Float64Array.from(times[first].slice(0, n)),
+				rms: used.map(({ k }) => Float64Array.from(values[k].slice(0, n))),
+				channels: used.map(({ c }) => c.name),
+			},
+		};
+	} catch (e) {
+		const problem = e instanceof Error ? e.message : String(e);
+		return { result: null, halfCycle: { timeS: new Float64Array(0), rms: [], channels: [] }, problem };
+	}
+}
 
 /** An importer failure (or any other thrown value) as data the page can show in place. */
 export function toProblem(e: unknown, fallbackSource: string): ImportProblem {
@@ -67,7 +102,7 @@ export function extrasFor(capture: Capture, report: AnalysisReport, analysis: An
 		const ref = chooseReference(capture, report.referenceChannel, analysis.nominalHz ?? capture.nominalFrequencyHz);
 		if (ref.window) for (const x of ref.window.crossings) cycleBoundariesS.push(x / fs);
 	}
-	return { cycleBoundariesS, groups: {}, peakIndex };
+	return { cycleBoundariesS, groups: {}, peakIndex, trend: null };
 }
 
 /** Handles one message from the page. */
@@ -78,6 +113,7 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 			return;
 		case 'forget':
 			cache.delete(msg.captureKey);
+			trends.delete(msg.captureKey);
 			return;
 		case 'analyse': {
 			const capture = cache.get(msg.captureKey);
@@ -88,7 +124,9 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 			try {
 				post({ type: 'progress', jobId: msg.jobId, stage: `Analysing ${capture.source}`, fraction: null });
 				const report = analyseCapture(capture, msg.analysis);
-				post({ type: 'analysed', jobId: msg.jobId, captureKey: msg.captureKey, report, extras: extrasFor(capture, report, msg.analysis) });
+				if (!trends.has(msg.captureKey)) trends.set(msg.captureKey, trendFor(capture));
+				const extras = { ...extrasFor(capture, report, msg.analysis), trend: trends.get(msg.captureKey) ?? null };
+				post({ type: 'analysed', jobId: msg.jobId, captureKey: msg.captureKey, report, extras });
 			} catch (e) {
 				post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
 			}
@@ -119,8 +157,11 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 				post({ type: 'progress', jobId: msg.jobId, stage: `Analysing ${capture.source}`, fraction: null });
 				const report = analyseCapture(capture, msg.analysis);
 				cache.set(msg.captureKey, capture);
+				post({ type: 'progress', jobId: msg.jobId, stage: `Trends and events of ${capture.source}`, fraction: null });
+				const trend = trendFor(capture);
+				trends.set(msg.captureKey, trend);
 				const { capture: copy, transfer } = transferableCopy(capture);
-				post({ type: 'opened', jobId: msg.jobId, captureKey: msg.captureKey, capture: copy, report, extras: extrasFor(capture, report, msg.analysis) }, transfer);
+				post({ type: 'opened', jobId: msg.jobId, captureKey: msg.captureKey, capture: copy, report, extras: { ...extrasFor(capture, report, msg.analysis), trend } }, transfer);
 			} catch (e) {
 				post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
 			}

@@ -12,6 +12,7 @@ import { join, resolve } from 'node:path';
 import type { Page } from 'playwright-core';
 import { openCaptures } from '../../lib/io/open.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
+import { analyseTrend } from '../../lib/trend/analyse-capture.js';
 import { hasChromium, launchChromium, startStaticServer } from './browser.js';
 import { sineSamples } from '../helpers/synth.js';
 
@@ -149,6 +150,21 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 		await page.screenshot({ path: join(ARTIFACTS, 'ui-report-print.png'), fullPage: true });
 		await page.emulateMedia({ media: 'screen' });
 		await page.click('#tab-waves');
+	});
+
+	it('shows the dip of the incomer demo in the trends, as lib/trend finds it, and its waves on request', async () => {
+		await page.click('.pick >> text=incomer-dip.cfg');
+		await page.click('#tab-trends');
+		await page.waitForSelector('[data-testid=event-0]');
+		const files = ['incomer-dip.cfg', 'incomer-dip.dat'].map((name) => ({ name, bytes: new Uint8Array(readFileSync(join(ROOT, 'sample-waves', name))) }));
+		const trend = analyseTrend(openCaptures(files).captures[0]);
+		expect(await page.$$eval('[data-testid^=event-]', (els) => els.length)).toBe(trend.events.length);
+		const shownStart = parseShown((await page.textContent('[data-testid=event-0] td:nth-child(3)'))!.replace(' ms', ''));
+		expect(Math.abs(shownStart.value / 1000 - trend.events[0].startS)).toBeLessThanOrEqual(shownStart.step / 2000 + 1e-12);
+		await page.locator('#panel').screenshot({ path: join(ARTIFACTS, 'ui-trends-incomer-dip.png') });
+		await page.click('[data-testid=event-0] button');
+		await page.waitForSelector('#tab-waves[aria-selected=true]');
+		await page.screenshot({ path: join(ARTIFACTS, 'ui-event-waves.png'), fullPage: true });
 	});
 
 	it('opens a fixture through the file input, switches the reference, and the JSON download equals the CLI JSON', async () => {

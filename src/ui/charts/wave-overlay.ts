@@ -14,7 +14,8 @@ export type OverlayItem =
 	| { kind: 'peak'; scale: string; tS: number; value: number; colour: string; label: string; below: boolean }
 	| { kind: 'window'; startS: number; endS: number; label: string }
 	| { kind: 'cycle-ticks'; timesS: number[] }
-	| { kind: 'lag'; scale: string; fromS: number; toS: number; text: string };
+	| { kind: 'lag'; scale: string; fromS: number; toS: number; text: string }
+	| { kind: 'event'; startS: number; endS: number; label: string };
 
 export interface OverlayChannel {
 	name: string;
@@ -60,6 +61,11 @@ export function overlayFor(
 		const p = extras.peakIndex[name];
 		if (p && p.max >= 0) items.push({ kind: 'peak', scale: ch.scale, tS: timeOfIndex(p.max), value: fig.peak, colour: ch.colour, label: `${name} peak ${formatQuantity(fig.peak, ch.unit)}`, below: false });
 		if (p && p.min >= 0) items.push({ kind: 'peak', scale: ch.scale, tS: timeOfIndex(p.min), value: fig.peakNegative, colour: ch.colour, label: `${name} peak ${formatQuantity(fig.peakNegative, ch.unit)}`, below: true });
+	}
+	for (const e of extras.trend?.result?.events ?? []) {
+		const depth = e.residualV ?? e.maximumV;
+		const pct = depth !== undefined && extras.trend?.result ? ` ${Math.round((100 * depth) / extras.trend.result.declaredV)} %` : '';
+		items.push({ kind: 'event', startS: e.startS, endS: e.startS + e.durationS, label: `${e.kind} ${e.channels.join(',')}${pct}` });
 	}
 	const pair = compare ? report.pairs.find((p) => p.other === compare) : undefined;
 	const refCh = channels.find((c) => c.name === report.referenceChannel);
@@ -109,6 +115,20 @@ export function drawOverlay(u: uPlot, items: readonly OverlayItem[]): void {
 				ctx.fillStyle = '#2d5a36';
 				ctx.textAlign = 'left';
 				ctx.fillText(it.label, a + 4 * pr, top + height - 16 * pr);
+			}
+		} else if (it.kind === 'event') {
+			const a = x(Math.max(it.startS, xMin));
+			const b = x(Math.min(it.endS, xMax));
+			if (b > a) {
+				ctx.fillStyle = 'rgba(164, 38, 44, 0.08)';
+				ctx.fillRect(a, top, b - a, height);
+				ctx.strokeStyle = 'rgba(164, 38, 44, 0.6)';
+				ctx.setLineDash([]);
+				ctx.lineWidth = pr;
+				ctx.strokeRect(a, top, b - a, height);
+				ctx.fillStyle = '#7d1d22';
+				ctx.textAlign = 'left';
+				ctx.fillText(it.label, a + 4 * pr, top + 24 * pr);
 			}
 		} else if (it.kind === 'cycle-ticks') {
 			const visible = it.timesS.filter((t) => t >= xMin && t <= xMax);
