@@ -119,11 +119,16 @@ function copyOut(z: Float64Array, re: Float64Array, im: Float64Array, bins: numb
 
 const plans = new Map<number, DftPlan>();
 const PLAN_CACHE_SIZE = 24;
+/** Sum of cached lengths kept at most (a Bluestein plan of N ~ 1e6 holds ~100 MB of tables and buffers). */
+const PLAN_CACHE_POINTS = 4_000_000;
+let cachedPoints = 0;
 
 /**
- * The DFT plan for length `n`: powers of two go to fft.js (radix-4), any other length to Bluestein's
- * chirp-z over fft.js, with the chirp and its transform computed once per length and cached (the last
- * 24 lengths are kept). Real input of even length runs as a complex transform of half the length.
+ * The DFT plan for length `n`: powers of two go to fft.js (radix-4); lengths whose prime factors are all
+ * ≤ 13 (2000, 5000, 1560, 100 000 …) to a mixed-radix Stockham FFT (mixed-radix.ts); any other length
+ * (primes, large prime factors) to Bluestein's chirp-z over fft.js, its chirp and the chirp's transform
+ * computed once. Real input of even length runs as a complex transform of half the length. Plans are
+ * cached: the 24 most recently used lengths, at most 4 million points in all.
  * Exact to rounding: relative error ~1e-13 against the direct sum for N up to 10⁶.
  *
  * @param n  transform length, integer 1 … 2²⁶
@@ -148,7 +153,13 @@ export function dftPlan(n: number): DftPlan {
 	}
 	p = new Plan(n);
 	plans.set(n, p);
-	if (plans.size > PLAN_CACHE_SIZE) plans.delete(plans.keys().next().value as number);
+	cachedPoints += n;
+	// evict the least recently used plans, never the one just made
+	while (plans.size > 1 && (plans.size > PLAN_CACHE_SIZE || cachedPoints > PLAN_CACHE_POINTS)) {
+		const oldest = plans.keys().next().value as number;
+		plans.delete(oldest);
+		cachedPoints -= oldest;
+	}
 	return p;
 }
 
