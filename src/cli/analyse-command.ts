@@ -48,16 +48,21 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 	let badInput = false;
 	let limitFailed = false;
 	let printedAny = false;
+	let reports = 0;
+	let problemUnits = 0;
+	let limitFailures = 0;
 	if (mode === 'csv') io.out(csvSummaryHeader() + '\r\n');
 	const emit = (res: UnitResult) => {
 		progress.clear();
+		if (res.problems.length > 0) problemUnits++;
+		reports += res.reports.length;
 		for (const p of res.problems) {
 			badInput = true;
 			io.err(`${problemText(p)}\n`);
 		}
 		for (const r of res.reports) {
-			if (r.limits && r.limits.pass === false) limitFailed = true;
-			io.out(render(r, mode, units.length > 1, printedAny));
+			if (r.limits && r.limits.pass === false) (limitFailed = true), limitFailures++;
+			io.out(render(r, mode, printedAny));
 			if (mode !== 'table' && raw.quiet !== true) for (const a of noteworthy(r)) io.err(`${r.file}: ${a}\n`);
 			printedAny = true;
 		}
@@ -75,11 +80,17 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 		}
 	});
 	progress.done();
+	if (units.length > 1 && raw.quiet !== true) {
+		const limits = limitFailures > 0 ? `; limits failed in ${limitFailures}` : '';
+		io.err(`analysed ${reports} capture(s) from ${units.length} file set(s); ${problemUnits} with errors${limits}\n`);
+	}
 	return badInput ? 2 : limitFailed ? 1 : 0;
 }
 
-function render(r: ReportJson, mode: 'json' | 'csv' | 'table', several: boolean, printedAny: boolean): string {
-	if (mode === 'json') return several ? JSON.stringify(r) + '\n' : JSON.stringify(r, null, 2) + '\n';
+function render(r: ReportJson, mode: 'json' | 'csv' | 'table', printedAny: boolean): string {
+	// Always one line per document: a JSON Lines stream whether one file or a folder of them was named,
+	// so a script reads the output the same way in both cases (pipe through `jq .` to read it).
+	if (mode === 'json') return JSON.stringify(r) + '\n';
 	if (mode === 'csv') return csvSummaryRows(r).map((line) => line + '\r\n').join('');
 	return (printedAny ? '\n' : '') + formatReport(r).join('\n') + '\n';
 }

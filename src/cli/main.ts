@@ -13,7 +13,7 @@ const cli = cac('sinecheck');
 cli
 	.command('analyse [...paths]', 'Analyse capture files and folders (CSV, WAV, COMTRADE): RMS, harmonics, THD, phase, power, three-phase, limits')
 	.alias('analyze')
-	.option('--json', 'One JSON report per file on stdout (JSON Lines when several files); schema: lib/report/report.schema.json')
+	.option('--json', 'One JSON report per file on stdout, one line each (JSON Lines); schema: lib/report/report.schema.json')
 	.option('--csv', 'One summary row per channel per file, for spreadsheets')
 	.option('--limits <table>', 'Evaluate harmonics against a limit table: en50160, iec61000-2-2, ieee519 (sets exit code 1 on a failure)')
 	.option('--isc-il <ratio>', 'IEEE 519: short-circuit to maximum demand load current ratio at the point of common coupling')
