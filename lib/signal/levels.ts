@@ -99,6 +99,7 @@ export interface WaveformFigures {
  * @param opts.frequencyHz  known frequency for the cycle search
  * @param opts.nominalHz  nominal frequency for the cycle search and range warning
  * @param opts.maxOrder  highest harmonic order wanted, for the sample-rate warning
+ * @param opts.peakAccuracyPercent  accuracy wanted on peaks, %, for the sample-rate warning
  * @example waveformFigures(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 9.37 }), 10_000)
  *   // { rms: 229.81, rectifiedMean: 206.90, formFactor: 1.1107, crestFactor: 1.4142, averageResponding: { errorPercent: 0 }, cycles: 9, … }
  */
@@ -111,6 +112,7 @@ export function waveformFigures(
 		frequencyHz?: number;
 		nominalHz?: number;
 		maxOrder?: number;
+		peakAccuracyPercent?: number;
 	} = {},
 ): WaveformFigures {
 	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
@@ -148,7 +150,13 @@ export function waveformFigures(
 		});
 	}
 	warnings.push(
-		...signalWarnings(samples, sampleRateHz, { frequencyHz, cycles: cycleWindow?.cycles, nominalHz: opts.nominalHz, maxOrder: opts.maxOrder }),
+		...signalWarnings(samples, sampleRateHz, {
+			frequencyHz,
+			cycles: cycleWindow?.cycles,
+			nominalHz: opts.nominalHz,
+			maxOrder: opts.maxOrder,
+			peakAccuracyPercent: opts.peakAccuracyPercent,
+		}),
 	);
 	const span = cycleWindow ? 'whole-cycles' : 'whole-record';
 	const startIndex = cycleWindow ? cycleWindow.startIndex : 0;

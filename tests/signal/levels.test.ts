@@ -326,6 +326,25 @@ describe('waveformFigures properties (fast-check)', () => {
 		);
 	});
 
+	it('inverting a channel (k = −1) keeps rms, acRms and rectified mean, negates the mean and swaps the peaks', () => {
+		// 200 samples per cycle: whole-cycle figures equal plain sums over whole periods wherever the window starts
+		const x = harmonicSamples([{ order: 1, rms: 230 }, { order: 3, rms: 30, phaseDeg: 70 }, { order: 2, rms: 10 }], {
+			frequencyHz: 50,
+			sampleRateHz: 10_000,
+			cycles: 10.3,
+			offset: 4,
+		});
+		const a = waveformFigures(x, 10_000);
+		const b = waveformFigures(x.map((v) => -v), 10_000);
+		expect(b.rms).toBeCloseTo(a.rms, 8);
+		expect(b.acRms).toBeCloseTo(a.acRms, 8);
+		expect(b.rectifiedMean).toBeCloseTo(a.rectifiedMean, 8);
+		expect(b.mean).toBeCloseTo(-a.mean, 8);
+		expect(b.peak).toBeCloseTo(-a.peakNegative, 8);
+		expect(b.peakNegative).toBeCloseTo(-a.peak, 8);
+		expect(b.crestFactor).toBeCloseTo(a.crestFactor, 8);
+	});
+
 	it('9.37 cycles of a sine give the same rms as 9 cycles within 0.05 % (issue 2 example)', () => {
 		const nine = waveformFigures(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 7_800, cycles: 9, phaseDeg: 17 }), 7_800);
 		const more = waveformFigures(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 7_800, cycles: 9.37, phaseDeg: 17 }), 7_800);
