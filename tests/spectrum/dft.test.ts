@@ -41,7 +41,8 @@ function relError(aRe: ArrayLike<number>, aIm: ArrayLike<number>, bRe: ArrayLike
 }
 
 const primes = [2, 3, 5, 7, 11, 13, 17, 97, 331, 1009, 2003];
-const composites = [4, 6, 8, 9, 12, 30, 64, 100, 360, 1000, 1024, 1560, 2000, 2046];
+// smooth lengths exercise every mixed-radix butterfly (2, 3, 4, 5 and the generic 7, 11, 13); 2046 = 2·3·11·31 runs Bluestein
+const composites = [4, 6, 8, 9, 12, 14, 30, 49, 64, 77, 100, 121, 169, 360, 1000, 1001, 1024, 1560, 2000, 2002, 2046];
 
 describe('dftPlan', () => {
 	for (const n of [1, ...primes, ...composites]) {

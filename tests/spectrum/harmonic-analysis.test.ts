@@ -61,3 +61,24 @@ describe('harmonicAnalysis', () => {
 		expect(() => aggregateHarmonicWindows([a, b])).toThrow(RangeError);
 	});
 });
+
+describe('harmonicAnalysis with resampled windows', () => {
+	it('five resampled windows at 7.8 kS/s, f1 = 50.13 Hz, each read a 5 % 5th as 5.0000 % and aggregate to it', () => {
+		const fs = 7_800;
+		const f1 = 50.13;
+		const x = harmonicSamples([{ order: 1, rms: 230, phaseDeg: 10 }, { order: 5, rms: 11.5, phaseDeg: 100 }], { frequencyHz: f1, sampleRateHz: fs, cycles: 51 });
+		const r = harmonicAnalysis(x, fs, { fundamentalHz: f1, startIndex: 3.9 });
+		expect(r.windows.length).toBe(5);
+		for (const w of r.windows) {
+			expect(w.resampled).toBe(true);
+			expect(w.percentOfFundamental[5]).toBeCloseTo(5, 4);
+		}
+		const agg = r.aggregate!;
+		expect(agg.percentOfFundamental[5]).toBeCloseTo(5, 4);
+		// φ_rel(5) = (100 − 90) − 5·(10 − 90) = 410 → 50°, the same in every window, so in the vector mean too
+		expect(agg.phaseRelDeg[5]).toBeCloseTo(50, 2);
+		// windows are whole cycles apart: the absolute phase at the first window's start holds for all
+		const abs1 = 10 - 90 + (360 * f1 * 3.9) / fs;
+		expect(Math.cos(((agg.set.orders[1].phaseDeg - abs1) * Math.PI) / 180)).toBeCloseTo(1, 8);
+	});
+});
