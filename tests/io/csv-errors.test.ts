@@ -69,6 +69,13 @@ describe('parseCsv errors', () => {
 		expect([e.code, e.line, e.column]).toEqual(['bad-number', 3, 3]);
 	});
 
+	it('parseCsv(a bad cell in the first data row) reports it rather than taking the row as a preamble', () => {
+		const e = errorOf(() => parseCsv('t,U1\n0,abc\n0.001,2\n0.002,3\n', 'a.csv'));
+		expect([e.code, e.line, e.column, e.text]).toEqual(['bad-number', 2, 3, 'abc']);
+		const f = errorOf(() => parseCsv('0,1\n0.001,2,\n0.002;3\n0.003,4\n0.004,5\n', 'b.csv'));
+		expect([f.code, f.line, f.column, f.text]).toEqual(['bad-number', 3, 1, '0.002;3']);
+	});
+
 	it('parseCsv(a number with two decimal points) throws bad-number with the cell text', () => {
 		const e = errorOf(() => parseCsv('t,U1\n0,1\n1,2.5.1\n', 'a.csv'));
 		expect([e.code, e.line, e.column, e.text]).toEqual(['bad-number', 3, 3, '2.5.1']);

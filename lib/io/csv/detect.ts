@@ -100,6 +100,16 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 	} else {
 		bodyIdx = firstIndex(lines.length, 0, (i) => numericRow(i) && (i + 1 >= lines.length || numericRow(i + 1) || lines[i + 1].trim() === ''));
 		if (bodyIdx < 0) bodyIdx = firstIndex(lines.length, 0, numericRow);
+		// Rows just above that are shaped like data (a number first, or right under a header) but hold a bad
+		// cell belong to the data, so the scanner reports them instead of the preamble swallowing them.
+		for (let above = previousNonBlank(lines, bodyIdx); above >= 0 && bodyIdx > 0; above = previousNonBlank(lines, bodyIdx)) {
+			const cells = trimTrailingEmpty(split(lines[above])).cells;
+			if (cells.length === 0 || isTextRow(cells, columnCount, decimalMark)) break;
+			const numberFirst = isNumberCell(cells[0], decimalMark) || isClockCell(cells[0]) || isDateCell(cells[0]);
+			const underHeader = previousNonBlank(lines, above) >= 0 && isTextRow(split(lines[previousNonBlank(lines, above)]), columnCount, decimalMark) && cells.length === columnCount;
+			if (!(numberFirst && cells.length >= columnCount - 1) && !underHeader) break;
+			bodyIdx = above;
+		}
 		if (options.headerRow !== 'none') {
 			const above = previousNonBlank(lines, bodyIdx);
 			if (above >= 0 && isTextRow(split(lines[above]), columnCount, decimalMark)) {
@@ -170,7 +180,9 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		bytesPerRow: bytesPerRow(lines, bodyIdx, lineBreak.length),
 		diagnostics,
 	};
-	chooseTimeColumn(layout, preview, options, facts.timeUnit, source);
+	// guesses from the rows that read cleanly; a broken row is the scanner's to report
+	const clean = preview.filter((r) => r.length === columnCount && isDataRow(r, (c) => isNumberCell(c, decimalMark)));
+	chooseTimeColumn(layout, clean, options, facts.timeUnit, source);
 	return layout;
 }
 

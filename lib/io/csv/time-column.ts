@@ -109,7 +109,8 @@ function risesEvenly(preview: string[][], mark: '.' | ','): boolean {
 	}
 	const sorted = [...steps].sort((a, b) => a - b);
 	const med = sorted[sorted.length >> 1];
-	return steps.every((s) => Math.abs(s - med) <= 0.5 * med);
+	// whole multiples of the usual step are gaps (reported later), not a sign of a non-time column
+	return steps.every((s) => Math.abs(s - med * Math.max(1, Math.round(s / med))) <= 0.5 * med && s <= 4 * med);
 }
 
 /** Unit that makes the step a plausible mains-recording interval (200 Hz .. 100 MHz), or matches the stated rate. */
