@@ -7,7 +7,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { createReadStream, mkdtempSync, openSync, readSync, rmSync, statSync, writeSync, closeSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import Papa from 'papaparse';
@@ -117,6 +117,7 @@ function main(): void {
 			{ label: 'semicolon, decimal comma', path: join(dir, 'comma.csv'), comma: true },
 		];
 		for (const f of files) writeFile(f.path, f.comma);
+		const loadBefore = loadavg()[0];
 		const rows: (string | number)[][] = [];
 		for (const f of files) {
 			const mb = statSync(f.path).size / 1e6;
@@ -144,6 +145,8 @@ function main(): void {
 			}
 			rows.push(['', same ? 'values identical in every run' : 'VALUES DIFFER', '', '', '', '', '', '']);
 		}
+		// other processes on the machine slow wall-clock figures; CPU time is less affected by them
+		console.log(`load average ${loadBefore.toFixed(1)} before, ${loadavg()[0].toFixed(1)} after, on ${cpus().length} CPUs`);
 		console.log(`${ROWS} rows x ${COLS} columns; best of ${RUNS} alternating runs, each in its own process (wall clock, and CPU time user+sys);`);
 		console.log('peak MB = largest peak RSS minus the RSS just before the parse; final arrays = the capture\'s Float64Arrays');
 		printTable(['file', 'reader', 'MB/s wall', 'ms wall', 'MB/s cpu', 'peak MB', 'final arrays MB', 'peak/final (target < 3)'], rows);
