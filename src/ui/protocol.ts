@@ -25,6 +25,8 @@ export interface ImportProblem {
 	text: string;
 	expected: string;
 	message: string;
+	/** The offending line of a text file as written (at most 160 characters), when the error names a line. */
+	lineText?: string;
 }
 
 export type ToWorker =

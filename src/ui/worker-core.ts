@@ -6,6 +6,7 @@
 import type { Capture } from '../../lib/capture.js';
 import { isImportError } from '../../lib/io/import-error.js';
 import { openCaptures } from '../../lib/io/open.js';
+import { parseCsv } from '../../lib/io/csv/index.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { chooseReference } from '../../lib/report/reference.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
@@ -57,6 +58,24 @@ export function toProblem(e: unknown, fallbackSource: string): ImportProblem {
 	}
 	const message = e instanceof Error ? e.message : String(e);
 	return { source: fallbackSource, line: 0, column: 0, code: 'unreadable', text: '', expected: 'a file Sinecheck can read', message };
+}
+
+/** Line `line` (1-based) of a text file's bytes, cut to 160 characters; undefined when the file is shorter. */
+export function lineOf(bytes: ArrayBuffer, line: number): string | undefined {
+	// decode only as far as needed: errors usually sit in the first rows
+	const view = new Uint8Array(bytes);
+	let start = 0;
+	let seen = 1;
+	for (let i = 0; i < view.length && seen < line; i++) {
+		if (view[i] === 10) {
+			seen++;
+			start = i + 1;
+		}
+	}
+	if (seen < line) return undefined;
+	let end = start;
+	while (end < view.length && view[end] !== 10 && view[end] !== 13 && end - start < 640) end++;
+	return new TextDecoder('utf-8').decode(view.subarray(start, end)).slice(0, 160);
 }
 
 /** Copy of a capture whose sample buffers can be moved to the page (the cached original stays intact). */
@@ -138,14 +157,37 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 			let captures: Capture[] = [];
 			const problems: ImportProblem[] = [];
 			try {
-				const result = openCaptures(
-					msg.files.map((f) => ({ name: f.name, bytes: new Uint8Array(f.bytes) })),
-					msg.overrides,
-				);
-				captures = result.captures;
-				for (const e of result.errors) problems.push(toProblem(e, names));
+				const only = msg.files.length === 1 ? msg.files[0] : undefined;
+				const bytes = only ? new Uint8Array(only.bytes) : undefined;
+				if (only && bytes && /\.(csv|txt|tsv)$/i.test(only.name) && !(bytes[0] === 0x52 && bytes[1] === 0x49 && bytes[2] === 0x46 && bytes[3] === 0x46)) {
+					// one table: the same reader openCaptures picks for it, called directly for its byte progress
+					let last = 0;
+					const onProgress = (done: number, total: number) => {
+						const f = total ? done / total : 0;
+						if (f - last >= 0.02 || f === 1) {
+							last = f;
+							post({ type: 'progress', jobId: msg.jobId, stage: `Reading ${names}`, fraction: f });
+						}
+					};
+					try {
+						captures = [parseCsv(bytes, only.name, msg.overrides.csv, onProgress)];
+					} catch (e) {
+						problems.push(toProblem(e, names));
+					}
+				} else {
+					const result = openCaptures(
+						msg.files.map((f) => ({ name: f.name, bytes: new Uint8Array(f.bytes) })),
+						msg.overrides,
+					);
+					captures = result.captures;
+					for (const e of result.errors) problems.push(toProblem(e, names));
+				}
 			} catch (e) {
 				problems.push(toProblem(e, names));
+			}
+			for (const p of problems) {
+				const f = msg.files.find((x) => x.name === p.source);
+				if (f && p.line > 0) p.lineText = lineOf(f.bytes, p.line);
 			}
 			if (problems.length > 0 || captures.length === 0) {
 				if (problems.length === 0) problems.push(toProblem(new Error('no capture found in these files'), names));

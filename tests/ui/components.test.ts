@@ -82,8 +82,10 @@ describe('PhasorDiagram', () => {
 describe('ProblemList', () => {
 	it('ProblemList names the file, line and column, what was found and what was expected', () => {
 		const el = render(ProblemList, {
-			problems: [{ source: 'bad.csv', line: 4, column: 7, code: 'bad-number', text: 'abc', expected: 'a number', message: '' }],
+			problems: [{ source: 'bad.csv', line: 4, column: 7, code: 'bad-number', text: 'abc', expected: 'a number', message: '', lineText: '0.002,abc' }],
 		});
+		// the line as written, with a caret under column 7
+		expect(el.querySelector('pre.line')?.textContent).toBe('0.002,abc\n      ^ column 7');
 		expect(el.textContent).toContain('Could not read bad.csv');
 		expect(el.textContent).toContain('line 4, column 7');
 		expect(el.textContent).toContain('Expected a number, found abc');

@@ -164,7 +164,7 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 		await page.locator('#panel').screenshot({ path: join(ARTIFACTS, 'ui-trends-incomer-dip.png') });
 		await page.click('[data-testid=event-0] button');
 		await page.waitForSelector('#tab-waves[aria-selected=true]');
-		await page.screenshot({ path: join(ARTIFACTS, 'ui-event-waves.png'), fullPage: true });
+		await page.locator('#panel').screenshot({ path: join(ARTIFACTS, 'ui-event-waves.png') });
 	});
 
 	it('opens a fixture through the file input, switches the reference, and the JSON download equals the CLI JSON', async () => {
@@ -175,7 +175,7 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 		await settled(page);
 		// closed form: 30° at 50 Hz is 30/360 × 20 ms = 1.67 ms
 		expect((await page.textContent('[data-testid=lag-sentence]'))!.trim()).toBe('I1 lags U1 by 30.0°, 1.67 ms');
-		await page.screenshot({ path: join(ARTIFACTS, 'ui-fixture-waves.png'), fullPage: true });
+		await page.screenshot({ path: join(ARTIFACTS, 'ui-fixture-waves.png') });
 
 		await page.selectOption('[data-testid=ref-select]', 'I1');
 		await page.waitForFunction(() => document.querySelector('[data-testid=lag-sentence]')?.textContent?.includes('leads I1'), null, { timeout: 30_000 });

@@ -63,7 +63,7 @@ describe('Session', () => {
 		const item = s.items.find((c) => c.key === bad)!;
 		expect(item.status).toBe('error');
 		// "abc" starts at the 7th character of line 4 ("0.002,abc"): 1-based line and column per the ImportError contract
-		expect(item.problems[0]).toMatchObject({ source: 'bad.csv', line: 4, column: 7, code: 'bad-number', text: 'abc' });
+		expect(item.problems[0]).toMatchObject({ source: 'bad.csv', line: 4, column: 7, code: 'bad-number', text: 'abc', lineText: '0.002,abc' });
 		expect(s.items.filter((c) => c.status === 'ready')).toHaveLength(1);
 		s.dispose();
 	});
