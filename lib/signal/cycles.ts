@@ -147,7 +147,7 @@ export function findWholeCycles(
 		cycles,
 		frequencyHz: (cycles * sampleRateHz) / (endIndex - startIndex),
 		crossings,
-		bridgedCrossings: t.bridged,
+		bridgedCrossings: t.bridged.filter((c) => c <= endIndex).length,
 	};
 }
 

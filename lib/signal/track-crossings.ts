@@ -9,8 +9,8 @@ export interface Track {
 	crossings: number[];
 	/** A step between crossings fell outside 0.5…1.5 periods: not a periodic signal at this frequency. */
 	irregular: boolean;
-	/** Crossings carried on at the last period where the fundamental vanished. */
-	bridged: number;
+	/** Crossings (among `crossings`) carried on at the last period where the fundamental vanished. */
+	bridged: number[];
 	/** Pooled fundamental RMS / residual RMS over all fits. */
 	fundamentalRatio: number;
 	/** Coefficient of variation of the crossing-to-crossing intervals. */
@@ -64,7 +64,7 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 	previousAmplitude = anchorFit.amplitude;
 	previousQuality = quality(anchorFit);
 	let strongest = anchorFit.amplitude;
-	let bridged = 0;
+	const bridged: number[] = [];
 	const forward: number[] = [];
 	const backward: number[] = [];
 	let irregular = false;
@@ -80,7 +80,6 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 		let prev = anchor;
 		previousAmplitude = anchorFit.amplitude;
 		previousQuality = quality(anchorFit);
-	previousQuality = quality(anchorFit);
 		for (;;) {
 			const guess = prev + direction * period;
 			if (guess > last + period / 2 || guess < -period / 2) break;
@@ -93,7 +92,7 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 			// under half of it) its phase means nothing: carry the crossings on at the last period.
 			if (centred.value < BRIDGE_BELOW * strongest || (!regular && f.amplitude < 0.5 * strongest)) {
 				out.push(guess);
-				bridged++;
+				bridged.push(guess);
 				prev = guess;
 				continue;
 			}
@@ -125,12 +124,13 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 	const k = all.length - 1;
 	const meanPeriod = sum / k;
 	const spread = k > 0 ? Math.sqrt(Math.max(0, sumSquares / k - meanPeriod * meanPeriod)) / meanPeriod : NaN;
+	const bridgedInside = bridged.filter((c) => c >= 0 && c <= last);
 	return {
 		crossings: all,
 		fundamentalRatio: Math.sqrt(fundamentalSquares / Math.max(residualSquares, 1e-300)),
 		// mostly bridged = mostly no fundamental
-		irregular: irregular || bridged > all.length / 2,
-		bridged,
+		irregular: irregular || bridgedInside.length > all.length / 2,
+		bridged: bridgedInside,
 		periodSpread: spread,
 	};
 }
