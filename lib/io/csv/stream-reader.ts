@@ -14,7 +14,8 @@ const HEAD_BYTES = 64 * 1024;
 const HEAD_MAX_BYTES = 4 * 1024 * 1024;
 
 /**
- * Reads a CSV recording pushed in chunks.
+ * Reads a CSV recording pushed in chunks. Feeding it from one reused buffer is cheapest (a fresh buffer per
+ * chunk costs a first touch of its memory); errors surface from push() or finish().
  *
  * @example
  * const reader = new CsvStreamReader('feeder.csv', {}, { totalBytes: file.size, onProgress });
@@ -46,7 +47,10 @@ export class CsvStreamReader {
 		return this.detected;
 	}
 
-	/** Takes the next chunk. The chunk may be reused by the caller afterwards (nothing keeps a reference). */
+	/**
+	 * Takes the next chunk. The chunk may be reused by the caller afterwards (nothing keeps a reference).
+	 * @throws ImportError as soon as a bad row arrives (the reader is then unusable)
+	 */
 	push(chunk: Uint8Array): void {
 		if (this.finished) throw new Error('CsvStreamReader: push() after finish()');
 		this.bytesDone += chunk.length;
