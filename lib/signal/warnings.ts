@@ -37,7 +37,8 @@ export const DC_OFFSET_WARNING_RATIO = 0.05;
  *
  * @param samples  the record, any unit (messages quote values in that unit)
  * @param sampleRateHz  samples per second; must be positive (RangeError otherwise)
- * @param info.frequencyHz  measured fundamental, Hz (frequency checks are skipped without it)
+ * @param info.frequencyHz  measured fundamental, Hz (without it the sample-rate checks use `nominalHz` and
+ *   the cycle-count and range checks are skipped)
  * @param info.cycles  whole cycles analysed, quoted in the 'few-cycles' message
  * @param info.maxOrder  highest harmonic order the user asked for
  * @param info.nominalHz  nominal system frequency (50 or 60 select the range; others skip the range check)
@@ -80,15 +81,18 @@ export function signalWarnings(
 			);
 		}
 	}
-	if (f !== undefined && info.maxOrder !== undefined && info.maxOrder >= 1 && sampleRateHz <= 2 * info.maxOrder * f) {
-		const highest = Math.ceil(sampleRateHz / (2 * f)) - 1;
+	// The rate checks need only a fundamental to scale by: the nominal one will do when none was measured.
+	const f1 = f ?? (info.nominalHz !== undefined && info.nominalHz > 0 ? info.nominalHz : undefined);
+	if (f1 !== undefined && info.maxOrder !== undefined && info.maxOrder >= 1 && sampleRateHz <= 2 * info.maxOrder * f1) {
+		const highest = Math.ceil(sampleRateHz / (2 * f1)) - 1;
 		warn(
 			'sample-rate-low-for-harmonics',
-			`Sample rate ${fmt(sampleRateHz)} Hz is too low for harmonics up to order ${info.maxOrder} of ${fmt(f)} Hz: ` +
-				`it must exceed ${fmt(2 * info.maxOrder * f)} Hz (Nyquist); the highest order measurable is ${highest}.`,
+			`Sample rate ${fmt(sampleRateHz)} Hz is too low for harmonics up to order ${info.maxOrder} of ${fmt(f1)} Hz: ` +
+				`it must exceed ${fmt(2 * info.maxOrder * f1)} Hz (Nyquist); the highest order measurable is ${highest}.`,
 		);
 	}
-	if (f !== undefined && info.peakAccuracyPercent !== undefined && info.peakAccuracyPercent > 0) {
+	if (f1 !== undefined && info.peakAccuracyPercent !== undefined && info.peakAccuracyPercent > 0) {
+		const f = f1;
 		const worstPercent = 100 * (1 - Math.cos((Math.PI * f) / sampleRateHz));
 		if (worstPercent > info.peakAccuracyPercent) {
 			const neededHz = (Math.PI * f) / Math.acos(1 - info.peakAccuracyPercent / 100);

@@ -27,6 +27,11 @@ describe('signalWarnings', () => {
 		expect(w?.message).toMatch(/highest order measurable is 9\b/);
 	});
 
+	it('signalWarnings without a measured frequency judges the sample rate by the nominal one', () => {
+		const d = signalWarnings(new Float64Array(100), 1000, { nominalHz: 60, maxOrder: 25 });
+		expect(d.find((x) => x.code === 'sample-rate-low-for-harmonics')?.message).toMatch(/highest order measurable is 8\b/); // ⌈1000/120⌉ − 1
+	});
+
 	it('signalWarnings Nyquist boundary: fs = 2·h·f1 exactly warns, just above does not', () => {
 		const x = sine({ cycles: 10, sampleRateHz: 5000 });
 		expect(codes(signalWarnings(x, 5000, { frequencyHz: 50, maxOrder: 50 }))).toContain('sample-rate-low-for-harmonics');
