@@ -55,7 +55,9 @@ describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
 
 	for (const f of truth.files) {
 		const steady = f.channels.every((c) => c.envelope.length === 0);
-		it.skipIf(!steady)(`${f.file}: true RMS, fundamental and THD of every channel match the ground truth (closed form)`, () => {
+		// A record with a dip (an envelope) has no single steady value to compare: its events are checked below.
+		if (!steady) continue;
+		it(`${f.file}: true RMS, fundamental and THD of every channel match the ground truth (closed form)`, () => {
 			const d = docs.get(f.file);
 			for (const c of f.channels) {
 				const got = d.channels.find((x: { name: string }) => x.name === c.name);
@@ -65,7 +67,7 @@ describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
 			}
 		});
 
-		it.skipIf(!steady || f.power.length === 0)(`${f.file}: P, Q1, S, PF and DPF of every pair match IEEE 1459 computed from the construction`, () => {
+		if (f.power.length > 0) it(`${f.file}: P, Q1, S, PF and DPF of every pair match IEEE 1459 computed from the construction`, () => {
 			const d = docs.get(f.file);
 			for (const p of f.power) {
 				const got = d.power.find((x: { voltage: string; current: string }) => x.voltage === p.voltage && x.current === p.current);
@@ -79,7 +81,7 @@ describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
 		});
 
 		const sets = f.threePhase.filter((t) => t.window === undefined);
-		it.skipIf(!steady || sets.length === 0)(`${f.file}: rotation, sequence components and VUF match the Fortescue transform of the construction`, () => {
+		if (sets.length > 0) it(`${f.file}: rotation, sequence components and VUF match the Fortescue transform of the construction`, () => {
 			const d = docs.get(f.file);
 			for (const t of sets) {
 				const got = d.threePhaseSets.find((x: { channels: string[] }) => x.channels.join() === t.channels.join());
