@@ -7,8 +7,9 @@ import type { Capture } from '../../lib/capture.js';
 import { isImportError } from '../../lib/io/import-error.js';
 import { openCaptures } from '../../lib/io/open.js';
 import { parseCsv } from '../../lib/io/csv/index.js';
-import { analyseCapture } from '../../lib/report/analyse.js';
+import { analyseCapture, REPORT_DEFAULT_MAX_ORDER } from '../../lib/report/analyse.js';
 import { chooseReference } from '../../lib/report/reference.js';
+import { channelSpectrum, planWindows } from '../../lib/report/spectra.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
 import { analyseTrend } from '../../lib/trend/analyse-capture.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
@@ -117,11 +118,28 @@ export function extrasFor(capture: Capture, report: AnalysisReport, analysis: An
 	const peakIndex: ReportExtras['peakIndex'] = {};
 	for (const ch of capture.channels) peakIndex[ch.name] = peakIndices(ch.samples, i0, i1);
 	const cycleBoundariesS: number[] = [];
+	const groups: ReportExtras['groups'] = {};
 	if (report.cyclesAnalysed > 0 && report.referenceChannel !== null) {
 		const ref = chooseReference(capture, report.referenceChannel, analysis.nominalHz ?? capture.nominalFrequencyHz);
-		if (ref.window) for (const x of ref.window.crossings) cycleBoundariesS.push(x / fs);
+		if (ref.window) {
+			for (const x of ref.window.crossings) cycleBoundariesS.push(x / fs);
+			// the same windows lib/report analysed, for the groups the report does not carry
+			const slots = planWindows(ref.window, fs, report.window.harmonicWindowCycles);
+			if (slots.length > 0) {
+				for (const ch of capture.channels) {
+					const agg = channelSpectrum(ch.samples, fs, slots, analysis.maxOrder ?? REPORT_DEFAULT_MAX_ORDER).aggregate;
+					groups[ch.name] = {
+						harmonicGroupRms: Array.from(agg.groups.harmonicGroupRms),
+						harmonicSubgroupRms: Array.from(agg.groups.harmonicSubgroupRms),
+						interharmonicGroupRms: Array.from(agg.groups.interharmonicGroupRms),
+						thdG50Percent: agg.thd.thdG50Percent,
+						thdS50Percent: agg.thd.thdS50Percent,
+					};
+				}
+			}
+		}
 	}
-	return { cycleBoundariesS, groups: {}, peakIndex, trend: null };
+	return { cycleBoundariesS, groups, peakIndex, trend: null };
 }
 
 /** Handles one message from the page. */

@@ -71,3 +71,20 @@ describe('overlayFor', () => {
 		if (ev[0].kind === 'event') expect(Math.abs(ev[0].startS - 0.1)).toBeLessThanOrEqual(0.01 + 1e-9);
 	});
 });
+
+describe('extrasFor groups', () => {
+	it('extrasFor gives IEC harmonic groups that equal the DFT component for a pure harmonic on the grid (all its power in bin k = c·h)', async () => {
+		const { harmonicSamples } = await import('../helpers/synth.js');
+		// 230 V fundamental + 11.5 V 5th: synchronised windows put each tone in one bin, so group = subgroup = component
+		const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 30 });
+		const c: Capture = { source: 'g.csv', sampleRateHz: FS, startS: 0, channels: [{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }], metadata: {}, diagnostics: [] };
+		const report = analyseCapture(c);
+		const g = extrasFor(c, report, {}).groups.U1;
+		expect(g.harmonicGroupRms[5]).toBeCloseTo(11.5, 6);
+		expect(g.harmonicSubgroupRms[5]).toBeCloseTo(11.5, 6);
+		expect(g.harmonicGroupRms[1]).toBeCloseTo(230, 6);
+		expect(g.interharmonicGroupRms[5]).toBeLessThan(1e-6);
+		// THDG = 11.5 / 230 = 5 % (closed form)
+		expect(g.thdG50Percent).toBeCloseTo(5, 6);
+	});
+});
