@@ -5,6 +5,7 @@
 import { durationS, type Capture, type Diagnostic } from '../capture.js';
 import { findWholeCycles } from '../signal/cycles.js';
 import { waveformFigures } from '../signal/levels.js';
+import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
 import { meterExplanation, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
 import { limitsReport } from './limits-report.js';
@@ -111,7 +112,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			thdRPercent: set ? thdRPercent(rmsByOrder, thdOrder) : NaN,
 			thdMaxOrder: thdOrder,
 			kFactor: set ? ulKFactor(rmsByOrder, thdOrder) : NaN,
-			tddPercent: set && c.quantity === 'current' && options.ilA !== undefined ? tddPercent(rmsByOrder, thdOrder, options.ilA) : NaN,
+			tddPercent: set && c.quantity === 'current' && options.ilA !== undefined ? tddPercent(rmsByOrder, options.ilA, thdOrder) : NaN,
 			averageResponding: { reading: figs.averageResponding.reading, errorPercent: figs.averageResponding.errorPercent, ...(spectra[i] ? { explanation: meterExplanation(spectra[i], c.unit) } : {}) },
 			harmonics: set ? set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })) : [],
 			worstCycle: window ? worstCycle(c.samples, window, fs) : null,
@@ -170,24 +171,8 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	return report;
 }
 
-/** IEEE 519 TDD = 100 · √(Σ_{h=2}^{H} I_h²) / I_L (Ref: IEEE Std 519-2014, 3.1 (from memory); REFERENCE.md §4.3). */
-function tddPercent(rmsByOrder: number[], maxOrder: number, ilA: number): number {
-	let s = 0;
-	for (let h = 2; h <= maxOrder && h < rmsByOrder.length; h++) s += rmsByOrder[h] ** 2;
-	return (100 * Math.sqrt(s)) / ilA;
-}
 
 function timeBaseIrregular(capture: Capture): boolean {
 	return capture.timeS !== undefined;
 }
 
-/** UL K-factor Σ I_h² h² / Σ I_h², h = 1…H (Ref: REFERENCE.md §6, UL 1561/1562 via IEEE C57.110 F_HL; read). */
-function ulKFactor(rmsByOrder: number[], maxOrder: number): number {
-	let num = 0;
-	let den = 0;
-	for (let h = 1; h <= maxOrder && h < rmsByOrder.length; h++) {
-		num += rmsByOrder[h] ** 2 * h * h;
-		den += rmsByOrder[h] ** 2;
-	}
-	return den > 0 ? num / den : NaN;
-}
