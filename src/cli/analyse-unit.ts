@@ -37,7 +37,11 @@ function problemOf(e: unknown, fallbackFile: string): FileProblem {
 		const got = e.text ? `, got ${JSON.stringify(e.text.slice(0, 80))}` : '';
 		return { file: e.source || fallbackFile, line: e.line, column: e.column, code: e.code, message: `${e.code}: expected ${e.expected}${got}` };
 	}
-	if (e instanceof RangeError) return { file: fallbackFile, code: 'bad-option', message: e.message };
+	if (e instanceof RangeError) {
+		// Library messages may already start with the file name; the printed line names it once.
+		const message = e.message.startsWith(`${fallbackFile}: `) ? e.message.slice(fallbackFile.length + 2) : e.message;
+		return { file: fallbackFile, code: 'bad-option', message };
+	}
 	const message = e instanceof Error ? e.message : String(e);
 	return { file: fallbackFile, code: 'internal-error', message: `could not analyse: ${message}` };
 }
