@@ -3,8 +3,11 @@
  */
 import type { LimitRow, OrderLimitTable } from './types.js';
 
-const TABLE = 'EN 50160:2010 Table 1 (LV), via REFERENCE.md §4.1';
-const READ = "[READ: a public instrument maker's manual or application note]";
+const TABLE = 'EN 50160:2010, Table 1 (LV)';
+// The standard is paywalled: the values were read in a secondary source that reprints Table 1 and
+// clause 4.2.8, not in the standard itself.
+const READ = 'read in a secondary source' as const;
+const NOTE = 'Table 1 values read in a published reprint, not in the standard itself';
 
 const values: [number, number][] = [
 	[2, 2.0], [3, 5.0], [4, 1.0], [5, 6.0], [6, 0.5], [7, 5.0], [8, 0.5], [9, 1.5], [10, 0.5], [11, 3.5],
@@ -17,12 +20,12 @@ function rowSource(h: number): string {
 	return `${TABLE}, ${group}, h = ${h}`;
 }
 
-const rows: LimitRow[] = values.map(([order, limitPercent]) => ({ order, limitPercent, source: rowSource(order), provenance: READ }));
+const rows: LimitRow[] = values.map(([order, limitPercent]) => ({ order, limitPercent, source: rowSource(order), provenance: READ, provenanceNote: NOTE }));
 
 /**
  * EN 50160 voltage characteristics of public LV supply: harmonic voltages in % of the fundamental,
  * 10-minute mean RMS values to be met for 95 % of each week; THD (orders 2…40) ≤ 8 %.
- * Ref: EN 50160:2010, 4.2.8 and Table 1 (READ in a public instrument maker's note, REFERENCE.md §4.1).
+ * Ref: EN 50160:2010, 4.2.8 and Table 1 (read in a secondary source that reprints them).
  */
 export const EN50160_TABLE: OrderLimitTable = {
 	kind: 'per-order',
@@ -30,11 +33,12 @@ export const EN50160_TABLE: OrderLimitTable = {
 	name: 'EN 50160 supply voltage harmonics (LV)',
 	source: TABLE,
 	provenance: READ,
+	provenanceNote: NOTE,
 	quantity: 'voltage',
 	basis: '% of the fundamental voltage',
 	assessment: '10-minute mean RMS of each harmonic, ≤ limit for 95 % of the 10-minute intervals of each week',
 	rows,
-	total: { name: 'THD', limitPercent: 8, maxOrder: 40, source: 'EN 50160:2010 4.2.8: THD including orders up to 40 ≤ 8 %, via REFERENCE.md §4.1', provenance: '[READ]' },
+	total: { name: 'THD', limitPercent: 8, maxOrder: 40, source: 'EN 50160:2010, 4.2.8: THD including orders up to 40 ≤ 8 %', provenance: READ, provenanceNote: 'clause 4.2.8 read in a published summary, not in the standard itself' },
 	notes: [
 		'No values are given above order 25: those harmonics are usually small but unpredictable because of resonances.',
 		'The MV table is the same; the 3rd-harmonic value can be much lower depending on network design.',

@@ -33,10 +33,10 @@ function resolveIeee519(t: Ieee519Table, input: LimitInput) {
 	if (quantity === 'voltage') {
 		const row = t.voltage.find((r) => v > r.aboveV && v <= r.upToV)!;
 		const rows: LimitRow[] = [];
-		for (let h = 2; h <= t.voltageMaxOrder; h++) rows.push({ order: h, limitPercent: row.individualPercent, source: `${row.source}, individual harmonic`, provenance: row.provenance });
+		for (let h = 2; h <= t.voltageMaxOrder; h++) rows.push({ order: h, limitPercent: row.individualPercent, source: `${row.source}, individual harmonic`, provenance: row.provenance, provenanceNote: row.provenanceNote });
 		return {
 			rows,
-			total: { name: 'THD' as const, limitPercent: row.thdPercent, maxOrder: t.voltageMaxOrder, source: `${row.source}, THD`, provenance: row.provenance },
+			total: { name: 'THD' as const, limitPercent: row.thdPercent, maxOrder: t.voltageMaxOrder, source: `${row.source}, THD`, provenance: row.provenance, provenanceNote: row.provenanceNote },
 			selection: `Table 1 row for a ${v} V bus`,
 			quantity,
 			basis: '% of the fundamental voltage',
@@ -53,25 +53,32 @@ function resolveIeee519(t: Ieee519Table, input: LimitInput) {
 		const odd = row.bandPercent[band];
 		const b = t.currentBands[band];
 		if (h % 2 === 1) {
-			rows.push({ order: h, limitPercent: odd, source: `${row.source}, ${b.fromOrder === 2 ? 3 : b.fromOrder} ≤ h ≤ ${b.toOrder}`, provenance: row.provenance });
+			rows.push({ order: h, limitPercent: odd, source: `${row.source}, ${b.fromOrder === 2 ? 3 : b.fromOrder} ≤ h ≤ ${b.toOrder}`, provenance: row.provenance, provenanceNote: row.provenanceNote });
 		} else {
 			const factor = rule.steps.find((s) => h <= s.upToOrder)!.factor;
-			rows.push({ order: h, limitPercent: odd * factor, source: `${row.source}, even h: ${factor * 100} % of the odd limit ${odd} % (${edition} rule: ${rule.text})`, provenance: `${row.provenance}; even rule ${rule.provenance}` });
+			rows.push({
+				order: h,
+				limitPercent: odd * factor,
+				source: `${row.source}, even h: ${factor * 100} % of the odd limit ${odd} % (${edition} rule: ${rule.text})`,
+				provenance: row.provenance === 'from memory' || rule.provenance === 'from memory' ? 'from memory' : 'read in a secondary source',
+				provenanceNote: `${row.provenanceNote}; even rule: ${rule.provenanceNote}`,
+			});
 		}
 	}
 	return {
 		rows,
-		total: { name: 'TDD' as const, limitPercent: row.tddPercent, maxOrder: t.currentMaxOrder, source: `${row.source}, TDD`, provenance: row.provenance },
+		total: { name: 'TDD' as const, limitPercent: row.tddPercent, maxOrder: t.currentMaxOrder, source: `${row.source}, TDD`, provenance: row.provenance, provenanceNote: row.provenanceNote },
 		selection: `${row.source}; ${v} V bus; ${edition} even-harmonic rule`,
 		quantity,
 		basis: '% of the maximum demand load current I_L',
 	};
 }
 
-function check(label: string, order: number | null, measured: number | undefined, limit: number, source: string, provenance: string): LimitCheck {
+function check(label: string, order: number | null, measured: number | undefined, limit: number, row: Pick<LimitRow, 'source' | 'provenance' | 'provenanceNote'>): LimitCheck {
+	const { source, provenance, provenanceNote } = row;
 	const m = measured === undefined ? NaN : measured;
 	const ok = Number.isFinite(m);
-	return { label, order, measuredPercent: m, limitPercent: limit, marginPercent: ok ? limit - m : NaN, pass: ok ? m <= limit : null, source, provenance };
+	return { label, order, measuredPercent: m, limitPercent: limit, marginPercent: ok ? limit - m : NaN, pass: ok ? m <= limit : null, source, provenance, provenanceNote };
 }
 
 /**
@@ -93,7 +100,7 @@ export function evaluateLimits(table: LimitTableId | LimitTable, input: LimitInp
 	if (!t) throw new RangeError(`unknown limit table '${String(table)}'; known: ${Object.keys(LIMIT_TABLES).join(', ')}`);
 	const r = resolve(t, input);
 	const values = r.quantity === 'current' ? input.percentOfIl : input.percentOfFundamental;
-	const checks = r.rows.map((row) => check(`h${row.order}`, row.order, values?.[row.order], row.limitPercent, row.source, row.provenance));
+	const checks = r.rows.map((row) => check(`h${row.order}`, row.order, values?.[row.order], row.limitPercent, row));
 	let measuredTotal = r.quantity === 'current' ? input.tddPercent : input.thdPercent;
 	const notes = [...t.notes];
 	if (measuredTotal === undefined && values && values.length > r.total.maxOrder) {
@@ -102,7 +109,7 @@ export function evaluateLimits(table: LimitTableId | LimitTable, input: LimitInp
 		measuredTotal = Math.sqrt(s);
 		notes.push(`${r.total.name} computed from the per-order values, orders 2…${r.total.maxOrder}.`);
 	}
-	const total = check(r.total.name, null, measuredTotal, r.total.limitPercent, r.total.source, r.total.provenance);
+	const total = check(r.total.name, null, measuredTotal, r.total.limitPercent, r.total);
 	const all = [...checks, total];
 	const failedCount = all.filter((c) => c.pass === false).length;
 	const measured = all.filter((c) => c.pass !== null).length;

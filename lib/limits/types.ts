@@ -1,8 +1,15 @@
 /**
- * Harmonic limit tables as plain data. Every table and every row carries its source and a provenance
- * tag as in REFERENCE.md: '[READ: …]' when the value was read in a public text, '[MEMORY]' when it is a
- * recollection of the standard still to be checked against a licensed copy.
+ * Harmonic limit tables as plain data. Every table and every row carries its source (standard, edition,
+ * clause or table: printable) and, separately, how we obtained the value: `provenance` says whether it
+ * was read in a secondary source (the standards are paywalled) or is from memory of the standard and
+ * still to be checked against a licensed copy; `provenanceNote` says a little more, in our own words.
  */
+
+/** How a limit value was obtained. */
+export type LimitProvenance = 'read in a secondary source' | 'from memory';
+
+/** Provenance of a whole table: one kind for every row, or 'per row' when rows differ. */
+export type LimitTableProvenance = LimitProvenance | 'per row';
 
 /** Ids the CLI and UI use to pick a table. */
 export type LimitTableId = 'en50160' | 'iec61000-2-2' | 'ieee519';
@@ -11,10 +18,11 @@ export type LimitTableId = 'en50160' | 'iec61000-2-2' | 'ieee519';
 export interface LimitRow {
 	order: number;
 	limitPercent: number;
-	/** Printable source: standard, table and how the value was obtained (formula, band, rule). */
+	/** Printable source: standard, edition, clause/table and which entry (formula, band, rule). */
 	source: string;
-	/** '[READ: …]' or '[MEMORY]'. */
-	provenance: string;
+	provenance: LimitProvenance;
+	/** A short note on how the value was obtained (secondary text, recollection, rule applied). */
+	provenanceNote: string;
 }
 
 /** A limit on a total (THD of voltage, or TDD of current). */
@@ -24,7 +32,8 @@ export interface TotalLimit {
 	/** Highest harmonic order included in the total. */
 	maxOrder: number;
 	source: string;
-	provenance: string;
+	provenance: LimitProvenance;
+	provenanceNote: string;
 }
 
 /** A table with one fixed limit per order (EN 50160, IEC 61000-2-2). */
@@ -33,7 +42,8 @@ export interface OrderLimitTable {
 	id: LimitTableId;
 	name: string;
 	source: string;
-	provenance: string;
+	provenance: LimitTableProvenance;
+	provenanceNote: string;
 	quantity: 'voltage';
 	/** What the percentages are relative to. */
 	basis: string;
@@ -51,7 +61,8 @@ export interface Ieee519VoltageRow {
 	individualPercent: number;
 	thdPercent: number;
 	source: string;
-	provenance: string;
+	provenance: LimitProvenance;
+	provenanceNote: string;
 }
 
 /** IEEE 519 Tables 2–4: odd-harmonic current limits (% of I_L) by I_SC/I_L, for a bus voltage range. */
@@ -67,7 +78,8 @@ export interface Ieee519CurrentRow {
 	bandPercent: number[];
 	tddPercent: number;
 	source: string;
-	provenance: string;
+	provenance: LimitProvenance;
+	provenanceNote: string;
 }
 
 /** How even-harmonic current limits follow from the odd limits in one edition. */
@@ -76,7 +88,8 @@ export interface Ieee519EvenRule {
 	/** For even order h: factor of the odd limit of h's band, taken from the first step with h ≤ upToOrder. */
 	steps: { upToOrder: number; factor: number }[];
 	text: string;
-	provenance: string;
+	provenance: LimitProvenance;
+	provenanceNote: string;
 }
 
 export interface Ieee519Table {
@@ -84,7 +97,8 @@ export interface Ieee519Table {
 	id: 'ieee519';
 	name: string;
 	source: string;
-	provenance: string;
+	provenance: LimitTableProvenance;
+	provenanceNote: string;
 	assessment: string;
 	voltage: Ieee519VoltageRow[];
 	voltageMaxOrder: number;
@@ -130,8 +144,10 @@ export interface LimitCheck {
 	marginPercent: number;
 	/** measured ≤ limit; null when the value was not measured (missing or NaN). */
 	pass: boolean | null;
+	/** Printable: standard, edition, table and entry. */
 	source: string;
-	provenance: string;
+	provenance: LimitProvenance;
+	provenanceNote: string;
 }
 
 export interface LimitEvaluation {
