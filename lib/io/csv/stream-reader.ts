@@ -54,7 +54,9 @@ export class CsvStreamReader {
 	push(chunk: Uint8Array): void {
 		if (this.finished) throw new Error('CsvStreamReader: push() after finish()');
 		this.bytesDone += chunk.length;
-		let bytes = chunk;
+		// a plain Uint8Array view of a Node Buffer (a subclass): the scanner then sees one array type only,
+		// which keeps its element loads monomorphic
+		let bytes = Object.getPrototypeOf(chunk) === Uint8Array.prototype ? chunk : new Uint8Array(chunk.buffer, chunk.byteOffset, chunk.byteLength);
 		if (this.transcode) bytes = new TextEncoder().encode(this.transcode.decode(chunk, { stream: true }));
 		if (this.scanner) this.feed(bytes);
 		else {
