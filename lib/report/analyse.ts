@@ -115,6 +115,15 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			tddPercent: set && c.quantity === 'current' && options.ilA !== undefined ? tddPercent(rmsByOrder, options.ilA, thdOrder) : NaN,
 			averageResponding: { reading: figs.averageResponding.reading, errorPercent: figs.averageResponding.errorPercent, ...(spectra[i] ? { explanation: meterExplanation(spectra[i], c.unit) } : {}) },
 			harmonics: set ? set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })) : [],
+			groups: agg
+				? {
+						harmonicGroupRms: Array.from(agg.groups.harmonicGroupRms),
+						harmonicSubgroupRms: Array.from(agg.groups.harmonicSubgroupRms),
+						interharmonicGroupRms: Array.from(agg.groups.interharmonicGroupRms),
+						interharmonicSubgroupRms: Array.from(agg.groups.interharmonicSubgroupRms),
+					}
+				: null,
+			thdVariants: agg ? { ...agg.thd } : null,
 			worstCycle: window ? worstCycle(c.samples, window, fs) : null,
 			warnings: chWarnings,
 		};

@@ -94,6 +94,13 @@ export interface ReportChannel {
 	averageResponding: { reading: number; errorPercent: number; explanation?: { summary: string; reasons: string[] } };
 	/** Orders 0..maxOrder. */
 	harmonics: ReportHarmonic[];
+	/**
+	 * IEC 61000-4-7 groupings of the aggregated DFT bins (RMS, channel unit), index = order (interharmonic
+	 * index n = between n and n+1); null without harmonics.
+	 */
+	groups: { harmonicGroupRms: number[]; harmonicSubgroupRms: number[]; interharmonicGroupRms: number[]; interharmonicSubgroupRms: number[] } | null;
+	/** The THD variants of lib/spectrum (F/R to order 40 and 50; G from groups, S from subgroups), percent; null without harmonics. */
+	thdVariants: Record<string, number> | null;
 	/** The worst whole cycle by RMS and by peak, null without whole cycles. */
 	worstCycle: ReportWorstCycle | null;
 	/** Warnings about this channel's data (clipping, DC offset, few cycles...). */
