@@ -85,7 +85,7 @@ describe('phase-voltage example of REFERENCE.md §5.4/§7 [COMPUTED by reference
 	});
 });
 
-describe('NEMA line-voltage unbalance, published examples [READ: instrument maker notes quoted in REFERENCE.md §7]', () => {
+describe('NEMA line-voltage unbalance, published examples (NEMA MG 1 LVUR; examples read in a secondary source, REFERENCE.md §7)', () => {
 	it('460/467/450 V gives LVUR 1.96 % (published); β 0.33364020 and VUF 2.1465 % [COMPUTED]', () => {
 		const u = lineMagnitudeUnbalance(460, 467, 450);
 		expect(u.lvurPercent).toBeCloseTo(1.96, 2);
@@ -144,7 +144,7 @@ describe('phaseRotation', () => {
 });
 
 describe('currentUnbalance', () => {
-	it('of the REFERENCE.md §5.4 currents (10∠−30°, 12∠−150°, 8∠90°) gives max deviation 20 % (closed form: avg 10, dev 2) and |I0|/|I1| = |In|/(3|I1|)', () => {
+	it('of the REFERENCE.md §5.4 currents (computed vector from the shared reference script: 10∠−30°, 12∠−150°, 8∠90°) gives max deviation 20 % (closed form: avg 10, dev 2) and |I0|/|I1| = |In|/(3|I1|)', () => {
 		const ia = P(10, -30);
 		const ib = P(12, -150);
 		const ic = P(8, 90);

@@ -9,6 +9,7 @@ describe('channelRelationFromSamples (lib/signal whole cycles + lib/spectrum pha
 		const i = sineSamples({ amplitude: 14, frequencyHz: 49.95, sampleRateHz: fs, cycles: 10.6, phaseDeg: -32 });
 		const r = channelRelationFromSamples(u, i, fs, 'U1', 'I1');
 		if (!r.ok) throw new Error(r.message);
+		// 0.05°: our tolerance (about 0.03 samples at 10 kS/s); 32° is the phase the test synthesised
 		expect(Math.abs(r.timeLag.lagDeg - r.fundamentalLagDeg)).toBeLessThan(0.05);
 		expect(r.fundamentalLagDeg).toBeCloseTo(32, 3);
 		expect(r.sentence).toBe('I1 lags U1 by 32.0 deg');
@@ -39,6 +40,8 @@ describe('singlePhasePowerFromSamples', () => {
 		const i = harmonicSamples([{ order: 1, rms: 10, phaseDeg: -30 }, { order: 3, rms: 3, phaseDeg: 60 }, { order: 5, rms: 2, phaseDeg: -45 }], o);
 		const r = singlePhasePowerFromSamples(v, i, 12_800);
 		if (!r.ok) throw new Error(r.message);
+		// REFERENCE.md §5.3, computed vector from the shared reference script; the last three are closed form:
+		// Q1 = 230·10·sin 30° = 1150 var, DPF = cos 30° = 0.866025, THD_I = √(3² + 2²)/10 = 36.0555 %
 		expect(r.power.activePowerW).toBeCloseTo(2018.4719, 2);
 		expect(r.power.fundamentalReactivePowerVar).toBeCloseTo(1150, 2);
 		expect(r.power.apparentPowerVA).toBeCloseTo(2449.0864, 2);

@@ -14,7 +14,7 @@ function setOf(rms: number[]): HarmonicSet {
 }
 
 describe('ulKFactor', () => {
-	it('ulKFactor of the REFERENCE.md §6 spectrum is 8.3476 (published worked example)', () => {
+	it('ulKFactor of the REFERENCE.md §6 spectrum is 8.3476 (published worked example, read in a secondary source; the shared reference script agrees)', () => {
 		expect(ulKFactor(WORKED)).toBeCloseTo(8.3476, 4);
 	});
 	it('ulKFactor of a pure fundamental is 1 (definition)', () => {
@@ -29,7 +29,7 @@ describe('ulKFactor', () => {
 });
 
 describe('factorK', () => {
-	it('factorK of the §6 spectrum with q = 1.7, e/(1+e) = 0.091 is 1.14672 (sum from n = 2, REFERENCE.md §6)', () => {
+	it('factorK of the §6 spectrum with q = 1.7, e/(1+e) = 0.091 is 1.14672 (sum from n = 2, REFERENCE.md §6, computed vector from the shared reference script)', () => {
 		const e = 0.091 / (1 - 0.091);
 		expect(factorK(WORKED, e, 1.7)).toBeCloseTo(1.14672, 5);
 	});
@@ -64,7 +64,7 @@ describe('tddPercent and percentOfIl', () => {
 });
 
 describe('thdFPercent and thdRPercent', () => {
-	it('thdFPercent of the REFERENCE.md §1.3 spectrum is 6.16441 %', () => {
+	it('thdFPercent of the REFERENCE.md §1.3 spectrum is 6.16441 % (computed vector from the shared reference script)', () => {
 		const r = new Array(41).fill(0);
 		r[1] = 230;
 		r[3] = 4.6;

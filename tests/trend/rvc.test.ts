@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { createTrendAnalyser, type TrendOptions, type TrendResult } from '../../lib/trend/index.js';
 import { makeChannels, type ChannelSpec } from './signals.js';
 
-// Rapid voltage changes: IEC 61000-4-30:2015 5.11 as public instrument makers' manuals describe it (read;
-// not in REFERENCE.md): steady state = 100 Urms(1/2) values at 50 Hz within the threshold of their mean.
+// Rapid voltage changes: IEC 61000-4-30:2015 5.11 as secondary sources describe it (read in a secondary
+// source; not in the shared reference notes): steady state = 100 Urms(1/2) values at 50 Hz within the threshold of their mean.
 // Expected values are closed forms of the constructed steps.
 const V3 = ['L1', 'L2', 'L3'].map((name) => ({ name, quantity: 'voltage' as const, unit: 'V' }));
 
