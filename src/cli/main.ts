@@ -30,7 +30,7 @@ cli
 	.option('--secondary', 'COMTRADE: report secondary values (what the recorder saw) instead of primary')
 	.option('--pair <voltage=current>', 'Pair a voltage and a current channel for power (replaces pairing by phase label); repeatable', { type: [String] })
 	.option('--window <cycles>', 'Harmonic window length in cycles (default 10 at 50 Hz, 12 at 60 Hz)')
-	.option('--nominal <V>', 'Nominal voltage in V (chooses the IEEE 519 voltage row)')
+	.option('--nominal <V>', 'Nominal system voltage in V, line-to-line (e.g. 400 for 230/400 V): chooses the IEEE 519 row; default from the measured voltage')
 	.option('--nominal-hz <Hz>', 'Nominal frequency, 50 or 60 (default: from the file, else the nearer one)')
 	.option('--max-order <n>', 'Highest harmonic order reported (default 50)')
 	.option('--whole-record', 'Time-domain figures over every sample instead of whole cycles')
