@@ -1,6 +1,6 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { openCaptures, parseComtrade } from '../../lib/index.js';
+import { durationS, openCaptures, parseComtrade, sampleCount } from '../../lib/index.js';
 
 // The real recording in ../shared/data (never copied into the repo). Facts checked here are the ones its
 // PROVENANCE.md states; numbers are recomputed in this file from the raw .cfg/.dat text, by hand.
@@ -43,10 +43,25 @@ describe.skipIf(!present)('parseComtrade on the real feeder-sag recording (PROVE
 		expect(capture.startTime).toBe('2012-07-11T08:44:21.051022');
 	});
 
+	it('spans (3584 − 1) / 7678.4833984375 Hz = 0.466629 s from first to last sample, as PROVENANCE.md\'s figures give', () => {
+		// PROVENANCE.md: 3584 samples at 7678.4833984375 samples/s. First to last sample: 3583 intervals,
+		// 3583 / 7678.4833984375 = 0.4666286… s (by hand: 7678.4833984375 × 0.4666 = 3582.78, remainder
+		// 0.22 / 7678.48 = 0.0000286 s). The whole record (each sample standing for 1/fs) is 3584 / fs = 0.466759 s.
+		const samples = 3584;
+		const rateHz = 7678.4833984375;
+		const spanS = (samples - 1) / rateHz;
+		expect(spanS).toBeCloseTo(0.466629, 6);
+		expect((sampleCount(capture) - 1) / capture.sampleRateHz).toBeCloseTo(spanS, 12);
+		expect(durationS(capture)).toBeCloseTo(samples / rateHz, 12);
+		// last sample time from the parsed capture: startS + span = -0.041663 + 0.466629 = 0.424966 s
+		expect(capture.startS + (sampleCount(capture) - 1) / capture.sampleRateHz).toBeCloseTo(-0.041663 + spanS, 12);
+	});
+
 	it('has time stamps that agree with the rate, so the reader raises no warning', () => {
-		// by hand: stamps run from -41663 to 424965 µs = 0.466628 s; 3583 intervals / 7678.4833984375 Hz = 0.466629 s
+		// by hand: stamps run from -41663 to 424965 µs = 0.466628 s, within the 1 µs stamp resolution of the
+		// 0.4666286 s that 3583 intervals at the declared rate take
 		expect(rows[rows.length - 1][1] - rows[0][1]).toBe(466628);
-		expect(3583 / 7678.4833984375).toBeCloseTo(0.466629, 6);
+		expect(Math.abs((rows[rows.length - 1][1] - rows[0][1]) * 1e-6 - (sampleCount(capture) - 1) / capture.sampleRateHz)).toBeLessThanOrEqual(1e-6);
 		expect(rows.every((r, k) => r[0] === k + 1)).toBe(true);
 		expect(capture.diagnostics.filter((d) => d.severity === 'warning')).toEqual([]);
 	});
