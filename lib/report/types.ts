@@ -34,7 +34,7 @@ export interface AnalysisOptions {
 	span?: 'whole-cycles' | 'whole-record';
 	/** Harmonic window length in fundamental cycles; default 10 at 50 Hz, 12 at 60 Hz (IEC 61000-4-7). */
 	windowCycles?: number;
-	/** Nominal system voltage in V (line-to-neutral as recorded); chooses the IEEE 519 bus-voltage row. */
+	/** Nominal system voltage in V, line-to-line (400 for a 230/400 V supply); chooses the IEEE 519 bus-voltage row. */
 	nominalV?: number;
 	/** Nominal system frequency in Hz (50 or 60); default: what the capture declares, else the nearer of 50/60. */
 	nominalHz?: number;
