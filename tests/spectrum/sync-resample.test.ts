@@ -29,12 +29,34 @@ describe('syncResample', () => {
 		});
 	}
 
-	it('syncResampleHalfTaps grows as the passband nears fs/2 and stays within 4…32', () => {
+	// Kaiser's window design rule (J. F. Kaiser, "Nonrecursive digital filter design using the I0-sinh window
+	// function", Proc. IEEE Int. Symp. on Circuits and Systems, 1974; from memory): a lowpass with stopband
+	// attenuation A dB and transition width Δf (cycles per sample) needs order N ≈ (A − 7.95) / (14.36·Δf),
+	// i.e. N + 1 taps. For the interpolation kernel the transition runs from the passband edge ν_p to the
+	// first image of it at 1 − ν_p, so Δf = 1 − 2ν_p; the kernel has 2W taps, so W = ⌈(N + 1) / 2⌉.
+	// A = 110 dB is the kernel's design attenuation as syncResample documents it (an input here, not a result).
+	const A_DB = 110;
+	const kaiserHalfTaps = (passband: number) => Math.ceil(((A_DB - 7.95) / (14.36 * (1 - 2 * passband)) + 1) / 2);
+
+	it('syncResampleHalfTaps follows Kaiser\'s length rule: 8 taps a side for ν_p = 0.255, 17 for 0.39, 5 for 0', () => {
+		// by hand, ν_p = 0.255 (order 51 of 50 Hz at 10 kS/s): Δf = 0.49, N = 102.05 / (14.36 · 0.49) = 102.05 / 7.0364
+		// = 14.50, so 15.50 → 16 taps, W = 8
+		expect(kaiserHalfTaps(0.255)).toBe(8);
 		expect(syncResampleHalfTaps(0.255)).toBe(8);
+		// ν_p = 0.39: Δf = 0.22, N = 102.05 / 3.1592 = 32.30, so 33.30 → 34 taps, W = 17
+		expect(kaiserHalfTaps(0.39)).toBe(17);
+		expect(syncResampleHalfTaps(0.39)).toBe(17);
+		// ν_p = 0 (widest transition, Δf = 1): N = 102.05 / 14.36 = 7.11, so 8.11 → 10 taps (an even count), W = 5
+		expect(kaiserHalfTaps(0)).toBe(5);
+		expect(syncResampleHalfTaps(0)).toBe(5);
+	});
+
+	it('syncResampleHalfTaps grows as the passband nears fs/2 and is held within its documented 4…32', () => {
+		for (const nu of [0, 0.1, 0.2, 0.255, 0.3, 0.35, 0.39, 0.42]) expect(syncResampleHalfTaps(nu)).toBe(Math.min(32, Math.max(4, kaiserHalfTaps(nu))));
 		expect(syncResampleHalfTaps(0.1)).toBeLessThan(syncResampleHalfTaps(0.3));
-		// Kaiser's rule for 110 dB with the widest transition (0 … 1): 2W − 1 ≥ 102.05/(2.285·2π)
-		expect(syncResampleHalfTaps(0)).toBe(Math.ceil(((110 - 7.95) / (2.285 * 2 * Math.PI) + 1) / 2));
-		expect(syncResampleHalfTaps(0.5)).toBeLessThanOrEqual(32);
+		// ν_p = 0.49: Δf = 0.02, N = 102.05 / 0.2872 = 355: far over 32, so held at the cap
+		expect(kaiserHalfTaps(0.49)).toBeGreaterThan(32);
+		expect(syncResampleHalfTaps(0.49)).toBe(32);
 	});
 
 	it('keeps a constant exactly (weights renormalised to sum 1)', () => {
