@@ -27,6 +27,8 @@ export interface Verdict {
 export const METER_OK_PERCENT = 1;
 /** Power factor below 0.9 flagged: a threshold many supply contracts charge reactive energy at (common practice). */
 export const LOW_POWER_FACTOR = 0.9;
+/** Displacement power factor taken as "near 1" when explaining a low power factor (common practice). */
+export const DISPLACEMENT_NEAR_ONE = 0.95;
 /** Voltage unbalance above 2 %: the EN 50160 limit for 95 % of 10-minute values (from memory). */
 export const UNBALANCE_LIMIT_PERCENT = 2;
 
@@ -114,12 +116,14 @@ export function verdictsFor(report: AnalysisReport): Verdict[] {
 	for (const ch of report.channels) if (ch.quantity !== 'other') out.push(meter(ch));
 	for (const p of report.power) {
 		const low = Number.isFinite(p.powerFactor) && Math.abs(p.powerFactor) < LOW_POWER_FACTOR;
+		// PF = DPF × distortion factor (IEEE 1459): a low PF with a DPF near 1 comes from the current's harmonics
+		const fromDistortion = low && Math.abs(p.displacementPowerFactor) >= DISPLACEMENT_NEAR_ONE;
 		const character = p.character ? `${p.character} load` : 'load character unknown';
 		out.push({
 			id: `load-${p.voltage}-${p.current}`,
 			topic: 'load',
 			level: low ? 'attention' : 'ok',
-			text: `${p.current} on ${p.voltage}: ${character}, power factor ${formatRatio(p.powerFactor, 2)}${low ? ` (below ${LOW_POWER_FACTOR})` : ''}.`,
+			text: `${p.current} on ${p.voltage}: ${character}, power factor ${formatRatio(p.powerFactor, 2)}${low ? ` (below ${LOW_POWER_FACTOR})` : ''}.${fromDistortion ? ' The shortfall comes from harmonic current, not phase shift: capacitors will not correct it.' : ''}`,
 			figure: `P ${formatQuantity(p.activeW, 'W')}, S ${formatQuantity(p.apparentVA, 'VA')}, Q₁ ${formatQuantity(p.reactiveVar, 'var')}; displacement PF ${formatRatio(p.displacementPowerFactor)}`,
 			target: { tab: 'phasors', channel: p.current },
 		});

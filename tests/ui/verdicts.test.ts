@@ -72,6 +72,15 @@ describe('verdictsFor', () => {
 		expect(v?.figure).toContain('5th harmonic at 3.00 % of 6.00 % allowed');
 	});
 
+	it('verdictsFor a low power factor with the current in phase says the shortfall comes from harmonics (PF = DPF × I1/I, IEEE 1459)', () => {
+		// in-phase current with a 100 % 3rd harmonic: DPF = 1, distortion factor 1/√2, so PF = 0.707
+		const u = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 20.5 });
+		const i = harmonicSamples([{ order: 1, rms: 10 }, { order: 3, rms: 10 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 20.5 });
+		const v = verdictsFor(analyseCapture(capture([volts('U1', u), amps('I1', i)]))).find((x) => x.topic === 'load');
+		expect(v?.text).toContain('power factor 0.71 (below 0.9)');
+		expect(v?.text).toContain('comes from harmonic current');
+	});
+
 	const threePhase = (bDeg: number, cDeg: number, cScale = 1) =>
 		capture([
 			volts('U1', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 20 })),
