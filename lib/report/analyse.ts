@@ -7,7 +7,7 @@ import { findWholeCycles } from '../signal/cycles.js';
 import { waveformFigures } from '../signal/levels.js';
 import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
-import { meterExplanation, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
+import { digitalSummary, meterExplanation, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
 import { limitsReport } from './limits-report.js';
 import { chooseReference } from './reference.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
@@ -154,6 +154,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		threePhaseSets: [],
 		threePhasePower: null,
 		neutral: null,
+		digital: digitalSummary(capture),
 	};
 	if (window && ref.index >= 0) {
 		const phasors = alignedFundamentals(spectra, ref.index);

@@ -12,7 +12,7 @@ import type { CycleWindow } from '../signal/cycles.js';
 import { perCycleFigures } from '../signal/per-cycle.js';
 import { averageMeterExplanation } from '../spectrum/average-meter.js';
 import { channelSpectrum, type ChannelSpectrum, type WindowSlot } from './spectra.js';
-import type { ReportNeutral, ReportThreePhasePower, ReportWorstCycle } from './types.js';
+import type { ReportDigital, ReportNeutral, ReportThreePhasePower, ReportWorstCycle } from './types.js';
 
 /** The cycle with the highest RMS and the one with the highest peak magnitude (UPS and generator sizing). */
 export function worstCycle(samples: Float64Array, window: CycleWindow, sampleRateHz: number): ReportWorstCycle {
@@ -90,4 +90,26 @@ export function neutralCurrent(
 	const set = slots.length > 0 ? channelSpectrum(sum, capture.sampleRateHz, slots, maxOrder).aggregate.set : undefined;
 	const f = neutralCurrentFigures('computed', powerWindowRms(sum, window), phaseRms, set);
 	return { channel: null, ...f };
+}
+
+/**
+ * Each digital channel in brief: changes, when it first left its normal state, how long it was off it.
+ * Without a declared normal state, state 1 counts as active. Times assume uniform sampling at fs.
+ */
+export function digitalSummary(capture: Capture): ReportDigital[] {
+	const fs = capture.sampleRateHz;
+	return (capture.digital ?? []).map((d) => {
+		const active = d.normalState === undefined ? 1 : 1 - d.normalState;
+		let changes = 0;
+		let first = -1;
+		let count = 0;
+		for (let n = 0; n < d.states.length; n++) {
+			if (n > 0 && d.states[n] !== d.states[n - 1]) changes++;
+			if (d.states[n] === active) {
+				count++;
+				if (first < 0) first = n;
+			}
+		}
+		return { name: d.name, normalState: d.normalState ?? null, changes, firstActiveS: first < 0 ? NaN : first / fs, activeS: count / fs };
+	});
 }

@@ -150,6 +150,19 @@ export interface ReportNeutral {
 	sentence: string;
 }
 
+/** A binary status channel in brief. */
+export interface ReportDigital {
+	name: string;
+	/** Normal state as the source declares it, or null. */
+	normalState: number | null;
+	/** Number of state changes in the record. */
+	changes: number;
+	/** Time of the first sample off the normal state (or of the first change when none is declared), s from the first sample; NaN when never. */
+	firstActiveS: number;
+	/** Samples in the non-normal state (or in state 1 when none is declared), s. */
+	activeS: number;
+}
+
 export interface ReportPair {
 	ref: string;
 	other: string;
@@ -263,6 +276,8 @@ export interface AnalysisReport {
 	threePhasePower: ReportThreePhasePower | null;
 	/** Neutral current when three phase currents form a set; else null. */
 	neutral: ReportNeutral | null;
+	/** Binary status channels (COMTRADE digital), summarised: when they left their normal state. */
+	digital: ReportDigital[];
 	/** Present only when a limit table was asked for. */
 	limits?: ReportLimits;
 }

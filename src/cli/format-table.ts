@@ -138,6 +138,10 @@ export function formatReport(r: ReportJson): string[] {
 		const seq = (x: number | null) => (x !== null && t.sequence.positive !== null && Math.abs(x) < 1e-9 * Math.abs(t.sequence.positive) ? '0' : formatNumber(x));
 		out.push(`    sequence components (RMS): zero ${seq(t.sequence.zero)}, positive ${seq(t.sequence.positive)}, negative ${seq(t.sequence.negative)}`);
 	}
+	for (const d of r.digital ?? []) {
+		const when = d.firstActiveS === null ? 'never active' : `active from ${fixed(d.firstActiveS, 4)} s for ${fixed(d.activeS, 4)} s`;
+		out.push('', `  status ${d.name}: ${when}; ${d.changes} change(s)`);
+	}
 	if (r.limits) {
 		const failed = r.limits.rows.filter((x) => !x.pass);
 		out.push('', `  limits ${r.limits.table} (${r.limits.title}): ${r.limits.pass ? 'PASS' : `FAIL (${failed.length} over)`}`);

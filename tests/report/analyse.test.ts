@@ -302,3 +302,14 @@ describe('analyseCapture: IEC 61000-4-7 groups', () => {
 		expect(c.thdVariants!.thdG50Percent).toBeCloseTo((100 * Math.hypot(10, 3)) / 230, 2);
 	});
 });
+
+describe('analyseCapture: digital channels', () => {
+	it('analyseCapture(capture) counts the changes of a status channel and times its active span from its normal state', () => {
+		const states = new Uint8Array(2000);
+		states.fill(1, 500, 740); // active (off the normal 0) from sample 500 for 240 samples
+		const c = capture([channel('U1', 'V', 'voltage', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 10 }))]);
+		c.digital = [{ name: 'trip', normalState: 0, states }];
+		const d = analyseCapture(c).digital;
+		expect(d).toEqual([{ name: 'trip', normalState: 0, changes: 2, firstActiveS: 500 / FS, activeS: 240 / FS }]);
+	});
+});
