@@ -90,8 +90,28 @@ describe('iecHarmonicGroups via harmonicWindow', () => {
 			expect(w.groups.interharmonicGroupRms[h]).toBeCloseTo(Math.sqrt(ig), 9);
 			expect(w.groups.interharmonicSubgroupRms[h]).toBeCloseTo(Math.sqrt(isg), 9);
 		}
-		// the 252.5 Hz tone splits between bins 50 and 51 (|D| equal at ±0.5): its power is mostly in group 5
-		expect(w.groups.harmonicGroupRms[5]).toBeGreaterThan(3.9);
+	});
+
+	it('a tone half-way between bins (252.5 Hz = bin 50.5) puts 95.9 % of its power in group 5, as the Dirichlet kernel splits it', () => {
+		// Closed form: a tone at bin α = k0 + ½ of a rectangular N-point window lands in bin k with the share
+		// |D(α − k)|²/N² = sin²(π(α − k)) / (N² sin²(π(α − k)/N)) → 1/(π²(α − k)²) for |α − k| ≪ N (the shares
+		// over all k sum to (2/π²)·Σ_m 1/(m + ½)² = (8/π²)·(π²/8) = 1). Group 5 = bins 46…54 in full, 45 and 55 half
+		// (IEC 61000-4-7, REFERENCE §2.2, from memory): distances ½ (twice), 1½ (twice), 2½ (twice), 3½ (twice),
+		// 4½ (bin 46), and the half-weighted 5½ (bin 45) and 4½ (bin 55):
+		// share = (1/π²)·[2·(4 + 0.4444 + 0.16 + 0.08163) + 0.04938 + ½·0.03306 + ½·0.04938] = 9.4627/π² = 0.95878,
+		// so G_g,5 = 4 V·√0.95878 = 3.9167 V.
+		// Left out: sin(πd/N) ≈ πd/N (relative error ≤ (π·5.5/2000)²/6 ≈ 1e-5) and the cross term with the
+		// tone's negative-frequency image at −α, whose share in bin k is 1/(π²(α + k)²): bounded by
+		// Σ_k 2/(π²|α − k|·|α + k|) = 0.0143 of the tone's power (1.5 % of the group's), i.e. ≤ 0.75 % of G_g,5; the test allows 1 %.
+		const alpha = 50.5;
+		let share = 0;
+		for (let k = 45; k <= 55; k++) share += (k === 45 || k === 55 ? 0.5 : 1) / (Math.PI ** 2 * (alpha - k) ** 2);
+		expect(share).toBeCloseTo(0.95878, 5); // the hand sum above
+		const x = harmonicSamples([{ order: 1, rms: 230, phaseDeg: 17 }, { order: 5.05, rms: 4, phaseDeg: 63 }], { frequencyHz: 50, sampleRateHz: 10_000, samples: 2000 });
+		const w = harmonicWindow(x, 10_000, { fundamentalHz: 50, maxOrder: 20 });
+		// the 50 Hz fundamental sits on bin 10 and leaks nothing into group 5 (D(integer ≠ 0) = 0)
+		const expected = 4 * Math.sqrt(share);
+		expect(Math.abs(w.groups.harmonicGroupRms[5] / expected - 1)).toBeLessThan(0.01);
 	});
 
 	it('12-cycle windows (60 Hz): the edge bins k ± 6 are half-weighted (IEC 61000-4-7, REFERENCE.md §2.2, from memory; N = 12)', () => {
