@@ -31,6 +31,7 @@ function checkOptions(o: AnalysisOptions): void {
 	positive('iscIl', o.iscIl);
 	positive('ilA', o.ilA);
 	if (o.windowCycles !== undefined && !(Number.isInteger(o.windowCycles) && o.windowCycles >= 1)) throw new RangeError(`windowCycles must be a whole number >= 1, got ${o.windowCycles}`);
+	if (o.ieee519Edition !== undefined && o.ieee519Edition !== '2014' && o.ieee519Edition !== '2022') throw new RangeError(`ieee519Edition must be '2014' or '2022', got ${String(o.ieee519Edition)}`);
 	if (o.maxOrder !== undefined && !(Number.isInteger(o.maxOrder) && o.maxOrder >= 1)) throw new RangeError(`maxOrder must be a whole number >= 1, got ${o.maxOrder}`);
 }
 

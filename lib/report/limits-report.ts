@@ -75,7 +75,7 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 			const ilA = options.ilA ?? i1;
 			if (options.ilA === undefined) notes.push(`${c.name}: I_L taken as the measured fundamental ${i1.toFixed(3)} A (give --il, the maximum demand current); TDD then equals THD.`);
 			const percentOfIl = c.harmonics.map((h) => (100 * h.rms) / ilA);
-			add(c.name, evaluateLimits(id, { quantity: 'current', percentOfIl, busVoltageV, iscIlRatio: options.iscIl }));
+			add(c.name, evaluateLimits(id, { quantity: 'current', percentOfIl, busVoltageV, iscIlRatio: options.iscIl, edition: options.ieee519Edition ?? '2022' }));
 		} else {
 			notes.push(`${c.name}: ${table.name} sets no limits for a ${c.quantity} channel; not evaluated.`);
 		}

@@ -46,6 +46,8 @@ export interface AnalysisOptions {
 	iscIl?: number;
 	/** Maximum demand load current I_L in A (IEEE 519 TDD); without it TDD uses the measured fundamental. */
 	ilA?: number;
+	/** IEEE 519 edition for the even-harmonic current rule: '2022' (default) or '2014'. */
+	ieee519Edition?: '2014' | '2022';
 	/** Voltage/current pairings that replace the automatic pairing by phase label. */
 	pairs?: ReportPairOverride[];
 }

@@ -18,6 +18,7 @@ cli
 	.option('--limits <table>', 'Evaluate harmonics against a limit table: en50160, iec61000-2-2, ieee519 (sets exit code 1 on a failure)')
 	.option('--isc-il <ratio>', 'IEEE 519: short-circuit to maximum demand load current ratio at the point of common coupling')
 	.option('--il <A>', 'IEEE 519: maximum demand load current I_L in A (for TDD)')
+	.option('--ieee519-edition <year>', 'IEEE 519 even-harmonic current rule: 2022 (default; 50 % of the odd limit up to h6) or 2014 (25 %)')
 	.option('--ref <channel>', 'Reference channel for frequency, window and phase (default: the first voltage channel)')
 	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
 	.option('--scale <channel=factor>', 'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable', { type: [String] })

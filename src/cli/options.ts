@@ -78,6 +78,11 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 	if ((analysis.iscIl !== undefined || analysis.ilA !== undefined) && analysis.limits !== 'ieee519') {
 		if (analysis.limits !== undefined) throw new UsageError('--isc-il and --il apply to --limits ieee519 only');
 	}
+	const edition = last('ieee519-edition', raw.ieee519Edition);
+	if (edition !== undefined) {
+		if (edition !== '2014' && edition !== '2022') throw new UsageError(`--ieee519-edition ${edition}: expected 2014 or 2022`);
+		analysis.ieee519Edition = edition;
+	}
 	const ref = last('ref', raw.ref);
 	if (ref !== undefined) analysis.refChannel = ref;
 	const window = positiveNumber('window', raw.window, 'a whole number of cycles');

@@ -203,6 +203,16 @@ describe('analyseCapture: limits', () => {
 		expect(r.channels[0].tddPercent).toBeCloseTo(5, 6);
 	});
 
+	it("analyseCapture(capture, { ieee519Edition }) limits a 2nd-harmonic current to 50 % (2022) or 25 % (2014) of the 3rd-10th band's 7 % (IEEE 519 Table 2 note, REFERENCE.md 4.3)", () => {
+		const i2 = tones([{ order: 1, rms: 100 }, { order: 2, rms: 2 }], cycles);
+		const limitOf = (edition: '2014' | '2022') =>
+			analyseCapture(capture([channel('I1', 'A', 'current', i2)]), { limits: 'ieee519', iscIl: 30, ilA: 100, nominalV: 400, ieee519Edition: edition }).limits!.rows.find((x) => x.order === 2)!;
+		expect(limitOf('2022').limit).toBeCloseTo(3.5, 9);
+		expect(limitOf('2022').pass).toBe(true);
+		expect(limitOf('2014').limit).toBeCloseTo(1.75, 9);
+		expect(limitOf('2014').pass).toBe(false);
+	});
+
 	it("analyseCapture(capture, { limits: 'en50160' }) does not judge current channels and says so", () => {
 		const r = analyseCapture(capture([channel('I1', 'A', 'current', i)]), { limits: 'en50160' });
 		expect(r.limits!.rows).toEqual([]);

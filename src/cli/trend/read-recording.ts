@@ -66,13 +66,22 @@ function withImportNotes(result: TrendResult, notes: Diagnostic[], explicitTime:
 	return result;
 }
 
-/** Companion files of a COMTRADE .cfg: same base name, any case, in the same folder. */
-function companions(path: string): InputFile[] {
+/** `name` with its file name replaced by `file`, keeping the folder part exactly as it was written. */
+function besideName(name: string, file: string): string {
+	return name.slice(0, name.length - basename(name).length) + file;
+}
+
+/**
+ * Companion files of a COMTRADE .cfg: same base name, any case, in the same folder. Each is named as the
+ * user would write it (the .cfg's `source` with the file name swapped), so errors about a .dat show its
+ * path, not a bare file name.
+ */
+function companions(path: string, source: string): InputFile[] {
 	const dir = dirname(path);
 	const base = basename(path, extname(path)).toLowerCase();
 	return readdirSync(dir)
 		.filter((f) => f !== basename(path) && basename(f, extname(f)).toLowerCase() === base && ['.dat', '.hdr', '.inf'].includes(extname(f).toLowerCase()))
-		.map((f) => ({ name: f, bytes: new Uint8Array(readFileSync(join(dir, f))) }));
+		.map((f) => ({ name: besideName(source, f), bytes: new Uint8Array(readFileSync(join(dir, f))) }));
 }
 
 /**
@@ -108,8 +117,9 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 		}
 	}
 	if (ext === '.cfg' || ext === '.cff') {
-		const file = { name: basename(path), bytes: new Uint8Array(readFileSync(path)) };
-		const capture = openCapture(file, ext === '.cfg' ? companions(path) : [], open);
+		// named by `source` (the path as given), so errors and the report name the file as the user wrote it
+		const file = { name: source, bytes: new Uint8Array(readFileSync(path)) };
+		const capture = openCapture(file, ext === '.cfg' ? companions(path, source) : [], open);
 		capture.source = source;
 		return analyseWhole(capture, settings, hooks);
 	}

@@ -2,12 +2,16 @@
  * `sinecheck trend <file...>`: per-cycle trends and voltage events of long recordings.
  * CSV of the aggregates on stdout (rows written as they are measured), or with --json one JSON document
  * per file. Events, diagnostics and errors go to stderr, one line each; progress only on a terminal.
+ * A folder is walked as `analyse` walks it (collect-files.ts); a COMTRADE .cfg takes its .dat.
+ * Error lines have the `analyse` command's shape: `sinecheck: <path as given>[:line[:column]]: message`
+ * (`sinecheck: <path>: byte N: message` for an offset in a binary file).
  * Returns the exit code: 0 ok, 2 usage or input error.
  */
-import { existsSync, statSync } from 'node:fs';
 import { isImportError } from '../../../lib/io/import-error.js';
 import type { OpenOptions } from '../../../lib/io/open.js';
 import type { TrendInterval, TrendResult, TrendRow, TrendThresholds } from '../../../lib/trend/types.js';
+import { collectUnits } from '../collect-files.js';
+import { UsageError } from '../usage-error.js';
 import { analyseFile, type AnalyserSettings } from './read-recording.js';
 import { csvHeader, csvRow, eventLine, trendJson } from './trend-output.js';
 
@@ -37,6 +41,30 @@ export interface TrendCommandOptions {
 }
 
 class TrendUsageError extends Error {}
+
+/** Every error line starts so, as the `analyse` command's do. */
+const PREFIX = 'sinecheck: ';
+
+/**
+ * One error line for a file: an ImportError located as `path:line:column` (line and column left out when
+ * 0; `byte N` for an offset in a binary file, whose errors carry line 0 and column = offset + 1), any
+ * other error after the path. `file` is the path as the user gave it; an ImportError names its own file
+ * (a COMTRADE .dat beside the .cfg), which read-recording.ts names with the same folder prefix.
+ */
+export function trendErrorLine(e: unknown, file: string): string {
+	if (isImportError(e)) {
+		const src = e.source || file;
+		const where = e.line > 0 ? `${src}:${e.line}${e.column > 0 ? `:${e.column}` : ''}` : e.column > 0 ? `${src}: byte ${e.column - 1}` : src;
+		const got = e.text ? `, got ${JSON.stringify(e.text.slice(0, 80))}` : '';
+		return `${PREFIX}${where}: ${e.code}: expected ${e.expected}${got}`;
+	}
+	const message = e instanceof Error ? e.message : String(e);
+	if (e instanceof TrendUsageError || e instanceof UsageError || e instanceof RangeError) {
+		// Library messages may already start with the path; the line names it once.
+		return `${PREFIX}${message.startsWith(`${file}: `) || message.startsWith(`${file} `) ? message : `${file}: ${message}`}`;
+	}
+	return `${PREFIX}${file}: could not analyse: ${message}`;
+}
 
 const INTERVALS: Record<string, TrendInterval> = {
 	'10/12-cycle': '10/12-cycle',
@@ -83,20 +111,33 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	const tty = (err as { isTTY?: boolean }).isTTY === true;
 	let parsed: ReturnType<typeof settingsFrom>;
 	try {
-		if (files.length === 0) throw new TrendUsageError('trend: give at least one recording file');
+		if (files.length === 0) throw new TrendUsageError('trend: give at least one recording file or folder');
 		parsed = settingsFrom(options);
 	} catch (e) {
-		err.write(`${e instanceof Error ? e.message : String(e)}\n`);
+		err.write(`${PREFIX}${e instanceof Error ? e.message : String(e)}\n`);
 		return 2;
 	}
 	const { settings, interval } = parsed;
-	const several = files.length > 1;
-	const docs: unknown[] = [];
+	// Paths -> recordings: folders walked and COMTRADE companions grouped as `analyse` does; a path that
+	// does not exist is an error line of its own, and the others still run.
+	const recordings: string[] = [];
 	let failed = 0;
-	let headerFor = '';
-	for (const file of files) {
+	for (const path of files) {
 		try {
-			if (!existsSync(file) || !statSync(file).isFile()) throw new TrendUsageError('no such file');
+			const { units, skipped } = collectUnits([path]);
+			if (units.length === 0) throw new UsageError(`${path}: no recordings found in this folder (looked for .csv .tsv .txt .wav .cfg .cff)`);
+			if (skipped.length > 0) err.write(`note: skipped ${skipped.length} file(s) in ${path} that are not recordings (e.g. ${skipped[0]})\n`);
+			for (const u of units) recordings.push(u.files[0]);
+		} catch (e) {
+			failed++;
+			err.write(`${trendErrorLine(e, path)}\n`);
+		}
+	}
+	const several = recordings.length > 1;
+	const docs: unknown[] = [];
+	let headerFor = '';
+	for (const file of recordings) {
+		try {
 			let pending: string[] = [];
 			const flush = () => {
 				if (pending.length > 0) out.write(pending.join(''));
@@ -144,9 +185,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 		} catch (e) {
 			if (tty) err.write('\r\x1b[K');
 			failed++;
-			if (isImportError(e)) err.write(`${e.message}\n`);
-			else if (e instanceof TrendUsageError || e instanceof RangeError) err.write(`${file}: ${e.message}\n`);
-			else err.write(`${file}: cannot analyse: ${e instanceof Error ? e.message : String(e)}\n`);
+			err.write(`${trendErrorLine(e, file)}\n`);
 		}
 	}
 	if (options.json && docs.length > 0) out.write(`${JSON.stringify(several ? docs : docs[0], null, 1)}\n`);
