@@ -9,7 +9,7 @@ import { trackCrossings, type Track } from './track-crossings.js';
 export interface CycleWindow {
 	/** First used rising crossing, fractional sample index. */
 	startIndex: number;
-	/** Last used rising crossing, fractional sample index. */
+	/** Last used rising crossing, fractional sample index: at most N − 1, or N with `toRecordEnd` (the record covers [0, N), see findWholeCycles). */
 	endIndex: number;
 	/** Whole cycles between startIndex and endIndex (crossings.length − 1). */
 	cycles: number;
@@ -44,8 +44,19 @@ const MAX_PERIOD_SPREAD = 0.1;
  * periods around it (see `fundamental-fit.ts`): DC offset, harmonics and most noise do not move the
  * crossings, and slow frequency drift is followed (each step uses the period of the last 4 cycles). The
  * frequency is then re-estimated from the crossings (whole cycles / their duration) and the search repeated
- * until the two agree to 1e-12 (secant steps, at most 8 passes; 2–4 in practice). Crossings outside
- * [0, N − 1] are not used, so a record of exactly 10 cycles gives 9 whole cycles crossing to crossing.
+ * until the two agree to 1e-12 (secant steps, at most 8 passes; 2–4 in practice).
+ *
+ * Which crossings lie inside the record: each sample stands for the interval [n/fs, (n + 1)/fs), so a
+ * record of N samples covers N/fs seconds, sample indices [0, N). With `opts.toRecordEnd` a crossing in
+ * [0, N] is used: one up to a sample interval after the last sample (index N, not N − 1) still ends a cycle
+ * inside the record, so a record of exactly 10 cycles that starts at a rising crossing (2000 samples of
+ * 50 Hz at 10 kS/s, a scope at 20 ms/div × 10 div) gives 10 whole cycles, endIndex = 2000. Without it
+ * (the default for now: lib/power's window functions still require endIndex ≤ N − 1) crossings stop at
+ * N − 1 and that record gives 9. Figures over a window ending past N − 1 take the value
+ * at N one period earlier (periodic continuation over less than one sample interval; see
+ * `window-integral.ts`), and a harmonic window ending there uses samples [start, start + M) only. A crossing
+ * before index 0 (e.g. −0.3, extrapolated) is not used: it lies before the first sample's interval, so
+ * the record does not hold that cycle whole, and such a record holds one whole cycle fewer.
  *
  * Where the fundamental vanishes for a while (an interruption: its fitted amplitude under 5 % of the
  * strongest seen), the crossings are carried on at the last measured period and counted in
@@ -66,6 +77,9 @@ const MAX_PERIOD_SPREAD = 0.1;
  * @param opts.nominalHz  nominal system frequency (50, 60, 400…): the search covers 0.7…1.3 × nominal
  * @param opts.maxCycles  use at most this many whole cycles from the start of the record (tracking stops
  *   there, so it is also the cheap way to look at the start of a long record)
+ * @param opts.toRecordEnd  let the last cycle end anywhere up to index N (the end of the last sample's
+ *   interval) instead of N − 1; the window can then be given to waveformFigures, perCycleFigures and
+ *   harmonicWindow / harmonicAnalysis (which all accept endIndex ≤ N), but not yet to lib/power
  * @returns the window, or a failure: 'bad-parameter' (rate, options, or a NaN/infinite sample),
  *   'dc-only' (no variation), 'too-short' (under 2 whole cycles), 'no-fundamental' (noise, no periodicity)
  * @example findWholeCycles(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 9.37 }), 10_000)
@@ -74,7 +88,7 @@ const MAX_PERIOD_SPREAD = 0.1;
 export function findWholeCycles(
 	samples: Float64Array,
 	sampleRateHz: number,
-	opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number } = {},
+	opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number; toRecordEnd?: boolean } = {},
 ): ({ ok: true } & CycleWindow) | SignalFailure {
 	const bad = checkParameters(sampleRateHz, opts);
 	if (bad) return fail('bad-parameter', bad);
@@ -108,7 +122,7 @@ export function findWholeCycles(
 	let track: Track | undefined;
 	let previous: { fitHz: number; gapHz: number } | undefined;
 	for (let pass = 0; pass < 8; pass++) {
-		track = trackCrossings(samples, sampleRateHz / frequencyHz, opts.maxCycles);
+		track = trackCrossings(samples, sampleRateHz / frequencyHz, opts.maxCycles, opts.toRecordEnd === true);
 		if (track.irregular) break;
 		if (track.crossings.length < 3) return tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
 		const c = track.crossings;

@@ -26,7 +26,8 @@ export function estimateFrequency(
 	sampleRateHz: number,
 	opts: { nominalHz?: number } = {},
 ): { ok: true; frequencyHz: number; method: string; cycles: number } | SignalFailure {
-	const found = findWholeCycles(samples, sampleRateHz, { nominalHz: opts.nominalHz });
+	// Crossings up to index N: the record covers N sample intervals (see findWholeCycles).
+	const found = findWholeCycles(samples, sampleRateHz, { nominalHz: opts.nominalHz, toRecordEnd: true });
 	if (!found.ok) return found;
 	return { ok: true, frequencyHz: found.frequencyHz, method: FREQUENCY_METHOD, cycles: found.cycles };
 }

@@ -52,7 +52,7 @@ export interface WaveformFigures {
 	span: 'whole-cycles' | 'whole-record';
 	/** Window start, fractional sample index (0 for the whole record). */
 	startIndex: number;
-	/** Window end, fractional sample index (N − 1 for the whole record). */
+	/** Window end, fractional sample index, at most N (N − 1 for the whole record). */
 	endIndex: number;
 	/** Whole cycles covered; for the whole record N·f/fs when the frequency is known, else NaN. */
 	cycles: number;
@@ -72,7 +72,11 @@ export interface WaveformFigures {
  * (`findWholeCycles`, or `opts.window`), integrated by the trapezoid rule with the integrand interpolated
  * at the fractional crossing positions (see `window-integral.ts`: equal to the plain sample mean when a
  * cycle holds a whole number of samples), so a record of 9.37 cycles gives the figures of its whole
- * cycles; peaks come from the samples inside the window. When no fundamental is found, the whole record
+ * cycles; peaks come from the samples inside the window. Each sample stands for the interval
+ * [n/fs, (n + 1)/fs), so a record of N samples covers N/fs seconds and a window may end at index N (one
+ * sample interval after the last sample): a record of exactly 10 cycles gives 10 whole cycles, and the
+ * value the trapezoid needs at N is taken one period earlier (exact for a stationary periodic signal; the
+ * own search here uses findWholeCycles with toRecordEnd). When no fundamental is found, the whole record
  * is used and a 'whole-record-fallback' warning says why. 'whole-record': plain sample means over all N
  * samples.
  *
@@ -125,7 +129,7 @@ export function waveformFigures(
 	let frequencyHz = opts.window?.frequencyHz ?? opts.frequencyHz;
 	let cycleWindow = opts.window;
 	if (opts.span !== 'whole-record' && cycleWindow === undefined) {
-		const found = findWholeCycles(samples, sampleRateHz, { frequencyHz: opts.frequencyHz, nominalHz: opts.nominalHz });
+		const found = findWholeCycles(samples, sampleRateHz, { frequencyHz: opts.frequencyHz, nominalHz: opts.nominalHz, toRecordEnd: true });
 		if (found.ok) {
 			cycleWindow = found;
 			frequencyHz = found.frequencyHz;
@@ -137,8 +141,9 @@ export function waveformFigures(
 			});
 		}
 	}
-	if (cycleWindow !== undefined && !(cycleWindow.startIndex >= 0 && cycleWindow.endIndex <= n - 1 && cycleWindow.endIndex > cycleWindow.startIndex)) {
-		throw new RangeError(`window ${cycleWindow.startIndex}…${cycleWindow.endIndex} does not lie inside the record's 0…${n - 1}`);
+	// The record covers N sample intervals, [0, N): a window may end at N (see window-integral.ts).
+	if (cycleWindow !== undefined && !(cycleWindow.startIndex >= 0 && cycleWindow.endIndex <= n && cycleWindow.endIndex > cycleWindow.startIndex)) {
+		throw new RangeError(`window ${cycleWindow.startIndex}…${cycleWindow.endIndex} does not lie inside the record's 0…${n}`);
 	}
 	if (cycleWindow?.bridgedCrossings) {
 		warnings.push({
@@ -164,9 +169,11 @@ export function waveformFigures(
 	const cycles = cycleWindow ? cycleWindow.cycles : frequencyHz !== undefined ? (n * frequencyHz) / sampleRateHz : NaN;
 	if (hasNonFinite(samples)) return nanFigures(span, startIndex, endIndex, cycles, warnings);
 
-	// Whole record: each sample weighs 1/N. Whole cycles: trapezoid over the fractional window.
+	// Whole record: each sample weighs 1/N. Whole cycles: trapezoid over the fractional window; a window
+	// ending past the last sample (at most at N) takes the value there one period earlier.
+	const periodSamples = cycleWindow && cycleWindow.cycles >= 1 ? (endIndex - startIndex) / cycleWindow.cycles : endIndex - startIndex;
 	const average = cycleWindow
-		? (g: (x: number) => number) => windowIntegral(samples, startIndex, endIndex, g) / (endIndex - startIndex)
+		? (g: (x: number) => number) => windowIntegral(samples, startIndex, endIndex, g, periodSamples) / (endIndex - startIndex)
 		: (g: (x: number) => number) => {
 				let s = 0;
 				for (let i = 0; i < n; i++) s += g(samples[i]);

@@ -24,7 +24,8 @@ export interface PerCycleFigures {
  *
  *   rms_k = √( (1/T_k) ∫ x² dt )  over [crossing_k, crossing_k+1], trapezoid rule, ends interpolated
  *
- * Peaks come from the samples inside each cycle. A NaN sample makes its cycle's figures NaN, and NaN
+ * A last cycle ending at index N (one sample interval after the last sample, where a record of exactly k
+ * cycles ends) takes the value there from one cycle earlier. Peaks come from the samples inside each cycle. A NaN sample makes its cycle's figures NaN, and NaN
  * cycles are never named worst.
  *
  * Ref: IEC 61000-4-30:2015 5.2, Urms(1) one-cycle RMS from a fundamental zero crossing (from memory).
@@ -37,8 +38,9 @@ export interface PerCycleFigures {
 export function perCycleFigures(samples: Float64Array, cycleWindow: CycleWindow): PerCycleFigures {
 	const c = cycleWindow.crossings;
 	const cycles = Math.max(0, c.length - 1);
-	if (cycles > 0 && !(c[0] >= 0 && c[cycles] <= samples.length - 1)) {
-		throw new RangeError(`window ${c[0]}…${c[cycles]} does not lie inside the record's 0…${samples.length - 1}`);
+	// The record covers N sample intervals: the last cycle may end at N (see window-integral.ts).
+	if (cycles > 0 && !(c[0] >= 0 && c[cycles] <= samples.length)) {
+		throw new RangeError(`window ${c[0]}…${c[cycles]} does not lie inside the record's 0…${samples.length}`);
 	}
 	const rms = new Float64Array(cycles);
 	const peak = new Float64Array(cycles);

@@ -4,6 +4,9 @@ import { fitFundamental, type FundamentalFit } from './fundamental-fit.js';
  * below 5 or 10 % of the declared voltage; from memory). */
 const BRIDGE_BELOW = 0.05;
 
+/** Crossings this close to the record's start or end (in sample intervals) are taken as on it. */
+const SNAP_SAMPLES = 1e-6;
+
 /** Result of one tracking pass. Internal to lib/signal. */
 export interface Track {
 	crossings: number[];
@@ -28,13 +31,17 @@ export interface Track {
  * @param samples  signal, any unit; not modified
  * @param periodSamples  expected period in samples (fs / f)
  * @param maxCycles  stop after this many whole cycles forwards
- * @returns crossings (fractional sample indices in [0, N − 1]) with the pooled fundamental-to-rest ratio,
+ * @param toRecordEnd  keep crossings up to N (the end of the record's last sample interval); default: up to N − 1
+ * @returns crossings (fractional sample indices in [0, N − 1], or [0, N] with `toRecordEnd`, N = samples.length:
+ *   the record spans N sample intervals, so a crossing at N, one interval after the last sample, still closes
+ *   a cycle inside it) with the pooled fundamental-to-rest ratio,
  *   the spread of cycle lengths, whether tracking broke off, and how many crossings were bridged
- * @example trackCrossings(sine 50 Hz at 10 kS/s, 10 cycles from phase 0, 200).crossings // [0, 200, …, 1800]
+ * @example trackCrossings(sine 50 Hz at 10 kS/s, 10 cycles from phase 0, 200, undefined, true).crossings // [0, 200, …, 2000]
  */
-export function trackCrossings(samples: Float64Array, periodSamples: number, maxCycles?: number): Track {
+export function trackCrossings(samples: Float64Array, periodSamples: number, maxCycles?: number, toRecordEnd = false): Track {
 	const n = samples.length;
 	const last = n - 1;
+	const end = toRecordEnd ? n : last;
 	let fundamentalSquares = 0;
 	let residualSquares = 0;
 	let previousAmplitude = NaN;
@@ -110,10 +117,16 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 			if (direction > 0 && maxCycles !== undefined && out.length > maxCycles) break;
 		}
 	}
-	// A crossing within 1e-9 samples of either end is taken as on it, so rounding in the fit (or scaling the
-	// record) cannot add or drop a cycle.
-	const snap = (c: number) => (Math.abs(c) <= 1e-9 ? 0 : Math.abs(c - last) <= 1e-9 ? last : c);
-	const all = [...backward.reverse(), anchor, ...forward].map(snap).filter((c) => c >= 0 && c <= last);
+	// The record covers [0, N) in sample intervals (sample n stands for [n, n + 1)), so a crossing may lie
+	// anywhere in [0, N]: one at N closes the last whole cycle of a record of exactly k cycles (kept when
+	// `toRecordEnd`; otherwise crossings stop at N − 1, the last sample). A crossing within 1e-6 sample
+	// intervals of either end is taken as on it, so rounding in the fit cannot add or drop a cycle: the
+	// off-centre fits at the ends place a crossing that lies exactly on 0 or N within a few 1e-9 samples
+	// (measured: −4e-9 at 153.6 samples per period), and moving an end by 1e-6 of a sample changes any
+	// figure by under 1e-6 of one sample's share. A crossing further out (e.g. −0.3, extrapolated before
+	// the first sample's interval) is not used.
+	const snap = (c: number) => (Math.abs(c) <= SNAP_SAMPLES ? 0 : Math.abs(c - end) <= SNAP_SAMPLES ? end : c);
+	const all = [...backward.reverse(), anchor, ...forward].map(snap).filter((c) => c >= 0 && c <= end);
 	let sum = 0;
 	let sumSquares = 0;
 	for (let i = 1; i < all.length; i++) {
@@ -124,7 +137,7 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 	const k = all.length - 1;
 	const meanPeriod = sum / k;
 	const spread = k > 0 ? Math.sqrt(Math.max(0, sumSquares / k - meanPeriod * meanPeriod)) / meanPeriod : NaN;
-	const bridgedInside = bridged.filter((c) => c >= 0 && c <= last);
+	const bridgedInside = bridged.filter((c) => c >= 0 && c <= end);
 	return {
 		crossings: all,
 		fundamentalRatio: Math.sqrt(fundamentalSquares / Math.max(residualSquares, 1e-300)),

@@ -174,13 +174,14 @@ function dcOffsetWarning(samples: Float64Array, periodSamples: number | undefine
 	const n = samples.length;
 	// Over whole periods when the frequency is known: a partial cycle alone would fake an offset of up to
 	// peak/(π·cycles).
-	const wholePeriods = periodSamples === undefined ? 0 : Math.floor((n - 1) / periodSamples);
+	// The record covers N sample intervals, so whole periods may run to index N (see window-integral.ts).
+	const wholePeriods = periodSamples === undefined ? 0 : Math.floor(n / periodSamples + 1e-9);
 	let mean: number;
 	let acRms: number;
 	if (periodSamples !== undefined && wholePeriods >= 1) {
-		const end = wholePeriods * periodSamples;
-		mean = windowIntegral(samples, 0, end, (x) => x) / end;
-		acRms = Math.sqrt(windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean)) / end);
+		const end = Math.min(n, wholePeriods * periodSamples);
+		mean = windowIntegral(samples, 0, end, (x) => x, periodSamples) / end;
+		acRms = Math.sqrt(windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean), periodSamples) / end);
 	} else {
 		mean = 0;
 		for (let i = 0; i < n; i++) mean += samples[i];

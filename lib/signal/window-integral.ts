@@ -11,32 +11,63 @@
  * of order 1/P² of one sample's share, and a linear g (the mean) of a smooth signal is integrated almost
  * exactly. So a record of 9.37 cycles gives the same figures as one of 9.
  *
+ * Where the record ends: sample n stands for the interval [n, n + 1) (in sample units), so a record of N
+ * samples covers [0, N) and a window may end anywhere up to N (one sample interval after the last sample;
+ * a scope export of exactly 10 cycles ends its 10th cycle there). The trapezoid then needs G at N, one
+ * point past the samples; it is taken one period earlier, G(N) := G(N − periodSamples) (linear between
+ * samples): the periodic continuation of the signal over less than one sample interval, exact for a
+ * stationary periodic signal. With a whole number P of samples per period and the window [a, a + kP]
+ * ending at N, G(N) = g(x[N − P]) and the result is still the plain sum of g over the kP samples
+ * x[a] … x[a + kP − 1] (for a periodic signal x[N − P] = x[a]).
+ *
  * Ref: composite trapezoid rule; on periodic integrands over a whole period it equals the rectangle sum
  * (Trefethen & Weideman 2014, SIAM Review 56(3) 385–458; from memory).
  *
  * @param samples  signal; not modified
- * @param startIndex  window start, fractional sample index, 0 ≤ startIndex ≤ endIndex ≤ N − 1
- * @param endIndex  window end, fractional sample index
+ * @param startIndex  window start, fractional sample index, 0 ≤ startIndex ≤ endIndex ≤ N
+ * @param endIndex  window end, fractional sample index (≤ N = samples.length)
  * @param g  integrand applied to sample values (x², |x − m|, …)
+ * @param periodSamples  period of the signal in samples, used only when endIndex > N − 1 (the value at N
+ *   is taken this far back); default endIndex − startIndex (the window holds whole periods); held at the
+ *   last sample when under 1
  * @returns the integral in (unit of g) × samples; divide by (endIndex − startIndex) for the mean
+ * @throws RangeError when the window does not lie in [0, N]
  */
 export function windowIntegral(
 	samples: Float64Array,
 	startIndex: number,
 	endIndex: number,
 	g: (x: number) => number,
+	periodSamples: number = endIndex - startIndex,
 ): number {
-	const last = samples.length - 1;
-	const i0 = Math.min(Math.floor(startIndex), last);
-	const i1 = Math.min(Math.floor(endIndex), last);
-	const g0 = g(samples[i0]);
-	const gStart = i0 < last ? g0 + (startIndex - i0) * (g(samples[i0 + 1]) - g0) : g0;
-	const g1 = g(samples[i1]);
-	const gEnd = i1 < last ? g1 + (endIndex - i1) * (g(samples[i1 + 1]) - g1) : g1;
+	const n = samples.length;
+	const last = n - 1;
+	if (!(startIndex >= 0 && endIndex >= startIndex && endIndex <= n)) {
+		throw new RangeError(`window ${startIndex}…${endIndex} does not lie inside the record's 0…${n}`);
+	}
+	let endValue: number | undefined;
+	/** G(j) at whole j in [0, N]; G(N) by periodic continuation (see above). */
+	const at = (j: number): number => {
+		if (j <= last) return g(samples[j]);
+		if (endValue === undefined) {
+			const t = periodSamples >= 1 ? n - periodSamples : last;
+			const k = Math.floor(t);
+			const gk = g(samples[k]);
+			endValue = t > k ? gk + (t - k) * (g(samples[k + 1]) - gk) : gk;
+		}
+		return endValue;
+	};
+	/** G(t) at fractional t whose floor is i. */
+	const between = (t: number, i: number): number => (t > i ? at(i) + (t - i) * (at(i + 1) - at(i)) : at(i));
+	const i0 = Math.floor(startIndex);
+	const i1 = Math.floor(endIndex);
+	const gStart = between(startIndex, i0);
+	const gEnd = between(endIndex, i1);
 	if (i0 === i1) return ((gStart + gEnd) / 2) * (endIndex - startIndex);
 	const first = i0 + 1;
-	const gFirst = g(samples[first]);
+	const gFirst = at(first);
 	let sum = ((gStart + gFirst) / 2) * (first - startIndex);
+	const g1 = at(i1);
 	if (i1 > first) {
 		let inner = 0;
 		for (let j = first + 1; j < i1; j++) inner += g(samples[j]);

@@ -82,6 +82,11 @@ export function wrapDeg(d: number): number {
  * 0° = the harmonic peaks with the fundamental's peak, 180° = it opposes it. Orders at or above the
  * capture's Nyquist frequency (fs/2) are NaN.
  *
+ * Record end: each sample stands for the interval [n/fs, (n + 1)/fs), so N samples cover indices [0, N)
+ * and the window may end anywhere up to N (e.g. a capture of exactly 10 cycles, from findWholeCycles with
+ * toRecordEnd). The direct path then uses samples [start, start + M) only; in the resampled path the
+ * sinc taps past the last sample take the signal one window (whole cycles) earlier, see sync-resample.ts.
+ *
  * @param samples  the capture's samples (V or A); not modified; NaN samples give NaN results
  * @param sampleRateHz  the capture's sample rate, Hz
  * @throws RangeError for bad parameters or a window that does not fit in `samples`

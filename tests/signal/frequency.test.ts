@@ -24,7 +24,9 @@ describe('estimateFrequency accuracy', () => {
 		expect(r.ok).toBe(true);
 		if (!r.ok) return;
 		expect(Math.abs(r.frequencyHz - 50)).toBeLessThan(1e-3);
-		expect(r.cycles).toBe(9); // crossings at 0 … 1800; the one at sample 2000 lies past the last sample
+		// closed form: crossings of sin(2π·50·n/10 000) at n = 200k, k = 0 … 10; the record covers samples
+		// [0, 2000) (each sample stands for one sample interval), so the crossing at 2000 closes the 10th cycle
+		expect(r.cycles).toBe(10);
 		expect(r.method).toMatch(/zero crossings/);
 	});
 
