@@ -1,11 +1,13 @@
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, relative } from 'node:path';
 import { Writable } from 'node:stream';
 import { afterAll, describe, expect, it } from 'vitest';
-import { trendCommand } from '../../src/cli/trend/index.js';
-import { FloatWavWriter } from './float-wav.js';
-import { makeChannels } from './signals.js';
+import { trendCommand } from '../../../src/cli/trend/index.js';
+import { trendErrorLine } from '../../../src/cli/trend/trend-command.js';
+import { ImportError } from '../../../lib/io/import-error.js';
+import { FloatWavWriter } from '../../trend/float-wav.js';
+import { makeChannels } from '../../trend/signals.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-trend-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -139,12 +141,73 @@ describe('trendCommand', () => {
 			const lines = err.text().trim().split('\n');
 			expect(lines.length).toBe(1);
 			expect(lines[0]).not.toMatch(/\n\s+at /);
+			expect(lines[0]).toMatch(/^sinecheck: /);
 			if (files.length > 0 && Object.keys(opts).length === 0) expect(lines[0]).toContain(files[0]);
 		}
 	});
 
+	// The error-line shape is the `analyse` command's (src/cli/analyse-unit.ts problemText, main.ts prefix):
+	// `sinecheck: <path as given>[:line[:column]]: <code>: expected …, got "…"`; line and column left out when 0,
+	// and a binary file's offset (ImportError line 0, column = offset + 1) printed as `byte N`.
+	it('error lines: sinecheck: prefix, the path as given, line/column only when known, byte N for a binary offset', () => {
+		const got = ', got "x"';
+		expect(trendErrorLine(new ImportError('data/a.csv', 12, 7, 'bad-number', 'x', 'a number'), 'data/a.csv')).toBe(`sinecheck: data/a.csv:12:7: bad-number: expected a number${got}`);
+		expect(trendErrorLine(new ImportError('data/a.csv', 3, 0, 'no-data', '', 'rows of numbers'), 'data/a.csv')).toBe('sinecheck: data/a.csv:3: no-data: expected rows of numbers');
+		expect(trendErrorLine(new ImportError('data/a.cfg', 0, 0, 'missing-companion-file', '', 'the .dat'), 'data/a.cfg')).toBe('sinecheck: data/a.cfg: missing-companion-file: expected the .dat');
+		// WAV / binary .dat: column 37 = byte offset 36
+		expect(trendErrorLine(new ImportError('rec/b.wav', 0, 37, 'bad-wav', '', "'data' chunk"), 'rec/b.wav')).toBe("sinecheck: rec/b.wav: byte 36: bad-wav: expected 'data' chunk");
+		expect(trendErrorLine(new RangeError('sample rate must be above 0'), 'rec/b.wav')).toBe('sinecheck: rec/b.wav: sample rate must be above 0');
+		expect(trendErrorLine(new Error('boom'), 'rec/b.wav')).toBe('sinecheck: rec/b.wav: could not analyse: boom');
+	});
+
+	it('a bad WAV in a sub-folder is named by the path as given (not its base name), with its byte offset', async () => {
+		const sub = join(dir, 'site-7');
+		mkdirSync(sub, { recursive: true });
+		const p = join(sub, 'truncated.wav');
+		// RIFF/WAVE header and a 'fmt ' chunk that says 16 bytes but stops after 4: no 'data' chunk anywhere
+		writeFileSync(p, Buffer.concat([Buffer.from('RIFF'), Buffer.alloc(4), Buffer.from('WAVEfmt '), Buffer.from([16, 0, 0, 0, 1, 0, 1, 0])]));
+		const given = relative(process.cwd(), p);
+		const err = sink();
+		const code = await trendCommand([given], { stdout: sink(), stderr: err });
+		expect(code).toBe(2);
+		const line = err.text().trim();
+		expect(line.split('\n')).toHaveLength(1);
+		expect(line.startsWith(`sinecheck: ${given}: `)).toBe(true);
+		expect(line).toMatch(/: byte \d+: bad-wav: /);
+	});
+
+	it('a missing path gives `sinecheck: <path>: no such file or folder` and the other files still run', async () => {
+		const absent = join(dir, 'absent.wav');
+		const err = sink();
+		const out = sink();
+		const code = await trendCommand([absent, wavPath], { json: true, nominal: 230, stdout: out, stderr: err });
+		expect(code).toBe(2);
+		expect(err.text()).toContain(`sinecheck: ${absent}: no such file or folder\n`);
+		expect(JSON.parse(out.text()).channels).toHaveLength(4);
+	});
+
+	it('a folder is walked as analyse walks it: each recording in it trended, other files skipped with a note', async () => {
+		const folder = join(dir, 'walk');
+		mkdirSync(folder, { recursive: true });
+		copyFileSync(wavPath, join(folder, 'a.wav'));
+		copyFileSync(wavPath, join(folder, 'b.wav'));
+		writeFileSync(join(folder, 'notes.md'), 'not a recording\n');
+		const out = sink();
+		const err = sink();
+		const code = await trendCommand([folder], { json: true, nominal: 230, stdout: out, stderr: err });
+		expect(code).toBe(0);
+		const docs = JSON.parse(out.text());
+		expect(docs).toHaveLength(2);
+		expect(err.text()).toMatch(/note: skipped 1 file/);
+		const empty = join(dir, 'empty-folder');
+		mkdirSync(empty, { recursive: true });
+		const err2 = sink();
+		expect(await trendCommand([empty], { stdout: sink(), stderr: err2 })).toBe(2);
+		expect(err2.text()).toMatch(new RegExp(`^sinecheck: ${empty.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}: no recordings found`));
+	});
+
 	const feeder = '../shared/data/feeder-sag-1999/feeder-sag.cfg';
-	if (!existsSync(feeder)) console.warn(`tests/trend/trend-command.test.ts: ${feeder} is absent; the COMTRADE case is skipped.`);
+	if (!existsSync(feeder)) console.warn(`tests/cli/trend/trend-command.test.ts: ${feeder} is absent; the COMTRADE case is skipped.`);
 	it.skipIf(!existsSync(feeder))('trendCommand([cfg], { nominal: 7200 }) reads the COMTRADE field recording and reports the dip on Vb and Vc', async () => {
 		const out = sink();
 		const err = sink();
@@ -153,5 +216,20 @@ describe('trendCommand', () => {
 		const doc = JSON.parse(out.text());
 		expect(doc.events.map((e: { kind: string }) => e.kind)).toEqual(['dip']);
 		expect(doc.events[0].channels).toEqual(['Vb', 'Vc']);
+	});
+
+	it.skipIf(!existsSync(feeder))('a COMTRADE .cfg whose .dat is cut short: the error names the .dat by the folder the user gave', async () => {
+		const sub = join(dir, 'cut');
+		mkdirSync(sub, { recursive: true });
+		copyFileSync(feeder, join(sub, 'feeder.cfg'));
+		// keep the first 10 of the 3584 records the .cfg announces (PROVENANCE.md): too short
+		const dat = readFileSync(feeder.replace(/\.cfg$/, '.dat'), 'utf8').split(/\r?\n/).slice(0, 10).join('\n');
+		writeFileSync(join(sub, 'feeder.dat'), dat + '\n');
+		const given = relative(process.cwd(), join(sub, 'feeder.cfg'));
+		const err = sink();
+		expect(await trendCommand([given], { stdout: sink(), stderr: err })).toBe(2);
+		const line = err.text().trim();
+		expect(line).toMatch(/^sinecheck: /);
+		expect(line).toContain(given.replace(/\.cfg$/, '.dat'));
 	});
 });
