@@ -26,6 +26,9 @@ const cases: { file: string; code: string; line: number; column: number; text: s
 	{ file: 'long-row.csv', code: 'long-row', line: 3, column: 11, text: '5' },
 	// line 5 goes back from 0.002 s to 0.0015 s
 	{ file: 'time-not-increasing.csv', code: 'time-not-increasing', line: 5, column: 1, text: '0.0015' },
+	// a text cell in the 2nd data row of a short file: line 3 is `0.0001,abc`, `0.0001,` is 7 characters,
+	// so `abc` starts at column 8; the header on line 1 stays the header (not a preamble)
+	{ file: 'text-cell-second-row.csv', code: 'bad-number', line: 3, column: 8, text: 'abc' },
 	{ file: 'empty-file.csv', code: 'empty-file', line: 1, column: 0, text: '' },
 	// a PNG signature: its first NUL byte is at byte offset 8 (line 0, column = offset + 1 for binary input)
 	{ file: 'binary-as-text.csv', code: 'binary-as-text', line: 0, column: 9, text: '00 00 00 0d 49 48 44 52' },

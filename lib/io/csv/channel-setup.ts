@@ -46,7 +46,7 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 		offset = s.offset ?? 0;
 		steps.push(`raw x ${factor}${offset ? ` + ${offset}` : ''}`);
 	} else if (read?.kind === 'counts') {
-		say('raw-counts-unscaled', `Channel "${name}" holds raw counts and no scale was given (preamble "scale" or options); values are used as counts.`, 'warning');
+		say('raw-counts-unscaled', `Channel "${name}" holds raw counts and no scale was given; values are used as counts. Give the scale to convert them.`, 'warning');
 	}
 	let unit = read && read.kind !== 'counts' ? read.unit : '';
 	let quantity: Quantity | null = s.quantity ?? null;
@@ -57,16 +57,19 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 			steps.push(`${unitText} to ${read.unit}`);
 			say('unit-normalised', `Channel "${name}" is in ${unitText}; converted to ${read.unit}.`);
 		}
-		quantity ??= read.kind;
+		if (!quantity) {
+			quantity = read.kind;
+			if (s.clampMvPerA === undefined && s.shuntOhms === undefined) say('quantity-from-unit', `Channel "${name}" taken as a ${read.kind} from its unit ${unitText}.`);
+		}
 	}
 	const fromName = quantityFromName(name);
 	if (quantity && fromName && fromName !== quantity && !s.quantity && s.clampMvPerA === undefined && s.shuntOhms === undefined)
-		say('name-unit-disagree', `Channel "${name}" reads as a ${fromName} by its name but is in ${unitText}; taken as a ${quantity}. If it is a clamp or shunt output, give clampMvPerA or shuntOhms.`, 'warning');
+		say('name-unit-disagree', `Channel "${name}" reads as a ${fromName} by its name but is in ${unitText}; taken as a ${quantity}. If it is a clamp or shunt output, give a clamp ratio (mV/A) or shunt resistance.`, 'warning');
 	if (!quantity && fromName) {
 		quantity = fromName;
 		if (!unit || unit === '') {
 			unit = fromName === 'voltage' ? 'V' : 'A';
-			say('unit-assumed', `Channel "${name}" states no unit; taken as ${unit} because its name reads as a ${fromName}. Set channels.${name}.unit to change this.`, 'assumption');
+			say('unit-assumed', `Channel "${name}" states no unit; taken as ${unit} because its name reads as a ${fromName}. Give the unit for ${name} to change this.`, 'assumption');
 		} else say('quantity-from-name', `Channel "${name}" taken as a ${fromName} from its name.`);
 	}
 	const ratio = (r: number | undefined, what: string) => {
@@ -91,7 +94,7 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 	if (s.quantity) quantity = s.quantity;
 	if (!quantity) {
 		quantity = 'other';
-		say('quantity-unknown', `Channel "${name}" could not be told voltage or current from its unit ("${unitText}") or name; kept as 'other'. Set channels.${name}.quantity to say which.`, 'assumption');
+		say('quantity-unknown', `Channel "${name}" could not be told voltage or current from its unit ("${unitText}") or name; kept as 'other'. Give its quantity (voltage or current) to say which.`, 'assumption');
 	}
 	if (quantity === 'voltage' && unit === '') unit = 'V';
 	if (quantity === 'current' && unit === '') unit = 'A';

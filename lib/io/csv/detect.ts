@@ -54,26 +54,40 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 	if (lineBreak !== '\n') diagnostics.push(info('line-break', `Lines end with ${lineBreak === '\r\n' ? 'CR LF (Windows)' : 'CR alone (old Mac)'}.`));
 
 	// Delimiter and decimal mark, scored together on the rows that are all numbers.
-	let best: { d: Delimiter; mark: Mark; k: number; rows: number; hits: number } | null = null;
+	type Reading = { d: Delimiter; mark: Mark; k: number; rows: number; hits: number; header: number | null };
+	const readings: Reading[] = [];
+	let best: Reading | null = null;
 	for (const [d, mark] of CANDIDATES) {
 		if (options.delimiter !== undefined && options.delimiter !== d) continue;
 		if (options.decimalMark !== undefined && options.decimalMark !== mark) continue;
-		const widths = new Map<number, number>();
-		for (const line of lines) {
-			const { cells } = trimTrailingEmpty(splitCells(line, d));
-			if (cells.length > 0 && isDataRow(cells, (c) => isNumberCell(c, mark))) widths.set(cells.length, (widths.get(cells.length) ?? 0) + 1);
-		}
-		// the most common width of all-number rows; on a tie the one seen first (the top of the table)
-		let k = 0;
-		let rows = 0;
-		for (const [w, r] of widths) if (r > rows) [k, rows] = [w, r];
-		// on a tie (one-column data), the delimiter the text lines above use
-		const hits = d === ' ' ? 0 : lines.slice(0, 50).filter((l) => l.includes(d) && /[A-Za-z]/.test(l)).length;
-		if (rows > 0 && (!best || rows > best.rows || (rows === best.rows && (k > best.k || (k === best.k && hits > best.hits))))) best = { d, mark, k, rows, hits };
+		const r = readAs(lines, d, mark);
+		if (r.rows === 0) continue;
+		readings.push(r);
+		// most rows of numbers; then a header with as many names as the data has columns; then the wider
+		// reading; then the delimiter the text lines above use
+		if (!best || r.rows > best.rows || (r.rows === best.rows && better(r, best))) best = r;
 	}
 	if (!best) {
+		// a decimal mark or delimiter that was set but does not fit: name the first cell it cannot read
+		if (options.decimalMark !== undefined || options.delimiter !== undefined) forcedMismatch(lines, options, source);
 		const lastIdx = lastNonBlank(lines);
 		throw new ImportError(source, lastIdx + 1, 0, 'no-data', lines[lastIdx] ?? '', 'rows of numbers separated by commas, semicolons, tabs or spaces');
+	}
+	// Commas as column separators and as decimal commas can both fit (`20,412`): said as an assumption.
+	const rival = readings.find((r) => r !== best && r.rows === best!.rows && r.k !== best!.k && (r.d === ',') !== (best!.d === ',') && (r.mark === ',' || best!.mark === ','));
+	if (rival) {
+		const commaMark = best.mark === ',' && best.d !== ',';
+		const cols = (k: number) => `${k} column${k === 1 ? '' : 's'}`;
+		const why = best.header === best.k && rival.header !== rival.k
+			? `because the header has ${cols(best.k)}`
+			: `because nothing above the numbers tells the two readings apart (${cols(best.k)} taken rather than ${cols(rival.k)})`;
+		diagnostics.push({
+			code: 'comma-ambiguous',
+			severity: 'assumption',
+			message: commaMark
+				? `Decimal comma assumed ${why}; override with the delimiter and decimal mark settings.`
+				: `Commas taken as column separators ${why}, not as decimal commas; override with the delimiter and decimal mark settings.`,
+		});
 	}
 	const { d: delimiter, mark: decimalMark, k: columnCount } = best;
 	const split = (line: string) => splitCells(line, delimiter);
@@ -81,7 +95,7 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		const { cells } = trimTrailingEmpty(split(lines[i]));
 		return cells.length === columnCount && isDataRow(cells, (c) => isNumberCell(c, decimalMark));
 	};
-	diagnostics.push(info('delimiter', `Columns are separated by ${NAMES[delimiter]}${options.delimiter ? ' (as set)' : ''}.`));
+	diagnostics.push(info('delimiter', columnCount === 1 && !options.delimiter ? 'The rows hold one column (no column separator).' : `Columns are separated by ${NAMES[delimiter]}${options.delimiter ? ' (as set)' : ''}.`));
 	const sawComma = decimalMark === ',' && lines.some((l) => /\d,\d/.test(l));
 	diagnostics.push(info(decimalMark === ',' ? 'decimal-comma' : 'decimal-point', decimalMark === ',' ? `Numbers use a decimal comma (0,5 = one half)${sawComma ? '' : ' as set'}.` : 'Numbers use a decimal point.'));
 
@@ -124,6 +138,14 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		}
 	}
 	if (bodyIdx < 0) throw new ImportError(source, lines.length, 0, 'no-data', '', 'rows of numbers below the header');
+	if (headerIdx === null && options.headerRow === undefined) {
+		// a line of names right above the numbers that does not match their column count is kept as a
+		// preamble line, but said: the names may belong to the data under another delimiter
+		const above = previousNonBlank(lines, bodyIdx);
+		const cells = above >= 0 ? trimTrailingEmpty(split(lines[above])).cells : [];
+		if (cells.length > 1 && cells.length !== columnCount && !/[:=]/.test(lines[above]) && cells.every((c) => c.trim() !== '' && !isNumberCell(c, decimalMark) && /[A-Za-z]/.test(c)))
+			diagnostics.push({ code: 'header-like-preamble', severity: 'warning', line: above + 1, message: `Line ${above + 1} looks like a header of ${cells.length} names, but the data rows have ${columnCount} column(s); it was kept as a preamble line. Give the header line, the delimiter or the decimal mark if this is wrong.` });
+	}
 	const preambleEnd = headerIdx ?? bodyIdx;
 	const facts = readPreamble(lines.slice(0, preambleEnd), 1, split, delimiter, decimalMark);
 	diagnostics.push(...facts.diagnostics);
@@ -184,6 +206,79 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 	const clean = preview.filter((r) => r.length === columnCount && isDataRow(r, (c) => isNumberCell(c, decimalMark)));
 	chooseTimeColumn(layout, clean, options, facts.timeUnit, source);
 	return layout;
+}
+
+/** How the head reads with delimiter `d` and decimal mark `mark`: the usual width of all-number rows. */
+function readAs(lines: string[], d: Delimiter, mark: Mark): { d: Delimiter; mark: Mark; k: number; rows: number; hits: number; header: number | null } {
+	const widths = new Map<number, number>();
+	const firstOf = new Map<number, number>();
+	lines.forEach((line, i) => {
+		const { cells } = trimTrailingEmpty(splitCells(line, d));
+		if (cells.length > 0 && isDataRow(cells, (c) => isNumberCell(c, mark))) {
+			widths.set(cells.length, (widths.get(cells.length) ?? 0) + 1);
+			if (!firstOf.has(cells.length)) firstOf.set(cells.length, i);
+		}
+	});
+	// the most common width of all-number rows; on a tie the one seen first (the top of the table)
+	let k = 0;
+	let rows = 0;
+	for (const [w, r] of widths) if (r > rows) [k, rows] = [w, r];
+	const hits = d === ' ' ? 0 : lines.slice(0, 50).filter((l) => l.includes(d) && /[A-Za-z]/.test(l)).length;
+	// the text line right above the first such row, if any: how many names it holds under this reading
+	let header: number | null = null;
+	const above = rows > 0 ? previousNonBlank(lines, firstOf.get(k)!) : -1;
+	if (above >= 0) {
+		const cells = trimTrailingEmpty(splitCells(lines[above].replace(/^\s*(#+|\/\/|%)\s*/, ''), d)).cells;
+		// a names line with commas in it is no evidence for a reading that does not split at commas
+		const commaInNames = d !== ',' && /[A-Za-z0-9)\]]\s*,\s*[A-Za-z(\[]/.test(lines[above]);
+		if (!commaInNames && cells.length > 0 && cells.every((c) => c.trim() === '' || (!isNumberCell(c, mark) && !isClockCell(c) && !isDateCell(c)))) header = cells.length;
+	}
+	return { d, mark, k, rows, hits, header };
+}
+
+/** Tie-break between two readings with as many rows of numbers. */
+function better(r: { k: number; hits: number; header: number | null }, best: { k: number; hits: number; header: number | null }): boolean {
+	const fits = r.header === r.k;
+	const bestFits = best.header === best.k;
+	if (fits !== bestFits) return fits;
+	return r.k > best.k || (r.k === best.k && r.hits > best.hits);
+}
+
+/**
+ * With a delimiter or decimal mark set that fits no row, reads the head without the setting; if that finds
+ * rows of numbers, throws 'bad-number' at the first cell of the first such row that the setting cannot read.
+ */
+function forcedMismatch(lines: string[], options: CsvOptions, source: string): void {
+	let free: ReturnType<typeof readAs> | null = null;
+	for (const [d, mark] of CANDIDATES) {
+		if (options.delimiter !== undefined && options.decimalMark !== undefined) {
+			// both set: keep whichever of the two fits on its own
+			if (options.delimiter !== d && options.decimalMark !== mark) continue;
+		}
+		const r = readAs(lines, d, mark);
+		if (r.rows > 0 && (!free || r.rows > free.rows || (r.rows === free.rows && better(r, free)))) free = r;
+	}
+	if (!free) return;
+	const mark = options.decimalMark ?? free.mark;
+	const d = options.delimiter ?? free.d;
+	for (let i = 0; i < lines.length; i++) {
+		const { cells } = trimTrailingEmpty(splitCells(lines[i], free.d));
+		if (cells.length !== free.k || !isDataRow(cells, (c) => isNumberCell(c, free!.mark))) continue;
+		const own = splitCells(lines[i], d);
+		let at = 0;
+		for (const cell of own) {
+			if (!isNumberCell(cell, mark) && !isClockCell(cell) && !isDateCell(cell)) {
+				const lead = cell.length - cell.trimStart().length;
+				const column = (lines[i].includes('"') ? lines[i].indexOf(cell.trim(), at) : at + lead) + 1;
+				const expected = options.decimalMark !== undefined && free.mark !== mark
+					? `a number with a decimal ${mark === '.' ? 'point' : 'comma'} (the decimal mark was set to "${mark}")`
+					: `a number (the delimiter was set to ${NAMES[d]})`;
+				throw new ImportError(source, i + 1, Math.max(1, column), 'bad-number', cell.trim(), expected);
+			}
+			at += cell.length + 1;
+		}
+		return;
+	}
 }
 
 function info(code: string, message: string, line?: number): Diagnostic {

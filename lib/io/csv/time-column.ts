@@ -46,7 +46,7 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	}
 	if (typeof options.timeColumn === 'number') {
 		if (!Number.isInteger(options.timeColumn) || options.timeColumn < 0 || options.timeColumn >= cols.length)
-			throw new ImportError(source, 0, 0, 'bad-option', String(options.timeColumn), `a time column index from 0 to ${cols.length - 1}`);
+			throw new ImportError(source, 0, 0, 'bad-option', `time column index ${options.timeColumn}`, `a time column index from 0 to ${cols.length - 1}, counting from 0 (the file has ${cols.length} column${cols.length === 1 ? '' : 's'})`);
 		tc = options.timeColumn;
 		role = options.timeUnit === 'index' || isIndexName(cols[tc].name) ? 'index' : 'time';
 		how = 'as set';
@@ -61,26 +61,30 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 			const ints = preview.every((r, i) => i === 0 || cellValue(r[0], layout.decimalMark) - cellValue(preview[i - 1][0], layout.decimalMark) === 1);
 			role = ints && Number.isInteger(cellValue(preview[0][0], layout.decimalMark)) ? 'index' : 'time';
 			how = 'because its values rise in equal steps';
-			say('time-column-guessed', `The first column was taken as the ${role === 'index' ? 'sample number' : 'time'} ${how}; set timeColumn to change this.`, 'assumption');
+			say('time-column-guessed', `The first column was taken as the ${role === 'index' ? 'sample number' : 'time'} ${how}; give the time column to change this.`, 'assumption');
 		}
 	}
 	if (tc === null) {
 		layout.timeColumn = null;
 		layout.timeUnit = null;
 		if (layout.statedSampleRateHz === undefined || !(layout.statedSampleRateHz > 0))
-			throw new ImportError(source, layout.headerLine ?? layout.bodyLine, 0, 'no-time-base', '', 'a time column, a sample rate or interval in the preamble, or a sample rate in the options');
+			throw new ImportError(source, layout.headerLine ?? layout.bodyLine, 0, 'no-time-base', '', 'a time column, a sample rate or interval in the preamble, or a given sample rate');
 		say('no-time-column', `No time column: samples are taken as evenly spaced at ${layout.statedSampleRateHz} Hz (${options.sampleRateHz ? 'as set' : 'from the preamble'}).`, 'assumption');
+		if (options.timeUnit !== undefined)
+			say('time-unit-unused', `A time unit (${options.timeUnit}) was given, but the file has no time column; it was not used.`, 'warning');
 		return;
 	}
 	cols[tc].role = role;
 	layout.timeColumn = tc;
 	layout.timeResolution = printedResolution(preview.map((r) => r[tc!] ?? ''), layout.decimalMark);
 	const name = cols[tc].header || `col${tc + 1}`;
+	// for an error, the text as written: the header cell, else the column's first data cell
+	const written = cols[tc].header || (preview[0]?.[tc] ?? '');
 	if (role === 'index' || options.timeUnit === 'index') {
 		cols[tc].role = 'index';
 		layout.timeUnit = 'index';
 		if (layout.statedSampleRateHz === undefined || !(layout.statedSampleRateHz > 0))
-			throw new ImportError(source, layout.headerLine ?? layout.bodyLine, tc + 1, 'no-time-base', name, 'a sample rate or interval in the preamble or options (the first column is a sample number, not a time)');
+			throw new ImportError(source, cols[tc].header ? layout.headerLine! : layout.bodyLine, tc + 1, 'no-time-base', written, `a sample rate or interval in the preamble, or a given sample rate (column ${tc + 1} holds sample numbers, not times)`);
 		say('sample-index', `Column "${name}" holds sample numbers (${how}); times are number / ${layout.statedSampleRateHz} Hz.`);
 		return;
 	}
@@ -92,7 +96,7 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	else if (preambleUnit) { unit = preambleUnit; from = 'from the preamble'; }
 	if (!unit) {
 		unit = guessUnit(preview, tc, layout.decimalMark, layout.statedSampleRateHz);
-		say('time-unit-assumed', `The time column "${name}" states no unit; ${unit} assumed from its step size${layout.statedSampleRateHz ? ' and the stated sample rate' : ''}. Set timeUnit to change this.`, 'assumption');
+		say('time-unit-assumed', `The time column "${name}" states no unit; ${unit} assumed from its step size${layout.statedSampleRateHz ? ' and the stated sample rate' : ''}. Give the time unit to change this.`, 'assumption');
 		from = 'assumed';
 	}
 	layout.timeUnit = unit;
