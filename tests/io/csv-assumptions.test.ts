@@ -72,12 +72,29 @@ describe('parseCsv: a comma that is either a delimiter or a decimal mark', () =>
 	});
 });
 
+describe('parseCsv: a line of names that does not fit the data', () => {
+	it('parseCsv(2 names over 4-column rows) keeps line 1 as a preamble line but warns about it', () => {
+		const c = parseCsv('U1,U2\n1,2,3,4\n5,6,7,8\n9,10,11,12\n', 'a.csv', { sampleRateHz: 1000 });
+		const w = find(c, 'header-like-preamble');
+		// line 1 holds 2 names; the data rows below hold 4 cells each (counted by hand)
+		expect(w.map((d) => [d.severity, d.line])).toEqual([['warning', 1]]);
+		expect(w[0].message).toMatch(/2 names.*4 column/);
+	});
+});
+
 describe('parseCsv: a decimal mark set against the file', () => {
 	it('parseCsv(decimal-comma file, decimal point set) throws bad-number at the first data cell', () => {
 		const e = errorOf(() => parseCsv(fixture('decimal-comma-semicolon.csv'), 'a.csv', { decimalMark: '.' }));
 		// line 2 is `0,0000;1,5`: its first cell starts at column 1
 		expect([e.code, e.line, e.column, e.text]).toEqual(['bad-number', 2, 1, '0,0000']);
 		expect(e.expected).toMatch(/decimal point/);
+	});
+
+	it('parseCsv(semicolon file, comma delimiter set) throws bad-number at the first data row, naming the setting', () => {
+		const e = errorOf(() => parseCsv('t;U1\n0;1\n1;2\n', 'a.csv', { delimiter: ',' }));
+		// line 2 is `0;1`: under a comma delimiter it is one cell starting at column 1
+		expect([e.code, e.line, e.column, e.text]).toEqual(['bad-number', 2, 1, '0;1']);
+		expect(e.expected).toMatch(/delimiter was set to comma/);
 	});
 });
 

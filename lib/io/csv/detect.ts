@@ -31,7 +31,8 @@ const MAX_LINES = 2000;
  * @returns the layout, with a Diagnostic for everything detected or assumed
  * @throws ImportError 'empty-file' for no text, 'no-data' when no row of numbers is found,
  *         'bad-option' when an override points outside the file, 'no-time-base' when neither a time
- *         column nor a sample rate is available
+ *         column nor a sample rate is available, 'bad-number' at the first data cell that a delimiter or
+ *         decimal mark set in the options cannot read (when the file reads as numbers without it)
  * @example detectCsvLayout('Time (ms);U1 (V)\r\n0,0;0,707\r\n0,1;-3,25\r\n').decimalMark // ','
  */
 export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFile = false, source = '<input>'): CsvLayout {
