@@ -14,11 +14,11 @@ export interface PowerSampleWindow {
 	cycles: number;
 }
 
-/** RangeError unless 0 ≤ startIndex < endIndex ≤ length − 1 and cycles ≥ 1. */
+/** RangeError unless 0 ≤ startIndex < endIndex ≤ length and cycles ≥ 1 (the record covers `length` sample intervals). */
 export function checkPowerWindow(span: PowerSampleWindow, length: number): void {
 	const { startIndex: s, endIndex: e, cycles } = span;
-	if (!(s >= 0 && e > s && e <= length - 1)) {
-		throw new RangeError(`window ${s}..${e} must satisfy 0 <= startIndex < endIndex <= ${length - 1} (samples available)`);
+	if (!(s >= 0 && e > s && e <= length)) {
+		throw new RangeError(`window ${s}..${e} must satisfy 0 <= startIndex < endIndex <= ${length} (samples available)`);
 	}
 	if (!(cycles >= 1) || !Number.isInteger(cycles)) throw new RangeError(`window cycles must be a whole number >= 1, got ${cycles}`);
 }
@@ -91,10 +91,21 @@ export function powerWindowWeights(s: number, e: number): { firstIndex: number; 
  * @throws RangeError for arrays of unequal length or a window outside the samples
  * @example activePowerFromSamplesW(v, i, { startIndex: 0, endIndex: 2000, cycles: 10 }) // 1991.86 for 230 V, 10 A, θ = 30°
  */
+/** f(n) for n < length; past the last sample (n = length) the value one period earlier, linear between samples. */
+function continuedPastEnd(f: (n: number) => number, length: number, span: PowerSampleWindow): (n: number) => number {
+	const period = (span.endIndex - span.startIndex) / span.cycles;
+	return (n) => {
+		if (n < length) return f(n);
+		const t = n - period;
+		const k = Math.floor(t);
+		return t > k ? f(k) + (t - k) * (f(k + 1) - f(k)) : f(k);
+	};
+}
+
 export function activePowerFromSamplesW(voltage: Float64Array, current: Float64Array, span: PowerSampleWindow): number {
 	if (voltage.length !== current.length) throw new RangeError(`voltage has ${voltage.length} samples, current ${current.length}`);
 	checkPowerWindow(span, voltage.length);
-	return windowMean((n) => voltage[n] * current[n], span.startIndex, span.endIndex);
+	return windowMean(continuedPastEnd((n) => voltage[n] * current[n], voltage.length, span), span.startIndex, span.endIndex);
 }
 
 /**
@@ -104,5 +115,5 @@ export function activePowerFromSamplesW(voltage: Float64Array, current: Float64A
  */
 export function powerWindowRms(samples: Float64Array, span: PowerSampleWindow): number {
 	checkPowerWindow(span, samples.length);
-	return Math.sqrt(windowMean((n) => samples[n] * samples[n], span.startIndex, span.endIndex));
+	return Math.sqrt(windowMean(continuedPastEnd((n) => samples[n] * samples[n], samples.length, span), span.startIndex, span.endIndex));
 }

@@ -32,7 +32,7 @@ export function chooseReference(capture: Capture, refChannel: string | undefined
 	const channels = capture.channels;
 	const assumptions: string[] = [];
 	if (channels.length === 0) return { index: -1, failure: 'The capture has no analogue channels.', assumptions };
-	const opts = nominalHz !== undefined ? { nominalHz } : {};
+	const opts = nominalHz !== undefined ? { nominalHz, toRecordEnd: true } : { toRecordEnd: true };
 	if (refChannel !== undefined) {
 		const index = channels.findIndex((c) => c.name === refChannel);
 		if (index < 0) {

@@ -142,7 +142,7 @@ describe('activePowerFromSamplesW', () => {
 
 	it('throws RangeError for a window outside the samples or unequal lengths', () => {
 		const x = new Float64Array(100);
-		expect(() => activePowerFromSamplesW(x, x, { startIndex: 0, endIndex: 100, cycles: 1 })).toThrow(RangeError);
+		expect(() => activePowerFromSamplesW(x, x, { startIndex: 0, endIndex: 100.5, cycles: 1 })).toThrow(RangeError);
 		expect(() => activePowerFromSamplesW(x, new Float64Array(99), { startIndex: 0, endIndex: 50, cycles: 1 })).toThrow(RangeError);
 	});
 
