@@ -39,7 +39,7 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 	const mode = raw.json ? 'json' : raw.csv ? 'csv' : 'table';
 	if (skipped.length > 0 && raw.quiet !== true) io.err(`note: skipped ${skipped.length} file(s) that are not captures (e.g. ${skipped[0]})\n`);
 	if (units.length === 0) {
-		io.err(`no capture files found in ${paths.join(', ')} (looked for ${['.csv', '.txt', '.tsv', '.wav', '.cfg', '.cff'].join(' ')})\n`);
+		io.err(`sinecheck: no capture files found in ${paths.join(', ')} (looked for ${['.csv', '.txt', '.tsv', '.wav', '.cfg', '.cff'].join(' ')})\n`);
 		return 2;
 	}
 	const jobs = jobsFrom(raw.jobs, units.length);

@@ -3,22 +3,15 @@
  * in-process; the result is plain data (structured-clone safe).
  */
 import { readFileSync } from 'node:fs';
-import { isImportError } from '../../lib/io/import-error.js';
+import { isImportError, type ImportError } from '../../lib/io/import-error.js';
 import { openCaptures } from '../../lib/io/open.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { reportToJson, type ReportJson } from '../../lib/report/to-json.js';
+import { problemFrom, problemLine, type FileProblem } from './error-line.js';
 import type { CommandSettings } from './options.js';
 import { importOptionsFrom, applyImportSettings } from './import-settings.js';
 
-/** A per-file problem, as data: printed once to stderr as `file:line:column: message`. */
-export interface FileProblem {
-	file: string;
-	/** 1-based; 0 or absent when the problem is not at a line. */
-	line?: number;
-	column?: number;
-	code: string;
-	message: string;
-}
+export type { FileProblem } from './error-line.js';
 
 export interface UnitResult {
 	files: string[];
@@ -26,24 +19,26 @@ export interface UnitResult {
 	problems: FileProblem[];
 }
 
-/** Located text of a problem: `file:line:column: message` (line/column omitted when unknown). */
+/** The printed line of a problem: the shape `trend` uses too (src/cli/error-line.ts). */
 export function problemText(p: FileProblem): string {
-	const where = p.line ? `${p.file}:${p.line}:${p.column ?? 0}` : p.file;
-	return `${where}: ${p.message}`;
+	return problemLine(p);
 }
 
-function problemOf(e: unknown, fallbackFile: string): FileProblem {
-	if (isImportError(e)) {
-		const got = e.text ? `, got ${JSON.stringify(e.text.slice(0, 80))}` : '';
-		return { file: e.source || fallbackFile, line: e.line, column: e.column, code: e.code, message: `${e.code}: expected ${e.expected}${got}` };
-	}
-	if (e instanceof RangeError) {
-		// Library messages may already start with the file name; the printed line names it once.
-		const message = e.message.startsWith(`${fallbackFile}: `) ? e.message.slice(fallbackFile.length + 2) : e.message;
-		return { file: fallbackFile, code: 'bad-option', message };
-	}
-	const message = e instanceof Error ? e.message : String(e);
-	return { file: fallbackFile, code: 'internal-error', message: `could not analyse: ${message}` };
+/**
+ * The importer counts a CSV time column from 0; the command line counts from 1 (options.ts passes
+ * --time-column N as index N - 1). Its out-of-range error is restated in the user's terms.
+ */
+function timeColumnProblem(e: ImportError, p: FileProblem, settings: CommandSettings): FileProblem {
+	const index = settings.import.timeColumn;
+	if (typeof index !== 'number' || e.code !== 'bad-option' || e.text !== `time column index ${index}`) return p;
+	const columns = /the file has (\d+) column/.exec(e.expected)?.[1];
+	const range = columns === undefined ? "one of the file's columns, counting from 1" : `a column number from 1 to ${columns} (the file has ${columns} column${columns === '1' ? '' : 's'})`;
+	return { ...p, message: `${e.code}: --time-column ${index + 1}: expected ${range}` };
+}
+
+function problemOf(e: unknown, fallbackFile: string, settings: CommandSettings): FileProblem {
+	const p = problemFrom(e, fallbackFile);
+	return isImportError(e) ? timeColumnProblem(e, p, settings) : p;
 }
 
 /** Reads the unit's files, imports and analyses them. Never throws: every failure becomes a problem. */
@@ -61,16 +56,16 @@ export function analyseUnit(files: string[], settings: CommandSettings): UnitRes
 	try {
 		opened = openCaptures(inputs, importOptionsFrom(settings.import));
 	} catch (e) {
-		result.problems.push(problemOf(e, files[0]));
+		result.problems.push(problemOf(e, files[0], settings));
 		return result;
 	}
-	for (const e of opened.errors) result.problems.push(problemOf(e, files[0]));
+	for (const e of opened.errors) result.problems.push(problemOf(e, files[0], settings));
 	for (const capture of opened.captures) {
 		try {
 			const adjusted = applyImportSettings(capture, settings.import);
 			result.reports.push(reportToJson(analyseCapture(adjusted, settings.analysis)));
 		} catch (e) {
-			result.problems.push(problemOf(e, capture.source));
+			result.problems.push(problemOf(e, capture.source, settings));
 		}
 	}
 	return result;

@@ -7,10 +7,10 @@
  * (`sinecheck: <path>: byte N: message` for an offset in a binary file).
  * Returns the exit code: 0 ok, 2 usage or input error.
  */
-import { isImportError } from '../../../lib/io/import-error.js';
 import type { OpenOptions } from '../../../lib/io/open.js';
 import type { TrendInterval, TrendResult, TrendRow, TrendThresholds } from '../../../lib/trend/types.js';
 import { collectUnits } from '../collect-files.js';
+import { ERROR_PREFIX as PREFIX, errorLine } from '../error-line.js';
 import { UsageError } from '../usage-error.js';
 import { analyseFile, type AnalyserSettings } from './read-recording.js';
 import { csvHeader, csvRow, eventLine, trendJson } from './trend-output.js';
@@ -42,28 +42,14 @@ export interface TrendCommandOptions {
 
 class TrendUsageError extends Error {}
 
-/** Every error line starts so, as the `analyse` command's do. */
-const PREFIX = 'sinecheck: ';
-
 /**
- * One error line for a file: an ImportError located as `path:line:column` (line and column left out when
- * 0; `byte N` for an offset in a binary file, whose errors carry line 0 and column = offset + 1), any
- * other error after the path. `file` is the path as the user gave it; an ImportError names its own file
- * (a COMTRADE .dat beside the .cfg), which read-recording.ts names with the same folder prefix.
+ * One error line for a file, in the shape every command uses (src/cli/error-line.ts): an ImportError
+ * located as `path:line:column` (line and column left out when 0; `byte N` for an offset in a binary
+ * file), any other error after the path. `file` is the path as the user gave it; an ImportError names its
+ * own file (a COMTRADE .dat beside the .cfg), which read-recording.ts names with the same folder prefix.
  */
 export function trendErrorLine(e: unknown, file: string): string {
-	if (isImportError(e)) {
-		const src = e.source || file;
-		const where = e.line > 0 ? `${src}:${e.line}${e.column > 0 ? `:${e.column}` : ''}` : e.column > 0 ? `${src}: byte ${e.column - 1}` : src;
-		const got = e.text ? `, got ${JSON.stringify(e.text.slice(0, 80))}` : '';
-		return `${PREFIX}${where}: ${e.code}: expected ${e.expected}${got}`;
-	}
-	const message = e instanceof Error ? e.message : String(e);
-	if (e instanceof TrendUsageError || e instanceof UsageError || e instanceof RangeError) {
-		// Library messages may already start with the path; the line names it once.
-		return `${PREFIX}${message.startsWith(`${file}: `) || message.startsWith(`${file} `) ? message : `${file}: ${message}`}`;
-	}
-	return `${PREFIX}${file}: could not analyse: ${message}`;
+	return errorLine(e instanceof TrendUsageError ? new UsageError(e.message) : e, file);
 }
 
 const INTERVALS: Record<string, TrendInterval> = {
