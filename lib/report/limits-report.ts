@@ -22,7 +22,7 @@ function rowsOf(channel: string, e: LimitEvaluation): { rows: ReportLimitRow[]; 
 			limit: c.limitPercent,
 			margin: c.marginPercent,
 			pass: c.pass,
-			source: `${c.source} ${c.provenance}`.trim(),
+			source: c.provenance ? `${c.source} (${c.provenance})` : c.source,
 		});
 	}
 	return { rows, unmeasured };

@@ -62,6 +62,33 @@ function topHarmonics(c: Channel, count: number): string {
 	return hs.length ? hs.map((h) => `h${h.order ?? 0} ${fixed(h.percentOfFundamental, 1)}%`).join(', ') : 'none >= 0.5%';
 }
 
+type LimitRow = NonNullable<ReportJson['limits']>['rows'][number];
+
+/** A margin that reads as zero at `decimals` (including "-0.00"). */
+function roundsToZero(x: number, decimals: number): boolean {
+	return /^-?0(\.0*)?$/.test(x.toFixed(decimals));
+}
+
+/**
+ * One limit row: `U1 h5: 6.03 % over limit 6.00 % (margin -0.03) [source]`. Value, limit and margin share
+ * one number of decimals, 2 or as many more (up to 6) as the margin needs to show a non-zero digit, so a
+ * row never reads "8.00 % over limit 8.00 % (margin -0.00)"; a margin still 0 at 6 decimals reads
+ * "at the limit". Never prints -0.
+ */
+export function limitRowText(x: LimitRow): string {
+	const what = x.figure === 'harmonic' ? `h${x.order}` : x.figure.toUpperCase();
+	const source = x.source ? ` [${x.source}]` : '';
+	const margin = x.margin;
+	if (typeof margin !== 'number' || !Number.isFinite(margin)) {
+		return `${x.channel} ${what}: ${fixed(x.value, 2)} % against limit ${fixed(x.limit, 2)} % (margin n/a)${source}`;
+	}
+	let decimals = 2;
+	while (decimals < 6 && roundsToZero(margin, decimals)) decimals++;
+	if (roundsToZero(margin, decimals)) return `${x.channel} ${what}: ${fixed(x.value, 2)} % at the limit of ${fixed(x.limit, 2)} %${source}`;
+	const relation = margin < 0 ? 'over limit' : 'within limit';
+	return `${x.channel} ${what}: ${fixed(x.value, decimals)} % ${relation} ${fixed(x.limit, decimals)} % (margin ${margin.toFixed(decimals)})${source}`;
+}
+
 /** The text block for one report (lines without a trailing newline). */
 export function formatReport(r: ReportJson): string[] {
 	const out: string[] = [];
@@ -145,10 +172,7 @@ export function formatReport(r: ReportJson): string[] {
 	if (r.limits) {
 		const failed = r.limits.rows.filter((x) => !x.pass);
 		out.push('', `  limits ${r.limits.table} (${r.limits.title}): ${r.limits.pass ? 'PASS' : `FAIL (${failed.length} over)`}`);
-		for (const x of failed) {
-			const what = x.figure === 'harmonic' ? `h${x.order}` : x.figure.toUpperCase();
-			out.push(`    ${x.channel} ${what}: ${fixed(x.value, 2)} % over limit ${fixed(x.limit, 2)} % (margin ${fixed(x.margin, 2)}) [${x.source}]`);
-		}
+		for (const x of failed) out.push(`    ${limitRowText(x)}`);
 		for (const n of r.limits.notes) out.push(`    note: ${n}`);
 	}
 	const warnings = [...r.warnings, ...r.channels.flatMap((c) => c.warnings.map((w) => `${c.name}: ${w}`))];

@@ -43,7 +43,8 @@ cli
 	});
 
 cli
-	.command('trend [...files]', 'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings')
+	.command('trend [...paths]', 'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings; folders are walked')
+	.usage('trend [...paths]  (recording files or folders; folders are walked for .csv .tsv .txt .wav .cfg .cff)')
 	.option('--json', 'One JSON document per file instead of CSV rows')
 	.option('--interval <which>', 'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s) or 10-min (10min)')
 	.option('--nominal <V>', 'Declared voltage Udin in V (line-to-neutral when the channels are); inferred when absent')
@@ -81,6 +82,11 @@ cli
 	});
 
 cli.help((sections) => {
+	// cac gives a negated option (--no-progress, --no-thd) the default true and prints "(default: true)"
+	// after it, which reads as if the option were on by default: that text is left out.
+	for (const section of sections) {
+		if (section.title === 'Options') section.body = section.body.replace(/^(\s+--no-\S+.*?)\s*\(default: true\)$/gm, '$1');
+	}
 	const examples = [...ANALYSE_EXAMPLES, ...TREND_EXAMPLES].map((l) => (l.startsWith('#') ? `  ${l}` : `  $ ${l}`)).join('\n');
 	sections.push({ title: 'Examples', body: examples });
 	sections.push({ body: wrap(EXIT_CODES, 100, '') });

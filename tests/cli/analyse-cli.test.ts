@@ -59,6 +59,11 @@ beforeAll(async () => {
 	writeCsvCapture(join(dir, 'survey', 'a-good.csv'), [U1, I1], { frequencyHz: F, sampleRateHz: FS, cycles: 12 });
 	writeFileSync(join(dir, 'survey', 'b-bad.csv'), 't (s),U1 (V)\n0,1\n0.0001,2\n0.0002,abc\n0.0003,4\n');
 	writeCsvCapture(join(dir, 'survey', 'c-good.csv'), [U1], { frequencyHz: F, sampleRateHz: FS, cycles: 12 });
+	// RIFF layout: 'RIFF' size 'WAVE' (bytes 0-11), then the 'fmt ' chunk id (12-15) and its size field
+	// (16-19) saying 16 bytes, of which only 4 follow: the size field at byte 16 is what is wrong.
+	writeFileSync(join(dir, 'truncated.wav'), Buffer.concat([Buffer.from('RIFF'), Buffer.alloc(4), Buffer.from('WAVEfmt '), Buffer.from([16, 0, 0, 0, 1, 0, 1, 0])]));
+	// 5th harmonic at 6.004 % of the fundamental: 0.004 percent points over EN 50160's 6 % (REFERENCE.md 4.1).
+	writeCsvCapture(join(dir, 'at-limit.csv'), [{ header: 'U1 (V)', tones: [{ order: 1, rms: 230 }, { order: 5, rms: 230 * 0.06004 }] }], { frequencyHz: F, sampleRateHz: FS, cycles: 20 });
 }, 120_000);
 
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -168,6 +173,35 @@ describe('sinecheck analyse exit codes', () => {
 		for (const d of docs) expect(validate(d), JSON.stringify(validate.errors)).toBe(true);
 	});
 
+	it('analyse prints a bad CSV cell as `sinecheck: <path as given>:<line>:<column>: <code>: expected …, got "<cell>"` (the shape trend uses)', () => {
+		const r = run(['analyse', 'survey', '--json']);
+		const bad = join('survey', 'b-bad.csv');
+		const lines = r.stderr.split('\n').filter((l) => l.includes(bad));
+		expect(lines).toHaveLength(1);
+		// the file written above: line 4 is `0.0002,abc`, the cell "abc" starts at character 8
+		const place = `sinecheck: ${bad}:4:8: bad-number: expected `.replace(/[.\\]/g, (c) => `\\${c}`);
+		expect(lines[0]).toMatch(new RegExp(`^${place}.+, got "abc"$`));
+	});
+
+	it('analyse names an offset in a binary file as `byte N` with no line or column: a WAV whose fmt chunk size field (byte 16, RIFF layout) promises more than the file holds', () => {
+		const r = run(['analyse', 'truncated.wav']);
+		expect(r.code).toBe(2);
+		const lines = r.stderr.trim().split('\n');
+		expect(lines).toHaveLength(1);
+		expect(lines[0].startsWith('sinecheck: truncated.wav: byte 16: bad-wav: expected ')).toBe(true);
+		expect(lines[0]).not.toMatch(/truncated\.wav:\d/);
+	});
+
+	it('analyse --time-column counts from 1: 5 on a 3-column file is an error in those terms, 1 reads the time column', () => {
+		const bad = run(['analyse', 'feeder.csv', '--time-column', '5']);
+		expect(bad.code).toBe(2);
+		expect(bad.stderr).toBe('sinecheck: feeder.csv: bad-option: --time-column 5: expected a column number from 1 to 3 (the file has 3 columns)\n');
+		// feeder.csv: `t (s),U1 (V),I1 (A)`; column 1 is the time in s, at 1 / 10 kS/s steps
+		const good = run(['analyse', 'feeder.csv', '--time-column', '1', '--json']);
+		expect(good.code).toBe(0);
+		expect(JSON.parse(good.stdout).sampleRateHz).toBeCloseTo(FS, 6);
+	});
+
 	it('analyse with an unknown limit table, a missing file or an unknown option exits 2 with one line and no stack trace', () => {
 		for (const args of [['analyse', 'feeder.csv', '--limits', 'nope'], ['analyse', 'missing.csv'], ['analyse', 'feeder.csv', '--frobnicate'], ['analyse', 'feeder.csv', '--scale', 'U1']]) {
 			const r = run(args);
@@ -215,6 +249,17 @@ describe('sinecheck analyse output forms', () => {
 		expect(lines.filter((l) => l.startsWith('file,'))).toHaveLength(1);
 	});
 
+	it('analyse --limits en50160 prints a 5th 0.004 points over 6 % with enough decimals to show it, and the limit source with its provenance in brackets (REFERENCE.md 4.1)', () => {
+		const r = run(['analyse', 'at-limit.csv', '--limits', 'en50160']);
+		expect(r.code).toBe(1);
+		// 6.004 - 6 = 0.004: 2 decimals read -0.00, 3 show it
+		const line = r.stdout.split('\n').find((l) => l.includes(' h5: '));
+		expect(line).toBeDefined();
+		expect(line!.trim().startsWith('U1 h5: 6.004 % over limit 6.000 % (margin -0.004) [')).toBe(true);
+		expect(line).toMatch(/\[[^\]]+ \((read in a secondary source|from memory)\)\]$/);
+		expect(r.stdout).not.toMatch(/-0\.0+\)/);
+	});
+
 	it('analyse prints a readable table with the figures, the pair in words and the assumptions', () => {
 		const r = run(['analyse', 'feeder.csv']);
 		expect(r.code).toBe(0);
@@ -234,6 +279,17 @@ describe('sinecheck analyse output forms', () => {
 		const top = run(['--help']);
 		expect(top.code).toBe(0);
 		expect(top.stdout).toMatch(/analyse/);
+	});
+
+	it('--help does not call a negated option on by default, and says trend walks folders', () => {
+		const r = run(['analyse', '--help']);
+		const progress = r.stdout.split('\n').find((l) => l.includes('--no-progress'));
+		expect(progress).toBeDefined();
+		expect(progress).not.toMatch(/default/);
+		const trend = run(['trend', '--help']);
+		expect(trend.code).toBe(0);
+		expect(trend.stdout.split('\n').find((l) => l.includes('--no-thd'))).not.toMatch(/default/);
+		expect(trend.stdout).toMatch(/folders are walked/);
 	});
 
 	it('the built entry file starts with a node shebang (needed for the bin link)', () => {
