@@ -40,17 +40,26 @@ function besselI0(x: number): number {
 	return sum;
 }
 
-/** Per half-width W: for each fractional phase q, the 2W tap weights in sample order as (value, slope) pairs, index 2·(q·2W + j). */
-const kernels = new Map<number, Float64Array>();
+/**
+ * Per half-width W, the kernel table: row q (fraction q/P, q = 0 … P) holds the 2W tap weights in sample
+ * order as float32 at index q·2W + j, and `sums[q]` the exact (float64) sum of that row's stored values.
+ */
+interface Kernel {
+	rows: Float32Array;
+	sums: Float64Array;
+}
+const kernels = new Map<number, Kernel>();
 
 /**
- * Kaiser-windowed sinc of half-width W on |d| ∈ [0, W], sampled at 1/TABLE_PHASES and stored as
- * (value, slope to the next point) so a lookup is two adjacent loads:
+ * Kaiser-windowed sinc of half-width W on |d| ∈ [0, W], sampled at 1/TABLE_PHASES:
  * h(d) = sinc(d) · I0(β·√(1 − (d/W)²)) / I0(β).
+ * Stored as float32 (relative rounding ≤ 6e-8 per weight, far below the kernel's 1e-5 design error) so
+ * the whole table (65 KB for W = 8) stays in cache beside the DFT's own tables; a lookup interpolates
+ * linearly between two adjacent rows.
  * Ref: J. F. Kaiser, "Nonrecursive digital filter design using the I0-sinh window function",
  * Proc. IEEE ISCAS 1974 (from memory); windowed-sinc interpolation is textbook (e.g. Oppenheim & Schafer).
  */
-function kernel(w: number): Float64Array {
+function kernel(w: number): Kernel {
 	const cached = kernels.get(w);
 	if (cached) return cached;
 	const size = w * TABLE_PHASES + 2;
@@ -63,40 +72,38 @@ function kernel(w: number): Float64Array {
 		const r = d / w;
 		t[q] = (sinc * besselI0(KAISER_BETA * Math.sqrt(1 - r * r))) / i0b;
 	}
-	// Row q (fraction f = q/P) holds the 2W weights in sample order, i0 − W + 1 … i0 + W, as (value, slope)
-	// pairs that both interpolate with the same fraction wa = qa − q: one contiguous row per output point.
-	// Each row is normalised to sum 1, so every interpolated weight set sums to 1 and DC passes exactly.
-	const rowAt = (q: number): Float64Array => {
-		const r = new Float64Array(2 * w);
+	// Row q (fraction f = q/P) holds the 2W weights in sample order, i0 − W + 1 … i0 + W: left taps at
+	// distance f + (W − 1 − j), right taps at distance (1 − f) + (j − W). Each row is normalised to sum 1
+	// before rounding to float32; the float32 rounding then leaves a sum of 1 ± 1e-7, which syncResample
+	// divides out with `sums`, so every interpolated weight set sums to 1 and DC passes exactly.
+	const w2 = 2 * w;
+	const rows = new Float32Array(w2 * (TABLE_PHASES + 1));
+	const sums = new Float64Array(TABLE_PHASES + 1);
+	const r = new Float64Array(w2);
+	for (let q = 0; q <= TABLE_PHASES; q++) {
 		let sum = 0;
-		for (let j = 0; j < 2 * w; j++) {
-			// left taps at distance f + (W − 1 − j), right taps at distance (1 − f) + (j − W)
+		for (let j = 0; j < w2; j++) {
 			r[j] = j < w ? t[q + (w - 1 - j) * TABLE_PHASES] : t[TABLE_PHASES - q + (j - w) * TABLE_PHASES];
 			sum += r[j];
 		}
-		for (let j = 0; j < 2 * w; j++) r[j] /= sum;
-		return r;
-	};
-	const vs = new Float64Array(4 * w * TABLE_PHASES);
-	let cur = rowAt(0);
-	for (let q = 0; q < TABLE_PHASES; q++) {
-		const next = rowAt(q + 1);
-		for (let j = 0; j < 2 * w; j++) {
-			vs[2 * (q * 2 * w + j)] = cur[j];
-			vs[2 * (q * 2 * w + j) + 1] = next[j] - cur[j];
+		let stored = 0;
+		for (let j = 0; j < w2; j++) {
+			rows[q * w2 + j] = r[j] / sum;
+			stored += rows[q * w2 + j];
 		}
-		cur = next;
+		sums[q] = stored;
 	}
-	kernels.set(w, vs);
-	return vs;
+	const k = { rows, sums };
+	kernels.set(w, k);
+	return k;
 }
 
 /**
  * out[m] = x(start + m·L/M), m = 0 … M−1, with x(t) the band-limited interpolation of `samples`:
  * a Kaiser-windowed sinc designed for 110 dB, its half-width chosen from `passbandRatio` by
- * syncResampleHalfTaps, tabulated at 1024 phases per sample with each phase normalised to sum 1 (so DC
- * passes exactly). Where the kernel reaches past the
- * ends of the capture, the missing sample is taken one window length away (x(t ± L), linear between its
+ * syncResampleHalfTaps, tabulated at 1024 phases per sample (float32, linear between phases) with every
+ * interpolated weight set normalised to sum 1 (so DC passes exactly). Where the kernel reaches past the ends
+ * of the capture, the missing sample is taken one window length away (x(t ± L), linear between its
  * neighbours): the window holds whole cycles, so this is the signal's own continuation.
  *
  * Accuracy (tests/spectrum/sync-resample.test.ts, a cosine through this function, point by point): error
@@ -113,31 +120,46 @@ function kernel(w: number): Float64Array {
 export function syncResample(samples: Float64Array, start: number, lengthSamples: number, out: Float64Array, passbandRatio = 0.4): Float64Array {
 	const n = samples.length;
 	const m = out.length;
-	const w = syncResampleHalfTaps(passbandRatio);
-	const tab = kernel(w);
+	// int32 throughout the index arithmetic (`| 0`: t ≥ 0, so truncation is floor), which lets the JIT
+	// keep every table and sample index in an integer register
+	const w = syncResampleHalfTaps(passbandRatio) | 0;
+	const { rows: tab, sums } = kernel(w);
+	const w2 = (2 * w) | 0;
 	const step = lengthSamples / m;
 	for (let i = 0; i < m; i++) {
 		const t = start + i * step;
-		const i0 = Math.floor(t);
-		const f = t - i0;
-		const qa = f * TABLE_PHASES;
-		const qa0 = Math.floor(qa);
-		const wa = qa - qa0;
-		const base = i0 - w + 1;
-		let acc = 0;
-		let p = 4 * w * qa0;
+		const i0 = t | 0;
+		const qa = (t - i0) * TABLE_PHASES;
+		const q = qa | 0;
+		const wa = qa - q;
+		const base = (i0 - w + 1) | 0;
+		// Σ_j x_j·((1 − wa)·a_j + wa·b_j) = A + wa·(B − A), rows a = q and b = q + 1, each sum taken once
+		let a = 0;
+		let b = 0;
+		let p = (w2 * q) | 0;
 		if (base >= 0 && i0 + w < n) {
-			// two accumulators: the add latency, not the loads, bounds a single-sum loop
-			let acc2 = 0;
-			for (let j = base, end = base + 2 * w; j < end; j += 2, p += 4) {
-				acc += (tab[p] + wa * tab[p + 1]) * samples[j];
-				acc2 += (tab[p + 2] + wa * tab[p + 3]) * samples[j + 1];
+			// two chains per row: the add latency, not the loads, bounds a single-sum loop
+			let a1 = 0;
+			let b1 = 0;
+			for (let j = base, end = (base + w2) | 0; j < end; j = (j + 2) | 0, p = (p + 2) | 0) {
+				const x0 = samples[j];
+				const x1 = samples[j + 1];
+				a += tab[p] * x0;
+				b += tab[p + w2] * x0;
+				a1 += tab[p + 1] * x1;
+				b1 += tab[p + 1 + w2] * x1;
 			}
-			acc += acc2;
+			a += a1;
+			b += b1;
 		} else {
-			for (let j = 0; j < 2 * w; j++, p += 2) acc += (tab[p] + wa * tab[p + 1]) * sampleOrWrap(samples, base + j, lengthSamples);
+			for (let j = 0; j < w2; j++, p++) {
+				const x = sampleOrWrap(samples, base + j, lengthSamples);
+				a += tab[p] * x;
+				b += tab[p + w2] * x;
+			}
 		}
-		out[i] = acc;
+		const sa = sums[q];
+		out[i] = (a + wa * (b - a)) / (sa + wa * (sums[q + 1] - sa));
 	}
 	return out;
 }
