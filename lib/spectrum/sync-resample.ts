@@ -10,6 +10,8 @@ const ATTENUATION_DB = 110;
 const KAISER_BETA = 0.1102 * (ATTENUATION_DB - 8.7);
 /** Kernel table resolution: points per input-sample interval (linear interpolation between them). */
 const TABLE_PHASES = 1024;
+/** log2(TABLE_PHASES). */
+const TABLE_SHIFT = 10;
 const MIN_HALF_TAPS = 4;
 const MAX_HALF_TAPS = 32;
 
@@ -120,18 +122,31 @@ function kernel(w: number): Kernel {
 export function syncResample(samples: Float64Array, start: number, lengthSamples: number, out: Float64Array, passbandRatio = 0.4): Float64Array {
 	const n = samples.length;
 	const m = out.length;
-	// int32 throughout the index arithmetic (`| 0`: t ≥ 0, so truncation is floor), which lets the JIT
-	// keep every table and sample index in an integer register
+	// int32 throughout the index arithmetic (`| 0`: positions are ≥ 0, so truncation is floor), which lets
+	// the JIT keep every table and sample index in an integer register
 	const w = syncResampleHalfTaps(passbandRatio) | 0;
 	const { rows: tab, sums } = kernel(w);
 	const w2 = (2 * w) | 0;
 	const step = lengthSamples / m;
-	for (let i = 0; i < m; i++) {
-		const t = start + i * step;
-		const i0 = t | 0;
-		const qa = (t - i0) * TABLE_PHASES;
-		const q = qa | 0;
-		const wa = qa - q;
+	// positions counted in table steps from the whole sample below each run's first point: the integer
+	// part is (i0 − s0)·P + q, P a power of two, so one truncation gives sample and phase. A run spans
+	// < 2^20 input samples, so int32 holds its positions (one run unless the window exceeds 2^20 samples).
+	const posStep = step * TABLE_PHASES;
+	const run = Math.max(1, Math.floor(2 ** 20 / step));
+	let s0 = 0;
+	let pos0 = 0;
+	for (let i = 0, runEnd = 0; i < m; i++) {
+		if (i === runEnd) {
+			const tr = start + i * step;
+			s0 = Math.floor(tr);
+			pos0 = (tr - s0) * TABLE_PHASES - i * posStep;
+			runEnd = Math.min(m, i + run);
+		}
+		const pos = pos0 + i * posStep;
+		const qi = pos | 0;
+		const i0 = s0 + (qi >> TABLE_SHIFT);
+		const q = qi & (TABLE_PHASES - 1);
+		const wa = pos - qi;
 		const base = (i0 - w + 1) | 0;
 		// Σ_j x_j·((1 − wa)·a_j + wa·b_j) = A + wa·(B − A), rows a = q and b = q + 1, each sum taken once
 		let a = 0;
