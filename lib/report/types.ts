@@ -6,6 +6,7 @@
  * Units are SI throughout: V, A, W, var, VA, Hz, s, degrees. In memory a figure the data cannot give is
  * NaN; in JSON it is `null` (JSON has no NaN).
  */
+import type { NeutralCurrentFigures } from '../polyphase/neutral.js';
 import type { Quantity } from '../capture.js';
 
 /** Schema version of the JSON report; bumped on any incompatible change. */
@@ -136,20 +137,10 @@ export interface ReportThreePhasePower {
 	figures: Record<string, number>;
 }
 
-/** Neutral current of a three-phase current set. */
-export interface ReportNeutral {
+/** Neutral current of a three-phase current set: lib/polyphase's figures plus which channel measured it. */
+export interface ReportNeutral extends NeutralCurrentFigures {
 	/** The measured neutral channel, or null when computed as the sum of the phase currents. */
 	channel: string | null;
-	source: 'measured' | 'computed';
-	neutralRmsA: number;
-	percentOfMeanPhase: number;
-	percentOfMaxPhase: number;
-	fundamentalRmsA: number;
-	triplenRmsA: number;
-	triplenPercentOfNeutral: number;
-	largestTriplenOrder: number;
-	largestTriplenRmsA: number;
-	sentence: string;
 }
 
 /** A binary status channel in brief. */
