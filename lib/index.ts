@@ -9,3 +9,4 @@ export * from './polyphase/index.js';
 export * from './limits/index.js';
 export * from './trend/index.js';
 export * from './report/index.js';
+export * from './next-steps/index.js';

@@ -9,6 +9,7 @@ import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
 import { digitalSummary, meterExplanation, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
 import { limitsReport } from './limits-report.js';
+import { checkSiteInputs, nextStepsSection } from '../next-steps/report-section.js';
 import { chooseReference } from './reference.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
 import { channelSpectrum, planWindows, type ChannelSpectrum } from './spectra.js';
@@ -32,6 +33,7 @@ function checkOptions(o: AnalysisOptions): void {
 	positive('ilA', o.ilA);
 	if (o.windowCycles !== undefined && !(Number.isInteger(o.windowCycles) && o.windowCycles >= 1)) throw new RangeError(`windowCycles must be a whole number >= 1, got ${o.windowCycles}`);
 	if (o.ieee519Edition !== undefined && o.ieee519Edition !== '2014' && o.ieee519Edition !== '2022') throw new RangeError(`ieee519Edition must be '2014' or '2022', got ${String(o.ieee519Edition)}`);
+	if (o.site !== undefined) checkSiteInputs(o.site);
 	if (o.maxOrder !== undefined && !(Number.isInteger(o.maxOrder) && o.maxOrder >= 1)) throw new RangeError(`maxOrder must be a whole number >= 1, got ${o.maxOrder}`);
 }
 
@@ -179,6 +181,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}
 	if (options.limits) report.limits = limitsReport(report, options);
+	report.nextSteps = nextStepsSection(report, options.site);
 	return report;
 }
 

@@ -8,6 +8,7 @@
  */
 import type { NeutralCurrentFigures } from '../polyphase/neutral.js';
 import type { Quantity } from '../capture.js';
+import type { ReportNextSteps, SiteInputs } from '../next-steps/types.js';
 
 /** Schema version of the JSON report; bumped on any incompatible change. */
 export const REPORT_SCHEMA_VERSION = 1;
@@ -51,6 +52,8 @@ export interface AnalysisOptions {
 	ieee519Edition?: '2014' | '2022';
 	/** Voltage/current pairings that replace the automatic pairing by phase label. */
 	pairs?: ReportPairOverride[];
+	/** Site values for the next steps (target power factor, transformer, meter...); see lib/next-steps. */
+	site?: SiteInputs;
 }
 
 export interface ReportHarmonic {
@@ -273,4 +276,6 @@ export interface AnalysisReport {
 	digital: ReportDigital[];
 	/** Present only when a limit table was asked for. */
 	limits?: ReportLimits;
+	/** From the findings to the next engineering step (lib/next-steps); set by analyseCapture. */
+	nextSteps?: ReportNextSteps;
 }
