@@ -132,7 +132,9 @@ export function powerFactorCorrection(phases: PhasePowerFigures[], currents: Cur
 	const needs: string[] = [];
 	if (target === undefined) needs.push('the target power factor');
 	const ssc = shortCircuitOf(site);
-	if (ssc.kva === undefined) needs.push('the short-circuit power at the board, or the transformer kVA and impedance');
+	// The resonance needs the supply only when there is a bank to resonate.
+	const bankNeeded = target === undefined || phases.some((p) => p.character !== 'capacitive' && reactivePowerToAdd(1, p.displacementPowerFactor, target) > 0);
+	if (ssc.kva === undefined && bankNeeded) needs.push('the short-circuit power at the board, or the transformer kVA and impedance');
 	const step = { step: 'power-factor-correction' as const, title: TITLE, finding, method: METHOD, inputs, needs, caution: NEXT_STEP_CAUTION };
 	if (target === undefined) return { ...step, status: 'needs-input', result: null, conclusions: [], assumptions: [], warnings: [] };
 	return { ...step, status: statusOf(true, needs), ...correctionResult(phases, currents, target, ssc) };

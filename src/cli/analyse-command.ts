@@ -8,6 +8,8 @@ import { csvSummaryHeader, csvSummaryRows } from '../../lib/report/csv-summary.j
 import type { ReportJson } from '../../lib/report/to-json.js';
 import { problemText, type UnitResult } from './analyse-unit.js';
 import { collectUnits } from './collect-files.js';
+import { nextStepsCsvRows, NEXT_STEPS_CSV_COLUMNS } from '../../lib/next-steps/csv.js';
+import { formatNextSteps } from './format-next-steps.js';
 import { formatReport } from './format-table.js';
 import { settingsFromOptions, type RawOptions } from './options.js';
 import { runUnits } from './pool.js';
@@ -51,7 +53,10 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 	let reports = 0;
 	let problemUnits = 0;
 	let limitFailures = 0;
-	if (mode === 'csv') io.out(csvSummaryHeader() + '\r\n');
+	// --next-steps: the table shows the next-steps part, --csv gives its rows instead of the channel summary
+	// (also shown in the table whenever a site value is given).
+	const nextSteps = raw.nextSteps === true || (mode === 'table' && settings.analysis.site !== undefined);
+	if (mode === 'csv') io.out((nextSteps ? NEXT_STEPS_CSV_COLUMNS.join(',') : csvSummaryHeader()) + '\r\n');
 	const emit = (res: UnitResult) => {
 		progress.clear();
 		if (res.problems.length > 0) problemUnits++;
@@ -62,7 +67,7 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 		}
 		for (const r of res.reports) {
 			if (r.limits && r.limits.pass === false) (limitFailed = true), limitFailures++;
-			io.out(render(r, mode, printedAny));
+			io.out(render(r, mode, printedAny, nextSteps));
 			if (mode !== 'table' && raw.quiet !== true) for (const a of noteworthy(r)) io.err(`${r.file}: ${a}\n`);
 			printedAny = true;
 		}
@@ -87,12 +92,12 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 	return badInput ? 2 : limitFailed ? 1 : 0;
 }
 
-function render(r: ReportJson, mode: 'json' | 'csv' | 'table', printedAny: boolean): string {
+function render(r: ReportJson, mode: 'json' | 'csv' | 'table', printedAny: boolean, nextSteps: boolean): string {
 	// Always one line per document: a JSON Lines stream whether one file or a folder of them was named,
 	// so a script reads the output the same way in both cases (pipe through `jq .` to read it).
 	if (mode === 'json') return JSON.stringify(r) + '\n';
-	if (mode === 'csv') return csvSummaryRows(r).map((line) => line + '\r\n').join('');
-	return (printedAny ? '\n' : '') + formatReport(r).join('\n') + '\n';
+	if (mode === 'csv') return (nextSteps ? nextStepsCsvRows(r) : csvSummaryRows(r)).map((line) => line + '\r\n').join('');
+	return (printedAny ? '\n' : '') + [...formatReport(r), ...(nextSteps ? formatNextSteps(r) : [])].join('\n') + '\n';
 }
 
 /** What --json/--csv repeat on stderr: the importer's assumptions and warnings, and every analysis warning. */

@@ -22,6 +22,8 @@ export const ANALYSE_EXAMPLES: string[] = [
 	'sinecheck analyse motor.csv --ref I1 --window 12 --nominal-hz 60',
 	'# pair U2 with I3 for power when the labels do not say so',
 	'sinecheck analyse board.csv --pair U2=I3',
+	'# next steps: capacitor bank to reach PF 0.95 and its resonance with a 630 kVA, 6 % transformer; the meter check',
+	'sinecheck analyse board.csv --target-pf 0.95 --transformer-kva 630 --transformer-z-pct 6 --meter-crest 3 --meter-bandwidth-hz 1000',
 ];
 
 export const TREND_EXAMPLES: string[] = [

@@ -3,6 +3,7 @@
  * the option and what was expected; nothing is guessed.
  */
 import { REPORT_LIMIT_TABLE_IDS, type AnalysisOptions, type ReportLimitTableId } from '../../lib/report/types.js';
+import { siteFromOptions } from './site-options.js';
 import { UsageError } from './usage-error.js';
 
 /** Per-file import settings the user gives on the command line (applied by the importer). */
@@ -104,6 +105,7 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 	if (raw.wholeRecord === true) analysis.span = 'whole-record';
 	const pairs = assignments('pair', raw.pair, 'current channel');
 	if (pairs.length > 0) analysis.pairs = pairs.map(([voltage, current]) => ({ voltage, current }));
+	analysis.site = siteFromOptions(raw);
 	for (const key of Object.keys(analysis) as (keyof AnalysisOptions)[]) if (analysis[key] === undefined) delete analysis[key];
 
 	const settings: ImportSettings = { scale: {}, unit: {}, quantity: {} };
