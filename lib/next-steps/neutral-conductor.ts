@@ -63,7 +63,8 @@ export function neutralConductor(phases: { channel: string; rmsA: number; thirdP
 	const s = neutralSizing(phaseA, h3);
 	const designRecorded = s.basis === 'neutral' && neutral.rmsA > s.annexNeutralA ? neutral.rmsA / s.factor : s.designCurrentA;
 	const result: NeutralConductorResult = { ...s, phaseCurrentA: phaseA, thirdHarmonicPercent: h3, recordedNeutralA: neutral.rmsA, designCurrentRecordedA: designRecorded };
-	const which = s.basis === 'phase' ? `the phase current: ${fmt(phaseA, 1)} A ÷ ${s.factor} = ${fmt(s.designCurrentA, 1)} A` : `the neutral current: ${fmt(s.annexNeutralA, 1)} A ÷ ${s.factor} = ${fmt(s.designCurrentA, 1)} A`;
+	const basisA = s.basis === 'phase' ? phaseA : s.annexNeutralA;
+	const which = `the ${s.basis} current${s.basis === 'neutral' ? ` (3 × ${fmt(h3 / 100, 2)} × ${fmt(phaseA, 1)} A = ${fmt(basisA, 1)} A)` : ''}: ${s.factor === 1 ? `${fmt(basisA, 1)} A, no reduction factor` : `${fmt(basisA, 1)} A ÷ ${s.factor} = ${fmt(s.designCurrentA, 1)} A`}`;
 	const conclusions = [`Third harmonic ${fmt(h3, 1)} % of the phase current: choose the cable for ${which}.`];
 	if (designRecorded > s.designCurrentA) conclusions.push(`The recorded neutral current (${fmt(neutral.rmsA, 1)} A) is above the Annex's estimate: chosen on it, the cable needs ${fmt(designRecorded, 1)} A.`);
 	const warnings = neutral.rmsA > phaseA ? [`The neutral carries ${fmt(neutral.rmsA, 1)} A, more than the largest phase (${fmt(phaseA, 1)} A): check the neutral's cross-section and its terminations.`] : [];
