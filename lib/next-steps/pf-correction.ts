@@ -148,7 +148,10 @@ function shortCircuitOf(site: SiteInputs): { kva: number | undefined; from: 'sup
 
 function correctionResult(phases: PhasePowerFigures[], currents: CurrentSpectrum[], target: number, ssc: { kva: number | undefined; from: 'supply' | 'transformer' | null }) {
 	const conclusions: string[] = [];
-	const assumptions = ['P1 and the displacement power factor are those of the recording; size the bank on the maximum demand, not on one recording.'];
+	const assumptions = [
+		'P1 and the displacement power factor are those of the recording; size the bank on the maximum demand, not on one recording.',
+		`An order counts as present in the current at ${PRESENT_ORDER_PERCENT} % of the fundamental or more; a resonance within ${RESONANCE_NEAR_FRACTION * 100} % of such an order counts as near it.`,
+	];
 	const warnings: string[] = [];
 	const perPhase = phases.map((p) => {
 		const p1 = Number.isFinite(p.fundamentalActiveW) ? p.fundamentalActiveW : p.activeW;

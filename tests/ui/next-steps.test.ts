@@ -58,7 +58,7 @@ describe('NextSteps', () => {
 		expect(onsite).toHaveBeenLastCalledWith({ transformerKva: 100 });
 	});
 
-	it('NextSteps in the printed report (no onsite) has no input fields and lists the site values used, with the kvar to add: 1840 W · (0.75 − 0.328684) = 0.78 kvar (power triangle)', () => {
+	it('NextSteps in the printed report (no onsite) has no input fields, lists the site values used and prints each method with its source, with the kvar to add: 1840 W · (0.75 − 0.328684) = 0.78 kvar (power triangle)', () => {
 		const site = { targetPowerFactor: 0.95 };
 		const report = analyseCapture(capture, { site });
 		const r = renderComponent(NextSteps, { report, site });
@@ -66,5 +66,8 @@ describe('NextSteps', () => {
 		expect(queryByTestId(r.container, 'site-targetPowerFactor')).toBeNull();
 		expect(r.container.textContent).toMatch(/Site values used: Power factor wanted 0\.95/);
 		expect(getByTestId(r.container, 'step-power-factor-correction').textContent).toMatch(/add 0\.78 kvar/);
+		// printed: the method with its source is on the page, not folded away
+		expect(r.container.querySelector('details')).toBeNull();
+		expect(getByTestId(r.container, 'step-power-factor-correction').textContent).toMatch(/Qc = P1 · \(tan φ1 − tan φ2\).*IEEE 1036/);
 	});
 });
