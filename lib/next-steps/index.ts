@@ -20,6 +20,6 @@ export {
 export { harmonicLossFactor, maxLoadCurrentPu, kRatedClass, transformerLoading, K_RATED_CLASSES, FACTOR_K_EXPONENT_Q, type TransformerResult } from './transformer.js';
 export { neutralSizing, neutralConductor, NEUTRAL_REDUCTION_BANDS, type NeutralSizing, type NeutralConductorResult } from './neutral-conductor.js';
 export { motorDeratingFactor, extraHeatingPercent, motorUnbalance, NEMA_DERATING_CURVE, NEMA_DERATE_ABOVE_PERCENT, NEMA_DO_NOT_OPERATE_ABOVE_PERCENT, type MotorUnbalanceResult } from './motor-unbalance.js';
-export { bandLimitedRms, crestFactorAvailable, meterReading, METER_READS_RIGHT_PERCENT, type MeterChannelFigures, type MeterChannelResult } from './meter.js';
+export { bandLimitedRms, averageRespondingRms, crestFactorAvailable, meterReading, METER_READS_RIGHT_PERCENT, type MeterChannelFigures, type MeterChannelResult } from './meter.js';
 export { nextStepsSection, checkSiteInputs } from './report-section.js';
 export { nextStepsCsv, nextStepsCsvRows, NEXT_STEPS_CSV_COLUMNS } from './csv.js';

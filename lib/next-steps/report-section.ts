@@ -12,14 +12,19 @@ import { transformerLoading } from './transformer.js';
 import { NEXT_STEP_CAUTION, SITE_INPUT_LABELS, type NextStep, type ReportNextSteps, type SiteInputs } from './types.js';
 
 /**
- * Checks the site inputs: every one a finite number above 0; the target power factor at most 1.
+ * Checks the site inputs: every one a finite number above 0 (the target power factor at most 1), the
+ * meter response 'true-rms' or 'average'.
  * @throws RangeError naming the input and what was expected
  */
 export function checkSiteInputs(site: SiteInputs): void {
-	for (const [key, value] of Object.entries(site) as [keyof SiteInputs, number | undefined][]) {
+	for (const [key, value] of Object.entries(site) as [keyof SiteInputs, unknown][]) {
 		if (value === undefined) continue;
 		const what = SITE_INPUT_LABELS[key];
 		if (!what) throw new RangeError(`unknown site input ${String(key)}`);
+		if (key === 'meterResponse') {
+			if (value !== 'true-rms' && value !== 'average') throw new RangeError(`${what.label} must be 'true-rms' or 'average', got ${String(value)}`);
+			continue;
+		}
 		if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) throw new RangeError(`${what.label} must be a number above 0, got ${String(value)}`);
 	}
 	if (site.targetPowerFactor !== undefined && site.targetPowerFactor > 1) throw new RangeError(`target displacement power factor must be at most 1, got ${site.targetPowerFactor}`);
@@ -69,7 +74,7 @@ function motorStep(r: AnalysisReport): NextStep {
 function meterStep(r: AnalysisReport, site: SiteInputs): NextStep {
 	const channels = r.channels
 		.filter((c) => (c.quantity === 'voltage' || c.quantity === 'current') && c.harmonics.length > 1 && Number.isFinite(c.acRms) && c.acRms > 0)
-		.map((c) => ({ channel: c.name, unit: c.unit, quantity: c.quantity as 'voltage' | 'current', acRms: c.acRms, crestFactor: c.crestFactor, fundamentalHz: Number.isFinite(c.frequencyHz) ? c.frequencyHz : r.frequencyHz, rmsByOrder: c.harmonics.map((h) => h.rms), averageReading: c.averageResponding.reading, averageErrorPercent: c.averageResponding.errorPercent }));
+		.map((c) => ({ channel: c.name, unit: c.unit, quantity: c.quantity as 'voltage' | 'current', acRms: c.acRms, crestFactor: c.crestFactor, fundamentalHz: Number.isFinite(c.frequencyHz) ? c.frequencyHz : r.frequencyHz, rmsByOrder: c.harmonics.map((h) => h.rms), phaseDegByOrder: c.harmonics.map((h) => h.phaseDeg), averageReading: c.averageResponding.reading, averageErrorPercent: c.averageResponding.errorPercent }));
 	if (channels.length === 0) return notApplicable('meter-reading', 'Will a meter read this right?', 'No voltage or current channel with harmonics.', []);
 	return meterReading(channels, site) as unknown as NextStep;
 }

@@ -28,6 +28,8 @@ export interface SiteInputs {
 	meterRangeV?: number;
 	/** Full scale of the current range the meter is used on, A. */
 	meterRangeA?: number;
+	/** How the meter responds: 'true-rms', or 'average' (average-responding, calibrated on a sine). */
+	meterResponse?: 'true-rms' | 'average';
 }
 
 /** The site inputs in the order and words a user is asked for them (for CLI help and UI labels). */
@@ -41,6 +43,7 @@ export const SITE_INPUT_LABELS: Record<keyof SiteInputs, { label: string; unit: 
 	meterBandwidthHz: { label: "meter's bandwidth", unit: 'Hz' },
 	meterRangeV: { label: 'voltage range used on the meter', unit: 'V' },
 	meterRangeA: { label: 'current range used on the meter', unit: 'A' },
+	meterResponse: { label: 'how the meter responds (true RMS or average-responding)', unit: '' },
 };
 
 export type NextStepId = 'power-factor-correction' | 'transformer-loading' | 'neutral-conductor' | 'motor-unbalance' | 'meter-reading';

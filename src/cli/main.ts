@@ -44,6 +44,7 @@ cli
 	.option('--meter-bandwidth-hz <Hz>', "Next steps: the meter's bandwidth, Hz")
 	.option('--meter-range-v <V>', 'Next steps: full scale of the voltage range used on the meter')
 	.option('--meter-range-a <A>', 'Next steps: full scale of the current range used on the meter')
+	.option('--meter-response <kind>', 'Next steps: how the meter responds: true-rms or average (average-responding, calibrated on a sine)')
 	.option('--whole-record', 'Time-domain figures over every sample instead of whole cycles')
 	.option('--jobs <n>', 'Worker threads (default: one per core, up to 8; 0 = none)')
 	.option('--quiet', 'With --json/--csv: do not repeat the assumptions on stderr')

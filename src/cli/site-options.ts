@@ -1,12 +1,12 @@
 /**
  * The site values of the next steps from the command line (--target-pf, --transformer-kva, ...): each a
- * number above 0, or a UsageError naming the option. Nothing is assumed for a value not given.
+ * number above 0 (--meter-response: true-rms or average), or a UsageError naming the option. Nothing is assumed for a value not given.
  */
 import type { SiteInputs } from '../../lib/next-steps/types.js';
 import { UsageError } from './usage-error.js';
 
 /** option name -> site input and what the user is asked for. */
-export const SITE_OPTIONS: { option: string; key: keyof SiteInputs; what: string }[] = [
+export const SITE_OPTIONS: { option: string; key: Exclude<keyof SiteInputs, 'meterResponse'>; what: string }[] = [
 	{ option: 'target-pf', key: 'targetPowerFactor', what: 'the target displacement power factor, above 0 and at most 1 (e.g. 0.95)' },
 	{ option: 'supply-ssc-kva', key: 'supplyShortCircuitKva', what: 'the short-circuit power at the board in kVA' },
 	{ option: 'transformer-kva', key: 'transformerKva', what: 'the transformer rating in kVA' },
@@ -34,6 +34,12 @@ export function siteFromOptions(raw: Record<string, unknown>): SiteInputs | unde
 		const x = Number(text.replace(',', '.'));
 		if (!Number.isFinite(x) || x <= 0 || (key === 'targetPowerFactor' && x > 1)) throw new UsageError(`--${option} ${text}: expected ${what}`);
 		site[key] = x;
+	}
+	const response = raw.meterResponse;
+	if (response !== undefined && response !== false) {
+		const text = String(Array.isArray(response) ? response[response.length - 1] : response);
+		if (text !== 'true-rms' && text !== 'average') throw new UsageError(`--meter-response ${text === 'true' ? '' : `${text}: `}expected true-rms or average (average-responding, calibrated on a sine)`);
+		site.meterResponse = text;
 	}
 	return Object.keys(site).length > 0 ? site : undefined;
 }

@@ -55,6 +55,15 @@ describe('sinecheck analyse with next-steps options', () => {
 		expect(run(['analyse', 'extractor.csv']).stdout).not.toMatch(/next steps/);
 	});
 
+	it('analyse --meter-response average with a 200 Hz bandwidth: the 10 A + 3 A 5th current (250 Hz, outside) reads its fundamental, 10 A of √(10² + 3²) = 10.44 A, 4.2 % low', () => {
+		const doc = JSON.parse(run(['analyse', 'extractor.csv', '--json', ...SITE, '--meter-response', 'average']).stdout);
+		const meter = doc.nextSteps.steps.find((s: { step: string }) => s.step === 'meter-reading');
+		expect(doc.nextSteps.site.meterResponse).toBe('average');
+		const i1 = meter.result.channels.find((c: { channel: string }) => c.channel === 'I1');
+		expect(i1.inBandReading).toBeCloseTo(10, 2);
+		expect(i1.bandErrorPercent).toBeCloseTo(100 * (10 / Math.hypot(10, 3) - 1), 1);
+	});
+
 	it('analyse --csv --next-steps prints the next-steps rows under their own header', () => {
 		const r = run(['analyse', 'extractor.csv', '--csv', '--next-steps', ...SITE]);
 		const lines = r.stdout.split('\r\n');
@@ -62,10 +71,13 @@ describe('sinecheck analyse with next-steps options', () => {
 		expect(lines.some((l) => l.startsWith('extractor.csv,power-factor-correction,result,totalReactiveToAddVar,775.'))).toBe(true);
 	});
 
-	it('analyse --target-pf 1.2 and --transformer-kva abc are usage errors (exit 2) naming the option', () => {
+	it('analyse --target-pf 1.2, --meter-response peak and --transformer-kva abc are usage errors (exit 2) naming the option', () => {
 		const a = run(['analyse', 'extractor.csv', '--target-pf', '1.2']);
 		expect(a.code).toBe(2);
 		expect(a.stderr).toMatch(/--target-pf 1\.2: expected the target displacement power factor/);
+		const c = run(['analyse', 'extractor.csv', '--meter-response', 'peak']);
+		expect(c.code).toBe(2);
+		expect(c.stderr).toMatch(/--meter-response peak: expected true-rms or average/);
 		const b = run(['analyse', 'extractor.csv', '--transformer-kva', 'abc']);
 		expect(b.code).toBe(2);
 		expect(b.stderr).toMatch(/--transformer-kva abc: expected the transformer rating in kVA/);

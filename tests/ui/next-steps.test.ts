@@ -44,7 +44,7 @@ describe('NextSteps', () => {
 		expect(r.container.textContent).toContain(NEXT_STEP_CAUTION);
 	});
 
-	it('NextSteps hands a typed target power factor back with the other site values, and leaves out a value above 1', () => {
+	it('NextSteps hands a typed target power factor back with the other site values, leaves out a value above 1, and hands the meter response back', () => {
 		const report = analyseCapture(capture);
 		const onsite = vi.fn();
 		const r = renderComponent(NextSteps, { report, site: { transformerKva: 100 }, onsite });
@@ -56,6 +56,10 @@ describe('NextSteps', () => {
 		input.value = '1.3';
 		fireEvent.change(input);
 		expect(onsite).toHaveBeenLastCalledWith({ transformerKva: 100 });
+		const response = getByTestId(r.container, 'site-meterResponse') as HTMLSelectElement;
+		response.value = 'average';
+		fireEvent.change(response);
+		expect(onsite).toHaveBeenLastCalledWith({ transformerKva: 100, meterResponse: 'average' });
 	});
 
 	it('NextSteps in the printed report (no onsite) has no input fields, lists the site values used and prints each method with its source, with the kvar to add: 1840 W · (0.75 − 0.328684) = 0.78 kvar (power triangle)', () => {
