@@ -78,7 +78,7 @@ export function detunedTuningOrder(reactorPercent: number): number {
  * Estimated true PF after correction when the harmonic current stays as recorded. With a sinusoidal
  * voltage P = V·I1·DPF and PF = DPF·DF, DF = I1/I; the harmonic current I_H = I1·√(1/DF² − 1) stays,
  * the fundamental current falls to I1·DPF/target, so PF' = DPF / √((DPF/target)² + 1/DF² − 1).
- * Ref: IEEE 1459-2010 definitions (PF = P/S, DPF = cos θ1) and the power triangle.
+ * Ref: IEEE 1459-2010 definitions (PF = P/S, DPF = cos θ1) and the power triangle; derivation in docs/methods.md §12.
  * @example truePowerFactorAfter(0.7, 0.8, 0.95) // 0.794 (DF 0.875)
  */
 export function truePowerFactorAfter(pf: number, dpf: number, target: number): number {
