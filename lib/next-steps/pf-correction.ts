@@ -98,6 +98,8 @@ export function ordersPresent(currents: CurrentSpectrum[]): number[] {
 export interface PfCorrectionResult {
 	perPhase: { label: string; fundamentalActiveW: number; displacementPowerFactor: number; powerFactor: number; reactiveToAddVar: number }[];
 	totalReactiveToAddVar: number;
+	/** The three-phase bank the resonance is worked out for: the total, or 3/n × it when n < 3 phases were recorded, var. */
+	bankForResonanceVar: number;
 	shortCircuitKva: number;
 	shortCircuitFrom: 'supply' | 'transformer' | null;
 	resonanceOrder: number;
@@ -164,9 +166,11 @@ function correctionResult(phases: PhasePowerFigures[], currents: CurrentSpectrum
 		conclusions.push(p.reactiveToAddVar > 0 ? `${p.label}: add ${fmt(p.reactiveToAddVar / 1000, 2)} kvar to raise the displacement PF from ${fmt(p.displacementPowerFactor, 3)} to ${fmt(target, 2)}.` : `${p.label}: no capacitors needed (displacement PF ${fmt(p.displacementPowerFactor, 3)}${phases.find((x) => x.label === p.label)?.character === 'capacitive' ? ', leading' : ''}; target ${fmt(target, 2)}).`);
 	}
 	if (phases.length > 1 && total > 0) conclusions.push(`All phases recorded: ${fmt(total / 1000, 2)} kvar.`);
-	if (phases.length < 3) assumptions.push(`Only ${phases.length} phase(s) recorded: on a three-phase board with balanced phases the bank is about ${3 / phases.length} times this.`);
+	// Ssc is a three-phase figure: the resonance is worked out for the three-phase bank.
+	const bankVar = (total * 3) / Math.min(3, phases.length);
+	if (phases.length < 3) assumptions.push(`Only ${phases.length} phase(s) recorded: the resonance is worked out for a balanced three-phase bank of ${fmt(bankVar / 1000, 2)} kvar (${3 / phases.length} × the recorded phases) on a three-phase supply; on a single-phase supply use its own short-circuit power and the kvar as recorded.`);
 	const present = ordersPresent(currents);
-	const h = ssc.kva === undefined || !(total > 0) ? NaN : resonanceOrder(ssc.kva, total / 1000);
+	const h = ssc.kva === undefined || !(total > 0) ? NaN : resonanceOrder(ssc.kva, bankVar / 1000);
 	if (ssc.from === 'transformer') assumptions.push('Short-circuit power taken as transformer kVA ÷ per-unit impedance (the network upstream neglected): the true Ssc is lower, and so is the resonance order.');
 	const near = present.filter((n) => Math.abs(h - n) <= RESONANCE_NEAR_FRACTION * n);
 	if (Number.isFinite(h)) {
@@ -183,6 +187,6 @@ function correctionResult(phases: PhasePowerFigures[], currents: CurrentSpectrum
 	const harmonic = phases.some((p) => p.displacementPowerFactor >= target && p.powerFactor < target);
 	if (harmonic) conclusions.push('The displacement power factor already meets the target but the true power factor does not: the shortfall is harmonic current, and capacitors will not fix it (harmonic filters or lower-distortion equipment do).');
 	else if (after.some((x) => x < target - 0.01)) conclusions.push(`With the harmonic current as recorded the true PF after correction would be about ${after.map((x) => fmt(x, 2)).join(', ')}: capacitors fix only the displacement part.`);
-	const result: PfCorrectionResult = { perPhase, totalReactiveToAddVar: total, shortCircuitKva: ssc.kva ?? NaN, shortCircuitFrom: ssc.from, resonanceOrder: h, ordersPresent: present, resonanceNearOrders: near, detuned, truePowerFactorAfter: after, lowPowerFactorIsHarmonic: harmonic };
+	const result: PfCorrectionResult = { perPhase, totalReactiveToAddVar: total, bankForResonanceVar: bankVar, shortCircuitKva: ssc.kva ?? NaN, shortCircuitFrom: ssc.from, resonanceOrder: h, ordersPresent: present, resonanceNearOrders: near, detuned, truePowerFactorAfter: after, lowPowerFactorIsHarmonic: harmonic };
 	return { result, conclusions, assumptions, warnings };
 }

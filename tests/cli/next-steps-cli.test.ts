@@ -39,11 +39,12 @@ describe('sinecheck analyse with next-steps options', () => {
 		expect(doc.nextSteps.site).toEqual(site);
 	});
 
-	it('analyse --json: Qc = 230·10·0.8 · (0.75 − tan(acos 0.95)) = 1840 · 0.421316 = 775.2 var (power triangle by hand), resonance √((100/0.04)/0.7752) = 56.8', () => {
+	it('analyse --json: Qc = 230·10·0.8 · (0.75 − tan(acos 0.95)) = 1840 · 0.421316 = 775.2 var (power triangle by hand); one phase recorded, so the resonance is for a three-phase bank of 3 × 0.7752 kvar: √((100/0.04)/2.3256) = 32.8', () => {
 		const doc = JSON.parse(run(['analyse', 'extractor.csv', '--json', ...SITE]).stdout);
 		const pf = doc.nextSteps.steps[0];
 		expect(pf.result.totalReactiveToAddVar).toBeCloseTo(1840 * (0.75 - Math.sqrt(1 - 0.9025) / 0.95), -1);
-		expect(pf.result.resonanceOrder).toBeCloseTo(Math.sqrt(2500 / 0.7752), 0);
+		expect(pf.result.resonanceOrder).toBeCloseTo(Math.sqrt(2500 / (3 * 0.7752)), 1);
+		expect(pf.assumptions.join(' ')).toMatch(/balanced three-phase bank/);
 	});
 
 	it('analyse prints the next steps in the table when a site value is given, with the caution', () => {

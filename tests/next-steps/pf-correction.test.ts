@@ -117,5 +117,8 @@ describe('powerFactorCorrection step', () => {
 		expect(s.result!.shortCircuitFrom).toBe('transformer');
 		expect(s.result!.shortCircuitKva).toBeCloseTo(16666.67, 1);
 		expect(s.assumptions.join(' ')).toMatch(/transformer kVA ÷ per-unit impedance/);
+		// one phase recorded: Ssc is three-phase, so the bank is taken as 3 × 55.32 kvar: h = √(16 666.7 / 165.97) = 10.02
+		expect(s.result!.bankForResonanceVar).toBeCloseTo(3 * 55323.3, -1);
+		expect(s.result!.resonanceOrder).toBeCloseTo(Math.sqrt(16666.67 / 165.97), 2);
 	});
 });
