@@ -162,9 +162,13 @@ function correctionResult(phases: PhasePowerFigures[], currents: CurrentSpectrum
 		return { label: p.label, fundamentalActiveW: p1, displacementPowerFactor: p.displacementPowerFactor, powerFactor: p.powerFactor, reactiveToAddVar: q };
 	});
 	const total = perPhase.reduce((s, p) => s + p.reactiveToAddVar, 0);
-	for (const p of perPhase) {
-		conclusions.push(p.reactiveToAddVar > 0 ? `${p.label}: add ${fmt(p.reactiveToAddVar / 1000, 2)} kvar to raise the displacement PF from ${fmt(p.displacementPowerFactor, 3)} to ${fmt(target, 2)}.` : `${p.label}: no capacitors needed (displacement PF ${fmt(p.displacementPowerFactor, 3)}${phases.find((x) => x.label === p.label)?.character === 'capacitive' ? ', leading' : ''}; target ${fmt(target, 2)}).`);
-	}
+	phases.forEach((ph, k) => {
+		const p = perPhase[k];
+		const dpf = fmt(p.displacementPowerFactor, 3);
+		if (p.reactiveToAddVar > 0) conclusions.push(`${p.label}: add ${fmt(p.reactiveToAddVar / 1000, 2)} kvar to raise the displacement PF from ${dpf} to ${fmt(target, 2)}.`);
+		else if (ph.character === 'capacitive' && p.displacementPowerFactor < target - POWER_FACTOR_TOLERANCE) conclusions.push(`${p.label}: the displacement PF ${dpf} is leading: capacitors cannot raise it; removing capacitance (or adding reactors) does.`);
+		else conclusions.push(`${p.label}: no capacitors needed (displacement PF ${dpf}${ph.character === 'capacitive' ? ', leading' : ''}; target ${fmt(target, 2)}).`);
+	});
 	if (phases.length > 1 && total > 0) conclusions.push(`All phases recorded: ${fmt(total / 1000, 2)} kvar.`);
 	// Ssc is a three-phase figure: the resonance is worked out for the three-phase bank.
 	const bankVar = (total * 3) / Math.min(3, phases.length);
@@ -174,7 +178,7 @@ function correctionResult(phases: PhasePowerFigures[], currents: CurrentSpectrum
 	if (ssc.from === 'transformer') assumptions.push('Short-circuit power taken as transformer kVA ÷ per-unit impedance (the network upstream neglected): the true Ssc is lower, and so is the resonance order.');
 	const near = present.filter((n) => Math.abs(h - n) <= RESONANCE_NEAR_FRACTION * n);
 	if (Number.isFinite(h)) {
-		conclusions.push(`With the whole bank in, it resonates with the supply near harmonic order ${fmt(h, 1)}; with fewer steps switched in, the order rises.`);
+		conclusions.push(`With the whole bank in, it would resonate with the supply near harmonic order ${fmt(h, 1)}; with fewer steps switched in, the order rises.`);
 		if (near.length > 0) warnings.push(`The resonance falls near order ${near.join(', ')}, present in the recorded current: a plain (undetuned) bank risks amplifying it. Consider a detuned bank.`);
 		const above = present.filter((n) => n >= h * (1 - RESONANCE_NEAR_FRACTION));
 		if (near.length === 0 && above.length > 0) warnings.push(`Orders ${above.slice(0, 6).join(', ')} present in the current lie above the resonance: a partly switched bank can resonate with them.`);

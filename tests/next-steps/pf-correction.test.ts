@@ -112,6 +112,14 @@ describe('powerFactorCorrection step', () => {
 		expect(s.conclusions.join(' ')).toMatch(/capacitors will not fix it/);
 	});
 
+	it('powerFactorCorrection of a leading load below the target adds no capacitors and says capacitance must come off instead', () => {
+		const lead = { ...phase('U1 × I1', 5e3, 0.8, 0.8), character: 'capacitive' as const };
+		const s = powerFactorCorrection([lead], fifth, { targetPowerFactor: 0.95 });
+		expect(s.result!.totalReactiveToAddVar).toBe(0);
+		expect(s.conclusions[0]).toMatch(/leading: capacitors cannot raise it/);
+		expect(s.needs).toEqual([]);
+	});
+
 	it('powerFactorCorrection with a transformer-limited supply states the assumption Ssc = S_T / z_T', () => {
 		const s = powerFactorCorrection([phase('U1 × I1', 100e3, 0.75, 0.74)], fifth, { targetPowerFactor: 0.95, transformerKva: 1000, transformerImpedancePercent: 6 });
 		expect(s.result!.shortCircuitFrom).toBe('transformer');
