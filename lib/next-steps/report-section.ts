@@ -48,7 +48,11 @@ function pfStep(r: AnalysisReport, site: SiteInputs): NextStep {
 }
 
 function transformerStep(r: AnalysisReport, site: SiteInputs): NextStep {
-	const currents = currentChannels(r).map((c) => ({ channel: c.name, rmsByOrder: c.harmonics.map((h) => h.rms), top: c.thdMaxOrder }));
+	const voltageOf = (current: string) => {
+		const pair = r.power.find((p) => p.current === current);
+		return pair ? r.channels.find((c) => c.name === pair.voltage)?.rms : undefined;
+	};
+	const currents = currentChannels(r).map((c) => ({ channel: c.name, rmsByOrder: c.harmonics.map((h) => h.rms), top: c.thdMaxOrder, rmsA: c.rms, phaseVoltageV: voltageOf(c.name) }));
 	if (currents.length === 0) return notApplicable('transformer-loading', 'Transformer loading under harmonic current', 'No current channel with harmonics: the K-factor needs a current.', []);
 	const maxOrder = Math.min(...currents.map((c) => c.top));
 	return transformerLoading(currents, maxOrder, site) as unknown as NextStep;

@@ -65,6 +65,15 @@ describe('transformerLoading step', () => {
 		expect(s.inputs.find((i) => i.name.includes('P_EC-R'))!.value).toBeNull();
 	});
 
+	it('transformerLoading sets the recorded current against the rated current: 100 kVA at 230 V per phase is 100 000/(3 · 230) = 144.9 A; 140 A is 96.6 %, above the 77.5 % I_max of this spectrum (warned)', () => {
+		const e = 0.091 / 0.909;
+		const s = transformerLoading([{ channel: 'I1', rmsByOrder: spectrum, rmsA: 140, phaseVoltageV: 230 }], 25, { transformerEddyLossPu: e, transformerKva: 100 });
+		expect(s.result!.ratedCurrentA).toBeCloseTo(100_000 / 690, 6);
+		expect(s.result!.loadPu).toBeCloseTo((140 * 690) / 100_000, 6);
+		expect(s.warnings.join(' ')).toMatch(/above the 77 % a standard transformer carries/);
+		expect(s.assumptions.join(' ')).toMatch(/full load/);
+	});
+
 	it('transformerLoading picks the channel with the highest K-factor', () => {
 		const sine = [0, 10];
 		const s = transformerLoading([{ channel: 'I1', rmsByOrder: sine }, { channel: 'I2', rmsByOrder: spectrum }], 25, {});
