@@ -1,0 +1,15 @@
+// Public API of lib/flicker: re-exports only.
+export * from './constants.js';
+export { bilinear, biquadGain, butterworthLowPass, type Biquad } from './iir.js';
+export { designFlickermeter, weightingSections, type FlickerDesign, type FlickerSettings } from './design.js';
+export { pinstLevelExceeded, pinstClass, pstFromHistogram, pltFromPst, PINST_CLASSES, type PstFigures } from './classifier.js';
+export {
+	createFlickermeter,
+	pltIntervals,
+	type Flickermeter,
+	type FlickermeterOptions,
+	type FlickerResult,
+	type PinstStatistics,
+	type PltInterval,
+	type PstInterval,
+} from './flickermeter.js';
