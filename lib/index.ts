@@ -7,6 +7,7 @@ export * from './spectrum/index.js';
 export * from './power/index.js';
 export * from './polyphase/index.js';
 export * from './limits/index.js';
+export * from './flicker/index.js';
 export * from './trend/index.js';
 export * from './report/index.js';
 export * from './next-steps/index.js';

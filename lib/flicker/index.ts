@@ -12,4 +12,14 @@ export {
 	type PinstStatistics,
 	type PltInterval,
 	type PstInterval,
+	FLICKER_SETTLING_S,
 } from './flickermeter.js';
+export {
+	createVoltageChangeTracker,
+	STEADY_STATE_BAND_PERCENT,
+	STEADY_STATE_S,
+	D_T_LEVEL_PERCENT,
+	type VoltageChange,
+	type VoltageChangeTracker,
+} from './voltage-change.js';
+export { createHalfPeriodRms, type HalfPeriodRms } from './half-period-rms.js';

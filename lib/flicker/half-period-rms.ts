@@ -1,0 +1,45 @@
+/**
+ * Streaming half-period RMS Uhp: the RMS of the voltage over each half period between consecutive zero
+ * crossings. Ref: IEC 61000-4-15:2010, 3.1.2 (half period RMS value; from memory).
+ *
+ * A crossing is a sign change at least 0.6 nominal half periods after the previous one (so noise at a
+ * crossing cannot split a half period); with no crossing for 1.5 nominal half periods (a dead or
+ * distorted channel) the value so far is emitted, so time keeps moving.
+ */
+export interface HalfPeriodRms {
+	/** Next samples (V); values are handed to the callback as they complete. */
+	push(samples: Float64Array): void;
+}
+
+/**
+ * @param sampleRateHz  samples per second
+ * @param nominalHz     50 or 60
+ * @param onValue       called with the window start (s from the first sample) and its RMS (V)
+ * @example a 230 V RMS sine gives 230 V for every half period
+ */
+export function createHalfPeriodRms(sampleRateHz: number, nominalHz: number, onValue: (startS: number, rmsV: number) => void): HalfPeriodRms {
+	const half = sampleRateHz / (2 * nominalHz);
+	const minGap = Math.max(1, Math.floor(0.6 * half));
+	const maxGap = Math.ceil(1.5 * half);
+	let n = 0, start = 0, count = 0, sumSq = 0, prev = 0, seenCrossing = false;
+	return {
+		push(samples: Float64Array): void {
+			for (let i = 0; i < samples.length; i++, n++) {
+				const v = samples[i];
+				if (!Number.isFinite(v)) continue;
+				const crossed = (prev < 0 && v >= 0) || (prev >= 0 && v < 0);
+				prev = v;
+				if (crossed && (count >= minGap || !seenCrossing)) {
+					if (seenCrossing && count > 0) onValue(start / sampleRateHz, Math.sqrt(sumSq / count));
+					seenCrossing = true;
+					start = n; count = 0; sumSq = 0;
+				} else if (seenCrossing && count >= maxGap) {
+					onValue(start / sampleRateHz, Math.sqrt(sumSq / count));
+					start = n; count = 0; sumSq = 0;
+				}
+				count++;
+				sumSq += v * v;
+			}
+		},
+	};
+}
