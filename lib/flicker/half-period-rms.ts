@@ -21,22 +21,29 @@ export function createHalfPeriodRms(sampleRateHz: number, nominalHz: number, onV
 	const half = sampleRateHz / (2 * nominalHz);
 	const minGap = Math.max(1, Math.floor(0.6 * half));
 	const maxGap = Math.ceil(1.5 * half);
-	let n = 0, start = 0, count = 0, sumSq = 0, prev = 0, seenCrossing = false;
+	// Window edges are the interpolated crossing instants (in samples); the mean square divides the sum of
+	// the samples between them by that length, so a sample sitting at zero cannot shift the value.
+	let n = 0, edge = 0, count = 0, sumSq = 0, prev = 0, seenCrossing = false;
+	const emit = (end: number) => {
+		const len = end - edge;
+		if (len > 0) onValue(edge / sampleRateHz, Math.sqrt(sumSq / len));
+	};
 	return {
 		push(samples: Float64Array): void {
 			for (let i = 0; i < samples.length; i++, n++) {
 				const v = samples[i];
 				if (!Number.isFinite(v)) continue;
 				const crossed = (prev < 0 && v >= 0) || (prev >= 0 && v < 0);
-				prev = v;
 				if (crossed && (count >= minGap || !seenCrossing)) {
-					if (seenCrossing && count > 0) onValue(start / sampleRateHz, Math.sqrt(sumSq / count));
+					const at = n - 1 + prev / (prev - v);
+					if (seenCrossing) emit(at);
 					seenCrossing = true;
-					start = n; count = 0; sumSq = 0;
+					edge = at; count = 0; sumSq = 0;
 				} else if (seenCrossing && count >= maxGap) {
-					onValue(start / sampleRateHz, Math.sqrt(sumSq / count));
-					start = n; count = 0; sumSq = 0;
+					emit(n);
+					edge = n; count = 0; sumSq = 0;
 				}
+				prev = v;
 				count++;
 				sumSq += v * v;
 			}

@@ -9,6 +9,7 @@ import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
 import { digitalSummary, meterExplanation, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
 import { limitsReport } from './limits-report.js';
+import { flickerReport } from './flicker-report.js';
 import { checkSiteInputs, nextStepsSection } from '../next-steps/report-section.js';
 import { chooseReference } from './reference.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
@@ -181,6 +182,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}
 	if (options.limits) report.limits = limitsReport(report, options);
+	report.flicker = flickerReport(capture, nominalHz, options.nominalV, options.limits);
 	report.nextSteps = nextStepsSection(report, options.site);
 	return report;
 }

@@ -6,6 +6,7 @@
  * Units are SI throughout: V, A, W, var, VA, Hz, s, degrees. In memory a figure the data cannot give is
  * NaN; in JSON it is `null` (JSON has no NaN).
  */
+import type { ReportFlicker } from './flicker-report.js';
 import type { NeutralCurrentFigures } from '../polyphase/neutral.js';
 import type { Quantity } from '../capture.js';
 import type { ReportNextSteps, SiteInputs } from '../next-steps/types.js';
@@ -276,6 +277,8 @@ export interface AnalysisReport {
 	digital: ReportDigital[];
 	/** Present only when a limit table was asked for. */
 	limits?: ReportLimits;
+	/** Flicker (IEC 61000-4-15) and voltage changes (IEC 61000-3-3) of the voltage channels. */
+	flicker?: ReportFlicker;
 	/** From the findings to the next engineering step (lib/next-steps); set by analyseCapture. */
 	nextSteps?: ReportNextSteps;
 }

@@ -78,6 +78,14 @@ describe('createHalfPeriodRms', () => {
 		h.push(x.subarray(0, 1000));
 		h.push(x.subarray(1000));
 		expect(values.length).toBeGreaterThanOrEqual(98);
-		for (const v of values) expect(v).toBeCloseTo(230, 0);
+		for (const v of values) expect(Math.abs(v / 230 - 1)).toBeLessThan(5e-4);
+	});
+
+	it('samples landing exactly on the zero crossings (phase 0, 64 per half period) do not shift the value (within 0.05 %)', () => {
+		const values: number[] = [];
+		const h = createHalfPeriodRms(6400, 50, (_t, v) => values.push(v));
+		h.push(sineSamples({ amplitude: 230 * Math.SQRT2, frequencyHz: 50, sampleRateHz: 6400, cycles: 20 }));
+		expect(values.length).toBeGreaterThanOrEqual(38);
+		for (const v of values) expect(Math.abs(v / 230 - 1)).toBeLessThan(5e-4);
 	});
 });

@@ -1,0 +1,110 @@
+/**
+ * The flicker section of the analysis report: per voltage channel, Pst per complete 10-minute interval
+ * and Plt per 2 hours (lib/flicker), or for a shorter record only Pinst statistics, labelled as not a
+ * Pst; the IEC 61000-3-3 voltage change parameters; and, with a supply limit table, the flicker limits.
+ */
+import type { Capture } from '../capture.js';
+import { createFlickermeter, FLICKER_MIN_SAMPLE_RATE_HZ, PST_INTERVAL_S } from '../flicker/index.js';
+import { createHalfPeriodRms, createVoltageChangeTracker, type VoltageChange } from '../flicker/index.js';
+import { evaluateFlickerLimits, type FlickerLimitEvaluation, type FlickerLimitTableId } from '../limits/flicker.js';
+import { declaredVoltageFromRms } from '../trend/declared-voltage.js';
+import type { ReportLimitTableId } from './types.js';
+
+/** One voltage channel's flicker figures. */
+export interface ReportFlickerChannel {
+	channel: string;
+	/** Lamp model of the weighting filter: '230V' (50 Hz) or '120V' (60 Hz). */
+	lamp: '230V' | '120V';
+	/** True when the record holds at least one complete 10-minute interval, so `pst` holds real Pst values. */
+	hasPst: boolean;
+	/** Short-term flicker severity per complete 10-minute interval from the first sample. */
+	pst: { startS: number; durationS: number; pst: number }[];
+	/** Long-term flicker severity per 12 consecutive Pst (2 hours). */
+	plt: { startS: number; durationS: number; plt: number }[];
+	/**
+	 * Instantaneous flicker sensation over the whole record after 5 s of filter settling: highest, mean
+	 * and the levels exceeded 1 %, 10 %, 50 % of the time. NOT a Pst (a Pst needs 10 minutes).
+	 */
+	pinst: { durationS: number; max: number; mean: number; p1: number; p10: number; p50: number };
+	/** Nominal voltage the change parameters are relative to, V. */
+	nominalV: number;
+	/** IEC 61000-3-3 voltage changes: count and the worst of each figure (NaN when none). */
+	changes: { count: number; dcMaxPercent: number; dmaxPercent: number; tmaxS: number; list: VoltageChange[] };
+	/** Flicker limits of the chosen supply table and of IEC 61000-3-3 (equipment context). */
+	limits: FlickerLimitEvaluation[];
+}
+
+export interface ReportFlicker {
+	channels: ReportFlickerChannel[];
+	/** Why flicker was not measured, or what was assumed. */
+	notes: string[];
+}
+
+/** Most changes listed per channel (the worst figures always cover all of them). */
+const MAX_LISTED_CHANGES = 50;
+const CHUNK = 65_536;
+
+/**
+ * Flicker of every voltage channel of a capture.
+ * @param nominalHz 50 or 60 (anything else: not measured, with a note)
+ * @param nominalV  Un for the change parameters; else a common nominal voltage matching the channel RMS
+ * @param limits    the report's limit table, when one was asked for
+ */
+export function flickerReport(capture: Capture, nominalHz: number | undefined, nominalV: number | undefined, limits: ReportLimitTableId | undefined): ReportFlicker {
+	const notes: string[] = [];
+	const voltages = capture.channels.filter((c) => c.quantity === 'voltage');
+	if (voltages.length === 0) return { channels: [], notes: ['No voltage channel: flicker not measured.'] };
+	if (capture.sampleRateHz < FLICKER_MIN_SAMPLE_RATE_HZ) {
+		return { channels: [], notes: [`Flicker not measured: it needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second (this record has ${capture.sampleRateHz}).`] };
+	}
+	if (nominalHz !== 50 && nominalHz !== 60) return { channels: [], notes: ['Flicker not measured: the mains frequency (50 or 60 Hz) is not known.'] };
+	const durationS = (voltages[0].samples.length ?? 0) / capture.sampleRateHz;
+	if (durationS < PST_INTERVAL_S) {
+		notes.push(`The record is ${durationS.toFixed(1)} s long: a Pst needs 10 minutes, so only instantaneous flicker (Pinst) statistics are given. They are not a Pst.`);
+	}
+	const channels = voltages.map((c) => flickerChannel(c.name, c.samples, capture.sampleRateHz, nominalHz, nominalV, limits, notes));
+	return { channels, notes };
+}
+
+function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50 | 60, nominalV: number | undefined, limits: ReportLimitTableId | undefined, notes: string[]): ReportFlickerChannel {
+	const meter = createFlickermeter({ sampleRateHz: fs, nominalHz });
+	const uhp: number[] = [];
+	const times: number[] = [];
+	const half = createHalfPeriodRms(fs, nominalHz, (t, v) => (times.push(t), uhp.push(v)));
+	for (let off = 0; off < x.length; off += CHUNK) {
+		const chunk = x.subarray(off, Math.min(x.length, off + CHUNK));
+		meter.push(chunk);
+		half.push(chunk);
+	}
+	const r = meter.finish();
+	let un = nominalV ?? NaN;
+	if (nominalV === undefined) {
+		un = declaredVoltageFromRms(uhp).declaredV;
+		if (Number.isFinite(un)) notes.push(`${name}: voltage changes relative to ${un} V, the common nominal voltage nearest the measured RMS.`);
+		else notes.push(`${name}: no common nominal voltage matches the measured RMS; voltage changes not evaluated (give the nominal voltage).`);
+	}
+	const list: VoltageChange[] = [];
+	if (Number.isFinite(un) && un > 0) {
+		const tracker = createVoltageChangeTracker(un, nominalHz);
+		for (let k = 0; k < uhp.length; k++) tracker.push(times[k], uhp[k]);
+		list.push(...tracker.finish());
+	}
+	const worst = (f: (v: VoltageChange) => number) => {
+		const v = list.map(f).filter(Number.isFinite);
+		return v.length ? Math.max(...v) : NaN;
+	};
+	const pst = r.pst.map((p) => ({ startS: p.startS, durationS: p.durationS, pst: p.pst }));
+	const measured = { pst: pst.map((p) => p.pst), plt: r.plt.map((p) => p.plt), dcPercent: list.map((v) => v.dcPercent), dmaxPercent: list.map((v) => v.dmaxPercent), tmaxS: list.map((v) => v.tmaxS) };
+	const tables: FlickerLimitTableId[] = limits === 'en50160' || limits === 'iec61000-2-2' ? [limits, 'iec61000-3-3'] : [];
+	return {
+		channel: name,
+		lamp: r.lamp,
+		hasPst: pst.length > 0,
+		pst,
+		plt: r.plt,
+		pinst: r.pinst,
+		nominalV: un,
+		changes: { count: list.length, dcMaxPercent: worst((v) => v.dcPercent), dmaxPercent: worst((v) => v.dmaxPercent), tmaxS: worst((v) => v.tmaxS), list: list.slice(0, MAX_LISTED_CHANGES) },
+		limits: tables.map((t) => evaluateFlickerLimits(t, measured)),
+	};
+}
