@@ -4,7 +4,7 @@
  * Pst; the IEC 61000-3-3 voltage change parameters; and, with a supply limit table, the flicker limits.
  */
 import type { Capture } from '../capture.js';
-import { createFlickermeter, FLICKER_MIN_SAMPLE_RATE_HZ, PST_INTERVAL_S } from '../flicker/index.js';
+import { createFlickermeter, FLICKER_MIN_SAMPLE_RATE_HZ, FLICKER_SETTLING_S, PST_INTERVAL_S } from '../flicker/index.js';
 import { createHalfPeriodRms, createVoltageChangeTracker, type VoltageChange } from '../flicker/index.js';
 import { evaluateFlickerLimits, type FlickerLimitEvaluation, type FlickerLimitTableId } from '../limits/flicker.js';
 import { declaredVoltageFromRms } from '../trend/declared-voltage.js';
@@ -59,14 +59,31 @@ export function flickerReport(capture: Capture, nominalHz: number | undefined, n
 	}
 	if (nominalHz !== 50 && nominalHz !== 60) return { channels: [], notes: ['Flicker not measured: the mains frequency (50 or 60 Hz) is not known.'] };
 	const durationS = (voltages[0].samples.length ?? 0) / capture.sampleRateHz;
-	if (durationS < PST_INTERVAL_S) {
+	if (durationS <= FLICKER_SETTLING_S) {
+		notes.push(`The record is ${durationS.toFixed(1)} s long: too short for a flicker reading (the flickermeter's filters settle over the first ${FLICKER_SETTLING_S} s).`);
+	} else if (durationS < PST_INTERVAL_S) {
 		notes.push(`The record is ${durationS.toFixed(1)} s long: a Pst needs 10 minutes, so only instantaneous flicker (Pinst) statistics are given. They are not a Pst.`);
 	}
-	const channels = voltages.map((c) => flickerChannel(c.name, c.samples, capture.sampleRateHz, nominalHz, nominalV, limits, notes));
+	let un = nominalV ?? NaN;
+	if (nominalV === undefined) {
+		un = declaredVoltageFromRms(voltages.map((c) => rms(c.samples))).declaredV;
+		notes.push(
+			Number.isFinite(un)
+				? `Voltage changes are relative to ${un} V, the common nominal voltage nearest the measured RMS (give the nominal voltage to set it).`
+				: 'No common nominal voltage matches the measured RMS: voltage changes not evaluated (give the nominal voltage).',
+		);
+	}
+	const channels = voltages.map((c) => flickerChannel(c.name, c.samples, capture.sampleRateHz, nominalHz, un, limits));
 	return { channels, notes };
 }
 
-function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50 | 60, nominalV: number | undefined, limits: ReportLimitTableId | undefined, notes: string[]): ReportFlickerChannel {
+function rms(x: Float64Array): number {
+	let s = 0, n = 0;
+	for (const v of x) if (Number.isFinite(v)) { s += v * v; n++; }
+	return n > 0 ? Math.sqrt(s / n) : NaN;
+}
+
+function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50 | 60, un: number, limits: ReportLimitTableId | undefined): ReportFlickerChannel {
 	const meter = createFlickermeter({ sampleRateHz: fs, nominalHz });
 	const uhp: number[] = [];
 	const times: number[] = [];
@@ -77,12 +94,6 @@ function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50
 		half.push(chunk);
 	}
 	const r = meter.finish();
-	let un = nominalV ?? NaN;
-	if (nominalV === undefined) {
-		un = declaredVoltageFromRms(uhp).declaredV;
-		if (Number.isFinite(un)) notes.push(`${name}: voltage changes relative to ${un} V, the common nominal voltage nearest the measured RMS.`);
-		else notes.push(`${name}: no common nominal voltage matches the measured RMS; voltage changes not evaluated (give the nominal voltage).`);
-	}
 	const list: VoltageChange[] = [];
 	if (Number.isFinite(un) && un > 0) {
 		const tracker = createVoltageChangeTracker(un, nominalHz);

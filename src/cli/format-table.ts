@@ -3,6 +3,7 @@
  * relations between channels, power, three-phase, limits and every assumption made.
  */
 import type { ReportJson } from '../../lib/report/to-json.js';
+import { flickerLines } from './flicker-lines.js';
 
 type Channel = ReportJson['channels'][number];
 
@@ -169,6 +170,7 @@ export function formatReport(r: ReportJson): string[] {
 		const when = d.firstActiveS === null ? 'never active' : `active from ${fixed(d.firstActiveS, 4)} s for ${fixed(d.activeS, 4)} s`;
 		out.push('', `  status ${d.name}: ${when}; ${d.changes} change(s)`);
 	}
+	out.push(...flickerLines(r));
 	if (r.limits) {
 		const failed = r.limits.rows.filter((x) => !x.pass);
 		out.push('', `  limits ${r.limits.table} (${r.limits.title}): ${r.limits.pass ? 'PASS' : `FAIL (${failed.length} over)`}`);
