@@ -28,6 +28,7 @@ import { RowGroup } from './row-group.js';
 import { RvcDetector } from './rvc-detector.js';
 import { TREND_MAX_ORDER, WindowThd } from './window-thd.js';
 import type { TrendEvent, TrendFrequencyRow, TrendOptions, TrendResult, TrendRow, TrendThresholds } from './types.js';
+import { TrendFlickerTracker } from './flicker-tracker.js';
 
 /** A streaming analyser made by `createTrendAnalyser`. */
 export interface TrendAnalyser {
@@ -113,6 +114,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const freqLen = Math.round(FREQ_S * fs);
 
 	let nominalHz: number | undefined = opts.nominalHz;
+	const flicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) ? new TrendFlickerTracker(fs, channels, voltage, diagnostics) : null;
 	let declaredV = opts.declaredV ?? NaN;
 	let detector: EventDetector | undefined;
 	let rvc: RvcDetector | undefined;
@@ -402,6 +404,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				abs += m;
 				afterBlock(false);
 			}
+			flicker?.push(chunk, nominalHz);
 		},
 		finish(): TrendResult {
 			if (finished) throw new Error('finish called twice');
@@ -454,6 +457,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				});
 			}
 			events.sort((a, b) => a.startS - b.startS);
+			const flickerResult = flicker?.finish(nominalHz, events);
 			return {
 				sampleRateHz: fs,
 				nominalHz,
@@ -469,6 +473,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				frequency: out.frequency,
 				events,
 				diagnostics,
+				...(flickerResult ? { flicker: flickerResult } : {}),
 			};
 		},
 	};

@@ -3,6 +3,7 @@
  * Every time is in seconds from the first sample of the recording (not the record's trigger zero).
  */
 import type { Diagnostic, Quantity } from '../capture.js';
+import type { TrendFlicker } from './flicker-tracker.js';
 
 /** One channel as the analyser sees it: samples arrive through `push`, in this order. */
 export interface TrendChannelSpec {
@@ -68,6 +69,11 @@ export interface TrendOptions {
 	 * method. Default false (the rows stay small).
 	 */
 	harmonics?: boolean;
+	/**
+	 * Flicker per voltage channel (IEC 61000-4-15, lib/flicker): Pst per 10 minutes, Plt per 2 hours,
+	 * flagged like the other aggregates. Default true; needs ≥ 1600 S/s.
+	 */
+	flicker?: boolean;
 }
 
 /** Aggregation interval kinds of IEC 61000-4-30 (REFERENCE §3.2). */
@@ -153,4 +159,6 @@ export interface TrendResult {
 	frequency: TrendFrequencyRow[];
 	events: TrendEvent[];
 	diagnostics: Diagnostic[];
+	/** With a voltage channel at ≥ 1600 S/s (and the `flicker` option not false). */
+	flicker?: TrendFlicker;
 }

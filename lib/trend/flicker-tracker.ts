@@ -1,0 +1,94 @@
+/**
+ * Flicker beside the trend: one IEC 61000-4-15 flickermeter (lib/flicker) per voltage channel, fed the
+ * same chunks as the analyser, giving Pst per 10 minutes and Plt per 2 hours, each flagged when a dip,
+ * swell or interruption overlaps it (IEC 61000-4-30 flagging, from memory).
+ */
+import type { Diagnostic } from '../capture.js';
+import { createFlickermeter, FLICKER_MIN_SAMPLE_RATE_HZ, type Flickermeter, type FlickerResult } from '../flicker/index.js';
+import type { TrendChannelSpec, TrendEvent } from './types.js';
+
+/** One Pst or Plt row: a value per voltage channel (order of `TrendFlicker.channels`). */
+export interface TrendFlickerRow {
+	startS: number;
+	durationS: number;
+	values: number[];
+	/** True when a dip, swell or interruption overlaps the interval. */
+	flagged: boolean;
+}
+
+export interface TrendFlicker {
+	/** The voltage channels measured, by name. */
+	channels: string[];
+	lamp: '230V' | '120V';
+	/** Complete 10-minute intervals from the first sample. */
+	pst: TrendFlickerRow[];
+	/** Complete 2-hour periods (12 consecutive Pst). */
+	plt: TrendFlickerRow[];
+	/** Highest Pinst per channel over the record (after the 5 s settling); NaN for an empty one. */
+	pinstMax: number[];
+}
+
+/** Longest stretch buffered while the nominal frequency is still being inferred, s. */
+const INFERENCE_BUFFER_S = 2;
+
+export class TrendFlickerTracker {
+	private meters: Flickermeter[] | null = null;
+	private pending: Float64Array[][] = [];
+	private pendingSamples = 0;
+
+	constructor(
+		private readonly sampleRateHz: number,
+		private readonly channels: TrendChannelSpec[],
+		private readonly voltage: number[],
+		private readonly diagnostics: Diagnostic[],
+	) {}
+
+	/** True when this recording can be measured at all (a voltage channel and ≥ 1600 S/s); says why not otherwise. */
+	static wanted(sampleRateHz: number, voltage: number[], diagnostics: Diagnostic[]): boolean {
+		if (voltage.length === 0) return false;
+		if (sampleRateHz < FLICKER_MIN_SAMPLE_RATE_HZ) {
+			diagnostics.push({ code: 'flicker-not-measured', severity: 'info', message: `Flicker not measured: it needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second (this recording has ${sampleRateHz}).` });
+			return false;
+		}
+		return true;
+	}
+
+	/** The chunk the analyser was given; `nominalHz` once known (chunks wait, copied, until then). */
+	push(chunk: Float64Array[], nominalHz: number | undefined): void {
+		if (!this.meters) {
+			if (nominalHz === undefined && this.pendingSamples < INFERENCE_BUFFER_S * this.sampleRateHz) {
+				this.pending.push(this.voltage.map((c) => chunk[c].slice()));
+				this.pendingSamples += chunk[0].length;
+				return;
+			}
+			this.start(nominalHz === 60 ? 60 : 50);
+		}
+		for (let k = 0; k < this.voltage.length; k++) this.meters![k].push(chunk[this.voltage[k]]);
+	}
+
+	private start(nominalHz: 50 | 60): void {
+		this.meters = this.voltage.map(() => createFlickermeter({ sampleRateHz: this.sampleRateHz, nominalHz }));
+		for (const p of this.pending) for (let k = 0; k < p.length; k++) this.meters[k].push(p[k]);
+		this.pending = [];
+	}
+
+	/** Ends the record; `events` give the flags. */
+	finish(nominalHz: number, events: readonly TrendEvent[]): TrendFlicker {
+		if (!this.meters) this.start(nominalHz === 60 ? 60 : 50);
+		const results = this.meters!.map((m) => m.finish());
+		const flagging = events.filter((e) => e.kind !== 'rvc');
+		const flagged = (startS: number, durationS: number) => flagging.some((e) => e.startS < startS + durationS && e.startS + e.durationS > startS);
+		const rows = (pick: (r: FlickerResult) => { startS: number; durationS: number; value: number }[]): TrendFlickerRow[] =>
+			pick(results[0]).map((first, k) => ({ startS: first.startS, durationS: first.durationS, values: results.map((r) => pick(r)[k].value), flagged: flagged(first.startS, first.durationS) }));
+		if (results.some((r) => r.nonFiniteSamples > 0)) {
+			this.diagnostics.push({ code: 'flicker-non-finite', severity: 'warning', message: 'Flicker: missing or non-finite samples were bridged by repeating the previous value; the Pst around them is doubtful.' });
+		}
+		return {
+			channels: this.voltage.map((c) => this.channels[c].name),
+			lamp: results[0].lamp,
+			pst: rows((r) => r.pst.map((p) => ({ startS: p.startS, durationS: p.durationS, value: p.pst }))),
+			plt: rows((r) => r.plt.map((p) => ({ startS: p.startS, durationS: p.durationS, value: p.plt }))),
+			pinstMax: results.map((r) => r.pinst.max),
+		};
+	}
+}
