@@ -57,7 +57,7 @@ cli
 	.command('trend [...paths]', 'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings; folders are walked')
 	.usage('trend [...paths]  (recording files or folders; folders are walked for .csv .tsv .txt .wav .cfg .cff)')
 	.option('--json', 'One JSON document per file instead of CSV rows')
-	.option('--interval <which>', 'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s) or 10-min (10min)')
+	.option('--interval <which>', 'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s), 10-min (10min), or flicker (Pst per 10 min and Plt per 2 h per voltage channel)')
 	.option('--nominal <V>', 'Declared voltage Udin in V (line-to-neutral when the channels are); inferred when absent')
 	.option('--frequency <Hz>', 'Nominal frequency, 50 or 60; from the file or the first cycles when absent')
 	.option('--dip-percent <pct>', 'Dip threshold, % of the declared voltage')

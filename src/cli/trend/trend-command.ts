@@ -13,7 +13,7 @@ import { collectUnits } from '../collect-files.js';
 import { ERROR_PREFIX as PREFIX, errorLine } from '../error-line.js';
 import { UsageError } from '../usage-error.js';
 import { analyseFile, type AnalyserSettings } from './read-recording.js';
-import { csvHeader, csvRow, eventLine, trendJson } from './trend-output.js';
+import { csvHeader, csvRow, eventLine, flickerCsvHeader, flickerCsvRows, flickerLine, trendJson } from './trend-output.js';
 
 export interface TrendCommandOptions {
 	/** Declared voltage Udin in V (line-to-neutral when the channels are). Inferred when absent. */
@@ -68,7 +68,7 @@ function num(option: string, value: number | string | undefined, check: (x: numb
 	return x;
 }
 
-function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSettings; interval: TrendInterval } {
+function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSettings; interval: TrendInterval; flickerCsv: boolean } {
 	const declaredV = num('nominal', options.nominal, (x) => x > 0, 'the declared voltage in V (a number above 0)');
 	const hz = num('frequency', options.frequency, (x) => x === 50 || x === 60, '50 or 60 (Hz)');
 	const thresholds: Partial<TrendThresholds> = {};
@@ -82,11 +82,13 @@ function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSetting
 	if (intr !== undefined) thresholds.interruptionPercent = intr;
 	if (hyst !== undefined) thresholds.hysteresisPercent = hyst;
 	const rvcPercent = num('rvc-percent', options.rvcPercent, (x) => x > 0 && x < 100, 'a rapid-voltage-change threshold in % of the declared voltage (e.g. 3)');
-	const interval = INTERVALS[options.interval ?? '10/12-cycle'];
-	if (!interval) throw new TrendUsageError(`--interval ${options.interval}: expected one of ${Object.keys(INTERVALS).join(', ')}`);
+	const flickerCsv = options.interval === 'flicker';
+	const interval = flickerCsv ? '10-min' : INTERVALS[options.interval ?? '10/12-cycle'];
+	if (!interval) throw new TrendUsageError(`--interval ${options.interval}: expected one of ${[...Object.keys(INTERVALS), 'flicker'].join(', ')}`);
 	return {
 		settings: { declaredV, nominalHz: hz as 50 | 60 | undefined, thresholds, rvc: rvcPercent === undefined ? undefined : { thresholdPercent: rvcPercent }, thd: options.thd !== false, harmonics: options.harmonics === true && options.thd !== false },
 		interval,
+		flickerCsv,
 	};
 }
 
@@ -103,7 +105,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 		err.write(`${PREFIX}${e instanceof Error ? e.message : String(e)}\n`);
 		return 2;
 	}
-	const { settings, interval } = parsed;
+	const { settings, interval, flickerCsv } = parsed;
 	// Paths -> recordings: folders walked and COMTRADE companions grouped as `analyse` does; a path that
 	// does not exist is an error line of its own, and the others still run.
 	const recordings: string[] = [];
@@ -122,6 +124,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	const several = recordings.length > 1;
 	const docs: unknown[] = [];
 	let headerFor = '';
+	let flickerHeaderFor = '';
 	for (const file of recordings) {
 		try {
 			let pending: string[] = [];
@@ -149,7 +152,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 					onRow: options.json
 						? undefined
 						: (row) => {
-								if (row.interval !== interval) return;
+								if (flickerCsv || row.interval !== interval) return;
 								pending.push(csvRow(row, several ? file : undefined));
 								if (pending.length >= 256) flush();
 							},
@@ -158,16 +161,27 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 					onProgress,
 					onChannels: (chs) => {
 						const header = csvHeader(chs, several, settings.harmonics === true);
-						if (!options.json && header !== headerFor) pending.push(header);
+						if (!options.json && !flickerCsv && header !== headerFor) pending.push(header);
 						headerFor = header;
 					},
 				},
 			);
+			if (flickerCsv && !options.json) {
+				if (result.flicker) {
+					const header = flickerCsvHeader(result.flicker, several);
+					if (header !== flickerHeaderFor) pending.push(header);
+					flickerHeaderFor = header;
+					pending.push(...flickerCsvRows(result.flicker, several ? file : undefined));
+				} else err.write(`${file}: flicker not measured (no voltage channel, or under 1600 samples per second)\n`);
+			}
 			flush();
 			if (tty) err.write('\r\x1b[K');
 			for (const d of result.diagnostics) err.write(`${file}: ${d.severity}: ${d.message}\n`);
 			if (options.json) docs.push(trendJson(file, result));
-			else for (const e of result.events) err.write(`${file}: ${eventLine(e, result.declaredV)}\n`);
+			else {
+				for (const e of result.events) err.write(`${file}: ${eventLine(e, result.declaredV)}\n`);
+				if (result.flicker && !flickerCsv) err.write(`${file}: ${flickerLine(result.flicker)}\n`);
+			}
 		} catch (e) {
 			if (tty) err.write('\r\x1b[K');
 			failed++;

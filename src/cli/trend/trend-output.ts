@@ -1,5 +1,6 @@
 /** Text forms of trend results: CSV lines of aggregate rows, the JSON document, one-line event text. */
 import type { TrendChannelSpec, TrendEvent, TrendResult, TrendRow } from '../../../lib/trend/types.js';
+import type { TrendFlicker } from '../../../lib/trend/flicker-tracker.js';
 
 /** CSV cell: quoted when it holds a comma, quote or line break; a leading = + - @ is defused for spreadsheets. */
 function cell(text: string): string {
@@ -78,6 +79,27 @@ export function trendJson(source: string, r: TrendResult): unknown {
 		aggregates: [...r.cycles10, ...r.cycles150, ...r.min10],
 		frequency: r.frequency,
 		events: r.events,
+		flicker: r.flicker ?? null,
 		diagnostics: r.diagnostics,
 	};
+}
+
+/** Flicker CSV header: interval ('Pst 10-min' or 'Plt 2-h'), times, flag, then `<name> flicker` per voltage channel. */
+export function flickerCsvHeader(f: TrendFlicker, withFile: boolean): string {
+	const cols = [...(withFile ? ['file'] : []), 'interval', 'start_s', 'duration_s', 'flagged', ...f.channels.map((c) => `${c} flicker`)];
+	return `${cols.map(cell).join(',')}\n`;
+}
+
+/** Flicker CSV rows: every Pst, then every Plt. */
+export function flickerCsvRows(f: TrendFlicker, file?: string): string[] {
+	const rows = [...f.pst.map((r) => ['Pst 10-min', r] as const), ...f.plt.map((r) => ['Plt 2-h', r] as const)];
+	return rows.map(([kind, r]) => `${[...(file !== undefined ? [cell(file)] : []), kind, n(r.startS, 3), n(r.durationS, 3), r.flagged ? '1' : '0', ...r.values.map((v) => n(v, 3))].join(',')}\n`);
+}
+
+/** One stderr line per file in CSV mode: the highest Pst per channel (or why there is none). */
+export function flickerLine(f: TrendFlicker): string {
+	if (f.pst.length === 0) return `flicker: no complete 10-minute interval, so no Pst (highest instantaneous flicker ${f.channels.map((c, k) => `${c} ${n(f.pinstMax[k], 2)}`).join(', ')}; not a Pst)`;
+	const worst = f.channels.map((c, k) => `${c} ${n(Math.max(...f.pst.map((r) => r.values[k])), 2)}`);
+	const plt = f.plt.length > 0 ? `; highest Plt ${f.channels.map((c, k) => `${c} ${n(Math.max(...f.plt.map((r) => r.values[k])), 2)}`).join(', ')}` : '';
+	return `flicker (${f.lamp} lamp): highest Pst over ${f.pst.length} interval(s) ${worst.join(', ')}${plt}; --interval flicker lists them`;
 }
