@@ -114,7 +114,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const freqLen = Math.round(FREQ_S * fs);
 
 	let nominalHz: number | undefined = opts.nominalHz;
-	const flicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) ? new TrendFlickerTracker(fs, channels, voltage, diagnostics) : null;
+	const flicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) ? new TrendFlickerTracker(fs, channels, voltage, diagnostics, opts.flickerPinst === true) : null;
 	let declaredV = opts.declaredV ?? NaN;
 	let detector: EventDetector | undefined;
 	let rvc: RvcDetector | undefined;

@@ -26,6 +26,8 @@ export interface TrendFlicker {
 	plt: TrendFlickerRow[];
 	/** Highest Pinst per channel over the record (after the 5 s settling); NaN for an empty one. */
 	pinstMax: number[];
+	/** With the `flickerPinst` option: highest Pinst per second, per channel (`max[k][i]` for second `startS[i]`). */
+	pinst?: { startS: number[]; max: number[][] };
 }
 
 /** Longest stretch buffered while the nominal frequency is still being inferred, s. */
@@ -41,6 +43,7 @@ export class TrendFlickerTracker {
 		private readonly channels: TrendChannelSpec[],
 		private readonly voltage: number[],
 		private readonly diagnostics: Diagnostic[],
+		private readonly keepPinst = false,
 	) {}
 
 	/** True when this recording can be measured at all (a voltage channel and ≥ 1600 S/s); says why not otherwise. */
@@ -67,7 +70,7 @@ export class TrendFlickerTracker {
 	}
 
 	private start(nominalHz: 50 | 60): void {
-		this.meters = this.voltage.map(() => createFlickermeter({ sampleRateHz: this.sampleRateHz, nominalHz }));
+		this.meters = this.voltage.map(() => createFlickermeter({ sampleRateHz: this.sampleRateHz, nominalHz, keepPinstBlocks: this.keepPinst }));
 		for (const p of this.pending) for (let k = 0; k < p.length; k++) this.meters[k].push(p[k]);
 		this.pending = [];
 	}
@@ -89,6 +92,7 @@ export class TrendFlickerTracker {
 			pst: rows((r) => r.pst.map((p) => ({ startS: p.startS, durationS: p.durationS, value: p.pst }))),
 			plt: rows((r) => r.plt.map((p) => ({ startS: p.startS, durationS: p.durationS, value: p.plt }))),
 			pinstMax: results.map((r) => r.pinst.max),
+			...(this.keepPinst ? { pinst: { startS: results[0].pinstBlocks?.startS ?? [], max: results.map((r) => r.pinstBlocks?.max ?? []) } } : {}),
 		};
 	}
 }

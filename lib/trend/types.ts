@@ -74,6 +74,8 @@ export interface TrendOptions {
 	 * flagged like the other aggregates. Default true; needs ≥ 1600 S/s.
 	 */
 	flicker?: boolean;
+	/** Keep the highest Pinst of every second per voltage channel in `flicker.pinst` (for plots). Default false. */
+	flickerPinst?: boolean;
 }
 
 /** Aggregation interval kinds of IEC 61000-4-30 (REFERENCE §3.2). */

@@ -4,13 +4,14 @@
  */
 import type { AnalysisReport, ReportChannel, ReportPair } from '../../lib/report/types.js';
 import { formatDeg, formatDuration, formatPercent, formatQuantity, formatRatio } from './format.js';
+import { flickerVerdicts } from './flicker-verdicts.js';
 
 export type VerdictLevel = 'ok' | 'attention' | 'fail' | 'info';
 export type ViewTab = 'waves' | 'harmonics' | 'phasors' | 'trends' | 'check' | 'report';
 
 export interface Verdict {
 	id: string;
-	topic: 'distortion' | 'meter' | 'load' | 'three-phase' | 'data';
+	topic: 'distortion' | 'meter' | 'load' | 'three-phase' | 'flicker' | 'data';
 	level: VerdictLevel;
 	/** The finding in plain words. */
 	text: string;
@@ -109,7 +110,7 @@ function meter(ch: ReportChannel): Verdict {
 	};
 }
 
-/** Every finding for a report, in reading order: distortion, meters, load, three-phase, data warnings. */
+/** Every finding for a report, in reading order: distortion, meters, load, three-phase, flicker, data warnings. */
 export function verdictsFor(report: AnalysisReport): Verdict[] {
 	const out: Verdict[] = [];
 	for (const ch of report.channels) if (ch.quantity !== 'other') out.push(distortion(report, ch));
@@ -157,6 +158,7 @@ export function verdictsFor(report: AnalysisReport): Verdict[] {
 			target: { tab: 'phasors' },
 		});
 	}
+	out.push(...flickerVerdicts(report));
 	for (const [i, w] of report.warnings.entries()) {
 		out.push({ id: `warning-${i}`, topic: 'data', level: 'attention', text: w, figure: '', target: { tab: 'waves' } });
 	}

@@ -30,6 +30,7 @@ export function trendFor(capture: Capture): TrendView | null {
 	const values: number[][] = capture.channels.map(() => []);
 	try {
 		const result = analyseTrend(capture, {
+			flickerPinst: true,
 			onHalfCycle: (channel, startS, rmsV) => {
 				times[channel].push(startS);
 				values[channel].push(rmsV);
