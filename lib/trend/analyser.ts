@@ -404,7 +404,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				abs += m;
 				afterBlock(false);
 			}
-			flicker?.push(chunk, nominalHz);
+			flicker?.push(chunk, nominalHz, declaredV);
 		},
 		finish(): TrendResult {
 			if (finished) throw new Error('finish called twice');
@@ -457,7 +457,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				});
 			}
 			events.sort((a, b) => a.startS - b.startS);
-			const flickerResult = flicker?.finish(nominalHz, events);
+			const flickerResult = flicker?.finish(nominalHz, events, declaredV);
 			return {
 				sampleRateHz: fs,
 				nominalHz,

@@ -5,6 +5,7 @@
  */
 import type { Diagnostic } from '../capture.js';
 import { createFlickermeter, FLICKER_MIN_SAMPLE_RATE_HZ, type Flickermeter, type FlickerResult } from '../flicker/index.js';
+import { createHalfPeriodRms, createVoltageChangeTracker, type HalfPeriodRms, type VoltageChangeTracker } from '../flicker/index.js';
 import type { TrendChannelSpec, TrendEvent } from './types.js';
 
 /** One Pst or Plt row: a value per voltage channel (order of `TrendFlicker.channels`). */
@@ -28,7 +29,16 @@ export interface TrendFlicker {
 	pinstMax: number[];
 	/** With the `flickerPinst` option: highest Pinst per second, per channel (`max[k][i]` for second `startS[i]`). */
 	pinst?: { startS: number[]; max: number[][] };
+	/**
+	 * IEC 61000-3-3 voltage changes per channel, relative to the declared voltage: count, the largest dc
+	 * and dmax (%), the longest time beyond 3.3 % (s); NaN figures when there were none. Absent when the
+	 * declared voltage is unknown.
+	 */
+	changes?: { count: number; dcMaxPercent: number; dmaxPercent: number; tmaxS: number }[];
 }
+
+/** Half-period values kept while the declared voltage is still being inferred, s (beyond: changes are not evaluated). */
+const DECLARED_WAIT_S = 10;
 
 /** Longest stretch buffered while the nominal frequency is still being inferred, s. */
 const INFERENCE_BUFFER_S = 2;
@@ -37,6 +47,11 @@ export class TrendFlickerTracker {
 	private meters: Flickermeter[] | null = null;
 	private pending: Float64Array[][] = [];
 	private pendingSamples = 0;
+	private halves: HalfPeriodRms[] = [];
+	private changeTrackers: VoltageChangeTracker[] | null = null;
+	private uhpWaiting: { t: number; v: number }[][] | null = null;
+	private declaredV = NaN;
+	private changesAbandoned = false;
 
 	constructor(
 		private readonly sampleRateHz: number,
@@ -56,8 +71,12 @@ export class TrendFlickerTracker {
 		return true;
 	}
 
-	/** The chunk the analyser was given; `nominalHz` once known (chunks wait, copied, until then). */
-	push(chunk: Float64Array[], nominalHz: number | undefined): void {
+	/**
+	 * The chunk the analyser was given; `nominalHz` once known (chunks wait, copied, until then) and the
+	 * declared voltage once known (half-period values wait until then, at most 10 s).
+	 */
+	push(chunk: Float64Array[], nominalHz: number | undefined, declaredV = NaN): void {
+		this.declaredV = declaredV;
 		if (!this.meters) {
 			if (nominalHz === undefined && this.pendingSamples < INFERENCE_BUFFER_S * this.sampleRateHz) {
 				this.pending.push(this.voltage.map((c) => chunk[c].slice()));
@@ -66,18 +85,62 @@ export class TrendFlickerTracker {
 			}
 			this.start(nominalHz === 60 ? 60 : 50);
 		}
-		for (let k = 0; k < this.voltage.length; k++) this.meters![k].push(chunk[this.voltage[k]]);
+		for (let k = 0; k < this.voltage.length; k++) this.feed(k, chunk[this.voltage[k]]);
+	}
+
+	private feed(k: number, x: Float64Array): void {
+		this.meters![k].push(x);
+		this.halves[k].push(x);
 	}
 
 	private start(nominalHz: 50 | 60): void {
 		this.meters = this.voltage.map(() => createFlickermeter({ sampleRateHz: this.sampleRateHz, nominalHz, keepPinstBlocks: this.keepPinst }));
-		for (const p of this.pending) for (let k = 0; k < p.length; k++) this.meters[k].push(p[k]);
+		this.uhpWaiting = this.voltage.map(() => []);
+		this.halves = this.voltage.map((_, k) => createHalfPeriodRms(this.sampleRateHz, nominalHz, (t, v) => this.halfPeriod(k, t, v, nominalHz)));
+		for (const p of this.pending) for (let k = 0; k < p.length; k++) this.feed(k, p[k]);
 		this.pending = [];
 	}
 
+	/** One half-period RMS value: to the change tracker once the declared voltage is known. */
+	private halfPeriod(k: number, t: number, v: number, nominalHz: 50 | 60): void {
+		if (this.changesAbandoned) return;
+		if (!this.startChanges(nominalHz)) {
+			this.uhpWaiting![k].push({ t, v });
+			if (this.uhpWaiting![k].length > 2 * nominalHz * DECLARED_WAIT_S) {
+				this.changesAbandoned = true;
+				this.uhpWaiting = null;
+			}
+			return;
+		}
+		this.changeTrackers![k].push(t, v);
+	}
+
+	/** Creates the change trackers once the declared voltage is known, replaying the values that waited. */
+	private startChanges(nominalHz: 50 | 60): boolean {
+		if (this.changeTrackers) return true;
+		if (this.changesAbandoned || !(this.declaredV > 0)) return false;
+		const un = this.declaredV;
+		const trackers = this.voltage.map(() => createVoltageChangeTracker(un, nominalHz));
+		this.uhpWaiting?.forEach((list, j) => list.forEach((p) => trackers[j].push(p.t, p.v)));
+		this.uhpWaiting = null;
+		this.changeTrackers = trackers;
+		return true;
+	}
+
+	private changeSummary(): TrendFlicker['changes'] {
+		if (!this.changeTrackers) return undefined;
+		const worst = (v: number[]) => (v.filter(Number.isFinite).length ? Math.max(...v.filter(Number.isFinite)) : NaN);
+		return this.changeTrackers.map((tr) => {
+			const list = tr.finish();
+			return { count: list.length, dcMaxPercent: worst(list.map((c) => c.dcPercent)), dmaxPercent: worst(list.map((c) => c.dmaxPercent)), tmaxS: worst(list.map((c) => c.tmaxS)) };
+		});
+	}
+
 	/** Ends the record; `events` give the flags. */
-	finish(nominalHz: number, events: readonly TrendEvent[]): TrendFlicker {
+	finish(nominalHz: number, events: readonly TrendEvent[], declaredV = NaN): TrendFlicker {
+		this.declaredV = declaredV;
 		if (!this.meters) this.start(nominalHz === 60 ? 60 : 50);
+		this.startChanges(nominalHz === 60 ? 60 : 50);
 		const results = this.meters!.map((m) => m.finish());
 		const flagging = events.filter((e) => e.kind !== 'rvc');
 		const flagged = (startS: number, durationS: number) => flagging.some((e) => e.startS < startS + durationS && e.startS + e.durationS > startS);
@@ -92,6 +155,7 @@ export class TrendFlickerTracker {
 			pst: rows((r) => r.pst.map((p) => ({ startS: p.startS, durationS: p.durationS, value: p.pst }))),
 			plt: rows((r) => r.plt.map((p) => ({ startS: p.startS, durationS: p.durationS, value: p.plt }))),
 			pinstMax: results.map((r) => r.pinst.max),
+			...(this.changeTrackers ? { changes: this.changeSummary() } : {}),
 			...(this.keepPinst ? { pinst: { startS: results[0].pinstBlocks?.startS ?? [], max: results.map((r) => r.pinstBlocks?.max ?? []) } } : {}),
 		};
 	}

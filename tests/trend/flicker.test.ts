@@ -56,3 +56,23 @@ describe('createTrendAnalyser: flicker', () => {
 		expect(a.finish().flicker).toBeUndefined();
 	});
 });
+
+describe('createTrendAnalyser: voltage changes (IEC 61000-3-3)', () => {
+	it('a 230 V -> 222 V step at 3 s: one change with dc = 8/230 = 3.48 % of the declared voltage (arithmetic)', () => {
+		const a = createTrendAnalyser({ sampleRateHz: FS, channels: V1, declaredV: 230, nominalHz: 50, thd: false });
+		const x = new Float64Array(FS * 6).map((_, i) => (i < 3 * FS ? 230 : 222) * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * i) / FS));
+		for (let off = 0; off < x.length; off += 777) a.push([x.subarray(off, Math.min(x.length, off + 777))]);
+		const ch = a.finish().flicker!.changes!;
+		expect(ch[0].count).toBe(1);
+		expect(ch[0].dcMaxPercent).toBeCloseTo((100 * 8) / 230, 2);
+	});
+
+	it('with the declared voltage inferred from the first second, the change is still found', () => {
+		const a = createTrendAnalyser({ sampleRateHz: FS, channels: V1, nominalHz: 50, thd: false });
+		const x = new Float64Array(FS * 6).map((_, i) => (i < 3 * FS ? 230 : 222) * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * i) / FS));
+		for (let off = 0; off < x.length; off += 500) a.push([x.subarray(off, Math.min(x.length, off + 500))]);
+		const r = a.finish();
+		expect(r.declaredV).toBe(230);
+		expect(r.flicker!.changes![0].count).toBe(1);
+	});
+});

@@ -98,8 +98,14 @@ export function flickerCsvRows(f: TrendFlicker, file?: string): string[] {
 
 /** One stderr line per file in CSV mode: the highest Pst per channel (or why there is none). */
 export function flickerLine(f: TrendFlicker): string {
-	if (f.pst.length === 0) return `flicker: no complete 10-minute interval, so no Pst (highest instantaneous flicker ${f.channels.map((c, k) => `${c} ${n(f.pinstMax[k], 2)}`).join(', ')}; not a Pst)`;
+	if (f.pst.length === 0) return `flicker: no complete 10-minute interval, so no Pst (highest instantaneous flicker ${f.channels.map((c, k) => `${c} ${n(f.pinstMax[k], 2)}`).join(', ')}; not a Pst)${changesText(f)}`;
 	const worst = f.channels.map((c, k) => `${c} ${n(Math.max(...f.pst.map((r) => r.values[k])), 2)}`);
 	const plt = f.plt.length > 0 ? `; highest Plt ${f.channels.map((c, k) => `${c} ${n(Math.max(...f.plt.map((r) => r.values[k])), 2)}`).join(', ')}` : '';
-	return `flicker (${f.lamp} lamp): highest Pst over ${f.pst.length} interval(s) ${worst.join(', ')}${plt}; --interval flicker lists them`;
+	return `flicker (${f.lamp} lamp): highest Pst over ${f.pst.length} interval(s) ${worst.join(', ')}${plt}; --interval flicker lists them${changesText(f)}`;
+}
+
+/** '; voltage changes (IEC 61000-3-3): L1 2, largest dc 3.48 %, dmax 4.10 %, 0.00 s beyond 3.3 %' (empty when none). */
+function changesText(f: TrendFlicker): string {
+	const parts = (f.changes ?? []).flatMap((c, k) => (c.count > 0 ? [`${f.channels[k]} ${c.count}, largest dc ${n(c.dcMaxPercent, 2)} %, dmax ${n(c.dmaxPercent, 2)} %, ${n(c.tmaxS, 2)} s beyond 3.3 %`] : []));
+	return parts.length > 0 ? `; voltage changes (IEC 61000-3-3): ${parts.join('; ')}` : '';
 }
