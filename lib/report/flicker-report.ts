@@ -84,16 +84,17 @@ function rms(x: Float64Array): number {
 }
 
 function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50 | 60, un: number, limits: ReportLimitTableId | undefined): ReportFlickerChannel {
-	const meter = createFlickermeter({ sampleRateHz: fs, nominalHz });
+	// a record within the settling time gives no Pinst at all: skip the meter (and its 256 KB of class tables)
+	const meter = x.length / fs > FLICKER_SETTLING_S ? createFlickermeter({ sampleRateHz: fs, nominalHz }) : null;
 	const uhp: number[] = [];
 	const times: number[] = [];
 	const half = createHalfPeriodRms(fs, nominalHz, (t, v) => (times.push(t), uhp.push(v)));
 	for (let off = 0; off < x.length; off += CHUNK) {
 		const chunk = x.subarray(off, Math.min(x.length, off + CHUNK));
-		meter.push(chunk);
+		meter?.push(chunk);
 		half.push(chunk);
 	}
-	const r = meter.finish();
+	const r = meter?.finish() ?? { lamp: nominalHz === 50 ? ('230V' as const) : ('120V' as const), pst: [], plt: [], pinst: { durationS: x.length / fs, max: NaN, mean: NaN, p1: NaN, p10: NaN, p50: NaN } };
 	const list: VoltageChange[] = [];
 	if (Number.isFinite(un) && un > 0) {
 		const tracker = createVoltageChangeTracker(un, nominalHz);
