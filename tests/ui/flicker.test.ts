@@ -57,6 +57,13 @@ describe('FlickerTrend', () => {
 		expect(r.container.querySelector('[data-testid="no-pst"]')!.textContent).toMatch(/needs a full 10 minutes.*not a Pst.*L1 0\.80, L2 0\.30/s);
 	});
 
+	it('a recording within the settling time says it is too short', () => {
+		const r = renderComponent(FlickerTrend, { flicker: { ...base, pinstMax: [NaN, NaN], pinst: { startS: [], max: [[], []] } }, colours: {} });
+		cleanup.push(r.unmount);
+		expect(r.container.querySelector('[data-testid="flicker-too-short"]')).not.toBeNull();
+		expect(r.container.querySelector('[data-testid="no-pst"]')).toBeNull();
+	});
+
 	it('lists each Pst and Plt with the flag in words', () => {
 		const rows = Array.from({ length: 12 }, (_, k) => ({ startS: 600 * k, durationS: 600, values: [0.5, 1.2], flagged: k === 3 }));
 		const r = renderComponent(FlickerTrend, { flicker: { ...base, pst: rows, plt: [{ startS: 0, durationS: 7200, values: [0.5, 1.2], flagged: true }] }, colours: {} });
