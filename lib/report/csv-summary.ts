@@ -33,6 +33,10 @@ export const CSV_SUMMARY_COLUMNS = [
 	'fundamentalRms',
 	'lagDegToReference',
 	'limitsPass',
+	// flicker of voltage channels (empty otherwise): highest Pst over complete 10-minute intervals, and the
+	// highest instantaneous flicker Pinst (not a Pst; given for records shorter than 10 minutes too)
+	'pstMax',
+	'pinstMax',
 ] as const;
 
 /** A text cell made safe for spreadsheets and quoted per RFC 4180 when needed. */
@@ -68,6 +72,7 @@ export function reportsToCsv(reports: ReportJson[]): string {
 function rowOf(report: ReportJson, c: ReportJson['channels'][number]): string {
 	const pair = report.pairs.find((p) => p.other === c.name);
 	const limitRows = report.limits?.rows.filter((r) => r.channel === c.name) ?? [];
+	const fl = report.flicker?.channels.find((f) => f.channel === c.name);
 	const limitsPass = report.limits === undefined || limitRows.length === 0 ? '' : limitRows.every((r) => r.pass) ? 'pass' : 'fail';
 	const cells = [
 		csvTextCell(report.file),
@@ -92,6 +97,8 @@ function rowOf(report: ReportJson, c: ReportJson['channels'][number]): string {
 		csvNumberCell(c.harmonics[1]?.rms),
 		csvNumberCell(pair?.lagDeg),
 		csvTextCell(limitsPass),
+		csvNumberCell(fl && fl.pst.length > 0 ? Math.max(...fl.pst.map((p) => p.pst ?? NaN)) : NaN),
+		csvNumberCell(fl?.pinst.max),
 	];
 	return cells.join(',');
 }

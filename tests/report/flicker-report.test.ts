@@ -6,6 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import type { Capture } from '../../lib/capture.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
+import { CSV_SUMMARY_COLUMNS, reportsToCsv } from '../../lib/report/csv-summary.js';
+import { reportToJson } from '../../lib/report/to-json.js';
 import { forEachChunk, type Modulation } from '../helpers/flicker-signals.js';
 
 function capture(fs: number, durationS: number, modulation: Modulation, rmsV = 230): Capture {
@@ -26,6 +28,14 @@ describe('analyseCapture: flicker', () => {
 		expect(f.pst).toEqual([]);
 		expect(Math.abs(f.pinst.max - 1)).toBeLessThan(0.05);
 		expect(r.flicker!.notes.join(' ')).toMatch(/not a Pst/);
+	});
+
+	it('the CSV summary of a 30 s record: pinstMax ≈ 1 (8.8 Hz, 0.25 % reference), pstMax empty (no Pst under 10 minutes)', () => {
+		const csv = reportsToCsv([reportToJson(analyseCapture(capture(3200, 30, { shape: 'sine', frequencyHz: 8.8, deltaVOverV: 0.0025 })))]);
+		const [, row] = csv.trim().split('\r\n');
+		const cells = row.split(',');
+		expect(cells[CSV_SUMMARY_COLUMNS.indexOf('pstMax')]).toBe('');
+		expect(Math.abs(Number(cells[CSV_SUMMARY_COLUMNS.indexOf('pinstMax')]) - 1)).toBeLessThan(0.05);
 	});
 
 	it('a 10-minute record of 7 changes/min at 1.459 % gives one Pst = 1.00 ± 5 % (Ed.2 Table 2, from memory)', () => {
