@@ -31,6 +31,8 @@ export const TREND_EXAMPLES: string[] = [
 	'sinecheck trend logger/week1.csv --nominal 230 > week1-trend.csv',
 	'# 10-minute aggregates with a 85 % dip threshold, as JSON',
 	'sinecheck trend incomer.cfg --interval 10-min --dip-percent 85 --json',
+	'# flicker: Pst per 10 minutes and Plt per 2 hours per voltage channel, flagged around dips',
+	'sinecheck trend logger/week1.csv --nominal 230 --interval flicker > week1-flicker.csv',
 ];
 
 export const EXIT_CODES =
