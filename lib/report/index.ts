@@ -19,3 +19,4 @@ export {
 } from './types.js';
 export { reportToJson, reportValueToJson, type ReportJson, type ReportJsonValue, type Jsonified } from './to-json.js';
 export { CSV_SUMMARY_COLUMNS, csvTextCell, csvNumberCell, csvSummaryHeader, csvSummaryRows, reportsToCsv } from './csv-summary.js';
+export { csvCell, startsLikeFormula } from './csv-cell.js';
