@@ -1,6 +1,6 @@
 /**
  * Worker thread entry (compiled to dist/src/cli/worker.js): analyses the units the main thread sends,
- * one message per unit, and answers with plain data.
+ * one message per unit, and answers with plain data. The main thread caps its heap and time (pool.ts).
  */
 import { parentPort } from 'node:worker_threads';
 import { analyseUnit } from './analyse-unit.js';

@@ -10,7 +10,9 @@
 import type { OpenOptions } from '../../../lib/io/open.js';
 import type { TrendInterval, TrendResult, TrendRow, TrendThresholds } from '../../../lib/trend/types.js';
 import { collectUnits } from '../collect-files.js';
-import { ERROR_PREFIX as PREFIX, errorLine } from '../error-line.js';
+import { ERROR_PREFIX as PREFIX, errorLine, problemLine } from '../error-line.js';
+import { regularFileProblem } from '../file-checks.js';
+import { printable, printableJson } from '../printable.js';
 import { UsageError } from '../usage-error.js';
 import { analyseFile, type AnalyserSettings } from './read-recording.js';
 import { csvHeader, csvRow, eventLine, trendJson } from './trend-output.js';
@@ -100,20 +102,28 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 		if (files.length === 0) throw new TrendUsageError('trend: give at least one recording file or folder');
 		parsed = settingsFrom(options);
 	} catch (e) {
-		err.write(`${PREFIX}${e instanceof Error ? e.message : String(e)}\n`);
+		err.write(`${printable(`${PREFIX}${e instanceof Error ? e.message : String(e)}`)}\n`);
 		return 2;
 	}
 	const { settings, interval } = parsed;
 	// Paths -> recordings: folders walked and COMTRADE companions grouped as `analyse` does; a path that
 	// does not exist is an error line of its own, and the others still run.
 	const recordings: string[] = [];
+	const unitFiles = new Map<string, string[]>();
 	let failed = 0;
 	for (const path of files) {
 		try {
-			const { units, skipped } = collectUnits([path]);
-			if (units.length === 0) throw new UsageError(`${path}: no recordings found in this folder (looked for .csv .tsv .txt .wav .cfg .cff)`);
-			if (skipped.length > 0) err.write(`note: skipped ${skipped.length} file(s) in ${path} that are not recordings (e.g. ${skipped[0]})\n`);
-			for (const u of units) recordings.push(u.files[0]);
+			const { units, skipped, problems } = collectUnits([path]);
+			for (const p of problems) {
+				failed++;
+				err.write(`${problemLine(p)}\n`);
+			}
+			if (units.length === 0 && problems.length === 0) throw new UsageError(`${path}: no recordings found in this folder (looked for .csv .tsv .txt .wav .cfg .cff)`);
+			if (skipped.length > 0) err.write(`${printable(`note: skipped ${skipped.length} file(s) in ${path} that are not recordings (e.g. ${skipped[0]})`)}\n`);
+			for (const u of units) {
+				recordings.push(u.files[0]);
+				unitFiles.set(u.files[0], u.files);
+			}
 		} catch (e) {
 			failed++;
 			err.write(`${trendErrorLine(e, path)}\n`);
@@ -124,6 +134,11 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	let headerFor = '';
 	for (const file of recordings) {
 		try {
+			// Only regular files are read (a FIFO would block the reader forever, a device never ends).
+			for (const f of unitFiles.get(file) ?? [file]) {
+				const refusal = regularFileProblem(f).message;
+				if (refusal !== undefined) throw new UsageError(f === file ? refusal : `${f}: ${refusal}`);
+			}
 			let pending: string[] = [];
 			const flush = () => {
 				if (pending.length > 0) out.write(pending.join(''));
@@ -135,7 +150,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 						const now = Date.now();
 						if (now - lastDraw < 250) return;
 						lastDraw = now;
-						err.write(`\r${file}: ${(100 * f).toFixed(0)} %\x1b[K`);
+						err.write(`\r${printable(file)}: ${(100 * f).toFixed(0)} %\x1b[K`);
 					}
 				: undefined;
 			const result: TrendResult = analyseFile(
@@ -165,15 +180,15 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 			);
 			flush();
 			if (tty) err.write('\r\x1b[K');
-			for (const d of result.diagnostics) err.write(`${file}: ${d.severity}: ${d.message}\n`);
+			for (const d of result.diagnostics) err.write(`${printable(`${file}: ${d.severity}: ${d.message}`)}\n`);
 			if (options.json) docs.push(trendJson(file, result));
-			else for (const e of result.events) err.write(`${file}: ${eventLine(e, result.declaredV)}\n`);
+			else for (const e of result.events) err.write(`${printable(`${file}: ${eventLine(e, result.declaredV)}`)}\n`);
 		} catch (e) {
 			if (tty) err.write('\r\x1b[K');
 			failed++;
 			err.write(`${trendErrorLine(e, file)}\n`);
 		}
 	}
-	if (options.json && docs.length > 0) out.write(`${JSON.stringify(several ? docs : docs[0], null, 1)}\n`);
+	if (options.json && docs.length > 0) out.write(`${printableJson(JSON.stringify(several ? docs : docs[0], null, 1))}\n`);
 	return failed > 0 ? 2 : 0;
 }
