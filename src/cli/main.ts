@@ -59,7 +59,7 @@ cli
 	.option('--meter-range-a <A>', 'Next steps: full scale of the current range used on the meter')
 	.option('--meter-response <kind>', 'Next steps: how the meter responds: true-rms or average (average-responding, calibrated on a sine)')
 	.option('--whole-record', 'Time-domain figures over every sample instead of whole cycles')
-	.option('--jobs <n>', 'Worker threads (default: one per core, up to 8; 0 = analyse in this thread, without the time and memory limits)')
+	.option('--jobs <n>', 'Files analysed at once, each in a helper process (default: one per core, up to 8; 0 = in this process, without the time and memory limits)')
 	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
 	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine shared among the workers)')
 	.option('--quiet', 'With --json/--csv: do not repeat the assumptions on stderr')

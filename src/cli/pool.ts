@@ -1,16 +1,16 @@
 /**
- * Runs analysis units on worker threads (node:worker_threads), at most `jobs` at a time, and hands back
- * each result as it completes. Each worker has a heap cap (resourceLimits) and each unit a time limit:
- * a unit that crashes its worker, runs out of memory or runs out of time becomes that unit's error line,
- * the worker is replaced, and the other units carry on. The worker is the compiled dist/src/cli/worker.js
- * beside this file; when it is absent (running from TypeScript sources) or `jobs` is 0, units run in
- * this thread instead, without those limits.
+ * Runs analysis units in helper processes (node:child_process fork), at most `jobs` at a time, and hands
+ * back each result as it completes. Each helper has a heap cap (--max-old-space-size) and each unit a
+ * time limit: a unit that crashes its helper, runs out of memory or runs out of time becomes that unit's
+ * error line, the helper is replaced, and the other units carry on. The helper is the compiled
+ * dist/src/cli/worker.js beside this file; when it is absent (running from TypeScript sources) or `jobs`
+ * is 0, units run in this process instead, without those limits.
  */
+import { fork, type ChildProcess } from 'node:child_process';
 import { existsSync, statSync } from 'node:fs';
 import { totalmem } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { getHeapStatistics } from 'node:v8';
-import { Worker } from 'node:worker_threads';
 import type { UnitResult } from './analyse-unit.js';
 import type { AnalysisUnit } from './collect-files.js';
 import { bytesWords } from './file-checks.js';
@@ -26,7 +26,7 @@ export function workerAvailable(): boolean {
 
 /** Limits on one unit's analysis in a worker. */
 export interface UnitLimits {
-	/** Heap (V8 old generation) a worker may use, MiB. */
+	/** Heap (V8 old generation) a helper process may use, MiB. */
 	heapMiB: number;
 	/** Fixed time limit per unit in s; undefined = the default, which grows with the unit's size. */
 	timeLimitS?: number;
@@ -67,22 +67,47 @@ function failure(unit: AnalysisUnit, message: string): UnitResult {
 	return { files: unit.files, reports: [], problems: [{ file: unit.files[0], code: 'stopped', message }] };
 }
 
-/** One worker thread, replaced after any unit that crashes it, exhausts its heap or runs out of time. */
+/** The tail of a helper's stderr kept for SINECHECK_DEBUG (V8 prints its fatal errors there). */
+const STDERR_TAIL_BYTES = 2048;
+
+/**
+ * One helper process, replaced after any unit that crashes it, exhausts its heap or runs out of time.
+ * A process, not a worker thread: a V8 fatal out-of-memory error in a worker thread aborts the whole
+ * process even under resourceLimits (seen with Node 20 when one array grows past the cap), so only a
+ * separate process keeps one file's failure from ending the batch.
+ */
 class Slot {
-	private worker: Worker | undefined;
+	private child: ChildProcess | undefined;
+	private stderrTail = '';
 	constructor(
 		private readonly settings: CommandSettings,
 		private readonly limits: UnitLimits,
 	) {}
 
-	private spawn(): Worker {
-		const w = new Worker(workerUrl, { resourceLimits: { maxOldGenerationSizeMb: this.limits.heapMiB } });
-		w.on('error', () => {}); // each run() listens itself; an error between units must not reach the process
-		return w;
+	private spawn(): ChildProcess {
+		const child = fork(fileURLToPath(workerUrl), [], {
+			execArgv: [`--max-old-space-size=${this.limits.heapMiB}`],
+			serialization: 'advanced',
+			stdio: ['ignore', 'ignore', 'pipe', 'ipc'],
+		});
+		this.stderrTail = '';
+		child.stderr?.setEncoding('utf8');
+		child.stderr?.on('data', (t: string) => (this.stderrTail = (this.stderrTail + t).slice(-STDERR_TAIL_BYTES)));
+		child.on('error', () => {}); // each run() listens itself; an error between units must not reach this process
+		return child;
+	}
+
+	private stoppedWords(code: number | null, signal: NodeJS.Signals | null): string {
+		const oom = /heap out of memory|Reached heap limit|Allocation failed|invalid table size|invalid array length/i.test(this.stderrTail);
+		const words = oom
+			? `could not analyse: the analysis needed more than the ${bytesWords(this.limits.heapMiB * 2 ** 20)} of memory one file may use (--memory-limit); for long recordings use \`sinecheck trend\``
+			: 'could not analyse: the analysis of this file stopped unexpectedly (a fault in sinecheck: please report it with the file)';
+		const last = this.stderrTail.trim().split('\n').filter((l) => /\S/.test(l)).slice(-1)[0] ?? '';
+		return words + (process.env.SINECHECK_DEBUG ? ` [detail: exit ${code ?? signal}: ${last}]` : '');
 	}
 
 	run(id: number, unit: AnalysisUnit): Promise<UnitResult> {
-		const w = (this.worker ??= this.spawn());
+		const child = (this.child ??= this.spawn());
 		const limitS = timeLimitS(unit, this.limits);
 		return new Promise((resolve) => {
 			let done = false;
@@ -90,39 +115,37 @@ class Slot {
 				if (done) return;
 				done = true;
 				clearTimeout(timer);
-				w.off('message', onMessage).off('error', onError).off('exit', onExit);
+				child.off('message', onMessage).off('exit', onExit).off('error', onError);
 				if (broken) {
-					this.worker = undefined;
-					void w.terminate();
+					this.child = undefined;
+					child.kill('SIGKILL');
 				}
 				resolve(result);
 			};
 			const onMessage = (msg: { id: number; result: UnitResult }) => {
 				if (msg.id === id) finish(msg.result, false);
 			};
-			const onError = (e: Error & { code?: string }) => {
-				const words =
-					e.code === 'ERR_WORKER_OUT_OF_MEMORY'
-						? `could not analyse: the analysis needed more than the ${bytesWords(this.limits.heapMiB * 2 ** 20)} of memory one file may use (--memory-limit); for long recordings use \`sinecheck trend\``
-						: 'could not analyse: the analysis of this file stopped unexpectedly (a fault in sinecheck: please report it with the file)';
-				const debug = process.env.SINECHECK_DEBUG ? ` [detail: ${e.code ?? e.name}: ${e.message}]` : '';
-				finish(failure(unit, words + debug), true);
+			// stderr may still be arriving when the process exits: read it once the pipe has closed.
+			const onExit = (code: number | null, signal: NodeJS.Signals | null) => {
+				const report = () => finish(failure(unit, this.stoppedWords(code, signal)), true);
+				if (child.stderr && !child.stderr.readableEnded) child.stderr.once('close', report);
+				else report();
 			};
-			const onExit = (code: number) => finish(failure(unit, `could not analyse: the analysis of this file stopped unexpectedly (exit code ${code})`), true);
+			const onError = () => finish(failure(unit, 'could not analyse: the helper process for this file could not be started or reached'), true);
 			const timer = setTimeout(
 				() => finish(failure(unit, `could not analyse: gave up after ${Math.round(limitS)} s, the time one file may take (--time-limit); the file may be damaged, or use \`sinecheck trend\` for long recordings`), true),
 				limitS * 1000,
 			);
-			w.on('message', onMessage).on('error', onError).on('exit', onExit);
+			child.on('message', onMessage).on('exit', onExit).on('error', onError);
 			const req: WorkRequest = { id, files: unit.files, settings: this.settings };
-			w.postMessage(req);
+			child.send(req);
 		});
 	}
 
-	async close(): Promise<void> {
-		const w = this.worker;
-		this.worker = undefined;
-		if (w) await w.terminate();
+	close(): void {
+		const c = this.child;
+		this.child = undefined;
+		if (c && c.exitCode === null) c.disconnect();
 	}
 }
 
@@ -155,7 +178,7 @@ export async function runUnits(
 				onResult(i, await slot.run(i, units[i]));
 			}
 		} finally {
-			await slot.close();
+			slot.close();
 		}
 	};
 	await Promise.all(Array.from({ length: Math.min(jobs, units.length) }, drain));

@@ -1,8 +1,8 @@
 /**
- * Worker thread entry (compiled to dist/src/cli/worker.js): analyses the units the main thread sends,
- * one message per unit, and answers with plain data. The main thread caps its heap and time (pool.ts).
+ * Helper process entry (compiled to dist/src/cli/worker.js, started by pool.ts with fork): analyses the
+ * units the parent sends, one message per unit, and answers with plain data. The parent caps its heap
+ * and its time per unit; when the parent goes away, so does the helper.
  */
-import { parentPort } from 'node:worker_threads';
 import { analyseUnit } from './analyse-unit.js';
 import type { CommandSettings } from './options.js';
 
@@ -12,7 +12,8 @@ export interface WorkRequest {
 	settings: CommandSettings;
 }
 
-parentPort?.on('message', (req: WorkRequest) => {
+process.on('message', (req: WorkRequest) => {
 	const result = analyseUnit(req.files, req.settings);
-	parentPort?.postMessage({ id: req.id, result });
+	process.send?.({ id: req.id, result });
 });
+process.on('disconnect', () => process.exit(0));
