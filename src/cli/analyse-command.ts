@@ -12,7 +12,7 @@ import { collectUnits } from './collect-files.js';
 import { nextStepsCsvRows, NEXT_STEPS_CSV_COLUMNS } from '../../lib/next-steps/csv.js';
 import { formatNextSteps } from './format-next-steps.js';
 import { formatReport } from './format-table.js';
-import { settingsFromOptions, type RawOptions } from './options.js';
+import { limitsFrom, settingsFromOptions, type RawOptions } from './options.js';
 import { defaultHeapMiB, runUnits } from './pool.js';
 import { printable, printableJson } from './printable.js';
 import { progressBar } from './progress.js';
@@ -34,22 +34,6 @@ function jobsFrom(raw: unknown, units: number): number {
 	const n = Number(raw);
 	if (!Number.isInteger(n) || n < 0) throw new UsageError(`--jobs ${String(raw)}: expected a whole number, 0 to analyse in this thread`);
 	return n;
-}
-
-/** --time-limit and --memory-limit as numbers, or UsageError. */
-function limitsFrom(time: unknown, memory: unknown): { timeLimitS?: number; heapMiB?: number } {
-	const out: { timeLimitS?: number; heapMiB?: number } = {};
-	if (time !== undefined) {
-		const s = Number(time);
-		if (!Number.isFinite(s) || s <= 0) throw new UsageError(`--time-limit ${String(time)}: expected the seconds one file may take (a number above 0)`);
-		out.timeLimitS = s;
-	}
-	if (memory !== undefined) {
-		const m = Number(memory);
-		if (!Number.isInteger(m) || m < 64) throw new UsageError(`--memory-limit ${String(memory)}: expected the MiB of memory one file may use (a whole number, at least 64)`);
-		out.heapMiB = m;
-	}
-	return out;
 }
 
 export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = stdio): Promise<number> {

@@ -3,7 +3,7 @@
 import { cac } from 'cac';
 import { fsErrorWords } from './file-checks.js';
 import { ANALYSE_EXAMPLES, EXIT_CODES, SAFETY_CAUTION, TREND_EXAMPLES, wrap } from './help-text.js';
-import { settingsFromOptions } from './options.js';
+import { limitsFrom, settingsFromOptions } from './options.js';
 import { printable } from './printable.js';
 import { UsageError } from './usage-error.js';
 
@@ -87,6 +87,8 @@ cli
 	.option('--scale <channel=factor>', 'Multiply a channel by a factor (CSV files); repeatable', { type: [String] })
 	.option('--unit <channel=unit>', 'Set the unit of a channel (CSV files); repeatable', { type: [String] })
 	.option('--quantity <channel=kind>', 'Say what a channel measures (CSV files); repeatable', { type: [String] })
+	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
+	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine)')
 	.action(async (given: string[], options: Record<string, unknown>) => {
 		const files = withAfterDashes(given, options);
 		const settings = settingsFromOptions({ rate: options.rate, scale: options.scale, unit: options.unit, quantity: options.quantity }).import;
@@ -97,6 +99,7 @@ cli
 		const { importOptionsFrom } = await import('./import-settings.js');
 		const { trendCommand } = await import('./trend/index.js');
 		const open = importOptionsFrom(settings);
+		const limits = limitsFrom(options.timeLimit, options.memoryLimit);
 		process.exitCode = await trendCommand(files, {
 			json: options.json === true,
 			interval: options.interval === undefined ? undefined : String(options.interval),
@@ -109,6 +112,8 @@ cli
 			thd: options.thd !== false,
 			harmonics: options.harmonics === true,
 			open,
+			timeLimitS: limits.timeLimitS,
+			memoryLimitMiB: limits.heapMiB,
 		});
 	});
 

@@ -145,6 +145,10 @@ beforeAll(async () => {
 	writeFileSync(join(dir, 'huge.csv'), '');
 	truncateSync(join(dir, 'huge.csv'), 2 ** 31 + 4096);
 	writeCsvCapture(join(dir, '-x.csv'), U1, SINE);
+	// A 50 Hz sine whose time stamps jump by 1e6 s halfway (the 10-s frequency loop's hardest case).
+	const jump = ['t (s),U1 (V)'];
+	for (let k = 0; k < 2000; k++) jump.push(`${(k / 1e4 + (k >= 1000 ? 1e6 : 0)).toFixed(4)},${(325 * Math.sin((2 * Math.PI * 50 * k) / 1e4)).toFixed(3)}`);
+	writeFileSync(join(dir, 'jump.csv'), jump.join('\n') + '\n');
 	// Formula-like channel names (CSV-injection cases).
 	const attack = comtradeSpec('-1+T("', `")+cmd|' /C calc'!A0+T(""`);
 	writeFileSync(join(dir, 'attack.cfg'), comtradeCfgText(attack));
@@ -180,6 +184,13 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 		expect(r.stderr).toMatch(/^sinecheck: folder-dat\.dat: a folder, not a regular file/m);
 		expect(reportsByFile(r.stdout).has('batch/a-good.csv')).toBe(true);
 		expect(r.stderr).toMatch(/^analysed 1 capture\(s\) from 4 file set\(s\); 3 with errors/m);
+	}, 60_000);
+
+	it('trend <time stamps jumping by 1e6 s> <good> <good>: the good files trended, the bad one a located line, no crash', async () => {
+		const r = await runCli(['trend', 'jump.csv', 'batch/a-good.csv', 'batch/z-good.csv', '--nominal', '230', ...CAPS]);
+		expectClean(r);
+		for (const good of ['batch/a-good.csv', 'batch/z-good.csv']) expect(r.stdout).toMatch(new RegExp(`^${good.replace(/[.]/g, '\\.')},10/12-cycle,`, 'm'));
+		expect(r.stdout.includes('\njump.csv,') || errorLineFor(r.stderr, 'jump.csv') !== undefined).toBe(true);
 	}, 60_000);
 
 	it('trend <fifo> /dev/zero: a clear line for each, exit 2, no hang', async () => {
@@ -263,7 +274,7 @@ const generatedFile = fc.oneof(
 
 describe('sinecheck on generated files (fast-check)', () => {
 	let round = 0;
-	it('analyse <folder of generated files> gives each a report or a located error line, then the summary; never a crash or a hang', async () => {
+	it('analyse and trend <folder of generated files> give each file a report (trend: rows or notes) or a located error line; never a crash or a hang', async () => {
 		await fc.assert(
 			fc.asyncProperty(fc.array(generatedFile, { minLength: 4, maxLength: 8 }), async (files) => {
 				const folder = join(dir, `gen-${round++}`);
@@ -282,6 +293,14 @@ describe('sinecheck on generated files (fast-check)', () => {
 					expect(answered, `${name}\n${r.stderr}`).toBe(true);
 				}
 				expect(r.stderr).toMatch(/^analysed \d+ capture\(s\) from \d+ file set\(s\)/m);
+				const t = await runCli(['trend', folder.slice(dir.length + 1), ...CAPS]);
+				expectClean(t);
+				for (const name of names) {
+					const datName = name.replace(/\.cfg$/, '.dat');
+					const trended = t.stdout.includes(`\n${name},`) || t.stderr.split('\n').some((l) => l.startsWith(`${name}: `));
+					const answered = trended || errorLineFor(t.stderr, name) !== undefined || errorLineFor(t.stderr, datName) !== undefined;
+					expect(answered, `trend ${name}\n${t.stderr}`).toBe(true);
+				}
 			}),
 			{ numRuns: 3, endOnFailure: true },
 		);

@@ -8,14 +8,16 @@
  * Returns the exit code: 0 ok, 2 usage or input error.
  */
 import type { OpenOptions } from '../../../lib/io/open.js';
-import type { TrendInterval, TrendResult, TrendRow, TrendThresholds } from '../../../lib/trend/types.js';
+import type { TrendInterval, TrendThresholds } from '../../../lib/trend/types.js';
 import { collectUnits } from '../collect-files.js';
 import { ERROR_PREFIX as PREFIX, errorLine, problemLine } from '../error-line.js';
 import { regularFileProblem } from '../file-checks.js';
 import { printable, printableJson } from '../printable.js';
 import { UsageError } from '../usage-error.js';
-import { analyseFile, type AnalyserSettings } from './read-recording.js';
-import { csvHeader, csvRow, eventLine, trendJson } from './trend-output.js';
+import { defaultHeapMiB, helperAvailable, HelperProcess, timeLimitFor } from '../helper-process.js';
+import type { AnalyserSettings } from './read-recording.js';
+import { trendFile, type TrendJob, type TrendMessage, type TrendSink } from './trend-file.js';
+import { csvHeader } from './trend-output.js';
 
 export interface TrendCommandOptions {
 	/** Declared voltage Udin in V (line-to-neutral when the channels are). Inferred when absent. */
@@ -37,6 +39,12 @@ export interface TrendCommandOptions {
 	harmonics?: boolean;
 	/** Importer options (calibration, CSV layout...) prepared by the caller. */
 	open?: OpenOptions;
+	/** Seconds one file may take (default: 60 s plus 1 s per MiB); only when files run in a helper process. */
+	timeLimitS?: number;
+	/** Heap one file may use, MiB (default: up to half the machine); only in a helper process. */
+	memoryLimitMiB?: number;
+	/** Trend in this process, without the time and memory limits of a helper process. */
+	inProcess?: boolean;
 	/** Output streams (tests); default process.stdout / process.stderr. */
 	stdout?: NodeJS.WritableStream;
 	stderr?: NodeJS.WritableStream & { isTTY?: boolean };
@@ -92,6 +100,29 @@ function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSetting
 	};
 }
 
+/**
+ * Trends one file in a helper process: its pieces arrive as messages and go to `sink`. Resolves
+ * undefined when the file was trended, or its error line (an import error, a crash, out of memory, time).
+ */
+async function trendInHelper(helper: HelperProcess, job: TrendJob, sink: TrendSink, limitS: number): Promise<string | undefined> {
+	let line: string | undefined;
+	const stopped = await helper.run(
+		{ kind: 'trend', job },
+		(msg) => {
+			const m = msg as TrendMessage;
+			if (m.t === 'channels') sink.channels(m.specs);
+			else if (m.t === 'rows') sink.rows(m.text);
+			else if (m.t === 'progress') sink.progress(m.fraction);
+			else if (m.t === 'notes') sink.notes(m.lines);
+			else if (m.t === 'doc') sink.doc(m.doc);
+			else if (m.t === 'error') line = m.line;
+			return m.t === 'done' || m.t === 'error';
+		},
+		limitS,
+	);
+	return stopped === undefined ? line : `${problemLine({ file: job.file, code: 'stopped', message: stopped })}`;
+}
+
 /** Runs the trend command over `files`; see the module comment. */
 export async function trendCommand(files: string[], options: TrendCommandOptions = {}): Promise<number> {
 	const out = options.stdout ?? process.stdout;
@@ -132,62 +163,50 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	const several = recordings.length > 1;
 	const docs: unknown[] = [];
 	let headerFor = '';
-	for (const file of recordings) {
-		try {
-			// Only regular files are read (a FIFO would block the reader forever, a device never ends).
-			for (const f of unitFiles.get(file) ?? [file]) {
-				const refusal = regularFileProblem(f).message;
-				if (refusal !== undefined) throw new UsageError(f === file ? refusal : `${f}: ${refusal}`);
+	let recordingNow = '';
+	const sink: TrendSink = {
+		channels: (chs) => {
+			const header = csvHeader(chs, several, settings.harmonics === true);
+			if (!options.json && header !== headerFor) out.write(header);
+			headerFor = header;
+		},
+		rows: (text) => void out.write(text),
+		progress: (f) => void err.write(`\r${printable(recordingNow)}: ${(100 * f).toFixed(0)} %\x1b[K`),
+		notes: (lines) => {
+			if (tty) err.write('\r\x1b[K');
+			for (const l of lines) err.write(`${printable(l)}\n`);
+		},
+		doc: (d) => void docs.push(d),
+	};
+	const useHelper = options.inProcess !== true && helperAvailable();
+	const helper = useHelper ? new HelperProcess(options.memoryLimitMiB ?? defaultHeapMiB(1)) : undefined;
+	try {
+		for (const file of recordings) {
+			recordingNow = file;
+			const job: TrendJob = { file, open: options.open ?? {}, settings, json: options.json === true, interval, several, progress: tty };
+			let line: string | undefined;
+			try {
+				// Only regular files are read (a FIFO would block the reader forever, a device never ends).
+				const parts = unitFiles.get(file) ?? [file];
+				let bytes = 0;
+				for (const f of parts) {
+					const check = regularFileProblem(f);
+					if (check.message !== undefined) throw new UsageError(f === file ? check.message : `${f}: ${check.message}`);
+					bytes += check.size;
+				}
+				if (helper) line = await trendInHelper(helper, job, sink, timeLimitFor(bytes, options.timeLimitS));
+				else trendFile(job, sink);
+			} catch (e) {
+				line = trendErrorLine(e, file);
 			}
-			let pending: string[] = [];
-			const flush = () => {
-				if (pending.length > 0) out.write(pending.join(''));
-				pending = [];
-			};
-			let lastDraw = 0;
-			const onProgress = tty
-				? (f: number) => {
-						const now = Date.now();
-						if (now - lastDraw < 250) return;
-						lastDraw = now;
-						err.write(`\r${printable(file)}: ${(100 * f).toFixed(0)} %\x1b[K`);
-					}
-				: undefined;
-			const result: TrendResult = analyseFile(
-				file,
-				file,
-				options.open ?? {},
-				{
-					...settings,
-					// CSV rows go out as they are measured, so nothing accumulates; JSON keeps them all.
-					keep: options.json ? undefined : { cycles10: false, cycles150: false, min10: false },
-					onRow: options.json
-						? undefined
-						: (row) => {
-								if (row.interval !== interval) return;
-								pending.push(csvRow(row, several ? file : undefined));
-								if (pending.length >= 256) flush();
-							},
-				},
-				{
-					onProgress,
-					onChannels: (chs) => {
-						const header = csvHeader(chs, several, settings.harmonics === true);
-						if (!options.json && header !== headerFor) pending.push(header);
-						headerFor = header;
-					},
-				},
-			);
-			flush();
-			if (tty) err.write('\r\x1b[K');
-			for (const d of result.diagnostics) err.write(`${printable(`${file}: ${d.severity}: ${d.message}`)}\n`);
-			if (options.json) docs.push(trendJson(file, result));
-			else for (const e of result.events) err.write(`${printable(`${file}: ${eventLine(e, result.declaredV)}`)}\n`);
-		} catch (e) {
-			if (tty) err.write('\r\x1b[K');
-			failed++;
-			err.write(`${trendErrorLine(e, file)}\n`);
+			if (line !== undefined) {
+				if (tty) err.write('\r\x1b[K');
+				failed++;
+				err.write(`${line}\n`);
+			}
 		}
+	} finally {
+		helper?.close();
 	}
 	if (options.json && docs.length > 0) out.write(`${printableJson(JSON.stringify(several ? docs : docs[0], null, 1))}\n`);
 	return failed > 0 ? 2 : 0;
