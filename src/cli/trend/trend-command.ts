@@ -16,7 +16,7 @@ import { printable, printableJson } from '../printable.js';
 import { UsageError } from '../usage-error.js';
 import { defaultHeapMiB, helperAvailable, HelperProcess, timeLimitFor } from '../helper-process.js';
 import type { AnalyserSettings } from './read-recording.js';
-import { trendFile, type TrendJob, type TrendMessage, type TrendSink } from './trend-file.js';
+import type { TrendJob, TrendMessage, TrendSink } from './trend-file.js';
 import { csvHeader } from './trend-output.js';
 
 export interface TrendCommandOptions {
@@ -195,7 +195,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 					bytes += check.size;
 				}
 				if (helper) line = await trendInHelper(helper, job, sink, timeLimitFor(bytes, options.timeLimitS));
-				else trendFile(job, sink);
+				else (await import('./trend-file.js')).trendFile(job, sink); // the signal library loads only here or in a helper
 			} catch (e) {
 				line = trendErrorLine(e, file);
 			}
