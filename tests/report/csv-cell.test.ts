@@ -6,6 +6,8 @@
  * some spreadsheets fold them to ASCII). RFC 4180 section 2 rules 6-7 for quoting; papaparse (npm) reads
  * the written fields back as an independent RFC 4180 reader.
  */
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join } from 'node:path';
 import fc from 'fast-check';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
@@ -130,5 +132,20 @@ describe('CSV writers use the guard', () => {
 		const cells = Papa.parse<string[]>(lines[1]).data[0];
 		expect(cells[0]).toBe(`'\uFF1Dx.csv`);
 		expect(cells[1]).toBe(`'\uFF1D1+1`);
+	});
+});
+
+describe('one guard for every CSV writer', () => {
+	/** Every .ts and .svelte file under `dir`. */
+	function sources(dir: string): string[] {
+		return readdirSync(dir).flatMap((n) => {
+			const p = join(dir, n);
+			return statSync(p).isDirectory() ? sources(p) : /\.(ts|svelte)$/.test(n) ? [p] : [];
+		});
+	}
+
+	it('no file in lib/ or src/ but csv-cell.ts carries its own formula-character pattern (a leading = + - @ class)', () => {
+		const own = sources('lib').concat(sources('src')).filter((p) => !p.endsWith(join('report', 'csv-cell.ts')) && /\[\^?=\+\\?-@|\^\[=\+/.test(readFileSync(p, 'utf8')));
+		expect(own).toEqual([]);
 	});
 });
