@@ -42,11 +42,28 @@ export function defaultHeapMiB(helpers: number): number {
 /** The tail of a helper's stderr kept to tell out-of-memory from other crashes (V8 prints its fatal errors there). */
 const STDERR_TAIL_BYTES = 2048;
 
-/** Helpers alive now: killed if this process exits first (e.g. stdout closed early), so none is left running. */
+/**
+ * Helpers alive now: killed when this process exits or is stopped by a signal first (stdout closed early,
+ * `timeout`, Ctrl-C), so none is left running: a helper in the middle of a file cannot notice its
+ * parent is gone.
+ */
 const live = new Set<ChildProcess>();
-process.on('exit', () => {
+const killLive = () => {
 	for (const c of live) c.kill('SIGKILL');
-});
+};
+let hooked = false;
+function hookExit(): void {
+	if (hooked) return;
+	hooked = true;
+	process.on('exit', killLive);
+	// A signal ends this process with the usual 128 + signal number, after the helpers.
+	for (const [signal, n] of [['SIGINT', 2], ['SIGTERM', 15], ['SIGHUP', 1]] as const) {
+		process.once(signal, () => {
+			killLive();
+			process.exit(128 + n);
+		});
+	}
+}
 
 export class HelperProcess {
 	private child: ChildProcess | undefined;
@@ -66,6 +83,7 @@ export class HelperProcess {
 			serialization: 'advanced',
 			stdio: ['ignore', 'ignore', 'pipe', 'ipc'],
 		});
+		hookExit();
 		live.add(child);
 		child.on('exit', () => live.delete(child));
 		this.stderrTail = '';

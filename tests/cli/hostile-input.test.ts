@@ -48,7 +48,7 @@ interface Run {
  * Runs the built CLI with the caps above. `closeStdoutAfter` closes our end of its stdout after that
  * many bytes (like `| head -c N`). `uid` runs it as another user (when this test runs as root).
  */
-function runCli(args: string[], opts: { closeStdoutAfter?: number; uid?: number } = {}): Promise<Run> {
+function runCli(args: string[], opts: { closeStdoutAfter?: number; uid?: number; termAfterMs?: number } = {}): Promise<Run & { leftInGroup: string }> {
 	const node = [process.execPath, `--max-old-space-size=${MAIN_HEAP_MIB}`, mainJs, ...args];
 	const cmd = hasPrlimit ? ['prlimit', `--as=${ADDRESS_SPACE_BYTES}`, ...node] : node;
 	const t0 = Date.now();
@@ -66,9 +66,17 @@ function runCli(args: string[], opts: { closeStdoutAfter?: number; uid?: number 
 			timedOut = true;
 			process.kill(-child.pid!, 'SIGKILL'); // the whole group: the CLI and its helper processes
 		}, WALL_LIMIT_MS);
+		const term = opts.termAfterMs === undefined ? undefined : setTimeout(() => child.kill('SIGTERM'), opts.termAfterMs);
 		child.on('close', (code, signal) => {
 			clearTimeout(timer);
-			resolve({ code, signal, stdout, stderr, timedOut, ms: Date.now() - t0 });
+			clearTimeout(term);
+			// Processes still in the CLI's process group (helpers left behind), then none are left for later tests.
+			const left = spawnSync('ps', ['-eo', 'pgid=,pid=,args='], { encoding: 'utf8' })
+				.stdout.split('\n')
+				.filter((l) => l.trim().split(/\s+/)[0] === String(child.pid) && !l.includes('<defunct>')) // a zombie is already dead
+				.join('\n');
+			if (left !== '') process.kill(-child.pid!, 'SIGKILL');
+			resolve({ code, signal, stdout, stderr, timedOut, ms: Date.now() - t0, leftInGroup: left });
 		});
 	});
 }
@@ -199,6 +207,13 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 		expect(r.code).toBe(2);
 		expect(errorLineFor(r.stderr, 'pipe.csv')).toMatch(/named pipe \(FIFO\)/);
 		expect(errorLineFor(r.stderr, '/dev/zero')).toMatch(/character device/);
+	}, 60_000);
+
+	it('analyse <file> stopped with SIGTERM mid-file leaves no helper process running', async () => {
+		const r = await runCli(['analyse', 'batch/e-extreme.csv', '--time-limit', '40'], { termAfterMs: 3000 });
+		expect(r.timedOut).toBe(false);
+		expect(r.code).toBe(143); // 128 + SIGTERM (15), common practice for a command ended by a signal
+		expect(r.leftInGroup).toBe('');
 	}, 60_000);
 
 	it('analyse <file over 2 GiB> is refused before reading, naming the 2 GiB limit and `sinecheck trend`', async () => {
