@@ -29,7 +29,7 @@ afterAll(() => {
 
 /** Caps on every run: the main process heap, each file's helper heap, the address space, the wall clock. */
 const MAIN_HEAP_MIB = 256;
-const FILE_HEAP_MIB = 160;
+const FILE_HEAP_MIB = 96;
 const ADDRESS_SPACE_BYTES = 3 * 2 ** 30;
 const WALL_LIMIT_MS = 45_000;
 const hasPrlimit = spawnSync('prlimit', ['--version']).status === 0;
