@@ -1,12 +1,8 @@
 /**
- * One summary row per channel per file, for spreadsheets. Text cells are guarded against formula
- * injection: a spreadsheet treats a cell beginning with = + - @ (or a tab or carriage return, which some
- * programs strip before looking) as a formula, so such cells get a leading apostrophe and are quoted.
- *
- * Ref: OWASP "CSV Injection" guidance (common practice; from memory): prefix with a single quote and
- * wrap in double quotes. Quoting itself follows RFC 4180 (fields with comma, quote, CR or LF are quoted,
- * quotes doubled).
+ * One summary row per channel per file, for spreadsheets. Every text cell goes through the shared
+ * formula guard and RFC 4180 quoting of csv-cell.ts.
  */
+import { csvCell, csvNumberCell } from './csv-cell.js';
 import type { ReportJson } from './to-json.js';
 
 /** Column names of the CSV summary, in order (SI units; names follow the JSON contract). */
@@ -39,18 +35,12 @@ export const CSV_SUMMARY_COLUMNS = [
 	'pinstMax',
 ] as const;
 
-/** A text cell made safe for spreadsheets and quoted per RFC 4180 when needed. */
+/** A text cell made safe for spreadsheets and quoted per RFC 4180 when needed (see csv-cell.ts). */
 export function csvTextCell(text: string): string {
-	let t = text;
-	if (/^[=+\-@\t\r]/.test(t)) t = `'${t}`;
-	if (t !== text || /[",\r\n]/.test(t)) return `"${t.replace(/"/g, '""')}"`;
-	return t;
+	return csvCell(text);
 }
 
-/** A numeric cell: shortest round-trip decimal; empty for NaN/Infinity (the data could not give it). */
-export function csvNumberCell(value: number | null | undefined): string {
-	return typeof value === 'number' && Number.isFinite(value) ? String(value) : '';
-}
+export { csvNumberCell };
 
 /** The header line of the CSV summary (no line end). */
 export function csvSummaryHeader(): string {

@@ -20,3 +20,4 @@ export {
 export { reportToJson, reportValueToJson, type ReportJson, type ReportJsonValue, type Jsonified } from './to-json.js';
 export { CSV_SUMMARY_COLUMNS, csvTextCell, csvNumberCell, csvSummaryHeader, csvSummaryRows, reportsToCsv } from './csv-summary.js';
 export { flickerReport, type ReportFlicker, type ReportFlickerChannel } from './flicker-report.js';
+export { csvCell, startsLikeFormula } from './csv-cell.js';

@@ -6,13 +6,15 @@
 import { availableParallelism } from 'node:os';
 import { csvSummaryHeader, csvSummaryRows } from '../../lib/report/csv-summary.js';
 import type { ReportJson } from '../../lib/report/to-json.js';
-import { problemText, type UnitResult } from './analyse-unit.js';
+import type { UnitResult } from './analyse-unit.js';
+import { problemLine as problemText } from './error-line.js';
 import { collectUnits } from './collect-files.js';
 import { nextStepsCsvRows, NEXT_STEPS_CSV_COLUMNS } from '../../lib/next-steps/csv.js';
 import { formatNextSteps } from './format-next-steps.js';
 import { formatReport } from './format-table.js';
-import { settingsFromOptions, type RawOptions } from './options.js';
-import { runUnits } from './pool.js';
+import { limitsFrom, settingsFromOptions, type RawOptions } from './options.js';
+import { defaultHeapMiB, runUnits } from './pool.js';
+import { printable, printableJson } from './printable.js';
 import { progressBar } from './progress.js';
 import { UsageError } from './usage-error.js';
 
@@ -27,7 +29,8 @@ const stdio: Io = {
 };
 
 function jobsFrom(raw: unknown, units: number): number {
-	if (raw === undefined) return units > 1 ? Math.min(availableParallelism(), units, 8) : 0;
+	// One file runs in a worker too: its heap and time limits keep a hostile file from taking the machine.
+	if (raw === undefined) return Math.max(1, Math.min(availableParallelism(), units, 8));
 	const n = Number(raw);
 	if (!Number.isInteger(n) || n < 0) throw new UsageError(`--jobs ${String(raw)}: expected a whole number, 0 to analyse in this thread`);
 	return n;
@@ -37,21 +40,23 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 	if (raw.json && raw.csv) throw new UsageError('--json and --csv cannot be used together');
 	const settings = settingsFromOptions(raw);
 	if (paths.length === 0) throw new UsageError('name at least one capture file or folder, e.g. sinecheck analyse board.csv');
-	const { units, skipped } = collectUnits(paths);
+	const limits = limitsFrom(raw.timeLimit, raw.memoryLimit);
+	const { units, skipped, problems: pathProblems } = collectUnits(paths);
 	const mode = raw.json ? 'json' : raw.csv ? 'csv' : 'table';
-	if (skipped.length > 0 && raw.quiet !== true) io.err(`note: skipped ${skipped.length} file(s) that are not captures (e.g. ${skipped[0]})\n`);
+	if (skipped.length > 0 && raw.quiet !== true) io.err(printable(`note: skipped ${skipped.length} file(s) that are not captures (e.g. ${skipped[0]})`) + '\n');
+	for (const p of pathProblems) io.err(`${problemText(p)}\n`);
 	if (units.length === 0) {
-		io.err(`sinecheck: no capture files found in ${paths.join(', ')} (looked for ${['.csv', '.txt', '.tsv', '.wav', '.cfg', '.cff'].join(' ')})\n`);
+		if (pathProblems.length === 0) io.err(printable(`sinecheck: no capture files found in ${paths.join(', ')} (looked for ${['.csv', '.txt', '.tsv', '.wav', '.cfg', '.cff'].join(' ')})`) + '\n');
 		return 2;
 	}
 	const jobs = jobsFrom(raw.jobs, units.length);
 	const progress = raw.progress === false ? progressBar(0) : progressBar(units.length);
 
-	let badInput = false;
+	let badInput = pathProblems.length > 0;
 	let limitFailed = false;
 	let printedAny = false;
 	let reports = 0;
-	let problemUnits = 0;
+	let problemUnits = pathProblems.length;
 	let limitFailures = 0;
 	// --next-steps: the table shows the next-steps part, --csv gives its rows instead of the channel summary
 	// (also shown in the table whenever a site value is given).
@@ -68,14 +73,18 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 		for (const r of res.reports) {
 			if (r.limits && r.limits.pass === false) (limitFailed = true), limitFailures++;
 			io.out(render(r, mode, printedAny, nextSteps));
-			if (mode !== 'table' && raw.quiet !== true) for (const a of noteworthy(r)) io.err(`${r.file}: ${a}\n`);
+			if (mode !== 'table' && raw.quiet !== true) for (const a of noteworthy(r)) io.err(`${printable(`${r.file}: ${a}`)}\n`);
 			printedAny = true;
 		}
 	};
 	// Results arrive in completion order; print them in the order the files were given.
 	const pending = new Map<number, UnitResult>();
 	let nextToPrint = 0;
-	await runUnits(units, settings, jobs, (index, result) => {
+	await runUnits(
+		units,
+		settings,
+		jobs,
+		(index, result) => {
 		progress.tick(units[index].files[0]);
 		pending.set(index, result);
 		while (pending.has(nextToPrint)) {
@@ -83,11 +92,14 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 			pending.delete(nextToPrint);
 			nextToPrint++;
 		}
-	});
+		},
+		{ heapMiB: limits.heapMiB ?? defaultHeapMiB(jobs), timeLimitS: limits.timeLimitS },
+	);
 	progress.done();
-	if (units.length > 1 && raw.quiet !== true) {
-		const limits = limitFailures > 0 ? `; limits failed in ${limitFailures}` : '';
-		io.err(`analysed ${reports} capture(s) from ${units.length} file set(s); ${problemUnits} with errors${limits}\n`);
+	// The summary line of a batch always prints (a file that crashed or timed out is counted with errors).
+	if (units.length + pathProblems.length > 1 && raw.quiet !== true) {
+		const failedLimits = limitFailures > 0 ? `; limits failed in ${limitFailures}` : '';
+		io.err(`analysed ${reports} capture(s) from ${units.length + pathProblems.length} file set(s); ${problemUnits} with errors${failedLimits}\n`);
 	}
 	return badInput ? 2 : limitFailed ? 1 : 0;
 }
@@ -95,9 +107,11 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 function render(r: ReportJson, mode: 'json' | 'csv' | 'table', printedAny: boolean, nextSteps: boolean): string {
 	// Always one line per document: a JSON Lines stream whether one file or a folder of them was named,
 	// so a script reads the output the same way in both cases (pipe through `jq .` to read it).
-	if (mode === 'json') return JSON.stringify(r) + '\n';
+	// JSON: C1 and bidi controls as \u escapes (the same value, safe on a terminal). CSV cells are data for a
+	// spreadsheet and go out as they are (formula-guarded and quoted). The table escapes control characters.
+	if (mode === 'json') return printableJson(JSON.stringify(r)) + '\n';
 	if (mode === 'csv') return (nextSteps ? nextStepsCsvRows(r) : csvSummaryRows(r)).map((line) => line + '\r\n').join('');
-	return (printedAny ? '\n' : '') + [...formatReport(r), ...(nextSteps ? formatNextSteps(r) : [])].join('\n') + '\n';
+	return (printedAny ? '\n' : '') + [...formatReport(r), ...(nextSteps ? formatNextSteps(r) : [])].map(printable).join('\n') + '\n';
 }
 
 /** What --json/--csv repeat on stderr: the importer's assumptions and warnings, and every analysis warning. */

@@ -2,12 +2,13 @@
  * One analysis unit (a capture's files) -> JSON reports or located errors. Runs in a worker thread or
  * in-process; the result is plain data (structured-clone safe).
  */
-import { readFileSync } from 'node:fs';
 import { isImportError, type ImportError } from '../../lib/io/import-error.js';
 import { openCaptures } from '../../lib/io/open.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { reportToJson, type ReportJson } from '../../lib/report/to-json.js';
 import { problemFrom, problemLine, type FileProblem } from './error-line.js';
+import { ANALYSE_MAX_FILE_BYTES, readRegularFile, tooLargeWords } from './file-checks.js';
+import { UsageError } from './usage-error.js';
 import type { CommandSettings } from './options.js';
 import { importOptionsFrom, applyImportSettings } from './import-settings.js';
 
@@ -44,13 +45,18 @@ function problemOf(e: unknown, fallbackFile: string, settings: CommandSettings):
 /** Reads the unit's files, imports and analyses them. Never throws: every failure becomes a problem. */
 export function analyseUnit(files: string[], settings: CommandSettings): UnitResult {
 	const result: UnitResult = { files, reports: [], problems: [] };
-	let inputs: { name: string; bytes: Uint8Array }[];
-	try {
-		inputs = files.map((name) => ({ name, bytes: readFileSync(name) }));
-	} catch (e) {
-		const err = e as NodeJS.ErrnoException;
-		result.problems.push({ file: err.path ?? files[0], code: 'unreadable', message: `cannot read the file (${err.code ?? err.message})` });
-		return result;
+	const inputs: { name: string; bytes: Uint8Array }[] = [];
+	let total = 0;
+	for (const name of files) {
+		try {
+			const bytes = readRegularFile(name, ANALYSE_MAX_FILE_BYTES, files[0]);
+			total += bytes.length;
+			if (total > ANALYSE_MAX_FILE_BYTES) throw new UsageError(tooLargeWords(total, ANALYSE_MAX_FILE_BYTES, files[0]));
+			inputs.push({ name, bytes });
+		} catch (e) {
+			result.problems.push(problemOf(e, name, settings));
+			return result;
+		}
 	}
 	let opened: ReturnType<typeof openCaptures>;
 	try {

@@ -1,14 +1,27 @@
 #!/usr/bin/env node
 // Entry of the sinecheck command: wiring only. Commands return exit codes; this file sets them.
 import { cac } from 'cac';
-import { analyseCommand } from './analyse-command.js';
+import { fsErrorWords } from './file-checks.js';
 import { ANALYSE_EXAMPLES, EXIT_CODES, SAFETY_CAUTION, TREND_EXAMPLES, wrap } from './help-text.js';
-import { importOptionsFrom } from './import-settings.js';
-import { settingsFromOptions } from './options.js';
-import { trendCommand } from './trend/index.js';
+import { limitsFrom, settingsFromOptions } from './options.js';
+import { printable } from './printable.js';
 import { UsageError } from './usage-error.js';
 
 const cli = cac('sinecheck');
+
+/** Paths after `--` are paths even when they start with a dash (cac keeps them under options['--']). */
+function withAfterDashes(paths: string[], options: Record<string, unknown>): string[] {
+	const rest = options['--'];
+	return Array.isArray(rest) ? [...paths, ...rest.map(String)] : paths;
+}
+
+// Output closed early (`sinecheck analyse dir | head`): stop quietly, as a command in a pipe should.
+for (const stream of [process.stdout, process.stderr]) {
+	stream.on('error', (e: NodeJS.ErrnoException) => {
+		if (e.code === 'EPIPE') process.exit(typeof process.exitCode === 'number' ? process.exitCode : 0);
+		throw e;
+	});
+}
 
 cli
 	.command('analyse [...paths]', 'Analyse capture files and folders (CSV, WAV, COMTRADE): RMS, harmonics, THD, phase, power, three-phase, limits')
@@ -46,11 +59,15 @@ cli
 	.option('--meter-range-a <A>', 'Next steps: full scale of the current range used on the meter')
 	.option('--meter-response <kind>', 'Next steps: how the meter responds: true-rms or average (average-responding, calibrated on a sine)')
 	.option('--whole-record', 'Time-domain figures over every sample instead of whole cycles')
-	.option('--jobs <n>', 'Worker threads (default: one per core, up to 8; 0 = none)')
+	.option('--jobs <n>', 'Files analysed at once, each in a helper process (default: one per core, up to 8; 0 = in this process, without the time and memory limits)')
+	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
+	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine shared among the workers)')
 	.option('--quiet', 'With --json/--csv: do not repeat the assumptions on stderr')
 	.option('--no-progress', 'No progress bar (it is drawn only when stderr is a terminal anyway)')
 	.action(async (paths: string[], options: Record<string, unknown>) => {
-		process.exitCode = await analyseCommand(paths, options);
+		// Command modules load on use: with worker threads the signal library loads in the workers only.
+		const { analyseCommand } = await import('./analyse-command.js');
+		process.exitCode = await analyseCommand(withAfterDashes(paths, options), options);
 	});
 
 cli
@@ -70,13 +87,19 @@ cli
 	.option('--scale <channel=factor>', 'Multiply a channel by a factor (CSV files); repeatable', { type: [String] })
 	.option('--unit <channel=unit>', 'Set the unit of a channel (CSV files); repeatable', { type: [String] })
 	.option('--quantity <channel=kind>', 'Say what a channel measures (CSV files); repeatable', { type: [String] })
-	.action(async (files: string[], options: Record<string, unknown>) => {
+	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
+	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine)')
+	.action(async (given: string[], options: Record<string, unknown>) => {
+		const files = withAfterDashes(given, options);
 		const settings = settingsFromOptions({ rate: options.rate, scale: options.scale, unit: options.unit, quantity: options.quantity }).import;
 		const perChannel = Object.keys(settings.scale).length + Object.keys(settings.unit).length + Object.keys(settings.quantity).length > 0;
 		const notCsv = files.find((f) => /\.(wav|cfg|cff|dat)$/i.test(f));
 		// The trend reader streams WAV and COMTRADE itself: per-channel settings reach only the CSV reader.
 		if (perChannel && notCsv) throw new UsageError(`trend: --scale, --unit and --quantity apply to CSV files only (${notCsv} is not one)`);
+		const { importOptionsFrom } = await import('./import-settings.js');
+		const { trendCommand } = await import('./trend/index.js');
 		const open = importOptionsFrom(settings);
+		const limits = limitsFrom(options.timeLimit, options.memoryLimit);
 		process.exitCode = await trendCommand(files, {
 			json: options.json === true,
 			interval: options.interval === undefined ? undefined : String(options.interval),
@@ -89,6 +112,8 @@ cli
 			thd: options.thd !== false,
 			harmonics: options.harmonics === true,
 			open,
+			timeLimitS: limits.timeLimitS,
+			memoryLimitMiB: limits.heapMiB,
 		});
 	});
 
@@ -119,12 +144,13 @@ async function main(): Promise<number> {
 		return typeof process.exitCode === 'number' ? process.exitCode : 0;
 	} catch (e) {
 		if (e instanceof UsageError || (e instanceof Error && e.name === 'CACError')) {
-			process.stderr.write(`sinecheck: ${e.message}\n`);
+			process.stderr.write(`${printable(`sinecheck: ${e.message}`)}\n`);
 			return 2;
 		}
-		const message = e instanceof Error ? e.message : String(e);
-		process.stderr.write(`sinecheck: internal error: ${message}\n`);
-		if (process.env.SINECHECK_DEBUG) process.stderr.write(`${(e as Error).stack}\n`);
+		const code = (e as NodeJS.ErrnoException)?.code;
+		const why = typeof code === 'string' && /^E[A-Z]+$/.test(code) ? fsErrorWords(code) : 'a fault in sinecheck: please report it with the command line; SINECHECK_DEBUG=1 shows the detail';
+		process.stderr.write(`sinecheck: stopped by an unexpected error (${why})\n`);
+		if (process.env.SINECHECK_DEBUG) process.stderr.write(`${e instanceof Error ? e.stack : String(e)}\n`);
 		return 2;
 	}
 }

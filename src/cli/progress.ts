@@ -1,6 +1,8 @@
 /**
  * A one-line progress bar on stderr, drawn only when stderr is a terminal (never into a pipe or a log).
  */
+import { printable } from './printable.js';
+
 export interface Progress {
 	tick(label: string): void;
 	/** Wipes the bar so other text can be written; the next tick draws it again. */
@@ -18,6 +20,7 @@ export function progressBar(total: number, stream: NodeJS.WriteStream = process.
 		const cols = stream.columns ?? 80;
 		const head = `[${'#'.repeat(filled)}${'.'.repeat(WIDTH - filled)}] ${count}/${total} `;
 		const room = Math.max(0, cols - head.length - 1);
+		label = printable(label);
 		const tail = label.length > room ? '...' + label.slice(label.length - room + 3) : label;
 		stream.write(`\r${head}${tail}\x1b[K`);
 	};

@@ -33,7 +33,7 @@ describe('error lines', () => {
 		expect(errorLine(new RangeError('no channel U9'), 'a.csv')).toBe('sinecheck: a.csv: no channel U9');
 		expect(errorLine(new RangeError('a.csv: no channel U9'), 'a.csv')).toBe('sinecheck: a.csv: no channel U9');
 		expect(errorLine(new UsageError('a.csv has no channel U9'), 'a.csv')).toBe('sinecheck: a.csv has no channel U9');
-		expect(errorLine(new Error('boom'), 'a.csv')).toBe('sinecheck: a.csv: could not analyse: boom');
+		expect(errorLine(new Error('boom'), 'a.csv')).toMatch(/^sinecheck: a\.csv: could not analyse: an internal check failed .*report it/);
 	});
 
 	it('analyse (problemText of the data a worker sends) and trend (trendErrorLine) print the same line for the same error', () => {
@@ -50,5 +50,39 @@ describe('error lines', () => {
 			expect(problemText(sent)).toBe(trendErrorLine(e, file));
 			expect(problemLine(sent)).toBe(errorLine(e, file));
 		}
+	});
+
+	it('errorLine never shows an internal or engine message: each reaches the user in plain words', () => {
+		const cases: [unknown, RegExp][] = [
+			[new RangeError('fundamentalHz must be in (0, 5000) Hz, got 7000'), /no usable fundamental frequency or sample rate/],
+			[new RangeError('Invalid typed array length: 4294967296'), /more data than analyse can hold in memory.*sinecheck trend/],
+			[new RangeError('The value of "size" is out of range. It must be >= 0 && <= 4294967296. Received 6442450944'), /more data than analyse can hold in memory/],
+			[new RangeError('Maximum call stack size exceeded'), /too long for analyse.*sinecheck trend/],
+			[Object.assign(new Error('ELOOP: too many symbolic links encountered'), { code: 'ELOOP' }), /a symbolic link that loops/],
+			[new TypeError("Cannot read properties of undefined (reading 'length')"), /an internal check failed/],
+			[new RangeError('channels differ in length: 10 vs 12 samples'), /different numbers of samples/],
+		];
+		for (const [e, words] of cases) {
+			const line = errorLine(e, 'x.csv');
+			expect(line).toMatch(words);
+			const internal = (e as Error).message.slice(0, 24);
+			expect(line).not.toContain(internal);
+			expect(line).not.toMatch(/ERR_|RangeError|TypeError|^\s+at /m);
+		}
+	});
+
+	it('errorLine keeps a message written for users: a reference or pairing channel the file lacks', () => {
+		expect(errorLine(new RangeError('x.csv: reference channel "phaseA" not found; the channels are phaseB, phaseC'), 'x.csv')).toBe(
+			'sinecheck: x.csv: reference channel "phaseA" not found; the channels are phaseB, phaseC',
+		);
+		expect(errorLine(new RangeError('pairing override names channel "I9", which the capture does not have (it has: U1, I1)'), 'x.csv')).toBe(
+			'sinecheck: x.csv: pairing override names channel "I9", which the capture does not have (it has: U1, I1)',
+		);
+	});
+
+	it('problemLine(problem) escapes control and bidi characters of a file name and message (ECMA-48 C0/C1, UAX #9)', () => {
+		const line = problemLine({ file: 'a\x1b[2Jb\u202e.csv', code: 'x', message: 'bad\nline\u009b' });
+		expect(line).toBe('sinecheck: a\\x1b[2Jb\\u202e.csv: bad\\nline\\x9b');
+		expect(line).not.toMatch(/[\u0000-\u001f\u007f-\u009f\u202e]/);
 	});
 });

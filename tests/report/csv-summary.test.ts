@@ -8,7 +8,8 @@ import { csvNumberCell, csvTextCell, CSV_SUMMARY_COLUMNS, csvSummaryHeader } fro
 describe('csvTextCell', () => {
 	it('csvTextCell(text) prefixes an apostrophe and quotes a cell starting with =, +, -, @, tab or CR', () => {
 		expect(csvTextCell('=HYPERLINK("http://x","y")')).toBe(`"'=HYPERLINK(""http://x"",""y"")"`);
-		expect(csvTextCell('+1')).toBe(`"'+1"`);
+		expect(csvTextCell('+1+1')).toBe(`"'+1+1"`);
+		expect(csvTextCell('-1.5')).toBe('-1.5'); // a plain number stays a number
 		expect(csvTextCell('-2+3')).toBe(`"'-2+3"`);
 		expect(csvTextCell('@SUM(A1)')).toBe(`"'@SUM(A1)"`);
 		expect(csvTextCell('\t=1')).toBe(`"'\t=1"`);

@@ -8,12 +8,16 @@
  * Returns the exit code: 0 ok, 2 usage or input error.
  */
 import type { OpenOptions } from '../../../lib/io/open.js';
-import type { TrendInterval, TrendResult, TrendRow, TrendThresholds } from '../../../lib/trend/types.js';
+import type { TrendInterval, TrendThresholds } from '../../../lib/trend/types.js';
 import { collectUnits } from '../collect-files.js';
-import { ERROR_PREFIX as PREFIX, errorLine } from '../error-line.js';
+import { ERROR_PREFIX as PREFIX, errorLine, problemLine } from '../error-line.js';
+import { regularFileProblem } from '../file-checks.js';
+import { printable, printableJson } from '../printable.js';
 import { UsageError } from '../usage-error.js';
-import { analyseFile, type AnalyserSettings } from './read-recording.js';
-import { csvHeader, csvRow, eventLine, flickerCsvHeader, flickerCsvRows, flickerLine, trendJson } from './trend-output.js';
+import { defaultHeapMiB, helperAvailable, HelperProcess, timeLimitFor } from '../helper-process.js';
+import type { AnalyserSettings } from './read-recording.js';
+import type { TrendJob, TrendMessage, TrendSink } from './trend-file.js';
+import { csvHeader } from './trend-output.js';
 
 export interface TrendCommandOptions {
 	/** Declared voltage Udin in V (line-to-neutral when the channels are). Inferred when absent. */
@@ -35,6 +39,12 @@ export interface TrendCommandOptions {
 	harmonics?: boolean;
 	/** Importer options (calibration, CSV layout...) prepared by the caller. */
 	open?: OpenOptions;
+	/** Seconds one file may take (default: 60 s plus 1 s per MiB); only when files run in a helper process. */
+	timeLimitS?: number;
+	/** Heap one file may use, MiB (default: up to half the machine); only in a helper process. */
+	memoryLimitMiB?: number;
+	/** Trend in this process, without the time and memory limits of a helper process. */
+	inProcess?: boolean;
 	/** Output streams (tests); default process.stdout / process.stderr. */
 	stdout?: NodeJS.WritableStream;
 	stderr?: NodeJS.WritableStream & { isTTY?: boolean };
@@ -92,6 +102,30 @@ function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSetting
 	};
 }
 
+/**
+ * Trends one file in a helper process: its pieces arrive as messages and go to `sink`. Resolves
+ * undefined when the file was trended, or its error line (an import error, a crash, out of memory, time).
+ */
+async function trendInHelper(helper: HelperProcess, job: TrendJob, sink: TrendSink, limitS: number): Promise<string | undefined> {
+	let line: string | undefined;
+	const stopped = await helper.run(
+		{ kind: 'trend', job },
+		(msg) => {
+			const m = msg as TrendMessage;
+			if (m.t === 'channels') sink.channels(m.specs);
+			else if (m.t === 'flickerHeader') sink.flickerHeader(m.text);
+			else if (m.t === 'rows') sink.rows(m.text);
+			else if (m.t === 'progress') sink.progress(m.fraction);
+			else if (m.t === 'notes') sink.notes(m.lines);
+			else if (m.t === 'doc') sink.doc(m.doc);
+			else if (m.t === 'error') line = m.line;
+			return m.t === 'done' || m.t === 'error';
+		},
+		limitS,
+	);
+	return stopped === undefined ? line : `${problemLine({ file: job.file, code: 'stopped', message: stopped })}`;
+}
+
 /** Runs the trend command over `files`; see the module comment. */
 export async function trendCommand(files: string[], options: TrendCommandOptions = {}): Promise<number> {
 	const out = options.stdout ?? process.stdout;
@@ -102,20 +136,28 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 		if (files.length === 0) throw new TrendUsageError('trend: give at least one recording file or folder');
 		parsed = settingsFrom(options);
 	} catch (e) {
-		err.write(`${PREFIX}${e instanceof Error ? e.message : String(e)}\n`);
+		err.write(`${printable(`${PREFIX}${e instanceof Error ? e.message : String(e)}`)}\n`);
 		return 2;
 	}
 	const { settings, interval, flickerCsv } = parsed;
 	// Paths -> recordings: folders walked and COMTRADE companions grouped as `analyse` does; a path that
 	// does not exist is an error line of its own, and the others still run.
 	const recordings: string[] = [];
+	const unitFiles = new Map<string, string[]>();
 	let failed = 0;
 	for (const path of files) {
 		try {
-			const { units, skipped } = collectUnits([path]);
-			if (units.length === 0) throw new UsageError(`${path}: no recordings found in this folder (looked for .csv .tsv .txt .wav .cfg .cff)`);
-			if (skipped.length > 0) err.write(`note: skipped ${skipped.length} file(s) in ${path} that are not recordings (e.g. ${skipped[0]})\n`);
-			for (const u of units) recordings.push(u.files[0]);
+			const { units, skipped, problems } = collectUnits([path]);
+			for (const p of problems) {
+				failed++;
+				err.write(`${problemLine(p)}\n`);
+			}
+			if (units.length === 0 && problems.length === 0) throw new UsageError(`${path}: no recordings found in this folder (looked for .csv .tsv .txt .wav .cfg .cff)`);
+			if (skipped.length > 0) err.write(`${printable(`note: skipped ${skipped.length} file(s) in ${path} that are not recordings (e.g. ${skipped[0]})`)}\n`);
+			for (const u of units) {
+				recordings.push(u.files[0]);
+				unitFiles.set(u.files[0], u.files);
+			}
 		} catch (e) {
 			failed++;
 			err.write(`${trendErrorLine(e, path)}\n`);
@@ -124,70 +166,56 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	const several = recordings.length > 1;
 	const docs: unknown[] = [];
 	let headerFor = '';
+	let recordingNow = '';
 	let flickerHeaderFor = '';
-	for (const file of recordings) {
-		try {
-			let pending: string[] = [];
-			const flush = () => {
-				if (pending.length > 0) out.write(pending.join(''));
-				pending = [];
-			};
-			let lastDraw = 0;
-			const onProgress = tty
-				? (f: number) => {
-						const now = Date.now();
-						if (now - lastDraw < 250) return;
-						lastDraw = now;
-						err.write(`\r${file}: ${(100 * f).toFixed(0)} %\x1b[K`);
-					}
-				: undefined;
-			const result: TrendResult = analyseFile(
-				file,
-				file,
-				options.open ?? {},
-				{
-					...settings,
-					// CSV rows go out as they are measured, so nothing accumulates; JSON keeps them all.
-					keep: options.json ? undefined : { cycles10: false, cycles150: false, min10: false },
-					onRow: options.json
-						? undefined
-						: (row) => {
-								if (flickerCsv || row.interval !== interval) return;
-								pending.push(csvRow(row, several ? file : undefined));
-								if (pending.length >= 256) flush();
-							},
-				},
-				{
-					onProgress,
-					onChannels: (chs) => {
-						const header = csvHeader(chs, several, settings.harmonics === true);
-						if (!options.json && !flickerCsv && header !== headerFor) pending.push(header);
-						headerFor = header;
-					},
-				},
-			);
-			if (flickerCsv && !options.json) {
-				if (result.flicker) {
-					const header = flickerCsvHeader(result.flicker, several);
-					if (header !== flickerHeaderFor) pending.push(header);
-					flickerHeaderFor = header;
-					pending.push(...flickerCsvRows(result.flicker, several ? file : undefined));
-				} else err.write(`${file}: flicker not measured (no voltage channel, or under 1600 samples per second)\n`);
-			}
-			flush();
+	const sink: TrendSink = {
+		channels: (chs) => {
+			const header = csvHeader(chs, several, settings.harmonics === true);
+			if (!options.json && !flickerCsv && header !== headerFor) out.write(header);
+			headerFor = header;
+		},
+		flickerHeader: (header) => {
+			if (header !== flickerHeaderFor) out.write(header);
+			flickerHeaderFor = header;
+		},
+		rows: (text) => void out.write(text),
+		progress: (f) => void err.write(`\r${printable(recordingNow)}: ${(100 * f).toFixed(0)} %\x1b[K`),
+		notes: (lines) => {
 			if (tty) err.write('\r\x1b[K');
-			for (const d of result.diagnostics) err.write(`${file}: ${d.severity}: ${d.message}\n`);
-			if (options.json) docs.push(trendJson(file, result));
-			else {
-				for (const e of result.events) err.write(`${file}: ${eventLine(e, result.declaredV)}\n`);
-				if (result.flicker && !flickerCsv) err.write(`${file}: ${flickerLine(result.flicker)}\n`);
+			for (const l of lines) err.write(`${printable(l)}\n`);
+		},
+		doc: (d) => void docs.push(d),
+	};
+	const useHelper = options.inProcess !== true && helperAvailable();
+	const helper = useHelper ? new HelperProcess(options.memoryLimitMiB ?? defaultHeapMiB(1)) : undefined;
+	try {
+		for (const file of recordings) {
+			recordingNow = file;
+			const job: TrendJob = { file, open: options.open ?? {}, settings, json: options.json === true, interval, flickerCsv, several, progress: tty };
+			let line: string | undefined;
+			try {
+				// Only regular files are read (a FIFO would block the reader forever, a device never ends).
+				const parts = unitFiles.get(file) ?? [file];
+				let bytes = 0;
+				for (const f of parts) {
+					const check = regularFileProblem(f);
+					if (check.message !== undefined) throw new UsageError(f === file ? check.message : `${f}: ${check.message}`);
+					bytes += check.size;
+				}
+				if (helper) line = await trendInHelper(helper, job, sink, timeLimitFor(bytes, options.timeLimitS));
+				else (await import('./trend-file.js')).trendFile(job, sink); // the signal library loads only here or in a helper
+			} catch (e) {
+				line = trendErrorLine(e, file);
 			}
-		} catch (e) {
-			if (tty) err.write('\r\x1b[K');
-			failed++;
-			err.write(`${trendErrorLine(e, file)}\n`);
+			if (line !== undefined) {
+				if (tty) err.write('\r\x1b[K');
+				failed++;
+				err.write(`${line}\n`);
+			}
 		}
+	} finally {
+		helper?.close();
 	}
-	if (options.json && docs.length > 0) out.write(`${JSON.stringify(several ? docs : docs[0], null, 1)}\n`);
+	if (options.json && docs.length > 0) out.write(`${printableJson(JSON.stringify(several ? docs : docs[0], null, 1))}\n`);
 	return failed > 0 ? 2 : 0;
 }

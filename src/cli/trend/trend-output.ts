@@ -1,12 +1,10 @@
 /** Text forms of trend results: CSV lines of aggregate rows, the JSON document, one-line event text. */
+import { csvCell } from '../../../lib/report/csv-cell.js';
 import type { TrendChannelSpec, TrendEvent, TrendResult, TrendRow } from '../../../lib/trend/types.js';
 import type { TrendFlicker } from '../../../lib/trend/flicker-tracker.js';
 
-/** CSV cell: quoted when it holds a comma, quote or line break; a leading = + - @ is defused for spreadsheets. */
-function cell(text: string): string {
-	const t = /^[=+\-@]/.test(text) && !/^-?\d/.test(text) ? `'${text}` : text;
-	return /[",\r\n]/.test(t) ? `"${t.replace(/"/g, '""')}"` : t;
-}
+/** CSV cell: the shared formula guard and RFC 4180 quoting (lib/report/csv-cell.ts). */
+const cell = (text: string): string => csvCell(text);
 
 function n(x: number, digits: number): string {
 	return Number.isFinite(x) ? x.toFixed(digits) : '';

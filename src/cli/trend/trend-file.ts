@@ -1,0 +1,124 @@
+/**
+ * One recording through `trend`, wherever it runs (in this process, or in a helper process that sends
+ * each piece back as a message): the CSV header and rows as they are measured, progress, the
+ * diagnostic and event lines, or the JSON document. Plain data in and out, so a helper can run it.
+ */
+import type { OpenOptions } from '../../../lib/io/open.js';
+import type { TrendChannelSpec, TrendInterval, TrendResult } from '../../../lib/trend/types.js';
+import { analyseFile, type AnalyserSettings } from './read-recording.js';
+import { csvRow, eventLine, flickerCsvHeader, flickerCsvRows, flickerLine, trendJson } from './trend-output.js';
+
+export interface TrendJob {
+	file: string;
+	open: OpenOptions;
+	/** Analyser settings without callbacks (thresholds, declared voltage, THD...). */
+	settings: AnalyserSettings;
+	json: boolean;
+	interval: TrendInterval;
+	/** CSV of Pst per 10 min and Plt per 2 h instead of the aggregate rows (`--interval flicker`). */
+	flickerCsv?: boolean;
+	/** Several files in the run: each CSV row starts with its file. */
+	several: boolean;
+	/** Report progress (only when stderr is a terminal). */
+	progress: boolean;
+}
+
+/** Where the pieces of one file's trend go, in order. */
+export interface TrendSink {
+	channels(specs: TrendChannelSpec[]): void;
+	/** The flicker CSV header (the command writes it once for files that share it). */
+	flickerHeader(text: string): void;
+	rows(text: string): void;
+	progress(fraction: number): void;
+	/** Lines for stderr (diagnostics, events), without line ends, not yet made printable. */
+	notes(lines: string[]): void;
+	/** The JSON document of the file (with `json`). */
+	doc(d: unknown): void;
+}
+
+const ROWS_PER_WRITE = 256;
+const PROGRESS_EVERY_MS = 250;
+
+/**
+ * Trends one file into `sink`.
+ * @throws ImportError, or any error of the analysis (the caller makes it the file's error line)
+ */
+export function trendFile(job: TrendJob, sink: TrendSink): void {
+	const { file, json, interval, several } = job;
+	const flickerCsv = job.flickerCsv === true && !json;
+	let pending: string[] = [];
+	const flush = () => {
+		if (pending.length > 0) sink.rows(pending.join(''));
+		pending = [];
+	};
+	let lastDraw = 0;
+	const onProgress = job.progress
+		? (f: number) => {
+				const now = Date.now();
+				if (now - lastDraw < PROGRESS_EVERY_MS) return;
+				lastDraw = now;
+				sink.progress(f);
+			}
+		: undefined;
+	const result: TrendResult = analyseFile(
+		file,
+		file,
+		job.open,
+		{
+			...job.settings,
+			// CSV rows go out as they are measured, so nothing accumulates; JSON keeps them all.
+			keep: json ? undefined : { cycles10: false, cycles150: false, min10: false },
+			onRow: json
+				? undefined
+				: (row) => {
+						if (flickerCsv || row.interval !== interval) return;
+						pending.push(csvRow(row, several ? file : undefined));
+						if (pending.length >= ROWS_PER_WRITE) flush();
+					},
+		},
+		{
+			onProgress,
+			onChannels: (chs) => {
+				flush();
+				sink.channels(chs);
+			},
+		},
+	);
+	flush();
+	const lines = result.diagnostics.map((d) => `${file}: ${d.severity}: ${d.message}`);
+	if (flickerCsv) {
+		if (result.flicker) {
+			sink.flickerHeader(flickerCsvHeader(result.flicker, several));
+			sink.rows(flickerCsvRows(result.flicker, several ? file : undefined).join(''));
+		} else lines.push(`${file}: flicker not measured (no voltage channel, or under 1600 samples per second)`);
+	}
+	if (json) sink.doc(trendJson(file, result));
+	else {
+		lines.push(...result.events.map((e) => `${file}: ${eventLine(e, result.declaredV)}`));
+		if (result.flicker && !flickerCsv) lines.push(`${file}: ${flickerLine(result.flicker)}`);
+	}
+	sink.notes(lines);
+}
+
+/** The messages a helper process sends for one file, in order; 'done' or 'error' ends them. */
+export type TrendMessage =
+	| { t: 'channels'; specs: TrendChannelSpec[] }
+	| { t: 'flickerHeader'; text: string }
+	| { t: 'rows'; text: string }
+	| { t: 'progress'; fraction: number }
+	| { t: 'notes'; lines: string[] }
+	| { t: 'doc'; doc: unknown }
+	| { t: 'done' }
+	| { t: 'error'; line: string };
+
+/** A sink that sends every piece through `send` (a helper process's channel to its parent). */
+export function messageSink(send: (m: TrendMessage) => void): TrendSink {
+	return {
+		channels: (specs) => send({ t: 'channels', specs }),
+		flickerHeader: (text) => send({ t: 'flickerHeader', text }),
+		rows: (text) => send({ t: 'rows', text }),
+		progress: (fraction) => send({ t: 'progress', fraction }),
+		notes: (lines) => send({ t: 'notes', lines }),
+		doc: (doc) => send({ t: 'doc', doc }),
+	};
+}
