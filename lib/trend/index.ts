@@ -4,3 +4,4 @@ export { createTrendAnalyser, TREND_DEFAULT_THRESHOLDS, type TrendAnalyser } fro
 export { analyseTrend } from './analyse-capture.js';
 export { declaredVoltageFromRms, COMMON_NOMINAL_VOLTAGES_V } from './declared-voltage.js';
 export { TREND_MAX_ORDER } from './window-thd.js';
+export { trendLimitProblem, TREND_MIN_SAMPLE_RATE_HZ, TREND_MAX_SAMPLE_RATE_HZ, TREND_MAX_CHANNELS, TREND_RING_BUDGET_BYTES, type TrendLimitProblem } from './limits.js';

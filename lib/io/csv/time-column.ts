@@ -10,6 +10,7 @@ import { clockFractionDigits, isClockCell, isDateCell } from './clock-time.js';
 import { isIndexName, isTimeName } from './names.js';
 import type { CsvLayout, CsvOptions } from './types.js';
 import { readUnit } from './units.js';
+import { maxOf, minOf } from '../../signal/extremes.js';
 
 type TimeUnit = NonNullable<CsvLayout['timeUnit']>;
 const UNIT_OF_FACTOR: [number, TimeUnit][] = [[1, 's'], [1e-3, 'ms'], [1e-6, 'us'], [1e-9, 'ns']];
@@ -37,7 +38,7 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 		layout.timeColumn = 0;
 		layout.timeUnit = 'clock';
 		layout.clockFields = split ? 2 : 1;
-		const digits = Math.max(0, ...preview.map((r) => clockFractionDigits(r[clockAt] ?? '')));
+		const digits = Math.max(0, maxOf(preview.map((r) => clockFractionDigits(r[clockAt] ?? ''))));
 		layout.timeResolution = 10 ** -digits;
 		const first = preview[0].slice(0, clockAt + 1).join(' ');
 		const where = split ? `Columns "${cols[0].header || 'col1'}" and "${cols[1].header || 'col2'}" hold date and time of day` : `Column "${cols[0].header || 'col1'}" holds time-of-day stamps`;
@@ -143,5 +144,5 @@ function printedResolution(cells: string[], mark: '.' | ','): number | null {
 	}
 	if (r.length === 0) return null;
 	void mark;
-	return Math.min(...r);
+	return minOf(r);
 }
