@@ -54,6 +54,8 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	} else if (options.timeColumn !== 'none' && cols.length > 1) {
 		for (const c of cols) {
 			const u = readUnit(c.unitText);
+			// a stated electrical unit wins over a name: "N (V)" is the neutral's voltage, not a sample number
+			if (isElectricalUnit(c.unitText)) continue;
 			if (isTimeName(c.name) || u?.kind === 'time') { tc = c.index; role = 'time'; how = `named "${c.header}"`; break; }
 			if (isIndexName(c.name)) { tc = c.index; role = 'index'; how = `named "${c.header}"`; break; }
 		}
@@ -102,6 +104,15 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	}
 	layout.timeUnit = unit;
 	say('time-column', `Column "${name}" is the time base (${how}), in ${unit} (${from}).`);
+}
+
+/** Units of measured electrical quantities (V, A with SI prefixes; W, VA, var, Hz, ohm, %, p.u.): never a time or sample number. */
+const ELECTRICAL_UNIT = /^(W|kW|MW|VA|kVA|MVA|var|kvar|Mvar|Hz|Ω|ohms?|%|p\.?u\.?)$/i;
+
+function isElectricalUnit(text: string): boolean {
+	const u = readUnit(text);
+	if (!u) return false;
+	return u.kind === 'voltage' || u.kind === 'current' || ELECTRICAL_UNIT.test(u.unit);
 }
 
 function risesEvenly(preview: string[][], mark: '.' | ','): boolean {
