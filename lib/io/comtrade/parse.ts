@@ -8,6 +8,7 @@ import type { Capture, Channel, Diagnostic, DigitalChannel } from '../../capture
 import { ImportError } from '../import-error.js';
 import { type CfgAnalog, type ComtradeConfig, parseComtradeCfg } from './cfg.js';
 import { readComtradeDat } from './dat.js';
+import { checkDatType } from './dat-type.js';
 import { stampDifferenceS } from './stamp.js';
 import { normaliseUnitText, phaseLabel, quantityFromName } from './units.js';
 
@@ -53,6 +54,7 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 
 	const lastRate = cfg.rates[cfg.rates.length - 1];
 	const expected = lastRate ? lastRate.endSample : cfg.endSampleNoRate || undefined;
+	checkDatType(cfg, datBytes, datSource, source, offsets.byte ?? 0);
 	const dat = readComtradeDat(cfg, datBytes, datSource, expected, offsets);
 	const n = dat.records;
 	if (n === 0) throw new ImportError(datSource, 1 + (offsets.line ?? 0), 0, 'no-data', '', 'at least one data record');
