@@ -160,7 +160,7 @@ function timeBase(cfg: ComtradeConfig, stamps: Float64Array, n: number, startS: 
 	return { sampleRateHz: meanHz, timeS };
 }
 
-function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'secondary', diagnostics: Diagnostic[]): Channel {
+export function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'secondary', diagnostics: Diagnostic[]): Channel {
 	const u = normaliseUnitText(a.unit);
 	let ratio = 1;
 	let which: string;
@@ -201,7 +201,7 @@ function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'second
 	return channel;
 }
 
-function uniqueNames(channels: Channel[], diagnostics: Diagnostic[]): void {
+export function uniqueNames(channels: Channel[], diagnostics: Diagnostic[]): void {
 	const seen = new Map<string, number>();
 	for (const c of channels) {
 		const k = seen.get(c.name) ?? 0;
