@@ -74,6 +74,8 @@ export class CsvSampleStream {
 			totalBytes: stream.totalBytes,
 			onProgress: stream.onProgress,
 			onLayout: (l) => this.onLayout(l),
+			// the time column and a channel per column: refuse a far wider file before detecting its layout
+			maxColumns: stream.maxChannels === undefined ? undefined : stream.maxChannels + 1,
 			onRows: (cols, rows) => this.onRows(cols, rows),
 		});
 	}

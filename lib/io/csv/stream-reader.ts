@@ -119,6 +119,7 @@ export class CsvStreamReader {
 	}
 
 	private tryStart(): void {
+		this.checkWidth();
 		try {
 			this.start(false);
 		} catch (e) {
@@ -127,7 +128,36 @@ export class CsvStreamReader {
 		}
 	}
 
+	/**
+	 * A data row of K cells holds at least K − 1 delimiters, and each cell at most one decimal comma, so a
+	 * line with more than `maxColumns` of one of , ; tab has more than maxColumns cells (a quoted header
+	 * cell full of commas aside).
+	 */
+	private checkWidth(): void {
+		const max = this.stream.maxColumns;
+		if (max === undefined) return;
+		const h = this.head;
+		let line = 1;
+		let comma = 0;
+		let semi = 0;
+		let tab = 0;
+		for (let i = 0; i < this.headLen && line <= 64; i++) {
+			const b = h[i];
+			if (b === 44) comma++;
+			else if (b === 59) semi++;
+			else if (b === 9) tab++;
+			else if (b === 10) {
+				line++;
+				comma = semi = tab = 0;
+				continue;
+			}
+			if (comma > max || semi > max || tab > max)
+				throw new ImportError(this.source, line, 0, 'out-of-range', `more than ${max} fields`, `at most ${max} columns in one recording (split the file into parts of fewer columns)`);
+		}
+	}
+
 	private start(wholeFile: boolean): void {
+		if (wholeFile) this.checkWidth();
 		let head = this.head.subarray(0, this.headLen);
 		if (head.length === 0) throw new ImportError(this.source, 1, 0, 'empty-file', '', 'rows of numbers (the file is empty)');
 		if ((head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff)) {

@@ -35,12 +35,14 @@ export class StreamTimeCheck {
 	private offSteps = 0;
 	private firstOffRow = -1;
 	private worstOff = 0;
+	private readonly probeGaps: boolean;
 
 	/** @param probe  the first rows' times in s (non-decreasing, checked by the scanner) */
 	constructor(probe: Float64Array, private readonly facts: StreamTimeFacts) {
 		const n = probe.length;
 		const tb = timeBaseFromColumn(probe, { ...facts, rowsAreLines: true, repeatedTimes: 0, firstRepeatLine: 0 });
 		this.startDiagnostics = [...tb.diagnostics];
+		this.probeGaps = tb.diagnostics.some((d) => d.code === 'time-gaps');
 		let rate = tb.sampleRateHz;
 		if (tb.timeS) {
 			rate = 1 / medianStep(probe);
@@ -105,7 +107,7 @@ export class StreamTimeCheck {
 			});
 		}
 		const span = this.prevT - this.firstT;
-		if (this.seen > 1 && span > 0 && this.gaps === 0) {
+		if (this.seen > 1 && span > 0 && this.gaps === 0 && !this.probeGaps) {
 			const meanHz = (this.seen - 1) / span;
 			if (Math.abs(meanHz * this.dt - 1) > 1e-3)
 				out.push({ code: 'rate-mismatch', severity: 'warning', message: `Over the whole file the time stamps give ${round(meanHz)} Hz; the samples were taken at ${round(this.sampleRateHz)} Hz from the first rows, so times late in the file are off by up to ${round(Math.abs(span - (this.seen - 1) * this.dt))} s.` });

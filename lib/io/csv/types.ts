@@ -60,6 +60,11 @@ export interface CsvStreamOptions {
 	 */
 	onLayout?: (layout: CsvLayout) => void;
 	/**
+	 * Most columns taken: a line at the head with more delimiters (comma, semicolon or tab) than this is
+	 * refused ('out-of-range') before the layout is detected, so a file of 100,000 columns costs nothing.
+	 */
+	maxColumns?: number;
+	/**
 	 * Row mode: the rows of each chunk as they are read, one array per column (raw numbers, time column as
 	 * written), valid for [0, rows) until the callback returns (the arrays are reused). Nothing is kept, so
 	 * memory does not grow with the file; end with `CsvStreamReader.end()` instead of `finish()`.
