@@ -88,12 +88,7 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 
 	const channels = cfg.analog.map((a, c) => scaleChannel(a, dat.raw[c], want, diagnostics));
 	uniqueNames(channels, diagnostics);
-	const unflagged = cfg.analog.filter((a) => a.ps === undefined).length;
-	if (cfg.analog.length > unflagged) {
-		diagnostics.push({ code: 'comtrade-values', severity: 'info', message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}${unflagged > 0 ? `, except ${unflagged} channel(s) without a P/S flag, kept as recorded` : ''}; each channel's scaling says how.` });
-	} else if (unflagged > 0) {
-		diagnostics.push({ code: 'comtrade-values', severity: 'assumption', message: 'The .cfg gives no P/S flags: analog values are reported as recorded (a·x + b), not known to be primary or secondary.' });
-	}
+	if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want));
 	cfg.analog.forEach((a, c) => {
 		if (dat.missing[c] > 0) diagnostics.push({ code: 'comtrade-missing-values', severity: 'warning', line: a.line, message: `Channel ${channels[c].name}: ${dat.missing[c]} of ${n} values are marked missing in the data; they are NaN.` });
 	});
@@ -117,6 +112,15 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 		metadata,
 		diagnostics,
 	};
+}
+
+/** Which values (primary, secondary, as recorded) the analog channels report. */
+export function valuesNote(cfg: ComtradeConfig, want: 'primary' | 'secondary'): Diagnostic {
+	const unflagged = cfg.analog.filter((a) => a.ps === undefined).length;
+	if (cfg.analog.length > unflagged) {
+		return { code: 'comtrade-values', severity: 'info', message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}${unflagged > 0 ? `, except ${unflagged} channel(s) without a P/S flag, kept as recorded` : ''}; each channel's scaling says how.` };
+	}
+	return { code: 'comtrade-values', severity: 'assumption', message: 'The .cfg gives no P/S flags: analog values are reported as recorded (a·x + b), not known to be primary or secondary.' };
 }
 
 function fmt(x: number): string {

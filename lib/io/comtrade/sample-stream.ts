@@ -13,7 +13,7 @@ import type { SampleSink, SampleStreamHeader } from '../csv/sample-stream.js';
 import type { ComtradeConfig } from './cfg.js';
 import { readComtradeDat } from './dat.js';
 import { binaryRecordBytes, checkDatType } from './dat-type.js';
-import { scaleChannel, uniqueNames, type ComtradeOptions } from './parse.js';
+import { scaleChannel, uniqueNames, valuesNote, type ComtradeOptions } from './parse.js';
 
 /** The one sampling rate of a record (with its .cfg line), or undefined when it has several or none. */
 export function streamableRate(cfg: ComtradeConfig): { sampleRateHz: number; line: number } | undefined {
@@ -41,7 +41,6 @@ export class ComtradeSampleStream {
 	private readonly missing: number[];
 	private breaks = 0;
 	private firstBreak = 0;
-	private lastNumber = NaN;
 
 	/**
 	 * @param cfg  the parsed .cfg (parseComtradeCfg) of a record with one sampling rate
@@ -67,6 +66,7 @@ export class ComtradeSampleStream {
 		diagnostics.push({ code: 'comtrade-rate', severity: 'info', line: rate.line, message: `Sample rate ${rate.sampleRateHz} Hz from the .cfg; record time stamps are not used for timing.` });
 		const channels = cfg.analog.map((a) => scaleChannel(a, new Float64Array(0), want, diagnostics));
 		uniqueNames(channels, diagnostics);
+		if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want));
 		const skewed = cfg.analog.filter((a) => a.skewUs !== 0);
 		if (skewed.length > 0) diagnostics.push({ code: 'comtrade-skew-ignored', severity: 'info', message: `Channel skews (${skewed.map((a) => `${a.name} ${a.skewUs} µs`).join(', ')}) are reported, not corrected.` });
 		this.factors = channels.map((c) => c.scaling!.factor);

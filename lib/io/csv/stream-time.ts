@@ -52,6 +52,7 @@ export class StreamTimeCheck {
 				message: `The samples are handed on as evenly spaced at ${round(rate)} Hz, the median step of the first ${n} rows; the time stamps are checked, not followed.`,
 			});
 		}
+		this.startDiagnostics.push({ code: 'rate-from-first-rows', severity: 'info', message: `The sample rate (${round(rate)} Hz) was taken from the first ${n} rows; every later time step is checked against it.` });
 		this.sampleRateHz = rate;
 		this.dt = 1 / rate;
 		this.slack = facts.jitterTolerance * this.dt + (facts.resolutionS ?? 0);
