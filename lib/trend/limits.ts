@@ -50,7 +50,7 @@ export function trendLimitProblem(sampleRateHz: number, channelCount: number, bl
 		return {
 			what: 'sample-rate',
 			expected: `a sample rate from ${TREND_MIN_SAMPLE_RATE_HZ} Hz to ${TREND_MAX_SAMPLE_RATE_HZ} Hz (at least 4 samples per cycle of the power frequency)`,
-			got: `${sampleRateHz} Hz`,
+			got: `${Number(sampleRateHz.toPrecision(6))} Hz`,
 		};
 	}
 	if (!(Number.isInteger(channelCount) && channelCount >= 1 && channelCount <= TREND_MAX_CHANNELS)) {

@@ -147,18 +147,15 @@ function streamFile(path: string, push: (chunk: Uint8Array) => void, onBytes?: (
 }
 
 function analyseCsv(path: string, source: string, size: number, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
-	let timePlace: RatePlace = { source, line: 0, column: 0 };
-	const sink = trendSink(settings, hooks, () => timePlace);
-	const stream = new CsvSampleStream(source, open.csv ?? {}, sink, { totalBytes: size, maxChannels: TREND_MAX_CHANNELS, onProgress: (d, t) => hooks.onProgress?.(t > 0 ? d / t : 0) });
-	const layoutPlace = (): void => {
+	// the rate comes from the time column's first rows, or the preamble / options
+	const ratePlace = (): RatePlace => {
 		const l = stream.layout;
-		if (l) timePlace = l.timeColumn !== null ? { source, line: l.bodyLine, column: l.timeColumn + 1 } : { source, line: l.headerLine ?? l.bodyLine, column: 0 };
+		if (!l) return { source, line: 0, column: 0 };
+		return l.timeColumn !== null ? { source, line: l.bodyLine, column: l.timeColumn + 1 } : { source, line: l.headerLine ?? l.bodyLine, column: 0 };
 	};
-	streamFile(path, (chunk) => {
-		stream.push(chunk);
-		layoutPlace();
-	});
-	layoutPlace();
+	const sink = trendSink(settings, hooks, ratePlace);
+	const stream: CsvSampleStream = new CsvSampleStream(source, open.csv ?? {}, sink, { totalBytes: size, maxChannels: TREND_MAX_CHANNELS, onProgress: (d, t) => hooks.onProgress?.(t > 0 ? d / t : 0) });
+	streamFile(path, (chunk) => stream.push(chunk));
 	const late = stream.end();
 	const h = sink.header();
 	return withImportNotes(sink.analyser().finish(), [...h.diagnostics, ...late]);

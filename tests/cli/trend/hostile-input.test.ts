@@ -89,6 +89,16 @@ describe('case 3: trend on impossible time bases', () => {
 		noStack(r.stderr);
 	});
 
+	it('time stamps 1e-300 s apart (a rate of 1e300 Hz) are out-of-range at the first time stamp, line 2 column 1', () => {
+		const rows = Array.from({ length: 5000 }, (_, k) => `${(k * 1e-300).toExponential(6)},${sine(k, 1e4).toFixed(3)}`);
+		write('squeezed.csv', ['t (s),U1 (V)', ...rows].join('\n'));
+		const r = cli('trend', 'squeezed.csv');
+		expect(r.signal).toBeNull();
+		expect(r.status).toBe(2);
+		expect(r.stderr).toMatch(/^sinecheck: squeezed\.csv:2:1: out-of-range: expected a sample rate from 288 Hz to 10000000 Hz.*got "1e\+300 Hz"/m);
+		noStack(r.stderr);
+	});
+
 	it('time stamps that jump by 1e6 s: trend finishes, the gap is a warning at its line', () => {
 		const rows = Array.from({ length: 20_000 }, (_, k) => `${(k / 1e4 + (k >= 10_000 ? 1e6 : 0)).toFixed(4)},${sine(k, 1e4).toFixed(3)}`);
 		write('jump.csv', ['t (s),U1 (V)', ...rows].join('\n'));
