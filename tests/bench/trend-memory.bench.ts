@@ -1,7 +1,7 @@
 /**
  * `npm run bench -- trend-memory`: peak resident memory of `sinecheck trend` (the built CLI in a child
  * process) on generated CSV recordings, beside the file sizes: 200 MB and 2 GB of 4 channels (memory must
- * be flat in length), and 200 MB of 400 channels (flat in channel count).
+ * be flat in length), and 200 MB of 400 channels (flat in channel count); and a 400 MB COMTRADE BINARY .dat.
  *
  * Target: the 2 GB CSV under 300 MB peak RSS, and the 2 GB peak within a few MB of the 200 MB peak.
  * Reference measured in the same run: the peak RSS of a bare Node process that reads the same file in
@@ -11,7 +11,7 @@
  * The files are written once to a temporary folder and deleted at the end (about 2.4 GB of disk).
  */
 import { spawn } from 'node:child_process';
-import { closeSync, existsSync, mkdtempSync, openSync, readFileSync, rmSync, statSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, mkdtempSync, openSync, readFileSync, rmSync, statSync, writeFileSync, writeSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { ensureBuiltCli, mainJs } from '../cli/built-cli.js';
@@ -49,6 +49,48 @@ function writeCsv(path: string, channels: number, bytes: number): number {
 	writeSync(fd, buf, 0, used);
 	closeSync(fd);
 	return statSync(path).size;
+}
+
+/**
+ * Writes a COMTRADE 1999 BINARY record of 4 channels (three 230 V phases, one 12 A current; int16 with
+ * a = peak / 30000) at 10 kS/s until the .dat reaches `bytes`; returns the .dat size.
+ */
+function writeComtrade(base: string, bytes: number): number {
+	const recordBytes = 8 + 4 * 2;
+	const records = Math.floor(bytes / recordBytes);
+	const peaks = [230 * Math.SQRT2, 230 * Math.SQRT2, 230 * Math.SQRT2, 12 * Math.SQRT2];
+	const a = peaks.map((p) => p / 30_000);
+	const cfg = [
+		'Tallowmere Joinery,bench-rec,1999',
+		'4,4A,0D',
+		...['U1', 'U2', 'U3', 'I1'].map((n, c) => `${c + 1},${n},L${(c % 3) + 1},,${c < 3 ? 'V' : 'A'},${a[c]},0,0,-32767,32767,1,1,P`),
+		'50',
+		'1',
+		`${FS},${records}`,
+		'01/02/2026,10:00:00.000000',
+		'01/02/2026,10:00:00.000000',
+		'BINARY',
+		'1',
+		'',
+	].join('\r\n');
+	writeFileSync(`${base}.cfg`, cfg);
+	// one cycle of records (200 at 50 Hz), sample numbers and time stamps patched per block
+	const block = Buffer.alloc(PER_CYCLE * 2000 * recordBytes);
+	const perBlock = block.length / recordBytes;
+	for (let r = 0; r < perBlock; r++) {
+		for (let c = 0; c < 4; c++) block.writeInt16LE(Math.round(30_000 * Math.sin((2 * Math.PI * r) / PER_CYCLE - (2 * Math.PI * (c % 3)) / 3)), r * recordBytes + 8 + 2 * c);
+	}
+	const fd = openSync(`${base}.dat`, 'w');
+	for (let done = 0; done < records; done += perBlock) {
+		const m = Math.min(perBlock, records - done);
+		for (let r = 0; r < m; r++) {
+			block.writeUInt32LE(done + r + 1, r * recordBytes);
+			block.writeUInt32LE((done + r) * 100, r * recordBytes + 4);
+		}
+		writeSync(fd, block, 0, m * recordBytes);
+	}
+	closeSync(fd);
+	return statSync(`${base}.dat`).size;
 }
 
 interface Run {
@@ -115,6 +157,14 @@ async function main(): Promise<void> {
 			const trend = await measure([mainJs, 'trend', path]);
 			rows.push([c.name, size / 1e6, String(c.channels), trend.peakMB, floor.peakMB, trend.peakMB / floor.peakMB, trend.wallS, trend.cpuS, size / 1e6 / trend.cpuS, String(trend.status ?? 'killed')]);
 			rmSync(path);
+		}
+		{
+			// COMTRADE streams too: a BINARY .dat of 400 MB (5.8 hours at 10 kS/s)
+			const base = join(dir, 'rec');
+			const size = writeComtrade(base, 400e6 * scale);
+			const floor = await measure(['-e', FLOOR, `${base}.dat`]);
+			const trend = await measure([mainJs, 'trend', `${base}.cfg`]);
+			rows.push(['comtrade BINARY 4 ch', size / 1e6, '4', trend.peakMB, floor.peakMB, trend.peakMB / floor.peakMB, trend.wallS, trend.cpuS, size / 1e6 / trend.cpuS, String(trend.status ?? 'killed')]);
 		}
 	} finally {
 		rmSync(dir, { recursive: true, force: true });
