@@ -178,7 +178,7 @@ export class CsvSampleStream {
 			diagnostics.push(...this.check.startDiagnostics);
 			if (!(rateHz > 0)) throw new ImportError(this.source, layout.bodyLine, layout.timeColumn + 1, 'no-time-base', '', 'at least two rows with different times, or a stated sample rate');
 		}
-		if (layout.decimation) diagnostics.push({ code: 'decimated', severity: 'warning', message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.` });
+		if (layout.decimation && !diagnostics.some((d) => d.code === 'decimated')) diagnostics.push({ code: 'decimated', severity: 'warning', message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.` });
 		diagnostics.push(...this.planNotes);
 		const header: SampleStreamHeader = {
 			sampleRateHz: rateHz,
