@@ -70,7 +70,7 @@ function writeComtrade(base: string, bytes: number): number {
 		'01/02/2026,10:00:00.000000',
 		'01/02/2026,10:00:00.000000',
 		'BINARY',
-		'1',
+		'100', // timemult: stamps count 100 µs steps, so a uint32 stamp lasts 4.9 days at 10 kS/s
 		'',
 	].join('\r\n');
 	writeFileSync(`${base}.cfg`, cfg);
@@ -85,7 +85,7 @@ function writeComtrade(base: string, bytes: number): number {
 		const m = Math.min(perBlock, records - done);
 		for (let r = 0; r < m; r++) {
 			block.writeUInt32LE(done + r + 1, r * recordBytes);
-			block.writeUInt32LE((done + r) * 100, r * recordBytes + 4);
+			block.writeUInt32LE(done + r, r * recordBytes + 4);
 		}
 		writeSync(fd, block, 0, m * recordBytes);
 	}

@@ -33,6 +33,7 @@ export class ComtradeSampleStream {
 	private readonly offsets: number[];
 	private readonly names: string[];
 	private carry = new Uint8Array(0);
+	private work = new Uint8Array(0);
 	private bytesDone = 0;
 	private linesDone = 0;
 	private records = 0;
@@ -86,12 +87,12 @@ export class ComtradeSampleStream {
 
 	/** The next bytes of the .dat. @throws ImportError as the whole-file reader would, at the same place */
 	push(chunk: Uint8Array): void {
-		let bytes = chunk;
-		if (this.carry.length > 0) {
-			bytes = new Uint8Array(this.carry.length + chunk.length);
-			bytes.set(this.carry);
-			bytes.set(chunk, this.carry.length);
-		}
+		// the partial record left over and the chunk, in one buffer reused from push to push
+		const total = this.carry.length + chunk.length;
+		if (this.work.length < total) this.work = new Uint8Array(Math.max(total, 2 * this.work.length));
+		this.work.set(this.carry);
+		this.work.set(chunk, this.carry.length);
+		const bytes = this.work.subarray(0, total);
 		if (!this.checked && bytes.length >= 4096) this.checkType(bytes);
 		const cut = this.ascii ? lastLineEnd(bytes) : bytes.length - (bytes.length % this.recordBytes);
 		if (cut > 0) this.read(bytes.subarray(0, cut));
