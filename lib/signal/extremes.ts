@@ -7,6 +7,7 @@
 /**
  * Smallest value, as Math.min would give for the same values: NaN if any value is NaN, Infinity when
  * there are none.
+ * Ref: common practice (the argument limit of JavaScript engines; ECMA-262 sets none, V8 throws RangeError)
  * @example minOf(new Float64Array([229.1, 231.4, 228.7])) // 228.7
  */
 export function minOf(values: ArrayLike<number>): number {
@@ -22,6 +23,7 @@ export function minOf(values: ArrayLike<number>): number {
 /**
  * Largest value, as Math.max would give for the same values: NaN if any value is NaN, -Infinity when
  * there are none.
+ * Ref: common practice
  * @example maxOf([4.9, 5.2, 5.0]) // 5.2
  */
 export function maxOf(values: ArrayLike<number>): number {

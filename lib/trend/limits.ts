@@ -43,6 +43,7 @@ export interface TrendLimitProblem {
 /**
  * The first bound that a recording of `channelCount` channels at `sampleRateHz` breaks, or undefined when
  * the analyser can take it.
+ * Ref: common practice (sampling well above twice the power frequency)
  * @example trendLimitProblem(1e-300, 3) // { what: 'sample-rate', expected: 'a sample rate from 288 Hz to 10000000 Hz', got: '1e-300 Hz' }
  */
 export function trendLimitProblem(sampleRateHz: number, channelCount: number, blockSamples = 4096): TrendLimitProblem | undefined {
