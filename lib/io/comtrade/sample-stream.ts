@@ -36,6 +36,7 @@ export class ComtradeSampleStream {
 	private work = new Uint8Array(0);
 	private bytesDone = 0;
 	private linesDone = 0;
+	private readonly byteBase: number;
 	private records = 0;
 	private extra = 0;
 	private checked = false;
@@ -54,7 +55,11 @@ export class ComtradeSampleStream {
 		readonly datSource: string,
 		options: ComtradeOptions,
 		private readonly sink: SampleSink,
+		/** Where the data starts in a larger file (a .cff): lines before it, and its byte offset. */
+		offsets: { line?: number; byte?: number } = {},
 	) {
+		this.linesDone = offsets.line ?? 0;
+		this.byteBase = offsets.byte ?? 0;
 		const rate = streamableRate(cfg);
 		if (!rate) throw new ImportError(source, cfg.rates[0]?.line ?? 0, 0, 'unsupported-format', '', 'one sampling rate for streaming (read the record whole instead)');
 		this.ascii = cfg.fileType === 'ASCII';
@@ -107,12 +112,12 @@ export class ComtradeSampleStream {
 			if (this.ascii) this.read(this.carry);
 			else if (this.records < this.expected) {
 				const total = this.bytesDone + this.carry.length;
-				throw new ImportError(this.datSource, 0, total + 1, 'dat-too-short', '', `${this.expected} records of ${this.recordBytes} bytes (${this.expected * this.recordBytes} bytes) as the .cfg says; the data has ${total} bytes`);
+				throw new ImportError(this.datSource, 0, this.byteBase + total + 1, 'dat-too-short', '', `${this.expected} records of ${this.recordBytes} bytes (${this.expected * this.recordBytes} bytes) as the .cfg says; the data has ${total} bytes`);
 			} else notes.push({ code: 'comtrade-trailing-bytes', severity: 'warning', message: `The data ends with ${this.carry.length} byte(s) that do not make a whole record; they are ignored.` });
 		}
 		if (this.records < this.expected) {
 			if (this.ascii) throw new ImportError(this.datSource, this.linesDone + 1, 0, 'dat-too-short', '', `${this.expected} records as the .cfg says (rates ending at sample ${this.expected}); the file ends after ${this.linesDone}`);
-			throw new ImportError(this.datSource, 0, this.bytesDone + 1, 'dat-too-short', '', `${this.expected} records of ${this.recordBytes} bytes (${this.expected * this.recordBytes} bytes) as the .cfg says; the data has ${this.bytesDone} bytes`);
+			throw new ImportError(this.datSource, 0, this.byteBase + this.bytesDone + 1, 'dat-too-short', '', `${this.expected} records of ${this.recordBytes} bytes (${this.expected * this.recordBytes} bytes) as the .cfg says; the data has ${this.bytesDone} bytes`);
 		}
 		if (this.records === 0) throw new ImportError(this.datSource, 1, 0, 'no-data', '', 'at least one data record');
 		if (this.extra > 0) notes.push({ code: 'comtrade-extra-records', severity: 'warning', message: `The data holds ${this.extra} record(s) past the ${this.records} the .cfg declares; they are ignored.` });
@@ -125,13 +130,13 @@ export class ComtradeSampleStream {
 
 	private checkType(head: Uint8Array): void {
 		this.checked = true;
-		checkDatType(this.cfg, head, this.datSource, this.source);
+		checkDatType(this.cfg, head, this.datSource, this.source, this.byteBase);
 	}
 
 	/** Reads whole records, scales them and hands them on. */
 	private read(bytes: Uint8Array): void {
 		if (!this.checked) this.checkType(bytes);
-		const dat = readComtradeDat(this.cfg, bytes, this.datSource, undefined, { line: this.linesDone, byte: this.bytesDone });
+		const dat = readComtradeDat(this.cfg, bytes, this.datSource, undefined, { line: this.linesDone, byte: this.byteBase + this.bytesDone });
 		this.linesDone += this.ascii ? dat.records : 0;
 		this.bytesDone += bytes.length;
 		const take = Math.max(0, Math.min(dat.records, this.expected - this.records));

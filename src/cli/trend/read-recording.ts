@@ -4,9 +4,9 @@
  * - WAV: the data chunk is read in blocks (wav-stream.ts);
  * - CSV/TXT/TSV: lib/io's CsvSampleStream takes the text in 1 MiB chunks and hands on each chunk's rows;
  *   no column is held whole;
- * - COMTRADE .cfg + .dat with one sampling rate: the .cfg is read whole, the .dat in 1 MiB chunks
- *   (ComtradeSampleStream, any file type). A record with several rates or time stamps only, and a .cff,
- *   are read whole (up to WHOLE_READ_MAX_BYTES).
+ * - COMTRADE .cfg + .dat, or .cff, with one sampling rate: the .cfg (or the .cff's head) is read whole,
+ *   the data in 1 MiB chunks (ComtradeSampleStream, any file type). A record with several rates or with
+ *   time stamps only is read whole (up to WHOLE_READ_MAX_BYTES).
  * The sample rate and channel count are checked against lib/trend's bounds before any sample is analysed
  * (an ImportError 'out-of-range' at the place the rate or the columns come from).
  * This file is the file-system adapter: lib gets bytes only.
@@ -14,6 +14,7 @@
 import { closeSync, openSync, readdirSync, readFileSync, readSync, statSync } from 'node:fs';
 import { basename, dirname, extname, join } from 'node:path';
 import type { Capture, Diagnostic } from '../../../lib/capture.js';
+import { cffLayout } from '../../../lib/io/comtrade/cff.js';
 import { parseComtradeCfg } from '../../../lib/io/comtrade/cfg.js';
 import { ComtradeSampleStream, streamableRate } from '../../../lib/io/comtrade/sample-stream.js';
 import { decodeText } from '../../../lib/io/comtrade/text.js';
@@ -84,7 +85,7 @@ function besideName(name: string, file: string): string {
 	return name.slice(0, name.length - basename(name).length) + file;
 }
 
-/** Largest file read whole (a .cff, or a COMTRADE record with several rates or time stamps only). */
+/** Largest file read whole (a COMTRADE record with several rates or time stamps only). */
 const WHOLE_READ_MAX_BYTES = 512 * 2 ** 20;
 /** Largest .cfg: a few lines per channel. */
 const CFG_MAX_BYTES = 16 * 2 ** 20;
@@ -128,14 +129,14 @@ function trendSink(settings: AnalyserSettings, hooks: AnalyseFileHooks, place: (
 	};
 }
 
-/** Pushes the file at `path` to `push` in 1 MiB chunks from one reused buffer. */
-function streamFile(path: string, push: (chunk: Uint8Array) => void, onBytes?: (done: number) => void): void {
+/** Pushes bytes [from, to) of the file at `path` to `push` in 1 MiB chunks from one reused buffer. */
+function streamFile(path: string, push: (chunk: Uint8Array) => void, onBytes?: (done: number) => void, from = 0, to = Infinity): void {
 	const fd = openSync(path, 'r');
 	try {
 		const buf = new Uint8Array(CHUNK_BYTES);
-		let pos = 0;
+		let pos = from;
 		for (;;) {
-			const n = readSync(fd, buf, 0, buf.length, pos);
+			const n = readSync(fd, buf, 0, Math.min(buf.length, to - pos), pos);
 			if (n === 0) break;
 			push(buf.subarray(0, n));
 			pos += n;
@@ -176,7 +177,7 @@ function companionPaths(path: string): Map<string, string> {
 function readWhole(path: string, source: string): Uint8Array {
 	const size = statSync(path).size;
 	if (size > WHOLE_READ_MAX_BYTES) {
-		throw new ImportError(source, 0, 0, 'too-large', `${Math.round(size / 2 ** 20)} MB`, `at most ${WHOLE_READ_MAX_BYTES / 2 ** 20} MB for a file read whole (a .cff, or a COMTRADE record with several sampling rates or time stamps only); save it as .cfg + .dat with one sampling rate to stream it`);
+		throw new ImportError(source, 0, 0, 'too-large', `${Math.round(size / 2 ** 20)} MB`, `at most ${WHOLE_READ_MAX_BYTES / 2 ** 20} MB for a COMTRADE record with several sampling rates or with time stamps only (read whole); a record with one sampling rate is streamed at any size`);
 	}
 	return new Uint8Array(readFileSync(path));
 }
@@ -209,6 +210,30 @@ function analyseComtrade(path: string, source: string, open: OpenOptions, settin
 	const notes = [...sink.header().diagnostics, ...late];
 	if (encoding === 'latin1') notes.push({ code: 'comtrade-latin1', severity: 'assumption', message: `${source} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.` });
 	return withImportNotes(sink.analyser().finish(), notes);
+}
+
+/** Bytes of a .cff read to find its CFG section and the DAT section's header line. */
+const CFF_HEAD_BYTES = 16 * 2 ** 20;
+
+/** A .cff: CFG (and INF, HDR) sections from the head, the DAT section streamed from its offset. */
+function analyseCff(path: string, source: string, size: number, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+	const fd = openSync(path, 'r');
+	let head: Uint8Array;
+	try {
+		head = new Uint8Array(Math.min(size, CFF_HEAD_BYTES));
+		head = head.subarray(0, readSync(fd, head, 0, head.length, 0));
+	} finally {
+		closeSync(fd);
+	}
+	const { cfg, dat } = cffLayout(head, source, size);
+	const rate = streamableRate(cfg);
+	if (!rate) return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), settings, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
+	if (cfg.analog.length > TREND_MAX_CHANNELS) throw new ImportError(source, 0, 0, 'out-of-range', `${cfg.analog.length} analog channels`, `at most ${TREND_MAX_CHANNELS} channels in one recording`);
+	const sink = trendSink(settings, hooks, () => ({ source, line: rate.line, column: 1 }));
+	const stream = new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, sink, { line: dat.headerLine, byte: dat.start });
+	streamFile(path, (chunk) => stream.push(chunk), (done) => hooks.onProgress?.(size > 0 ? done / size : 0), dat.start, dat.end);
+	const late = stream.end();
+	return withImportNotes(sink.analyser().finish(), [{ code: 'comtrade-cff', severity: 'info', message: 'Single-file COMTRADE (.cff); its data section was streamed.' }, ...sink.header().diagnostics, ...late]);
 }
 
 /**
@@ -245,7 +270,7 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 			wav.close();
 		}
 	}
-	if (ext === '.cff') return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), settings, hooks, { source, line: 0, column: 0 });
+	if (ext === '.cff') return analyseCff(path, source, size, open, settings, hooks);
 	if (ext === '.cfg') return analyseComtrade(path, source, open, settings, hooks);
 	if (ext === '.dat' || ext === '.hdr' || ext === '.inf') {
 		throw new ImportError(source, 0, 0, 'unsupported-format', ext, 'the .cfg file of a COMTRADE record (its .dat is found beside it)');
