@@ -100,7 +100,7 @@ interface RatePlace {
 
 /**
  * The sink that creates the analyser once the header is known (after checking the bounds) and pushes
- * each block. `result()` after the stream ended.
+ * each block; `analyser()` and `header()` once the stream has started.
  */
 function trendSink(settings: AnalyserSettings, hooks: AnalyseFileHooks, place: (h: SampleStreamHeader) => RatePlace): SampleSink & { analyser(): TrendAnalyser; header(): SampleStreamHeader } {
 	let a: TrendAnalyser | undefined;
