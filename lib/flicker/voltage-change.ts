@@ -11,6 +11,8 @@
  * - d(t) = (Uss,before − Urms(1/2)(t)) / Un during the change characteristic (positive for a drop);
  * - dmax = max |d(t)|; dc = |Uss,after − Uss,before| / Un; Tmax = time with |d(t)| > 3.3 %.
  */
+import { maxOf, minOf } from '../signal/extremes.js';
+
 
 /** Band and duration of a steady state. Ref: IEC 61000-4-15:2010, 3.1 (from memory). */
 export const STEADY_STATE_BAND_PERCENT = 0.2;
@@ -102,12 +104,12 @@ class Tracker implements VoltageChangeTracker {
 
 	/** Drops values from the front of the candidate run until it fits the band; dropped values belong to the change. */
 	private trimRun(): void {
-		let lo = Math.min(...this.runV), hi = Math.max(...this.runV);
+		let lo = minOf(this.runV), hi = maxOf(this.runV);
 		while (hi - lo > this.bandV) {
 			const v = this.runV.shift()!, t = this.runT.shift()!;
 			this.account(t, v);
-			lo = Math.min(...this.runV);
-			hi = Math.max(...this.runV);
+			lo = minOf(this.runV);
+			hi = maxOf(this.runV);
 		}
 	}
 
@@ -123,7 +125,7 @@ class Tracker implements VoltageChangeTracker {
 	private beginSteady(): void {
 		let sum = 0;
 		for (const v of this.runV) sum += v;
-		this.steady = { sum, count: this.runV.length, min: Math.min(...this.runV), max: Math.max(...this.runV), startS: this.runT[0] };
+		this.steady = { sum, count: this.runV.length, min: minOf(this.runV), max: maxOf(this.runV), startS: this.runT[0] };
 		if (this.change) {
 			this.change.lastS = this.runT[0];
 			this.awaitingAfter = this.change;

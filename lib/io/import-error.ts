@@ -19,6 +19,8 @@ export type ImportErrorCode =
 	| 'cfg-count-mismatch'
 	| 'dat-too-short'
 	| 'dat-syntax'
+	| 'dat-type-mismatch'
+	| 'out-of-range'
 	| 'missing-companion-file'
 	| 'too-large'
 	| 'internal-error';

@@ -4,6 +4,7 @@
  */
 import { ONE_OFF_CAPTURE_NOTE } from './evaluate.js';
 import type { LimitProvenance } from './types.js';
+import { maxOf } from '../signal/extremes.js';
 
 export type FlickerLimitTableId = 'en50160' | 'iec61000-2-2' | 'iec61000-3-3';
 export type FlickerFigure = 'Pst' | 'Plt' | 'dc' | 'dmax' | 'Tmax';
@@ -114,7 +115,7 @@ export function evaluateFlickerLimits(id: FlickerLimitTableId, measured: Flicker
 	if (!t) throw new RangeError(`unknown flicker limit table '${String(id)}'; known: ${Object.keys(FLICKER_LIMIT_TABLES).join(', ')}`);
 	const checks = t.rows.map((row): FlickerLimitCheck => {
 		const values = (measured[KEY[row.figure]] ?? []).filter(Number.isFinite);
-		const m = row.statistic === 'highest' ? (values.length ? Math.max(...values) : NaN) : levelNotExceeded(values, 0.95);
+		const m = row.statistic === 'highest' ? (values.length ? maxOf(values) : NaN) : levelNotExceeded(values, 0.95);
 		return { ...row, measured: m, count: values.length, pass: Number.isFinite(m) ? m <= row.limit : null };
 	});
 	const judged = checks.filter((c) => c.pass !== null);

@@ -5,6 +5,7 @@
  */
 import { fmt, recorded } from './common.js';
 import { NEXT_STEP_CAUTION, type NextStep } from './types.js';
+import { maxOf } from '../signal/extremes.js';
 
 /**
  * IEC 60364-5-52:2009 Annex E, Table E.52.1 (from memory): third-harmonic content of the phase current
@@ -58,8 +59,8 @@ const METHOD = [
  * @param phases  the three phase currents: RMS, A, and third harmonic, % of the fundamental
  */
 export function neutralConductor(phases: { channel: string; rmsA: number; thirdPercent: number }[], neutral: { rmsA: number; measured: boolean }): NextStep<NeutralConductorResult> {
-	const phaseA = Math.max(...phases.map((p) => p.rmsA));
-	const h3 = Math.max(...phases.map((p) => p.thirdPercent));
+	const phaseA = maxOf(phases.map((p) => p.rmsA));
+	const h3 = maxOf(phases.map((p) => p.thirdPercent));
 	const s = neutralSizing(phaseA, h3);
 	const designRecorded = s.basis === 'neutral' && neutral.rmsA > s.annexNeutralA ? neutral.rmsA / s.factor : s.designCurrentA;
 	const result: NeutralConductorResult = { ...s, phaseCurrentA: phaseA, thirdHarmonicPercent: h3, recordedNeutralA: neutral.rmsA, designCurrentRecordedA: designRecorded };

@@ -10,6 +10,7 @@ import { neutralConductor } from './neutral-conductor.js';
 import { powerFactorCorrection } from './pf-correction.js';
 import { transformerLoading } from './transformer.js';
 import { NEXT_STEP_CAUTION, SITE_INPUT_LABELS, type NextStep, type ReportNextSteps, type SiteInputs } from './types.js';
+import { minOf } from '../signal/extremes.js';
 
 /**
  * Checks the site inputs: every one a finite number above 0 (the target power factor at most 1), the
@@ -54,7 +55,7 @@ function transformerStep(r: AnalysisReport, site: SiteInputs): NextStep {
 	};
 	const currents = currentChannels(r).map((c) => ({ channel: c.name, rmsByOrder: c.harmonics.map((h) => h.rms), top: c.thdMaxOrder, rmsA: c.rms, phaseVoltageV: voltageOf(c.name) }));
 	if (currents.length === 0) return notApplicable('transformer-loading', 'Transformer loading under harmonic current', 'No current channel with harmonics: the K-factor needs a current.', []);
-	const maxOrder = Math.min(...currents.map((c) => c.top));
+	const maxOrder = minOf(currents.map((c) => c.top));
 	return transformerLoading(currents, maxOrder, site) as unknown as NextStep;
 }
 

@@ -7,6 +7,7 @@ import { parsePhaseLabel } from '../power/phase-label.js';
 import { phasorAbs, phasorArgDeg, phasorSub, wrapAngleDeg, type ComplexPhasor } from '../power/phasor.js';
 import { symmetricalComponents } from './sequence.js';
 import { sqrt3Check } from './line-voltages.js';
+import { maxOf, minOf } from '../signal/extremes.js';
 
 /**
  * Nominal low-voltage systems, line-to-neutral / line-to-line RMS volts, used to read a level.
@@ -133,7 +134,7 @@ export function starDeltaHints(e: StarDeltaEvidence): Diagnostic[] {
 		out.push({ code: 'star-sqrt3-check', severity: c.consistent ? 'info' : 'warning', message: c.sentence });
 		if (e.lineVoltages) {
 			const dev = [0, 1, 2].map((k) => (100 * phasorAbs(phasorSub(e.lineVoltages![k], derived[k]))) / phasorAbs(derived[k]));
-			const worst = Math.max(...dev);
+			const worst = maxOf(dev);
 			out.push({
 				code: 'line-voltage-agreement',
 				severity: worst <= LINE_VOLTAGE_AGREEMENT_PERCENT ? 'info' : 'warning',
@@ -160,7 +161,7 @@ export function starDeltaHints(e: StarDeltaEvidence): Diagnostic[] {
 		if (e.phaseVoltages) {
 			const th = [0, 1, 2].map((k) => wrapAngleDeg(phasorArgDeg(e.phaseVoltages![k]) - phasorArgDeg(e.lineCurrents![k])));
 			const mean = (th[0] + th[1] + th[2]) / 3;
-			if (Math.max(...th) - Math.min(...th) < 5 && Math.abs(Math.abs(mean) - 30) < 3) {
+			if (maxOf(th) - minOf(th) < 5 && Math.abs(Math.abs(mean) - 30) < 3) {
 				out.push({ code: 'angles-near-30', severity: 'info', message: `voltage/current angles are all ${mean.toFixed(1)} deg: a load with PF 0.87, or voltages measured line-to-line (which shifts every angle by 30 deg) on a resistive load.` });
 			}
 		}

@@ -14,6 +14,7 @@ import { neutralCurrentFigures, sumHarmonicSets, sumPhaseCurrents, type NeutralC
 import { phaseRotation, type PhaseRotation } from './rotation.js';
 import { symmetricalComponents, type SequenceComponents } from './sequence.js';
 import { currentUnbalance, voltageUnbalance, type VoltageUnbalance } from './unbalance.js';
+import { maxOf } from '../signal/extremes.js';
 
 type Three<T> = [T, T, T];
 
@@ -112,7 +113,7 @@ export function threePhaseFromSamples(input: ThreePhaseSamples, sampleRateHz: nu
 			const sum = phasorFromHarmonic(sumHarmonicSets(iSets[0], iSets[1], iSets[2]).orders[1]);
 			const meas = phasorFromHarmonic(nSet.orders[1]);
 			const diff = Math.min(phasorAbs(phasorSub(meas, sum)), phasorAbs(phasorAdd(meas, sum)));
-			const ref = Math.max(...iSets.map((s) => s.orders[1].rms));
+			const ref = maxOf(iSets.map((s) => s.orders[1].rms));
 			if (ref > 0 && diff / ref > NEUTRAL_MISMATCH_RATIO) {
 				diagnostics.push({
 					code: 'neutral-mismatch',

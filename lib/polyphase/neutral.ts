@@ -4,6 +4,7 @@
  */
 import type { HarmonicSet } from '../spectrum/types.js';
 import { phasorAbs, phasorAdd, phasorArgDeg, phasorFromHarmonic } from '../power/phasor.js';
+import { maxOf } from '../signal/extremes.js';
 
 /**
  * Neutral current samples of a 4-wire system from the line currents: i_N = i1 + i2 + i3 (new array).
@@ -74,7 +75,7 @@ export interface NeutralCurrentFigures {
  */
 export function neutralCurrentFigures(source: 'measured' | 'computed', neutralRmsA: number, phaseRmsA: [number, number, number], neutralSet?: HarmonicSet): NeutralCurrentFigures {
 	const mean = (phaseRmsA[0] + phaseRmsA[1] + phaseRmsA[2]) / 3;
-	const max = Math.max(...phaseRmsA);
+	const max = maxOf(phaseRmsA);
 	let triplenSq = 0;
 	let largestTriplenOrder = 0;
 	let largestTriplenRmsA = 0;

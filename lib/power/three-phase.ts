@@ -7,6 +7,7 @@ import { symmetricalComponents } from '../polyphase/sequence.js';
 import { complexPower, phasorAbs, phasorAdd, phasorFromHarmonic, phasorSub, type ComplexPhasor } from './phasor.js';
 import { ieee1459FromComponents, activePowerFromHarmonicsW, rmsFromHarmonicSet, type SinglePhasePower, type TimeDomainTotals } from './single-phase.js';
 import { phasorArgDeg, wrapAngleDeg } from './phasor.js';
+import { minOf } from '../signal/extremes.js';
 
 /** '4-wire': three lines and a neutral (star); '3-wire': three lines, no neutral conductor. */
 export type PowerWiring = '4-wire' | '3-wire';
@@ -206,7 +207,7 @@ export function threePhasePowerFromHarmonics(
 	opts: { lineVoltageRmsV?: Three<number>; neutralCurrentRmsA?: number; neutralCurrent?: HarmonicSet } = {},
 ): ThreePhasePower {
 	for (const p of phases) if (!p.voltage.orders[1] || !p.current.orders[1]) throw new RangeError('harmonic sets must hold order 1 (the fundamental)');
-	const orders = Math.min(...phases.flatMap((p) => [p.voltage.orders.length, p.current.orders.length]));
+	const orders = minOf(phases.flatMap((p) => [p.voltage.orders.length, p.current.orders.length]));
 	const perOrderRms = (f: (h: number) => ComplexPhasor) => {
 		let s = 0;
 		for (let h = 0; h < orders; h++) {

@@ -4,6 +4,7 @@
  */
 import { csvCell, csvNumberCell } from './csv-cell.js';
 import type { ReportJson } from './to-json.js';
+import { maxOf } from '../signal/extremes.js';
 
 /** Column names of the CSV summary, in order (SI units; names follow the JSON contract). */
 export const CSV_SUMMARY_COLUMNS = [
@@ -87,7 +88,7 @@ function rowOf(report: ReportJson, c: ReportJson['channels'][number]): string {
 		csvNumberCell(c.harmonics[1]?.rms),
 		csvNumberCell(pair?.lagDeg),
 		csvTextCell(limitsPass),
-		csvNumberCell(fl && fl.pst.length > 0 ? Math.max(...fl.pst.map((p) => p.pst ?? NaN)) : NaN),
+		csvNumberCell(fl && fl.pst.length > 0 ? maxOf(fl.pst.map((p) => p.pst ?? NaN)) : NaN),
 		csvNumberCell(fl?.pinst.max),
 	];
 	return cells.join(',');

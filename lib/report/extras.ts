@@ -13,6 +13,7 @@ import { perCycleFigures } from '../signal/per-cycle.js';
 import { averageMeterExplanation } from '../spectrum/average-meter.js';
 import { channelSpectrum, type ChannelSpectrum, type WindowSlot } from './spectra.js';
 import type { ReportDigital, ReportNeutral, ReportThreePhasePower, ReportWorstCycle } from './types.js';
+import { minOf } from '../signal/extremes.js';
 
 /** The cycle with the highest RMS and the one with the highest peak magnitude (UPS and generator sizing). */
 export function worstCycle(samples: Float64Array, window: CycleWindow, sampleRateHz: number): ReportWorstCycle {
@@ -25,7 +26,7 @@ export function worstCycle(samples: Float64Array, window: CycleWindow, sampleRat
 		peakCycle: p.worstPeakCycle,
 		peak: peakOf(p.worstPeakCycle),
 		peakStartS: p.worstPeakCycle >= 0 ? p.startIndex[p.worstPeakCycle] / sampleRateHz : NaN,
-		lowestRms: p.rms.length > 0 ? Math.min(...p.rms) : NaN,
+		lowestRms: p.rms.length > 0 ? minOf(p.rms) : NaN,
 	};
 }
 

@@ -9,6 +9,7 @@ import { createHalfPeriodRms, createVoltageChangeTracker, type VoltageChange } f
 import { evaluateFlickerLimits, type FlickerLimitEvaluation, type FlickerLimitTableId } from '../limits/flicker.js';
 import { declaredVoltageFromRms } from '../trend/declared-voltage.js';
 import type { ReportLimitTableId } from './types.js';
+import { maxOf } from '../signal/extremes.js';
 
 /** One voltage channel's flicker figures. */
 export interface ReportFlickerChannel {
@@ -103,7 +104,7 @@ function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50
 	}
 	const worst = (f: (v: VoltageChange) => number) => {
 		const v = list.map(f).filter(Number.isFinite);
-		return v.length ? Math.max(...v) : NaN;
+		return v.length ? maxOf(v) : NaN;
 	};
 	const pst = r.pst.map((p) => ({ startS: p.startS, durationS: p.durationS, pst: p.pst }));
 	const measured = { pst: pst.map((p) => p.pst), plt: r.plt.map((p) => p.plt), dcPercent: list.map((v) => v.dcPercent), dmaxPercent: list.map((v) => v.dmaxPercent), tmaxS: list.map((v) => v.tmaxS) };

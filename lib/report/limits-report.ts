@@ -5,6 +5,7 @@
 import { evaluateLimits, LIMIT_TABLES } from '../limits/evaluate.js';
 import type { LimitEvaluation } from '../limits/types.js';
 import type { AnalysisOptions, AnalysisReport, ReportChannel, ReportLimitRow, ReportLimits } from './types.js';
+import { maxOf } from '../signal/extremes.js';
 
 function rowsOf(channel: string, e: LimitEvaluation): { rows: ReportLimitRow[]; unmeasured: string[] } {
 	const rows: ReportLimitRow[] = [];
@@ -51,7 +52,7 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 	for (const c of report.channels) if (c.harmonics.length <= 1) notes.push(`${c.name}: no harmonics (no fundamental found); not evaluated.`);
 	let busVoltageV = options.nominalV;
 	if (id === 'ieee519' && busVoltageV === undefined) {
-		const vmax = Math.max(0, ...measured.filter((c) => c.quantity === 'voltage').map((c) => c.rms).filter(Number.isFinite));
+		const vmax = Math.max(0, maxOf(measured.filter((c) => c.quantity === 'voltage').map((c) => c.rms).filter(Number.isFinite)));
 		busVoltageV = vmax > 0 ? Math.sqrt(3) * vmax : 400;
 		notes.push(`Bus voltage for the IEEE 519 row taken as ${busVoltageV.toFixed(0)} V (${vmax > 0 ? '√3 × the highest measured voltage' : 'no voltage channel: a low-voltage bus assumed'}); give --nominal to set it.`);
 	}

@@ -104,6 +104,7 @@ export function findWholeCycles(
 	mean /= n;
 	let acSquares = 0;
 	for (let i = 0; i < n; i++) acSquares += (samples[i] - mean) ** 2;
+	if (!Number.isFinite(acSquares) || !Number.isFinite(mean)) return overflowFailure(samples, mean);
 	const acRms = Math.sqrt(acSquares / n);
 	if (!(acRms > 1e-9 * Math.abs(mean))) {
 		return fail('dc-only', `The record is constant (${fmt(mean)}): no alternating signal, so no cycles or frequency.`);
@@ -188,6 +189,25 @@ function tooShort(recordCycles: number, frequencyHz: number, wholeCycles?: numbe
 	return fail(
 		'too-short',
 		`The record holds about ${fmt(recordCycles)} cycles of ${fmt(frequencyHz)} Hz${found}; at least two whole cycles are needed.`,
+	);
+}
+
+/**
+ * The failure for finite samples whose sum or sum of squares exceeds the largest double (about 1.8e308):
+ * names the first sample at which the running sum of squares overflows.
+ */
+function overflowFailure(samples: Float64Array, mean: number): SignalFailure {
+	let s = 0;
+	let at = 0;
+	const centre = Number.isFinite(mean) ? mean : 0;
+	for (; at < samples.length; at++) {
+		s += (samples[at] - centre) ** 2;
+		if (!Number.isFinite(s)) break;
+	}
+	at = Math.min(at, samples.length - 1);
+	return fail(
+		'bad-parameter',
+		`Sample at index ${at} is ${fmt(samples[at])}: the samples are too large to sum their squares (beyond about 1e154 in magnitude, or their sum beyond 1.8e308). Check the scaling or unit of the file.`,
 	);
 }
 

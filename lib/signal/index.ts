@@ -7,6 +7,7 @@ export {
 	AVERAGE_RESPONDING_FACTOR,
 	type WaveformFigures,
 } from './levels.js';
+export { minOf, maxOf } from './extremes.js';
 export { perCycleFigures, type PerCycleFigures } from './per-cycle.js';
 export {
 	signalWarnings,

@@ -79,6 +79,12 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 	// and the off-centre windows at the record's ends extrapolate the phase at the right rate. Four cycles
 	// average out noise on single intervals while lagging a 0.1 Hz/s ramp by under 1e-4 of a period.
 	const recent = 4;
+	// Each step moves at least half a period (a smaller one is irregular and stops), so no direction takes
+	// more than 2n / periodSamples + 2 steps; the bound also stops the loop if a NaN ever slips through.
+	const maxSteps = Math.ceil((2 * n) / periodSamples) + 2;
+	if (!(Number.isFinite(anchor) && periodSamples > 0 && Number.isFinite(periodSamples))) {
+		return { crossings: [], fundamentalRatio: NaN, irregular: true, bridged: [], periodSpread: NaN };
+	}
 	for (const direction of [1, -1]) {
 		const out = direction > 0 ? forward : backward;
 		// Backwards, start from the first cycles measured forwards: the anchor sits one period in.
@@ -87,8 +93,12 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 		let prev = anchor;
 		previousAmplitude = anchorFit.amplitude;
 		previousQuality = quality(anchorFit);
-		for (;;) {
+		for (let steps = 0; ; steps++) {
 			const guess = prev + direction * period;
+			if (!Number.isFinite(guess) || steps > maxSteps) {
+				irregular = true;
+				break;
+			}
 			if (guess > last + period / 2 || guess < -period / 2) break;
 			const centred = { value: 0 };
 			const f = fit(guess, period, centred);

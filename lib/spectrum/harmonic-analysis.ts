@@ -5,6 +5,7 @@ import { defaultWindowCycles, harmonicWindow, percentOf, relativePhases, wrapDeg
 import { iecHarmonicGroups } from './groups.js';
 import { thdFigures } from './thd.js';
 import type { HarmonicPhasor, HarmonicWindow } from './types.js';
+import { minOf } from '../signal/extremes.js';
 
 /** The aggregate of several windows: the same fields as one window, plus how many were aggregated. */
 export interface HarmonicAggregate extends HarmonicWindow {
@@ -116,7 +117,7 @@ export function aggregateHarmonicWindows(windows: HarmonicWindow[]): HarmonicAgg
 		endIndex: windows[n - 1].endIndex,
 		dftLength: first.dftLength,
 		resampled: windows.some((w) => w.resampled),
-		highestValidOrder: Math.min(...windows.map((w) => w.highestValidOrder)),
+		highestValidOrder: minOf(windows.map((w) => w.highestValidOrder)),
 		windowCount: n,
 	};
 }

@@ -12,6 +12,8 @@ const MAX_RADIX = 13;
 /** Factors of n in the order the stages use them (4s first, then 2, 3, 5, 7, 11, 13), or undefined if a prime factor exceeds 13. */
 export function smoothFactors(n: number): number[] | undefined {
 	const f: number[] = [];
+	// 0, a fraction, NaN or a length beyond 2^53 has no factorisation (0 % 4 === 0 would loop forever)
+	if (!(Number.isSafeInteger(n) && n >= 1)) return undefined;
 	let r = n;
 	while (r % 4 === 0) {
 		f.push(4);

@@ -24,6 +24,7 @@ import { harmonicWindow } from '../spectrum/harmonics.js';
 import { CrossingTracker, type CrossingSink } from './crossing-tracker.js';
 import { declaredVoltageFromRms } from './declared-voltage.js';
 import { EventDetector } from './event-detector.js';
+import { trendLimitProblem, trendRingLength } from './limits.js';
 import { RowGroup } from './row-group.js';
 import { RvcDetector } from './rvc-detector.js';
 import { TREND_MAX_ORDER, WindowThd } from './window-thd.js';
@@ -76,10 +77,12 @@ interface PendingFreq {
  */
 export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const fs = opts.sampleRateHz;
-	if (!(fs > 0) || !Number.isFinite(fs)) throw new RangeError(`sampleRateHz must be a positive number, got ${fs}`);
 	const channels = opts.channels.map((c) => ({ ...c }));
 	const nCh = channels.length;
-	if (nCh === 0) throw new RangeError('at least one channel is needed');
+	// Before anything is sized from them: a rate of 1e-300 Hz would make the 10 s and 10 min intervals
+	// zero samples long (their loops would never end), 1e5 channels would take gigabytes of ring buffers.
+	const limit = trendLimitProblem(fs, nCh, BLOCK);
+	if (limit) throw new RangeError(`expected ${limit.expected}, got ${limit.got}`);
 	const th: TrendThresholds = { ...TREND_DEFAULT_THRESHOLDS, ...opts.thresholds };
 	for (const [k, v] of Object.entries(th)) if (!(v >= 0) || !Number.isFinite(v)) throw new RangeError(`threshold ${k} must be a number >= 0, got ${v}`);
 	if (!(th.interruptionPercent < th.dipPercent && th.dipPercent < 100 && th.swellPercent > 100)) {
@@ -93,8 +96,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const keep = { cycles10: true, cycles150: true, min10: true, ...opts.keep };
 	const diagnostics: Diagnostic[] = [];
 
-	let ringLen = 1;
-	while (ringLen < Math.ceil(0.5 * fs) + BLOCK + 16) ringLen *= 2;
+	const ringLen = trendRingLength(fs, BLOCK);
 	const mask = ringLen - 1;
 	const rings = channels.map(() => new Float64Array(ringLen));
 	const wantThd = opts.thd ?? true;
@@ -106,6 +108,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	let fastThd: WindowThd | undefined;
 	let fastThdCycles = 0;
 	let nonFiniteWindows = 0;
+	let firstNonFinite = { channel: 0, startS: 0 };
 	/** Samples beyond each end of a window kept for the DFT's resampling kernel. */
 	const PAD = 16;
 	const windowsToClose: { start: number; end: number; startT: number; endT: number }[] = [];
@@ -177,7 +180,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				s += v * v;
 			}
 			rms[c] = Math.sqrt(s / lengthT);
-			if (!Number.isFinite(rms[c])) nonFiniteWindows++;
+			if (!Number.isFinite(rms[c]) && nonFiniteWindows++ === 0) firstNonFinite = { channel: c, startS: startT / fs };
 			if (thdMethod === 'sinc' && scratch) {
 				const s0 = Math.max(0, abs - ringLen + 1, Math.floor(startT) - PAD);
 				const e0 = Math.min(abs, Math.ceil(endT) + PAD);
@@ -424,7 +427,11 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				}
 			}
 			if (nonFiniteWindows > 0) {
-				diagnostics.push({ code: 'non-finite-samples', severity: 'warning', message: `${nonFiniteWindows} channel window(s) of 10/12 cycles hold missing or non-finite samples: their values are NaN, and no event can be detected from them.` });
+				diagnostics.push({
+					code: 'non-finite-samples',
+					severity: 'warning',
+					message: `${nonFiniteWindows} channel window(s) of 10/12 cycles hold missing or non-finite samples, or samples too large to square (beyond about 1e154), the first on ${channels[firstNonFinite.channel].name} at ${firstNonFinite.startS.toFixed(4)} s: their values are left empty, and no event can be detected from them.`,
+				});
 			}
 			if (seq < 0) diagnostics.push({ code: 'no-zero-crossings', severity: 'warning', message: `${channels[ref].name}: no zero crossing found; no aggregate could be formed.` });
 			if (abs >= tickLen) diagnostics.push({ code: 'ten-minute-from-start', severity: 'info', message: '10-min intervals count from the start of the recording (no wall-clock synchronisation).' });

@@ -7,6 +7,7 @@ import type { Diagnostic } from '../capture.js';
 import { createFlickermeter, FLICKER_MIN_SAMPLE_RATE_HZ, type Flickermeter, type FlickerResult } from '../flicker/index.js';
 import { createHalfPeriodRms, createVoltageChangeTracker, type HalfPeriodRms, type VoltageChangeTracker } from '../flicker/index.js';
 import type { TrendChannelSpec, TrendEvent } from './types.js';
+import { maxOf } from '../signal/extremes.js';
 
 /** One Pst or Plt row: a value per voltage channel (order of `TrendFlicker.channels`). */
 export interface TrendFlickerRow {
@@ -129,7 +130,7 @@ export class TrendFlickerTracker {
 
 	private changeSummary(): TrendFlicker['changes'] {
 		if (!this.changeTrackers) return undefined;
-		const worst = (v: number[]) => (v.filter(Number.isFinite).length ? Math.max(...v.filter(Number.isFinite)) : NaN);
+		const worst = (v: number[]) => (v.filter(Number.isFinite).length ? maxOf(v.filter(Number.isFinite)) : NaN);
 		return this.changeTrackers.map((tr) => {
 			const list = tr.finish();
 			return { count: list.length, dcMaxPercent: worst(list.map((c) => c.dcPercent)), dmaxPercent: worst(list.map((c) => c.dmaxPercent)), tmaxS: worst(list.map((c) => c.tmaxS)) };

@@ -3,6 +3,7 @@
  * a short record, said to be no Pst), the IEC 61000-3-3 voltage changes and the flicker limits.
  */
 import type { ReportJson } from '../../lib/report/index.js';
+import { maxOf } from '../../lib/signal/extremes.js';
 
 function num(x: number | null | undefined, decimals: number): string {
 	return x === null || x === undefined || !Number.isFinite(x) ? '-' : x.toFixed(decimals);
@@ -18,7 +19,7 @@ export function flickerLines(r: ReportJson): string[] {
 		const lamp = `${c.lamp} lamp`;
 		if (c.hasPst) {
 			const pst = c.pst.map((p) => p.pst ?? NaN);
-			const worst = Math.max(...pst.filter(Number.isFinite));
+			const worst = maxOf(pst.filter(Number.isFinite));
 			const plt = c.plt.length > 0 ? `; Plt ${c.plt.map((p) => num(p.plt, 2)).join(', ')}` : '; no Plt (needs 2 hours)';
 			out.push(`    ${c.channel} (${lamp}): Pst ${pst.length === 1 ? num(pst[0], 2) : `highest ${num(worst, 2)} of ${pst.length}`}${plt}`);
 		} else if (c.pinst.max === null) {

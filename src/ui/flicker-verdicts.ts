@@ -5,6 +5,7 @@
  */
 import type { AnalysisReport } from '../../lib/report/types.js';
 import type { Verdict } from './verdicts.js';
+import { maxOf } from '../../lib/signal/extremes.js';
 
 /**
  * Pst or Plt of 1: the level at which half of observers find a 60 W filament lamp's flicker irritating
@@ -23,8 +24,8 @@ export function flickerVerdicts(report: AnalysisReport): Verdict[] {
 	for (const c of report.flicker?.channels ?? []) {
 		const target = { tab: 'trends' as const, channel: c.channel };
 		if (c.hasPst) {
-			const pst = Math.max(...c.pst.map((p) => p.pst));
-			const plt = c.plt.length > 0 ? Math.max(...c.plt.map((p) => p.plt)) : NaN;
+			const pst = maxOf(c.pst.map((p) => p.pst));
+			const plt = c.plt.length > 0 ? maxOf(c.plt.map((p) => p.plt)) : NaN;
 			const high = pst > FLICKER_IRRITATION_LEVEL || plt > FLICKER_IRRITATION_LEVEL;
 			out.push({
 				id: `flicker-${c.channel}`,

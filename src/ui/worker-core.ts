@@ -13,6 +13,7 @@ import { channelSpectrum, planWindows } from '../../lib/report/spectra.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
 import { analyseTrend } from '../../lib/trend/analyse-capture.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
+import { minOf } from '../../lib/signal/extremes.js';
 
 export type Post = (msg: FromWorker, transfer?: Transferable[]) => void;
 
@@ -37,7 +38,7 @@ export function trendFor(capture: Capture): TrendView | null {
 			},
 		});
 		const used = capture.channels.map((c, k) => ({ c, k })).filter(({ k }) => values[k].length > 0);
-		const n = Math.min(...used.map(({ k }) => values[k].length));
+		const n = minOf(used.map(({ k }) => values[k].length));
 		const first = used[0]?.k ?? 0;
 		return {
 			result,

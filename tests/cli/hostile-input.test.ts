@@ -163,6 +163,9 @@ beforeAll(async () => {
 	writeFileSync(join(dir, 'attack.dat'), comtradeDatBytes(attack));
 	writeCsvCapture(join(dir, 'fullwidth.csv'), [{ header: '\uFF1DHYPERLINK("x") (V)', tones: [{ order: 1, rms: 230 }] }], SINE);
 	writeCsvCapture(join(dir, '-2+3.csv'), U1, SINE);
+	// A long, ordinary record (1.5 M rows x 3 channels, ~45 MB): its analysis takes seconds, so a signal
+	// sent 2 s after the start arrives while a helper works on it (about 3.4 s of CPU here).
+	writeCsvCapture(join(dir, 'long.csv'), ['U1', 'U2', 'U3'].map((n) => ({ header: `${n} (V)`, tones: [{ order: 1, rms: 230 }] })), { frequencyHz: 50, sampleRateHz: 10_000, cycles: 7500 });
 }, 60_000);
 
 describe('sinecheck under hostile input (built CLI, capped child processes)', () => {
@@ -194,11 +197,12 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 		expect(r.stderr).toMatch(/^analysed 1 capture\(s\) from 4 file set\(s\); 3 with errors/m);
 	}, 60_000);
 
-	it('trend <time stamps jumping by 1e6 s> <good> <good>: the good files trended, the bad one a located line, no crash', async () => {
+	it('trend <time stamps jumping by 1e6 s> <good> <good>: the good files trended, the jump a located warning, no crash', async () => {
 		const r = await runCli(['trend', 'jump.csv', 'batch/a-good.csv', 'batch/z-good.csv', '--nominal', '230', ...CAPS]);
 		expectClean(r);
 		for (const good of ['batch/a-good.csv', 'batch/z-good.csv']) expect(r.stdout).toMatch(new RegExp(`^${good.replace(/[.]/g, '\\.')},10/12-cycle,`, 'm'));
-		expect(r.stdout.includes('\njump.csv,') || errorLineFor(r.stderr, 'jump.csv') !== undefined).toBe(true);
+		// The jump is between lines 1001 and 1002 of the file written above: the warning names line 1002.
+		expect(r.stderr).toMatch(/^jump\.csv: warning: .*gap.*line 1002/m);
 	}, 60_000);
 
 	it('trend <fifo> /dev/zero: a clear line for each, exit 2, no hang', async () => {
@@ -210,7 +214,7 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 	}, 60_000);
 
 	it('analyse <file> stopped with SIGTERM mid-file leaves no helper process running', async () => {
-		const r = await runCli(['analyse', 'batch/e-extreme.csv', '--time-limit', '40'], { termAfterMs: 3000 });
+		const r = await runCli(['analyse', 'long.csv', '--time-limit', '40'], { termAfterMs: 2000 });
 		expect(r.timedOut).toBe(false);
 		expect(r.code).toBe(143); // 128 + SIGTERM (15), common practice for a command ended by a signal
 		expect(r.leftInGroup).toBe('');

@@ -1,6 +1,7 @@
 // Header cells, units and channel names. Unit prefixes per the SI brochure (BIPM, 9th edition, 2019,
 // table 7: m = 1e-3, k = 1e3, µ = 1e-6, n = 1e-9); letter and phase conventions are common practice.
 import { describe, expect, it } from 'vitest';
+import { parseCsv } from '../../lib/io/csv/parse-csv.js';
 import { isIndexName, isTimeName, minMaxOf, phaseFromName, quantityFromName } from '../../lib/io/csv/names.js';
 import { looksLikeUnitsRow, readUnit, splitNameUnit } from '../../lib/io/csv/units.js';
 
@@ -65,5 +66,25 @@ describe('channel names', () => {
 		expect(minMaxOf('I2_Max')).toEqual({ base: 'I2', which: 'max' });
 		expect(minMaxOf('min(U3)')).toEqual({ base: 'U3', which: 'min' });
 		expect(minMaxOf('U1')).toBeNull();
+	});
+});
+
+describe('a stated electrical unit wins over a name that looks like a counter', () => {
+	// "N" is the neutral conductor (IEC 60445, from memory); "N (V)" is its voltage to earth, not a sample number
+	const rows = (k: number) => `${(230 * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * k) / 10_000)).toFixed(3)},${(0.5 * Math.sin((2 * Math.PI * 150 * k) / 10_000)).toFixed(4)},${(k / 10_000).toFixed(4)}`;
+	const text = ['L1 (V),N (V),t (s)', ...Array.from({ length: 400 }, (_, k) => rows(k))].join('\n');
+
+	it('parseCsv takes "N (V)" as a voltage channel and "t (s)" as the time base', () => {
+		const c = parseCsv(text, 'neutral.csv');
+		expect(c.channels.map((ch) => [ch.name, ch.quantity, ch.unit])).toEqual([
+			['L1', 'voltage', 'V'],
+			['N', 'voltage', 'V'],
+		]);
+		// time stamps 1e-4 s apart: 10 kS/s (closed form)
+		expect(c.sampleRateHz).toBeCloseTo(10_000, 6);
+	});
+
+	it('"n" without a unit is still a sample number', () => {
+		expect(() => parseCsv('n,U (V)\n0,1\n1,-1\n2,1\n', 'idx.csv')).toThrow(/sample rate/);
 	});
 });

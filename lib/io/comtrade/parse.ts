@@ -8,6 +8,7 @@ import type { Capture, Channel, Diagnostic, DigitalChannel } from '../../capture
 import { ImportError } from '../import-error.js';
 import { type CfgAnalog, type ComtradeConfig, parseComtradeCfg } from './cfg.js';
 import { readComtradeDat } from './dat.js';
+import { checkDatType } from './dat-type.js';
 import { stampDifferenceS } from './stamp.js';
 import { normaliseUnitText, phaseLabel, quantityFromName } from './units.js';
 
@@ -53,6 +54,7 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 
 	const lastRate = cfg.rates[cfg.rates.length - 1];
 	const expected = lastRate ? lastRate.endSample : cfg.endSampleNoRate || undefined;
+	checkDatType(cfg, datBytes, datSource, source, offsets.byte ?? 0);
 	const dat = readComtradeDat(cfg, datBytes, datSource, expected, offsets);
 	const n = dat.records;
 	if (n === 0) throw new ImportError(datSource, 1 + (offsets.line ?? 0), 0, 'no-data', '', 'at least one data record');
@@ -86,12 +88,7 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 
 	const channels = cfg.analog.map((a, c) => scaleChannel(a, dat.raw[c], want, diagnostics));
 	uniqueNames(channels, diagnostics);
-	const unflagged = cfg.analog.filter((a) => a.ps === undefined).length;
-	if (cfg.analog.length > unflagged) {
-		diagnostics.push({ code: 'comtrade-values', severity: 'info', message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}${unflagged > 0 ? `, except ${unflagged} channel(s) without a P/S flag, kept as recorded` : ''}; each channel's scaling says how.` });
-	} else if (unflagged > 0) {
-		diagnostics.push({ code: 'comtrade-values', severity: 'assumption', message: 'The .cfg gives no P/S flags: analog values are reported as recorded (a·x + b), not known to be primary or secondary.' });
-	}
+	if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want));
 	cfg.analog.forEach((a, c) => {
 		if (dat.missing[c] > 0) diagnostics.push({ code: 'comtrade-missing-values', severity: 'warning', line: a.line, message: `Channel ${channels[c].name}: ${dat.missing[c]} of ${n} values are marked missing in the data; they are NaN.` });
 	});
@@ -115,6 +112,15 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 		metadata,
 		diagnostics,
 	};
+}
+
+/** Which values (primary, secondary, as recorded) the analog channels report. */
+export function valuesNote(cfg: ComtradeConfig, want: 'primary' | 'secondary'): Diagnostic {
+	const unflagged = cfg.analog.filter((a) => a.ps === undefined).length;
+	if (cfg.analog.length > unflagged) {
+		return { code: 'comtrade-values', severity: 'info', message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}${unflagged > 0 ? `, except ${unflagged} channel(s) without a P/S flag, kept as recorded` : ''}; each channel's scaling says how.` };
+	}
+	return { code: 'comtrade-values', severity: 'assumption', message: 'The .cfg gives no P/S flags: analog values are reported as recorded (a·x + b), not known to be primary or secondary.' };
 }
 
 function fmt(x: number): string {
@@ -158,7 +164,7 @@ function timeBase(cfg: ComtradeConfig, stamps: Float64Array, n: number, startS: 
 	return { sampleRateHz: meanHz, timeS };
 }
 
-function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'secondary', diagnostics: Diagnostic[]): Channel {
+export function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'secondary', diagnostics: Diagnostic[]): Channel {
 	const u = normaliseUnitText(a.unit);
 	let ratio = 1;
 	let which: string;
@@ -199,7 +205,7 @@ function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'second
 	return channel;
 }
 
-function uniqueNames(channels: Channel[], diagnostics: Diagnostic[]): void {
+export function uniqueNames(channels: Channel[], diagnostics: Diagnostic[]): void {
 	const seen = new Map<string, number>();
 	for (const c of channels) {
 		const k = seen.get(c.name) ?? 0;

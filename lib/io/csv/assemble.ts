@@ -56,35 +56,69 @@ export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: 
 	if (layout.decimation && !diagnostics.some((d) => d.code === 'decimated'))
 		diagnostics.push({ code: 'decimated', severity: 'warning', message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.` });
 
-	const channels: Channel[] = [];
-	const seen = new Set<string>();
-	for (const col of layout.columns) {
-		if (col.role !== 'channel') continue;
-		const s = setUpChannel(col, layout, options);
-		diagnostics.push(...s.diagnostics);
-		const samples = cols[col.index];
-		// A pure power-of-ten division (mV, mA) divides, so 3.25 mA gives the double nearest 0.00325 A.
-		const divisor = 1 / s.factor;
-		if (s.factor !== 1 && s.offset === 0 && Number.isInteger(divisor) && 1 / divisor === s.factor) for (let i = 0; i < n; i++) samples[i] /= divisor;
-		else if (s.factor !== 1 || s.offset !== 0) for (let i = 0; i < n; i++) samples[i] = s.factor * samples[i] + s.offset;
-		let name = s.name;
-		for (let k = 2; seen.has(name); k++) name = `${s.name} (${k})`;
-		if (name !== s.name) diagnostics.push({ code: 'duplicate-name', severity: 'warning', column: col.index + 1, message: `Two columns are named "${s.name}"; column ${col.index + 1} was renamed "${name}".` });
-		seen.add(name);
-		const ch: Channel = { name, unit: s.unit, quantity: s.quantity, samples };
-		if (s.phase !== undefined) ch.phase = s.phase;
-		if (s.description) ch.scaling = { factor: s.factor, offset: s.offset, description: s.description };
-		channels.push(ch);
-	}
-	const known = new Set(layout.columns.flatMap((col) => [col.name, col.header, `col${col.index + 1}`]));
-	for (const name of Object.keys(layout.preambleChannels))
-		if (!known.has(name)) diagnostics.push({ code: 'preamble-channel-unmatched', severity: 'warning', message: `The preamble gives settings for "${name}", which is not a column name; they were not applied.` });
-	for (const name of Object.keys(options.channels ?? {}))
-		if (!known.has(name)) diagnostics.push({ code: 'option-channel-unmatched', severity: 'warning', message: `Channel settings were given for "${name}", which is not a column name (names: ${layout.columns.map((col) => col.name).join(', ')}); they were not applied.` });
+	const plan = planCsvChannels(layout, options);
+	diagnostics.push(...plan.diagnostics);
+	const channels: Channel[] = plan.channels.map((p) => {
+		const samples = cols[p.column];
+		scaleCsvSamples(samples, n, p);
+		const ch: Channel = { name: p.name, unit: p.unit, quantity: p.quantity, samples };
+		if (p.phase !== undefined) ch.phase = p.phase;
+		if (p.scaling) ch.scaling = p.scaling;
+		return ch;
+	});
 	if (channels.length === 0) throw new ImportError(source, layout.headerLine ?? layout.bodyLine, 0, 'no-data', '', 'at least one data column besides the time column');
 	const capture: Capture = { source, sampleRateHz: tb.sampleRateHz, startS: tb.startS, channels, metadata: layout.metadata, diagnostics };
 	if (tb.timeS) capture.timeS = tb.timeS;
 	if (layout.startTime) capture.startTime = layout.startTime;
 	if (layout.nominalFrequencyHz) capture.nominalFrequencyHz = layout.nominalFrequencyHz;
 	return capture;
+}
+
+/** One channel of a CSV: its column, what it is and the scaling value = factor · raw + offset. */
+export interface CsvChannelPlan {
+	/** 0-based column index in the file. */
+	column: number;
+	name: string;
+	unit: string;
+	quantity: Channel['quantity'];
+	phase?: string;
+	factor: number;
+	offset: number;
+	scaling?: Channel['scaling'];
+}
+
+/**
+ * The channels of a detected layout (every column with the 'channel' role), unique names, and what was
+ * said about them; needs no data, so a streaming reader knows its channels before the first row.
+ */
+export function planCsvChannels(layout: CsvLayout, options: CsvOptions): { channels: CsvChannelPlan[]; diagnostics: Diagnostic[] } {
+	const diagnostics: Diagnostic[] = [];
+	const channels: CsvChannelPlan[] = [];
+	const seen = new Set<string>();
+	for (const col of layout.columns) {
+		if (col.role !== 'channel') continue;
+		const s = setUpChannel(col, layout, options);
+		diagnostics.push(...s.diagnostics);
+		let name = s.name;
+		for (let k = 2; seen.has(name); k++) name = `${s.name} (${k})`;
+		if (name !== s.name) diagnostics.push({ code: 'duplicate-name', severity: 'warning', column: col.index + 1, message: `Two columns are named "${s.name}"; column ${col.index + 1} was renamed "${name}".` });
+		seen.add(name);
+		const p: CsvChannelPlan = { column: col.index, name, unit: s.unit, quantity: s.quantity, factor: s.factor, offset: s.offset };
+		if (s.phase !== undefined) p.phase = s.phase;
+		if (s.description) p.scaling = { factor: s.factor, offset: s.offset, description: s.description };
+		channels.push(p);
+	}
+	const known = new Set(layout.columns.flatMap((col) => [col.name, col.header, `col${col.index + 1}`]));
+	for (const name of Object.keys(layout.preambleChannels))
+		if (!known.has(name)) diagnostics.push({ code: 'preamble-channel-unmatched', severity: 'warning', message: `The preamble gives settings for "${name}", which is not a column name; they were not applied.` });
+	for (const name of Object.keys(options.channels ?? {}))
+		if (!known.has(name)) diagnostics.push({ code: 'option-channel-unmatched', severity: 'warning', message: `Channel settings were given for "${name}", which is not a column name (names: ${layout.columns.map((col) => col.name).join(', ')}); they were not applied.` });
+	return { channels, diagnostics };
+}
+
+/** Applies a channel's scaling to samples[0, n) in place. A pure power-of-ten division (mV, mA) divides, so 3.25 mA gives the double nearest 0.00325 A. */
+export function scaleCsvSamples(samples: Float64Array, n: number, p: Pick<CsvChannelPlan, 'factor' | 'offset'>): void {
+	const divisor = 1 / p.factor;
+	if (p.factor !== 1 && p.offset === 0 && Number.isInteger(divisor) && 1 / divisor === p.factor) for (let i = 0; i < n; i++) samples[i] /= divisor;
+	else if (p.factor !== 1 || p.offset !== 0) for (let i = 0; i < n; i++) samples[i] = p.factor * samples[i] + p.offset;
 }

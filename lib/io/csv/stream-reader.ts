@@ -8,7 +8,7 @@ import { ImportError } from '../import-error.js';
 import { assembleCapture } from './assemble.js';
 import { detectCsvLayout } from './detect.js';
 import { RowScanner } from './scan-rows.js';
-import type { CsvLayout, CsvOptions, CsvStreamOptions } from './types.js';
+import type { CsvLayout, CsvOptions, CsvRowSummary, CsvStreamOptions } from './types.js';
 
 const HEAD_BYTES = 64 * 1024;
 const HEAD_MAX_BYTES = 4 * 1024 * 1024;
@@ -35,6 +35,7 @@ export class CsvStreamReader {
 	private readonly notes: Diagnostic[] = [];
 	private detected: CsvLayout | null = null;
 	private finished = false;
+	private rowsDone = 0;
 
 	constructor(
 		readonly source: string,
@@ -68,19 +69,57 @@ export class CsvStreamReader {
 
 	/** Ends the input and returns the capture; throws ImportError for anything it cannot read. */
 	finish(): Capture {
+		if (this.stream.onRows) throw new Error('CsvStreamReader: row mode ends with end(), not finish()');
+		this.endInput();
+		return assembleCapture(this.detected!, this.scanner!, this.source, this.options, this.notes);
+	}
+
+	/** Row mode: ends the input (the last rows go to onRows) and says what was read. */
+	end(): CsvRowSummary {
+		if (!this.stream.onRows) throw new Error('CsvStreamReader: end() is for row mode (onRows)');
+		this.endInput();
+		const s = this.scanner!;
+		if (this.rowsDone === 0) throw new ImportError(this.source, this.detected!.bodyLine, 0, 'no-data', '', 'at least one row of numbers');
+		return {
+			layout: this.detected!,
+			rows: this.rowsDone,
+			blankLines: s.blankLines,
+			firstBlankLine: s.firstBlankLine,
+			nonFinite: s.nonFinite,
+			firstNonFiniteLine: s.firstNonFiniteLine,
+			repeatedTimes: s.repeatedTimes,
+			firstRepeatLine: s.firstRepeatLine,
+			diagnostics: this.notes,
+		};
+	}
+
+	private endInput(): void {
 		if (this.finished) throw new Error('CsvStreamReader: finish() called twice');
 		this.finished = true;
 		if (!this.scanner) this.start(true);
 		if (this.transcode) this.feed(new TextEncoder().encode(this.transcode.decode()));
 		if (this.carryLen > 0) {
 			this.appendCarry(new Uint8Array([this.eol]));
-			this.scanner!.scan(this.carry, 0, this.carryLen);
+			this.scan(this.carry, 0, this.carryLen);
 			this.carryLen = 0;
 		}
-		return assembleCapture(this.detected!, this.scanner!, this.source, this.options, this.notes);
+	}
+
+	/** Scans whole lines; in row mode hands the rows over and reuses the buffers. */
+	private scan(buf: Uint8Array, start: number, end: number): void {
+		const s = this.scanner!;
+		s.scan(buf, start, end);
+		const onRows = this.stream.onRows;
+		if (onRows && s.rows > 0) {
+			const rows = s.rows;
+			this.rowsDone += rows;
+			s.rows = 0;
+			onRows(s.columns, rows);
+		}
 	}
 
 	private tryStart(): void {
+		this.checkWidth();
 		try {
 			this.start(false);
 		} catch (e) {
@@ -89,7 +128,36 @@ export class CsvStreamReader {
 		}
 	}
 
+	/**
+	 * A data row of K cells holds at least K − 1 delimiters, and each cell at most one decimal comma, so a
+	 * line with more than `maxColumns` of one of , ; tab has more than maxColumns cells (a quoted header
+	 * cell full of commas aside).
+	 */
+	private checkWidth(): void {
+		const max = this.stream.maxColumns;
+		if (max === undefined) return;
+		const h = this.head;
+		let line = 1;
+		let comma = 0;
+		let semi = 0;
+		let tab = 0;
+		for (let i = 0; i < this.headLen && line <= 64; i++) {
+			const b = h[i];
+			if (b === 44) comma++;
+			else if (b === 59) semi++;
+			else if (b === 9) tab++;
+			else if (b === 10) {
+				line++;
+				comma = semi = tab = 0;
+				continue;
+			}
+			if (comma > max || semi > max || tab > max)
+				throw new ImportError(this.source, line, 0, 'out-of-range', `more than ${max} fields`, `at most ${max} columns in one recording (split the file into parts of fewer columns)`);
+		}
+	}
+
 	private start(wholeFile: boolean): void {
+		if (wholeFile) this.checkWidth();
 		let head = this.head.subarray(0, this.headLen);
 		if (head.length === 0) throw new ImportError(this.source, 1, 0, 'empty-file', '', 'rows of numbers (the file is empty)');
 		if ((head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff)) {
@@ -118,8 +186,10 @@ export class CsvStreamReader {
 		const layout = detectCsvLayout(text, this.options, wholeFile, this.source);
 		this.detected = layout;
 		this.eol = layout.lineBreak === '\r' ? 13 : 10;
+		this.stream.onLayout?.(layout);
 		const total = this.stream.totalBytes;
-		const capacityRows = total && total > 0 ? (total / Math.max(4, layout.bytesPerRow)) * 1.1 + 1024 : 16384;
+		// row mode: buffers for one chunk's rows (they grow to the most rows one chunk holds)
+		const capacityRows = this.stream.onRows ? 1024 : total && total > 0 ? (total / Math.max(4, layout.bytesPerRow)) * 1.1 + 1024 : 16384;
 		this.scanner = new RowScanner(
 			{
 				delimiter: layout.delimiter,
@@ -150,13 +220,13 @@ export class CsvStreamReader {
 				return;
 			}
 			this.appendCarry(chunk.subarray(0, i + 1));
-			this.scanner!.scan(this.carry, 0, this.carryLen);
+			this.scan(this.carry, 0, this.carryLen);
 			this.carryLen = 0;
 			start = i + 1;
 		}
 		const last = chunk.lastIndexOf(eol);
 		if (last >= start) {
-			this.scanner!.scan(chunk, start, last + 1);
+			this.scan(chunk, start, last + 1);
 			start = last + 1;
 		}
 		if (start < chunk.length) this.appendCarry(chunk.subarray(start));

@@ -10,6 +10,7 @@ import { clockFractionDigits, isClockCell, isDateCell } from './clock-time.js';
 import { isIndexName, isTimeName } from './names.js';
 import type { CsvLayout, CsvOptions } from './types.js';
 import { readUnit } from './units.js';
+import { maxOf, minOf } from '../../signal/extremes.js';
 
 type TimeUnit = NonNullable<CsvLayout['timeUnit']>;
 const UNIT_OF_FACTOR: [number, TimeUnit][] = [[1, 's'], [1e-3, 'ms'], [1e-6, 'us'], [1e-9, 'ns']];
@@ -37,7 +38,7 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 		layout.timeColumn = 0;
 		layout.timeUnit = 'clock';
 		layout.clockFields = split ? 2 : 1;
-		const digits = Math.max(0, ...preview.map((r) => clockFractionDigits(r[clockAt] ?? '')));
+		const digits = Math.max(0, maxOf(preview.map((r) => clockFractionDigits(r[clockAt] ?? ''))));
 		layout.timeResolution = 10 ** -digits;
 		const first = preview[0].slice(0, clockAt + 1).join(' ');
 		const where = split ? `Columns "${cols[0].header || 'col1'}" and "${cols[1].header || 'col2'}" hold date and time of day` : `Column "${cols[0].header || 'col1'}" holds time-of-day stamps`;
@@ -53,6 +54,8 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	} else if (options.timeColumn !== 'none' && cols.length > 1) {
 		for (const c of cols) {
 			const u = readUnit(c.unitText);
+			// a stated electrical unit wins over a name: "N (V)" is the neutral's voltage, not a sample number
+			if (isElectricalUnit(c.unitText)) continue;
 			if (isTimeName(c.name) || u?.kind === 'time') { tc = c.index; role = 'time'; how = `named "${c.header}"`; break; }
 			if (isIndexName(c.name)) { tc = c.index; role = 'index'; how = `named "${c.header}"`; break; }
 		}
@@ -103,6 +106,15 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 	say('time-column', `Column "${name}" is the time base (${how}), in ${unit} (${from}).`);
 }
 
+/** Units of measured electrical quantities (V, A with SI prefixes; W, VA, var, Hz, ohm, %, p.u.): never a time or sample number. */
+const ELECTRICAL_UNIT = /^(W|kW|MW|VA|kVA|MVA|var|kvar|Mvar|Hz|Ω|ohms?|%|p\.?u\.?)$/i;
+
+function isElectricalUnit(text: string): boolean {
+	const u = readUnit(text);
+	if (!u) return false;
+	return u.kind === 'voltage' || u.kind === 'current' || ELECTRICAL_UNIT.test(u.unit);
+}
+
 function risesEvenly(preview: string[][], mark: '.' | ','): boolean {
 	if (preview.length < 3) return false;
 	const v = preview.map((r) => cellValue(r[0], mark));
@@ -143,5 +155,5 @@ function printedResolution(cells: string[], mark: '.' | ','): number | null {
 	}
 	if (r.length === 0) return null;
 	void mark;
-	return Math.min(...r);
+	return minOf(r);
 }

@@ -54,6 +54,37 @@ export interface CsvStreamOptions {
 	totalBytes?: number;
 	/** Called after each chunk with bytes consumed so far and the total (0 when unknown). */
 	onProgress?: (bytesDone: number, bytesTotal: number) => void;
+	/**
+	 * Row mode (with `onRows`): called once the layout is detected, before any row buffer is allocated; it
+	 * may throw (e.g. an ImportError for too many columns).
+	 */
+	onLayout?: (layout: CsvLayout) => void;
+	/**
+	 * Most columns taken: a line at the head with more delimiters (comma, semicolon or tab) than this is
+	 * refused ('out-of-range') before the layout is detected, so a file of 100,000 columns costs nothing.
+	 */
+	maxColumns?: number;
+	/**
+	 * Row mode: the rows of each chunk as they are read, one array per column (raw numbers, time column as
+	 * written), valid for [0, rows) until the callback returns (the arrays are reused). Nothing is kept, so
+	 * memory does not grow with the file; end with `CsvStreamReader.end()` instead of `finish()`.
+	 */
+	onRows?: (columns: Float64Array[], rows: number) => void;
+}
+
+/** What a row-mode CsvStreamReader saw, from `end()`. */
+export interface CsvRowSummary {
+	layout: CsvLayout;
+	/** Data rows read. */
+	rows: number;
+	blankLines: number;
+	firstBlankLine: number;
+	nonFinite: number;
+	firstNonFiniteLine: number;
+	repeatedTimes: number;
+	firstRepeatLine: number;
+	/** Notes of the reader itself (encoding, UTF-16). */
+	diagnostics: Diagnostic[];
 }
 
 /** What one column of the table was taken to be. */

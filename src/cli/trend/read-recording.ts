@@ -1,17 +1,28 @@
 /**
- * Feeds one recording file through a trend analyser, streaming where the format allows:
- * - WAV: the data chunk is read from disk in blocks (wav-stream.ts); memory does not grow with length;
- * - CSV/TXT/TSV: lib/io's CsvStreamReader reads the text in 1 MiB chunks (the text is never held whole,
- *   the sample columns are), then the capture goes through the analyser;
- * - COMTRADE (.cfg + .dat, .cff): read whole by lib/io (openCapture), then analysed.
+ * Feeds one recording file through a trend analyser, streaming every format from disk in fixed-size
+ * blocks, so memory stays flat in the length of the recording and in its channel count:
+ * - WAV: the data chunk is read in blocks (wav-stream.ts);
+ * - CSV/TXT/TSV: lib/io's CsvSampleStream takes the text in 1 MiB chunks and hands on each chunk's rows;
+ *   no column is held whole;
+ * - COMTRADE .cfg + .dat, or .cff, with one sampling rate: the .cfg (or the .cff's head) is read whole,
+ *   the data in 1 MiB chunks (ComtradeSampleStream, any file type). A record with several rates or with
+ *   time stamps only is read whole (up to WHOLE_READ_MAX_BYTES).
+ * The sample rate and channel count are checked against lib/trend's bounds before any sample is analysed
+ * (an ImportError 'out-of-range' at the place the rate or the columns come from).
+ * This file is the file-system adapter: lib gets bytes only.
  */
 import { closeSync, openSync, readdirSync, readFileSync, readSync, statSync } from 'node:fs';
 import { basename, dirname, extname, join } from 'node:path';
 import type { Capture, Diagnostic } from '../../../lib/capture.js';
-import { CsvStreamReader } from '../../../lib/io/csv/stream-reader.js';
+import { cffLayout } from '../../../lib/io/comtrade/cff.js';
+import { parseComtradeCfg } from '../../../lib/io/comtrade/cfg.js';
+import { ComtradeSampleStream, streamableRate } from '../../../lib/io/comtrade/sample-stream.js';
+import { decodeText } from '../../../lib/io/comtrade/text.js';
+import { CsvSampleStream, type SampleSink, type SampleStreamHeader } from '../../../lib/io/csv/sample-stream.js';
 import { ImportError } from '../../../lib/io/import-error.js';
 import { openCapture, type InputFile, type OpenOptions } from '../../../lib/io/open.js';
-import { createTrendAnalyser } from '../../../lib/trend/analyser.js';
+import { createTrendAnalyser, type TrendAnalyser } from '../../../lib/trend/analyser.js';
+import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/limits.js';
 import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
 import { isWavHead, openWavStream } from './wav-stream.js';
 
@@ -39,8 +50,11 @@ function head(path: string, bytes: number): Uint8Array {
 	}
 }
 
-function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+/** A capture read whole (bounded by WHOLE_READ_MAX_BYTES) through the analyser, its rate checked first. */
+function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: AnalyseFileHooks, ratePlace: RatePlace): TrendResult {
 	const onProgress = hooks.onProgress;
+	const limit = trendLimitProblem(capture.sampleRateHz, capture.channels.length);
+	if (limit) throw new ImportError(ratePlace.source, ratePlace.line, ratePlace.column, 'out-of-range', limit.got, limit.expected);
 	const nominal = settings.nominalHz ?? (capture.nominalFrequencyHz === 50 || capture.nominalFrequencyHz === 60 ? capture.nominalFrequencyHz : undefined);
 	const a = createTrendAnalyser({
 		...settings,
@@ -55,14 +69,14 @@ function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: Analy
 		a.push(capture.channels.map((c) => c.samples.subarray(off, end)));
 		onProgress?.(end / n);
 	}
-	return withImportNotes(a.finish(), capture.diagnostics, capture.timeS !== undefined, capture.sampleRateHz);
+	const extra: Diagnostic[] = capture.timeS
+		? [{ code: 'time-base-treated-uniform', severity: 'warning', message: `The file has an explicit time base; trends treat it as uniform at its mean rate ${capture.sampleRateHz} Hz.` }]
+		: [];
+	return withImportNotes(a.finish(), [...capture.diagnostics, ...extra]);
 }
 
-function withImportNotes(result: TrendResult, notes: Diagnostic[], explicitTime: boolean, rateHz: number): TrendResult {
-	const extra: Diagnostic[] = explicitTime
-		? [{ code: 'time-base-treated-uniform', severity: 'warning', message: `The file has an explicit time base; trends treat it as uniform at its mean rate ${rateHz} Hz.` }]
-		: [];
-	result.diagnostics = [...notes, ...extra, ...result.diagnostics];
+function withImportNotes(result: TrendResult, notes: Diagnostic[]): TrendResult {
+	result.diagnostics = [...notes, ...result.diagnostics];
 	return result;
 }
 
@@ -71,17 +85,155 @@ function besideName(name: string, file: string): string {
 	return name.slice(0, name.length - basename(name).length) + file;
 }
 
+/** Largest file read whole (a COMTRADE record with several rates or time stamps only). */
+const WHOLE_READ_MAX_BYTES = 512 * 2 ** 20;
+/** Largest .cfg: a few lines per channel. */
+const CFG_MAX_BYTES = 16 * 2 ** 20;
+const CHUNK_BYTES = 1 << 20;
+
+/** Where the sample rate of a recording was read, for an 'out-of-range' error. */
+interface RatePlace {
+	source: string;
+	line: number;
+	column: number;
+}
+
 /**
- * Companion files of a COMTRADE .cfg: same base name, any case, in the same folder. Each is named as the
- * user would write it (the .cfg's `source` with the file name swapped), so errors about a .dat show its
- * path, not a bare file name.
+ * The sink that creates the analyser once the header is known (after checking the bounds) and pushes
+ * each block; `analyser()` and `header()` once the stream has started.
  */
-function companions(path: string, source: string): InputFile[] {
+function trendSink(settings: AnalyserSettings, hooks: AnalyseFileHooks, place: (h: SampleStreamHeader) => RatePlace): SampleSink & { analyser(): TrendAnalyser; header(): SampleStreamHeader } {
+	let a: TrendAnalyser | undefined;
+	let head: SampleStreamHeader | undefined;
+	const views: Float64Array[] = [];
+	return {
+		start(h) {
+			const limit = trendLimitProblem(h.sampleRateHz, h.channels.length);
+			if (limit) {
+				const at = limit.what === 'sample-rate' ? place(h) : { ...place(h), column: 0 };
+				throw new ImportError(at.source, at.line, at.column, 'out-of-range', limit.got, limit.expected);
+			}
+			head = h;
+			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
+			const nominal = settings.nominalHz ?? (h.nominalFrequencyHz === 50 || h.nominalFrequencyHz === 60 ? h.nominalFrequencyHz : undefined);
+			a = createTrendAnalyser({ ...settings, nominalHz: nominal, sampleRateHz: h.sampleRateHz, channels: specs });
+			hooks.onChannels?.(specs);
+		},
+		samples(chunk, n) {
+			for (let c = 0; c < chunk.length; c++) views[c] = chunk[c].length === n ? chunk[c] : chunk[c].subarray(0, n);
+			views.length = chunk.length;
+			a!.push(views);
+		},
+		analyser: () => a!,
+		header: () => head!,
+	};
+}
+
+/** Pushes bytes [from, to) of the file at `path` to `push` in 1 MiB chunks from one reused buffer. */
+function streamFile(path: string, push: (chunk: Uint8Array) => void, onBytes?: (done: number) => void, from = 0, to = Infinity): void {
+	const fd = openSync(path, 'r');
+	try {
+		const buf = new Uint8Array(CHUNK_BYTES);
+		let pos = from;
+		for (;;) {
+			const n = readSync(fd, buf, 0, Math.min(buf.length, to - pos), pos);
+			if (n === 0) break;
+			push(buf.subarray(0, n));
+			pos += n;
+			onBytes?.(pos);
+		}
+	} finally {
+		closeSync(fd);
+	}
+}
+
+function analyseCsv(path: string, source: string, size: number, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+	// the rate comes from the time column's first rows, or the preamble / options
+	const ratePlace = (): RatePlace => {
+		const l = stream.layout;
+		if (!l) return { source, line: 0, column: 0 };
+		return l.timeColumn !== null ? { source, line: l.bodyLine, column: l.timeColumn + 1 } : { source, line: l.headerLine ?? l.bodyLine, column: 0 };
+	};
+	const sink = trendSink(settings, hooks, ratePlace);
+	const stream: CsvSampleStream = new CsvSampleStream(source, open.csv ?? {}, sink, { totalBytes: size, maxChannels: TREND_MAX_CHANNELS, onProgress: (d, t) => hooks.onProgress?.(t > 0 ? d / t : 0) });
+	streamFile(path, (chunk) => stream.push(chunk));
+	const late = stream.end();
+	const h = sink.header();
+	return withImportNotes(sink.analyser().finish(), [...h.diagnostics, ...late]);
+}
+
+/** The .dat (and .hdr/.inf) beside a .cfg: same base name, any case. */
+function companionPaths(path: string): Map<string, string> {
 	const dir = dirname(path);
 	const base = basename(path, extname(path)).toLowerCase();
-	return readdirSync(dir)
-		.filter((f) => f !== basename(path) && basename(f, extname(f)).toLowerCase() === base && ['.dat', '.hdr', '.inf'].includes(extname(f).toLowerCase()))
-		.map((f) => ({ name: besideName(source, f), bytes: new Uint8Array(readFileSync(join(dir, f))) }));
+	const out = new Map<string, string>();
+	for (const f of readdirSync(dir)) {
+		const ext = extname(f).toLowerCase();
+		if (f !== basename(path) && basename(f, extname(f)).toLowerCase() === base && ['.dat', '.hdr', '.inf'].includes(ext)) out.set(ext, f);
+	}
+	return out;
+}
+
+function readWhole(path: string, source: string): Uint8Array {
+	const size = statSync(path).size;
+	if (size > WHOLE_READ_MAX_BYTES) {
+		throw new ImportError(source, 0, 0, 'too-large', `${Math.round(size / 2 ** 20)} MB`, `at most ${WHOLE_READ_MAX_BYTES / 2 ** 20} MB for a COMTRADE record with several sampling rates or with time stamps only (read whole); a record with one sampling rate is streamed at any size`);
+	}
+	return new Uint8Array(readFileSync(path));
+}
+
+function analyseComtrade(path: string, source: string, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+	const cfgSize = statSync(path).size;
+	if (cfgSize > CFG_MAX_BYTES) throw new ImportError(source, 0, 0, 'too-large', `${Math.round(cfgSize / 2 ** 20)} MB`, `a .cfg of at most ${CFG_MAX_BYTES / 2 ** 20} MB (a few lines per channel)`);
+	const cfgBytes = new Uint8Array(readFileSync(path));
+	const { text, encoding } = decodeText(cfgBytes);
+	const cfg = parseComtradeCfg(text, source);
+	const found = companionPaths(path);
+	const datName = found.get('.dat');
+	if (!datName) throw new ImportError(source, 0, 0, 'missing-companion-file', '', `the data file ${basename(source).replace(/\.cfg$/i, '.dat')} next to this .cfg`);
+	const datSource = besideName(source, datName);
+	const datPath = join(dirname(path), datName);
+	if (cfg.analog.length > TREND_MAX_CHANNELS) throw new ImportError(source, 2, 0, 'out-of-range', `${cfg.analog.length} analog channels`, `at most ${TREND_MAX_CHANNELS} channels in one recording`);
+	const rate = streamableRate(cfg);
+	if (!rate) {
+		// several rates, or time stamps only: read whole (bounded), as before
+		const companions: InputFile[] = [...found.values()].map((f) => ({ name: besideName(source, f), bytes: f === datName ? readWhole(datPath, datSource) : new Uint8Array(readFileSync(join(dirname(path), f))) }));
+		const capture = openCapture({ name: source, bytes: cfgBytes }, companions, open);
+		capture.source = source;
+		return analyseWhole(capture, settings, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
+	}
+	const sink = trendSink(settings, hooks, () => ({ source, line: rate.line, column: 1 }));
+	const stream = new ComtradeSampleStream(cfg, source, datSource, open.comtrade ?? {}, sink);
+	const datSize = statSync(datPath).size;
+	streamFile(datPath, (chunk) => stream.push(chunk), (done) => hooks.onProgress?.(datSize > 0 ? done / datSize : 0));
+	const late = stream.end();
+	const notes = [...sink.header().diagnostics, ...late];
+	if (encoding === 'latin1') notes.push({ code: 'comtrade-latin1', severity: 'assumption', message: `${source} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.` });
+	return withImportNotes(sink.analyser().finish(), notes);
+}
+
+/** Bytes of a .cff read to find its CFG section and the DAT section's header line. */
+const CFF_HEAD_BYTES = 16 * 2 ** 20;
+
+/** A .cff: CFG (and INF, HDR) sections from the head, the DAT section streamed from its offset. */
+function analyseCff(path: string, source: string, size: number, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+	const fd = openSync(path, 'r');
+	let head: Uint8Array;
+	try {
+		head = new Uint8Array(Math.min(size, CFF_HEAD_BYTES));
+		head = head.subarray(0, readSync(fd, head, 0, head.length, 0));
+	} finally {
+		closeSync(fd);
+	}
+	const { cfg, dat } = cffLayout(head, source, size);
+	const rate = streamableRate(cfg);
+	if (!rate) return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), settings, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
+	if (cfg.analog.length > TREND_MAX_CHANNELS) throw new ImportError(source, 0, 0, 'out-of-range', `${cfg.analog.length} analog channels`, `at most ${TREND_MAX_CHANNELS} channels in one recording`);
+	const sink = trendSink(settings, hooks, () => ({ source, line: rate.line, column: 1 }));
+	const stream = new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, sink, { line: dat.headerLine, byte: dat.start });
+	streamFile(path, (chunk) => stream.push(chunk), (done) => hooks.onProgress?.(size > 0 ? done / size : 0), dat.start, dat.end);
+	const late = stream.end();
+	return withImportNotes(sink.analyser().finish(), [{ code: 'comtrade-cff', severity: 'info', message: 'Single-file COMTRADE (.cff); its data section was streamed.' }, ...sink.header().diagnostics, ...late]);
 }
 
 /**
@@ -99,6 +251,8 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 		const wav = openWavStream(path, source, open.wav, BLOCK_FRAMES);
 		try {
 			const h = wav.header;
+			const limit = trendLimitProblem(wav.sampleRateHz, h.channels.length);
+			if (limit) throw new ImportError(source, 0, limit.what === 'sample-rate' ? 25 : 23, 'out-of-range', limit.got, limit.expected);
 			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
 			const a = createTrendAnalyser({ ...settings, sampleRateHz: wav.sampleRateHz, channels: specs });
 			hooks.onChannels?.(specs);
@@ -111,35 +265,15 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 				done += n;
 				onProgress?.(done / Math.max(1, wav.frames));
 			}
-			return withImportNotes(a.finish(), h.diagnostics, false, wav.sampleRateHz);
+			return withImportNotes(a.finish(), h.diagnostics);
 		} finally {
 			wav.close();
 		}
 	}
-	if (ext === '.cfg' || ext === '.cff') {
-		// named by `source` (the path as given), so errors and the report name the file as the user wrote it
-		const file = { name: source, bytes: new Uint8Array(readFileSync(path)) };
-		const capture = openCapture(file, ext === '.cfg' ? companions(path, source) : [], open);
-		capture.source = source;
-		return analyseWhole(capture, settings, hooks);
-	}
+	if (ext === '.cff') return analyseCff(path, source, size, open, settings, hooks);
+	if (ext === '.cfg') return analyseComtrade(path, source, open, settings, hooks);
 	if (ext === '.dat' || ext === '.hdr' || ext === '.inf') {
 		throw new ImportError(source, 0, 0, 'unsupported-format', ext, 'the .cfg file of a COMTRADE record (its .dat is found beside it)');
 	}
-	const reader = new CsvStreamReader(source, open.csv ?? {}, { totalBytes: size, onProgress: (d, t) => onProgress?.(t > 0 ? (0.5 * d) / t : 0) });
-	const fd = openSync(path, 'r');
-	try {
-		const buf = Buffer.allocUnsafe(1 << 20);
-		let pos = 0;
-		for (;;) {
-			const n = readSync(fd, buf, 0, buf.length, pos);
-			if (n === 0) break;
-			reader.push(buf.subarray(0, n));
-			pos += n;
-		}
-	} finally {
-		closeSync(fd);
-	}
-	const capture = reader.finish();
-	return analyseWhole(capture, settings, { ...hooks, onProgress: onProgress ? (f) => onProgress(0.5 + 0.5 * f) : undefined });
+	return analyseCsv(path, source, size, open, settings, hooks);
 }

@@ -2,6 +2,7 @@
 import { csvCell } from '../../../lib/report/csv-cell.js';
 import type { TrendChannelSpec, TrendEvent, TrendResult, TrendRow } from '../../../lib/trend/types.js';
 import type { TrendFlicker } from '../../../lib/trend/flicker-tracker.js';
+import { maxOf } from '../../../lib/signal/extremes.js';
 
 /** CSV cell: the shared formula guard and RFC 4180 quoting (lib/report/csv-cell.ts). */
 const cell = (text: string): string => csvCell(text);
@@ -96,9 +97,13 @@ export function flickerCsvRows(f: TrendFlicker, file?: string): string[] {
 
 /** One stderr line per file in CSV mode: the highest Pst per channel (or why there is none). */
 export function flickerLine(f: TrendFlicker): string {
-	if (f.pst.length === 0) return `flicker: no complete 10-minute interval, so no Pst (highest instantaneous flicker ${f.channels.map((c, k) => `${c} ${n(f.pinstMax[k], 2)}`).join(', ')}; not a Pst)${changesText(f)}`;
-	const worst = f.channels.map((c, k) => `${c} ${n(Math.max(...f.pst.map((r) => r.values[k])), 2)}`);
-	const plt = f.plt.length > 0 ? `; highest Plt ${f.channels.map((c, k) => `${c} ${n(Math.max(...f.plt.map((r) => r.values[k])), 2)}`).join(', ')}` : '';
+	if (f.pst.length === 0) {
+		const pinst = f.channels.flatMap((c, k) => (Number.isFinite(f.pinstMax[k]) ? [`${c} ${n(f.pinstMax[k], 2)}`] : []));
+		const why = pinst.length > 0 ? `highest instantaneous flicker ${pinst.join(', ')}; not a Pst` : 'the recording is too short for the flickermeter to settle';
+		return `flicker: no complete 10-minute interval, so no Pst (${why})${changesText(f)}`;
+	}
+	const worst = f.channels.map((c, k) => `${c} ${n(maxOf(f.pst.map((r) => r.values[k])), 2)}`);
+	const plt = f.plt.length > 0 ? `; highest Plt ${f.channels.map((c, k) => `${c} ${n(maxOf(f.plt.map((r) => r.values[k])), 2)}`).join(', ')}` : '';
 	return `flicker (${f.lamp} lamp): highest Pst over ${f.pst.length} interval(s) ${worst.join(', ')}${plt}; --interval flicker lists them${changesText(f)}`;
 }
 
