@@ -46,11 +46,12 @@ function bandLine(rule: BandRule, nominal: number, unit: string, values: number[
 	const measured = Number.isFinite(share)
 		? `${share.toFixed(1)} % of ${values.length} values within ${low.toFixed(digits)}-${high.toFixed(digits)} ${unit} (lowest ${min.toFixed(digits)} ${unit}, highest ${max.toFixed(digits)} ${unit})`
 		: 'no usable values';
-	const pct = (f: number) => `${f > 1 ? '+' : '−'}${Math.abs(Math.round((f - 1) * 1000) / 10)} %`;
+	const pct = (f: number) => Math.abs(Math.round((f - 1) * 1000) / 10);
+	const band = pct(rule.highFactor) === pct(rule.lowFactor) ? `± ${pct(rule.highFactor)} %` : `+${pct(rule.highFactor)} % / −${pct(rule.lowFactor)} %`;
 	return {
 		id: rule.id,
 		quantity: rule.quantity,
-		rule: `${rule.requiredSharePercent} % of values within ${nominal} ${unit} ${pct(rule.highFactor)} / ${pct(rule.lowFactor)}`,
+		rule: `${rule.requiredSharePercent} % of values within ${nominal} ${unit} ${band}`,
 		channel,
 		measured,
 		value: share,
@@ -141,7 +142,9 @@ export function findGaps(input: Pick<SurveyInput, 'intervals' | 'spanStartS' | '
 }
 
 function days(s: number): string {
-	return s >= 86_400 ? `${(s / 86_400).toFixed(1)} days` : `${(s / 3600).toFixed(1)} hours`;
+	if (s >= 86_400) return `${(s / 86_400).toFixed(1)} days`;
+	if (s >= 3600) return `${(s / 3600).toFixed(1)} hours`;
+	return s >= 60 ? `${(s / 60).toFixed(1)} minutes` : `${s.toFixed(1)} seconds`;
 }
 
 /**

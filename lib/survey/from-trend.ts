@@ -5,6 +5,7 @@
  * parts are on the clock; an event cut by a file boundary becomes one event.
  */
 import type { Diagnostic } from '../capture.js';
+import { clockTimeOf } from '../trend/clock.js';
 import type { SurveyEvent, SurveyFrequency, SurveyInput, SurveyInterval, SurveyPlt } from './types.js';
 
 /** The fields of a `trend` JSON document the survey reads (other fields are ignored). */
@@ -12,6 +13,8 @@ export interface TrendDocument {
 	source: string;
 	/** Wall-clock time of the first sample, ISO 8601, when the file states it. */
 	startTime?: string | null;
+	/** The same as seconds since 1970 (what the intervals were aligned to), when known. */
+	clockStartS?: number | null;
 	declaredV: number | null;
 	nominalHz: number;
 	durationS: number;
@@ -56,12 +59,13 @@ interface Placed {
 }
 
 function place(docs: readonly TrendDocument[], diagnostics: Diagnostic[]): { placed: Placed[]; clockAligned: boolean } {
-	const clockAligned = docs.every((d) => typeof d.startTime === 'string' && Number.isFinite(Date.parse(d.startTime)));
+	const clockOf = (d: TrendDocument) => (typeof d.clockStartS === 'number' ? d.clockStartS : clockTimeOf(d.startTime)?.unixS);
+	const clockAligned = docs.every((d) => clockOf(d) !== undefined);
 	let next = 0;
 	const placed = docs.map((doc) => {
 		const volts = doc.channels.flatMap((c, i) => (c.quantity === 'voltage' ? [i] : []));
 		let baseS: number;
-		if (clockAligned) baseS = Date.parse(doc.startTime!) / 1000;
+		if (clockAligned) baseS = clockOf(doc)!;
 		else {
 			baseS = next;
 			diagnostics.push({ code: 'survey-no-start-time', severity: 'assumption', message: `${doc.source} states no start time: placed right after the file before it, in the order given.` });

@@ -25,6 +25,7 @@ import { CrossingTracker, type CrossingSink } from './crossing-tracker.js';
 import { declaredVoltageFromRms } from './declared-voltage.js';
 import { EventDetector } from './event-detector.js';
 import { trendLimitProblem, trendRingLength } from './limits.js';
+import { FREQUENCY_INTERVAL_S as FREQ_S, TEN_MIN_S, secondsPastTick } from './clock.js';
 import { RowGroup } from './row-group.js';
 import { RvcDetector } from './rvc-detector.js';
 import { TREND_MAX_ORDER, WindowThd } from './window-thd.js';
@@ -46,8 +47,6 @@ export const TREND_DEFAULT_THRESHOLDS: Readonly<TrendThresholds> = { dipPercent:
 
 const BLOCK = 4096;
 const LOG = 64;
-const TEN_MIN_S = 600;
-const FREQ_S = 10;
 
 interface HalfRecord {
 	start: number;
@@ -115,6 +114,13 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const holdback = Math.ceil(0.1 * fs) + 2;
 	const tickLen = Math.round(TEN_MIN_S * fs);
 	const freqLen = Math.round(FREQ_S * fs);
+	// Clock alignment (IEC 61000-4-30:2015, 4.5.3 and 5.1.2; from memory): with the clock time of the first
+	// sample, 10-min intervals and 10-s frequency values start at the clock's ticks. Sample positions stay
+	// relative to the first sample; `tickOffset` is how far past a 10-min tick sample 0 lies.
+	const clockStartS = opts.clockStartS;
+	if (clockStartS !== undefined && !Number.isFinite(clockStartS)) throw new RangeError(`clockStartS must be a finite number of seconds, got ${clockStartS}`);
+	const tickOffset = clockStartS === undefined ? 0 : Math.round(secondsPastTick(clockStartS, TEN_MIN_S) * fs) % tickLen;
+	const freqOffset = clockStartS === undefined ? 0 : Math.round(secondsPastTick(clockStartS, FREQ_S) * fs) % freqLen;
 
 	let nominalHz: number | undefined = opts.nominalHz;
 	const flicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) ? new TrendFlickerTracker(fs, channels, voltage, diagnostics, opts.flickerPinst === true) : null;
@@ -141,12 +147,17 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const logT = new Float64Array(LOG);
 	let seq = -1;
 	let ws = 0;
-	let nextTick = tickLen;
+	let nextTick = tickLen - tickOffset;
 	const nomTimes: number[] = [];
 	let cyclesPerWindow = nominalHz === 60 ? 12 : 10;
 
 	// --- frequency per 10 s
 	let fStart = 0;
+	/** Next 10-s boundary (samples), and whether the value being counted began on one. */
+	let fNext = freqLen - freqOffset;
+	let fAligned = freqOffset === 0;
+	/** Whether the 10-min group being filled began at a tick (the first one does only when the recording does). */
+	let groupAligned = tickOffset === 0;
 	let fCount = 0;
 	let fDur = 0;
 	let fLastT = NaN;
@@ -217,11 +228,17 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		fLastT = NaN;
 	}
 
+	function nextFrequency(): void {
+		closeFrequency(fNext, fAligned);
+		fAligned = true;
+		fNext += freqLen;
+	}
+
 	function onRising(index: number, t: number, forced: boolean): void {
 		// A window must not start before the interpolation taps of the THD have samples (t ≥ 8).
 		if (t < 8) return;
 		// frequency: cycles straddling a 10 s boundary are discarded
-		while (t >= fStart + freqLen) closeFrequency(fStart + freqLen, true);
+		while (t >= fNext) nextFrequency();
 		if (!forced && !Number.isNaN(fLastT)) {
 			fCount++;
 			fDur += t - fLastT;
@@ -332,9 +349,10 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		while (pendingRows.length > 0 && pendingRows[0].end <= pos) {
 			const p = pendingRows.shift()!;
 			p.row.flagged = overlapsEvent(p.start, p.end);
-			const tick = Math.floor(p.start / tickLen);
+			const tick = Math.floor((p.start + tickOffset) / tickLen);
 			if (tick !== tickOfGroups) {
-				emitGroupRows(g150.size === 15, true);
+				emitGroupRows(g150.size === 15, groupAligned);
+				groupAligned = true;
 				tickOfGroups = tick;
 			}
 			opts.onRow?.(p.row);
@@ -416,7 +434,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				nominalHz = 50;
 				diagnostics.push({ code: 'nominal-frequency-unknown', severity: 'warning', message: 'Too few zero crossings to tell 50 from 60 Hz; 50 Hz assumed.' });
 			}
-			while (abs >= fStart + freqLen) closeFrequency(fStart + freqLen, true);
+			while (abs >= fNext) nextFrequency();
 			if (abs > fStart) closeFrequency(abs, false);
 			if (seq >= ws && seq - ws > 0) diagnostics.push({ code: 'last-window-partial', severity: 'info', message: `The last ${seq - ws} cycle(s) do not fill a ${cyclesPerWindow}-cycle window and are left out of the aggregates.` });
 			afterBlock(true);
@@ -434,7 +452,8 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				});
 			}
 			if (seq < 0) diagnostics.push({ code: 'no-zero-crossings', severity: 'warning', message: `${channels[ref].name}: no zero crossing found; no aggregate could be formed.` });
-			if (abs >= tickLen) diagnostics.push({ code: 'ten-minute-from-start', severity: 'info', message: '10-min intervals count from the start of the recording (no wall-clock synchronisation).' });
+			if (clockStartS !== undefined) diagnostics.push({ code: 'clock-aligned', severity: 'info', message: '10-min intervals and 10-s frequency values follow the clock from the recording\'s start time; the first and last may be partial.' });
+			else if (abs >= tickLen) diagnostics.push({ code: 'ten-minute-from-start', severity: 'info', message: '10-min intervals count from the start of the recording (no start time on the clock given).' });
 			if (!wantThd) diagnostics.push({ code: 'thd-not-computed', severity: 'info', message: 'THD was not computed for this run (no harmonic analysis attached).' });
 			const events: TrendEvent[] = (detector?.events ?? []).map((e) => {
 				const ended = !Number.isNaN(e.end);
@@ -474,6 +493,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				channels,
 				referenceChannel: channels[ref].name,
 				durationS: abs / fs,
+				clockStartS,
 				cycles10: out.cycles10,
 				cycles150: out.cycles150,
 				min10: out.min10,

@@ -40,6 +40,13 @@ export interface TrendOptions {
 	 * 3.3-6 % for LV), and hysteresis (default half the threshold). Off when absent.
 	 */
 	rvc?: { thresholdPercent: number; hysteresisPercent?: number };
+	/**
+	 * Clock time of the first sample, s since 1970 (lib/trend/clock.ts reads it from the file's start
+	 * time). When given, 10-min intervals and 10-s frequency values start at the clock's ticks
+	 * (IEC 61000-4-30:2015, 4.5.3; from memory) and the first and last are partial; row times stay
+	 * relative to the first sample. When absent, intervals count from the first sample.
+	 */
+	clockStartS?: number;
 	/** Index of the channel whose zero crossings time the 10/12-cycle windows and frequency. Default: first voltage channel, else 0. */
 	referenceChannel?: number;
 	/** Seconds of the recording's start used to infer the declared voltage when none is given. Default 1. */
@@ -155,6 +162,8 @@ export interface TrendResult {
 	referenceChannel: string;
 	/** Samples pushed / sample rate. */
 	durationS: number;
+	/** The clock time of the first sample the intervals were aligned to (the `clockStartS` option). */
+	clockStartS?: number;
 	cycles10: TrendRow[];
 	cycles150: TrendRow[];
 	min10: TrendRow[];

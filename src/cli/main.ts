@@ -117,6 +117,27 @@ cli
 		});
 	});
 
+cli
+	.command('survey [...paths]', 'Voltage-characteristics survey of one recording over many files (EN 50160, IEC 61000-2-2): every rule, the dip table, verdicts; also merges trend --json outputs')
+	.usage('survey [...paths]  (recording files or folders of one recording, or JSON files written by trend --json)')
+	.option('--standard <which>', 'en50160 (default) or iec61000-2-2')
+	.option('--nominal <V>', 'Declared supply voltage Un in V (line-to-neutral when the channels are); inferred when absent')
+	.option('--frequency <Hz>', 'Nominal frequency, 50 or 60; from the file or the first cycles when absent')
+	.option('--json', 'The survey as one JSON document')
+	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
+	.action(async (paths: string[], options: Record<string, unknown>) => {
+		const { importOptionsFrom } = await import('./import-settings.js');
+		const { surveyCommand } = await import('./survey/index.js');
+		const open = importOptionsFrom(settingsFromOptions({ rate: options.rate }).import);
+		process.exitCode = await surveyCommand(paths, {
+			standard: options.standard === undefined ? undefined : String(options.standard),
+			nominal: options.nominal as number | string | undefined,
+			frequency: options.frequency as number | string | undefined,
+			json: options.json === true,
+			open,
+		});
+	});
+
 cli.help((sections) => {
 	// cac gives a negated option (--no-progress, --no-thd) the default true and prints "(default: true)"
 	// after it, which reads as if the option were on by default: that text is left out.

@@ -23,6 +23,7 @@ import { ImportError } from '../../../lib/io/import-error.js';
 import { openCapture, type InputFile, type OpenOptions } from '../../../lib/io/open.js';
 import { createTrendAnalyser, type TrendAnalyser } from '../../../lib/trend/analyser.js';
 import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/limits.js';
+import { clockTimeOf } from '../../../lib/trend/clock.js';
 import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
 import { isWavHead, openWavStream } from './wav-stream.js';
 
@@ -50,6 +51,12 @@ function head(path: string, bytes: number): Uint8Array {
 	}
 }
 
+/** The assumption made when a start time states no zone (lib/trend/clock.ts takes it as written). */
+function clockNotes(startTime: string | undefined): Diagnostic[] {
+	const clock = clockTimeOf(startTime);
+	return clock?.zone === 'as written' ? [{ code: 'clock-zone-as-written', severity: 'assumption', message: `The start time ${startTime} states no time zone: it is taken as the recorder's clock, as written.` }] : [];
+}
+
 /** A capture read whole (bounded by WHOLE_READ_MAX_BYTES) through the analyser, its rate checked first. */
 function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: AnalyseFileHooks, ratePlace: RatePlace): TrendResult {
 	const onProgress = hooks.onProgress;
@@ -58,6 +65,7 @@ function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: Analy
 	const nominal = settings.nominalHz ?? (capture.nominalFrequencyHz === 50 || capture.nominalFrequencyHz === 60 ? capture.nominalFrequencyHz : undefined);
 	const a = createTrendAnalyser({
 		...settings,
+		clockStartS: settings.clockStartS ?? clockTimeOf(capture.startTime)?.unixS,
 		nominalHz: nominal,
 		sampleRateHz: capture.sampleRateHz,
 		channels: capture.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
@@ -72,7 +80,7 @@ function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: Analy
 	const extra: Diagnostic[] = capture.timeS
 		? [{ code: 'time-base-treated-uniform', severity: 'warning', message: `The file has an explicit time base; trends treat it as uniform at its mean rate ${capture.sampleRateHz} Hz.` }]
 		: [];
-	return withImportNotes(a.finish(), [...capture.diagnostics, ...extra]);
+	return withImportNotes(a.finish(), [...capture.diagnostics, ...extra, ...clockNotes(capture.startTime)]);
 }
 
 function withImportNotes(result: TrendResult, notes: Diagnostic[]): TrendResult {
@@ -116,7 +124,7 @@ function trendSink(settings: AnalyserSettings, hooks: AnalyseFileHooks, place: (
 			head = h;
 			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
 			const nominal = settings.nominalHz ?? (h.nominalFrequencyHz === 50 || h.nominalFrequencyHz === 60 ? h.nominalFrequencyHz : undefined);
-			a = createTrendAnalyser({ ...settings, nominalHz: nominal, sampleRateHz: h.sampleRateHz, channels: specs });
+			a = createTrendAnalyser({ ...settings, clockStartS: settings.clockStartS ?? clockTimeOf(h.startTime)?.unixS, nominalHz: nominal, sampleRateHz: h.sampleRateHz, channels: specs });
 			hooks.onChannels?.(specs);
 		},
 		samples(chunk, n) {
@@ -159,7 +167,7 @@ function analyseCsv(path: string, source: string, size: number, open: OpenOption
 	streamFile(path, (chunk) => stream.push(chunk));
 	const late = stream.end();
 	const h = sink.header();
-	return withImportNotes(sink.analyser().finish(), [...h.diagnostics, ...late]);
+	return withImportNotes(sink.analyser().finish(), [...h.diagnostics, ...late, ...clockNotes(h.startTime)]);
 }
 
 /** The .dat (and .hdr/.inf) beside a .cfg: same base name, any case. */
@@ -207,7 +215,7 @@ function analyseComtrade(path: string, source: string, open: OpenOptions, settin
 	const datSize = statSync(datPath).size;
 	streamFile(datPath, (chunk) => stream.push(chunk), (done) => hooks.onProgress?.(datSize > 0 ? done / datSize : 0));
 	const late = stream.end();
-	const notes = [...sink.header().diagnostics, ...late];
+	const notes = [...sink.header().diagnostics, ...late, ...clockNotes(sink.header().startTime)];
 	if (encoding === 'latin1') notes.push({ code: 'comtrade-latin1', severity: 'assumption', message: `${source} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.` });
 	return withImportNotes(sink.analyser().finish(), notes);
 }
@@ -233,7 +241,7 @@ function analyseCff(path: string, source: string, size: number, open: OpenOption
 	const stream = new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, sink, { line: dat.headerLine, byte: dat.start });
 	streamFile(path, (chunk) => stream.push(chunk), (done) => hooks.onProgress?.(size > 0 ? done / size : 0), dat.start, dat.end);
 	const late = stream.end();
-	return withImportNotes(sink.analyser().finish(), [{ code: 'comtrade-cff', severity: 'info', message: 'Single-file COMTRADE (.cff); its data section was streamed.' }, ...sink.header().diagnostics, ...late]);
+	return withImportNotes(sink.analyser().finish(), [{ code: 'comtrade-cff', severity: 'info', message: 'Single-file COMTRADE (.cff); its data section was streamed.' }, ...sink.header().diagnostics, ...late, ...clockNotes(sink.header().startTime)]);
 }
 
 /**

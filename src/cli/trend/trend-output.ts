@@ -58,7 +58,8 @@ export function eventLine(e: TrendEvent, declaredV: number): string {
 
 /**
  * The JSON document of one file:
- * { source, declaredV, declaredVSource, nominalHz, sampleRateHz, durationS, referenceChannel, thresholds,
+ * { source, declaredV, declaredVSource, nominalHz, sampleRateHz, durationS, startTime (ISO 8601, UTC or the
+ *   recorder's clock as written; null when the file states none), clockStartS, referenceChannel, thresholds,
  *   channels: [{name, quantity, unit}], aggregates: [TrendRow...] (10/12-cycle, then 150/180-cycle,
  *   then 10-min; rms/thdPercent in channel order), frequency: [10 s rows], events: [{ kind, channels,
  *   startS, durationS, residualV | maximumV, percentOfDeclared, ended }], diagnostics }.
@@ -72,6 +73,8 @@ export function trendJson(source: string, r: TrendResult): unknown {
 		nominalHz: r.nominalHz,
 		sampleRateHz: r.sampleRateHz,
 		durationS: r.durationS,
+		startTime: r.clockStartS === undefined ? null : new Date(r.clockStartS * 1000).toISOString(),
+		clockStartS: r.clockStartS ?? null,
 		referenceChannel: r.referenceChannel,
 		thresholds: r.thresholds,
 		channels: r.channels,

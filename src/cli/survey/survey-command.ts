@@ -1,0 +1,131 @@
+/**
+ * `sinecheck survey <path...>`: a voltage-characteristics survey (EN 50160 or IEC 61000-2-2) of one
+ * recording that may span many files. Each path is a recording file or folder (analysed here, one file
+ * at a time, in bounded memory) or a JSON file written by `sinecheck trend --json` (the per-file step run
+ * elsewhere: this command is then the merge). Returns 0 when every measured rule is met, 1 when one is
+ * not, 2 for an input or usage error (the survey of the other files is still printed).
+ */
+import { readFileSync, statSync } from 'node:fs';
+import { extname } from 'node:path';
+import type { OpenOptions } from '../../../lib/io/open.js';
+import { assessSurvey } from '../../../lib/survey/assess.js';
+import { SurveyMergeError, surveyInputFromTrend, type TrendDocument } from '../../../lib/survey/from-trend.js';
+import type { SurveyStandardId } from '../../../lib/survey/types.js';
+import { collectUnits } from '../collect-files.js';
+import { ERROR_PREFIX, errorLine } from '../error-line.js';
+import { UsageError } from '../usage-error.js';
+import { analyseFile } from '../trend/read-recording.js';
+import { trendJson } from '../trend/trend-output.js';
+import { surveyJson, surveyTable } from './survey-output.js';
+
+export interface SurveyCommandOptions {
+	standard?: string;
+	/** Declared supply voltage Un in V, line-to-neutral for line-to-neutral channels. */
+	nominal?: number | string;
+	frequency?: number | string;
+	json?: boolean;
+	open?: OpenOptions;
+	stdout?: NodeJS.WritableStream;
+	stderr?: NodeJS.WritableStream;
+}
+
+const STANDARDS: Record<string, SurveyStandardId> = { en50160: 'en50160', 'iec61000-2-2': 'iec61000-2-2' };
+
+function isTrendDocument(x: unknown): x is TrendDocument {
+	const d = x as TrendDocument;
+	return typeof d === 'object' && d !== null && Array.isArray(d.aggregates) && Array.isArray(d.channels) && Array.isArray(d.events) && Array.isArray(d.frequency) && typeof d.durationS === 'number';
+}
+
+/** The trend documents in a JSON file: one document, an array of them, or JSON Lines. */
+function documentsIn(path: string): TrendDocument[] {
+	const text = readFileSync(path, 'utf8');
+	let values: unknown[];
+	try {
+		const v: unknown = JSON.parse(text);
+		values = Array.isArray(v) ? v : [v];
+	} catch {
+		values = text
+			.split('\n')
+			.filter((l) => l.trim() !== '')
+			.map((l, i) => {
+				try {
+					return JSON.parse(l) as unknown;
+				} catch {
+					throw new UsageError(`${path}:${i + 1}: not JSON: expected the output of 'sinecheck trend --json'`);
+				}
+			});
+	}
+	const bad = values.findIndex((v) => !isTrendDocument(v));
+	if (bad >= 0) throw new UsageError(`${path}: document ${bad + 1} is not a trend document: expected the output of 'sinecheck trend --json'`);
+	return values as TrendDocument[];
+}
+
+function number(name: string, v: number | string | undefined, ok: (x: number) => boolean, what: string): number | undefined {
+	if (v === undefined || v === '') return undefined;
+	const x = Number(String(v).replace(',', '.'));
+	if (!Number.isFinite(x) || !ok(x)) throw new UsageError(`--${name} ${v}: expected ${what}`);
+	return x;
+}
+
+export async function surveyCommand(paths: string[], options: SurveyCommandOptions = {}): Promise<number> {
+	const out = options.stdout ?? process.stdout;
+	const err = options.stderr ?? process.stderr;
+	let standard: SurveyStandardId;
+	let declaredV: number | undefined;
+	let nominalHz: number | undefined;
+	try {
+		if (paths.length === 0) throw new UsageError('survey: give the recording files or folders (or trend JSON files) of one recording');
+		const s = STANDARDS[(options.standard ?? 'en50160').toLowerCase()];
+		if (!s) throw new UsageError(`--standard ${options.standard}: expected en50160 or iec61000-2-2`);
+		standard = s;
+		declaredV = number('nominal', options.nominal, (x) => x > 0, 'the declared supply voltage in V (line-to-neutral for line-to-neutral channels)');
+		nominalHz = number('frequency', options.frequency, (x) => x === 50 || x === 60, '50 or 60 (Hz)');
+	} catch (e) {
+		err.write(`${ERROR_PREFIX}${(e as Error).message}\n`);
+		return 2;
+	}
+	const docs: TrendDocument[] = [];
+	let failed = 0;
+	for (const path of paths) {
+		try {
+			const isJson = ['.json', '.jsonl'].includes(extname(path).toLowerCase()) && statSync(path).isFile();
+			if (isJson) {
+				docs.push(...documentsIn(path));
+				continue;
+			}
+			const { units } = collectUnits([path]);
+			for (const u of units) {
+				const file = u.files[0];
+				try {
+					const result = analyseFile(file, file, options.open ?? {}, { declaredV, nominalHz: nominalHz as 50 | 60 | undefined, harmonics: true, keep: { cycles10: false, cycles150: false, min10: true } });
+					docs.push(trendJson(file, result) as TrendDocument);
+				} catch (e) {
+					failed++;
+					err.write(`${errorLine(e, file)}\n`);
+				}
+			}
+		} catch (e) {
+			failed++;
+			err.write(`${errorLine(e, path)}\n`);
+		}
+	}
+	if (docs.length === 0) {
+		err.write(`${ERROR_PREFIX}survey: no recording could be read\n`);
+		return 2;
+	}
+	try {
+		const { input, diagnostics } = surveyInputFromTrend(docs, declaredV);
+		const result = assessSurvey(input, standard);
+		const notes = diagnostics.map((d) => d.message);
+		if (options.json) out.write(`${surveyJson(result, { files: docs.map((d) => d.source), clockAligned: input.clockAligned, spanStartS: input.spanStartS, diagnostics })}\n`);
+		else out.write(surveyTable(result, input.spanStartS, input.clockAligned, notes));
+		if (failed > 0) return 2;
+		return result.meets === false ? 1 : 0;
+	} catch (e) {
+		if (e instanceof SurveyMergeError) {
+			err.write(`${ERROR_PREFIX}${e.source}: ${e.message}\n`);
+			return 2;
+		}
+		throw e;
+	}
+}
