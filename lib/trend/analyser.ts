@@ -27,6 +27,7 @@ import { EventDetector } from './event-detector.js';
 import { trendLimitProblem, trendRingLength } from './limits.js';
 import { FREQUENCY_INTERVAL_S as FREQ_S, TEN_MIN_S, secondsPastTick } from './clock.js';
 import { RowGroup } from './row-group.js';
+import { windowUnbalancePercent } from './window-unbalance.js';
 import { RvcDetector } from './rvc-detector.js';
 import { TREND_MAX_ORDER, WindowThd } from './window-thd.js';
 import type { TrendEvent, TrendFrequencyRow, TrendOptions, TrendResult, TrendRow, TrendThresholds } from './types.js';
@@ -104,6 +105,10 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const scratch = wantThd && thdMethod === 'sinc' ? new Float64Array(ringLen) : undefined;
 	const wantHarmonics = wantThd && thdMethod === 'lagrange' && opts.harmonics === true;
 	const harmScratch = wantHarmonics ? new Float64Array(TREND_MAX_ORDER + 1) : undefined;
+	// Unbalance per window from the fundamentals of exactly three voltage channels (IEC 61000-4-30:2015,
+	// 5.7.2; from memory): u2 = |U2| / |U1| in the channels' order, the smaller over the larger sequence.
+	const wantUnbalance = wantThd && thdMethod === 'lagrange' && voltage.length === 3;
+	const phasors = wantUnbalance ? new Float64Array(6) : undefined;
 	let fastThd: WindowThd | undefined;
 	let fastThdCycles = 0;
 	let nonFiniteWindows = 0;
@@ -204,7 +209,8 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 					fastThd = new WindowThd(cyclesPerWindow);
 					fastThdCycles = cyclesPerWindow;
 				}
-				thd[c] = fastThd.thdPercent(ring, mask, startT, endT, fs, harmScratch);
+				const k = phasors ? voltage.indexOf(c) : -1;
+				thd[c] = fastThd.thdPercent(ring, mask, startT, endT, fs, harmScratch, k >= 0 ? phasors!.subarray(2 * k, 2 * k + 2) : undefined);
 				if (harm) harm.push(Array.from(harmScratch!));
 			} else thd[c] = NaN;
 		}
@@ -214,6 +220,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 			row: { interval: '10/12-cycle', startS: startT / fs, durationS: lengthT / fs, cycles: cyclesPerWindow, frequencyHz: (cyclesPerWindow * fs) / lengthT, complete: true, flagged: false, rms, thdPercent: thd },
 		});
 		if (harm) pendingRows[pendingRows.length - 1].row.harmonicsPercent = harm;
+		if (phasors) pendingRows[pendingRows.length - 1].row.unbalancePercent = windowUnbalancePercent(phasors);
 	}
 
 	function closeFrequency(end: number, complete: boolean): void {

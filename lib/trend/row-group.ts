@@ -12,6 +12,8 @@ export class RowGroup {
 	private readonly sumSqRms: Float64Array;
 	private readonly sumSqThd: Float64Array;
 	private sumSqHarm: Float64Array[] | undefined;
+	private sumSqUnbalance = 0;
+	private unbalanceCount = 0;
 	private count = 0;
 	private cycles = 0;
 	private windowsS = 0;
@@ -47,6 +49,10 @@ export class RowGroup {
 				for (let k = 0; k < src.length; k++) dst[k] += src[k] * src[k];
 			}
 		}
+		if (row.unbalancePercent !== undefined && Number.isFinite(row.unbalancePercent)) {
+			this.sumSqUnbalance += row.unbalancePercent * row.unbalancePercent;
+			this.unbalanceCount++;
+		}
 		this.cycles += row.cycles;
 		this.windowsS += row.durationS;
 		this.count++;
@@ -68,6 +74,9 @@ export class RowGroup {
 			rms: Array.from(this.sumSqRms, (s) => Math.sqrt(s / n)),
 			thdPercent: Array.from(this.sumSqThd, (s) => Math.sqrt(s / n)),
 		};
+		if (this.unbalanceCount > 0) row.unbalancePercent = Math.sqrt(this.sumSqUnbalance / this.unbalanceCount);
+		this.sumSqUnbalance = 0;
+		this.unbalanceCount = 0;
 		if (this.sumSqHarm) {
 			row.harmonicsPercent = this.sumSqHarm.map((h) => Array.from(h, (v) => Math.sqrt(v / n)));
 			for (const h of this.sumSqHarm) h.fill(0);

@@ -114,6 +114,12 @@ export interface TrendRow {
 	 * fundamental's (NaN for order 0 and above fs/2); longer intervals aggregate each order like rms.
 	 */
 	harmonicsPercent?: number[][];
+	/**
+	 * With exactly three voltage channels: voltage unbalance u2 = |U2|/|U1| in % from their fundamentals
+	 * (IEC 61000-4-30:2015, 5.7.2; from memory), the smaller sequence over the larger, so a reversed channel
+	 * order gives the same figure; longer intervals aggregate it like rms.
+	 */
+	unbalancePercent?: number;
 }
 
 /** Power frequency over one 10 s interval: whole cycles / their duration (REFERENCE §3.3). */

@@ -60,9 +60,11 @@ export class WindowThd {
 	 * index & mask); needs samples from startT − 4 to endT + 5 in the ring. NaN when the fundamental is 0.
 	 * When `harmonicsOut` (length ≥ 51) is given it receives each order's subgroup in % of the
 	 * fundamental's subgroup (index = order; [1] = 100; NaN at or above fs/2 and for order 0).
+	 * When `fundamentalOut` (length ≥ 2) is given it receives the fundamental's DFT bin (re, im; a phasor in
+	 * the window's time frame, the same frame for every channel windowed on the same crossings).
 	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the REFERENCE §1.3 mix
 	 */
-	thdPercent(ring: Float64Array, mask: number, startT: number, endT: number, sampleRateHz: number, harmonicsOut?: Float64Array): number {
+	thdPercent(ring: Float64Array, mask: number, startT: number, endT: number, sampleRateHz: number, harmonicsOut?: Float64Array, fundamentalOut?: Float64Array): number {
 		const tab = weightTable();
 		// Copy the window (with the taps' margin) out of the ring once, so the tap loop needs no masking.
 		const first = Math.floor(startT) - 3;
@@ -92,6 +94,10 @@ export class WindowThd {
 		const c = this.cycles;
 		const f1 = (c * sampleRateHz) / (endT - startT);
 		const power = (k: number) => s[2 * k] * s[2 * k] + s[2 * k + 1] * s[2 * k + 1];
+		if (fundamentalOut) {
+			fundamentalOut[0] = s[2 * c];
+			fundamentalOut[1] = s[2 * c + 1];
+		}
 		const g1 = power(c - 1) + power(c) + power(c + 1);
 		let gh = 0;
 		if (harmonicsOut) {
