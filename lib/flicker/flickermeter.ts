@@ -39,6 +39,12 @@ export interface FlickermeterOptions extends FlickerSettings {
 	pinstBlockS?: number;
 	/** Keep the Pinst blocks in the result (memory grows by 16 bytes per block). Default false. */
 	keepPinstBlocks?: boolean;
+	/**
+	 * Seconds past a 10-minute clock tick at the first sample (lib/trend/clock.ts). Pst intervals then end
+	 * on the clock's ticks (IEC 61000-4-30:2015, 4.5.3; from memory) and the first, partial one gives no
+	 * Pst. Default 0: intervals count from the first sample.
+	 */
+	intervalOffsetS?: number;
 	/** Called with each Pst once its 10 minutes are complete. */
 	onPst?: (interval: PstInterval) => void;
 	/** Called with each finished Pinst block: start (s), max and mean Pinst. */
@@ -106,6 +112,8 @@ class StreamingFlickermeter implements Flickermeter {
 	private recordCount = 0;
 	private n = 0; // samples through the chain
 	private readonly intervalSamples: number;
+	/** Samples past a clock tick at the first sample (0 when intervals count from the first sample). */
+	private readonly offsetSamples: number;
 	private readonly settlingSamples: number;
 	private settlingCounts?: Uint32Array;
 	private readonly blockS: number;
@@ -123,6 +131,9 @@ class StreamingFlickermeter implements Flickermeter {
 		const fs = this.design.sampleRateHz;
 		this.startBuffer = new Float64Array(Math.round((START_CYCLES * fs) / options.nominalHz));
 		this.intervalSamples = Math.round(PST_INTERVAL_S * fs);
+		const offsetS = options.intervalOffsetS ?? 0;
+		if (!(offsetS >= 0 && offsetS < PST_INTERVAL_S)) throw new RangeError(`intervalOffsetS must be in [0, ${PST_INTERVAL_S}) s, got ${options.intervalOffsetS}`);
+		this.offsetSamples = Math.round(offsetS * fs) % this.intervalSamples;
 		this.settlingSamples = Math.round(FLICKER_SETTLING_S * fs);
 		this.blockS = options.pinstBlockS ?? 1;
 		if (!(this.blockS > 0)) throw new RangeError(`pinstBlockS must be > 0, got ${options.pinstBlockS}`);
@@ -158,7 +169,7 @@ class StreamingFlickermeter implements Flickermeter {
 		let i = from;
 		while (i < to) {
 			const blockEnd = Math.round((this.block + 1) * this.blockS * fs);
-			const intervalEnd = (Math.floor(this.n / this.intervalSamples) + 1) * this.intervalSamples;
+			const intervalEnd = (Math.floor((this.n + this.offsetSamples) / this.intervalSamples) + 1) * this.intervalSamples - this.offsetSamples;
 			if (this.n < this.settlingSamples) {
 				const stop = Math.min(to, i + (this.settlingSamples - this.n));
 				this.settle(x, i, stop);
@@ -214,9 +225,13 @@ class StreamingFlickermeter implements Flickermeter {
 	private closeInterval(): void {
 		const fs = this.design.sampleRateHz;
 		const figures = pstFromHistogram(this.interval, this.intervalCount);
-		const interval: PstInterval = { startS: (this.n - this.intervalSamples) / fs, durationS: this.intervalSamples / fs, ...figures };
-		this.pst.push(interval);
-		this.options.onPst?.(interval);
+		const startN = this.n - this.intervalSamples;
+		// A first interval cut by a clock tick is partial: its Pinst counts in the record, it gives no Pst.
+		if (startN >= 0) {
+			const interval: PstInterval = { startS: startN / fs, durationS: this.intervalSamples / fs, ...figures };
+			this.pst.push(interval);
+			this.options.onPst?.(interval);
+		}
 		this.mergeInterval();
 	}
 

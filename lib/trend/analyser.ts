@@ -128,7 +128,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const freqOffset = clockStartS === undefined ? 0 : Math.round(secondsPastTick(clockStartS, FREQ_S) * fs) % freqLen;
 
 	let nominalHz: number | undefined = opts.nominalHz;
-	const flicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) ? new TrendFlickerTracker(fs, channels, voltage, diagnostics, opts.flickerPinst === true) : null;
+	const flicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) ? new TrendFlickerTracker(fs, channels, voltage, diagnostics, opts.flickerPinst === true, tickOffset / fs) : null;
 	let declaredV = opts.declaredV ?? NaN;
 	let detector: EventDetector | undefined;
 	let rvc: RvcDetector | undefined;

@@ -22,7 +22,7 @@ export interface TrendFlicker {
 	/** The voltage channels measured, by name. */
 	channels: string[];
 	lamp: '230V' | '120V';
-	/** Complete 10-minute intervals from the first sample. */
+	/** Complete 10-minute intervals, on the clock's ticks when the start time is known, else from the first sample. */
 	pst: TrendFlickerRow[];
 	/** Complete 2-hour periods (12 consecutive Pst). */
 	plt: TrendFlickerRow[];
@@ -60,6 +60,8 @@ export class TrendFlickerTracker {
 		private readonly voltage: number[],
 		private readonly diagnostics: Diagnostic[],
 		private readonly keepPinst = false,
+		/** Seconds past a 10-minute clock tick at the first sample, when the recording's start time is known. */
+		private readonly intervalOffsetS = 0,
 	) {}
 
 	/** True when this recording can be measured at all (a voltage channel and ≥ 1600 S/s); says why not otherwise. */
@@ -95,7 +97,7 @@ export class TrendFlickerTracker {
 	}
 
 	private start(nominalHz: 50 | 60): void {
-		this.meters = this.voltage.map(() => createFlickermeter({ sampleRateHz: this.sampleRateHz, nominalHz, keepPinstBlocks: this.keepPinst }));
+		this.meters = this.voltage.map(() => createFlickermeter({ sampleRateHz: this.sampleRateHz, nominalHz, keepPinstBlocks: this.keepPinst, intervalOffsetS: this.intervalOffsetS }));
 		this.uhpWaiting = this.voltage.map(() => []);
 		this.halves = this.voltage.map((_, k) => createHalfPeriodRms(this.sampleRateHz, nominalHz, (t, v) => this.halfPeriod(k, t, v, nominalHz)));
 		for (const p of this.pending) for (let k = 0; k < p.length; k++) this.feed(k, p[k]);

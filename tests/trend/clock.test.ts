@@ -45,5 +45,9 @@ describe('createTrendAnalyser with clockStartS', () => {
 		expect(r.frequency[1].startS).toBeCloseTo(8.949, 3);
 		expect(r.frequency[1].complete).toBe(true);
 		expect(r.clockStartS).toBe(start);
+		// Pst (IEC 61000-4-15) on the same ticks: one complete interval, 08:50-09:00; the partial ones give none.
+		expect(r.flicker?.pst).toHaveLength(1);
+		expect(r.flicker!.pst[0].startS).toBeCloseTo(338.949, 3);
+		expect(r.flicker!.pst[0].values[0]).toBeLessThan(0.05); // an unmodulated sine: no flicker
 	});
 });
