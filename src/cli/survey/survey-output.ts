@@ -1,4 +1,5 @@
 /** Text forms of a survey: the readable table, and the JSON document (NaN as null). */
+import { maxOf } from '../../../lib/signal/extremes.js';
 import type { SurveyEventTable, SurveyLine, SurveyResult } from '../../../lib/survey/types.js';
 
 function clock(s: number, clockAligned: boolean): string {
@@ -15,7 +16,7 @@ function span(s: number): string {
 const MARK: Record<SurveyLine['verdict'], string> = { meets: 'meets', 'does not meet': 'DOES NOT MEET', 'not measured': 'not measured' };
 
 function pad(cells: string[][]): string[] {
-	const widths = cells[0].map((_, c) => Math.max(...cells.map((r) => r[c].length)));
+	const widths = cells[0].map((_, c) => maxOf(cells.map((r) => r[c].length)));
 	return cells.map((r) => r.map((v, c) => (c === r.length - 1 ? v : v.padEnd(widths[c]))).join('  ').trimEnd());
 }
 
