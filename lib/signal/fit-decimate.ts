@@ -54,3 +54,18 @@ export function decimationGain(omega: number, factor: number): number {
 	const g = Math.sin((factor * omega) / 2) / (factor * Math.sin(omega / 2));
 	return g * g;
 }
+
+/**
+ * Variance inflation of a least-squares estimate from decimated white noise: neighbouring outputs share
+ * samples (the kernels overlap by M − 1), so they are correlated with ρ = Σ w_k w_{k+M} / Σ w_k²
+ * (w the triangle); a slowly varying estimate then has variance × (1 + 2ρ). 1 for M = 1.
+ * Ref: variance of the mean of an MA(1) sequence, 1 + 2ρ₁ (common practice).
+ */
+export function decimationNoiseInflation(factor: number): number {
+	if (factor <= 1) return 1;
+	const w = (k: number) => (k < 0 || k > 2 * factor - 2 ? 0 : Math.min(k + 1, 2 * factor - 1 - k));
+	let s0 = 0;
+	let s1 = 0;
+	for (let k = 0; k <= 2 * factor - 2; k++) (s0 += w(k) * w(k)), (s1 += w(k) * w(k + factor));
+	return 1 + (2 * s1) / s0;
+}

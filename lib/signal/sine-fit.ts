@@ -3,7 +3,7 @@
  * channel with its own DC and harmonics 1…H. What a record of half a cycle to two cycles can give when
  * whole cycles (and a DFT over them) cannot.
  */
-import { decimateForFit, decimationGain } from './fit-decimate.js';
+import { decimateForFit, decimationGain, decimationNoiseInflation } from './fit-decimate.js';
 import { harmonicBasis, inverseGramDiagonal, orthonormalise, projectOut, solveOnBasis, type QrBasis } from './linear-fit.js';
 
 /** Fitted figures of one channel. Amplitudes are peak values; phases cosine reference at the first sample. */
@@ -40,12 +40,22 @@ export interface SineFit {
 
 export type SineFitFailure = { ok: false; message: string };
 
-/** Output rate of the decimator per fitted order per Hz of the highest frequency searched (5 samples per period of the order above the top one). */
-const FIT_SAMPLES_PER_TOP_PERIOD = 5;
+/** Output rate of the decimator per fitted order per Hz of the highest frequency searched (8 samples per period of the order above the top one). */
+const FIT_SAMPLES_PER_TOP_PERIOD = 8;
+/** Decimation never leaves fewer samples than this in the record. */
+const MIN_FIT_SAMPLES = 256;
 /** A harmonic column whose part independent of the lower orders is under this fraction cannot be resolved by the record. */
 const MIN_INDEPENDENCE = 1e-3;
 /** Grid step of the frequency search: this fraction of a cycle of phase drift across the record. */
 const GRID_CYCLES = 0.05;
+/**
+ * The frequency is fitted with orders up to the highest that stands out of the residual (at most 15): over
+ * about one cycle a long harmonic series can mimic a small change of frequency (it fits the jump where the
+ * wave would join its own start), so orders that are only noise would make the frequency needlessly loose.
+ */
+const MAX_FREQUENCY_ORDERS = 15;
+/** An order 'stands out' when its amplitude exceeds this many standard deviations (common practice). */
+const SIGNIFICANT_STD = 4;
 /** Gauss–Newton stops when a step in ω is under this fraction of ω (far below any uncertainty a record gives). */
 const STEP_TOLERANCE = 1e-11;
 /** Orders used while searching the frequency (the full set is fitted at the end). */
@@ -54,13 +64,14 @@ const SEARCH_ORDERS = 3;
 /**
  * Fits x_c[n] ≈ d_c + Σ_{h=1}^{H} A_ch·cos(h·ω·n + φ_ch) to every channel c with one ω.
  *
- * 1. Records faster than 5·(maxOrder + 1)·highHz samples/s are decimated (`decimateForFit`, O(N)); each
+ * 1. Records faster than 8·(maxOrder + 1)·highHz samples/s are decimated (`decimateForFit`, O(N)); each
  *    fitted amplitude is divided by the decimator's known gain at its frequency, so nothing is biased.
  * 2. ω: a grid over lowHz…highHz (steps of 0.05 cycle across the record) of the summed, per-channel
  *    normalised residual of a fit with orders 1…3, then Gauss–Newton on ω with the linear parameters
- *    projected out (variable projection; IEEE Std 1057 four-parameter fit, here with H harmonics and
- *    several channels) until the step is under 1e-11·ω.
- * 3. Uncertainty: σ_c² = RSS_c/(m − K − 1); var(β) = σ_c²·diag((AᵀA)⁻¹); var(ω) = 1 / Σ_c |P⊥g_c|²/σ_c²
+ *    projected out (variable projection; IEEE Std 1057 four-parameter fit, here with harmonics and
+ *    several channels) until the step is under 1e-11·ω; then again with the orders that stand out of the
+ *    residual (see MAX_FREQUENCY_ORDERS), and finally every resolvable order 1…H at that ω.
+ * 3. Uncertainty: σ_c² = RSS_c/(m − K − 1), times the decimator's noise correlation (1 + 2ρ); var(β) = σ_c²·diag((AᵀA)⁻¹); var(ω) = 1 / Σ_c |P⊥g_c|²/σ_c²
  *    with g_c = ∂(model_c)/∂ω. Amplitude std = √((var a + var b)/2); phase std = that / amplitude.
  *
  * Orders that the record cannot tell apart from lower ones (a record of half a cycle cannot separate many
@@ -72,17 +83,21 @@ const SEARCH_ORDERS = 3;
  * @param sampleRateHz  samples per second
  * @param opts.lowHz, opts.highHz  frequency range searched (the result never leaves it)
  * @param opts.maxOrder  highest order wanted
+ * @param opts.floors  per channel, a peak amplitude below which an order does not count as present when
+ *   choosing the orders the frequency is fitted with (the quantisation floor: an 8-bit record's own
+ *   rounding makes harmonics that stand out of a white-noise residual but are not in the signal)
  * @returns the fit, or a failure with a sentence (too few samples, no fundamental in the range)
  * @example fitSharedSine([u, i], 1e6, { lowHz: 35, highHz: 65, maxOrder: 50 }).frequencyHz // 50.2 for a 20 ms scope capture
  */
 export function fitSharedSine(
 	channels: Float64Array[],
 	sampleRateHz: number,
-	opts: { lowHz: number; highHz: number; maxOrder: number },
+	opts: { lowHz: number; highHz: number; maxOrder: number; floors?: number[] },
 ): SineFit | SineFitFailure {
 	if (!(sampleRateHz > 0) || !(opts.lowHz > 0 && opts.highHz > opts.lowHz)) throw new RangeError('sampleRateHz and 0 < lowHz < highHz required');
 	const n = channels[0]?.length ?? 0;
-	const m = Math.max(1, Math.floor(sampleRateHz / (FIT_SAMPLES_PER_TOP_PERIOD * (opts.maxOrder + 1) * opts.highHz)));
+	const byRate = Math.floor(sampleRateHz / (FIT_SAMPLES_PER_TOP_PERIOD * (opts.maxOrder + 1) * opts.highHz));
+	const m = Math.max(1, Math.min(byRate, Math.floor(n / MIN_FIT_SAMPLES)));
 	const dec = channels.map((c) => decimateForFit(c, m));
 	const count = dec[0]?.values.length ?? 0;
 	if (count < 8) return { ok: false, message: `The record has ${n} samples: too few to fit a sine.` };
@@ -95,19 +110,23 @@ export function fitSharedSine(
 	const omegaOf = (hz: number) => (2 * Math.PI * hz) / sampleRateHz;
 
 	let omega = gridSearch(ys, tau, weights, omegaOf(opts.lowHz), omegaOf(opts.highHz), n, Math.min(SEARCH_ORDERS, rateOrders));
-	let orders = resolvableOrders(tau, omega, Math.min(opts.maxOrder, rateOrders));
-	omega = gaussNewton(ys, tau, weights, omega, orders);
-	orders = resolvableOrders(tau, omega, Math.min(opts.maxOrder, rateOrders));
-	omega = gaussNewton(ys, tau, weights, omega, orders);
+	omega = gaussNewton(ys, tau, weights, omega, Math.min(SEARCH_ORDERS, rateOrders));
+	const orders = resolvableOrders(tau, omega, Math.min(opts.maxOrder, rateOrders));
+	const full = finalFit(ys, tau, omega, orders, centre, m);
+	const frequencyOrders = significantOrders(full.channels, Math.min(orders, MAX_FREQUENCY_ORDERS), opts.floors);
+	// weight each channel by its noise (residual, or the quantisation floor where that is larger): 1/σ²
+	const noiseWeights = ys.map((y, c) => 1 / Math.max(full.channels[c].residualRms ** 2, (opts.floors?.[c] ?? 0) ** 2 / 2, 1e-30 * variance(y), 1e-300));
+	omega = gaussNewton(ys, tau, noiseWeights, omega, frequencyOrders);
 	const hz = (omega * sampleRateHz) / (2 * Math.PI);
 	if (!(hz >= opts.lowHz && hz <= opts.highHz)) {
 		return { ok: false, message: `No fundamental between ${opts.lowHz} and ${opts.highHz} Hz: the fit left that range.` };
 	}
 	const fit = finalFit(ys, tau, omega, orders, centre, m);
+	const omegaStd = finalFit(ys, tau, omega, frequencyOrders, centre, m).omegaStd;
 	return {
 		ok: true,
 		frequencyHz: hz,
-		frequencyStdHz: (fit.omegaStd * sampleRateHz) / (2 * Math.PI),
+		frequencyStdHz: (omegaStd * sampleRateHz) / (2 * Math.PI),
 		cycles: (n * hz) / sampleRateHz,
 		highestOrder: orders,
 		decimation: m,
@@ -155,6 +174,16 @@ function gridSearch(ys: Float64Array[], tau: Float64Array, weights: number[], lo
 		else a = x1;
 	}
 	return (a + b) / 2;
+}
+
+/** Highest order (≤ cap) that stands above 4 standard deviations of its own fit and the channel's floor in some channel; at least 1. */
+function significantOrders(channels: SineFitChannel[], cap: number, floors: number[] | undefined): number {
+	let top = 1;
+	channels.forEach((c, i) => {
+		const floor = floors?.[i] ?? 0;
+		for (let h = 2; h <= cap; h++) if (c.amplitude[h] > Math.max(SIGNIFICANT_STD * c.amplitudeStd[h], floor)) top = Math.max(top, h);
+	});
+	return top;
 }
 
 /** Highest order whose cos/sin columns stay independent of the lower orders over this record. */
@@ -230,9 +259,10 @@ function finalFit(ys: Float64Array[], tau: Float64Array, omega: number, orders: 
 	const k = 2 * orders + 1;
 	const dof = Math.max(1, tau.length - k - 1);
 	const varFactors = inverseGramDiagonal(p.qr);
+	const inflation = decimationNoiseInflation(m);
 	let info = 0;
 	const channels: SineFitChannel[] = p.solved.map((s, c) => {
-		const sigma2 = Math.max(s.rss / dof, 1e-30 * (variance(ys[c]) + 1e-300));
+		const sigma2 = inflation * Math.max(s.rss / dof, 1e-30 * (variance(ys[c]) + 1e-300));
 		info += p.gg[c] / sigma2;
 		const amplitude = new Float64Array(orders + 1);
 		const phaseRad = new Float64Array(orders + 1);
