@@ -21,7 +21,7 @@ import FFT from 'fft.js';
  * @param sampleRateHz  samples per second
  * @param opts.nominalHz  nominal system frequency, narrows the search
  * @param opts.minHz  lowest frequency searched (default: the one giving 1.8 cycles in the record)
- * @returns frequency in Hz, or NaN when the record is too short to search (under 8 samples)
+ * @returns frequency in Hz, never outside the range searched (a peak at its edge is clamped to the edge), or NaN when the record is too short to search (under 8 samples)
  * @example coarseFrequencyHz(sine 50 Hz at 10 kS/s, 10 000) // ≈ 50.0
  */
 export function coarseFrequencyHz(
@@ -82,7 +82,8 @@ export function coarseFrequencyHz(
 			}
 		}
 	}
-	return interpolatedPeak(mag, best) * binHz;
+	// never report outside the range searched: a peak on the range's edge is still rising beyond it
+	return Math.min(Math.max(interpolatedPeak(mag, best) * binHz, loHz), hiHz);
 }
 
 /** Samples transformed at most: 8192 at ≥ 20 kS/s is ≥ 0.4 s, 20 cycles of 50 Hz, ample for a coarse peak. */

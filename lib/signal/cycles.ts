@@ -114,7 +114,13 @@ export function findWholeCycles(
 		return fail('no-fundamental', 'No periodic fundamental stands out in the spectrum of this record.');
 	}
 	const recordCycles = (n * frequencyHz) / sampleRateHz;
-	if (recordCycles < 1.8) return tooShort(recordCycles, frequencyHz);
+	if (recordCycles < 1.8) {
+		// without a nominal frequency the search starts at 1.8 cycles per record: below it nothing was measured
+		if (opts.frequencyHz === undefined && opts.nominalHz === undefined) {
+			return fail('too-short', `The record lasts ${fmt((1000 * n) / sampleRateHz)} ms: under two cycles of any frequency below ${fmt((2 * sampleRateHz) / n)} Hz (mains included); at least two whole cycles are needed.`);
+		}
+		return tooShort(recordCycles, frequencyHz);
+	}
 
 	// The crossings depend slightly on the fit frequency (windows near the record's ends are off-centre),
 	// so f_crossings(f_fit) = f is solved by the secant method: ~3 passes to 1e-12 instead of ~12 by plain
