@@ -109,18 +109,15 @@ export function findWholeCycles(
 		return fail('dc-only', `The record is constant (${fmt(mean)}): no alternating signal, so no cycles or frequency.`);
 	}
 
+	if (opts.frequencyHz === undefined && opts.nominalHz !== undefined && (n * 1.3 * opts.nominalHz) / sampleRateHz < 1.8) return tooShortBlind(n, sampleRateHz);
 	let frequencyHz = opts.frequencyHz ?? coarseFrequencyHz(samples, sampleRateHz, { nominalHz: opts.nominalHz });
 	if (!Number.isFinite(frequencyHz) || frequencyHz <= 0) {
 		return fail('no-fundamental', 'No periodic fundamental stands out in the spectrum of this record.');
 	}
 	const recordCycles = (n * frequencyHz) / sampleRateHz;
-	if (recordCycles < 1.8) {
-		// without a nominal frequency the search starts at 1.8 cycles per record: below it nothing was measured
-		if (opts.frequencyHz === undefined && opts.nominalHz === undefined) {
-			return fail('too-short', `The record lasts ${fmt((1000 * n) / sampleRateHz)} ms: under two cycles of any frequency below ${fmt((2 * sampleRateHz) / n)} Hz (mains included); at least two whole cycles are needed.`);
-		}
-		return tooShort(recordCycles, frequencyHz);
-	}
+	// without a nominal frequency the search starts at 1.8 cycles per record: below it nothing was measured
+	const blind = opts.frequencyHz === undefined && opts.nominalHz === undefined;
+	if (recordCycles < 1.8) return blind ? tooShortBlind(n, sampleRateHz) : tooShort(recordCycles, frequencyHz);
 
 	// The crossings depend slightly on the fit frequency (windows near the record's ends are off-centre),
 	// so f_crossings(f_fit) = f is solved by the secant method: ~3 passes to 1e-12 instead of ~12 by plain
@@ -130,7 +127,7 @@ export function findWholeCycles(
 	for (let pass = 0; pass < 8; pass++) {
 		track = trackCrossings(samples, sampleRateHz / frequencyHz, opts.maxCycles, opts.toRecordEnd === true);
 		if (track.irregular) break;
-		if (track.crossings.length < 3) return tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
+		if (track.crossings.length < 3) return blind && recordCycles < 2.2 ? tooShortBlind(n, sampleRateHz) : tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
 		const c = track.crossings;
 		const measuredHz = ((c.length - 1) * sampleRateHz) / (c[c.length - 1] - c[0]);
 		const gapHz = measuredHz - frequencyHz;
@@ -194,6 +191,13 @@ function tooShort(recordCycles: number, frequencyHz: number, wholeCycles?: numbe
 	return fail(
 		'too-short',
 		`The record holds about ${fmt(recordCycles)} cycles of ${fmt(frequencyHz)} Hz${found}; at least two whole cycles are needed.`,
+	);
+}
+
+function tooShortBlind(n: number, sampleRateHz: number): SignalFailure {
+	return fail(
+		'too-short',
+		`The record lasts ${fmt((1000 * n) / sampleRateHz)} ms: under two cycles of any frequency below ${fmt((2 * sampleRateHz) / n)} Hz (mains included); at least two whole cycles are needed.`,
 	);
 }
 

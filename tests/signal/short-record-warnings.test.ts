@@ -22,8 +22,13 @@ describe('short records: warnings quote only what was measured', () => {
 		expect(r.message).not.toMatch(/cycles of \d/);
 	});
 
-	it('findWholeCycles(1.0 cycle, nominal 50 Hz) quotes a frequency inside the 35–65 Hz it searched', () => {
+	it('findWholeCycles(1.0 cycle, nominal 50 Hz) says too short by the duration, not with a frequency it did not search', () => {
 		const r = findWholeCycles(oneCycle, 1e6, { nominalHz: 50 });
+		expect(r.ok).toBe(false);
+		if (r.ok) return;
+		expect(r.code).toBe('too-short');
+		expect(r.message).toContain('19.92 ms');
+	});
 		expect(r.ok).toBe(false);
 		if (r.ok) return;
 		const hz = Number(/cycles of ([\d.]+) Hz/.exec(r.message)?.[1]);
