@@ -29,10 +29,4 @@ describe('short records: warnings quote only what was measured', () => {
 		expect(r.code).toBe('too-short');
 		expect(r.message).toContain('19.92 ms');
 	});
-		expect(r.ok).toBe(false);
-		if (r.ok) return;
-		const hz = Number(/cycles of ([\d.]+) Hz/.exec(r.message)?.[1]);
-		expect(hz).toBeGreaterThanOrEqual(35);
-		expect(hz).toBeLessThanOrEqual(65);
-	});
 });
