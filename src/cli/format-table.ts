@@ -2,6 +2,7 @@
  * The readable report of one file for a terminal: figures as rows, channels as columns, then the
  * relations between channels, power, three-phase, limits and every assumption made.
  */
+import { fitLines, resolutionLines } from './format-fit.js';
 import type { ReportJson } from '../../lib/report/to-json.js';
 import { flickerLines } from './flicker-lines.js';
 
@@ -146,6 +147,7 @@ export function formatReport(r: ReportJson): string[] {
 		}
 		out.push(...table(rows, '    '));
 	}
+	out.push(...fitLines(r), ...resolutionLines(r));
 	if (r.threePhasePower) {
 		const f = r.threePhasePower.figures;
 		out.push(
