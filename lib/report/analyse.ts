@@ -154,7 +154,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		window: {
 			startS: window && span === 'whole-cycles' ? window.startIndex / fs : 0,
 			endS: window && span === 'whole-cycles' ? window.endIndex / fs : periods ? periods.endIndex / fs : n / fs,
-			span: window || periods ? 'whole-cycles' : 'whole-record',
+			span: window ? span : periods ? 'whole-cycles' : 'whole-record',
 			harmonicWindowCycles: slots[0]?.cycles ?? NaN,
 			harmonicWindows: slots.length,
 		},

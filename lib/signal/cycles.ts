@@ -112,6 +112,8 @@ export function findWholeCycles(
 	if (opts.frequencyHz === undefined && opts.nominalHz !== undefined && (n * 1.3 * opts.nominalHz) / sampleRateHz < 1.8) return tooShortBlind(n, sampleRateHz);
 	let frequencyHz = opts.frequencyHz ?? coarseFrequencyHz(samples, sampleRateHz, { nominalHz: opts.nominalHz });
 	if (!Number.isFinite(frequencyHz) || frequencyHz <= 0) {
+		// a record under two cycles of the lowest mains frequency searched (0.7 × 50 Hz): its peak lies below the search
+		if (opts.frequencyHz === undefined && n / sampleRateHz < 2 / (0.7 * (opts.nominalHz ?? 50))) return tooShortBlind(n, sampleRateHz);
 		return fail('no-fundamental', 'No periodic fundamental stands out in the spectrum of this record.');
 	}
 	const recordCycles = (n * frequencyHz) / sampleRateHz;

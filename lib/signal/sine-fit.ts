@@ -45,7 +45,7 @@ const FIT_SAMPLES_PER_TOP_PERIOD = 8;
 /** Decimation never leaves fewer samples than this in the record. */
 const MIN_FIT_SAMPLES = 256;
 /** A harmonic column whose part independent of the lower orders is under this fraction cannot be resolved by the record. */
-const MIN_INDEPENDENCE = 1e-3;
+const MIN_INDEPENDENCE = 1e-2;
 /** Grid step of the frequency search: this fraction of a cycle of phase drift across the record. */
 const GRID_CYCLES = 0.05;
 /**
@@ -54,12 +54,14 @@ const GRID_CYCLES = 0.05;
  * wave would join its own start), so orders that are only noise would make the frequency needlessly loose.
  */
 const MAX_FREQUENCY_ORDERS = 15;
+/** Orders under this fraction of the fundamental never count as present (double-precision rounding of the fit itself). */
+const RELATIVE_FLOOR = 1e-7;
 /** An order 'stands out' when its amplitude exceeds this many standard deviations (common practice). */
 const SIGNIFICANT_STD = 4;
 /** Gauss–Newton stops when a step in ω is under this fraction of ω (far below any uncertainty a record gives). */
 const STEP_TOLERANCE = 1e-11;
 /** Orders used while searching the frequency (the full set is fitted at the end). */
-const SEARCH_ORDERS = 3;
+const SEARCH_ORDERS = 1;
 
 /**
  * Fits x_c[n] ≈ d_c + Σ_{h=1}^{H} A_ch·cos(h·ω·n + φ_ch) to every channel c with one ω.
@@ -67,9 +69,9 @@ const SEARCH_ORDERS = 3;
  * 1. Records faster than 8·(maxOrder + 1)·highHz samples/s are decimated (`decimateForFit`, O(N)); each
  *    fitted amplitude is divided by the decimator's known gain at its frequency, so nothing is biased.
  * 2. ω: a grid over lowHz…highHz (steps of 0.05 cycle across the record) of the summed, per-channel
- *    normalised residual of a fit with orders 1…3, then Gauss–Newton on ω with the linear parameters
+ *    normalised residual of a fit of the fundamental alone (a short record fits a sine nearly as well with a few harmonics of a wrong frequency), then Gauss–Newton on ω with the linear parameters
  *    projected out (variable projection; IEEE Std 1057 four-parameter fit, here with harmonics and
- *    several channels) until the step is under 1e-11·ω; then again with the orders that stand out of the
+ *    several channels) until the step is under 1e-11·ω, with the fundamental alone, then orders 1…3, then with the orders that stand out of the
  *    residual (see MAX_FREQUENCY_ORDERS), and finally every resolvable order 1…H at that ω.
  * 3. Uncertainty: σ_c² = RSS_c/(m − K − 1), times the decimator's noise correlation (1 + 2ρ); var(β) = σ_c²·diag((AᵀA)⁻¹); var(ω) = 1 / Σ_c |P⊥g_c|²/σ_c²
  *    with g_c = ∂(model_c)/∂ω. Amplitude std = √((var a + var b)/2); phase std = that / amplitude.
@@ -111,6 +113,7 @@ export function fitSharedSine(
 
 	let omega = gridSearch(ys, tau, weights, omegaOf(opts.lowHz), omegaOf(opts.highHz), n, Math.min(SEARCH_ORDERS, rateOrders));
 	omega = gaussNewton(ys, tau, weights, omega, Math.min(SEARCH_ORDERS, rateOrders));
+	omega = gaussNewton(ys, tau, weights, omega, Math.min(3, rateOrders));
 	const orders = resolvableOrders(tau, omega, Math.min(opts.maxOrder, rateOrders));
 	const full = finalFit(ys, tau, omega, orders, centre, m);
 	const frequencyOrders = significantOrders(full.channels, Math.min(orders, MAX_FREQUENCY_ORDERS), opts.floors);
@@ -180,7 +183,8 @@ function gridSearch(ys: Float64Array[], tau: Float64Array, weights: number[], lo
 function significantOrders(channels: SineFitChannel[], cap: number, floors: number[] | undefined): number {
 	let top = 1;
 	channels.forEach((c, i) => {
-		const floor = floors?.[i] ?? 0;
+		// an order under 1e-7 of the channel's fundamental is rounding of the arithmetic, not signal
+		const floor = Math.max(floors?.[i] ?? 0, RELATIVE_FLOOR * c.amplitude[1]);
 		for (let h = 2; h <= cap; h++) if (c.amplitude[h] > Math.max(SIGNIFICANT_STD * c.amplitudeStd[h], floor)) top = Math.max(top, h);
 	});
 	return top;
