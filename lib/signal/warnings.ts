@@ -185,8 +185,8 @@ function dcOffsetWarning(samples: Float64Array, periodSamples: number | undefine
 	let acRms: number;
 	if (periodSamples !== undefined && wholePeriods >= 1) {
 		const end = Math.min(n, wholePeriods * periodSamples);
-		mean = windowIntegral(samples, 0, end, (x) => x, periodSamples) / end;
-		acRms = Math.sqrt(windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean), periodSamples) / end);
+		mean = windowIntegral(samples, 0, end, (x) => x, periodSamples, { kind: 'x' }) / end;
+		acRms = Math.sqrt(windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean), periodSamples, { kind: 'square', about: mean }) / end);
 	} else {
 		mean = 0;
 		for (let i = 0; i < n; i++) mean += samples[i];
