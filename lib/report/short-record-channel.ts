@@ -61,13 +61,17 @@ export function fittedChannel(base: ReportChannel, samples: Float64Array, sample
 	};
 }
 
-/** Marks every harmonic (order ≥ 1) under the channel's rounding floor as below resolution (rms, percent, phase NaN). */
+/**
+ * Marks every harmonic (order ≥ 1) under the channel's rounding floor as below resolution. The figures stay
+ * (THD, K-factor, limits and the next steps sum them as measured); every front end shows the words
+ * "below resolution" in their place.
+ */
 export function markBelowResolution(channel: ReportChannel, resolution: ChannelResolution | undefined): ReportChannel {
 	if (!resolution) return { ...channel, resolution: null };
 	const floor = resolution.harmonicFloorRms;
 	return {
 		...channel,
 		resolution: { codeStep: resolution.codeStep, codesUsed: resolution.codesUsed, bitsUsed: resolution.bitsUsed, noiseRms: resolution.noiseRms, harmonicFloorRms: floor },
-		harmonics: channel.harmonics.map((h) => (h.order >= 1 && h.rms < floor ? { ...h, rms: NaN, percentOfFundamental: NaN, phaseDeg: NaN, belowResolution: true } : h)),
+		harmonics: channel.harmonics.map((h) => (h.order >= 1 && h.rms < floor ? { ...h, belowResolution: true } : h)),
 	};
 }

@@ -65,7 +65,7 @@ export interface ReportHarmonic {
 	percentOfFundamental: number;
 	/** Absolute phase, degrees, cosine reference, relative to the start of the analysis window; NaN when rms is 0. */
 	phaseDeg: number;
-	/** True when the order's RMS is under the channel's rounding floor (`ReportResolution`): rms and percent are then NaN. */
+	/** True when the order's RMS is under the channel's rounding floor (`ReportResolution`): front ends show "below resolution" instead of the number. */
 	belowResolution?: boolean;
 }
 

@@ -58,7 +58,7 @@ const FIGURES: [string, (c: Channel) => string][] = [
 
 function topHarmonics(c: Channel, count: number): string {
 	const hs = c.harmonics
-		.filter((h) => (h.order ?? 0) >= 2 && h.percentOfFundamental !== null && h.percentOfFundamental >= 0.5)
+		.filter((h) => (h.order ?? 0) >= 2 && !h.belowResolution && h.percentOfFundamental !== null && h.percentOfFundamental >= 0.5)
 		.sort((a, b) => (b.percentOfFundamental ?? 0) - (a.percentOfFundamental ?? 0))
 		.slice(0, count);
 	return hs.length ? hs.map((h) => `h${h.order ?? 0} ${fixed(h.percentOfFundamental, 1)}%`).join(', ') : 'none >= 0.5%';

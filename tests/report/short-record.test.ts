@@ -80,7 +80,7 @@ describe('analyseCapture short-record rules', () => {
 		expect(reportToJson(r).channels[0].formFactor).toBeNull();
 	});
 
-	it('reports a harmonic under the rounding floor q/√12 as below resolution, not as a number', () => {
+	it('marks a harmonic under the rounding floor q/√12 as below resolution', () => {
 		// 8-bit voltage channel (q = 3.125 V, floor 0.90 V RMS) with a 0.5 V RMS 5th: under the floor
 		const fs = 1e6;
 		const n = Math.round(fs / F);
@@ -89,8 +89,9 @@ describe('analyseCapture short-record rules', () => {
 		const h5 = r.channels[0].harmonics[5];
 		expect(r.channels[0].resolution!.harmonicFloorRms).toBeCloseTo(3.125 / Math.sqrt(12), 9);
 		expect(h5.belowResolution).toBe(true);
-		expect(h5.rms).toBeNaN();
-		expect(reportToJson(r).channels[0].harmonics[5].rms).toBeNull();
+		expect(reportToJson(r).channels[0].harmonics[5].belowResolution).toBe(true);
+		// the fundamental stands far above the floor and is not marked
+		expect(r.channels[0].harmonics[1].belowResolution).toBeUndefined();
 	});
 });
 
