@@ -227,6 +227,40 @@ const h = (order: number, rms: number, phaseDeg: number): Harmonic => ({ order, 
 	});
 }
 
+// --- G: single-shot scope capture of the moulder's drive input (8-bit, 1 MS/s, one cycle, trigger mid-record) -----
+{
+	const f = 50.2, fs = 1_000_000, n = 20_000; // 20 ms: 1.004 cycles; trigger on U's rising zero crossing at t = 0
+	const preS = 0.01;
+	const atStart = -360 * f * preS; // phase at the first sample of a wave crossing zero upwards at the trigger
+	const lagDeg = 25;
+	const u: ChannelModel = { name: 'CH1', unit: 'V', harmonics: [h(1, 230, atStart), h(5, 4.6, 5 * atStart + 180)] };
+	const i: ChannelModel = { name: 'CH2', unit: 'A', harmonics: [h(1, 10, atStart - lagDeg), h(3, 3, 3 * (atStart - lagDeg) - 30)] };
+	const [uu, ii] = columns([u, i], f, fs, n);
+	// the scope reads the probe tip / clamp output: ±4 V and ±2 V full scale in 256 codes
+	const probe = 100, clampVPerA = 0.1;
+	const code = (x: number, fullScaleV: number) => Math.max(-128, Math.min(127, Math.round((x / (2 * fullScaleV)) * 256))) * ((2 * fullScaleV) / 256);
+	const t = Float64Array.from({ length: n }, (_, k) => -preS + k / fs);
+	const ch1 = uu.map((x) => code(x / probe, 4));
+	const ch2 = ii.map((x) => code(x * clampVPerA, 2));
+	write('moulder-drive-scope.csv', csvText({
+		delimiter: ',', lineEnd: '\r\n', decimals: [7, 5, 6], names: ['Time', 'CH1', 'CH2'], columns: [t, ch1, ch2],
+		preamble: ['Record Length,20000', 'Sample Interval,1e-06', 'Trigger Point,10000', 'Vertical Units,V,V', 'Vertical Scale,1,0.5', 'Probe Attenuation,100,100 mV/A'],
+	}));
+	truths.push({
+		file: 'moulder-drive-scope.csv', companions: [], layout: 'scope single-shot CSV, CRLF: preamble (vertical units per channel, probe attenuation x100 and a 100 mV/A clamp), Time from −10 ms, values at the probe tip / clamp output in 8-bit codes (±4 V and ±2 V full scale)',
+		description: 'Single shot across the spindle moulder drive input: one cycle (20 ms at 1 MS/s) of 230 V with a 2 % 5th and the drive current (10 A lagging 25° with a 30 % 3rd), trigger on the voltage rising through zero mid-record.',
+		fundamentalHz: f, sampleRateHz: fs, samples: n, startS: -preS, channelCount: 2, digitalCount: 0,
+		channels: [describeChannel(u, fs, n, 'CH1 through a x100 probe, 8-bit codes of ±4 V; ground truth in V'), describeChannel(i, fs, n, 'CH2 through a 100 mV/A clamp, 8-bit codes of ±2 V; ground truth in A')].map((c, k) => {
+			// 1.004 cycles is not a whole number: the whole-record RMS is that of the sampled construction itself
+			const x = [uu, ii][k];
+			return { ...c, expected: { ...c.expected, recordRms: Math.sqrt(x.reduce((sum, v) => sum + v * v, 0) / n) } };
+		}),
+		power: [{ ...pairTruth(u, i), note: 'IEEE 1459 from the construction; the file holds 1.004 cycles, so the analyser fits it (short-record path)' }],
+		threePhase: [],
+		events: [],
+	});
+}
+
 mkdirSync(OUT, { recursive: true });
 const round = (_k: string, v: unknown) => (typeof v === 'number' && !Number.isInteger(v) ? Number(v.toPrecision(12)) : v);
 write('ground-truth.json', JSON.stringify({

@@ -29,9 +29,12 @@ export interface ChannelTimeLag {
  * (P = period in samples): tan(ω(τ − k0)) = (R(k0+1) − R(k0−1)) / (2·R(k0)·sin ω). The fit is exact for
  * a sine, so on a pure sine the lag equals the phasor angle (to the trapezoid rule's O(1/fs²) error);
  * for distorted signals it is the lag of best overall match, which may differ from the fundamental angle.
- * When the window leaves less than half a period of samples before or after it, a whole cycle is dropped
- * at that end (see `cyclesUsed`); at most `maxCycles` cycles (default 10, about the 200 ms of an IEC 61000-4-7
- * window) are correlated from the start, since the cost grows as cycles · P² (P = samples per period).
+ * Shifts that reach past the record's ends take `other` from the window one window length earlier or
+ * later (periodic continuation of whole cycles, linearly interpolated between samples), so any stretch of
+ * one whole period or more gives a lag and no cycle is dropped. At most `maxCycles` cycles (default 10,
+ * about the 200 ms of an IEC 61000-4-7 window) are correlated from the start; above 2048 samples per
+ * period both channels are first averaged in equal blocks (the same delay for both, so the lag between
+ * them is unchanged) to keep the cost O(N).
  * Ref: cross-correlation time-delay estimation with cosine peak interpolation (common practice).
  * @param ref, other  equal-length sample arrays on the same time base
  * @param span  whole-cycle window of the fundamental, fractional sample indices (from findWholeCycles)
@@ -52,14 +55,13 @@ export function crossCorrelationLag(
 	const maxCycles = opts.maxCycles ?? 10;
 	if (!(maxCycles >= 1)) throw new RangeError(`maxCycles must be >= 1, got ${maxCycles}`);
 	const periodSamples = (span.endIndex - span.startIndex) / span.cycles;
+	if (periodSamples > MAX_PERIOD_SAMPLES) return decimatedLag(ref, other, sampleRateHz, span, maxCycles);
 	const periodS = periodSamples / sampleRateHz;
 	const half = Math.ceil(periodSamples / 2);
 	const reach = half + 1; // the refinement needs one lag beyond the search range
-	let s = span.startIndex;
+	const s = span.startIndex;
 	let e = span.endIndex;
 	let cycles = span.cycles;
-	while (cycles >= 1 && Math.floor(s) - reach < 0) (s += periodSamples), cycles--;
-	while (cycles >= 1 && Math.ceil(e) + reach > ref.length - 1) (e -= periodSamples), cycles--;
 	if (cycles > maxCycles) (e -= (cycles - maxCycles) * periodSamples), (cycles = maxCycles);
 	const nan: ChannelTimeLag = { lagS: NaN, lagSamples: NaN, lagDeg: NaN, periodS, cyclesUsed: Math.max(cycles, 0), correlationCoefficient: NaN };
 	if (cycles < 1) return nan;
@@ -81,11 +83,22 @@ export function crossCorrelationLag(
 		ryy += weights[j] * y * y;
 	}
 	const r = new Float64Array(2 * reach + 1).fill(NaN);
+	// Beyond the record's ends `other` is continued periodically from the window (whole cycles, so the
+	// continuation is the wave itself): nothing is dropped when the record holds little more than the window.
+	const n = other.length;
+	const length = e - s;
+	const at = (p: number): number => {
+		const q = p < 0 ? p + length : p > n - 1 ? p - length : p;
+		const i0 = Math.floor(q);
+		const t = q - i0;
+		return t === 0 ? other[i0] : other[i0] * (1 - t) + other[Math.min(n - 1, i0 + 1)] * t;
+	};
 	const corr = (k: number): number => {
 		if (Number.isNaN(r[k + reach])) {
 			let acc = 0;
 			const base = f0 + k;
-			for (let j = 0; j < m; j++) acc += wx[j] * (other[base + j] - meanY);
+			if (base >= 0 && base + m - 1 <= n - 1) for (let j = 0; j < m; j++) acc += wx[j] * (other[base + j] - meanY);
+			else for (let j = 0; j < m; j++) acc += wx[j] * (at(base + j) - meanY);
 			r[k + reach] = acc;
 		}
 		return r[k + reach];
@@ -119,4 +132,34 @@ export function crossCorrelationLag(
 		cyclesUsed: cycles,
 		correlationCoefficient: Math.max(-1, Math.min(1, peak / Math.sqrt(rxx * ryy))),
 	};
+}
+
+/** Periods longer than this many samples are correlated after block-averaging both channels (cost stays O(N)). */
+const MAX_PERIOD_SAMPLES = 2048;
+
+/** crossCorrelationLag on both channels block-averaged by M = ⌈P/1024⌉; the lag scaled back by M. */
+function decimatedLag(ref: Float64Array, other: Float64Array, sampleRateHz: number, span: PowerSampleWindow, maxCycles: number): ChannelTimeLag {
+	const periodSamples = (span.endIndex - span.startIndex) / span.cycles;
+	const block = Math.ceil(periodSamples / 1024);
+	const cycles = Math.min(span.cycles, maxCycles);
+	const first = Math.max(0, Math.floor(span.startIndex / block) * block);
+	const last = Math.min(ref.length, Math.ceil((span.startIndex + cycles * periodSamples) / block) * block);
+	const count = Math.floor((last - first) / block);
+	const mean = (x: Float64Array) => {
+		const y = new Float64Array(count);
+		for (let k = 0; k < count; k++) {
+			let acc = 0;
+			for (let j = first + k * block, end = j + block; j < end; j++) acc += x[j];
+			y[k] = acc / block;
+		}
+		return y;
+	};
+	// block k stands for the samples [first + kM, first + (k+1)M): its centre is at (first + kM + (M−1)/2)
+	const shift = (block - 1) / 2;
+	const startIndex = Math.max(0, (span.startIndex - first - shift) / block);
+	const periodBlocks = periodSamples / block;
+	const fits = Math.min(cycles, Math.floor((count - 1 - startIndex) / periodBlocks + 1e-9));
+	if (fits < 1) return { lagS: NaN, lagSamples: NaN, lagDeg: NaN, periodS: periodSamples / sampleRateHz, cyclesUsed: 0, correlationCoefficient: NaN };
+	const inner = crossCorrelationLag(mean(ref), mean(other), sampleRateHz / block, { startIndex, endIndex: startIndex + fits * periodBlocks, cycles: fits }, { maxCycles });
+	return { ...inner, lagSamples: inner.lagSamples * block };
 }

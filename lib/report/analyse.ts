@@ -12,6 +12,9 @@ import { limitsReport } from './limits-report.js';
 import { flickerReport } from './flicker-report.js';
 import { checkSiteInputs, nextStepsSection } from '../next-steps/report-section.js';
 import { chooseReference } from './reference.js';
+import { channelResolution } from '../signal/code-step.js';
+import { fittedPairs, fittedPower, fitShortRecord, FITTED_NOTE } from './short-record.js';
+import { fittedChannel, fittedPeriods, markBelowResolution } from './short-record-channel.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
 import { channelSpectrum, planWindows, type ChannelSpectrum } from './spectra.js';
 import { REPORT_SCHEMA_VERSION, type AnalysisOptions, type AnalysisReport, type ReportChannel } from './types.js';
@@ -69,15 +72,21 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	const ref = chooseReference(capture, options.refChannel, searchHz);
 	assumptions.push(...ref.assumptions);
 	const window = ref.window;
-	const frequencyHz = window?.frequencyHz ?? NaN;
+	const resolutions = capture.channels.map((c) => channelResolution(c.samples));
+	// Under two whole cycles: one least-squares fit of every channel (lib/report/short-record.ts)
+	const short = !window && ref.index >= 0 ? fitShortRecord(capture, ref.index, maxOrder, options.nominalHz ?? capture.nominalFrequencyHz, resolutions) : undefined;
+	const fitted = typeof short === 'object' ? short : undefined;
+	const frequencyHz = window?.frequencyHz ?? fitted?.fit.frequencyHz ?? NaN;
 	const nominalHz = options.nominalHz ?? capture.nominalFrequencyHz ?? (window ? (Math.abs(frequencyHz - 60) < Math.abs(frequencyHz - 50) ? 60 : 50) : undefined);
 	if (options.nominalHz === undefined && capture.nominalFrequencyHz === undefined && nominalHz !== undefined) {
 		assumptions.push(`Nominal frequency taken as ${nominalHz} Hz (nearest to the measured ${frequencyHz.toFixed(3)} Hz).`);
 	}
 	const windowCycles = options.windowCycles ?? (nominalHz === 60 ? 12 : 10);
 	if (timeBaseIrregular(capture)) warnings.push('The time base is not uniform; figures assume the mean sample rate.');
-	if (!window) {
-		warnings.push(`No periodic fundamental found (${ref.failure ?? 'no channels'}): figures cover the whole record; harmonics, phase and power are not given.`);
+	const periods = fitted ? fittedPeriods(n, fs, fitted.fit.frequencyHz) : undefined;
+	if (fitted) warnings.push(shortRecordSentence(fitted.fit, n, fs, periods?.cycles ?? 0));
+	else if (!window) {
+		warnings.push(`No periodic fundamental found (${ref.failure ?? 'no channels'}${typeof short === 'string' ? `; ${short}` : ''}): figures cover the whole record; harmonics, phase and power are not given.`);
 	}
 	const slots = window ? planWindows(window, fs, windowCycles) : [];
 	if (window && window.cycles < windowCycles) {
@@ -87,7 +96,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	}
 	const spectra: (ChannelSpectrum | undefined)[] = capture.channels.map((c) => (slots.length > 0 ? channelSpectrum(c.samples, fs, slots, maxOrder) : undefined));
 
-	const channels: ReportChannel[] = capture.channels.map((c, i) => {
+	const wholeRecord: ReportChannel[] = capture.channels.map((c, i) => {
 		const figs = waveformFigures(c.samples, fs, window && span === 'whole-cycles' ? { span, window, nominalHz, maxOrder } : { span: 'whole-record', frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder });
 		const own = i === ref.index && window ? { ok: true as const, frequencyHz: window.frequencyHz } : findWholeCycles(c.samples, fs, window ? { frequencyHz } : searchHz !== undefined ? { nominalHz: searchHz } : {});
 		const channelHz = own.ok ? own.frequencyHz : NaN;
@@ -132,19 +141,20 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			warnings: chWarnings,
 		};
 	});
+	const channels = wholeRecord.map((c, i) => markBelowResolution(fitted ? fittedChannel(c, capture.channels[i].samples, fs, fitted, i, nominalHz, maxOrder) : c, resolutions[i]));
 
 	const report: AnalysisReport = {
 		schemaVersion: REPORT_SCHEMA_VERSION,
 		file: capture.source,
 		sampleRateHz: fs,
 		durationS: durationS(capture),
-		cyclesAnalysed: window?.cycles ?? 0,
+		cyclesAnalysed: window?.cycles ?? periods?.cycles ?? 0,
 		frequencyHz,
 		referenceChannel: ref.index >= 0 ? capture.channels[ref.index].name : null,
 		window: {
 			startS: window && span === 'whole-cycles' ? window.startIndex / fs : 0,
-			endS: window && span === 'whole-cycles' ? window.endIndex / fs : n / fs,
-			span: window ? span : 'whole-record',
+			endS: window && span === 'whole-cycles' ? window.endIndex / fs : periods ? periods.endIndex / fs : n / fs,
+			span: window ? span : periods ? 'whole-cycles' : 'whole-record',
 			harmonicWindowCycles: slots[0]?.cycles ?? NaN,
 			harmonicWindows: slots.length,
 		},
@@ -159,6 +169,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		threePhasePower: null,
 		neutral: null,
 		digital: digitalSummary(capture),
+		shortRecord: fitted?.info ?? null,
 	};
 	if (window && ref.index >= 0) {
 		const phasors = alignedFundamentals(spectra, ref.index);
@@ -178,6 +189,11 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			const neutralIndex = neutralName === undefined ? undefined : capture.channels.findIndex((c) => c.name === neutralName);
 			report.neutral = neutralCurrent(capture, three.members[currentSet], neutralIndex, spectra, slots, powerWindow, maxOrder);
 		}
+	} else if (fitted && ref.index >= 0) {
+		report.pairs = fittedPairs(capture, ref.index, fitted);
+		const fp = fittedPower(capture, fitted, options.pairs);
+		report.power = fp.power;
+		assumptions.push(...fp.assumptions);
 	} else if (options.pairs && options.pairs.length > 0) {
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}
@@ -192,3 +208,15 @@ function timeBaseIrregular(capture: Capture): boolean {
 	return capture.timeS !== undefined;
 }
 
+/** The capture-wide warning of a short record: cycles held at the fitted frequency and what covers what. */
+function shortRecordSentence(fit: { frequencyHz: number; frequencyStdHz: number; cycles: number; highestOrder: number }, n: number, fs: number, periods: number): string {
+	const r = (x: number, d: number) => Number(x.toFixed(d)).toString();
+	const span =
+		periods >= 1
+			? `RMS, rectified mean, form factor and meter error cover its first ${periods} whole period(s) of the fitted frequency`
+			: 'it holds no whole period, so mean and RMS come from the fit and rectified mean, form factor and meter error are not given';
+	return (
+		`Short record: ${r((1000 * n) / fs, 3)} ms holds ${r(fit.cycles, 3)} cycles at the fitted ${r(fit.frequencyHz, 3)} Hz (± ${Number(fit.frequencyStdHz.toPrecision(2))} Hz). ` +
+		`Frequency, harmonics (to order ${fit.highestOrder}), THD, lag and power are ${FITTED_NOTE}, each with its uncertainty; ${span}.`
+	);
+}

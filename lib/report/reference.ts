@@ -53,6 +53,9 @@ export function chooseReference(capture: Capture, refChannel: string | undefined
 			return { index: order[k], window: found, assumptions };
 		}
 		failure = failure ? failure : `${c.name}: ${found.message}`;
+		// every channel has the same length: one too short for two cycles means all are (another channel's
+		// harmonic could otherwise pass for a fundamental); the short-record fit takes over
+		if (found.code === 'too-short') break;
 	}
 	return { index: order[0], failure, assumptions: [`Reference channel ${channels[order[0]].name}: the first ${channels[order[0]].quantity} channel.`] };
 }

@@ -41,8 +41,38 @@ export interface ChannelSpectrum {
 	aggregate: HarmonicAggregate;
 }
 
+/**
+ * Rate above which a channel is averaged in blocks of M samples before its harmonic windows: 400 kS/s
+ * keeps the averaging's droop (πhfM/fs)²/6 under 1e-4 up to order 50 of 60 Hz, and the DFT of a
+ * 10 MS/s record 25 times shorter (time-domain figures still use every sample).
+ */
+export const HARMONIC_RATE_HZ = 400_000;
+
 /** Every window of one channel, and their aggregate. `slots` must not be empty. */
 export function channelSpectrum(samples: Float64Array, sampleRateHz: number, slots: WindowSlot[], maxOrder: number): ChannelSpectrum {
+	const m = Math.floor(sampleRateHz / HARMONIC_RATE_HZ);
+	if (m >= 2) return decimatedSpectrum(samples, sampleRateHz, slots, maxOrder, m);
 	const windows = slots.map((s) => harmonicWindow(samples, sampleRateHz, { fundamentalHz: s.fundamentalHz, startIndex: s.startIndex, cycles: s.cycles, maxOrder }));
+	return { windows, aggregate: aggregateHarmonicWindows(windows) };
+}
+
+/**
+ * channelSpectrum after averaging blocks of M samples (anti-alias: the average's nulls fall on every
+ * multiple of the new rate). Block j stands at (jM + (M − 1)/2): window starts are mapped to that time
+ * base and back, so phases refer to the same instants. O(N).
+ */
+function decimatedSpectrum(samples: Float64Array, sampleRateHz: number, slots: WindowSlot[], maxOrder: number, m: number): ChannelSpectrum {
+	const count = Math.floor(samples.length / m);
+	const y = new Float64Array(count);
+	for (let j = 0; j < count; j++) {
+		let acc = 0;
+		for (let k = j * m, end = k + m; k < end; k++) acc += samples[k];
+		y[j] = acc / m;
+	}
+	const shift = (m - 1) / 2;
+	const windows = slots.map((s) => {
+		const w = harmonicWindow(y, sampleRateHz / m, { fundamentalHz: s.fundamentalHz, startIndex: Math.max(0, (s.startIndex - shift) / m), cycles: s.cycles, maxOrder });
+		return { ...w, startIndex: w.startIndex * m + shift, endIndex: w.endIndex * m + shift };
+	});
 	return { windows, aggregate: aggregateHarmonicWindows(windows) };
 }

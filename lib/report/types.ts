@@ -65,6 +65,50 @@ export interface ReportHarmonic {
 	percentOfFundamental: number;
 	/** Absolute phase, degrees, cosine reference, relative to the start of the analysis window; NaN when rms is 0. */
 	phaseDeg: number;
+	/** True when the order's RMS is under the channel's rounding floor (`ReportResolution`): front ends show "below resolution" instead of the number. */
+	belowResolution?: boolean;
+}
+
+/** A channel's code step and what it implies (absent when its values show no common step). */
+export interface ReportResolution {
+	/** Spacing of the values, channel unit. */
+	codeStep: number;
+	/** Codes the record spans and that in bits. */
+	codesUsed: number;
+	bitsUsed: number;
+	/** RMS of the rounding error, q/√12, channel unit. */
+	noiseRms: number;
+	/** Harmonics under this RMS are reported as below resolution, channel unit. */
+	harmonicFloorRms: number;
+}
+
+/** What the short-record fit gives one channel beyond the common fields (all one standard deviation). */
+export interface ReportFitChannel {
+	fundamentalRms: number;
+	fundamentalRmsUncertainty: number;
+	fundamentalPhaseUncertaintyDeg: number;
+	thdUncertaintyPercent: number;
+	/** RMS of what the fit leaves (noise, rounding, what the orders fitted do not hold). */
+	residualRms: number;
+	/** NaN when the channel shows no code step. */
+	belowResolutionFloorRms: number;
+	/** 'from a fit of a short record'. */
+	note: string;
+}
+
+/** The short-record fit of a capture: present when the record holds under two whole cycles and a fit found a fundamental. */
+export interface ReportShortRecord {
+	note: string;
+	method: string;
+	frequencyHz: number;
+	frequencyUncertaintyHz: number;
+	/** Cycles the record holds at the fitted frequency (N·f/fs). */
+	cyclesHeld: number;
+	highestOrder: number;
+	/** Rate the fit ran at after anti-alias decimation, Hz. */
+	fitRateHz: number;
+	searchedLowHz: number;
+	searchedHighHz: number;
 }
 
 export interface ReportChannel {
@@ -112,6 +156,10 @@ export interface ReportChannel {
 	worstCycle: ReportWorstCycle | null;
 	/** Warnings about this channel's data (clipping, DC offset, few cycles...). */
 	warnings: string[];
+	/** Code step and rounding floor, or null when the values show no common step. */
+	resolution?: ReportResolution | null;
+	/** Fit figures on a short record, else null. */
+	fit?: ReportFitChannel | null;
 }
 
 /** Worst whole cycle of a channel (per-cycle RMS from one rising zero crossing of the reference to the next). */
@@ -165,8 +213,10 @@ export interface ReportPair {
 	other: string;
 	/** Fundamental phase of `other` behind `ref`, degrees in (−180, 180]; positive when `other` lags. */
 	lagDeg: number;
-	/** Time lag in s (cross-correlation, sub-sample); positive when `other` lags. */
+	/** Time lag in s (cross-correlation, sub-sample; on a short record from the fitted fundamentals); positive when `other` lags. */
 	lagS: number;
+	/** On a short record: one standard deviation of each lag, and the 'from a fit' note. */
+	fit?: { lagDegUncertainty: number; lagSUncertainty: number; note: string };
 }
 
 export type ReportLoadCharacter = 'inductive' | 'capacitive' | 'resistive';
@@ -192,6 +242,8 @@ export interface ReportPower {
 	ieee1459: Record<string, number>;
 	/** How the pair was formed: 'phase-label', 'only-pair', 'order' or 'user'. */
 	pairedBy: string;
+	/** On a short record: one standard deviation of the fundamental figures, and the 'from a fit' note. */
+	fit?: { fundamentalActiveWUncertainty: number; reactiveVarUncertainty: number; displacementPowerFactorUncertainty: number; theta1UncertaintyDeg: number; note: string };
 }
 
 export interface ReportThreePhase {
@@ -281,4 +333,6 @@ export interface AnalysisReport {
 	flicker?: ReportFlicker;
 	/** From the findings to the next engineering step (lib/next-steps); set by analyseCapture. */
 	nextSteps?: ReportNextSteps;
+	/** The short-record fit (records under two whole cycles), else null. */
+	shortRecord?: ReportShortRecord | null;
 }

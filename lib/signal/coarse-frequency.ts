@@ -21,7 +21,7 @@ import FFT from 'fft.js';
  * @param sampleRateHz  samples per second
  * @param opts.nominalHz  nominal system frequency, narrows the search
  * @param opts.minHz  lowest frequency searched (default: the one giving 1.8 cycles in the record)
- * @returns frequency in Hz, or NaN when the record is too short to search (under 8 samples)
+ * @returns frequency in Hz, never outside the range searched (NaN when the peak lies beyond its edge), or NaN when the record is too short to search (under 8 samples)
  * @example coarseFrequencyHz(sine 50 Hz at 10 kS/s, 10 000) // ≈ 50.0
  */
 export function coarseFrequencyHz(
@@ -67,8 +67,12 @@ export function coarseFrequencyHz(
 		loHz = Math.max(loHz, 0.7 * opts.nominalHz);
 		hiHz = Math.min(hiHz, 1.3 * opts.nominalHz);
 	}
-	const peak = peakBin(mag, Math.max(1, Math.ceil(loHz / binHz)), Math.min(half - 1, Math.floor(hiHz / binHz)));
+	const loBin = Math.max(1, Math.ceil(loHz / binHz));
+	const hiBin = Math.min(half - 1, Math.floor(hiHz / binHz));
+	const peak = peakBin(mag, loBin, hiBin);
 	if (peak < 0) return NaN;
+	// a 'peak' on an edge of the range with the spectrum still rising beyond it is no peak: the fundamental lies outside
+	if ((peak === loBin && mag[peak - 1] > mag[peak]) || (peak === hiBin && mag[peak + 1] > mag[peak])) return NaN;
 	let best = peak;
 	if (opts.nominalHz === undefined) {
 		for (let div = 6; div >= 2; div--) {
@@ -82,7 +86,9 @@ export function coarseFrequencyHz(
 			}
 		}
 	}
-	return interpolatedPeak(mag, best) * binHz;
+	// never report outside the range searched: a peak interpolated beyond its edge lies outside it
+	const hz = interpolatedPeak(mag, best) * binHz;
+	return hz >= loHz && hz <= hiHz ? hz : NaN;
 }
 
 /** Samples transformed at most: 8192 at ≥ 20 kS/s is ≥ 0.4 s, 20 cycles of 50 Hz, ample for a coarse peak. */

@@ -110,12 +110,19 @@ export function findWholeCycles(
 		return fail('dc-only', `The record is constant (${fmt(mean)}): no alternating signal, so no cycles or frequency.`);
 	}
 
+	if (opts.frequencyHz === undefined && opts.nominalHz !== undefined && (n * 1.3 * opts.nominalHz) / sampleRateHz < 1.8) return tooShortBlind(n, sampleRateHz);
+	const block = Math.floor(sampleRateHz / CROSSING_RATE_HZ);
+	if (block >= 2 && n >= 16 * block) return onBlockMeans(samples, sampleRateHz, opts, block);
 	let frequencyHz = opts.frequencyHz ?? coarseFrequencyHz(samples, sampleRateHz, { nominalHz: opts.nominalHz });
 	if (!Number.isFinite(frequencyHz) || frequencyHz <= 0) {
+		// a record under two cycles of the lowest mains frequency searched (0.7 × 50 Hz): its peak lies below the search
+		if (opts.frequencyHz === undefined && n / sampleRateHz < 2 / (0.7 * (opts.nominalHz ?? 50))) return tooShortBlind(n, sampleRateHz);
 		return fail('no-fundamental', 'No periodic fundamental stands out in the spectrum of this record.');
 	}
 	const recordCycles = (n * frequencyHz) / sampleRateHz;
-	if (recordCycles < 1.8) return tooShort(recordCycles, frequencyHz);
+	// without a nominal frequency the search starts at 1.8 cycles per record: below it nothing was measured
+	const blind = opts.frequencyHz === undefined && opts.nominalHz === undefined;
+	if (recordCycles < 1.8) return blind ? tooShortBlind(n, sampleRateHz) : tooShort(recordCycles, frequencyHz);
 
 	// The crossings depend slightly on the fit frequency (windows near the record's ends are off-centre),
 	// so f_crossings(f_fit) = f is solved by the secant method: ~3 passes to 1e-12 instead of ~12 by plain
@@ -125,7 +132,7 @@ export function findWholeCycles(
 	for (let pass = 0; pass < 8; pass++) {
 		track = trackCrossings(samples, sampleRateHz / frequencyHz, opts.maxCycles, opts.toRecordEnd === true);
 		if (track.irregular) break;
-		if (track.crossings.length < 3) return tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
+		if (track.crossings.length < 3) return blind && recordCycles < 2.2 ? tooShortBlind(n, sampleRateHz) : tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
 		const c = track.crossings;
 		const measuredHz = ((c.length - 1) * sampleRateHz) / (c[c.length - 1] - c[0]);
 		const gapHz = measuredHz - frequencyHz;
@@ -208,6 +215,40 @@ function overflowFailure(samples: Float64Array, mean: number): SignalFailure {
 	return fail(
 		'bad-parameter',
 		`Sample at index ${at} is ${fmt(samples[at])}: the samples are too large to sum their squares (beyond about 1e154 in magnitude, or their sum beyond 1.8e308). Check the scaling or unit of the file.`,
+	);
+}
+
+/**
+ * Above this rate the crossings are found on means of blocks of M samples (51.2 kS/s: 1024 samples per
+ * 50 Hz period, ample for the fitted crossings; cost O(N) instead of several passes over every sample).
+ */
+const CROSSING_RATE_HZ = 51_200;
+
+/** findWholeCycles on block means (block j stands at jM + (M − 1)/2), crossings mapped back to sample indices. */
+function onBlockMeans(samples: Float64Array, sampleRateHz: number, opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number; toRecordEnd?: boolean }, m: number): ({ ok: true } & CycleWindow) | SignalFailure {
+	const n = samples.length;
+	const count = Math.floor(n / m);
+	const y = new Float64Array(count);
+	for (let j = 0; j < count; j++) {
+		let acc = 0;
+		for (let k = j * m, end = k + m; k < end; k++) acc += samples[k];
+		y[j] = acc / m;
+	}
+	const r = findWholeCycles(y, sampleRateHz / m, opts);
+	// a duration quoted from the block means would drop the last partial block: quote the record's own
+	if (!r.ok) return r.code === 'too-short' && r.message.startsWith('The record lasts') ? tooShortBlind(n, sampleRateHz) : r;
+	const last = opts.toRecordEnd ? n : n - 1;
+	const mapped = Array.from(r.crossings, (c) => c * m + (m - 1) / 2).filter((c) => c >= 0 && c <= last);
+	if (mapped.length < 3) return tooShort((n * r.frequencyHz) / sampleRateHz, r.frequencyHz, mapped.length - 1);
+	const crossings = Float64Array.from(mapped);
+	const cycles = crossings.length - 1;
+	return { ok: true, startIndex: crossings[0], endIndex: crossings[cycles], cycles, frequencyHz: (cycles * sampleRateHz) / (crossings[cycles] - crossings[0]), crossings, bridgedCrossings: r.bridgedCrossings };
+}
+
+function tooShortBlind(n: number, sampleRateHz: number): SignalFailure {
+	return fail(
+		'too-short',
+		`The record lasts ${fmt((1000 * n) / sampleRateHz)} ms: under two cycles of any frequency below ${fmt((2 * sampleRateHz) / n)} Hz (mains included); at least two whole cycles are needed.`,
 	);
 }
 

@@ -15,3 +15,5 @@ export {
 	MIN_RECOMMENDED_CYCLES,
 	DC_OFFSET_WARNING_RATIO,
 } from './warnings.js';
+export { fitSharedSine, type SineFit, type SineFitChannel, type SineFitFailure } from './sine-fit.js';
+export { channelResolution, type ChannelResolution } from './code-step.js';

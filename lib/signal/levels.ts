@@ -1,7 +1,7 @@
 import type { Diagnostic } from '../capture.js';
 import { findWholeCycles, type CycleWindow } from './cycles.js';
 import { signalWarnings } from './warnings.js';
-import { extremaIn, windowIntegral } from './window-integral.js';
+import { extremaIn, windowIntegral, type InnerSum } from './window-integral.js';
 
 /**
  * Scale factor of a sine-calibrated average-responding meter: K = π / (2√2) ≈ 1.110720735, the form
@@ -173,16 +173,12 @@ export function waveformFigures(
 	// ending past the last sample (at most at N) takes the value there one period earlier.
 	const periodSamples = cycleWindow && cycleWindow.cycles >= 1 ? (endIndex - startIndex) / cycleWindow.cycles : endIndex - startIndex;
 	const average = cycleWindow
-		? (g: (x: number) => number) => windowIntegral(samples, startIndex, endIndex, g, periodSamples) / (endIndex - startIndex)
-		: (g: (x: number) => number) => {
-				let s = 0;
-				for (let i = 0; i < n; i++) s += g(samples[i]);
-				return s / n;
-			};
-	const mean = average((x) => x);
-	const rms = Math.sqrt(average((x) => x * x));
-	const acRms = Math.sqrt(average((x) => (x - mean) * (x - mean)));
-	const rectifiedMean = average((x) => Math.abs(x - mean));
+		? (g: (x: number) => number, inner: InnerSum) => windowIntegral(samples, startIndex, endIndex, g, periodSamples, inner) / (endIndex - startIndex)
+		: (g: (x: number) => number, inner: InnerSum) => windowIntegral(samples, 0, n, g, n, inner) / n;
+	const mean = average((x) => x, { kind: 'x' });
+	const rms = Math.sqrt(average((x) => x * x, { kind: 'square', about: 0 }));
+	const acRms = Math.sqrt(average((x) => (x - mean) * (x - mean), { kind: 'square', about: mean }));
+	const rectifiedMean = average((x) => Math.abs(x - mean), { kind: 'abs', about: mean });
 	const { max: peak, min: peakNegative } = extremaIn(samples, startIndex, endIndex);
 	const reading = averageRespondingReading(rectifiedMean);
 	return {

@@ -1,5 +1,6 @@
 import type { Diagnostic } from '../capture.js';
 import { fmt } from './format.js';
+import { runShowsSlopeBreak } from './clip-check.js';
 import { windowIntegral } from './window-integral.js';
 
 /** IEC 61000-4-30 power-frequency measurement ranges, Hz (REFERENCE §3.3; from memory). */
@@ -25,8 +26,10 @@ export const DC_OFFSET_WARNING_RATIO = 0.05;
  * - 'sample-rate-low-for-accuracy': the sampled peak of a sine may read low by up to 1 − cos(π f1/fs),
  *   more than `peakAccuracyPercent` (the rate needed is given);
  * - 'clipping': runs of equal samples at the record's highest or lowest value, longer than a sine of that
- *   amplitude would show at this quantisation step and rate (a square wave or a stepped inverter output
- *   triggers it too: judge from the plot);
+ *   amplitude would show at this quantisation step and rate, and met by the wave at a slope break (the
+ *   flanks, continued smoothly, would pass the run's level: `clip-check.ts`), so the slow crest of an
+ *   8-bit record at a high rate is not taken for a clip (a square wave or a stepped inverter output can
+ *   trigger it too: judge from the plot);
  * - 'dc-offset': |mean| above 5 % of the AC RMS (over whole periods from the first sample when the
  *   frequency is known, else the whole record);
  * - 'frequency-out-of-range': f1 outside 42.5–57.5 Hz (50 Hz systems) or 51–69 Hz (60 Hz systems), the
@@ -151,10 +154,12 @@ function clippingWarning(samples: Float64Array, periodSamples: number | undefine
 	// A signal resting at exactly zero (a rectifier or a switched load that is off) is not clipped.
 	for (const level of [max, min].filter((v) => v !== 0)) {
 		let run = 0;
+		const side = level === max ? 1 : -1;
 		for (let i = 0; i <= n; i++) {
 			if (i < n && samples[i] === level) run++;
 			else {
-				if (run >= minRun) {
+				// a slow crest sits on its top code for long: only a run the wave meets at a slope break is a clip
+				if (run >= minRun && runShowsSlopeBreak(samples, i - run, i - 1, side, level, step)) {
 					runs++;
 					longest = Math.max(longest, run);
 					shortest = Math.min(shortest, run);
@@ -180,8 +185,8 @@ function dcOffsetWarning(samples: Float64Array, periodSamples: number | undefine
 	let acRms: number;
 	if (periodSamples !== undefined && wholePeriods >= 1) {
 		const end = Math.min(n, wholePeriods * periodSamples);
-		mean = windowIntegral(samples, 0, end, (x) => x, periodSamples) / end;
-		acRms = Math.sqrt(windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean), periodSamples) / end);
+		mean = windowIntegral(samples, 0, end, (x) => x, periodSamples, { kind: 'x' }) / end;
+		acRms = Math.sqrt(windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean), periodSamples, { kind: 'square', about: mean }) / end);
 	} else {
 		mean = 0;
 		for (let i = 0; i < n; i++) mean += samples[i];

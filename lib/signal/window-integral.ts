@@ -30,6 +30,8 @@
  * @param periodSamples  period of the signal in samples, used only when endIndex > N − 1 (the value at N
  *   is taken this far back); default endIndex − startIndex (the window holds whole periods); held at the
  *   last sample when under 1
+ * @param inner  the same g named as a kind, so the long inner sum runs without a call per sample (a
+ *   record of 1e7 samples: several times faster); must describe g exactly
  * @returns the integral in (unit of g) × samples; divide by (endIndex − startIndex) for the mean
  * @throws RangeError when the window does not lie in [0, N]
  */
@@ -39,6 +41,7 @@ export function windowIntegral(
 	endIndex: number,
 	g: (x: number) => number,
 	periodSamples: number = endIndex - startIndex,
+	inner?: InnerSum,
 ): number {
 	const n = samples.length;
 	const last = n - 1;
@@ -69,11 +72,34 @@ export function windowIntegral(
 	let sum = ((gStart + gFirst) / 2) * (first - startIndex);
 	const g1 = at(i1);
 	if (i1 > first) {
-		let inner = 0;
-		for (let j = first + 1; j < i1; j++) inner += g(samples[j]);
-		sum += inner + (gFirst + g1) / 2;
+		sum += (inner ? innerSum(samples, first + 1, i1, inner) : innerGeneric(samples, first + 1, i1, g)) + (gFirst + g1) / 2;
 	}
 	return sum + ((g1 + gEnd) / 2) * (endIndex - i1);
+}
+
+/** g named for the inner sum: x, (x − about)², |x − about|. */
+export type InnerSum = { kind: 'x' } | { kind: 'square'; about: number } | { kind: 'abs'; about: number };
+
+function innerGeneric(samples: Float64Array, from: number, to: number, g: (x: number) => number): number {
+	let s = 0;
+	for (let j = from; j < to; j++) s += g(samples[j]);
+	return s;
+}
+
+function innerSum(samples: Float64Array, from: number, to: number, k: InnerSum): number {
+	let s = 0;
+	if (k.kind === 'x') for (let j = from; j < to; j++) s += samples[j];
+	else if (k.kind === 'square') {
+		const m = k.about;
+		for (let j = from; j < to; j++) {
+			const d = samples[j] - m;
+			s += d * d;
+		}
+	} else {
+		const m = k.about;
+		for (let j = from; j < to; j++) s += Math.abs(samples[j] - m);
+	}
+	return s;
 }
 
 /** Largest and smallest sample with index in [ceil(startIndex), floor(endIndex)]. */

@@ -2,6 +2,7 @@
  * The readable report of one file for a terminal: figures as rows, channels as columns, then the
  * relations between channels, power, three-phase, limits and every assumption made.
  */
+import { fitLines, resolutionLines } from './format-fit.js';
 import type { ReportJson } from '../../lib/report/to-json.js';
 import { flickerLines } from './flicker-lines.js';
 
@@ -57,7 +58,7 @@ const FIGURES: [string, (c: Channel) => string][] = [
 
 function topHarmonics(c: Channel, count: number): string {
 	const hs = c.harmonics
-		.filter((h) => (h.order ?? 0) >= 2 && h.percentOfFundamental !== null && h.percentOfFundamental >= 0.5)
+		.filter((h) => (h.order ?? 0) >= 2 && !h.belowResolution && h.percentOfFundamental !== null && h.percentOfFundamental >= 0.5)
 		.sort((a, b) => (b.percentOfFundamental ?? 0) - (a.percentOfFundamental ?? 0))
 		.slice(0, count);
 	return hs.length ? hs.map((h) => `h${h.order ?? 0} ${fixed(h.percentOfFundamental, 1)}%`).join(', ') : 'none >= 0.5%';
@@ -146,6 +147,7 @@ export function formatReport(r: ReportJson): string[] {
 		}
 		out.push(...table(rows, '    '));
 	}
+	out.push(...fitLines(r), ...resolutionLines(r));
 	if (r.threePhasePower) {
 		const f = r.threePhasePower.figures;
 		out.push(

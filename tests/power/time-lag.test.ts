@@ -42,18 +42,35 @@ describe('crossCorrelationLag', () => {
 		expect(r.lagS).toBeCloseTo(tauS, 6);
 	});
 
-	it('trims a cycle when the window leaves no room for the search (window from sample 0)', () => {
+	it('uses every cycle of a window from sample 0 to the end (periodic continuation; nothing dropped) and gives 20°', () => {
 		const ref = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 2001 });
 		const other = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 2001, phaseDeg: -20 });
 		const r = crossCorrelationLag(ref, other, fs, { startIndex: 0, endIndex: 2000, cycles: 10 });
-		expect(r.cyclesUsed).toBe(8);
+		expect(r.cyclesUsed).toBe(10);
 		expect(Math.abs(r.lagDeg - 20)).toBeLessThan(0.05);
 	});
 
-	it('returns NaN fields for a constant channel or a one-cycle window without room', () => {
+	it('gives the lag from a record of one period only: 20° and 20/360 × 20 ms = 1.111 ms (closed form)', () => {
+		const ref = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 201 });
+		const other = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 201, phaseDeg: -20 });
+		const r = crossCorrelationLag(ref, other, fs, { startIndex: 0, endIndex: 200, cycles: 1 });
+		expect(r.cyclesUsed).toBe(1);
+		expect(Math.abs(r.lagDeg - 20)).toBeLessThan(0.05);
+		expect(Math.abs(r.lagS - 20 / 360 / 50)).toBeLessThan(0.05 / 360 / 50);
+	});
+
+	it('returns NaN fields for a constant channel', () => {
 		const ref = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 2600 });
 		expect(crossCorrelationLag(ref, new Float64Array(2600).fill(3), fs, { startIndex: 200, endIndex: 2200, cycles: 10 }).lagS).toBeNaN();
-		expect(crossCorrelationLag(ref, ref, fs, { startIndex: 0, endIndex: 200, cycles: 1 }).lagS).toBeNaN();
+	});
+
+	it('gives the same lag after block-averaging a 1 MS/s record (20 000 samples per period): 20° within 0.05°', () => {
+		const hi = 1e6;
+		const ref = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: hi, samples: 60_001 });
+		const other = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: hi, samples: 60_001, phaseDeg: -20 });
+		const r = crossCorrelationLag(ref, other, hi, { startIndex: 0, endIndex: 60_000, cycles: 3 });
+		expect(Math.abs(r.lagDeg - 20)).toBeLessThan(0.05);
+		expect(Math.abs(r.lagS - 20 / 360 / 50)).toBeLessThan(0.05 / 360 / 50);
 	});
 
 	it('throws RangeError for unequal lengths or a bad sample rate', () => {

@@ -25,6 +25,7 @@ export function channelSettings(col: CsvColumnLayout, layout: CsvLayout, options
 	const key = `col${col.index + 1}`;
 	return {
 		...layout.preambleAll,
+		...(layout.preambleChannels[key] ?? {}),
 		...(layout.preambleChannels[col.name] ?? layout.preambleChannels[col.header] ?? {}),
 		...(options.channels?.[key] ?? {}),
 		...(options.channels?.[col.name] ?? {}),
@@ -90,6 +91,11 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 		ratio(1 / s.shuntOhms, `shunt ${s.shuntOhms} ohm: x`);
 		unit = 'A';
 		quantity = 'current';
+	}
+	// a voltage probe or VT ratio makes a voltage, a CT a current (a clamp or shunt did so above)
+	if (s.clampMvPerA === undefined && s.shuntOhms === undefined) {
+		if ((s.probeRatio !== undefined || s.vtRatio !== undefined) && s.ctRatio === undefined && quantity !== 'current') (quantity = 'voltage'), (unit = 'V');
+		else if (s.ctRatio !== undefined && quantity !== 'voltage') (quantity = 'current'), (unit = 'A');
 	}
 	if (s.quantity) quantity = s.quantity;
 	if (!quantity) {

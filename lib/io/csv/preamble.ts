@@ -68,6 +68,7 @@ export function readPreamble(lines: string[], firstLine: number, split: (line: s
 		}
 		if (key === '') return;
 		facts.metadata[key in facts.metadata ? `${key} (line ${lineNo})` : key] = value;
+		if (readScopeFact(facts, key, kv ? [value] : cells.slice(1), lineNo, decimalMark)) return;
 		readFact(facts, key, value, lineNo, decimalMark);
 		if (/^date$/i.test(key)) date = value;
 		if (/^time$/i.test(key)) time = value;
@@ -136,6 +137,52 @@ function readFact(facts: PreambleFacts, key: string, value: string, lineNo: numb
 	else if (what === 'shunt' && q) target.shuntOhms = /^mohm|^mΩ/i.test(q.unit) ? q.value / 1000 : q.value;
 	else target.scale = ratio;
 	if (/^(scale|gain|factor|multiplier)$/.test(what) && q && q.unit) target.unit ??= q.unit.replace(/\/.*$/, '');
+}
+
+const SCOPE_UNIT = /^vertical[\s_-]*units?$/i;
+const SCOPE_DISPLAY = /^vertical[\s_-]*(scale|sensitivity|offset|position)$/i;
+const SCOPE_PROBE = /^probe[\s_-]*(attenuation|ratio|factor|gain)?$|^attenuation$/i;
+
+/**
+ * Scope-style preamble rows: `Vertical Units`, `Vertical Scale`/`Offset`, `Probe Attenuation`, with one
+ * value for every channel or one value per data column (in the order of the columns after the time
+ * column). Units and probe attenuation are applied (the attenuation multiplies the values, which are
+ * taken as read at the scope's input, and makes the channel a voltage; a probe stated in mV/A or V/A is a
+ * clamp and makes it a current); vertical scale and offset are screen settings, reported, not applied.
+ * @returns true when the key was one of these (handled here)
+ */
+function readScopeFact(facts: PreambleFacts, key: string, values: string[], lineNo: number, decimalMark: '.' | ','): boolean {
+	const k = key.trim();
+	const kind = SCOPE_UNIT.test(k) ? 'unit' : SCOPE_DISPLAY.test(k) ? 'display' : SCOPE_PROBE.test(k) ? 'probe' : undefined;
+	if (!kind) return false;
+	const cells = values.map((v) => v.trim()).filter((v) => v !== '');
+	const say = (message: string) => facts.diagnostics.push({ code: 'scope-preamble', message, severity: 'info', line: lineNo });
+	if (kind === 'display') {
+		say(`The preamble's "${k}" (${cells.join(', ')}) is a screen setting; the values in the file are taken as written.`);
+		return true;
+	}
+	cells.forEach((cell, j) => {
+		// one value: every channel; several: data column j + 2 (1-based; column 1 is the time)
+		const target: CsvChannelOptions = cells.length === 1 ? facts.all : (facts.channels[`col${j + 2}`] ??= {});
+		const where = cells.length === 1 ? 'every channel' : `column ${j + 2}`;
+		if (kind === 'unit') {
+			target.unit = cell;
+			say(`The preamble states the unit ${cell} for ${where} ("${k}").`);
+			return;
+		}
+		const q = readQuantity(cell.replace(/^x\s*|\s*x$/gi, ''), decimalMark);
+		if (q && /^m?v\/a$/i.test(q.unit)) {
+			target.clampMvPerA = /^v\/a$/i.test(q.unit) ? q.value * 1000 : q.value;
+			say(`The preamble states a clamp of ${target.clampMvPerA} mV/A for ${where} ("${k}"): the values are divided by it and the channel is a current in A.`);
+			return;
+		}
+		const ratio = readRatio(cell.replace(/\s*x$/i, ''), decimalMark);
+		if (ratio !== null && ratio > 0) {
+			target.probeRatio = ratio;
+			say(`The preamble states a probe attenuation of ${ratio} for ${where} ("${k}"): the values, read at the scope's input, are multiplied by ${ratio} and the channel is a voltage. If the scope already applied it, give probe ratio 1.`);
+		}
+	});
+	return true;
 }
 
 /** '200/5', '200:5', 'x10', '10:1', '0,5' -> a number; null when unreadable. */
