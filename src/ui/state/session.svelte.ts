@@ -11,12 +11,16 @@ import { AnalysisClient, CancelledError, type Progress, type WorkerLike } from '
 /** A file the session can (re-)read: a picked File, a demo URL, or bytes in a test. */
 export interface SourceFile {
 	name: string;
+	/** One line saying what the file shows (the demos). */
+	description?: string;
 	read: () => Promise<ArrayBuffer>;
 }
 
 export interface LoadedCapture {
 	key: string;
 	label: string;
+	/** One line saying what the capture shows (the demos), from its first file. */
+	description?: string;
 	demo: boolean;
 	files: SourceFile[];
 	status: 'loading' | 'ready' | 'error' | 'cancelled';
@@ -70,6 +74,7 @@ export class Session {
 			return {
 				key,
 				label: groupLabel(g),
+				description: g.find((f) => f.description)?.description,
 				demo: opts.demo ?? false,
 				files: g,
 				status: 'loading',
