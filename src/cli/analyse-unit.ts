@@ -4,6 +4,7 @@
  */
 import { isImportError, type ImportError } from '../../lib/io/import-error.js';
 import { openCaptures } from '../../lib/io/open.js';
+import { gapFreeSpan } from '../../lib/io/gaps.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { reportToJson, type ReportJson } from '../../lib/report/to-json.js';
 import { problemFrom, problemLine, type FileProblem } from './error-line.js';
@@ -39,6 +40,7 @@ function timeColumnProblem(e: ImportError, p: FileProblem, settings: CommandSett
 
 function problemOf(e: unknown, fallbackFile: string, settings: CommandSettings): FileProblem {
 	const p = problemFrom(e, fallbackFile);
+	if (isImportError(e) && e.code === 'bad-number' && !settings.import.gaps) p.message += ' (--gaps reads such cells as gaps)';
 	return isImportError(e) ? timeColumnProblem(e, p, settings) : p;
 }
 
@@ -68,7 +70,7 @@ export function analyseUnit(files: string[], settings: CommandSettings): UnitRes
 	for (const e of opened.errors) result.problems.push(problemOf(e, files[0], settings));
 	for (const capture of opened.captures) {
 		try {
-			const adjusted = applyImportSettings(capture, settings.import);
+			const adjusted = applyImportSettings(settings.import.gaps ? gapFreeSpan(capture).capture : capture, settings.import);
 			result.reports.push(reportToJson(analyseCapture(adjusted, settings.analysis)));
 		} catch (e) {
 			result.problems.push(problemOf(e, capture.source, settings));

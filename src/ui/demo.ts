@@ -37,5 +37,5 @@ export function demoFiles(): SourceFile[] {
 
 /** A picked or dropped File as a session source (re-readable for the file check's re-import). */
 export function fromFile(file: File): SourceFile {
-	return { name: file.name, read: () => file.arrayBuffer() };
+	return { name: file.name, blob: file, read: () => file.arrayBuffer() };
 }

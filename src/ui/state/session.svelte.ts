@@ -13,6 +13,8 @@ export interface SourceFile {
 	name: string;
 	/** One line saying what the file shows (the demos). */
 	description?: string;
+	/** The picked file itself: the worker reads it in slices (never held whole by the page). */
+	blob?: Blob;
 	read: () => Promise<ArrayBuffer>;
 }
 
@@ -98,7 +100,7 @@ export class Session {
 		this.notice = null;
 		this.progress = { stage: `Reading ${item.label}`, fraction: 0 };
 		try {
-			const files: FileBytes[] = await Promise.all(item.files.map(async (f) => ({ name: f.name, bytes: await f.read() })));
+			const files: FileBytes[] = await Promise.all(item.files.map(async (f) => (f.blob ? { name: f.name, blob: f.blob } : { name: f.name, bytes: await f.read() })));
 			const result = await this.#client.open(key, files, $state.snapshot(item.overrides) as ImportOverrides, $state.snapshot(item.analysis) as AnalysisOptions, (p) => (this.progress = p));
 			if (result.ok) {
 				this.#replace(key, { status: 'ready', capture: result.capture, report: result.report, extras: result.extras, problems: [] });
