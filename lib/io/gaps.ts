@@ -12,7 +12,12 @@ export interface GapFreeSpan {
 	endIndex: number;
 }
 
-/** First and one-past-last index of the longest run of rows where every channel is a number (not NaN). */
+/**
+ * First and one-past-last index of the longest run of rows where every channel is a number (not NaN); the
+ * earlier run wins a tie. {0, 0} when every row has a gap.
+ * Ref: common practice (analyse only readable data; IEC 61000-4-30 likewise leaves flagged data out)
+ * @example longestGapFreeRun([Float64Array.of(1, NaN, 2, 3)]) // { start: 2, end: 4 }
+ */
 export function longestGapFreeRun(channels: readonly Float64Array[]): { start: number; end: number } {
 	const n = channels[0]?.length ?? 0;
 	let best = { start: 0, end: 0 };
@@ -28,7 +33,9 @@ export function longestGapFreeRun(channels: readonly Float64Array[]): { start: n
 }
 
 /**
- * The longest gap-free stretch of a capture; the capture itself when it has no gap.
+ * The longest gap-free stretch of a capture; the capture itself when it has no gap. The cut capture's
+ * `startS` moves to its first sample and a 'gap-free-span' warning says which samples it covers.
+ * Ref: common practice
  * @example gapFreeSpan(capture).capture.channels[0].samples // the samples after the last gap, when that stretch is the longest
  */
 export function gapFreeSpan(capture: Capture): GapFreeSpan {

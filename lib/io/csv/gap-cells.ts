@@ -26,7 +26,11 @@ export const GAP_CELLS_LISTED = 1000;
 
 const NON_FINITE = /^(nan|[+-]?inf(inity)?)$/i;
 
-/** True when `cell` reads as a number with the given decimal mark (or a NaN/Infinity word the scanner accepts). */
+/**
+ * True when `cell` reads as a number with the given decimal mark (or a NaN/Infinity word the scanner accepts).
+ * Ref: the row scanner's number grammar (scan-rows.ts)
+ * @example readsAsNumber('3,25', ',') // true; readsAsNumber('OVL', '.') // false
+ */
 export function readsAsNumber(cell: string, decimalMark: '.' | ','): boolean {
 	const t = cell.trim().replace(/^"\s*(.*?)\s*"$/, '$1');
 	const d = decimalMark === ',' ? ',' : '\\.';
@@ -62,6 +66,7 @@ function cellsOf(line: string, delimiter: string): { text: string; column: numbe
 
 /**
  * Scans buf[start, end) (whole lines) with `scanner`, reading unreadable data cells as NaN gaps.
+ * Ref: common practice (a recorder's overload mark loses one sample, not the file)
  * @throws the scanner's ImportError for anything that is not a bad data cell (time, short row, ...)
  */
 export function scanWithGaps(scanner: RowScanner, buf: Uint8Array, start: number, end: number, ctx: GapContext): void {
