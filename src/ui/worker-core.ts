@@ -177,14 +177,14 @@ function analyseSpan(capture: Capture, analysis: AnalysisOptions): { report: Ana
 const ESTIMATE_FROM_S = 20;
 
 /**
- * Expected seconds for analyseSpan on the whole capture: the time it takes on its first tenth (at least
+ * Expected seconds for analyseSpan on the whole capture: the time it takes on its first twentieth (at least
  * 2 s of the record), scaled by length (its cost grows linearly with the number of samples), plus 10 %.
  * Null for short captures.
  */
 function analysisEstimateS(capture: Capture, analysis: AnalysisOptions): number | null {
 	const n = capture.channels[0]?.samples.length ?? 0;
 	if (n / capture.sampleRateHz < ESTIMATE_FROM_S || capture.gaps?.length) return null;
-	const m = Math.max(Math.round(2 * capture.sampleRateHz), Math.round(n / 10));
+	const m = Math.max(Math.round(2 * capture.sampleRateHz), Math.round(n / 20));
 	const probe: Capture = { ...capture, timeS: capture.timeS?.subarray(0, m), channels: capture.channels.map((c) => ({ ...c, samples: c.samples.subarray(0, m) })), digital: capture.digital?.map((d) => ({ ...d, states: d.states.subarray(0, m) })) };
 	const t0 = performance.now();
 	try {
