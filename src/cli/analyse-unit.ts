@@ -40,7 +40,6 @@ function timeColumnProblem(e: ImportError, p: FileProblem, settings: CommandSett
 
 function problemOf(e: unknown, fallbackFile: string, settings: CommandSettings): FileProblem {
 	const p = problemFrom(e, fallbackFile);
-	if (isImportError(e) && e.code === 'bad-number' && !settings.import.gaps) p.message += ' (--gaps reads such cells as gaps)';
 	return isImportError(e) ? timeColumnProblem(e, p, settings) : p;
 }
 

@@ -30,7 +30,7 @@ describe('analyse --gaps', () => {
 		const r = run(['analyse', 'ovl.csv']);
 		expect(r.status).toBe(2);
 		expect(r.stderr).toContain('ovl.csv:5002:8: bad-number');
-		expect(r.stderr).toContain('--gaps');
+		expect(r.stderr).toContain('--gaps reads such cells as gaps');
 	});
 
 	it('with it: the cell is listed in the assumptions and U1 RMS is 325.27/√2 = 230.0 V over the stretch before it', () => {
