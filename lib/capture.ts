@@ -63,6 +63,20 @@ export interface Capture {
 	metadata: Record<string, string>;
 	/** What the importer detected, assumed or corrected; shown by every front end. */
 	diagnostics: Diagnostic[];
+	/** Cells the importer could not read and, as asked, kept as NaN gaps (CSV option `unreadableCells: 'gap'`). */
+	gaps?: CaptureGap[];
+}
+
+/** A cell read as a gap: its place in the file and in the samples. */
+export interface CaptureGap {
+	channel: string;
+	/** 0-based sample index in the channel. */
+	sampleIndex: number;
+	/** 1-based line and column (characters) in the file. */
+	line: number;
+	column: number;
+	/** The cell as written. */
+	text: string;
 }
 
 /** Number of samples per channel in a capture (0 for a capture with no channels). */

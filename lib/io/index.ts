@@ -4,3 +4,4 @@ export * from './csv/index.js';
 export { parseWav, type WavOptions, type WavChannelCalibration } from './wav.js';
 export * from './comtrade/index.js';
 export { openCaptures, openCapture, type InputFile, type OpenOptions } from './open.js';
+export { gapFreeSpan, longestGapFreeRun, type GapFreeSpan } from './gaps.js';

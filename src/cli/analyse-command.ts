@@ -58,6 +58,7 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 	let reports = 0;
 	let problemUnits = pathProblems.length;
 	let limitFailures = 0;
+	let cellRefused = false;
 	// --next-steps: the table shows the next-steps part, --csv gives its rows instead of the channel summary
 	// (also shown in the table whenever a site value is given).
 	const nextSteps = raw.nextSteps === true || (mode === 'table' && settings.analysis.site !== undefined);
@@ -68,6 +69,7 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 		reports += res.reports.length;
 		for (const p of res.problems) {
 			badInput = true;
+			if (p.code === 'bad-number' && !settings.import.gaps) cellRefused = true;
 			io.err(`${problemText(p)}\n`);
 		}
 		for (const r of res.reports) {
@@ -96,6 +98,7 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 		{ heapMiB: limits.heapMiB ?? defaultHeapMiB(jobs), timeLimitS: limits.timeLimitS },
 	);
 	progress.done();
+	if (cellRefused) io.err('sinecheck: a cell that is not a number refused a file; --gaps reads such cells as gaps (listed, left out of the figures)\n');
 	// The summary line of a batch always prints (a file that crashed or timed out is counted with errors).
 	if (units.length + pathProblems.length > 1 && raw.quiet !== true) {
 		const failedLimits = limitFailures > 0 ? `; limits failed in ${limitFailures}` : '';

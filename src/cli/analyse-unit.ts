@@ -4,6 +4,7 @@
  */
 import { isImportError, type ImportError } from '../../lib/io/import-error.js';
 import { openCaptures } from '../../lib/io/open.js';
+import { gapFreeSpan } from '../../lib/io/gaps.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { reportToJson, type ReportJson } from '../../lib/report/to-json.js';
 import { problemFrom, problemLine, type FileProblem } from './error-line.js';
@@ -68,7 +69,7 @@ export function analyseUnit(files: string[], settings: CommandSettings): UnitRes
 	for (const e of opened.errors) result.problems.push(problemOf(e, files[0], settings));
 	for (const capture of opened.captures) {
 		try {
-			const adjusted = applyImportSettings(capture, settings.import);
+			const adjusted = applyImportSettings(settings.import.gaps ? gapFreeSpan(capture).capture : capture, settings.import);
 			result.reports.push(reportToJson(analyseCapture(adjusted, settings.analysis)));
 		} catch (e) {
 			result.problems.push(problemOf(e, capture.source, settings));

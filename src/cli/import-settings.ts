@@ -29,6 +29,7 @@ export function importOptionsFrom(s: ImportSettings): OpenOptions {
 	if (s.decimalMark !== undefined) csv.decimalMark = s.decimalMark;
 	if (s.timeColumn !== undefined) csv.timeColumn = s.timeColumn;
 	if (s.timeUnit !== undefined) csv.timeUnit = s.timeUnit;
+	if (s.gaps) csv.unreadableCells = 'gap';
 	return { csv, ...(s.comtradeValues ? { comtrade: { values: s.comtradeValues } } : {}) };
 }
 

@@ -41,6 +41,7 @@ cli
 	.option('--decimal <mark>', 'CSV decimal mark: point or comma (e.g. 0,707)')
 	.option('--time-column <n>', 'CSV column (from 1) holding the time, or none')
 	.option('--time-unit <unit>', 'Unit of the CSV time column: s, ms, us, ns, or index (a sample number; give --rate)')
+	.option('--gaps', 'CSV: read cells that are not numbers (e.g. OVL) as gaps instead of refusing the file; they are listed, and the figures come from the longest stretch without gaps')
 	.option('--secondary', 'COMTRADE: report secondary values (what the recorder saw) instead of primary')
 	.option('--pair <voltage=current>', 'Pair a voltage and a current channel for power (replaces pairing by phase label); repeatable', { type: [String] })
 	.option('--window <cycles>', 'Harmonic window length in cycles (default 10 at 50 Hz, 12 at 60 Hz)')

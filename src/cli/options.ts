@@ -24,6 +24,8 @@ export interface ImportSettings {
 	timeUnit?: 's' | 'ms' | 'us' | 'ns' | 'index';
 	/** COMTRADE: primary (network side, default) or secondary (what the recorder saw) values. */
 	comtradeValues?: 'primary' | 'secondary';
+	/** CSV: cells that are not numbers become listed gaps (figures from the longest stretch without gaps). */
+	gaps?: boolean;
 }
 
 const DELIMITERS: Record<string, ',' | ';' | '\t' | ' '> = { comma: ',', ',': ',', semicolon: ';', ';': ';', tab: '\t', space: ' ' };
@@ -140,6 +142,7 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 		settings.timeUnit = timeUnit as ImportSettings['timeUnit'];
 	}
 	if (raw.secondary === true) settings.comtradeValues = 'secondary';
+	if (raw.gaps === true) settings.gaps = true;
 	for (const [channel, q] of assignments('quantity', raw.quantity, 'quantity')) {
 		if (q !== 'voltage' && q !== 'current' && q !== 'other') throw new UsageError(`--quantity ${channel}=${q}: expected voltage, current or other`);
 		settings.quantity[channel] = q;

@@ -10,11 +10,22 @@ const urls = import.meta.glob(['../../sample-waves/*.csv', '../../sample-waves/*
 	eager: true,
 }) as Record<string, string>;
 
+/** One line per demo capture: what it shows, in the words of sample-waves/README.md (the made-up site). */
+export const DEMO_DESCRIPTIONS: Record<string, string> = {
+	'board-unbalance.csv': 'machine-shop board with L3 sagging to 212 V: unbalanced voltages and currents.',
+	'feeder-rectifiers.csv': 'office and charger sub-feeder: rectifier loads, very distorted current, power factor 0.70.',
+	'generator-60hz.cfg': 'hire generator at 60 Hz (relay record): 277 V with 5th and 7th, 85 A lagging 30°.',
+	'incomer-dip.cfg': 'incomer relay record: phase B dips to 55 % for 6 cycles.',
+	'pump-drive.csv': "three-phase input of the boiler pump's drive: 5th, 7th, 11th and 13th harmonic currents.",
+	'spindle-clamp.wav': 'clamp recorder on the spindle moulder: motor current lagging 38°.',
+};
+
 /** The demo files as session sources (fetched when read), sorted by name. */
 export function demoFiles(): SourceFile[] {
 	return Object.entries(urls)
 		.map(([path, url]) => ({
 			name: path.replace(/^.*\//, ''),
+			description: DEMO_DESCRIPTIONS[path.replace(/^.*\//, '')],
 			read: async () => {
 				const r = await fetch(url);
 				if (!r.ok) throw new Error(`demo file ${path} could not be loaded (${r.status})`);
@@ -26,5 +37,5 @@ export function demoFiles(): SourceFile[] {
 
 /** A picked or dropped File as a session source (re-readable for the file check's re-import). */
 export function fromFile(file: File): SourceFile {
-	return { name: file.name, read: () => file.arrayBuffer() };
+	return { name: file.name, blob: file, read: () => file.arrayBuffer() };
 }

@@ -2,7 +2,7 @@
  * Messages between the page and the analysis worker (src/ui/worker.ts). Samples travel as transferable
  * Float64Arrays (moved, not copied); reports are plain objects.
  */
-import type { Capture } from '../../lib/capture.js';
+import type { Capture, CaptureGap } from '../../lib/capture.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
 import type { OpenOptions } from '../../lib/io/open.js';
 import type { TrendResult } from '../../lib/trend/types.js';
@@ -10,10 +10,11 @@ import type { TrendResult } from '../../lib/trend/types.js';
 /** What the user overrode on import (CSV layout, per-channel unit, quantity and scale): lib/io's options. */
 export type ImportOverrides = OpenOptions;
 
-/** One file as bytes (moved to the worker). */
+/** One file: its bytes (moved to the worker), or the picked file itself, which the worker reads in slices. */
 export interface FileBytes {
 	name: string;
-	bytes: ArrayBuffer;
+	bytes?: ArrayBuffer;
+	blob?: Blob;
 }
 
 /** An importer error as data (structured clone drops the ImportError prototype). */
@@ -36,7 +37,7 @@ export type ToWorker =
 	| { type: 'forget'; captureKey: string };
 
 export type FromWorker =
-	| { type: 'progress'; jobId: number; stage: string; fraction: number | null }
+	| { type: 'progress'; jobId: number; stage: string; fraction: number | null; etaS?: number | null; expectS?: number }
 	| { type: 'opened'; jobId: number; captureKey: string; capture: Capture; report: AnalysisReport; extras: ReportExtras }
 	| { type: 'import-failed'; jobId: number; captureKey: string; problems: ImportProblem[] }
 	| { type: 'analysed'; jobId: number; captureKey: string; report: AnalysisReport; extras: ReportExtras }
@@ -54,6 +55,20 @@ export interface ReportExtras {
 	peakIndex: Record<string, { max: number; min: number }>;
 	/** Trends and voltage events (lib/trend), with the Urms(1/2) series; null when it could not be run. */
 	trend: TrendView | null;
+	/**
+	 * Cells read as gaps, when the file had any: the figures come from the longest stretch without gaps,
+	 * which starts `offsetS` after the first sample (report times count from there).
+	 */
+	gaps?: GapView;
+}
+
+/** Cells read as gaps and where the analysed stretch lies. */
+export interface GapView {
+	offsetS: number;
+	/** First sample of the analysed stretch and one past its last (indices of the whole capture). */
+	startIndex: number;
+	endIndex: number;
+	cells: (CaptureGap & { timeS: number })[];
 }
 
 /**

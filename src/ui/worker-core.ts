@@ -5,15 +5,15 @@
  */
 import type { Capture } from '../../lib/capture.js';
 import { isImportError } from '../../lib/io/import-error.js';
-import { openCaptures } from '../../lib/io/open.js';
-import { parseCsv } from '../../lib/io/csv/index.js';
 import { analyseCapture, REPORT_DEFAULT_MAX_ORDER } from '../../lib/report/analyse.js';
 import { chooseReference } from '../../lib/report/reference.js';
 import { channelSpectrum, planWindows } from '../../lib/report/spectra.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
 import { analyseTrend } from '../../lib/trend/analyse-capture.js';
+import { gapFreeSpan } from '../../lib/io/gaps.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
 import { minOf } from '../../lib/signal/extremes.js';
+import { etaFrom, lineOfFile, readCaptures } from './worker-open.js';
 
 export type Post = (msg: FromWorker, transfer?: Transferable[]) => void;
 
@@ -24,17 +24,25 @@ const trends = new Map<string, TrendView | null>();
  * Trends and events of a capture (lib/trend), collecting the Urms(1/2) values it reports per half cycle.
  * Null with no voltage or current channel; a refusal by the analyser becomes `problem`.
  */
-export function trendFor(capture: Capture): TrendView | null {
+export function trendFor(capture: Capture, onProgress?: (fraction: number, etaS: number | null) => void): TrendView | null {
 	const channels = capture.channels.filter((c) => c.quantity !== 'other');
 	if (channels.length === 0) return null;
 	const times: number[][] = capture.channels.map(() => []);
 	const values: number[][] = capture.channels.map(() => []);
+	const endS = (capture.channels[0]?.samples.length ?? 0) / capture.sampleRateHz;
+	const t0 = performance.now();
+	let next = 0.02;
 	try {
 		const result = analyseTrend(capture, {
 			flickerPinst: true,
 			onHalfCycle: (channel, startS, rmsV) => {
 				times[channel].push(startS);
 				values[channel].push(rmsV);
+				const f = endS > 0 ? startS / endS : 0;
+				if (onProgress && f >= next) {
+					next = f + 0.02;
+					onProgress(f, etaFrom(f, 1, (performance.now() - t0) / 1000));
+				}
 			},
 		});
 		const used = capture.channels.map((c, k) => ({ c, k })).filter(({ k }) => values[k].length > 0);
@@ -144,6 +152,81 @@ export function extrasFor(capture: Capture, report: AnalysisReport, analysis: An
 	return { cycleBoundariesS, groups, peakIndex, trend: null };
 }
 
+/**
+ * The report of a capture, and the plot extras, on its longest stretch without gaps (the whole capture when
+ * it has none); times in the extras count from that stretch like the report's, peak indices from the first sample.
+ */
+function analyseSpan(capture: Capture, analysis: AnalysisOptions): { report: AnalysisReport; extras: ReportExtras; analysed: Capture } {
+	if (!capture.gaps?.length) {
+		const report = analyseCapture(capture, analysis);
+		return { report, extras: extrasFor(capture, report, analysis), analysed: capture };
+	}
+	const span = gapFreeSpan(capture);
+	const report = analyseCapture(span.capture, analysis);
+	const extras = extrasFor(span.capture, report, analysis);
+	for (const k of Object.keys(extras.peakIndex)) {
+		const p = extras.peakIndex[k];
+		extras.peakIndex[k] = { max: p.max < 0 ? -1 : p.max + span.startIndex, min: p.min < 0 ? -1 : p.min + span.startIndex };
+	}
+	const offsetS = span.startIndex / capture.sampleRateHz;
+	extras.gaps = { offsetS, startIndex: span.startIndex, endIndex: span.endIndex, cells: capture.gaps.map((g) => ({ ...g, timeS: g.sampleIndex / capture.sampleRateHz - offsetS })) };
+	return { report, extras, analysed: span.capture };
+}
+
+/** Captures shorter than this are analysed without a time estimate (they take well under a second). */
+const ESTIMATE_FROM_S = 20;
+
+/**
+ * Expected seconds for analyseSpan on the whole capture: the time it takes on its first twentieth (at least
+ * 2 s of the record), scaled by length (its cost grows linearly with the number of samples), plus 10 %.
+ * Null for short captures.
+ */
+function analysisEstimateS(capture: Capture, analysis: AnalysisOptions): number | null {
+	const n = capture.channels[0]?.samples.length ?? 0;
+	if (n / capture.sampleRateHz < ESTIMATE_FROM_S || capture.gaps?.length) return null;
+	const m = Math.max(Math.round(2 * capture.sampleRateHz), Math.round(n / 20));
+	const probe: Capture = { ...capture, timeS: capture.timeS?.subarray(0, m), channels: capture.channels.map((c) => ({ ...c, samples: c.samples.subarray(0, m) })), digital: capture.digital?.map((d) => ({ ...d, states: d.states.subarray(0, m) })) };
+	const t0 = performance.now();
+	try {
+		analyseSpan(probe, analysis);
+	} catch {
+		return null;
+	}
+	return ((performance.now() - t0) / 1000) * (n / m) * 1.1;
+}
+
+/** The 'open' request: read (streamed for one CSV), analyse, trends; progress and a time estimate at every stage. */
+async function openAndAnalyse(msg: Extract<ToWorker, { type: 'open' }>, post: Post): Promise<void> {
+	const names = msg.files.map((f) => f.name).join(', ');
+	const progress = (stage: string, fraction: number | null, etaS: number | null = null, expectS?: number) => post({ type: 'progress', jobId: msg.jobId, stage, fraction, etaS, expectS });
+	progress(`Reading ${names}`, 0);
+	const { captures, problems } = await readCaptures(msg.files, msg.overrides, (f, eta) => progress(`Reading ${names}`, f, eta), (e) => toProblem(e, names));
+	for (const p of problems) {
+		const f = msg.files.find((x) => x.name === p.source);
+		if (f && p.line > 0) p.lineText = await lineOfFile(f, p.line);
+	}
+	if (problems.length > 0 || captures.length === 0) {
+		if (problems.length === 0) problems.push(toProblem(new Error('no capture found in these files'), names));
+		post({ type: 'import-failed', jobId: msg.jobId, captureKey: msg.captureKey, problems });
+		return;
+	}
+	const capture = captures[0];
+	try {
+		progress(`Analysing ${capture.source}`, null);
+		const expectS = analysisEstimateS(capture, msg.analysis);
+		if (expectS !== null) progress(`Analysing ${capture.source}`, 0.1, expectS * 0.9, expectS * 0.9);
+		const { report, extras, analysed } = analyseSpan(capture, msg.analysis);
+		cache.set(msg.captureKey, capture);
+		progress(`Trends and events of ${capture.source}`, 0);
+		const trend = trendFor(analysed, (f, eta) => progress(`Trends and events of ${capture.source}`, f, eta));
+		trends.set(msg.captureKey, trend);
+		const { capture: copy, transfer } = transferableCopy(capture);
+		post({ type: 'opened', jobId: msg.jobId, captureKey: msg.captureKey, capture: copy, report, extras: { ...extras, trend } }, transfer);
+	} catch (e) {
+		post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
+	}
+}
+
 /** Handles one message from the page. */
 export function handleMessage(msg: ToWorker, post: Post): void {
 	switch (msg.type) {
@@ -162,73 +245,18 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 			}
 			try {
 				post({ type: 'progress', jobId: msg.jobId, stage: `Analysing ${capture.source}`, fraction: null });
-				const report = analyseCapture(capture, msg.analysis);
-				if (!trends.has(msg.captureKey)) trends.set(msg.captureKey, trendFor(capture));
-				const extras = { ...extrasFor(capture, report, msg.analysis), trend: trends.get(msg.captureKey) ?? null };
+				const { report, extras: plotExtras, analysed } = analyseSpan(capture, msg.analysis);
+				if (!trends.has(msg.captureKey)) trends.set(msg.captureKey, trendFor(analysed));
+				const extras = { ...plotExtras, trend: trends.get(msg.captureKey) ?? null };
 				post({ type: 'analysed', jobId: msg.jobId, captureKey: msg.captureKey, report, extras });
 			} catch (e) {
 				post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
 			}
 			return;
 		}
-		case 'open': {
-			const names = msg.files.map((f) => f.name).join(', ');
-			post({ type: 'progress', jobId: msg.jobId, stage: `Reading ${names}`, fraction: 0 });
-			let captures: Capture[] = [];
-			const problems: ImportProblem[] = [];
-			try {
-				const only = msg.files.length === 1 ? msg.files[0] : undefined;
-				const bytes = only ? new Uint8Array(only.bytes) : undefined;
-				if (only && bytes && /\.(csv|txt|tsv)$/i.test(only.name) && !(bytes[0] === 0x52 && bytes[1] === 0x49 && bytes[2] === 0x46 && bytes[3] === 0x46)) {
-					// one table: the same reader openCaptures picks for it, called directly for its byte progress
-					let last = 0;
-					const onProgress = (done: number, total: number) => {
-						const f = total ? done / total : 0;
-						if (f - last >= 0.02 || f === 1) {
-							last = f;
-							post({ type: 'progress', jobId: msg.jobId, stage: `Reading ${names}`, fraction: f });
-						}
-					};
-					try {
-						captures = [parseCsv(bytes, only.name, msg.overrides.csv, onProgress)];
-					} catch (e) {
-						problems.push(toProblem(e, names));
-					}
-				} else {
-					const result = openCaptures(
-						msg.files.map((f) => ({ name: f.name, bytes: new Uint8Array(f.bytes) })),
-						msg.overrides,
-					);
-					captures = result.captures;
-					for (const e of result.errors) problems.push(toProblem(e, names));
-				}
-			} catch (e) {
-				problems.push(toProblem(e, names));
-			}
-			for (const p of problems) {
-				const f = msg.files.find((x) => x.name === p.source);
-				if (f && p.line > 0) p.lineText = lineOf(f.bytes, p.line);
-			}
-			if (problems.length > 0 || captures.length === 0) {
-				if (problems.length === 0) problems.push(toProblem(new Error('no capture found in these files'), names));
-				post({ type: 'import-failed', jobId: msg.jobId, captureKey: msg.captureKey, problems });
-				return;
-			}
-			const capture = captures[0];
-			try {
-				post({ type: 'progress', jobId: msg.jobId, stage: `Analysing ${capture.source}`, fraction: null });
-				const report = analyseCapture(capture, msg.analysis);
-				cache.set(msg.captureKey, capture);
-				post({ type: 'progress', jobId: msg.jobId, stage: `Trends and events of ${capture.source}`, fraction: null });
-				const trend = trendFor(capture);
-				trends.set(msg.captureKey, trend);
-				const { capture: copy, transfer } = transferableCopy(capture);
-				post({ type: 'opened', jobId: msg.jobId, captureKey: msg.captureKey, capture: copy, report, extras: { ...extrasFor(capture, report, msg.analysis), trend } }, transfer);
-			} catch (e) {
-				post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
-			}
+		case 'open':
+			void openAndAnalyse(msg, post);
 			return;
-		}
 	}
 }
 

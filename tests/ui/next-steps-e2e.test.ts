@@ -44,6 +44,8 @@ describe.skipIf(!hasChromium)('next steps in Chromium', () => {
 	});
 
 	it('typing a target power factor and a transformer under the findings shows the power-factor step lib/report gives for the same file and values', async () => {
+		// the next steps sit one click below the findings (the views' tabs stay on the first screen)
+		await page.click('[data-testid=next-steps-details] > summary');
 		await page.fill('[data-testid=site-targetPowerFactor]', '0.95');
 		await page.press('[data-testid=site-targetPowerFactor]', 'Tab');
 		await settled(page);

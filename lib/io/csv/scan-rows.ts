@@ -44,6 +44,8 @@ export class RowScanner {
 	firstNonFiniteLine = 0;
 	repeatedTimes = 0;
 	firstRepeatLine = 0;
+	/** After scan() threw: byte offset of the refused line's start in the buffer it was given (rows and lineNo then stand at that line). */
+	failedLineStart = -1;
 	private prevTime = -Infinity;
 	private readonly clock = new ClockCounter();
 	private readonly delim: number;
@@ -78,8 +80,10 @@ export class RowScanner {
 		let n = this.rows;
 		let line = this.lineNo;
 		let p = start;
+		let lineStart = p;
+		try {
 		while (p < end) {
-			const lineStart = p;
+			lineStart = p;
 			let b = buf[p];
 			if (line < bodyLine) {
 				while (b !== eol) b = buf[++p];
@@ -236,6 +240,13 @@ export class RowScanner {
 			n++;
 			line++;
 			b = buf[p];
+		}
+		} catch (e) {
+			// where the refused line starts, so a caller may read it again (gap-cells.ts)
+			this.rows = n;
+			this.lineNo = line;
+			this.failedLineStart = lineStart;
+			throw e;
 		}
 		this.rows = n;
 		this.lineNo = line;

@@ -8,6 +8,7 @@ import { ImportError } from '../import-error.js';
 import { assembleCapture } from './assemble.js';
 import { detectCsvLayout } from './detect.js';
 import { RowScanner } from './scan-rows.js';
+import { gapDiagnostic, scanWithGaps, type GapContext } from './gap-cells.js';
 import type { CsvLayout, CsvOptions, CsvRowSummary, CsvStreamOptions } from './types.js';
 
 const HEAD_BYTES = 64 * 1024;
@@ -36,6 +37,7 @@ export class CsvStreamReader {
 	private detected: CsvLayout | null = null;
 	private finished = false;
 	private rowsDone = 0;
+	private gapCtx: GapContext | null = null;
 
 	constructor(
 		readonly source: string,
@@ -71,7 +73,14 @@ export class CsvStreamReader {
 	finish(): Capture {
 		if (this.stream.onRows) throw new Error('CsvStreamReader: row mode ends with end(), not finish()');
 		this.endInput();
-		return assembleCapture(this.detected!, this.scanner!, this.source, this.options, this.notes);
+		const g = this.gapCtx;
+		if (g && g.count > 0) this.notes.push(gapDiagnostic(g, (k) => this.detected!.columns[k]?.name ?? `column ${k + 1}`));
+		const capture = assembleCapture(this.detected!, this.scanner!, this.source, this.options, this.notes);
+		if (g && g.count > 0) {
+			const channelColumns = this.detected!.columns.filter((c) => c.role === 'channel').map((c) => c.index);
+			capture.gaps = g.gaps.map((x) => ({ channel: capture.channels[channelColumns.indexOf(x.tableColumn)]?.name ?? `column ${x.tableColumn + 1}`, sampleIndex: x.row, line: x.line, column: x.column, text: x.text }));
+		}
+		return capture;
 	}
 
 	/** Row mode: ends the input (the last rows go to onRows) and says what was read. */
@@ -108,7 +117,9 @@ export class CsvStreamReader {
 	/** Scans whole lines; in row mode hands the rows over and reuses the buffers. */
 	private scan(buf: Uint8Array, start: number, end: number): void {
 		const s = this.scanner!;
-		s.scan(buf, start, end);
+		// with `unreadableCells: 'gap'` through the gap reader (gap-cells.ts)
+		if (this.gapCtx) scanWithGaps(s, buf, start, end, this.gapCtx);
+		else s.scan(buf, start, end);
 		const onRows = this.stream.onRows;
 		if (onRows && s.rows > 0) {
 			const rows = s.rows;
@@ -205,6 +216,10 @@ export class CsvStreamReader {
 			this.source,
 			encoding,
 		);
+		if (this.options.unreadableCells === 'gap') {
+			const timeColumns = layout.timeColumn === null ? [] : layout.clockFields === 2 ? [layout.timeColumn, layout.timeColumn + 1] : [layout.timeColumn];
+			this.gapCtx = { delimiter: layout.delimiter, decimalMark: layout.decimalMark, eol: this.eol, timeColumns, gaps: [], count: 0 };
+		}
 		// The BOM belongs to line 1 but is not part of its first field.
 		this.feed(head.subarray(bom ? 3 : 0));
 		this.head = new Uint8Array(0);

@@ -46,6 +46,12 @@ export interface CsvOptions {
 	 * taken as uniform sampling (default 0.1). Beyond it the capture keeps its explicit time base.
 	 */
 	jitterTolerance?: number;
+	/**
+	 * A data cell that is not a number: 'refuse' (default) stops with an ImportError naming line and column;
+	 * 'gap' keeps the file, reads the cell as NaN, lists it in `Capture.gaps` and in a warning. Time cells
+	 * are never read as gaps.
+	 */
+	unreadableCells?: 'refuse' | 'gap';
 }
 
 /** Progress reporting and pre-sizing for the streaming reader. */

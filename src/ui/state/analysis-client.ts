@@ -25,7 +25,8 @@ export type OpenResult =
 	| { ok: true; capture: Capture; report: AnalysisReport; extras: ReportExtras }
 	| { ok: false; problems: ImportProblem[] };
 
-export type Progress = { stage: string; fraction: number | null };
+/** Stage, its fraction done (null: unknown), seconds left (estimate), and for a stage the worker cannot report on, how long it is expected to take. */
+export type Progress = { stage: string; fraction: number | null; etaS?: number | null; expectS?: number };
 
 interface Pending {
 	resolve: (msg: FromWorker) => void;
@@ -53,7 +54,7 @@ export class AnalysisClient {
 		const p = this.#pending.get(msg.jobId);
 		if (!p) return;
 		if (msg.type === 'progress') {
-			p.onProgress?.({ stage: msg.stage, fraction: msg.fraction });
+			p.onProgress?.({ stage: msg.stage, fraction: msg.fraction, etaS: msg.etaS, expectS: msg.expectS });
 			return;
 		}
 		this.#pending.delete(msg.jobId);
@@ -83,7 +84,7 @@ export class AnalysisClient {
 	): Promise<OpenResult> {
 		const msg = await this.#request(
 			(jobId) => ({ type: 'open', jobId, captureKey, files, overrides, analysis }),
-			files.map((f) => f.bytes),
+			files.flatMap((f) => (f.bytes ? [f.bytes] : [])),
 			onProgress,
 		);
 		if (msg.type === 'opened') return { ok: true, capture: msg.capture, report: msg.report, extras: msg.extras };

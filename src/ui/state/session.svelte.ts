@@ -7,16 +7,25 @@ import type { AnalysisOptions, AnalysisReport, ReportLimitTableId } from '../../
 import { groupFiles, groupLabel } from '../files.js';
 import type { FileBytes, ImportOverrides, ImportProblem, ReportExtras } from '../protocol.js';
 import { AnalysisClient, CancelledError, type Progress, type WorkerLike } from './analysis-client.js';
+import { fileIdentity, SettingsMemory } from './remembered.js';
 
 /** A file the session can (re-)read: a picked File, a demo URL, or bytes in a test. */
 export interface SourceFile {
 	name: string;
+	/** One line saying what the file shows (the demos). */
+	description?: string;
+	/** The picked file itself: the worker reads it in slices (never held whole by the page). */
+	blob?: Blob;
 	read: () => Promise<ArrayBuffer>;
 }
 
 export interface LoadedCapture {
 	key: string;
 	label: string;
+	/** Name, size and content hash of its files (not for demos): finds it again and its remembered settings. */
+	identity?: string;
+	/** One line saying what the capture shows (the demos), from its first file. */
+	description?: string;
 	demo: boolean;
 	files: SourceFile[];
 	status: 'loading' | 'ready' | 'error' | 'cancelled';
@@ -45,8 +54,32 @@ export class Session {
 	#client: AnalysisClient;
 	#nextKey = 1;
 
-	constructor(makeWorker: () => WorkerLike) {
+	readonly #memory: SettingsMemory;
+
+	constructor(makeWorker: () => WorkerLike, memory = new SettingsMemory()) {
 		this.#client = new AnalysisClient(makeWorker);
+		this.#memory = memory;
+	}
+
+	/** Identity of a group of files ("name|size|hash" joined by " + "); undefined when a file cannot be read. */
+	async #identity(g: SourceFile[]): Promise<string | undefined> {
+		try {
+			const parts = await Promise.all(
+				g.map(async (f) => {
+					if (f.blob) return fileIdentity({ name: f.name, size: f.blob.size, slice: async (a, b) => new Uint8Array(await f.blob!.slice(a, b).arrayBuffer()) });
+					const bytes = new Uint8Array(await f.read());
+					return fileIdentity({ name: f.name, size: bytes.length, slice: async (a, b) => bytes.subarray(a, b) });
+				}),
+			);
+			return parts.join(' + ');
+		} catch {
+			return undefined;
+		}
+	}
+
+	#remember(key: string): void {
+		const item = this.#get(key);
+		if (item?.identity && item.status === 'ready') this.#memory.set(item.identity, $state.snapshot(item.overrides) as ImportOverrides, $state.snapshot(item.analysis) as AnalysisOptions);
 	}
 
 	#replace(key: string, patch: Partial<LoadedCapture>): void {
@@ -63,13 +96,28 @@ export class Session {
 	 */
 	async open(files: SourceFile[], opts: { demo?: boolean; select?: boolean } = {}): Promise<string[]> {
 		const keys: string[] = [];
-		const groups = groupFiles(files);
-		const fresh: LoadedCapture[] = groups.map((g) => {
+		const fresh: LoadedCapture[] = [];
+		const again: string[] = [];
+		for (const g of groupFiles(files)) {
+			const identity = opts.demo ? undefined : await this.#identity(g);
+			// the same file opened again: no second entry; shown (and read again if it failed or was stopped)
+			const known = identity ? this.items.find((c) => c.identity === identity) : undefined;
+			if (known) {
+				keys.push(known.key);
+				if (known.status === 'error' || known.status === 'cancelled') {
+					this.#replace(known.key, { files: g, status: 'loading' });
+					again.push(known.key);
+				}
+				continue;
+			}
+			const remembered = identity ? this.#memory.get(identity) : undefined;
 			const key = `c${this.#nextKey++}`;
 			keys.push(key);
-			return {
+			fresh.push({
 				key,
 				label: groupLabel(g),
+				identity,
+				description: g.find((f) => f.description)?.description,
 				demo: opts.demo ?? false,
 				files: g,
 				status: 'loading',
@@ -77,13 +125,13 @@ export class Session {
 				report: null,
 				extras: null,
 				problems: [],
-				overrides: {},
-				analysis: { limits: this.limits },
-			};
-		});
+				overrides: remembered?.overrides ?? {},
+				analysis: { ...remembered?.analysis, limits: this.limits },
+			});
+		}
 		this.items = [...this.items, ...fresh];
-		if ((opts.select ?? true) && fresh[0]) this.selectedKey = fresh[0].key;
-		for (const item of fresh) await this.#load(item.key);
+		if ((opts.select ?? true) && keys[0]) this.selectedKey = keys[0];
+		for (const key of [...again, ...fresh.map((f) => f.key)]) await this.#load(key);
 		return keys;
 	}
 
@@ -93,10 +141,11 @@ export class Session {
 		this.notice = null;
 		this.progress = { stage: `Reading ${item.label}`, fraction: 0 };
 		try {
-			const files: FileBytes[] = await Promise.all(item.files.map(async (f) => ({ name: f.name, bytes: await f.read() })));
+			const files: FileBytes[] = await Promise.all(item.files.map(async (f) => (f.blob ? { name: f.name, blob: f.blob } : { name: f.name, bytes: await f.read() })));
 			const result = await this.#client.open(key, files, $state.snapshot(item.overrides) as ImportOverrides, $state.snapshot(item.analysis) as AnalysisOptions, (p) => (this.progress = p));
 			if (result.ok) {
 				this.#replace(key, { status: 'ready', capture: result.capture, report: result.report, extras: result.extras, problems: [] });
+				this.#remember(key);
 			} else {
 				this.#replace(key, { status: 'error', problems: result.problems });
 			}
@@ -133,6 +182,7 @@ export class Session {
 		try {
 			const r = await this.#client.analyse(key, item.capture, analysis, (p) => (this.progress = p));
 			this.#replace(key, { report: r.report, extras: r.extras });
+			this.#remember(key);
 		} catch (e) {
 			this.notice = e instanceof CancelledError ? 'Analysis stopped; the figures shown are from the previous settings.' : `Analysis failed: ${e instanceof Error ? e.message : String(e)}`;
 			this.#replace(key, { analysis: item.analysis });
