@@ -2,7 +2,7 @@
  * Pairs voltage and current channels of a capture by phase label, with a user override of every pair.
  */
 import type { Channel, Diagnostic } from '../capture.js';
-import { inferPhaseFamily, parsePhaseLabel, phaseDisplayLabel, resolvePhaseToken, type ParsedPhaseLabel, type PhaseFamily, type PhaseIndex } from './phase-label.js';
+import { inferPhaseFamily, parsePhaseLabel, phaseDisplayLabel, resolvePhaseToken, type ParsedPhaseLabel, type PhaseFamily, type PhaseIndex } from '../channel-identity.js';
 
 /** A voltage channel and a current channel of the same phase. */
 export interface PowerChannelPair {
@@ -44,7 +44,8 @@ export interface PowerChannelPairing {
 	diagnostics: Diagnostic[];
 }
 
-type ChannelInfo = Pick<Channel, 'name' | 'quantity'> & Partial<Pick<Channel, 'phase' | 'unit'>>;
+/** What pairing reads of a channel; `phase` may be any label text (it is parsed like a name). */
+type ChannelInfo = Pick<Channel, 'name' | 'quantity'> & { phase?: string; unit?: string };
 
 /**
  * Pairs voltage and current channels by phase label and quantity.

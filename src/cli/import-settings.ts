@@ -8,7 +8,7 @@
 import type { Capture, Channel } from '../../lib/capture.js';
 import type { CsvChannelOptions } from '../../lib/io/csv/index.js';
 import type { OpenOptions } from '../../lib/io/open.js';
-import { normaliseUnitText } from '../../lib/io/comtrade/units.js';
+import { normaliseUnitText } from '../../lib/channel-identity.js';
 import type { ImportSettings } from './options.js';
 
 /** Reader options for the settings (the CSV reader takes them all). */

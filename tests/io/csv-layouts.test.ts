@@ -318,7 +318,7 @@ describe('parseCsv: scaling, quantities and phases', () => {
 		expect(c.channels.map((ch) => [ch.name, ch.quantity, ch.phase])).toEqual([
 			['UL1', 'voltage', 'L1'], ['UL2', 'voltage', 'L2'], ['UL3', 'voltage', 'L3'],
 			['Ia', 'current', 'A'], ['Ib', 'current', 'B'], ['Ic', 'current', 'C'], ['IN', 'current', 'N'],
-			['V_R', 'voltage', 'R'], ['U12', 'voltage', '1-2'],
+			['V_R', 'voltage', 'R'], ['U12', 'voltage', 'L1-L2'], // one form in every format (L1-L2, as COMTRADE and WAV give)
 		]);
 	});
 

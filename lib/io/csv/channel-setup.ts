@@ -3,16 +3,16 @@
  * unit, SI unit, quantity, phase, and the scaling value = factor * raw + offset that turns the numbers
  * in the file into V or A. Every step taken is said in a Diagnostic.
  */
-import type { Diagnostic, Quantity } from '../../capture.js';
-import { minMaxOf, phaseFromName, quantityFromName } from './names.js';
+import type { ChannelPhase, Diagnostic, Quantity } from '../../capture.js';
+import { channelPhase, quantityFromName, readUnit } from '../../channel-identity.js';
+import { minMaxOf } from './names.js';
 import type { CsvChannelOptions, CsvColumnLayout, CsvLayout, CsvOptions } from './types.js';
-import { readUnit } from './units.js';
 
 export interface ChannelSetup {
 	name: string;
 	unit: string;
 	quantity: Quantity;
-	phase?: string;
+	phase?: ChannelPhase;
 	factor: number;
 	offset: number;
 	/** Empty when the numbers are used as written. */
@@ -98,7 +98,7 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 	}
 	if (quantity === 'voltage' && unit === '') unit = 'V';
 	if (quantity === 'current' && unit === '') unit = 'A';
-	const phase = phaseFromName(name);
+	const phase = channelPhase(name);
 	const mm = minMaxOf(name);
 	if (mm) say('min-max-column', `Channel "${name}" holds the ${mm.which}imum of "${mm.base}" per time step (a peak-detect export), not single samples.`, 'warning');
 	return { name, unit, quantity, phase, factor, offset, description: steps.join(', '), diagnostics };
