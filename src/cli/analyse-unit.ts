@@ -10,7 +10,7 @@ import { problemFrom, problemLine, type FileProblem } from './error-line.js';
 import { ANALYSE_MAX_FILE_BYTES, readRegularFile, tooLargeWords } from './file-checks.js';
 import { UsageError } from './usage-error.js';
 import type { CommandSettings } from './options.js';
-import { importOptionsFrom, applyImportSettings } from './import-settings.js';
+import { importOptionsFrom } from './import-settings.js';
 
 export type { FileProblem } from './error-line.js';
 
@@ -68,8 +68,7 @@ export function analyseUnit(files: string[], settings: CommandSettings): UnitRes
 	for (const e of opened.errors) result.problems.push(problemOf(e, files[0], settings));
 	for (const capture of opened.captures) {
 		try {
-			const adjusted = applyImportSettings(capture, settings.import);
-			result.reports.push(reportToJson(analyseCapture(adjusted, settings.analysis)));
+			result.reports.push(reportToJson(analyseCapture(capture, settings.analysis)));
 		} catch (e) {
 			result.problems.push(problemOf(e, capture.source, settings));
 		}

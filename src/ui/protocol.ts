@@ -8,7 +8,7 @@ import type { OpenOptions } from '../../lib/io/open.js';
 import type { TrendResult } from '../../lib/trend/types.js';
 
 /** What the user overrode on import (CSV layout, per-channel unit, quantity and scale): lib/io's options. */
-export type ImportOverrides = OpenOptions;
+export type ImportOverrides = Omit<OpenOptions, 'onProgress'>;
 
 /** One file as bytes (moved to the worker). */
 export interface FileBytes {

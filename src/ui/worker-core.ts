@@ -6,7 +6,6 @@
 import type { Capture } from '../../lib/capture.js';
 import { isImportError } from '../../lib/io/import-error.js';
 import { openCaptures } from '../../lib/io/open.js';
-import { parseCsv } from '../../lib/io/csv/index.js';
 import { analyseCapture, REPORT_DEFAULT_MAX_ORDER } from '../../lib/report/analyse.js';
 import { chooseReference } from '../../lib/report/reference.js';
 import { channelSpectrum, planWindows } from '../../lib/report/spectra.js';
@@ -177,31 +176,21 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 			let captures: Capture[] = [];
 			const problems: ImportProblem[] = [];
 			try {
-				const only = msg.files.length === 1 ? msg.files[0] : undefined;
-				const bytes = only ? new Uint8Array(only.bytes) : undefined;
-				if (only && bytes && /\.(csv|txt|tsv)$/i.test(only.name) && !(bytes[0] === 0x52 && bytes[1] === 0x49 && bytes[2] === 0x46 && bytes[3] === 0x46)) {
-					// one table: the same reader openCaptures picks for it, called directly for its byte progress
-					let last = 0;
-					const onProgress = (done: number, total: number) => {
-						const f = total ? done / total : 0;
-						if (f - last >= 0.02 || f === 1) {
-							last = f;
-							post({ type: 'progress', jobId: msg.jobId, stage: `Reading ${names}`, fraction: f });
-						}
-					};
-					try {
-						captures = [parseCsv(bytes, only.name, msg.overrides.csv, onProgress)];
-					} catch (e) {
-						problems.push(toProblem(e, names));
+				// lib/io decides each file's format; a table reports its bytes read for the progress bar
+				let last = 0;
+				const onProgress = (done: number, total: number) => {
+					const f = total ? done / total : 0;
+					if (f - last >= 0.02 || f === 1) {
+						last = f;
+						post({ type: 'progress', jobId: msg.jobId, stage: `Reading ${names}`, fraction: f });
 					}
-				} else {
-					const result = openCaptures(
-						msg.files.map((f) => ({ name: f.name, bytes: new Uint8Array(f.bytes) })),
-						msg.overrides,
-					);
-					captures = result.captures;
-					for (const e of result.errors) problems.push(toProblem(e, names));
-				}
+				};
+				const result = openCaptures(
+					msg.files.map((f) => ({ name: f.name, bytes: new Uint8Array(f.bytes) })),
+					{ ...msg.overrides, onProgress },
+				);
+				captures = result.captures;
+				for (const e of result.errors) problems.push(toProblem(e, names));
 			} catch (e) {
 				problems.push(toProblem(e, names));
 			}

@@ -5,6 +5,7 @@
  */
 import type { ChannelPhase, Diagnostic, Quantity } from '../../capture.js';
 import { channelPhase, quantityFromName, readUnit } from '../../channel-identity.js';
+import { settingsChain } from '../import-settings.js';
 import { minMaxOf } from './names.js';
 import type { CsvChannelOptions, CsvColumnLayout, CsvLayout, CsvOptions } from './types.js';
 
@@ -98,6 +99,11 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 	}
 	if (quantity === 'voltage' && unit === '') unit = 'V';
 	if (quantity === 'current' && unit === '') unit = 'A';
+	const given = { ...options.channels?.[`col${col.index + 1}`], ...options.channels?.[col.name] };
+	if (Object.keys(given).length > 0) {
+		const said = [...(given.name !== undefined ? [`named ${given.name}`] : []), ...settingsChain(given).steps].join(', ');
+		say('channel-from-user', `Channel "${name}": ${said} (set by the user); now in ${unit || 'no unit'}, measures ${quantity}.`);
+	}
 	const phase = channelPhase(name);
 	const mm = minMaxOf(name);
 	if (mm) say('min-max-column', `Channel "${name}" holds the ${mm.which}imum of "${mm.base}" per time step (a peak-detect export), not single samples.`, 'warning');
