@@ -3,7 +3,7 @@
  * triplen-harmonic content and its size against the phase currents.
  */
 import type { HarmonicSet } from '../spectrum/types.js';
-import { phasorAbs, phasorAdd, phasorArgDeg, phasorFromHarmonic } from '../power/phasor.js';
+import { phasorAbs, phasorAdd, phasorArgDeg, phasorFromHarmonic } from '../phasor/phasor.js';
 import { maxOf } from '../signal/extremes.js';
 
 /**

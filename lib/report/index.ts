@@ -1,6 +1,7 @@
 // Public API of lib/report: re-exports only. Analysis results -> plain objects (the JSON contract of
 // report.schema.json, shared by the CLI and the UI).
 export { analyseCapture, REPORT_DEFAULT_MAX_ORDER } from './analyse.js';
+export { applyLimits, LIMIT_STEP_OPTIONS } from './limits-report.js';
 export {
 	REPORT_SCHEMA_VERSION,
 	REPORT_LIMIT_TABLE_IDS,
