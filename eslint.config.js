@@ -32,12 +32,18 @@ export default tseslint.config(
 		languageOptions: { ecmaVersion: 2022, sourceType: 'module', globals: { ...globals.node, ...globals.browser } },
 		plugins: { 'import-x': importX },
 		// imports name the emitted .js file; the resolver maps it back to the .ts source
-		settings: { 'import-x/resolver-next': [createNodeResolver({ extensions: ['.ts', '.js', '.svelte'], extensionAlias: { '.js': ['.ts', '.js'] } })] },
+		settings: {
+			'import-x/resolver-next': [createNodeResolver({ extensions: ['.ts', '.js', '.svelte'], extensionAlias: { '.js': ['.ts', '.js'] } })],
+			'import-x/extensions': ['.ts', '.js'],
+			'import-x/parsers': { '@typescript-eslint/parser': ['.ts'] },
+		},
 		rules: {
 			'import-x/no-cycle': ['error', { ignoreExternal: true }],
 			'@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none', destructuredArrayIgnorePattern: '^_' }],
 			// `x === x` is the NaN test in hot loops (faster than Number.isNaN there); kept deliberately
 			'no-self-compare': 'off',
+			// {' '}, {'\t'}, {'\n'} in markup are deliberate whitespace
+			'svelte/no-useless-mustaches': 'off',
 		},
 	},
 	{

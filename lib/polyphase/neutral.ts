@@ -83,7 +83,10 @@ export function neutralCurrentFigures(source: 'measured' | 'computed', neutralRm
 		for (const h of neutralSet.orders) {
 			if (h.order >= 3 && h.order % 3 === 0) {
 				triplenSq += h.rms * h.rms;
-				if (h.rms > largestTriplenRmsA) (largestTriplenRmsA = h.rms), (largestTriplenOrder = h.order);
+				if (h.rms > largestTriplenRmsA) {
+					largestTriplenRmsA = h.rms;
+					largestTriplenOrder = h.order;
+				}
 			}
 		}
 	}

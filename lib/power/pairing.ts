@@ -114,8 +114,13 @@ export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: r
 			continue;
 		}
 		if (lab.kind === 'neutral') {
-			if (q === 'current' && neutralCurrent === undefined) (neutralCurrent = c.name), used.add(c.name);
-			else if (q === 'voltage' && neutralVoltage === undefined) (neutralVoltage = c.name), used.add(c.name);
+			if (q === 'current' && neutralCurrent === undefined) {
+				neutralCurrent = c.name;
+				used.add(c.name);
+			} else if (q === 'voltage' && neutralVoltage === undefined) {
+				neutralVoltage = c.name;
+				used.add(c.name);
+			}
 			continue;
 		}
 		const idx = lab.tokens.map((t) => resolvePhaseToken(t, fam.family));
@@ -124,7 +129,10 @@ export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: r
 			continue;
 		}
 		if (lab.kind === 'line-to-line') {
-			if (q === 'voltage') lineVoltages.push({ name: c.name, from: idx[0]!, to: idx[1]! }), used.add(c.name);
+			if (q === 'voltage') {
+				lineVoltages.push({ name: c.name, from: idx[0]!, to: idx[1]! });
+				used.add(c.name);
+			}
 			continue;
 		}
 		if (q === 'voltage') phaseVoltages.push({ phase: idx[0]!, name: c.name });

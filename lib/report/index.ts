@@ -22,3 +22,4 @@ export { reportToJson, reportValueToJson, type ReportJson, type ReportJsonValue,
 export { CSV_SUMMARY_COLUMNS, csvTextCell, csvNumberCell, csvSummaryHeader, csvSummaryRows, reportsToCsv } from './csv-summary.js';
 export { flickerReport, type ReportFlicker, type ReportFlickerChannel } from './flicker-report.js';
 export { csvCell, startsLikeFormula } from './csv-cell.js';
+export { chooseReference } from './reference.js';

@@ -2,10 +2,10 @@
  * One analysis unit (a capture's files) -> JSON reports or located errors. Runs in a worker thread or
  * in-process; the result is plain data (structured-clone safe).
  */
-import { isImportError, type ImportError } from '../../lib/io/import-error.js';
-import { openCaptures } from '../../lib/io/open.js';
-import { analyseCapture } from '../../lib/report/analyse.js';
-import { reportToJson, type ReportJson } from '../../lib/report/to-json.js';
+import { isImportError, type ImportError } from '../../lib/io/index.js';
+import { openCaptures } from '../../lib/io/index.js';
+import { analyseCapture } from '../../lib/report/index.js';
+import { reportToJson, type ReportJson } from '../../lib/report/index.js';
 import { problemFrom, problemLine, type FileProblem } from './error-line.js';
 import { ANALYSE_MAX_FILE_BYTES, readRegularFile, tooLargeWords } from './file-checks.js';
 import { UsageError } from './usage-error.js';

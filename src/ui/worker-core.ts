@@ -5,14 +5,14 @@
  * table needs no analysis at all: the page applies lib/report's limit step to the report it has).
  */
 import type { Capture } from '../../lib/capture.js';
-import { isImportError } from '../../lib/io/import-error.js';
-import { openCaptures } from '../../lib/io/open.js';
-import { analyseCapture } from '../../lib/report/analyse.js';
-import { chooseReference } from '../../lib/report/reference.js';
+import { isImportError } from '../../lib/io/index.js';
+import { openCaptures } from '../../lib/io/index.js';
+import { analyseCapture } from '../../lib/report/index.js';
+import { chooseReference } from '../../lib/report/index.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
-import { analyseTrend } from '../../lib/trend/analyse-capture.js';
+import { analyseTrend } from '../../lib/trend/index.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
-import { minOf } from '../../lib/signal/extremes.js';
+import { minOf } from '../../lib/signal/index.js';
 
 export type Post = (msg: FromWorker, transfer?: Transferable[]) => void;
 

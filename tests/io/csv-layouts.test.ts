@@ -79,7 +79,10 @@ describe('parseCsv: delimiters and decimal marks', () => {
 	it('parseCsv(UTF-16LE text with BOM) reads it like UTF-8', () => {
 		const text = '\uFEFFt,U1\n0,1\n1,2\n2,3\n';
 		const bytes = new Uint8Array(text.length * 2);
-		for (let i = 0; i < text.length; i++) bytes[2 * i] = text.charCodeAt(i) & 0xff, (bytes[2 * i + 1] = text.charCodeAt(i) >> 8);
+		for (let i = 0; i < text.length; i++) {
+			bytes[2 * i] = text.charCodeAt(i) & 0xff;
+			bytes[2 * i + 1] = text.charCodeAt(i) >> 8;
+		}
 		const c = parseCsv(bytes, 'a.csv');
 		expect(values(c, 0)).toEqual([1, 2, 3]);
 		expect(codes(c)).toContain('utf16');

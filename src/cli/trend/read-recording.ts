@@ -14,17 +14,17 @@
 import { closeSync, openSync, readdirSync, readFileSync, readSync, statSync } from 'node:fs';
 import { basename, dirname, extname, join } from 'node:path';
 import type { Capture, Diagnostic } from '../../../lib/capture.js';
-import { cffLayout } from '../../../lib/io/comtrade/cff.js';
-import { parseComtradeCfg } from '../../../lib/io/comtrade/cfg.js';
-import { ComtradeSampleStream, streamableRate } from '../../../lib/io/comtrade/sample-stream.js';
-import { decodeText } from '../../../lib/io/comtrade/text.js';
-import { CsvSampleStream, type SampleSink, type SampleStreamHeader } from '../../../lib/io/csv/sample-stream.js';
-import { ImportError } from '../../../lib/io/import-error.js';
-import { hasImportSettings } from '../../../lib/io/import-settings.js';
-import { csvOptionsWithSettings, DETECT_HEAD_BYTES, detectFileKind, openCapture, type InputFile, type OpenOptions } from '../../../lib/io/open.js';
-import { createTrendAnalyser, type TrendAnalyser } from '../../../lib/trend/analyser.js';
-import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/limits.js';
-import { clockTimeOf } from '../../../lib/trend/clock.js';
+import { cffLayout } from '../../../lib/io/index.js';
+import { parseComtradeCfg } from '../../../lib/io/index.js';
+import { ComtradeSampleStream, streamableRate } from '../../../lib/io/index.js';
+import { decodeText } from '../../../lib/io/index.js';
+import { CsvSampleStream, type SampleSink, type SampleStreamHeader } from '../../../lib/io/index.js';
+import { ImportError } from '../../../lib/io/index.js';
+import { hasImportSettings } from '../../../lib/io/index.js';
+import { csvOptionsWithSettings, DETECT_HEAD_BYTES, detectFileKind, openCapture, type InputFile, type OpenOptions } from '../../../lib/io/index.js';
+import { createTrendAnalyser, type TrendAnalyser } from '../../../lib/trend/index.js';
+import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/index.js';
+import { clockTimeOf } from '../../../lib/trend/index.js';
 import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
 import { openWavStream } from './wav-stream.js';
 

@@ -7,10 +7,10 @@
  */
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import type { Capture } from '../../../lib/capture.js';
-import { ImportError } from '../../../lib/io/import-error.js';
-import { applyImportSettings, type ImportSettings } from '../../../lib/io/import-settings.js';
-import { detectFileKind } from '../../../lib/io/open.js';
-import { parseWav, type WavOptions } from '../../../lib/io/wav.js';
+import { ImportError } from '../../../lib/io/index.js';
+import { applyImportSettings, type ImportSettings } from '../../../lib/io/index.js';
+import { detectFileKind } from '../../../lib/io/index.js';
+import { parseWav, type WavOptions } from '../../../lib/io/index.js';
 
 export interface WavStream {
 	/** Channel names, units, quantities, scaling and diagnostics (samples hold one frame only). */
