@@ -6,6 +6,15 @@
 /** What a channel measures. Inferred from the unit, else the name; 'other' when neither tells. */
 export type Quantity = 'voltage' | 'current' | 'other';
 
+/**
+ * A conductor's name: L1/L2/L3 (IEC 60445, from memory) or a letter of the families A/B/C, R/S/T,
+ * R/Y/B, U/V/W (common practice). lib/channel-identity.ts reads them from names.
+ */
+export type PhaseName = 'L1' | 'L2' | 'L3' | 'A' | 'B' | 'C' | 'R' | 'S' | 'T' | 'Y' | 'U' | 'V' | 'W';
+
+/** What a channel is measured on: one phase, the neutral ('N'), or between two lines ('L1-L2', 'A-B'). */
+export type ChannelPhase = PhaseName | 'N' | `${PhaseName}-${PhaseName}`;
+
 /** Something an importer (or an analysis) assumed, corrected or noticed; never silent. */
 export interface Diagnostic {
 	/** Stable machine code, kebab-case, e.g. 'decimal-comma', 'rate-from-preamble'. */
@@ -27,8 +36,8 @@ export interface Channel {
 	/** Normalised unit: 'V', 'A', or the source's own text for anything else ('' if none). */
 	unit: string;
 	quantity: Quantity;
-	/** Phase label when one is known or parsed from the name ('L1', 'A', 'R', ...), else undefined. */
-	phase?: string;
+	/** Phase when the source states one or the name carries one ('L1', 'A', 'L1-L2', 'N'; see channel-identity.ts). */
+	phase?: ChannelPhase;
 	/** Samples in `unit`, all scaling already applied. Length equals the capture's sample count. */
 	samples: Float64Array;
 	/** How raw values became `samples` (value = factor * raw + offset), for the report. Omitted if none. */
@@ -44,9 +53,14 @@ export interface DigitalChannel {
 }
 
 /** A recorded capture: uniform sampling at `sampleRateHz`, or an explicit time base in `timeS`. */
+/** The reader that made a capture, decided from its content (lib/io/open.ts). */
+export type CaptureFormat = 'csv' | 'wav' | 'comtrade';
+
 export interface Capture {
 	/** File name as given by the caller, or '<input>'. */
 	source: string;
+	/** The reader that made it; every importer sets it (absent on captures built in code, e.g. by tests). */
+	format?: CaptureFormat;
 	/** Sample rate in Hz (samples per second). For an explicit time base: the mean rate. */
 	sampleRateHz: number;
 	/** Time of the first sample in s, relative to the record's zero (a trigger, when there is one; may be negative). */

@@ -1,6 +1,7 @@
 // Sinecheck's signal library: the public API in one file. Re-exports only.
 // Each area's own index.ts lists what it exports; names must be unique across areas.
 export * from './capture.js';
+export * from './channel-identity.js';
 export * from './io/index.js';
 export * from './signal/index.js';
 export * from './spectrum/index.js';

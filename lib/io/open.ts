@@ -10,6 +10,7 @@ import { parseComtradeCff } from './comtrade/cff.js';
 import { decodeText } from './comtrade/text.js';
 import { type CsvOptions, parseCsv } from './csv/index.js';
 import { ImportError, isImportError } from './import-error.js';
+import { applyImportSettings, hasImportSettings, type ImportSettings } from './import-settings.js';
 import { parseWav, type WavOptions } from './wav.js';
 
 /** A file handed to the importers: its name (with extension; a path is fine) and its bytes. */
@@ -23,7 +24,20 @@ export interface OpenOptions {
 	csv?: CsvOptions;
 	wav?: WavOptions;
 	comtrade?: ComtradeOptions;
+	/** Rate and per-channel scale, unit, quantity and measuring chain, applied to every format (import-settings.ts). */
+	settings?: ImportSettings;
+	/** Called while a CSV file is read, with bytes done and the total (the UI's progress bar). */
+	onProgress?: (bytesDone: number, bytesTotal: number) => void;
 }
+
+/**
+ * What a file is, as the readers see it: 'comtrade-part' is a .dat/.hdr/.inf (read with its .cfg),
+ * 'binary' a file no reader takes.
+ */
+export type FileKind = 'csv' | 'wav' | 'comtrade-cfg' | 'comtrade-cff' | 'comtrade-part' | 'binary';
+
+/** Bytes of a file's head that detectFileKind looks at (a WAV header, a CFF section line, NUL bytes). */
+export const DETECT_HEAD_BYTES = 4096;
 
 const COMTRADE_COMPANIONS = ['dat', 'hdr', 'inf'];
 
@@ -55,15 +69,53 @@ function looksBinary(b: Uint8Array): boolean {
 	return false;
 }
 
-/** Read one file with the reader its content and name call for; companions supply a .cfg's .dat. */
+/**
+ * The reader a file calls for: by content first (a RIFF WAVE header, a CFF section line), then by
+ * extension; text with no telling extension is a table (`byName` false then, to be reported).
+ * The one place Sinecheck decides a file's format; `head` needs only the first DETECT_HEAD_BYTES bytes.
+ * @example detectFileKind('scope.csv', wavBytes).kind // 'wav'
+ */
+export function detectFileKind(name: string, head: Uint8Array): { kind: FileKind; byName: boolean } {
+	const { ext } = splitName(name);
+	if (isWav(head)) return { kind: 'wav', byName: ext === 'wav' };
+	if (ext === 'wav') return { kind: 'wav', byName: true }; // not RIFF: the reader says why
+	if (ext === 'cff' || isCff(head)) return { kind: 'comtrade-cff', byName: ext === 'cff' };
+	if (ext === 'cfg') return { kind: 'comtrade-cfg', byName: true };
+	if (COMTRADE_COMPANIONS.includes(ext)) return { kind: 'comtrade-part', byName: true };
+	if (ext === 'csv' || ext === 'txt' || ext === 'tsv') return { kind: 'csv', byName: true };
+	if (looksBinary(head)) return { kind: 'binary', byName: false };
+	return { kind: 'csv', byName: false };
+}
+
+/** CSV options with the import settings merged in (the CSV reader applies them while it reads). */
+export function csvOptionsWithSettings(options: OpenOptions): CsvOptions {
+	const s = options.settings;
+	if (!hasImportSettings(s)) return options.csv ?? {};
+	const channels = { ...options.csv?.channels };
+	for (const [name, cs] of Object.entries(s?.channels ?? {})) channels[name] = { ...channels[name], ...cs };
+	return { ...options.csv, ...(s?.sampleRateHz !== undefined ? { sampleRateHz: s.sampleRateHz } : {}), ...(Object.keys(channels).length ? { channels } : {}) };
+}
+
+/** A capture whose format came from its content against what its name says: reported. */
+function byContent(capture: Capture, byName: boolean, what: string): Capture {
+	if (!byName) capture.diagnostics.unshift({ code: 'format-from-content', severity: 'info', message: `${capture.source} was read as ${what} from its content, whatever its name says.` });
+	return capture;
+}
+
+/** Read one file with the reader its content and name call for; the import settings applied to every format. */
 function readOne(file: InputFile, companions: InputFile[], options: OpenOptions): Capture {
+	const capture = readByKind(file, companions, options);
+	return options.settings ? applyImportSettings(capture, options.settings) : capture;
+}
+
+function readByKind(file: InputFile, companions: InputFile[], options: OpenOptions): Capture {
 	const { base, ext } = splitName(file.name);
 	if (file.bytes.length === 0) throw new ImportError(file.name, 0, 0, 'empty-file', '', 'a file with data in it');
-	if (isWav(file.bytes)) return parseWav(file.bytes, file.name, options.wav);
-	if (ext === 'wav') return parseWav(file.bytes, file.name, options.wav); // not RIFF: the reader says why
-	if (ext === 'cff' || isCff(file.bytes)) return parseComtradeCff(file.bytes, file.name, options.comtrade);
+	const { kind, byName } = detectFileKind(file.name, file.bytes.subarray(0, DETECT_HEAD_BYTES));
+	if (kind === 'wav') return byContent({ ...parseWav(file.bytes, file.name, options.wav), format: 'wav' }, byName || ext === 'wav', 'a WAV file');
+	if (kind === 'comtrade-cff') return byContent({ ...parseComtradeCff(file.bytes, file.name, options.comtrade), format: 'comtrade' }, byName, 'a single-file COMTRADE record (.cff)');
 	const sibling = (wanted: string) => companions.find((c) => c !== file && splitName(c.name).base === base && splitName(c.name).ext === wanted);
-	if (ext === 'cfg') {
+	if (kind === 'comtrade-cfg') {
 		const dat = sibling('dat');
 		if (!dat) throw new ImportError(file.name, 0, 0, 'missing-companion-file', '', `the data file ${file.name.replace(/\.cfg$/i, '.dat')} next to this .cfg (give both files)`);
 		const { text, encoding } = decodeText(file.bytes);
@@ -73,16 +125,16 @@ function readOne(file: InputFile, companions: InputFile[], options: OpenOptions)
 			const f = sibling(kind);
 			if (f) capture.metadata[`comtrade.${kind}`] = decodeText(f.bytes).text.trim();
 		}
-		return capture;
+		return { ...capture, format: 'comtrade' };
 	}
-	if (COMTRADE_COMPANIONS.includes(ext)) {
+	if (kind === 'comtrade-part') {
 		throw new ImportError(file.name, 0, 0, 'missing-companion-file', '', `the configuration file ${file.name.replace(/\.[^.]+$/, '.cfg')} that describes this COMTRADE .${ext} file`);
 	}
-	if (ext === 'csv' || ext === 'txt' || ext === 'tsv') return parseCsv(file.bytes, file.name, options.csv);
-	if (looksBinary(file.bytes)) {
+	if (kind === 'binary') {
 		throw new ImportError(file.name, 0, 0, 'unsupported-format', ext ? `.${ext}` : '', 'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file');
 	}
-	const capture = parseCsv(file.bytes, file.name, options.csv);
+	const capture: Capture = { ...parseCsv(file.bytes, file.name, csvOptionsWithSettings(options), options.onProgress), format: 'csv' };
+	if (byName) return capture;
 	capture.diagnostics.unshift({ code: 'format-from-content', severity: 'assumption', message: `The name ${file.name} does not say the format; the text was read as a delimited table.` });
 	return capture;
 }

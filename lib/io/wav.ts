@@ -8,7 +8,7 @@
 import * as wavefileModule from 'wavefile';
 import type { Capture, Channel, Diagnostic, Quantity } from '../capture.js';
 import { ImportError } from './import-error.js';
-import { normaliseUnitText, phaseLabel, quantityFromName } from './comtrade/units.js';
+import { channelPhase, normaliseUnitText, quantityFromName } from '../channel-identity.js';
 
 /** Calibration of one WAV channel: what full scale (1.0, or the largest integer code) stands for. */
 export interface WavChannelCalibration {
@@ -154,7 +154,7 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 			samples,
 			scaling: { factor, offset, description: cal ? `${cal.fullScale} ${cal.unit ?? ''} at full scale` : 'normalised to full scale (no calibration)' },
 		};
-		const ph = cal?.phase ?? (cal ? phaseLabel(undefined, name) : undefined);
+		const ph = cal ? channelPhase(name, cal.phase) : undefined;
 		if (ph) ch.phase = ph;
 		if (!cal) uncalibrated.push(name);
 		else diagnostics.push({ code: 'wav-calibration', severity: 'info', message: `Channel ${c + 1} (${name}): full scale = ${cal.fullScale} ${cal.unit ?? ''}.` });

@@ -2,7 +2,7 @@
  * Voltages to an artificial star point from line-to-line channels, so a 3-wire capture of U12, U23, U31
  * (no neutral) gets per-phase phasors, power and sequence figures.
  */
-import { phasorScale, phasorSub, type ComplexPhasor } from '../power/phasor.js';
+import { phasorScale, phasorSub, type ComplexPhasor } from '../phasor/phasor.js';
 
 /**
  * Voltages from each line to the artificial star point (the point where three equal resistors would meet):

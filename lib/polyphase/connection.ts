@@ -3,9 +3,9 @@
  * Hints only: every verdict comes with its evidence as a Diagnostic.
  */
 import type { Diagnostic } from '../capture.js';
-import { parsePhaseLabel } from '../power/phase-label.js';
-import { phasorAbs, phasorArgDeg, phasorSub, wrapAngleDeg, type ComplexPhasor } from '../power/phasor.js';
-import { symmetricalComponents } from './sequence.js';
+import { parsePhaseLabel } from '../channel-identity.js';
+import { phasorAbs, phasorArgDeg, phasorSub, wrapAngleDeg, type ComplexPhasor } from '../phasor/phasor.js';
+import { symmetricalComponents } from '../phasor/sequence.js';
 import { sqrt3Check } from './line-voltages.js';
 import { maxOf, minOf } from '../signal/extremes.js';
 

@@ -4,7 +4,7 @@
  */
 import type { Diagnostic } from '../capture.js';
 import { harmonicSetsOnReferenceWindow, type AnalysedWindow, type FromSamplesOptions, type PowerSampleFailure } from '../power/from-samples.js';
-import { phasorAbs, phasorAdd, phasorFromHarmonic, phasorSub, type ComplexPhasor } from '../power/phasor.js';
+import { phasorAbs, phasorAdd, phasorFromHarmonic, phasorSub, type ComplexPhasor } from '../phasor/phasor.js';
 import { threePhasePowerFromHarmonics, type PowerWiring, type ThreePhaseInputPhase, type ThreePhasePower } from '../power/three-phase.js';
 import { activePowerFromSamplesW, powerWindowRms } from '../power/sample-span.js';
 import type { HarmonicSet } from '../spectrum/types.js';
@@ -12,7 +12,7 @@ import { starDeltaHints } from './connection.js';
 import { lineToLineSamples, lineVoltagePhasors, sqrt3Check, type Sqrt3Check } from './line-voltages.js';
 import { neutralCurrentFigures, sumHarmonicSets, sumPhaseCurrents, type NeutralCurrentFigures } from './neutral.js';
 import { phaseRotation, type PhaseRotation } from './rotation.js';
-import { symmetricalComponents, type SequenceComponents } from './sequence.js';
+import { symmetricalComponents, type SequenceComponents } from '../phasor/sequence.js';
 import { currentUnbalance, voltageUnbalance, type VoltageUnbalance } from './unbalance.js';
 import { maxOf } from '../signal/extremes.js';
 

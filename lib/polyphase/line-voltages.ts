@@ -1,7 +1,7 @@
 /**
  * Line-to-line voltages derived from line-to-neutral channels, and the √3 check of a star system.
  */
-import { phasorAbs, phasorArgDeg, phasorSub, wrapAngleDeg, type ComplexPhasor } from '../power/phasor.js';
+import { phasorAbs, phasorArgDeg, phasorSub, wrapAngleDeg, type ComplexPhasor } from '../phasor/phasor.js';
 
 /**
  * Line-to-line samples v_xy[n] = v_x[n] − v_y[n] (new array; inputs untouched). Same unit as the inputs.

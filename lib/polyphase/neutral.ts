@@ -3,7 +3,7 @@
  * triplen-harmonic content and its size against the phase currents.
  */
 import type { HarmonicSet } from '../spectrum/types.js';
-import { phasorAbs, phasorAdd, phasorArgDeg, phasorFromHarmonic } from '../power/phasor.js';
+import { phasorAbs, phasorAdd, phasorArgDeg, phasorFromHarmonic } from '../phasor/phasor.js';
 import { maxOf } from '../signal/extremes.js';
 
 /**
@@ -83,7 +83,10 @@ export function neutralCurrentFigures(source: 'measured' | 'computed', neutralRm
 		for (const h of neutralSet.orders) {
 			if (h.order >= 3 && h.order % 3 === 0) {
 				triplenSq += h.rms * h.rms;
-				if (h.rms > largestTriplenRmsA) (largestTriplenRmsA = h.rms), (largestTriplenOrder = h.order);
+				if (h.rms > largestTriplenRmsA) {
+					largestTriplenRmsA = h.rms;
+					largestTriplenOrder = h.order;
+				}
 			}
 		}
 	}

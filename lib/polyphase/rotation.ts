@@ -1,8 +1,8 @@
 /**
  * Phase rotation (sequence) of a three-phase set, with how clear the verdict is.
  */
-import { phasorArgDeg, wrapAngleDeg, type ComplexPhasor } from '../power/phasor.js';
-import { symmetricalComponents } from './sequence.js';
+import { phasorArgDeg, wrapAngleDeg, type ComplexPhasor } from '../phasor/phasor.js';
+import { symmetricalComponents } from '../phasor/sequence.js';
 
 /** Below this |minor|/|major| sequence ratio the rotation is called 'clear' (10 %; our choice, see phaseRotation). */
 export const ROTATION_CLEAR_RATIO = 0.1;

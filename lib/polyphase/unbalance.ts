@@ -3,8 +3,8 @@
  * IEC VUF (|V2|/|V1|), |V0|/|V1|, NEMA LVUR (line voltages), IEEE PVUR (phase voltages), and the
  * IEC β formula from line-voltage magnitudes alone.
  */
-import { phasorAbs, phasorSub, type ComplexPhasor } from '../power/phasor.js';
-import { symmetricalComponents } from './sequence.js';
+import { phasorAbs, phasorSub, type ComplexPhasor } from '../phasor/phasor.js';
+import { symmetricalComponents } from '../phasor/sequence.js';
 
 /** One unbalance figure with its name and definition, so a report never shows a bare "unbalance %". */
 export interface UnbalanceFigure {

@@ -2,6 +2,7 @@
  * Sample-level entry points: find the whole cycles of the reference channel (lib/signal), analyse each
  * channel on that same window (lib/spectrum), then apply the phasor-level functions of this area.
  */
+import { MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import { findWholeCycles } from '../signal/cycles.js';
 import { harmonicWindow } from '../spectrum/harmonics.js';
 import type { HarmonicSet } from '../spectrum/types.js';
@@ -48,7 +49,7 @@ export function harmonicSetsOnReferenceWindow(
 	if (!w.ok) return { ok: false, code: w.code, message: w.message };
 	const span: AnalysedWindow = { startIndex: w.startIndex, endIndex: w.endIndex, cycles: w.cycles, frequencyHz: w.frequencyHz };
 	const sets = channels.map(
-		(c) => harmonicWindow(c, sampleRateHz, { fundamentalHz: span.frequencyHz, startIndex: span.startIndex, cycles: span.cycles, maxOrder: opts.maxOrder ?? 50 }).set,
+		(c) => harmonicWindow(c, sampleRateHz, { fundamentalHz: span.frequencyHz, startIndex: span.startIndex, cycles: span.cycles, maxOrder: opts.maxOrder ?? MAX_HARMONIC_ORDER }).set,
 	);
 	return { ok: true, window: span, sets };
 }

@@ -2,7 +2,7 @@
  * Active and reactive power per harmonic order: which harmonics carry power, and in which direction.
  */
 import type { HarmonicSet } from '../spectrum/types.js';
-import { complexPower, phasorFromHarmonic, phasorArgDeg } from './phasor.js';
+import { complexPower, phasorFromHarmonic, phasorArgDeg } from '../phasor/phasor.js';
 
 /** Power of one harmonic order of a V/I pair. */
 export interface OrderPower {

@@ -1,7 +1,7 @@
 /**
  * Load character of a voltage/current pair from the fundamental angle: inductive, capacitive or resistive.
  */
-import { wrapAngleDeg } from './phasor.js';
+import { wrapAngleDeg } from '../phasor/phasor.js';
 
 /**
  * Default band within which a load is called resistive: |θ1| ≤ 3.0° (cos 3° = 0.9986).

@@ -2,7 +2,7 @@
  * Pairs voltage and current channels of a capture by phase label, with a user override of every pair.
  */
 import type { Channel, Diagnostic } from '../capture.js';
-import { inferPhaseFamily, parsePhaseLabel, phaseDisplayLabel, resolvePhaseToken, type ParsedPhaseLabel, type PhaseFamily, type PhaseIndex } from './phase-label.js';
+import { inferPhaseFamily, parsePhaseLabel, phaseDisplayLabel, resolvePhaseToken, type ParsedPhaseLabel, type PhaseFamily, type PhaseIndex } from '../channel-identity.js';
 
 /** A voltage channel and a current channel of the same phase. */
 export interface PowerChannelPair {
@@ -44,7 +44,8 @@ export interface PowerChannelPairing {
 	diagnostics: Diagnostic[];
 }
 
-type ChannelInfo = Pick<Channel, 'name' | 'quantity'> & Partial<Pick<Channel, 'phase' | 'unit'>>;
+/** What pairing reads of a channel; `phase` may be any label text (it is parsed like a name). */
+type ChannelInfo = Pick<Channel, 'name' | 'quantity'> & { phase?: string; unit?: string };
 
 /**
  * Pairs voltage and current channels by phase label and quantity.
@@ -113,8 +114,13 @@ export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: r
 			continue;
 		}
 		if (lab.kind === 'neutral') {
-			if (q === 'current' && neutralCurrent === undefined) (neutralCurrent = c.name), used.add(c.name);
-			else if (q === 'voltage' && neutralVoltage === undefined) (neutralVoltage = c.name), used.add(c.name);
+			if (q === 'current' && neutralCurrent === undefined) {
+				neutralCurrent = c.name;
+				used.add(c.name);
+			} else if (q === 'voltage' && neutralVoltage === undefined) {
+				neutralVoltage = c.name;
+				used.add(c.name);
+			}
 			continue;
 		}
 		const idx = lab.tokens.map((t) => resolvePhaseToken(t, fam.family));
@@ -123,7 +129,10 @@ export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: r
 			continue;
 		}
 		if (lab.kind === 'line-to-line') {
-			if (q === 'voltage') lineVoltages.push({ name: c.name, from: idx[0]!, to: idx[1]! }), used.add(c.name);
+			if (q === 'voltage') {
+				lineVoltages.push({ name: c.name, from: idx[0]!, to: idx[1]! });
+				used.add(c.name);
+			}
 			continue;
 		}
 		if (q === 'voltage') phaseVoltages.push({ phase: idx[0]!, name: c.name });

@@ -3,7 +3,7 @@
  * sentence an electrician reads: "I1 lags U1 by 32.0 deg".
  */
 import type { HarmonicSet } from '../spectrum/types.js';
-import { wrapAngleDeg } from './phasor.js';
+import { wrapAngleDeg } from '../phasor/phasor.js';
 
 /**
  * Angle by which `other` lags `ref`, degrees in (−180, 180]; positive when `other` lags.

@@ -2,7 +2,7 @@
  * IEEE 1459-2010 power quantities of one phase (a voltage/current pair) under non-sinusoidal conditions.
  */
 import type { HarmonicSet } from '../spectrum/types.js';
-import { complexPower, phasorFromHarmonic, wrapAngleDeg } from './phasor.js';
+import { complexPower, phasorFromHarmonic, wrapAngleDeg } from '../phasor/phasor.js';
 
 /** The six numbers every single-phase IEEE 1459 quantity follows from. */
 export interface SinglePhaseComponents {

@@ -3,10 +3,10 @@
  * power and its decomposition, positive-sequence powers, fundamental unbalance power.
  */
 import type { HarmonicSet } from '../spectrum/types.js';
-import { symmetricalComponents } from '../polyphase/sequence.js';
-import { complexPower, phasorAbs, phasorAdd, phasorFromHarmonic, phasorSub, type ComplexPhasor } from './phasor.js';
+import { symmetricalComponents } from '../phasor/sequence.js';
+import { complexPower, phasorAbs, phasorAdd, phasorFromHarmonic, phasorSub, type ComplexPhasor } from '../phasor/phasor.js';
 import { ieee1459FromComponents, activePowerFromHarmonicsW, rmsFromHarmonicSet, type SinglePhasePower, type TimeDomainTotals } from './single-phase.js';
-import { phasorArgDeg, wrapAngleDeg } from './phasor.js';
+import { phasorArgDeg, wrapAngleDeg } from '../phasor/phasor.js';
 import { minOf } from '../signal/extremes.js';
 
 /** '4-wire': three lines and a neutral (star); '3-wire': three lines, no neutral conductor. */

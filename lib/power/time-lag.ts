@@ -62,7 +62,10 @@ export function crossCorrelationLag(
 	const s = span.startIndex;
 	let e = span.endIndex;
 	let cycles = span.cycles;
-	if (cycles > maxCycles) (e -= (cycles - maxCycles) * periodSamples), (cycles = maxCycles);
+	if (cycles > maxCycles) {
+		e -= (cycles - maxCycles) * periodSamples;
+		cycles = maxCycles;
+	}
 	const nan: ChannelTimeLag = { lagS: NaN, lagSamples: NaN, lagDeg: NaN, periodS, cyclesUsed: Math.max(cycles, 0), correlationCoefficient: NaN };
 	if (cycles < 1) return nan;
 
@@ -70,7 +73,10 @@ export function crossCorrelationLag(
 	const m = weights.length;
 	let meanX = 0;
 	let meanY = 0;
-	for (let j = 0; j < m; j++) (meanX += weights[j] * ref[f0 + j]), (meanY += weights[j] * other[f0 + j]);
+	for (let j = 0; j < m; j++) {
+		meanX += weights[j] * ref[f0 + j];
+		meanY += weights[j] * other[f0 + j];
+	}
 	// weighted, mean-removed reference once; then each lag is one dot product over typed arrays
 	const wx = new Float64Array(m);
 	let rxx = 0;

@@ -2,13 +2,14 @@
  * The one analysis entry point of Sinecheck: a Capture in, an AnalysisReport out. The CLI and the UI both
  * call it, so every figure a user sees comes from this code.
  */
+import { basicWindowCycles, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import { durationS, type Capture, type Diagnostic } from '../capture.js';
 import { findWholeCycles } from '../signal/cycles.js';
 import { waveformFigures } from '../signal/levels.js';
 import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
 import { digitalSummary, meterExplanation, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
-import { limitsReport } from './limits-report.js';
+import { applyLimits } from './limits-report.js';
 import { flickerReport } from './flicker-report.js';
 import { checkSiteInputs, nextStepsSection } from '../next-steps/report-section.js';
 import { chooseReference } from './reference.js';
@@ -19,8 +20,8 @@ import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, th
 import { channelSpectrum, planWindows, type ChannelSpectrum } from './spectra.js';
 import { REPORT_SCHEMA_VERSION, type AnalysisOptions, type AnalysisReport, type ReportChannel } from './types.js';
 
-/** Highest harmonic order reported by default (IEC 61000-4-30 Ed.3 and IEEE 519 use 50; from memory). */
-export const REPORT_DEFAULT_MAX_ORDER = 50;
+/** Highest harmonic order reported by default: lib/spectrum's MAX_HARMONIC_ORDER. */
+export const REPORT_DEFAULT_MAX_ORDER = MAX_HARMONIC_ORDER;
 
 function diagnosticText(d: Diagnostic): string {
 	const at = d.line ? ` (line ${d.line}${d.column ? `, column ${d.column}` : ''})` : '';
@@ -81,7 +82,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	if (options.nominalHz === undefined && capture.nominalFrequencyHz === undefined && nominalHz !== undefined) {
 		assumptions.push(`Nominal frequency taken as ${nominalHz} Hz (nearest to the measured ${frequencyHz.toFixed(3)} Hz).`);
 	}
-	const windowCycles = options.windowCycles ?? (nominalHz === 60 ? 12 : 10);
+	const windowCycles = options.windowCycles ?? basicWindowCycles(nominalHz);
 	if (timeBaseIrregular(capture)) warnings.push('The time base is not uniform; figures assume the mean sample rate.');
 	const periods = fitted ? fittedPeriods(n, fs, fitted.fit.frequencyHz) : undefined;
 	if (fitted) warnings.push(shortRecordSentence(fitted.fit, n, fs, periods?.cycles ?? 0));
@@ -104,7 +105,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		const set = agg?.set;
 		const rmsByOrder = set ? set.orders.map((o) => o.rms) : [];
 		const h1 = rmsByOrder[1] ?? NaN;
-		const thdOrder = Math.min(maxOrder, 50, agg?.highestValidOrder ?? 50);
+		const thdOrder = Math.min(maxOrder, MAX_HARMONIC_ORDER, agg?.highestValidOrder ?? MAX_HARMONIC_ORDER);
 		const chWarnings = figs.warnings.map((d) => d.message);
 		return {
 			name: c.name,
@@ -197,10 +198,10 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	} else if (options.pairs && options.pairs.length > 0) {
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}
-	if (options.limits) report.limits = limitsReport(report, options);
-	report.flicker = flickerReport(capture, nominalHz, options.nominalV, options.limits);
+	report.flicker = flickerReport(capture, nominalHz, options.nominalV, undefined);
 	report.nextSteps = nextStepsSection(report, options.site);
-	return report;
+	// the limit step after the analysis (a pure function of the report; the UI re-runs it alone)
+	return applyLimits(report, options);
 }
 
 

@@ -1,6 +1,7 @@
 // Public API of lib/report: re-exports only. Analysis results -> plain objects (the JSON contract of
 // report.schema.json, shared by the CLI and the UI).
 export { analyseCapture, REPORT_DEFAULT_MAX_ORDER } from './analyse.js';
+export { applyLimits, LIMIT_STEP_OPTIONS } from './limits-report.js';
 export {
 	REPORT_SCHEMA_VERSION,
 	REPORT_LIMIT_TABLE_IDS,
@@ -25,3 +26,4 @@ export { reportToJson, reportValueToJson, type ReportJson, type ReportJsonValue,
 export { CSV_SUMMARY_COLUMNS, csvTextCell, csvNumberCell, csvSummaryHeader, csvSummaryRows, reportsToCsv } from './csv-summary.js';
 export { flickerReport, type ReportFlicker, type ReportFlickerChannel } from './flicker-report.js';
 export { csvCell, startsLikeFormula } from './csv-cell.js';
+export { chooseReference } from './reference.js';

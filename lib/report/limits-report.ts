@@ -3,8 +3,10 @@
  * per order and for the total (THD, or TDD for IEEE 519 currents), measured %, limit %, margin, pass.
  */
 import { evaluateLimits, LIMIT_TABLES } from '../limits/evaluate.js';
+import { evaluateFlickerLimits, type FlickerLimitTableId, type FlickerMeasured } from '../limits/flicker.js';
 import type { LimitEvaluation } from '../limits/types.js';
-import type { AnalysisOptions, AnalysisReport, ReportChannel, ReportLimitRow, ReportLimits } from './types.js';
+import type { ReportFlicker, ReportFlickerChannel } from './flicker-report.js';
+import type { AnalysisOptions, AnalysisReport, ReportChannel, ReportLimitRow, ReportLimits, ReportLimitTableId } from './types.js';
 import { maxOf } from '../signal/extremes.js';
 
 function rowsOf(channel: string, e: LimitEvaluation): { rows: ReportLimitRow[]; unmeasured: string[] } {
@@ -84,4 +86,41 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 	if (rows.length === 0) notes.push('Nothing was evaluated against the table.');
 	if (firstEvaluation) notes.push(...firstEvaluation.notes, firstEvaluation.complianceNote);
 	return { table: id, title: `${table.name} (${table.source})`, pass: rows.every((r) => r.pass), rows, notes: [...new Set(notes)] };
+}
+
+/** The analysis options only the limit step reads: changing them needs no new analysis (nominalV also sets flicker's Un: not here). */
+export const LIMIT_STEP_OPTIONS = ['limits', 'iscIl', 'ieee519Edition'] as const;
+
+/**
+ * Flicker figures of one channel as the flicker tables take them: every Pst and Plt; dc, dmax and Tmax
+ * per change when the report lists every change, else their highest values (the tables judge those
+ * figures by their highest value, so the verdict is the same).
+ */
+function flickerMeasured(c: ReportFlickerChannel): FlickerMeasured {
+	const all = c.changes.list.length === c.changes.count;
+	return {
+		pst: c.pst.map((p) => p.pst),
+		plt: c.plt.map((p) => p.plt),
+		dcPercent: all ? c.changes.list.map((v) => v.dcPercent) : [c.changes.dcMaxPercent],
+		dmaxPercent: all ? c.changes.list.map((v) => v.dmaxPercent) : [c.changes.dmaxPercent],
+		tmaxS: all ? c.changes.list.map((v) => v.tmaxS) : [c.changes.tmaxS],
+	};
+}
+
+/** The flicker part of the limit step: a supply table (EN 50160, IEC 61000-2-2) with IEC 61000-3-3 beside it. */
+function flickerWithLimits(f: ReportFlicker, id: ReportLimitTableId | undefined): ReportFlicker {
+	const tables: FlickerLimitTableId[] = id === 'en50160' || id === 'iec61000-2-2' ? [id, 'iec61000-3-3'] : [];
+	return { ...f, channels: f.channels.map((c) => ({ ...c, limits: tables.map((t) => evaluateFlickerLimits(t, flickerMeasured(c))) })) };
+}
+
+/**
+ * The limit step after the analysis: a pure function of the report and the limit options, so a front end
+ * can switch tables on a report it already has (analyseCapture ends with it; the CLI and the UI call the same).
+ * Returns a new report with `limits` for `options.limits`, or without `limits` when no table is chosen.
+ * @example applyLimits(report, { limits: 'en50160' }).limits?.pass // true when every row is within its limit
+ */
+export function applyLimits(report: AnalysisReport, options: AnalysisOptions): AnalysisReport {
+	const { limits: _previous, ...rest } = report;
+	if (rest.flicker) rest.flicker = flickerWithLimits(rest.flicker, options.limits);
+	return options.limits ? { ...rest, limits: limitsReport(report, options) } : rest;
 }

@@ -5,10 +5,10 @@
 import type { Capture, Channel } from '../capture.js';
 import { currentUnbalance, lineVoltageUnbalance, voltageUnbalance } from '../polyphase/unbalance.js';
 import { phaseRotation } from '../polyphase/rotation.js';
-import { symmetricalComponents } from '../polyphase/sequence.js';
+import { symmetricalComponents } from '../phasor/sequence.js';
 import { loadCharacterFromAngle } from '../power/load-character.js';
 import { pairPowerChannels, type PowerChannelPairing } from '../power/pairing.js';
-import { complexPower, phasorAbs, phasorArgDeg, phasorFromHarmonic, phasorMul, phasorScale, wrapAngleDeg, type ComplexPhasor } from '../power/phasor.js';
+import { complexPower, phasorAbs, phasorArgDeg, phasorFromHarmonic, phasorMul, phasorScale, wrapAngleDeg, type ComplexPhasor } from '../phasor/phasor.js';
 import { ieee1459FromComponents } from '../power/single-phase.js';
 import { crossCorrelationLag } from '../power/time-lag.js';
 import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';

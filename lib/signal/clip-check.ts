@@ -28,8 +28,15 @@ export function runShowsSlopeBreak(samples: Float64Array, first: number, last: n
 		const u = (i - centre) / scale;
 		const y = side * (samples[i] - level);
 		const u2 = u * u;
-		s0 += 1, s1 += u, s2 += u2, s3 += u2 * u, s4 += u2 * u2;
-		y0 += y, y1 += y * u, y2 += y * u2, yy += y * y;
+		s0 += 1;
+		s1 += u;
+		s2 += u2;
+		s3 += u2 * u;
+		s4 += u2 * u2;
+		y0 += y;
+		y1 += y * u;
+		y2 += y * u2;
+		yy += y * y;
 	};
 	for (let i = first - flank; i < first; i++) add(i);
 	for (let i = last + 1; i <= last + flank; i++) add(i);

@@ -66,6 +66,9 @@ export function decimationNoiseInflation(factor: number): number {
 	const w = (k: number) => (k < 0 || k > 2 * factor - 2 ? 0 : Math.min(k + 1, 2 * factor - 1 - k));
 	let s0 = 0;
 	let s1 = 0;
-	for (let k = 0; k <= 2 * factor - 2; k++) (s0 += w(k) * w(k)), (s1 += w(k) * w(k + factor));
+	for (let k = 0; k <= 2 * factor - 2; k++) {
+		s0 += w(k) * w(k);
+		s1 += w(k) * w(k + factor);
+	}
 	return 1 + (2 * s1) / s0;
 }

@@ -165,7 +165,10 @@ function gridSearch(ys: Float64Array[], tau: Float64Array, weights: number[], lo
 	let bestCost = Infinity;
 	for (let k = 0; k < points; k++) {
 		const c = cost(ys, tau, weights, at(k), orders);
-		if (c < bestCost) (bestCost = c), (best = k);
+		if (c < bestCost) {
+			bestCost = c;
+			best = k;
+		}
 	}
 	let a = at(Math.max(0, best - 1));
 	let b = at(Math.min(points - 1, best + 1));
@@ -251,7 +254,12 @@ function gaussNewton(ys: Float64Array[], tau: Float64Array, weights: number[], o
 		for (let halve = 0; halve < 8 && !accepted; halve++, step /= 2) {
 			const q = project(ys, tau, omega + step, orders);
 			const next = q.solved.reduce((s, x, c) => s + weights[c] * x.rss, 0);
-			if (next <= current) (omega += step), (p = q), (current = next), (accepted = true);
+			if (next <= current) {
+				omega += step;
+				p = q;
+				current = next;
+				accepted = true;
+			}
 		}
 		if (!accepted) break;
 	}

@@ -1,6 +1,7 @@
 /**
  * Why a sine-calibrated average-responding meter misreads a distorted wave, told from its spectrum.
  */
+import { wrapAngleDeg } from '../phasor/phasor.js';
 import { dftPlan } from './dft.js';
 import type { HarmonicSet } from './types.js';
 
@@ -128,7 +129,7 @@ export function averageMeterExplanation(set: HarmonicSet, unit = ''): AverageMet
 		if (pct < 0.1) continue;
 		const e = errorPercent([fund, c]);
 		if (Math.abs(e) < 0.1) continue;
-		const rel = c.order === 0 ? 0 : wrap(((c.phaseRad - c.order * fund.phaseRad) * 180) / Math.PI);
+		const rel = c.order === 0 ? 0 : wrapAngleDeg(((c.phaseRad - c.order * fund.phaseRad) * 180) / Math.PI);
 		const reading = e < 0 ? `low by ${(-e).toFixed(1)} %` : `high by ${e.toFixed(1)} %`;
 		let shape: AverageMeterReason['shape'];
 		let text: string;
@@ -155,11 +156,4 @@ export function averageMeterExplanation(set: HarmonicSet, unit = ''): AverageMet
 			? `An average-responding meter would read within 1 % of true RMS (${readingErrorPercent.toFixed(2)} %, form factor ${formFactor.toFixed(4)} against 1.1107 for a sine).`
 			: `An average-responding meter would read ${Math.abs(readingErrorPercent).toFixed(1)} % ${readingErrorPercent < 0 ? 'low' : 'high'} (${averageReading.toPrecision(4)}${u} instead of ${f.rms.toPrecision(4)}${u} true RMS; form factor ${formFactor.toFixed(4)} against 1.1107 for a sine).`;
 	return { trueRms: f.rms, averageReading, readingErrorPercent, formFactor, crestFactor: f.peak / f.rms, summary, reasons };
-}
-
-function wrap(d: number): number {
-	let x = d % 360;
-	if (x <= -180) x += 360;
-	else if (x > 180) x -= 360;
-	return x;
 }

@@ -2,6 +2,7 @@
  * Figures of harmonic current: TDD (IEEE 519), UL K-factor and the BS 7821 / IEC 61378 factor K for
  * transformer derating. Each takes a HarmonicSet or RMS values indexed by order (index 0 = DC).
  */
+import { MAX_HARMONIC_ORDER } from './harmonics.js';
 import type { HarmonicSet } from './types.js';
 
 type ByOrder = HarmonicSet | ArrayLike<number>;
@@ -21,7 +22,7 @@ function rmsByOrder(x: ByOrder): ArrayLike<number> {
  * @throws RangeError when ilA is not a positive number
  * @example tddPercent([0, 80, 0, 12, 0, 9], 100, 5) // 15.0 (√(12² + 9²) = 15 A of a 100 A demand)
  */
-export function tddPercent(x: ByOrder, ilA: number, maxOrder = 50): number {
+export function tddPercent(x: ByOrder, ilA: number, maxOrder = MAX_HARMONIC_ORDER): number {
 	if (!(ilA > 0) || !Number.isFinite(ilA)) throw new RangeError(`ilA must be a positive current in A, got ${ilA}`);
 	const r = rmsByOrder(x);
 	if (r.length <= maxOrder) return NaN;

@@ -1,7 +1,8 @@
 /**
  * Consecutive gapless harmonic windows over a capture, and their aggregate (IEC 61000-4-30 style).
  */
-import { defaultWindowCycles, harmonicWindow, percentOf, relativePhases, wrapDeg } from './harmonics.js';
+import { wrapAngleDeg } from '../phasor/phasor.js';
+import { defaultWindowCycles, harmonicWindow, percentOf, relativePhases } from './harmonics.js';
 import { iecHarmonicGroups } from './groups.js';
 import { thdFigures } from './thd.js';
 import type { HarmonicPhasor, HarmonicWindow } from './types.js';
@@ -97,7 +98,7 @@ export function aggregateHarmonicWindows(windows: HarmonicWindow[]): HarmonicAgg
 			re += o.rms * Math.cos((o.phaseDeg * Math.PI) / 180);
 			im += o.rms * Math.sin((o.phaseDeg * Math.PI) / 180);
 		}
-		const phaseDeg = re === 0 && im === 0 ? NaN : h === 0 ? (re >= 0 ? 0 : 180) : wrapDeg((Math.atan2(im, re) * 180) / Math.PI);
+		const phaseDeg = re === 0 && im === 0 ? NaN : h === 0 ? (re >= 0 ? 0 : 180) : wrapAngleDeg((Math.atan2(im, re) * 180) / Math.PI);
 		orders.push({ order: h, rms: orderRms[h], phaseDeg });
 	}
 	const maxOrder = nOrders - 1;

@@ -2,6 +2,7 @@
  * One synchronised harmonic window (IEC 61000-4-7): whole fundamental cycles, a rectangular window, a
  * DFT whose bin k = cycles·h falls exactly on harmonic h.
  */
+import { wrapAngleDeg } from '../phasor/phasor.js';
 import { dftPlan } from './dft.js';
 import { iecHarmonicGroups } from './groups.js';
 import { syncResample } from './sync-resample.js';
@@ -15,8 +16,24 @@ export interface HarmonicWindowOptions {
 	startIndex?: number;
 	/** Whole fundamental cycles in the window; default `defaultWindowCycles(fundamentalHz)`. */
 	cycles?: number;
-	/** Highest order reported; default 50. */
+	/** Highest order reported; default MAX_HARMONIC_ORDER (50). */
 	maxOrder?: number;
+}
+
+/**
+ * Highest harmonic order analysed and reported by default: 50 (IEC 61000-4-7 and IEC 61000-4-30 measure
+ * to order 50; IEEE 519 limits go to 50; from memory). The one constant every area uses.
+ */
+export const MAX_HARMONIC_ORDER = 50;
+
+/**
+ * The 10-or-12-cycle choice of IEC 61000-4-7 for a system frequency: 12 cycles from 55 Hz to 70 Hz
+ * (60 Hz systems), else 10 (50 Hz systems, and when the frequency is not known). Both are ~200 ms.
+ * Ref: IEC 61000-4-7:2002, 4.4.1 (10/12 cycles; from memory); the 55 Hz split is ours.
+ * @example basicWindowCycles(60) // 12
+ */
+export function basicWindowCycles(systemHz: number | undefined): 10 | 12 {
+	return systemHz !== undefined && systemHz >= 55 && systemHz <= 70 ? 12 : 10;
 }
 
 /**
@@ -30,8 +47,7 @@ export function defaultWindowCycles(fundamentalHz: number): number {
 	if (!(fundamentalHz > 0) || !Number.isFinite(fundamentalHz)) {
 		throw new RangeError(`fundamentalHz must be a positive number, got ${fundamentalHz}`);
 	}
-	if (fundamentalHz >= 40 && fundamentalHz < 55) return 10;
-	if (fundamentalHz >= 55 && fundamentalHz <= 70) return 12;
+	if (fundamentalHz >= 40 && fundamentalHz <= 70) return basicWindowCycles(fundamentalHz);
 	return Math.max(1, Math.round(0.2 * fundamentalHz));
 }
 
@@ -57,12 +73,6 @@ function work(m: number): Work {
 	return w;
 }
 
-export function wrapDeg(d: number): number {
-	let x = d % 360;
-	if (x <= -180) x += 360;
-	else if (x > 180) x -= 360;
-	return x;
-}
 
 /**
  * Harmonic analysis of one window of exactly `cycles` cycles of the measured fundamental, starting at
@@ -101,7 +111,7 @@ export function harmonicWindow(samples: Float64Array, sampleRateHz: number, opts
 	if (!(fs > 0) || !Number.isFinite(fs)) throw new RangeError(`sampleRateHz must be a positive number, got ${fs}`);
 	if (!(f1 > 0) || !(f1 < fs / 2)) throw new RangeError(`fundamentalHz must be in (0, ${fs / 2}) Hz, got ${f1}`);
 	const c = opts.cycles ?? defaultWindowCycles(f1);
-	const maxOrder = opts.maxOrder ?? 50;
+	const maxOrder = opts.maxOrder ?? MAX_HARMONIC_ORDER;
 	const start = opts.startIndex ?? 0;
 	if (!Number.isInteger(c) || c < 1) throw new RangeError(`cycles must be an integer ≥ 1, got ${c}`);
 	if (!Number.isInteger(maxOrder) || maxOrder < 1 || maxOrder > 1000) {
@@ -166,7 +176,7 @@ export function harmonicWindow(samples: Float64Array, sampleRateHz: number, opts
 		let phaseDeg: number;
 		if (!(rms > floor)) phaseDeg = NaN;
 		else if (h === 0) phaseDeg = re >= 0 ? 0 : 180;
-		else phaseDeg = wrapDeg((Math.atan2(im, re) * 180) / Math.PI);
+		else phaseDeg = wrapAngleDeg((Math.atan2(im, re) * 180) / Math.PI);
 		if (!Number.isNaN(rms)) highestValidOrder = h;
 		orders[h] = { order: h, rms, phaseDeg };
 		orderRms[h] = rms;
@@ -195,7 +205,7 @@ export function relativePhases(orders: HarmonicPhasor[]): Float64Array {
 	const out = new Float64Array(orders.length);
 	const p1 = orders[1]?.phaseDeg ?? NaN;
 	for (let h = 0; h < orders.length; h++) {
-		out[h] = h === 0 ? orders[0].phaseDeg : wrapDeg(orders[h].phaseDeg - h * p1);
+		out[h] = h === 0 ? orders[0].phaseDeg : wrapAngleDeg(orders[h].phaseDeg - h * p1);
 	}
 	return out;
 }

@@ -19,6 +19,7 @@
  *
  * Ref: IEC 61000-4-30:2015, 4.4-4.7, 5.1, 5.4 (from memory); REFERENCE §3.2-3.5.
  */
+import { basicWindowCycles, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import type { Diagnostic } from '../capture.js';
 import { harmonicWindow } from '../spectrum/harmonics.js';
 import { CrossingTracker, type CrossingSink } from './crossing-tracker.js';
@@ -154,7 +155,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	let ws = 0;
 	let nextTick = tickLen - tickOffset;
 	const nomTimes: number[] = [];
-	let cyclesPerWindow = nominalHz === 60 ? 12 : 10;
+	let cyclesPerWindow = basicWindowCycles(nominalHz);
 
 	// --- frequency per 10 s
 	let fStart = 0;
@@ -203,7 +204,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				const w = scratch.subarray(0, e0 - s0);
 				for (let j = s0; j < e0; j++) w[j - s0] = ring[j & mask];
 				const f1 = (cyclesPerWindow * fs) / lengthT;
-				thd[c] = f1 < fs / 2 ? harmonicWindow(w, fs, { fundamentalHz: f1, startIndex: startT - s0, cycles: cyclesPerWindow, maxOrder: 50 }).thd.thdS50Percent : NaN;
+				thd[c] = f1 < fs / 2 ? harmonicWindow(w, fs, { fundamentalHz: f1, startIndex: startT - s0, cycles: cyclesPerWindow, maxOrder: MAX_HARMONIC_ORDER }).thd.thdS50Percent : NaN;
 			} else if (wantThd) {
 				if (!fastThd || fastThdCycles !== cyclesPerWindow) {
 					fastThd = new WindowThd(cyclesPerWindow);
@@ -261,7 +262,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 			if (nomTimes.length < 5) return;
 			const f = (4 * fs) / (nomTimes[4] - nomTimes[0]);
 			nominalHz = Math.abs(f - 50) <= Math.abs(f - 60) ? 50 : 60;
-			cyclesPerWindow = nominalHz === 60 ? 12 : 10;
+			cyclesPerWindow = basicWindowCycles(nominalHz);
 			diagnostics.push({ code: 'nominal-frequency-inferred', severity: 'assumption', message: `Nominal frequency taken as ${nominalHz} Hz from the first cycles (${f.toFixed(2)} Hz measured); 10/12-cycle windows use ${cyclesPerWindow} cycles.` });
 			ws = Math.max(0, seq - LOG + 1);
 		}

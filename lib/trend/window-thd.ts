@@ -17,13 +17,14 @@
  * Ref: IEC 61000-4-7:2002, 4.4.1 and 3.3 (subgroups), via REFERENCE §2.1-2.2 (from memory); IEC
  * 61000-4-30:2015 class A uses subgroups up to the 50th order (REFERENCE §2.2, from memory).
  */
+import { MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import FFT from 'fft.js';
 
 const M = 2048;
 const TAPS = 8;
 const PHASES = 1024;
-/** Highest harmonic order analysed (IEC 61000-4-30 class A: 50). */
-export const TREND_MAX_ORDER = 50;
+/** Highest harmonic order analysed: lib/spectrum's MAX_HARMONIC_ORDER (IEC 61000-4-30 class A: 50). */
+export const TREND_MAX_ORDER = MAX_HARMONIC_ORDER;
 const MAX_ORDER = TREND_MAX_ORDER;
 
 let weights: Float64Array | undefined;

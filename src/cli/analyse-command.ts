@@ -4,12 +4,12 @@
  * Returns the exit code: 0 analysed and within limits, 1 a limit failed, 2 bad input or usage.
  */
 import { availableParallelism } from 'node:os';
-import { csvSummaryHeader, csvSummaryRows } from '../../lib/report/csv-summary.js';
+import { csvSummaryHeader, csvSummaryRows } from '../../lib/report/index.js';
 import type { ReportJson } from '../../lib/report/to-json.js';
 import type { UnitResult } from './analyse-unit.js';
 import { problemLine as problemText } from './error-line.js';
 import { collectUnits } from './collect-files.js';
-import { nextStepsCsvRows, NEXT_STEPS_CSV_COLUMNS } from '../../lib/next-steps/csv.js';
+import { nextStepsCsvRows, NEXT_STEPS_CSV_COLUMNS } from '../../lib/next-steps/index.js';
 import { formatNextSteps } from './format-next-steps.js';
 import { formatReport } from './format-table.js';
 import { limitsFrom, settingsFromOptions, type RawOptions } from './options.js';
@@ -73,7 +73,10 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 			io.err(`${problemText(p)}\n`);
 		}
 		for (const r of res.reports) {
-			if (r.limits && r.limits.pass === false) (limitFailed = true), limitFailures++;
+			if (r.limits && r.limits.pass === false) {
+				limitFailed = true;
+				limitFailures++;
+			}
 			io.out(render(r, mode, printedAny, nextSteps));
 			if (mode !== 'table' && raw.quiet !== true) for (const a of noteworthy(r)) io.err(`${printable(`${r.file}: ${a}`)}\n`);
 			printedAny = true;

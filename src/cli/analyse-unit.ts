@@ -2,16 +2,15 @@
  * One analysis unit (a capture's files) -> JSON reports or located errors. Runs in a worker thread or
  * in-process; the result is plain data (structured-clone safe).
  */
-import { isImportError, type ImportError } from '../../lib/io/import-error.js';
-import { openCaptures } from '../../lib/io/open.js';
-import { gapFreeSpan } from '../../lib/io/gaps.js';
-import { analyseCapture } from '../../lib/report/analyse.js';
-import { reportToJson, type ReportJson } from '../../lib/report/to-json.js';
+import { isImportError, type ImportError } from '../../lib/io/index.js';
+import { gapFreeSpan, openCaptures } from '../../lib/io/index.js';
+import { analyseCapture } from '../../lib/report/index.js';
+import { reportToJson, type ReportJson } from '../../lib/report/index.js';
 import { problemFrom, problemLine, type FileProblem } from './error-line.js';
 import { ANALYSE_MAX_FILE_BYTES, readRegularFile, tooLargeWords } from './file-checks.js';
 import { UsageError } from './usage-error.js';
 import type { CommandSettings } from './options.js';
-import { importOptionsFrom, applyImportSettings } from './import-settings.js';
+import { importOptionsFrom } from './import-settings.js';
 
 export type { FileProblem } from './error-line.js';
 
@@ -69,7 +68,7 @@ export function analyseUnit(files: string[], settings: CommandSettings): UnitRes
 	for (const e of opened.errors) result.problems.push(problemOf(e, files[0], settings));
 	for (const capture of opened.captures) {
 		try {
-			const adjusted = applyImportSettings(settings.import.gaps ? gapFreeSpan(capture).capture : capture, settings.import);
+			const adjusted = settings.import.gaps ? gapFreeSpan(capture).capture : capture;
 			result.reports.push(reportToJson(analyseCapture(adjusted, settings.analysis)));
 		} catch (e) {
 			result.problems.push(problemOf(e, capture.source, settings));

@@ -4,7 +4,7 @@
  * `sinecheck: <path>: byte N: <message>` for an offset in a binary file (an ImportError of a binary file
  * carries line 0 and column = offset + 1, lib/io/import-error.ts).
  */
-import { isImportError } from '../../lib/io/import-error.js';
+import { isImportError } from '../../lib/io/index.js';
 import { fsErrorWords } from './file-checks.js';
 import { printable } from './printable.js';
 import { UsageError } from './usage-error.js';

@@ -61,7 +61,7 @@ export function bytesWords(bytes: number): string {
 	const units = ['bytes', 'KiB', 'MiB', 'GiB', 'TiB'];
 	let x = bytes;
 	let u = 0;
-	while (x >= 1024 && u < units.length - 1) (x /= 1024), u++;
+	for (; x >= 1024 && u < units.length - 1; u++) x /= 1024;
 	return u === 0 ? `${bytes} bytes` : `${x >= 10 || Number.isInteger(x) ? x.toFixed(0) : x.toFixed(1)} ${units[u]}`;
 }
 

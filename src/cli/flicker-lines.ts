@@ -3,7 +3,7 @@
  * a short record, said to be no Pst), the IEC 61000-3-3 voltage changes and the flicker limits.
  */
 import type { ReportJson } from '../../lib/report/index.js';
-import { maxOf } from '../../lib/signal/extremes.js';
+import { maxOf } from '../../lib/signal/index.js';
 
 function num(x: number | null | undefined, decimals: number): string {
 	return x === null || x === undefined || !Number.isFinite(x) ? '-' : x.toFixed(decimals);

@@ -85,18 +85,14 @@ cli
 	.option('--no-thd', 'Skip the harmonic analysis (THD columns empty; faster)')
 	.option('--harmonics', 'Also every harmonic order 2-50 per channel, % of the fundamental')
 	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
-	.option('--scale <channel=factor>', 'Multiply a channel by a factor (CSV files); repeatable', { type: [String] })
-	.option('--unit <channel=unit>', 'Set the unit of a channel (CSV files); repeatable', { type: [String] })
-	.option('--quantity <channel=kind>', 'Say what a channel measures (CSV files); repeatable', { type: [String] })
+	.option('--scale <channel=factor>', 'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable', { type: [String] })
+	.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
+	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', { type: [String] })
 	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
 	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine)')
 	.action(async (given: string[], options: Record<string, unknown>) => {
 		const files = withAfterDashes(given, options);
 		const settings = settingsFromOptions({ rate: options.rate, scale: options.scale, unit: options.unit, quantity: options.quantity }).import;
-		const perChannel = Object.keys(settings.scale).length + Object.keys(settings.unit).length + Object.keys(settings.quantity).length > 0;
-		const notCsv = files.find((f) => /\.(wav|cfg|cff|dat)$/i.test(f));
-		// The trend reader streams WAV and COMTRADE itself: per-channel settings reach only the CSV reader.
-		if (perChannel && notCsv) throw new UsageError(`trend: --scale, --unit and --quantity apply to CSV files only (${notCsv} is not one)`);
 		const { importOptionsFrom } = await import('./import-settings.js');
 		const { trendCommand } = await import('./trend/index.js');
 		const open = importOptionsFrom(settings);

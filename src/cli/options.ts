@@ -2,7 +2,7 @@
  * Command-line option values -> the library's options. Every malformed value is a UsageError naming
  * the option and what was expected; nothing is guessed.
  */
-import { REPORT_LIMIT_TABLE_IDS, type AnalysisOptions, type ReportLimitTableId } from '../../lib/report/types.js';
+import { REPORT_LIMIT_TABLE_IDS, type AnalysisOptions, type ReportLimitTableId } from '../../lib/report/index.js';
 import { siteFromOptions } from './site-options.js';
 import { UsageError } from './usage-error.js';
 

@@ -7,6 +7,8 @@
  * (common practice; from memory).
  */
 
+// control characters are exactly what this pattern is for
+// eslint-disable-next-line no-control-regex
 const UNSAFE = /[\u0000-\u001f\u007f-\u009f\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g;
 
 const NAMED: Record<string, string> = { '\t': '\\t', '\n': '\\n', '\r': '\\r' };

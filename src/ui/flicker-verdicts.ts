@@ -5,7 +5,7 @@
  */
 import type { AnalysisReport } from '../../lib/report/types.js';
 import type { Verdict } from './verdicts.js';
-import { maxOf } from '../../lib/signal/extremes.js';
+import { maxOf } from '../../lib/signal/index.js';
 
 /**
  * Pst or Plt of 1: the level at which half of observers find a 60 W filament lamp's flicker irritating

@@ -8,7 +8,7 @@ import type { OpenOptions } from '../../lib/io/open.js';
 import type { TrendResult } from '../../lib/trend/types.js';
 
 /** What the user overrode on import (CSV layout, per-channel unit, quantity and scale): lib/io's options. */
-export type ImportOverrides = OpenOptions;
+export type ImportOverrides = Omit<OpenOptions, 'onProgress'>;
 
 /** One file: its bytes (moved to the worker), or the picked file itself, which the worker reads in slices. */
 export interface FileBytes {
@@ -46,11 +46,11 @@ export type FromWorker =
 
 /**
  * Figures the worker gets from lib beyond the report itself, for drawing: the whole-cycle boundaries of the
- * reference channel (seconds from the first sample) and the harmonic groups per channel, when lib offers them.
+ * reference channel (seconds from the first sample) and each channel's peaks. Harmonic groups and THD
+ * variants are in the report (ReportChannel.groups, .thdVariants).
  */
 export interface ReportExtras {
 	cycleBoundariesS: number[];
-	groups: Record<string, ChannelGroups>;
 	/** Sample index of each channel's positive and negative peak within the analysed window (-1 when none). */
 	peakIndex: Record<string, { max: number; min: number }>;
 	/** Trends and voltage events (lib/trend), with the Urms(1/2) series; null when it could not be run. */
@@ -69,19 +69,6 @@ export interface GapView {
 	startIndex: number;
 	endIndex: number;
 	cells: (CaptureGap & { timeS: number })[];
-}
-
-/**
- * IEC 61000-4-7 groups of one channel, aggregated over the report's harmonic windows (lib/report's
- * channelSpectrum on the same windows), index = order; and the THD figures computed from them.
- */
-export interface ChannelGroups {
-	harmonicGroupRms: number[];
-	harmonicSubgroupRms: number[];
-	/** Between order n and n+1. */
-	interharmonicGroupRms: number[];
-	thdG50Percent: number;
-	thdS50Percent: number;
 }
 
 /** lib/trend's result plus the RMS over one cycle refreshed every half cycle, per channel. */

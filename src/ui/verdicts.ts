@@ -73,8 +73,7 @@ function distortion(report: AnalysisReport, ch: ReportChannel): Verdict {
 			target,
 		};
 	}
-	const worst = over[0];
-	const what = (r: typeof worst) => (r.figure === 'harmonic' ? `${ordinal(r.order)} harmonic` : r.figure.toUpperCase());
+	const what = (r: (typeof over)[number]) => (r.figure === 'harmonic' ? `${ordinal(r.order)} harmonic` : r.figure.toUpperCase());
 	return {
 		id,
 		topic: 'distortion',

@@ -1,18 +1,16 @@
 /**
  * The analysis worker's logic, free of worker globals so tests can run it in-process: open files with
  * lib/io, analyse with lib/report (the same code the CLI runs), post progress and results. Captures stay
- * cached here by key so a new reference channel or limit table re-analyses without re-reading the file.
+ * cached here by key so a new reference channel re-analyses without re-reading the file (a new limit
+ * table needs no analysis at all: the page applies lib/report's limit step to the report it has).
  */
 import type { Capture } from '../../lib/capture.js';
-import { isImportError } from '../../lib/io/import-error.js';
-import { analyseCapture, REPORT_DEFAULT_MAX_ORDER } from '../../lib/report/analyse.js';
-import { chooseReference } from '../../lib/report/reference.js';
-import { channelSpectrum, planWindows } from '../../lib/report/spectra.js';
+import { gapFreeSpan, isImportError } from '../../lib/io/index.js';
+import { analyseCapture, chooseReference } from '../../lib/report/index.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
-import { analyseTrend } from '../../lib/trend/analyse-capture.js';
-import { gapFreeSpan } from '../../lib/io/gaps.js';
+import { analyseTrend } from '../../lib/trend/index.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
-import { minOf } from '../../lib/signal/extremes.js';
+import { minOf } from '../../lib/signal/index.js';
 import { etaFrom, lineOfFile, readCaptures } from './worker-open.js';
 
 export type Post = (msg: FromWorker, transfer?: Transferable[]) => void;
@@ -118,7 +116,8 @@ function peakIndices(x: Float64Array, i0: number, i1: number): { max: number; mi
 
 /**
  * What the plots need beside the report: where the analysed window's peaks sit and the whole-cycle
- * boundaries (the reference crossings lib/report used, found again by the same call).
+ * boundaries (the reference crossings lib/report used, found again by the same call). Everything the
+ * report carries (harmonics, groups, THD variants) is taken from the report, never recomputed here.
  */
 export function extrasFor(capture: Capture, report: AnalysisReport, analysis: AnalysisOptions): ReportExtras {
 	const fs = capture.sampleRateHz;
@@ -128,28 +127,11 @@ export function extrasFor(capture: Capture, report: AnalysisReport, analysis: An
 	const peakIndex: ReportExtras['peakIndex'] = {};
 	for (const ch of capture.channels) peakIndex[ch.name] = peakIndices(ch.samples, i0, i1);
 	const cycleBoundariesS: number[] = [];
-	const groups: ReportExtras['groups'] = {};
 	if (report.cyclesAnalysed > 0 && report.referenceChannel !== null) {
 		const ref = chooseReference(capture, report.referenceChannel, analysis.nominalHz ?? capture.nominalFrequencyHz);
-		if (ref.window) {
-			for (const x of ref.window.crossings) cycleBoundariesS.push(x / fs);
-			// the same windows lib/report analysed, for the groups the report does not carry
-			const slots = planWindows(ref.window, fs, report.window.harmonicWindowCycles);
-			if (slots.length > 0) {
-				for (const ch of capture.channels) {
-					const agg = channelSpectrum(ch.samples, fs, slots, analysis.maxOrder ?? REPORT_DEFAULT_MAX_ORDER).aggregate;
-					groups[ch.name] = {
-						harmonicGroupRms: Array.from(agg.groups.harmonicGroupRms),
-						harmonicSubgroupRms: Array.from(agg.groups.harmonicSubgroupRms),
-						interharmonicGroupRms: Array.from(agg.groups.interharmonicGroupRms),
-						thdG50Percent: agg.thd.thdG50Percent,
-						thdS50Percent: agg.thd.thdS50Percent,
-					};
-				}
-			}
-		}
+		if (ref.window) for (const x of ref.window.crossings) cycleBoundariesS.push(x / fs);
 	}
-	return { cycleBoundariesS, groups, peakIndex, trend: null };
+	return { cycleBoundariesS, peakIndex, trend: null };
 }
 
 /**

@@ -5,8 +5,7 @@
  * read and a time estimate from the rate so far.
  */
 import type { Capture } from '../../lib/capture.js';
-import { CsvStreamReader } from '../../lib/io/csv/index.js';
-import { openCaptures } from '../../lib/io/open.js';
+import { csvOptionsWithSettings, CsvStreamReader, detectFileKind, DETECT_HEAD_BYTES, openCaptures } from '../../lib/io/index.js';
 import type { FileBytes, ImportOverrides, ImportProblem } from './protocol.js';
 
 /** Slice read per step: large enough that per-slice overhead is small, small enough to keep memory bounded. */
@@ -26,15 +25,16 @@ export function etaFrom(done: number, total: number, elapsedS: number): number |
 	return (elapsedS * (total - done)) / done;
 }
 
-async function isRiff(f: FileBytes): Promise<boolean> {
-	const head = f.bytes ? new Uint8Array(f.bytes, 0, Math.min(4, f.bytes.byteLength)) : new Uint8Array(await f.blob!.slice(0, 4).arrayBuffer());
-	return head[0] === 0x52 && head[1] === 0x49 && head[2] === 0x46 && head[3] === 0x46;
+/** Whether lib/io reads this file as CSV (its format decided from the head bytes and the name, in one place). */
+async function isCsv(f: FileBytes): Promise<boolean> {
+	const head = f.bytes ? new Uint8Array(f.bytes, 0, Math.min(DETECT_HEAD_BYTES, f.bytes.byteLength)) : new Uint8Array(await f.blob!.slice(0, DETECT_HEAD_BYTES).arrayBuffer());
+	return detectFileKind(f.name, head).kind === 'csv';
 }
 
 /** Streams one CSV through the reader from its blob or bytes, reporting progress per slice. */
 async function streamCsv(f: FileBytes, overrides: ImportOverrides, progress: ReadProgress): Promise<Capture> {
 	const total = f.blob ? f.blob.size : f.bytes!.byteLength;
-	const reader = new CsvStreamReader(f.name, overrides.csv ?? {}, { totalBytes: total });
+	const reader = new CsvStreamReader(f.name, csvOptionsWithSettings(overrides), { totalBytes: total });
 	const t0 = performance.now();
 	let last = -1;
 	for (let at = 0; at < total; at += READ_SLICE_BYTES) {
@@ -55,7 +55,7 @@ export async function readCaptures(files: FileBytes[], overrides: ImportOverride
 	const problems: ImportProblem[] = [];
 	try {
 		const only = files.length === 1 ? files[0] : undefined;
-		if (only && /\.(csv|txt|tsv)$/i.test(only.name) && !(await isRiff(only))) {
+		if (only && (await isCsv(only))) {
 			try {
 				return { captures: [await streamCsv(only, overrides, progress)], problems };
 			} catch (e) {

@@ -71,7 +71,12 @@ let fftjsUs = Infinity;
 
 // warm-up: every code path reaches its optimised tier before anything is timed
 const warmEnd = performance.now() + 1500;
-while (performance.now() < warmEnd) for (const c of cases) batchUs(c.window, 20), batchUs(c.dft, 20);
+while (performance.now() < warmEnd) {
+	for (const c of cases) {
+		batchUs(c.window, 20);
+		batchUs(c.dft, 20);
+	}
+}
 for (let pass = 0; pass < 12; pass++) {
 	for (const c of cases) {
 		c.best = Math.min(c.best, batchUs(c.window, c.reps));

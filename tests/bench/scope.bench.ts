@@ -32,7 +32,10 @@ function writeCapture(): void {
 		const u = (230 * Math.SQRT2 * Math.sin(w)) / 100;
 		const i = 0.1 * (10 * Math.SQRT2 * Math.sin(w - 0.436) + 3 * Math.SQRT2 * Math.sin(3 * (w - 0.436) - 0.52));
 		chunk.push(`${t.toExponential(7)},${(q1 * Math.round(u / q1)).toFixed(5)},${(q2 * Math.round(i / q2)).toFixed(6)}`);
-		if (chunk.length === 100_000) writeSync(fd, chunk.join('\n') + '\n'), (chunk.length = 0);
+		if (chunk.length === 100_000) {
+			writeSync(fd, chunk.join('\n') + '\n');
+			chunk.length = 0;
+		}
 	}
 	if (chunk.length) writeSync(fd, chunk.join('\n') + '\n');
 	closeSync(fd);

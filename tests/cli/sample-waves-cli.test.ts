@@ -24,6 +24,7 @@ interface Truth {
 	}[];
 }
 
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- parsed JSON documents, checked against the schema below
 const docs = new Map<string, any>();
 let code = -1;
 let stderr = '';

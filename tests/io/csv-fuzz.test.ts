@@ -75,7 +75,7 @@ describe('CSV reader fuzz', () => {
 		const edit = fc.tuple(fc.constantFrom('set', 'insert', 'delete'), fc.nat(), fc.integer({ min: 0, max: 255 }));
 		fc.assert(
 			fc.property(validBytes, fc.array(edit, { minLength: 1, maxLength: 6 }), (b, edits) => {
-				let bytes = Array.from(b);
+				const bytes = Array.from(b);
 				for (const [op, at, v] of edits) {
 					const i = at % (bytes.length + 1);
 					if (op === 'set' && i < bytes.length) bytes[i] = v;

@@ -79,7 +79,10 @@ describe('parseCsv: delimiters and decimal marks', () => {
 	it('parseCsv(UTF-16LE text with BOM) reads it like UTF-8', () => {
 		const text = '\uFEFFt,U1\n0,1\n1,2\n2,3\n';
 		const bytes = new Uint8Array(text.length * 2);
-		for (let i = 0; i < text.length; i++) bytes[2 * i] = text.charCodeAt(i) & 0xff, (bytes[2 * i + 1] = text.charCodeAt(i) >> 8);
+		for (let i = 0; i < text.length; i++) {
+			bytes[2 * i] = text.charCodeAt(i) & 0xff;
+			bytes[2 * i + 1] = text.charCodeAt(i) >> 8;
+		}
 		const c = parseCsv(bytes, 'a.csv');
 		expect(values(c, 0)).toEqual([1, 2, 3]);
 		expect(codes(c)).toContain('utf16');
@@ -318,7 +321,7 @@ describe('parseCsv: scaling, quantities and phases', () => {
 		expect(c.channels.map((ch) => [ch.name, ch.quantity, ch.phase])).toEqual([
 			['UL1', 'voltage', 'L1'], ['UL2', 'voltage', 'L2'], ['UL3', 'voltage', 'L3'],
 			['Ia', 'current', 'A'], ['Ib', 'current', 'B'], ['Ic', 'current', 'C'], ['IN', 'current', 'N'],
-			['V_R', 'voltage', 'R'], ['U12', 'voltage', '1-2'],
+			['V_R', 'voltage', 'R'], ['U12', 'voltage', 'L1-L2'], // one form in every format (L1-L2, as COMTRADE and WAV give)
 		]);
 	});
 

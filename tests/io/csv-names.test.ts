@@ -2,7 +2,7 @@
 // table 7: m = 1e-3, k = 1e3, µ = 1e-6, n = 1e-9); letter and phase conventions are common practice.
 import { describe, expect, it } from 'vitest';
 import { parseCsv } from '../../lib/io/csv/parse-csv.js';
-import { isIndexName, isTimeName, minMaxOf, phaseFromName, quantityFromName } from '../../lib/io/csv/names.js';
+import { isIndexName, isTimeName, minMaxOf } from '../../lib/io/csv/names.js';
 import { looksLikeUnitsRow, readUnit, splitNameUnit } from '../../lib/io/csv/units.js';
 
 describe('splitNameUnit', () => {
@@ -43,21 +43,6 @@ describe('readUnit', () => {
 });
 
 describe('channel names', () => {
-	it('quantityFromName(name) reads U/V as voltage and I as current, else null', () => {
-		for (const n of ['U1', 'UL2', 'V_A', 'Voltage L3', 'U12', 'L1-N', 'Spannung L1']) expect(quantityFromName(n), n).toBe('voltage');
-		for (const n of ['I1', 'IL3', 'Ia', 'IN', 'Current', 'Strom L2']) expect(quantityFromName(n), n).toBe('current');
-		for (const n of ['CH1', 'Temp', 'P', 'Probe 3']) expect(quantityFromName(n), n).toBeNull();
-	});
-
-	it('phaseFromName(name) reads the phase schemes and line-to-line pairs', () => {
-		const cases: [string, string | undefined][] = [
-			['U1', '1'], ['UL2', 'L2'], ['UL3-N', 'L3'], ['Ia', 'A'], ['V_B', 'B'], ['IR', 'R'], ['US', 'S'], ['UT', 'T'],
-			['VY', 'Y'], ['IW', 'W'], ['IN', 'N'], ['L1', 'L1'], ['L1-L2', 'L1-L2'], ['Uab', 'A-B'], ['Phase C', 'C'],
-			['U', undefined], ['CH1', undefined], ['Temp', undefined],
-		];
-		for (const [n, ph] of cases) expect(phaseFromName(n), n).toBe(ph);
-	});
-
 	it('isTimeName / isIndexName / minMaxOf recognise time, sample number and envelope columns', () => {
 		for (const n of ['t', 'Time', 'TIME', 'Zeit', 'timestamp', 'x']) expect(isTimeName(n), n).toBe(true);
 		for (const n of ['Sample', 'No.', 'index', '#', 'Sample no']) expect(isIndexName(n), n).toBe(true);

@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Ajv2020 from 'ajv/dist/2020.js';
 import { describe, expect, it } from 'vitest';
-import type { Capture, Channel } from '../../lib/capture.js';
+import type { Capture, Channel, ChannelPhase } from '../../lib/capture.js';
 import { nextStepsCsv } from '../../lib/next-steps/csv.js';
 import { checkSiteInputs } from '../../lib/next-steps/report-section.js';
 import { NEXT_STEP_CAUTION } from '../../lib/next-steps/types.js';
@@ -22,9 +22,9 @@ const VOLTS = [230, 230, 220];
 
 function threePhase(): Capture {
 	const channels: Channel[] = [];
-	for (let k = 0; k < 3; k++) channels.push({ name: `U${k + 1}`, unit: 'V', quantity: 'voltage', phase: `L${k + 1}`, samples: harmonicSamples([{ order: 1, rms: VOLTS[k], phaseDeg: -120 * k }], opts) });
+	for (let k = 0; k < 3; k++) channels.push({ name: `U${k + 1}`, unit: 'V', quantity: 'voltage', phase: `L${k + 1}` as ChannelPhase, samples: harmonicSamples([{ order: 1, rms: VOLTS[k], phaseDeg: -120 * k }], opts) });
 	// 20 A lagging 30° plus an 8 A 3rd (40 %) in phase in all three lines (zero sequence).
-	for (let k = 0; k < 3; k++) channels.push({ name: `I${k + 1}`, unit: 'A', quantity: 'current', phase: `L${k + 1}`, samples: harmonicSamples([{ order: 1, rms: 20, phaseDeg: -120 * k - 30 }, { order: 3, rms: 8 }], opts) });
+	for (let k = 0; k < 3; k++) channels.push({ name: `I${k + 1}`, unit: 'A', quantity: 'current', phase: `L${k + 1}` as ChannelPhase, samples: harmonicSamples([{ order: 1, rms: 20, phaseDeg: -120 * k - 30 }, { order: 3, rms: 8 }], opts) });
 	return { source: 'tallowmere-board.csv', sampleRateHz: FS, startS: 0, channels, metadata: {}, diagnostics: [] };
 }
 

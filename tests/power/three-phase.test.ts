@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ieee1459ThreePhaseFromComponents, phasorAbs, phasorFromPolarDeg, phasorSub, threePhasePowerFromHarmonics, type ComplexPhasor } from '../../lib/power/index.js';
+import { ieee1459ThreePhaseFromComponents, phasorAbs, phasorFromPolarDeg, phasorSub, threePhasePowerFromHarmonics, type ComplexPhasor, type ThreePhaseInputPhase } from '../../lib/power/index.js';
 import { setFromSineTones } from './harmonic-set.js';
 
 const P = phasorFromPolarDeg;
@@ -82,7 +82,7 @@ describe('threePhasePowerFromHarmonics', () => {
 			voltage: setFromSineTones([{ order: 1, rms: 230, phaseDeg: phi }], { maxOrder: 3 }),
 			// a balanced 3rd harmonic is in phase on all three lines (zero sequence): 3·phi ≡ 0
 			current: setFromSineTones([{ order: 1, rms: i1, phaseDeg: phi - 20 }, { order: 3, rms: i3, phaseDeg: 3 * phi + 15 }]),
-		})) as [any, any, any];
+		})) as [ThreePhaseInputPhase, ThreePhaseInputPhase, ThreePhaseInputPhase];
 		const r = threePhasePowerFromHarmonics('4-wire', phases);
 		const ie = Math.sqrt((3 * (i1 * i1 + i3 * i3) + (3 * i3) ** 2) / 3);
 		expect(r.effectiveCurrentA).toBeCloseTo(ie, 9);

@@ -41,7 +41,10 @@ describe('signalWarnings clipping rule', () => {
 		let longest = 0;
 		let max = -Infinity;
 		for (const v of x) max = Math.max(max, v);
-		for (const v of x) (run = v === max ? run + 1 : 0), (longest = Math.max(longest, run));
+		for (const v of x) {
+			run = v === max ? run + 1 : 0;
+			longest = Math.max(longest, run);
+		}
 		expect(longest).toBeGreaterThan(300);
 		const w = signalWarnings(x, 1e6, {});
 		expect(w.find((d) => d.code === 'clipping')).toBeUndefined();

@@ -72,19 +72,19 @@ describe('overlayFor', () => {
 	});
 });
 
-describe('extrasFor groups', () => {
-	it('extrasFor gives IEC harmonic groups that equal the DFT component for a pure harmonic on the grid (all its power in bin k = c·h)', async () => {
+describe('report groups (the UI takes them from the report)', () => {
+	it('analyseCapture gives IEC harmonic groups that equal the DFT component for a pure harmonic on the grid (all its power in bin k = c·h)', async () => {
 		const { harmonicSamples } = await import('../helpers/synth.js');
 		// 230 V fundamental + 11.5 V 5th: synchronised windows put each tone in one bin, so group = subgroup = component
 		const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 30 });
 		const c: Capture = { source: 'g.csv', sampleRateHz: FS, startS: 0, channels: [{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }], metadata: {}, diagnostics: [] };
 		const report = analyseCapture(c);
-		const g = extrasFor(c, report, {}).groups.U1;
+		const g = report.channels[0].groups!;
 		expect(g.harmonicGroupRms[5]).toBeCloseTo(11.5, 6);
 		expect(g.harmonicSubgroupRms[5]).toBeCloseTo(11.5, 6);
 		expect(g.harmonicGroupRms[1]).toBeCloseTo(230, 6);
 		expect(g.interharmonicGroupRms[5]).toBeLessThan(1e-6);
 		// THDG = 11.5 / 230 = 5 % (closed form)
-		expect(g.thdG50Percent).toBeCloseTo(5, 6);
+		expect(report.channels[0].thdVariants!.thdG50Percent).toBeCloseTo(5, 6);
 	});
 });

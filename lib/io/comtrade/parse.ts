@@ -10,7 +10,7 @@ import { type CfgAnalog, type ComtradeConfig, parseComtradeCfg } from './cfg.js'
 import { readComtradeDat } from './dat.js';
 import { checkDatType } from './dat-type.js';
 import { stampDifferenceS } from './stamp.js';
-import { normaliseUnitText, phaseLabel, quantityFromName } from './units.js';
+import { channelPhase, normaliseUnitText, quantityFromName } from '../../channel-identity.js';
 
 export interface ComtradeOptions {
 	/** Report primary (default, what flows in the network) or secondary (what the recorder saw) values. */
@@ -200,8 +200,9 @@ export function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 
 		samples,
 		scaling: { factor, offset, description: `${a.a}·x + ${a.b} ${a.unit}; ${which}${u.factor !== 1 ? `; ×${u.factor} to ${u.unit}` : ''}` },
 	};
-	const ph = phaseLabel(a.phase, a.name);
+	const ph = channelPhase(a.name, a.phase);
 	if (ph) channel.phase = ph;
+	if (a.phase.trim() && !channelPhase('', a.phase)) diagnostics.push({ code: 'comtrade-phase-unread', severity: 'info', line: a.line, message: `Channel ${a.name}: phase field "${a.phase.trim()}" is not a phase label Sinecheck reads (L1, A, R, N, ...); ${ph ? `phase ${ph} taken from the name` : 'no phase set'}.` });
 	return channel;
 }
 

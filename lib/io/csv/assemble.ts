@@ -2,7 +2,7 @@
  * Scanned columns + layout -> Capture: the time base, channels in V and A with their scaling applied,
  * and every detection, assumption and warning as a Diagnostic.
  */
-import type { Capture, Channel, Diagnostic } from '../../capture.js';
+import type { Capture, Channel, ChannelPhase, Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';
 import { setUpChannel } from './channel-setup.js';
 import type { RowScanner } from './scan-rows.js';
@@ -81,7 +81,7 @@ export interface CsvChannelPlan {
 	name: string;
 	unit: string;
 	quantity: Channel['quantity'];
-	phase?: string;
+	phase?: ChannelPhase;
 	factor: number;
 	offset: number;
 	scaling?: Channel['scaling'];

@@ -3,16 +3,17 @@
  * unit, SI unit, quantity, phase, and the scaling value = factor * raw + offset that turns the numbers
  * in the file into V or A. Every step taken is said in a Diagnostic.
  */
-import type { Diagnostic, Quantity } from '../../capture.js';
-import { minMaxOf, phaseFromName, quantityFromName } from './names.js';
+import type { ChannelPhase, Diagnostic, Quantity } from '../../capture.js';
+import { channelPhase, quantityFromName, readUnit } from '../../channel-identity.js';
+import { settingsChain } from '../import-settings.js';
+import { minMaxOf } from './names.js';
 import type { CsvChannelOptions, CsvColumnLayout, CsvLayout, CsvOptions } from './types.js';
-import { readUnit } from './units.js';
 
 export interface ChannelSetup {
 	name: string;
 	unit: string;
 	quantity: Quantity;
-	phase?: string;
+	phase?: ChannelPhase;
 	factor: number;
 	offset: number;
 	/** Empty when the numbers are used as written. */
@@ -94,8 +95,13 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 	}
 	// a voltage probe or VT ratio makes a voltage, a CT a current (a clamp or shunt did so above)
 	if (s.clampMvPerA === undefined && s.shuntOhms === undefined) {
-		if ((s.probeRatio !== undefined || s.vtRatio !== undefined) && s.ctRatio === undefined && quantity !== 'current') (quantity = 'voltage'), (unit = 'V');
-		else if (s.ctRatio !== undefined && quantity !== 'voltage') (quantity = 'current'), (unit = 'A');
+		if ((s.probeRatio !== undefined || s.vtRatio !== undefined) && s.ctRatio === undefined && quantity !== 'current') {
+			quantity = 'voltage';
+			unit = 'V';
+		} else if (s.ctRatio !== undefined && quantity !== 'voltage') {
+			quantity = 'current';
+			unit = 'A';
+		}
 	}
 	if (s.quantity) quantity = s.quantity;
 	if (!quantity) {
@@ -104,7 +110,12 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 	}
 	if (quantity === 'voltage' && unit === '') unit = 'V';
 	if (quantity === 'current' && unit === '') unit = 'A';
-	const phase = phaseFromName(name);
+	const given = { ...options.channels?.[`col${col.index + 1}`], ...options.channels?.[col.name] };
+	if (Object.keys(given).length > 0) {
+		const said = [...(given.name !== undefined ? [`named ${given.name}`] : []), ...settingsChain(given).steps].join(', ');
+		say('channel-from-user', `Channel "${name}": ${said} (set by the user); now in ${unit || 'no unit'}, measures ${quantity}.`);
+	}
+	const phase = channelPhase(name);
 	const mm = minMaxOf(name);
 	if (mm) say('min-max-column', `Channel "${name}" holds the ${mm.which}imum of "${mm.base}" per time step (a peak-detect export), not single samples.`, 'warning');
 	return { name, unit, quantity, phase, factor, offset, description: steps.join(', '), diagnostics };

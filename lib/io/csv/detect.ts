@@ -231,7 +231,7 @@ function readAs(lines: string[], d: Delimiter, mark: Mark): { d: Delimiter; mark
 	if (above >= 0) {
 		const cells = trimTrailingEmpty(splitCells(lines[above].replace(/^\s*(#+|\/\/|%)\s*/, ''), d)).cells;
 		// a names line with commas in it is no evidence for a reading that does not split at commas
-		const commaInNames = d !== ',' && /[A-Za-z0-9)\]]\s*,\s*[A-Za-z(\[]/.test(lines[above]);
+		const commaInNames = d !== ',' && /[A-Za-z0-9)\]]\s*,\s*[A-Za-z([]/.test(lines[above]);
 		if (!commaInNames && cells.length > 0 && cells.every((c) => c.trim() === '' || (!isNumberCell(c, mark) && !isClockCell(c) && !isDateCell(c)))) header = cells.length;
 	}
 	return { d, mark, k, rows, hits, header };

@@ -8,8 +8,8 @@
 import { readFileSync, statSync } from 'node:fs';
 import { extname } from 'node:path';
 import type { OpenOptions } from '../../../lib/io/open.js';
-import { assessSurvey } from '../../../lib/survey/assess.js';
-import { SurveyMergeError, surveyInputFromTrend, type TrendDocument } from '../../../lib/survey/from-trend.js';
+import { assessSurvey } from '../../../lib/survey/index.js';
+import { SurveyMergeError, surveyInputFromTrend, type TrendDocument } from '../../../lib/survey/index.js';
 import type { SurveyStandardId } from '../../../lib/survey/types.js';
 import { collectUnits } from '../collect-files.js';
 import { ERROR_PREFIX, errorLine } from '../error-line.js';

@@ -1,5 +1,5 @@
 /** Text forms of a survey: the readable table, and the JSON document (NaN as null). */
-import { maxOf } from '../../../lib/signal/extremes.js';
+import { maxOf } from '../../../lib/signal/index.js';
 import type { SurveyEventTable, SurveyLine, SurveyResult } from '../../../lib/survey/types.js';
 
 function clock(s: number, clockAligned: boolean): string {

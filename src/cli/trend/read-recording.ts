@@ -14,18 +14,19 @@
 import { closeSync, openSync, readdirSync, readFileSync, readSync, statSync } from 'node:fs';
 import { basename, dirname, extname, join } from 'node:path';
 import type { Capture, Diagnostic } from '../../../lib/capture.js';
-import { cffLayout } from '../../../lib/io/comtrade/cff.js';
-import { parseComtradeCfg } from '../../../lib/io/comtrade/cfg.js';
-import { ComtradeSampleStream, streamableRate } from '../../../lib/io/comtrade/sample-stream.js';
-import { decodeText } from '../../../lib/io/comtrade/text.js';
-import { CsvSampleStream, type SampleSink, type SampleStreamHeader } from '../../../lib/io/csv/sample-stream.js';
-import { ImportError } from '../../../lib/io/import-error.js';
-import { openCapture, type InputFile, type OpenOptions } from '../../../lib/io/open.js';
-import { createTrendAnalyser, type TrendAnalyser } from '../../../lib/trend/analyser.js';
-import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/limits.js';
-import { clockTimeOf } from '../../../lib/trend/clock.js';
+import { cffLayout } from '../../../lib/io/index.js';
+import { parseComtradeCfg } from '../../../lib/io/index.js';
+import { ComtradeSampleStream, streamableRate } from '../../../lib/io/index.js';
+import { decodeText } from '../../../lib/io/index.js';
+import { CsvSampleStream, type SampleSink, type SampleStreamHeader } from '../../../lib/io/index.js';
+import { ImportError } from '../../../lib/io/index.js';
+import { hasImportSettings } from '../../../lib/io/index.js';
+import { csvOptionsWithSettings, DETECT_HEAD_BYTES, detectFileKind, openCapture, type InputFile, type OpenOptions } from '../../../lib/io/index.js';
+import { createTrendAnalyser, type TrendAnalyser } from '../../../lib/trend/index.js';
+import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/index.js';
+import { clockTimeOf } from '../../../lib/trend/index.js';
 import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
-import { isWavHead, openWavStream } from './wav-stream.js';
+import { openWavStream } from './wav-stream.js';
 
 export type AnalyserSettings = Omit<TrendOptions, 'sampleRateHz' | 'channels'>;
 
@@ -163,7 +164,7 @@ function analyseCsv(path: string, source: string, size: number, open: OpenOption
 		return l.timeColumn !== null ? { source, line: l.bodyLine, column: l.timeColumn + 1 } : { source, line: l.headerLine ?? l.bodyLine, column: 0 };
 	};
 	const sink = trendSink(settings, hooks, ratePlace);
-	const stream: CsvSampleStream = new CsvSampleStream(source, open.csv ?? {}, sink, { totalBytes: size, maxChannels: TREND_MAX_CHANNELS, onProgress: (d, t) => hooks.onProgress?.(t > 0 ? d / t : 0) });
+	const stream: CsvSampleStream = new CsvSampleStream(source, csvOptionsWithSettings(open), sink, { totalBytes: size, maxChannels: TREND_MAX_CHANNELS, onProgress: (d, t) => hooks.onProgress?.(t > 0 ? d / t : 0) });
 	streamFile(path, (chunk) => stream.push(chunk));
 	const late = stream.end();
 	const h = sink.header();
@@ -203,8 +204,8 @@ function analyseComtrade(path: string, source: string, open: OpenOptions, settin
 	const datPath = join(dirname(path), datName);
 	if (cfg.analog.length > TREND_MAX_CHANNELS) throw new ImportError(source, 2, 0, 'out-of-range', `${cfg.analog.length} analog channels`, `at most ${TREND_MAX_CHANNELS} channels in one recording`);
 	const rate = streamableRate(cfg);
-	if (!rate) {
-		// several rates, or time stamps only: read whole (bounded), as before
+	if (!rate || hasImportSettings(open.settings)) {
+		// several rates, time stamps only, or import settings (lib/io applies them to the whole capture): read whole (bounded)
 		const companions: InputFile[] = [...found.values()].map((f) => ({ name: besideName(source, f), bytes: f === datName ? readWhole(datPath, datSource) : new Uint8Array(readFileSync(join(dirname(path), f))) }));
 		const capture = openCapture({ name: source, bytes: cfgBytes }, companions, open);
 		capture.source = source;
@@ -235,7 +236,7 @@ function analyseCff(path: string, source: string, size: number, open: OpenOption
 	}
 	const { cfg, dat } = cffLayout(head, source, size);
 	const rate = streamableRate(cfg);
-	if (!rate) return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), settings, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
+	if (!rate || hasImportSettings(open.settings)) return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), settings, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
 	if (cfg.analog.length > TREND_MAX_CHANNELS) throw new ImportError(source, 0, 0, 'out-of-range', `${cfg.analog.length} analog channels`, `at most ${TREND_MAX_CHANNELS} channels in one recording`);
 	const sink = trendSink(settings, hooks, () => ({ source, line: rate.line, column: 1 }));
 	const stream = new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, sink, { line: dat.headerLine, byte: dat.start });
@@ -253,10 +254,10 @@ function analyseCff(path: string, source: string, size: number, open: OpenOption
 export function analyseFile(path: string, source: string, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks = {}): TrendResult {
 	const onProgress = hooks.onProgress;
 	const size = statSync(path).size;
-	const first = head(path, 64);
 	const ext = extname(path).toLowerCase();
-	if (isWavHead(first)) {
-		const wav = openWavStream(path, source, open.wav, BLOCK_FRAMES);
+	const { kind } = detectFileKind(path, head(path, DETECT_HEAD_BYTES));
+	if (kind === 'wav') {
+		const wav = openWavStream(path, source, open.wav, BLOCK_FRAMES, open.settings);
 		try {
 			const h = wav.header;
 			const limit = trendLimitProblem(wav.sampleRateHz, h.channels.length);
@@ -278,10 +279,11 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 			wav.close();
 		}
 	}
-	if (ext === '.cff') return analyseCff(path, source, size, open, settings, hooks);
-	if (ext === '.cfg') return analyseComtrade(path, source, open, settings, hooks);
-	if (ext === '.dat' || ext === '.hdr' || ext === '.inf') {
+	if (kind === 'comtrade-cff') return analyseCff(path, source, size, open, settings, hooks);
+	if (kind === 'comtrade-cfg') return analyseComtrade(path, source, open, settings, hooks);
+	if (kind === 'comtrade-part') {
 		throw new ImportError(source, 0, 0, 'unsupported-format', ext, 'the .cfg file of a COMTRADE record (its .dat is found beside it)');
 	}
+	if (kind === 'binary') throw new ImportError(source, 0, 0, 'unsupported-format', ext, 'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file');
 	return analyseCsv(path, source, size, open, settings, hooks);
 }

@@ -1,8 +1,8 @@
 /** Text forms of trend results: CSV lines of aggregate rows, the JSON document, one-line event text. */
-import { csvCell } from '../../../lib/report/csv-cell.js';
+import { csvCell } from '../../../lib/report/index.js';
 import type { TrendChannelSpec, TrendEvent, TrendResult, TrendRow } from '../../../lib/trend/types.js';
 import type { TrendFlicker } from '../../../lib/trend/flicker-tracker.js';
-import { maxOf } from '../../../lib/signal/extremes.js';
+import { maxOf } from '../../../lib/signal/index.js';
 
 /** CSV cell: the shared formula guard and RFC 4180 quoting (lib/report/csv-cell.ts). */
 const cell = (text: string): string => csvCell(text);

@@ -7,8 +7,10 @@
  */
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import type { Capture } from '../../../lib/capture.js';
-import { ImportError } from '../../../lib/io/import-error.js';
-import { parseWav, type WavOptions } from '../../../lib/io/wav.js';
+import { ImportError } from '../../../lib/io/index.js';
+import { applyImportSettings, type ImportSettings } from '../../../lib/io/index.js';
+import { detectFileKind } from '../../../lib/io/index.js';
+import { parseWav, type WavOptions } from '../../../lib/io/index.js';
 
 export interface WavStream {
 	/** Channel names, units, quantities, scaling and diagnostics (samples hold one frame only). */
@@ -24,26 +26,22 @@ export interface WavStream {
 
 const HEAD_BYTES = 1 << 16;
 
-/** True when the first bytes look like a RIFF WAVE file. */
-export function isWavHead(b: Uint8Array): boolean {
-	return b.length >= 12 && (ascii(b, 0) === 'RIFF' || ascii(b, 0) === 'RIFX') && ascii(b, 8) === 'WAVE';
-}
-
 function ascii(b: Uint8Array, at: number): string {
 	return String.fromCharCode(b[at], b[at + 1], b[at + 2], b[at + 3]);
 }
 
 /**
- * Opens a WAV file for streaming.
- * @throws ImportError 'bad-wav' (line 0, column = byte offset + 1) as parseWav does
+ * Opens a WAV file for streaming; the import settings (scale, unit, quantity, rate) are applied as
+ * lib/io applies them to a whole WAV capture, so the streamed values and diagnostics are the same.
+ * @throws ImportError 'bad-wav' (line 0, column = byte offset + 1) as parseWav does; 'bad-option' from the settings
  */
-export function openWavStream(path: string, source: string, options: WavOptions = {}, frameBlock = 65_536): WavStream {
+export function openWavStream(path: string, source: string, options: WavOptions = {}, frameBlock = 65_536, settings?: ImportSettings): WavStream {
 	const fd = openSync(path, 'r');
 	try {
 		const size = fstatSync(fd).size;
 		const head = Buffer.alloc(Math.min(size, HEAD_BYTES));
 		readSync(fd, head, 0, head.length, 0);
-		if (!isWavHead(head)) throw new ImportError(source, 0, 1, 'bad-wav', head.subarray(0, 4).toString('latin1'), "'RIFF' ... 'WAVE' at the start of a WAV file");
+		if (head.length < 12 || detectFileKind('', head).kind !== 'wav') throw new ImportError(source, 0, 1, 'bad-wav', head.subarray(0, 4).toString('latin1'), "'RIFF' ... 'WAVE' at the start of a WAV file");
 		if (ascii(head, 0) === 'RIFX') throw new ImportError(source, 0, 1, 'bad-wav', 'RIFX', 'a little-endian RIFF file for streaming (big-endian RIFX is not streamed)');
 		// Walk the chunks up to 'data' in the head; chunks after the data (often LIST/INFO) are read from the tail.
 		let p = 12;
@@ -91,7 +89,8 @@ export function openWavStream(path: string, source: string, options: WavOptions 
 		dataHeader.writeUInt32LE(firstFrame.length, 4);
 		const mini = Buffer.concat([head.subarray(0, dataAt - 8), tail, dataHeader, firstFrame, Buffer.alloc(firstFrame.length & 1)]);
 		mini.writeUInt32LE(mini.length - 8, 4);
-		const header = parseWav(new Uint8Array(mini.buffer, mini.byteOffset, mini.length), source, options);
+		const read = parseWav(new Uint8Array(mini.buffer, mini.byteOffset, mini.length), source, options);
+		const header = settings ? applyImportSettings({ ...read, format: 'wav' }, settings) : read;
 		if (dataAt + head.readUInt32LE(dataAt - 4) > size) {
 			header.diagnostics.push({ code: 'wav-truncated', severity: 'warning', message: `The data chunk is shorter than its header says; the ${frames} whole sample frames present are read.` });
 		}
@@ -109,7 +108,7 @@ export function openWavStream(path: string, source: string, options: WavOptions 
 		let open = true;
 		return {
 			header,
-			sampleRateHz: fmt.rate,
+			sampleRateHz: header.sampleRateHz,
 			channelCount: nCh,
 			frames,
 			read(out: Float64Array[]): number {

@@ -40,6 +40,8 @@ export class RecentFiles {
 	}
 
 	/** Puts `name` first (dropping an older entry of the same name), keeps at most RECENT_MAX. */
+	// a time stamp turned into text at once, not reactive state
+	// eslint-disable-next-line svelte/prefer-svelte-reactivity
 	add(name: string, when: Date = new Date()): void {
 		const next = [{ name, openedAt: when.toISOString() }, ...this.entries.filter((e) => e.name !== name)].slice(0, RECENT_MAX);
 		this.entries = next;

@@ -3,6 +3,7 @@
  * options, progress and errors. Every figure comes from the worker (lib/); this class only keeps state.
  */
 import type { Capture } from '../../../lib/capture.js';
+import { applyLimits, LIMIT_STEP_OPTIONS } from '../../../lib/report/index.js';
 import type { AnalysisOptions, AnalysisReport, ReportLimitTableId } from '../../../lib/report/types.js';
 import { groupFiles, groupLabel } from '../files.js';
 import type { FileBytes, ImportOverrides, ImportProblem, ReportExtras } from '../protocol.js';
@@ -172,11 +173,16 @@ export class Session {
 		await this.#load(key);
 	}
 
-	/** Re-analyses a capture with changed options (reference channel, limits, span, window). */
+	/** Re-analyses a capture with changed options (reference channel, span, window); limit options only re-run the limit step. */
 	async reanalyse(key: string, patch: Partial<AnalysisOptions>): Promise<void> {
 		const item = this.#get(key);
 		if (!item || !item.capture) return;
 		const analysis = { ...item.analysis, ...patch };
+		if (item.report && Object.keys(patch).every((k) => (LIMIT_STEP_OPTIONS as readonly string[]).includes(k))) {
+			// limit evaluation is a pure function of the report: no new analysis, nothing to wait for
+			this.#replace(key, { analysis, report: applyLimits($state.snapshot(item.report) as AnalysisReport, analysis) });
+			return;
+		}
 		this.#replace(key, { analysis });
 		this.progress = { stage: `Analysing ${item.label}`, fraction: null };
 		try {
@@ -191,11 +197,13 @@ export class Session {
 		}
 	}
 
-	/** Sets the limit table for every capture and re-analyses the one shown. */
+	/** Sets the limit table for every capture: lib/report's limit step on each report there is (instant, no new analysis). */
 	async setLimits(id: ReportLimitTableId | undefined): Promise<void> {
 		this.limits = id;
-		this.items = this.items.map((c) => ({ ...c, analysis: { ...c.analysis, limits: id } }));
-		if (this.selected?.capture) await this.reanalyse(this.selected.key, { limits: id });
+		this.items = this.items.map((c) => {
+			const analysis = { ...c.analysis, limits: id };
+			return { ...c, analysis, report: c.report ? applyLimits($state.snapshot(c.report) as AnalysisReport, analysis) : c.report };
+		});
 	}
 
 	select(key: string): void {
