@@ -12,6 +12,7 @@ import { chooseReference } from '../../lib/report/reference.js';
 import { channelSpectrum, planWindows } from '../../lib/report/spectra.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
 import { analyseTrend } from '../../lib/trend/analyse-capture.js';
+import { eventsCountedOnce } from '../../lib/report/events.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
 import { minOf } from '../../lib/signal/extremes.js';
 
@@ -37,6 +38,8 @@ export function trendFor(capture: Capture): TrendView | null {
 				values[channel].push(rmsV);
 			},
 		});
+		// each all-phase interruption once, as the analysis report counts it (not also as the dip containing it)
+		result.events = eventsCountedOnce(result.events);
 		const used = capture.channels.map((c, k) => ({ c, k })).filter(({ k }) => values[k].length > 0);
 		const n = minOf(used.map(({ k }) => values[k].length));
 		const first = used[0]?.k ?? 0;
