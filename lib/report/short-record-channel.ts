@@ -52,7 +52,7 @@ export function fittedChannel(base: ReportChannel, samples: Float64Array, sample
 		thdRPercent: thdRPercent(rmsByOrder, thdOrder),
 		thdMaxOrder: thdOrder,
 		kFactor: ulKFactor(rmsByOrder, thdOrder),
-		averageResponding: meterModel(samples, figs, window),
+		averageResponding: whole ? meterModel(samples, figs, window) : { coupling: 'ac', reading: NaN, trueRms: NaN, errorPercent: NaN, dcCoupled: { reading: NaN, trueRms: NaN, errorPercent: NaN }, dcMatters: false },
 		intervals: null,
 		harmonics: set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })),
 		groups: null,
