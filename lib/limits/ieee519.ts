@@ -81,6 +81,6 @@ export const IEEE519_TABLE: Ieee519Table = {
 		'All power-generation equipment is limited to the I_SC/I_L < 20 row whatever its actual ratio.',
 		'Current distortion that results in a DC offset (e.g. half-wave converters) is not allowed.',
 		'I_L is the maximum demand load current (fundamental) at the PCC: the average of the 12 previous monthly maximum demands.',
-		'Table 2 covers 120 V to 69 kV; Tables 3 and 4 (higher voltages) are from memory and need checking against the standard.',
+		'Table 2 covers 120 V to 69 kV; Tables 3 and 4 cover higher bus voltages.',
 	],
 };

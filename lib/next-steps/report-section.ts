@@ -43,7 +43,8 @@ function pfStep(r: AnalysisReport, site: SiteInputs): NextStep {
 	const title = 'Power-factor correction';
 	const pairs = r.power.filter((p) => Number.isFinite(p.displacementPowerFactor));
 	if (pairs.length === 0) return notApplicable('power-factor-correction', title, 'No voltage and current pair with a fundamental: the recording gives no power factor.', []);
-	const phases = pairs.map((p) => ({ label: `${p.voltage} × ${p.current}`, activeW: p.activeW, fundamentalActiveW: p.ieee1459.fundamentalActivePowerW ?? NaN, displacementPowerFactor: p.displacementPowerFactor, powerFactor: p.powerFactor, character: p.character }));
+	// the report's character is null where the current is no sine; the correction arithmetic still needs the direction (relation)
+	const phases = pairs.map((p) => ({ label: `${p.voltage} × ${p.current}`, activeW: p.activeW, fundamentalActiveW: p.ieee1459.fundamentalActivePowerW ?? NaN, displacementPowerFactor: p.displacementPowerFactor, powerFactor: p.powerFactor, character: p.character ?? (p.relation === 'leads' ? 'capacitive' : p.relation === 'lags' ? 'inductive' : null) }));
 	const currents = currentChannels(r).map((c) => ({ channel: c.name, percentByOrder: c.harmonics.map((h) => h.percentOfFundamental) }));
 	return powerFactorCorrection(phases, currents, site) as unknown as NextStep;
 }

@@ -8,10 +8,16 @@ import { findWholeCycles } from '../signal/cycles.js';
 import { waveformFigures } from '../signal/levels.js';
 import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
-import { digitalSummary, meterExplanation, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
+import { captureEvents } from './events.js';
+import { digitalSummary, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
+import { channelIntervals, flaggedSlots, powerFactorIntervals } from './intervals.js';
 import { applyLimits } from './limits-report.js';
 import { flickerReport } from './flicker-report.js';
 import { checkSiteInputs, nextStepsSection } from '../next-steps/report-section.js';
+import { loadWords } from './load-words.js';
+import { meterExplanation } from './meter-explanation.js';
+import { meterModel, shapeFigures } from './meter.js';
+import { VERDICT_THRESHOLDS } from './thresholds.js';
 import { chooseReference } from './reference.js';
 import { channelResolution } from '../signal/code-step.js';
 import { fittedPairs, fittedPower, fitShortRecord, FITTED_NOTE } from './short-record.js';
@@ -40,6 +46,8 @@ function checkOptions(o: AnalysisOptions): void {
 	if (o.ieee519Edition !== undefined && o.ieee519Edition !== '2014' && o.ieee519Edition !== '2022') throw new RangeError(`ieee519Edition must be '2014' or '2022', got ${String(o.ieee519Edition)}`);
 	if (o.site !== undefined) checkSiteInputs(o.site);
 	if (o.maxOrder !== undefined && !(Number.isInteger(o.maxOrder) && o.maxOrder >= 1)) throw new RangeError(`maxOrder must be a whole number >= 1, got ${o.maxOrder}`);
+	if (o.harmonicBasis !== undefined && o.harmonicBasis !== 'standard' && o.harmonicBasis !== 'single-bins') throw new RangeError(`harmonicBasis must be 'standard' or 'single-bins', got ${String(o.harmonicBasis)}`);
+	positive('declaredV', o.declaredV);
 }
 
 /**
@@ -95,6 +103,8 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	} else if (window && slots.length * windowCycles < window.cycles) {
 		assumptions.push(`Harmonics from ${slots.length} window(s) of ${windowCycles} cycles; the last ${window.cycles - slots.length * windowCycles} cycle(s) are not in a full window.`);
 	}
+	const ev = captureEvents(capture, nominalHz, options.declaredV);
+	const flagged = flaggedSlots(slots, fs, ev.events?.events ?? []);
 	const spectra: (ChannelSpectrum | undefined)[] = capture.channels.map((c) => (slots.length > 0 ? channelSpectrum(c.samples, fs, slots, maxOrder) : undefined));
 
 	const wholeRecord: ReportChannel[] = capture.channels.map((c, i) => {
@@ -107,6 +117,11 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		const h1 = rmsByOrder[1] ?? NaN;
 		const thdOrder = Math.min(maxOrder, MAX_HARMONIC_ORDER, agg?.highestValidOrder ?? MAX_HARMONIC_ORDER);
 		const chWarnings = figs.warnings.map((d) => d.message);
+		const meter = meterModel(c.samples, figs, window && span === 'whole-cycles' ? window : undefined);
+		const shape = shapeFigures(figs);
+		const intervals = channelIntervals(c.samples, fs, slots, flagged);
+		// the whole-record error differs from every interval's: levels changed over the record
+		const levelChanges = intervals !== null && intervals.count >= 2 && Math.abs(intervals.meterErrorPercent.worst - meter.errorPercent) >= 0.05;
 		return {
 			name: c.name,
 			unit: c.unit,
@@ -119,15 +134,16 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			peak: figs.peak,
 			peakNegative: figs.peakNegative,
 			peakToPeak: figs.peakToPeak,
-			crestFactor: figs.crestFactor,
-			formFactor: figs.formFactor,
+			crestFactor: shape.crestFactor,
+			formFactor: shape.formFactor,
 			frequencyHz: channelHz,
 			thdPercent: set ? thdFPercent(rmsByOrder, thdOrder) : NaN,
 			thdRPercent: set ? thdRPercent(rmsByOrder, thdOrder) : NaN,
 			thdMaxOrder: thdOrder,
 			kFactor: set ? ulKFactor(rmsByOrder, thdOrder) : NaN,
 			tddPercent: set && c.quantity === 'current' && options.ilA !== undefined ? tddPercent(rmsByOrder, options.ilA, thdOrder) : NaN,
-			averageResponding: { reading: figs.averageResponding.reading, errorPercent: figs.averageResponding.errorPercent, ...(spectra[i] ? { explanation: meterExplanation(spectra[i], c.unit) } : {}) },
+			averageResponding: { ...meter, ...(set ? { explanation: meterExplanation(set, meter, c.unit, undefined, levelChanges) } : {}) },
+			intervals,
 			harmonics: set ? set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })) : [],
 			groups: agg
 				? {
@@ -171,6 +187,9 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		neutral: null,
 		digital: digitalSummary(capture),
 		shortRecord: fitted?.info ?? null,
+		events: null,
+		findings: [],
+		thresholds: Object.values(VERDICT_THRESHOLDS),
 	};
 	if (window && ref.index >= 0) {
 		const phasors = alignedFundamentals(spectra, ref.index);
@@ -178,7 +197,12 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		report.pairs = pairsAgainstReference(capture, ref.index, phasors, powerWindow);
 		const pairing = pairChannels(capture.channels, options.pairs);
 		assumptions.push(...pairing.assumptions);
-		report.power = pairing.pairs.map((p) => pairPower(capture, p, spectra, powerWindow));
+		report.power = pairing.pairs.map((p) => {
+			const pw = pairPower(capture, p, spectra, powerWindow);
+			const words = loadWords(pw.displacementPowerFactor, pw.reactiveVar, channels[p.current].thdPercent);
+			const pfIntervals = powerFactorIntervals(capture.channels[p.voltage].samples, capture.channels[p.current].samples, fs, slots, flagged);
+			return { ...pw, character: words.character, relation: words.relation, loadSentence: words.sentence, powerFactorIntervals: pfIntervals };
+		});
 		const three = threePhaseSets(capture.channels, pairing.pairing, phasors);
 		assumptions.push(...three.assumptions);
 		report.threePhaseSets = three.sets;
@@ -200,7 +224,10 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	}
 	report.flicker = flickerReport(capture, nominalHz, options.nominalV, undefined);
 	report.nextSteps = nextStepsSection(report, options.site);
-	// the limit step after the analysis (a pure function of the report; the UI re-runs it alone)
+	report.events = ev.events;
+	assumptions.push(...ev.notes);
+	// the limit step after the analysis (a pure function of the report; the UI re-runs it alone), then the
+	// findings, which read the limits (applyLimits rebuilds them)
 	return applyLimits(report, options);
 }
 

@@ -6,7 +6,12 @@ import { csvCell, csvNumberCell } from './csv-cell.js';
 import type { ReportJson } from './to-json.js';
 import { maxOf } from '../signal/extremes.js';
 
-/** Column names of the CSV summary, in order (SI units; names follow the JSON contract). */
+/**
+ * Column names of the CSV summary, in order (SI units; names follow the JSON contract). The average-
+ * responding columns are the AC-coupled meter (see lib/report/meter.ts); `limitsBasis` names the harmonic
+ * values the limits were judged on; dips/swells/interruptions count the voltage events each voltage
+ * channel took part in (each event once); the worst-interval columns are per 10/12-cycle interval.
+ */
 export const CSV_SUMMARY_COLUMNS = [
 	'file',
 	'channel',
@@ -34,6 +39,12 @@ export const CSV_SUMMARY_COLUMNS = [
 	// highest instantaneous flicker Pinst (not a Pst; given for records shorter than 10 minutes too)
 	'pstMax',
 	'pinstMax',
+	'limitsBasis',
+	'dips',
+	'swells',
+	'interruptions',
+	'worstIntervalMeterErrorPercent',
+	'worstIntervalCrestFactor',
 ] as const;
 
 /** A text cell made safe for spreadsheets and quoted per RFC 4180 when needed (see csv-cell.ts). */
@@ -58,6 +69,13 @@ export function reportsToCsv(reports: ReportJson[]): string {
 	const lines = [csvSummaryHeader()];
 	for (const r of reports) lines.push(...csvSummaryRows(r));
 	return lines.join('\r\n') + '\r\n';
+}
+
+/** Dips, swells and interruptions this channel took part in (empty cells for a channel that is no voltage, or without events analysis). */
+function eventCounts(report: ReportJson, name: string, quantity: string): string[] {
+	if (!report.events || quantity !== 'voltage') return ['', '', ''];
+	const on = report.events.events.filter((e) => e.kind === 'interruption' || e.channels.includes(name));
+	return (['dip', 'swell', 'interruption'] as const).map((k) => String(on.filter((e) => e.kind === k).length));
 }
 
 function rowOf(report: ReportJson, c: ReportJson['channels'][number]): string {
@@ -90,6 +108,10 @@ function rowOf(report: ReportJson, c: ReportJson['channels'][number]): string {
 		csvTextCell(limitsPass),
 		csvNumberCell(fl && fl.pst.length > 0 ? maxOf(fl.pst.map((p) => p.pst ?? NaN)) : NaN),
 		csvNumberCell(fl?.pinst.max),
+		csvTextCell(report.limits ? report.limits.basis.kind : ''),
+		...eventCounts(report, c.name, c.quantity),
+		csvNumberCell(c.intervals?.meterErrorPercent.worst),
+		csvNumberCell(c.intervals?.crestFactor.worst),
 	];
 	return cells.join(',');
 }

@@ -1,6 +1,6 @@
 /**
  * Figures the report carries beyond the listed contract, each from its library area: the worst cycle of
- * a channel, why an average-responding meter misreads it, IEEE 1459 three-phase power and the neutral
+ * a channel, IEEE 1459 three-phase power and the neutral
  * current of a three-phase current set.
  */
 import type { Capture } from '../capture.js';
@@ -10,7 +10,6 @@ import { threePhasePowerFromHarmonics, type ThreePhaseInputPhase } from '../powe
 import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
 import type { CycleWindow } from '../signal/cycles.js';
 import { perCycleFigures } from '../signal/per-cycle.js';
-import { averageMeterExplanation } from '../spectrum/average-meter.js';
 import { channelSpectrum, type ChannelSpectrum, type WindowSlot } from './spectra.js';
 import type { ReportDigital, ReportNeutral, ReportThreePhasePower, ReportWorstCycle } from './types.js';
 import { minOf } from '../signal/extremes.js';
@@ -28,13 +27,6 @@ export function worstCycle(samples: Float64Array, window: CycleWindow, sampleRat
 		peakStartS: p.worstPeakCycle >= 0 ? p.startIndex[p.worstPeakCycle] / sampleRateHz : NaN,
 		lowestRms: p.rms.length > 0 ? minOf(p.rms) : NaN,
 	};
-}
-
-/** The spectrum's account of the average-responding meter's error: a summary and the orders behind it. */
-export function meterExplanation(spectrum: ChannelSpectrum | undefined, unit: string): { summary: string; reasons: string[] } | undefined {
-	if (!spectrum) return undefined;
-	const e = averageMeterExplanation(spectrum.aggregate.set, unit);
-	return { summary: e.summary, reasons: e.reasons.map((r) => r.text) };
 }
 
 /**

@@ -27,3 +27,12 @@ export { CSV_SUMMARY_COLUMNS, csvTextCell, csvNumberCell, csvSummaryHeader, csvS
 export { flickerReport, type ReportFlicker, type ReportFlickerChannel } from './flicker-report.js';
 export { csvCell, startsLikeFormula } from './csv-cell.js';
 export { chooseReference } from './reference.js';
+export { reportFindings, lagSentence, LIMIT_TABLE_NAMES, type ReportFinding, type FindingLevel } from './findings.js';
+export { VERDICT_THRESHOLDS, threshold, type VerdictThreshold, type VerdictThresholdId } from './thresholds.js';
+export { captureEvents, eventsCountedOnce, foldInterruptions, type ReportEvent, type ReportEvents } from './events.js';
+export { classifyEvents, type ReportEventTable } from './events-table.js';
+export { eventLine } from './event-findings.js';
+export { limitBasis, type ReportLimitBasis, type ReportHarmonicBasis } from './limits-basis.js';
+export { meterModel, shapeFigures, type MeterModel, type MeterReading } from './meter.js';
+export { intervalsDiffer, type ChannelIntervals, type IntervalFigure } from './intervals.js';
+export { numberWords, PLAIN_WORDS, type NumberWords } from './words.js';

@@ -5,6 +5,8 @@
 import { evaluateLimits, LIMIT_TABLES } from '../limits/evaluate.js';
 import { evaluateFlickerLimits, type FlickerLimitTableId, type FlickerMeasured } from '../limits/flicker.js';
 import type { LimitEvaluation } from '../limits/types.js';
+import { reportFindings } from './findings.js';
+import { limitBasis } from './limits-basis.js';
 import type { ReportFlicker, ReportFlickerChannel } from './flicker-report.js';
 import type { AnalysisOptions, AnalysisReport, ReportChannel, ReportLimitRow, ReportLimits, ReportLimitTableId } from './types.js';
 import { maxOf } from '../signal/extremes.js';
@@ -25,14 +27,21 @@ function rowsOf(channel: string, e: LimitEvaluation): { rows: ReportLimitRow[]; 
 			limit: c.limitPercent,
 			margin: c.marginPercent,
 			pass: c.pass,
-			source: c.provenance ? `${c.source} (${c.provenance})` : c.source,
+			// standard and table only: how a value was obtained (provenance) stays in lib/limits and its docs
+			source: c.source,
 		});
 	}
 	return { rows, unmeasured };
 }
 
-function percents(c: ReportChannel): number[] {
-	return c.harmonics.map((h) => h.percentOfFundamental);
+/** RMS per order on the chosen basis: harmonic subgroups (default) or the single DFT bins. */
+function rmsByOrder(c: ReportChannel, singleBins: boolean): number[] {
+	return !singleBins && c.groups ? c.groups.harmonicSubgroupRms : c.harmonics.map((h) => h.rms);
+}
+
+function percents(c: ReportChannel, singleBins: boolean): number[] {
+	const rms = rmsByOrder(c, singleBins);
+	return rms.map((x) => (rms[1] > 0 ? (100 * x) / rms[1] : NaN));
 }
 
 /**
@@ -43,11 +52,14 @@ function percents(c: ReportChannel): number[] {
  * voltage RMS, said in the notes); currents use Tables 2–4 by options.iscIl (required for them), in % of
  * I_L = options.ilA, or of the measured fundamental when I_L is not given (said in the notes: TDD then
  * equals THD, the worst case for a load running at its maximum demand).
- * Ref: lib/limits tables (each row carries its source); REFERENCE.md §4.
+ * Values per order on the basis the table's standard uses (limits-basis.ts), single DFT bins on request.
+ * Ref: lib/limits tables (each row carries its source).
  */
 export function limitsReport(report: AnalysisReport, options: AnalysisOptions): ReportLimits {
 	const id = options.limits!;
 	const table = LIMIT_TABLES[id];
+	const basis = limitBasis(id, options.harmonicBasis ?? 'standard');
+	const singleBins = basis.kind === 'single-bins';
 	const notes: string[] = [];
 	const rows: ReportLimitRow[] = [];
 	const measured = report.channels.filter((c) => c.harmonics.length > 1);
@@ -55,8 +67,8 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 	let busVoltageV = options.nominalV;
 	if (id === 'ieee519' && busVoltageV === undefined) {
 		const vmax = Math.max(0, maxOf(measured.filter((c) => c.quantity === 'voltage').map((c) => c.rms).filter(Number.isFinite)));
-		busVoltageV = vmax > 0 ? Math.sqrt(3) * vmax : 400;
-		notes.push(`Bus voltage for the IEEE 519 row taken as ${busVoltageV.toFixed(0)} V (${vmax > 0 ? '√3 × the highest measured voltage' : 'no voltage channel: a low-voltage bus assumed'}); give --nominal to set it.`);
+		busVoltageV = vmax > 0 ? Math.round(Math.sqrt(3) * vmax) : 400;
+		notes.push(`Bus voltage for the IEEE 519 row taken as ${busVoltageV} V (${vmax > 0 ? '√3 × the highest measured voltage' : 'no voltage channel: a low-voltage bus assumed'}); set the nominal voltage to choose the row.`);
 	}
 	let firstEvaluation: LimitEvaluation | undefined;
 	const add = (name: string, e: LimitEvaluation) => {
@@ -68,16 +80,18 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 	};
 	for (const c of measured) {
 		if (c.quantity === 'voltage') {
-			add(c.name, evaluateLimits(id, id === 'ieee519' ? { quantity: 'voltage', percentOfFundamental: percents(c), busVoltageV } : { percentOfFundamental: percents(c) }));
+			const pct = percents(c, singleBins);
+			add(c.name, evaluateLimits(id, id === 'ieee519' ? { quantity: 'voltage', percentOfFundamental: pct, busVoltageV } : { percentOfFundamental: pct }));
 		} else if (c.quantity === 'current' && id === 'ieee519') {
 			if (options.iscIl === undefined) {
-				notes.push(`${c.name}: IEEE 519 current limits need the ratio I_SC/I_L (--isc-il); not evaluated.`);
+				notes.push(`${c.name}: IEEE 519 current limits need the ratio of short-circuit current to maximum demand current (I_SC/I_L) at the point of common coupling; not evaluated.`);
 				continue;
 			}
-			const i1 = c.harmonics[1].rms;
+			const rms = rmsByOrder(c, singleBins);
+			const i1 = rms[1];
 			const ilA = options.ilA ?? i1;
-			if (options.ilA === undefined) notes.push(`${c.name}: I_L taken as the measured fundamental ${i1.toFixed(3)} A (give --il, the maximum demand current); TDD then equals THD.`);
-			const percentOfIl = c.harmonics.map((h) => (100 * h.rms) / ilA);
+			if (options.ilA === undefined) notes.push(`${c.name}: I_L taken as the measured fundamental ${i1.toPrecision(4)} A (give the maximum demand current to use it instead); TDD then equals THD.`);
+			const percentOfIl = rms.map((x) => (100 * x) / ilA);
 			add(c.name, evaluateLimits(id, { quantity: 'current', percentOfIl, busVoltageV, iscIlRatio: options.iscIl, edition: options.ieee519Edition ?? '2022' }));
 		} else {
 			notes.push(`${c.name}: ${table.name} sets no limits for a ${c.quantity} channel; not evaluated.`);
@@ -85,7 +99,7 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 	}
 	if (rows.length === 0) notes.push('Nothing was evaluated against the table.');
 	if (firstEvaluation) notes.push(...firstEvaluation.notes, firstEvaluation.complianceNote);
-	return { table: id, title: `${table.name} (${table.source})`, pass: rows.every((r) => r.pass), rows, notes: [...new Set(notes)] };
+	return { table: id, title: `${table.name} (${table.source})`, basis, pass: rows.every((r) => r.pass), rows, notes: [...new Set(notes)] };
 }
 
 /** The analysis options only the limit step reads: changing them needs no new analysis (nominalV also sets flicker's Un: not here). */
@@ -122,5 +136,7 @@ function flickerWithLimits(f: ReportFlicker, id: ReportLimitTableId | undefined)
 export function applyLimits(report: AnalysisReport, options: AnalysisOptions): AnalysisReport {
 	const { limits: _previous, ...rest } = report;
 	if (rest.flicker) rest.flicker = flickerWithLimits(rest.flicker, options.limits);
-	return options.limits ? { ...rest, limits: limitsReport(report, options) } : rest;
+	const out: AnalysisReport = options.limits ? { ...rest, limits: limitsReport(report, options) } : rest;
+	out.findings = reportFindings(out);
+	return out;
 }

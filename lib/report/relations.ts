@@ -85,7 +85,7 @@ export function pairPower(
 	pair: PairingResult['pairs'][number],
 	spectra: (ChannelSpectrum | undefined)[],
 	window: PowerSampleWindow,
-): ReportPower {
+): Omit<ReportPower, 'relation' | 'loadSentence' | 'powerFactorIntervals'> {
 	const v = capture.channels[pair.voltage];
 	const i = capture.channels[pair.current];
 	const sv = spectra[pair.voltage];

@@ -3,6 +3,7 @@
  * (or withheld when the record holds less than one), harmonics and THD from the fit. And, for every
  * record, harmonics under the channel's rounding floor marked as below resolution.
  */
+import { meterModel, shapeFigures } from './meter.js';
 import type { CycleWindow } from '../signal/cycles.js';
 import type { ChannelResolution } from '../signal/code-step.js';
 import { waveformFigures } from '../signal/levels.js';
@@ -44,14 +45,15 @@ export function fittedChannel(base: ReportChannel, samples: Float64Array, sample
 		rms,
 		acRms: whole ? figs.acRms : Math.sqrt(Math.max(0, modelSquares - fitted.dc * fitted.dc)),
 		rectifiedMean: whole ? figs.rectifiedMean : NaN,
-		crestFactor: whole ? figs.crestFactor : NaN,
-		formFactor: whole ? figs.formFactor : NaN,
+		crestFactor: whole ? shapeFigures(figs).crestFactor : NaN,
+		formFactor: whole ? shapeFigures(figs).formFactor : NaN,
 		frequencyHz: r.fit.frequencyHz,
 		thdPercent: thdFPercent(rmsByOrder, thdOrder),
 		thdRPercent: thdRPercent(rmsByOrder, thdOrder),
 		thdMaxOrder: thdOrder,
 		kFactor: ulKFactor(rmsByOrder, thdOrder),
-		averageResponding: whole ? { reading: figs.averageResponding.reading, errorPercent: figs.averageResponding.errorPercent } : { reading: NaN, errorPercent: NaN },
+		averageResponding: whole ? meterModel(samples, figs, window) : { coupling: 'ac', reading: NaN, trueRms: NaN, errorPercent: NaN, dcCoupled: { reading: NaN, trueRms: NaN, errorPercent: NaN }, dcMatters: false },
+		intervals: null,
 		harmonics: set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })),
 		groups: null,
 		thdVariants: null,

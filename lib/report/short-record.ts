@@ -3,6 +3,8 @@
  * less) gets its frequency, fundamentals, harmonics, lag and power from one least-squares sine fit shared
  * by all its channels (lib/signal/sine-fit.ts), every figure marked as fitted with its uncertainty.
  */
+import { loadWords } from './load-words.js';
+import { thdFPercent } from '../spectrum/thd.js';
 import type { Capture } from '../capture.js';
 import type { ChannelResolution } from '../signal/code-step.js';
 import { fitSharedSine, type SineFit } from '../signal/sine-fit.js';
@@ -135,7 +137,11 @@ export function fittedPower(capture: Capture, r: ShortRecordResult, overrides: P
 			reactiveVar: q.fundamentalReactivePowerVar,
 			powerFactor: q.powerFactor,
 			displacementPowerFactor: q.displacementPowerFactor,
-			character: ch.character === 'undetermined' ? null : ch.character,
+			...(() => {
+				const cur = r.sets[p.current].orders.map((o) => (Number.isNaN(o.rms) ? 0 : o.rms));
+				const words = loadWords(q.displacementPowerFactor, q.fundamentalReactivePowerVar, thdFPercent(cur, Math.min(50, r.fit.highestOrder)));
+				return { character: ch.character === 'undetermined' ? null : words.character, relation: words.relation, loadSentence: words.sentence, powerFactorIntervals: null };
+			})(),
 			ieee1459: all,
 			pairedBy: p.pairedBy,
 			phase: p.phase,

@@ -10,6 +10,14 @@ import type { ReportFlicker } from './flicker-report.js';
 import type { NeutralCurrentFigures } from '../polyphase/neutral.js';
 import type { Quantity } from '../capture.js';
 import type { ReportNextSteps, SiteInputs } from '../next-steps/types.js';
+import type { ReportEvents } from './events.js';
+import type { ReportFinding } from './findings.js';
+import type { ChannelIntervals, IntervalFigure } from './intervals.js';
+import type { ReportHarmonicBasis, ReportLimitBasis } from './limits-basis.js';
+import type { MeterModel } from './meter.js';
+import type { VerdictThreshold } from './thresholds.js';
+
+export type { ReportEvents, ReportFinding, ChannelIntervals, IntervalFigure, ReportLimitBasis, ReportHarmonicBasis, MeterModel, VerdictThreshold };
 
 /** Schema version of the JSON report; bumped on any incompatible change. */
 export const REPORT_SCHEMA_VERSION = 1;
@@ -55,6 +63,13 @@ export interface AnalysisOptions {
 	pairs?: ReportPairOverride[];
 	/** Site values for the next steps (target power factor, transformer, meter...); see lib/next-steps. */
 	site?: SiteInputs;
+	/**
+	 * Harmonic values limits are judged on: 'standard' (default), the basis the table's standard uses
+	 * (harmonic subgroups, see limits-basis.ts); 'single-bins', each order's own DFT bin, only on request.
+	 */
+	harmonicBasis?: ReportHarmonicBasis;
+	/** Declared supply voltage for voltage events, V (line-to-neutral for phase channels); inferred when absent. */
+	declaredV?: number;
 }
 
 export interface ReportHarmonic {
@@ -127,7 +142,9 @@ export interface ReportChannel {
 	peak: number;
 	peakNegative: number;
 	peakToPeak: number;
+	/** max|x − mean| / acRms: the AC part of the wave (the convention of lib/report/meter.ts); √2 for a sine. */
 	crestFactor: number;
+	/** acRms / rectifiedMean: the AC part of the wave; π/(2√2) ≈ 1.1107 for a sine. */
 	formFactor: number;
 	/** This channel's own fundamental frequency (Hz); NaN when it has no periodic fundamental. */
 	frequencyHz: number;
@@ -141,8 +158,13 @@ export interface ReportChannel {
 	kFactor: number;
 	/** IEEE 519 TDD in percent of I_L (currents only, when I_L is given), else NaN. */
 	tddPercent: number;
-	/** What a sine-calibrated average-responding meter reads, and its error against true RMS in percent. */
-	averageResponding: { reading: number; errorPercent: number; explanation?: { summary: string; reasons: string[] } };
+	/**
+	 * A sine-calibrated average-responding meter: AC-coupled (the headline: reading, trueRms = AC RMS,
+	 * errorPercent), the DC-coupled reading beside it, and why it misreads the wave (the same numbers).
+	 */
+	averageResponding: MeterModel & { explanation?: { summary: string; reasons: string[]; harmonicsErrorPercent: number; remainderPercent: number } };
+	/** Meter error, crest factor and AC RMS judged per 10/12-cycle interval (typical and worst); null without harmonic windows. */
+	intervals: ChannelIntervals | null;
 	/** Orders 0..maxOrder. */
 	harmonics: ReportHarmonic[];
 	/**
@@ -236,8 +258,17 @@ export interface ReportPower {
 	displacementPowerFactor: number;
 	/** Phase label of the pair (1, 2, 3) when it was paired by label or given, else null. */
 	phase: number | null;
-	/** From the fundamental angle; null when it cannot be told (no fundamental). */
+	/**
+	 * Inductive / capacitive / resistive only where a fundamental-only model fits (a current close to a
+	 * sine); null otherwise or when it cannot be told. See `relation` for the displacement in words.
+	 */
 	character: ReportLoadCharacter | null;
+	/** The current's fundamental against the voltage: 'near-unity', 'lags', 'leads'; null without a fundamental. */
+	relation: 'near-unity' | 'lags' | 'leads' | null;
+	/** The load in words, e.g. "inductive: current lags the voltage by 30.0°". */
+	loadSentence: string;
+	/** Power factor per 10/12-cycle interval (typical = median, worst = lowest); null without windows. */
+	powerFactorIntervals: IntervalFigure | null;
 	/** The full IEEE 1459-2010 single-phase set (extra detail). */
 	ieee1459: Record<string, number>;
 	/** How the pair was formed: 'phase-label', 'only-pair', 'order' or 'user'. */
@@ -282,7 +313,7 @@ export interface ReportLimitRow {
 	/** limit − value, percent points; negative when over. */
 	margin: number;
 	pass: boolean;
-	/** Where the limit comes from (table clause), as the table states it. */
+	/** Where the limit comes from: standard, table and entry. */
 	source: string;
 }
 
@@ -290,6 +321,8 @@ export interface ReportLimits {
 	table: ReportLimitTableId;
 	/** Human title of the table with its source. */
 	title: string;
+	/** The harmonic values the table was judged on (harmonic subgroups, or single bins on request). */
+	basis: ReportLimitBasis;
 	pass: boolean;
 	rows: ReportLimitRow[];
 	/** Why some channels or orders were not evaluated. */
@@ -335,4 +368,10 @@ export interface AnalysisReport {
 	nextSteps?: ReportNextSteps;
 	/** The short-record fit (records under two whole cycles), else null. */
 	shortRecord?: ReportShortRecord | null;
+	/** Voltage dips, swells and interruptions (each once) with their classification; null without a voltage channel. */
+	events: ReportEvents | null;
+	/** The findings in plain words (what the UI, the CLI table and the printed report show). */
+	findings: ReportFinding[];
+	/** The thresholds the findings were judged with, each with its source. */
+	thresholds: VerdictThreshold[];
 }

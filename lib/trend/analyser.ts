@@ -309,7 +309,7 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		}
 		if (Number.isNaN(declaredV)) {
 			detectEvents = false;
-			diagnostics.push({ code: 'events-not-detected', severity: 'warning', message: 'No declared voltage: dips, swells and interruptions were not looked for. Give the declared voltage (--nominal) to detect them.' });
+			diagnostics.push({ code: 'events-not-detected', severity: 'warning', message: 'No declared voltage: dips, swells and interruptions were not looked for. Give the declared voltage to detect them.' });
 			detector = new EventDetector(0, { dipV: 0, dipEndV: 0, swellV: 0, swellEndV: 0, interruptionV: 0, interruptionEndV: 0 });
 			return;
 		}

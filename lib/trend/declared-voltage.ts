@@ -26,7 +26,7 @@ export function declaredVoltageFromRms(rmsValuesV: ArrayLike<number>): { declare
 	if (v.length === 0) {
 		return {
 			declaredV: NaN,
-			diagnostic: { code: 'declared-voltage-unknown', severity: 'warning', message: 'No voltage RMS value to infer the declared voltage from; give it (--nominal) to detect dips, swells and interruptions.' },
+			diagnostic: { code: 'declared-voltage-unknown', severity: 'warning', message: 'No voltage RMS value to infer the declared voltage from; give it to detect dips, swells and interruptions.' },
 		};
 	}
 	v.sort((a, b) => a - b);

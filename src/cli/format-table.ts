@@ -3,6 +3,8 @@
  * relations between channels, power, three-phase, limits and every assumption made.
  */
 import { fitLines, resolutionLines } from './format-fit.js';
+import { eventLine } from '../../lib/report/index.js';
+import { intervalsDiffer } from '../../lib/report/index.js';
 import type { ReportJson } from '../../lib/report/to-json.js';
 import { flickerLines } from './flicker-lines.js';
 
@@ -46,15 +48,30 @@ const FIGURES: [string, (c: Channel) => string][] = [
 	['peak +', (c) => level(c, c.peak)],
 	['peak -', (c) => level(c, c.peakNegative)],
 	['peak-to-peak', (c) => level(c, c.peakToPeak)],
-	['crest factor', (c) => fixed(c.crestFactor, 3)],
-	['form factor', (c) => fixed(c.formFactor, 4)],
+	['crest factor (AC part)', (c) => fixed(c.crestFactor, 3)],
+	['form factor (AC part)', (c) => fixed(c.formFactor, 4)],
 	['frequency Hz', (c) => fixed(c.frequencyHz, 3)],
 	['fundamental RMS', (c) => level(c, c.harmonics[1]?.rms ?? null)],
 	['THD % of fund.', (c) => fixed(c.thdPercent, 2)],
 	['K-factor', (c) => fixed(c.kFactor, 2)],
-	['avg-responding reads', (c) => level(c, c.averageResponding.reading)],
-	['  its error %', (c) => fixed(c.averageResponding.errorPercent, 2)],
+	['avg-responding (AC-coupled) reads', (c) => level(c, c.averageResponding.reading)],
+	['  against AC RMS, error %', (c) => fixed(c.averageResponding.errorPercent, 1)],
 ];
+
+/** Rows shown only when they say something: the DC-coupled meter where DC moves it, per-interval figures of a long record. */
+const EXTRA_FIGURES: [string, (c: Channel) => string, (r: ReportJson) => boolean][] = [
+	['  DC-coupled, with DC, error %', (c) => fixed(c.averageResponding.dcCoupled?.errorPercent, 1), (r) => r.channels.some((c) => c.averageResponding.dcMatters)],
+	['meter error %, typical interval', (c) => fixed(c.intervals?.meterErrorPercent.typical, 1), long],
+	['meter error %, worst interval', (c) => fixed(c.intervals?.meterErrorPercent.worst, 1), long],
+	['crest factor, typical interval', (c) => fixed(c.intervals?.crestFactor.typical, 3), long],
+	['crest factor, worst interval', (c) => fixed(c.intervals?.crestFactor.worst, 3), long],
+];
+
+function long(r: ReportJson): boolean {
+	return r.channels.some((c) => intervalsDiffer(c as Parameters<typeof intervalsDiffer>[0]));
+}
+
+const MARK = { ok: 'ok  ', attention: '!!  ', fail: 'FAIL', info: 'i   ' } as const;
 
 function topHarmonics(c: Channel, count: number): string {
 	const hs = c.harmonics
@@ -91,6 +108,21 @@ export function limitRowText(x: LimitRow): string {
 	return `${x.channel} ${what}: ${fixed(x.value, decimals)} % ${relation} ${fixed(x.limit, decimals)} % (margin ${margin.toFixed(decimals)})${source}`;
 }
 
+/** Voltage events: each once, then the residual-voltage × duration counts (only cells with events). */
+function eventBlock(r: ReportJson): string[] {
+	const ev = r.events;
+	if (!ev) return [];
+	const t = ev.thresholdsPercent;
+	const out = ['', `  voltage events (declared ${ev.declaredV === null ? 'n/a' : +ev.declaredV.toPrecision(4)} V, ${ev.declaredVSource}; dip < ${t.dip} %, swell > ${t.swell} %, interruption < ${t.interruption} %): ${ev.events.length === 0 ? 'none' : ev.events.length}`];
+	for (const e of ev.events) out.push(`    ${eventLine(e as Parameters<typeof eventLine>[0])}`);
+	for (const tab of [ev.dipTable, ev.swellTable]) {
+		const cells = tab.rows.flatMap((row, i) => tab.columns.map((col, j) => ({ row, col, n: tab.counts[i][j] }))).filter((c) => (c.n ?? 0) > 0);
+		const outside = tab.outside ?? 0;
+		if (cells.length > 0 || outside > 0) out.push(`    ${tab.source}: ${[...cells.map((c) => `${c.row} %, ${c.col}: ${c.n}`), ...(outside > 0 ? [`over 1 min: ${outside}`] : [])].join('; ')}`);
+	}
+	return out;
+}
+
 /** The text block for one report (lines without a trailing newline). */
 export function formatReport(r: ReportJson): string[] {
 	const out: string[] = [];
@@ -100,10 +132,19 @@ export function formatReport(r: ReportJson): string[] {
 		`  ${fixed(r.frequencyHz, 3)} Hz on ${ref}; ${r.cyclesAnalysed} whole cycles analysed ` +
 			`(${fixed(r.window.startS, 4)}-${fixed(r.window.endS, 4)} s of ${formatNumber(r.durationS)} s) at ${formatNumber(r.sampleRateHz)} samples/s`,
 	);
+	if ((r.findings ?? []).length > 0) {
+		out.push('', '  findings:');
+		for (const f of r.findings) {
+			out.push(`    ${MARK[f.level]} ${f.text}`);
+			if (f.figure) out.push(`          ${f.figure}`);
+		}
+	}
 	if (r.channels.length > 0) {
 		const head = ['', ...r.channels.map((c) => `${c.name}${c.unit ? ` (${c.unit})` : ''}`)];
-		const rows = [head, ...FIGURES.map(([label, f]) => [label, ...r.channels.map(f)])];
-		out.push('', ...table(rows));
+		const extra = EXTRA_FIGURES.filter(([, , show]) => show(r)).map(([label, f]) => [label, ...r.channels.map(f)]);
+		const rows = [head, ...FIGURES.map(([label, f]) => [label, ...r.channels.map(f)]), ...extra];
+		const iv = long(r) ? r.channels.find((c) => (c.intervals?.count ?? 0) >= 2)?.intervals : undefined;
+		out.push('', `  figures over the whole analysed span${iv ? ` (whole record; per-interval rows: ${iv.count} intervals of ${iv.intervalCycles} cycles)` : ''}:`, ...table(rows));
 		out.push('', '  largest harmonics:');
 		for (const c of r.channels) out.push(`    ${c.name}: ${topHarmonics(c, 5)}`);
 		// Only channels whose cycles differ by more than 2 %: on a steady wave the "worst" cycle is rounding.
@@ -118,7 +159,9 @@ export function formatReport(r: ReportJson): string[] {
 				out.push(`    ${c.name}: highest ${level(c, w.rms)} ${c.unit} at ${fixed(w.rmsStartS, 4)} s, lowest ${level(c, w.lowestRms)} ${c.unit}; largest peak ${level(c, w.peak)} ${c.unit} at ${fixed(w.peakStartS, 4)} s`);
 			}
 		}
-		const meters = r.channels.filter((c) => c.averageResponding.explanation && Math.abs(c.averageResponding.errorPercent ?? 0) >= 1);
+		// the explanation beside each meter finding that advises a true-RMS meter
+		const advised = new Set((r.findings ?? []).filter((f) => f.topic === 'meter' && f.level === 'attention').map((f) => f.channel));
+		const meters = r.channels.filter((c) => advised.has(c.name) && c.averageResponding.explanation);
 		if (meters.length > 0) {
 			out.push('', '  average-responding meters:');
 			for (const c of meters) {
@@ -141,11 +184,12 @@ export function formatReport(r: ReportJson): string[] {
 	}
 	if (r.power.length > 0) {
 		out.push('', '  power (IEEE 1459):');
-		const rows = [['pair', 'P W', 'S VA', 'Q1 var', 'PF', 'DPF', 'load']];
+		const rows = [['pair', 'P W', 'S VA', 'Q1 var', 'PF', 'DPF']];
 		for (const p of r.power) {
-			rows.push([`${p.voltage} x ${p.current}`, formatNumber(p.activeW), formatNumber(p.apparentVA), formatNumber(p.reactiveVar), fixed(p.powerFactor, 3), fixed(p.displacementPowerFactor, 3), p.character ?? 'n/a']);
+			rows.push([`${p.voltage} x ${p.current}`, formatNumber(p.activeW), formatNumber(p.apparentVA), formatNumber(p.reactiveVar), fixed(p.powerFactor, 3), fixed(p.displacementPowerFactor, 3)]);
 		}
 		out.push(...table(rows, '    '));
+		for (const p of r.power) out.push(`    ${p.current} on ${p.voltage}: ${p.loadSentence}`);
 	}
 	out.push(...fitLines(r), ...resolutionLines(r));
 	if (r.threePhasePower) {
@@ -173,9 +217,10 @@ export function formatReport(r: ReportJson): string[] {
 		out.push('', `  status ${d.name}: ${when}; ${d.changes} change(s)`);
 	}
 	out.push(...flickerLines(r));
+	out.push(...eventBlock(r));
 	if (r.limits) {
 		const failed = r.limits.rows.filter((x) => !x.pass);
-		out.push('', `  limits ${r.limits.table} (${r.limits.title}): ${r.limits.pass ? 'PASS' : `FAIL (${failed.length} over)`}`);
+		out.push('', `  limits ${r.limits.table} (${r.limits.title}): ${r.limits.pass ? 'PASS' : `FAIL (${failed.length} over)`}`, `    judged on ${r.limits.basis.text}`);
 		for (const x of failed) out.push(`    ${limitRowText(x)}`);
 		for (const n of r.limits.notes) out.push(`    note: ${n}`);
 	}

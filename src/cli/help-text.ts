@@ -14,6 +14,8 @@ export const ANALYSE_EXAMPLES: string[] = [
 	'sinecheck analyse logger-week/ --csv > summary.csv',
 	'# supply voltage harmonics against EN 50160 (exit code 1 when a limit is exceeded)',
 	'sinecheck analyse feeder.wav --limits en50160',
+	'# the same on single DFT bins instead of the harmonic subgroups the standard uses',
+	'sinecheck analyse feeder.wav --limits en50160 --single-bins',
 	'# load currents against IEEE 519 with ISC/IL = 35 and maximum demand current 120 A',
 	'sinecheck analyse drive.cfg --limits ieee519 --isc-il 35 --il 120 --nominal 400',
 	'# raw probe voltages: x100 probe on U1, clamp giving 10 mV per A on I1, file without a time column at 10 kS/s',

@@ -31,6 +31,8 @@ cli
 	.option('--limits <table>', 'Evaluate harmonics against a limit table: en50160, iec61000-2-2, ieee519 (sets exit code 1 on a failure)')
 	.option('--isc-il <ratio>', 'IEEE 519: short-circuit to maximum demand load current ratio at the point of common coupling')
 	.option('--il <A>', 'IEEE 519: maximum demand load current I_L in A (for TDD)')
+	.option('--single-bins', 'Judge limits on each order\'s single DFT bin instead of the harmonic subgroups the tables\' standards use')
+	.option('--declared <V>', 'Declared supply voltage for dips, swells and interruptions, V (line-to-neutral for phase channels); inferred when absent')
 	.option('--ieee519-edition <year>', 'IEEE 519 even-harmonic current rule: 2022 (default; 50 % of the odd limit up to h6) or 2014 (25 %)')
 	.option('--ref <channel>', 'Reference channel for frequency, window and phase (default: the first voltage channel)')
 	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')

@@ -105,6 +105,11 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 		analysis.maxOrder = maxOrder;
 	}
 	if (raw.wholeRecord === true) analysis.span = 'whole-record';
+	if (raw.singleBins === true) {
+		if (analysis.limits === undefined) throw new UsageError('--single-bins applies to a limit check: give --limits too');
+		analysis.harmonicBasis = 'single-bins';
+	}
+	analysis.declaredV = positiveNumber('declared', raw.declared, 'the declared supply voltage in V');
 	const pairs = assignments('pair', raw.pair, 'current channel');
 	if (pairs.length > 0) analysis.pairs = pairs.map(([voltage, current]) => ({ voltage, current }));
 	analysis.site = siteFromOptions(raw);

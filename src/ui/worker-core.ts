@@ -9,6 +9,7 @@ import { gapFreeSpan, isImportError } from '../../lib/io/index.js';
 import { analyseCapture, chooseReference } from '../../lib/report/index.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
 import { analyseTrend } from '../../lib/trend/index.js';
+import { eventsCountedOnce } from '../../lib/report/index.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
 import { minOf } from '../../lib/signal/index.js';
 import { etaFrom, lineOfFile, readCaptures } from './worker-open.js';
@@ -43,6 +44,8 @@ export function trendFor(capture: Capture, onProgress?: (fraction: number, etaS:
 				}
 			},
 		});
+		// each all-phase interruption once, as the analysis report counts it (not also as the dip containing it)
+		result.events = eventsCountedOnce(result.events);
 		const used = capture.channels.map((c, k) => ({ c, k })).filter(({ k }) => values[k].length > 0);
 		const n = minOf(used.map(({ k }) => values[k].length));
 		const first = used[0]?.k ?? 0;

@@ -249,14 +249,16 @@ describe('sinecheck analyse output forms', () => {
 		expect(lines.filter((l) => l.startsWith('file,'))).toHaveLength(1);
 	});
 
-	it('analyse --limits en50160 prints a 5th 0.004 points over 6 % with enough decimals to show it, and the limit source with its provenance in brackets (REFERENCE.md 4.1)', () => {
+	it('analyse --limits en50160 prints a 5th 0.004 points over 6 % with enough decimals to show it, the limit source as standard + table (no provenance words) and the basis it was judged on (REFERENCE.md 4.1)', () => {
 		const r = run(['analyse', 'at-limit.csv', '--limits', 'en50160']);
 		expect(r.code).toBe(1);
 		// 6.004 - 6 = 0.004: 2 decimals read -0.00, 3 show it
 		const line = r.stdout.split('\n').find((l) => l.includes(' h5: '));
 		expect(line).toBeDefined();
 		expect(line!.trim().startsWith('U1 h5: 6.004 % over limit 6.000 % (margin -0.004) [')).toBe(true);
-		expect(line).toMatch(/\[[^\]]+ \((read in a secondary source|from memory)\)\]$/);
+		expect(line).toMatch(/\[EN 50160:2010, Table 1 \(LV\)[^\]]*h = 5\]$/);
+		expect(r.stdout).not.toMatch(/from memory|secondary source|need(s)? checking/);
+		expect(r.stdout).toMatch(/judged on harmonic subgroups of 10\/12-cycle windows \(IEC 61000-4-30 class A with IEC 61000-4-7\)/);
 		expect(r.stdout).not.toMatch(/-0\.0+\)/);
 	});
 

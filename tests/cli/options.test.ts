@@ -19,6 +19,12 @@ describe('settingsFromOptions', () => {
 		});
 	});
 
+	it('settingsFromOptions(raw) asks for single DFT bins only with a limit table, and reads the declared voltage for events', () => {
+		expect(settingsFromOptions({ limits: 'en50160', singleBins: true, declared: '230' }).analysis).toEqual({ limits: 'en50160', harmonicBasis: 'single-bins', declaredV: 230 });
+		expect(() => settingsFromOptions({ singleBins: true })).toThrow(UsageError);
+		expect(() => settingsFromOptions({ declared: '-5' })).toThrow(/--declared -5/);
+	});
+
 	it('settingsFromOptions(raw) reads repeated channel=value assignments, the last = splitting name from value', () => {
 		const s = settingsFromOptions({ scale: ['U1=100', 'I1=0,5'], unit: ['I1=A'], quantity: ['CH3=current'], rate: '10000' });
 		expect(s.import).toEqual({ sampleRateHz: 10000, scale: { U1: 100, I1: 0.5 }, unit: { I1: 'A' }, quantity: { CH3: 'current' } });

@@ -96,6 +96,27 @@ describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
 		});
 	}
 
+	it('analyse --json incomer-dip.cfg carries the dip on Ub as one event (residual 55 % of 230 V within 0.5 %, 0.12 s within one cycle: ground truth; IEC 61000-4-30 class A duration uncertainty, docs/methods.md §3.4), classified once and named in the findings', () => {
+		const d = docs.get('incomer-dip.cfg');
+		const truth = JSON.parse(readFileSync(truthPath, 'utf8')).files.find((f: { file: string }) => f.file === 'incomer-dip.cfg');
+		const env = truth.channels.find((c: { name: string }) => c.name === 'Ub').envelope[0];
+		expect(d.events.events).toHaveLength(1);
+		const e = d.events.events[0];
+		expect(e.kind).toBe('dip');
+		expect(e.channels).toEqual(['Ub']);
+		expect(Math.abs(e.percentOfDeclared - 100 * env.factor)).toBeLessThan(0.5);
+		expect(Math.abs(e.durationS - (env.toS - env.fromS))).toBeLessThanOrEqual(0.02);
+		expect(d.events.dipTable.counts.flat().reduce((a: number, b: number) => a + b, 0)).toBe(1);
+		expect(d.findings.find((f: { id: string }) => f.id === 'events').text).toContain('1 dip');
+		const csv = spawnSync(process.execPath, [main, 'analyse', join('sample-waves', 'incomer-dip.cfg'), '--csv'], { cwd: root, encoding: 'utf8', timeout: 120_000 });
+		const [head, ...rows] = csv.stdout.trim().split(/\r?\n/).map((l) => l.split(','));
+		const ub = rows.find((r) => r[1] === 'Ub')!;
+		expect(ub[head.indexOf('dips')]).toBe('1');
+		const table = spawnSync(process.execPath, [main, 'analyse', join('sample-waves', 'incomer-dip.cfg')], { cwd: root, encoding: 'utf8', timeout: 120_000 });
+		expect(table.stdout).toMatch(/voltage events .*: 1\n\s+dip to 55\.\d % .* on Ub/);
+		expect(table.stdout).toMatch(/EN 50160:2010, Table 5: 70 > u ≥ 40 %, 10-200 ms: 1/);
+	});
+
 	it('trend incomer-dip.cfg (wired as sinecheck trend) reports the dip on Ub: residual 55 % of 230 V, 0.12 s within one cycle (ground truth; IEC 61000-4-30 duration uncertainty, REFERENCE.md 3.4)', () => {
 		const r = spawnSync(process.execPath, [main, 'trend', join('sample-waves', 'incomer-dip.cfg')], { cwd: root, encoding: 'utf8', timeout: 120_000 });
 		expect(r.status, r.stderr).toBe(0);

@@ -96,7 +96,7 @@ describe('ProblemList', () => {
 describe('Findings', () => {
 	it('Findings shows each verdict with its number and a "show" button that reports where to go', async () => {
 		const onshow = vi.fn();
-		const v = { id: 'meter-I1', topic: 'meter' as const, level: 'attention' as const, text: 'I1 reads 12 % low', figure: 'it would show 8.8 A', target: { tab: 'waves' as const, channel: 'I1' } };
+		const v = { id: 'meter-I1', topic: 'meter' as const, level: 'attention' as const, channel: 'I1', text: 'I1 reads 12 % low', figure: 'it would show 8.8 A', target: { tab: 'waves' as const, channel: 'I1' } };
 		const el = render(Findings, { verdicts: [v], onshow });
 		expect(el.textContent).toContain('it would show 8.8 A');
 		expect(el.textContent).toContain('look at this'); // the level in words for screen readers, not only a colour

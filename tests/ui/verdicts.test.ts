@@ -48,11 +48,11 @@ describe('verdictsFor', () => {
 		expect(v?.text).toContain('would read right');
 	});
 
-	it('verdictsFor a current 30° behind its voltage reports an inductive load at power factor 0.87 (cos 30° = 0.866) and flags it below 0.9', () => {
+	it('verdictsFor a current 30° behind its voltage reports an inductive load (current lags by 30.0°) at power factor 0.87 (cos 30° = 0.866) and flags it below 0.9', () => {
 		const u = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
 		const i = sineSamples({ amplitude: 10, frequencyHz: 50, sampleRateHz: FS, cycles: 20, phaseDeg: -30 });
 		const v = verdictsFor(analyseCapture(capture([volts('U1', u), amps('I1', i)]))).find((x) => x.topic === 'load');
-		expect(v?.text).toBe('I1 on U1: inductive load, power factor 0.87 (below 0.9).');
+		expect(v?.text).toBe('I1 on U1: inductive: current lags the voltage by 30.0°; power factor 0.87 (below 0.9).');
 		expect(v?.level).toBe('attention');
 		expect(v?.target.tab).toBe('phasors');
 	});

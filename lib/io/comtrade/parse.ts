@@ -123,6 +123,11 @@ export function valuesNote(cfg: ComtradeConfig, want: 'primary' | 'secondary'): 
 	return { code: 'comtrade-values', severity: 'assumption', message: 'The .cfg gives no P/S flags: analog values are reported as recorded (a·x + b), not known to be primary or secondary.' };
 }
 
+/** A scale factor as a person reads it: 6 significant digits, no float tail ("0.0122070" not 0.012207031250000001). */
+function short(x: number): string {
+	return String(Number(x.toPrecision(6)));
+}
+
 function fmt(x: number): string {
 	return Number(x.toPrecision(9)).toString();
 }
@@ -198,7 +203,7 @@ export function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 
 		unit: u.unit,
 		quantity,
 		samples,
-		scaling: { factor, offset, description: `${a.a}·x + ${a.b} ${a.unit}; ${which}${u.factor !== 1 ? `; ×${u.factor} to ${u.unit}` : ''}` },
+		scaling: { factor, offset, description: `${short(a.a)}·x + ${short(a.b)} ${a.unit}; ${which}${u.factor !== 1 ? `; ×${u.factor} to ${u.unit}` : ''}` },
 	};
 	const ph = channelPhase(a.name, a.phase);
 	if (ph) channel.phase = ph;

@@ -99,7 +99,7 @@ function readFact(facts: PreambleFacts, key: string, value: string, lineNo: numb
 		const u = readUnit(q.unit || 's');
 		if (u && u.kind === 'time') {
 			facts.sampleRateHz = 1 / (q.value * u.factor);
-			say('rate-in-preamble', `The preamble states a sample interval of ${q.value} ${q.unit || 's'} ("${key}"), i.e. ${facts.sampleRateHz} Hz.`);
+			say('rate-in-preamble', `The preamble states a sample interval of ${q.value} ${q.unit || 's'} ("${key}"), i.e. ${Number(facts.sampleRateHz.toPrecision(9))} Hz.`);
 		}
 		return;
 	}

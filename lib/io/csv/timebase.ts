@@ -114,6 +114,10 @@ function round(x: number): string {
 	return Number(x.toPrecision(6)).toString();
 }
 
+/** A fraction as a percentage rounded to its meaning: 3 significant digits, and "under 0.01%" for rounding-level values. */
 function pct(x: number): string {
-	return `${Number((x * 100).toPrecision(3))}%`;
+	const p = x * 100;
+	if (p === 0) return '0%';
+	if (Math.abs(p) < 0.01) return 'under 0.01%';
+	return `${Number(p.toPrecision(3))}%`;
 }

@@ -3,6 +3,7 @@
  * each piece back as a message): the CSV header and rows as they are measured, progress, the
  * diagnostic and event lines, or the JSON document. Plain data in and out, so a helper can run it.
  */
+import { eventsCountedOnce } from '../../../lib/report/index.js';
 import type { OpenOptions } from '../../../lib/io/open.js';
 import type { TrendChannelSpec, TrendInterval, TrendResult } from '../../../lib/trend/types.js';
 import { analyseFile, type AnalyserSettings } from './read-recording.js';
@@ -85,7 +86,11 @@ export function trendFile(job: TrendJob, sink: TrendSink): void {
 		},
 	);
 	flush();
-	const lines = result.diagnostics.map((d) => `${file}: ${d.severity}: ${d.message}`);
+	// lib's messages name no CLI option (the UI shows them too): the option is added here
+	const hint = (d: { code: string }) => (d.code === 'events-not-detected' || d.code === 'declared-voltage-unknown' ? ' (--nominal <V>)' : '');
+	const lines = result.diagnostics.map((d) => `${file}: ${d.severity}: ${d.message}${hint(d)}`);
+	// each all-phase interruption once, not also as the dip that contains it
+	result.events = eventsCountedOnce(result.events);
 	if (flickerCsv) {
 		if (result.flicker) {
 			sink.flickerHeader(flickerCsvHeader(result.flicker, several));

@@ -72,6 +72,20 @@ describe('trendCommand', () => {
 		expect(basic.some((a: { flagged: boolean }) => a.flagged)).toBe(true);
 	});
 
+	it('trendCommand([wav], { json }) lists an interruption of all three phases once, not also as the dip that contains it', async () => {
+		const cut = [{ fromS: 0.5, toS: 0.7, rms: 0 }];
+		const ys = makeChannels([{ rms: 230, phaseDeg: 0, steps: cut }, { rms: 230, phaseDeg: -120, steps: cut }, { rms: 230, phaseDeg: 120, steps: cut }], { f0Hz: 50 }, FS, 2);
+		const path = join(dir, 'outage.wav');
+		const w = new FloatWavWriter(path, [{ name: 'L1', unit: 'V' }, { name: 'L2', unit: 'V' }, { name: 'L3', unit: 'V' }], FS, ys[0].length);
+		w.write(ys);
+		w.close();
+		const out = sink();
+		const code = await trendCommand([path], { json: true, nominal: 230, stdout: out, stderr: sink() });
+		expect(code).toBe(0);
+		const doc = JSON.parse(out.text());
+		expect(doc.events.map((e: { kind: string }) => e.kind)).toEqual(['interruption']);
+	});
+
 	it('trendCommand([wav]) writes CSV rows of 10/12-cycle aggregates and prints the event on stderr', async () => {
 		const out = sink();
 		const err = sink();
