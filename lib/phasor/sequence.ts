@@ -27,7 +27,7 @@ export interface SequenceComponents {
  * X0 = (Xa + Xb + Xc)/3;  X1 = (Xa + a·Xb + a²·Xc)/3;  X2 = (Xa + a²·Xb + a·Xc)/3,  a = e^{j120°}
  *
  * Ref: C. L. Fortescue, "Method of symmetrical co-ordinates applied to the solution of polyphase networks",
- * AIEE Trans. 37 (1918) 1027–1140 (from memory); formulas as in REFERENCE.md §7.
+ * AIEE Trans. 37 (1918) 1027–1140 (from memory); formulas as in docs/methods.md §7.
  * @example symmetricalComponents(phasorFromPolarDeg(230, 0), phasorFromPolarDeg(230, -120), phasorFromPolarDeg(230, 120)).positiveRms // 230
  */
 export function symmetricalComponents(xa: ComplexPhasor, xb: ComplexPhasor, xc: ComplexPhasor): SequenceComponents {

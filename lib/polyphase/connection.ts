@@ -123,7 +123,7 @@ export const LINE_VOLTAGE_AGREEMENT_PERCENT = 2;
  * Star/delta consistency hints from line vs phase relations: the √3 check, measured against derived
  * line voltages, whether the line currents sum to zero (3-wire or delta) or leave a neutral current (star
  * with neutral), and voltage/current angles all near ±30° (line-to-line voltages taken as phase voltages).
- * Ref: balanced star/delta relations (REFERENCE.md §7 [READ]); the thresholds are our choice, stated in each message.
+ * Ref: balanced star/delta relations (docs/methods.md §7; common practice); the thresholds are our choice, stated in each message.
  * @returns diagnostics, 'info' for what fits and 'warning' for what does not
  */
 export function starDeltaHints(e: StarDeltaEvidence): Diagnostic[] {

@@ -59,7 +59,7 @@ export interface ThreePhaseAnalysis {
  * reference). Neutral: the measured channel when given, else the sum of the line currents (4-wire only).
  * @returns the analysis, or a failure when the phase-1 voltage has no whole cycles
  * @throws RangeError for channels of unequal length
- * @example threePhaseFromSamples({ voltages: [u1, u2, u3], currents: [i1, i2, i3] }, 10_000).voltageUnbalance.vufPercent // 2.7699 for REFERENCE.md §5.4
+ * @example threePhaseFromSamples({ voltages: [u1, u2, u3], currents: [i1, i2, i3] }, 10_000).voltageUnbalance.vufPercent // 2.7699 for docs/methods.md §5.4
  */
 export function threePhaseFromSamples(input: ThreePhaseSamples, sampleRateHz: number, opts: FromSamplesOptions = {}): ThreePhaseAnalysis | PowerSampleFailure {
 	const diagnostics: Diagnostic[] = [];

@@ -49,7 +49,7 @@ export interface Sqrt3Check {
  *
  * |V12| = √3·|V1|, ∠V12 = ∠V1 + 30° (balanced, ABC rotation)
  *
- * Ref: balanced star relations V_ab = √3·V_an∠30° (textbook; REFERENCE.md §7 [READ]).
+ * Ref: balanced star relations V_ab = √3·V_an∠30° (textbook, common practice; docs/methods.md §7).
  * @param phase  line-to-neutral fundamental phasors V1, V2, V3
  * @param line  line-to-line phasors V12, V23, V31 (measured, or lineVoltagePhasors(...) when not)
  * @returns ratios NaN where a phase voltage is zero

@@ -66,7 +66,7 @@ export interface NeutralCurrentFigures {
  * Triplen harmonics (3, 9, 15 … and 6, 12 …) of a balanced set are zero sequence: they add in the
  * neutral instead of cancelling, so I_N can reach 3× the phase triplen current and exceed the phase
  * currents — the usual cause of overloaded neutrals under single-phase rectifier loads.
- * Ref: zero-sequence nature of triplen harmonics (REFERENCE.md §7, [MEMORY]; textbook).
+ * Ref: zero-sequence nature of triplen harmonics (docs/methods.md §7, from memory; textbook).
  * @param neutralRmsA  true RMS of the neutral over the window (measured channel or sumPhaseCurrents)
  * @param phaseRmsA  true RMS of the three line currents over the same window
  * @param neutralSet  harmonic set of the neutral current (lib/spectrum, or sumHarmonicSets)

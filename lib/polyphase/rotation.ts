@@ -34,7 +34,7 @@ export interface PhaseRotation {
  * The clarity bands (ratio < 0.1 clear, < 0.7 probable) are our choice: a supply within EN 50160's
  * 2 % negative-sequence limit is always 'clear'; a set with one phase missing (a blown fuse) gives
  * |X2|/|X1| = 0.5 exactly and is still 'probable'; two phases in antiphase (split phase) give 1.
- * Ref: REFERENCE.md §7 "Phase rotation" (|V1| ≫ |V2| means ABC) (common practice).
+ * Ref: docs/methods.md §7 "Phase rotation" (|V1| ≫ |V2| means ABC) (common practice).
  * @returns 'undetermined' when both sequences are zero or NaN, or the ratio is ≥ 0.7
  * @example phaseRotation(Va, Vb, Vc).rotation // 'positive' for 230∠0°, 220∠−118°, 235∠121°
  */

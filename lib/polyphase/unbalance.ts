@@ -43,8 +43,8 @@ export function maxDeviationFromMeanPercent(a: number, b: number, c: number): nu
  *
  * Exact for the fundamental line voltages of a 3-wire set (they close a triangle, so they hold no zero
  * sequence); applied to true-RMS values it approximates. Also returns NEMA LVUR of the same magnitudes.
- * Ref: IEC 61000-4-30:2015, 5.7.2 (from memory; verified numerically in REFERENCE.md §7 [COMPUTED]);
- * NEMA MG 1, 14.35 (LVUR) (from memory; published examples read, REFERENCE.md §7).
+ * Ref: IEC 61000-4-30:2015, 5.7.2 (from memory; verified numerically in docs/methods.md §7 (computed by docs/check-vectors.py));
+ * NEMA MG 1, 14.35 (LVUR) (from memory; published examples read, docs/methods.md §7).
  * @returns betaRatio in [1/3, 1/2]; vufPercent NaN when β is outside that range (magnitudes that cannot close a triangle)
  * @example lineMagnitudeUnbalance(460, 467, 450) // { betaRatio: 0.33364020, vufPercent: 2.1465, lvurPercent: 1.9608, ... }
  */
@@ -103,7 +103,7 @@ export interface VoltageUnbalance {
  * Ref: IEC 61000-4-30:2015, 5.7.1 (u2 = |U2|/|U1|, u0 = |U0|/|U1|) (from memory); NEMA MG 1, 14.35
  * (from memory); IEEE Std 141 / Pillay & Manyage, IEEE Power Eng. Review 21(5), 2001 (PVUR) (from memory).
  * @returns percentages; NaN when |V1| (or the average magnitude) is 0
- * @example voltageUnbalance(230∠0°, 220∠−118°, 235∠121°).vufPercent // 2.7699 (REFERENCE.md §5.4, computed)
+ * @example voltageUnbalance(230∠0°, 220∠−118°, 235∠121°).vufPercent // 2.7699 (docs/methods.md §5.4, computed)
  */
 export function voltageUnbalance(va: ComplexPhasor, vb: ComplexPhasor, vc: ComplexPhasor): VoltageUnbalance {
 	const seq = symmetricalComponents(va, vb, vc);

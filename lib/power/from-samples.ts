@@ -113,7 +113,7 @@ export interface SinglePhasePowerAnalysis {
  * harmonic sets on the same window.
  * @returns the analysis, or a failure when the voltage has no whole cycles
  * @throws RangeError for channels of unequal length
- * @example singlePhasePowerFromSamples(v, i, 12_800).power.powerFactor // 0.824173 for REFERENCE.md §5.3
+ * @example singlePhasePowerFromSamples(v, i, 12_800).power.powerFactor // 0.824173 for docs/methods.md §5.3
  */
 export function singlePhasePowerFromSamples(
 	voltage: Float64Array,

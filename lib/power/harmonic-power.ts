@@ -24,7 +24,7 @@ export interface OrderPower {
  * a hint, not proof). Σ P_h over all orders is activePowerFromHarmonicsW.
  * Ref: IEEE Std 1459-2010, 3.1.2.3 (P_h, θ_h) (from memory); Q_h per order is Budeanu's component, shown for insight only.
  * @returns one entry per order 0..min(maxOrder)
- * @example powerPerOrder(uSet, iSet)[3].activeW // 10.35 for REFERENCE.md §5.3 (V3 = 6.9 V, I3 = 3 A, θ3 = −60°: 20.7·cos 60°)
+ * @example powerPerOrder(uSet, iSet)[3].activeW // 10.35 for docs/methods.md §5.3 (V3 = 6.9 V, I3 = 3 A, θ3 = −60°: 20.7·cos 60°)
  */
 export function powerPerOrder(voltage: HarmonicSet, current: HarmonicSet): OrderPower[] {
 	const n = Math.min(voltage.orders.length, current.orders.length);

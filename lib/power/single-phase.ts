@@ -75,7 +75,7 @@ export interface SinglePhasePower {
  * S1 = V1·I1; S_N = √(S² − S1²); D_I = V1·I_H; D_V = V_H·I1; S_H = V_H·I_H; D_H = √(S_H² − P_H²);
  * N = √(S² − P²); PF = P/S; PF1 = cos θ1; THD_V = V_H/V1; THD_I = I_H/I1.
  *
- * Ref: IEEE Std 1459-2010, 3.1.2 (single-phase non-sinusoidal) (from memory; definitions as in REFERENCE.md §5.1).
+ * Ref: IEEE Std 1459-2010, 3.1.2 (single-phase non-sinusoidal) (from memory; definitions as in docs/methods.md §5.1).
  * @returns the quantities; ratios are NaN when their denominator is 0 (e.g. THD with V1 = 0, PF with S = 0)
  * @example ieee1459FromComponents({ voltageRmsV: 230, currentRmsA: 10, v1RmsV: 230, i1RmsA: 10, theta1Deg: 30, activePowerW: 1991.86 }).fundamentalReactivePowerVar // 1150
  */
@@ -133,7 +133,7 @@ export interface TimeDomainTotals {
  * Active power summed over harmonic orders, W: P = Σ_h V_h·I_h·cos θ_h, order 0 (DC) as V0·I0 with signs.
  * Ref: IEEE Std 1459-2010, 3.1.2.3 (P = P1 + P_H, P_H = V0·I0 + Σ_{h≠1} V_h·I_h·cos θ_h) (from memory).
  * @returns NaN when an order is NaN
- * @example activePowerFromHarmonicsW(uSet, iSet) // 2018.47 for REFERENCE.md §5.3
+ * @example activePowerFromHarmonicsW(uSet, iSet) // 2018.47 for docs/methods.md §5.3
  */
 export function activePowerFromHarmonicsW(voltage: HarmonicSet, current: HarmonicSet): number {
 	const n = Math.min(voltage.orders.length, current.orders.length);
@@ -156,7 +156,7 @@ export function rmsFromHarmonicSet(set: HarmonicSet): number {
  * @param voltage, current  harmonic sets of one window (lib/spectrum harmonicWindow(...).set)
  * @returns see ieee1459FromComponents; θ1 and PF1 NaN (P1 = Q1 = 0) when a fundamental is zero
  * @throws RangeError when a set lacks order 1
- * @example singlePhasePowerFromHarmonics(u, i, { activePowerW: p }).powerFactor // 0.824173 for REFERENCE.md §5.3
+ * @example singlePhasePowerFromHarmonics(u, i, { activePowerW: p }).powerFactor // 0.824173 for docs/methods.md §5.3
  */
 export function singlePhasePowerFromHarmonics(voltage: HarmonicSet, current: HarmonicSet, totals: TimeDomainTotals = {}): SinglePhasePower {
 	const v1 = voltage.orders[1];

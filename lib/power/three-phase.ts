@@ -106,9 +106,9 @@ export interface ThreePhasePower {
  * negative rotation; see `sequenceOrder`).
  *
  * Ref: IEEE Std 1459-2010, 3.2 (three-phase, non-sinusoidal and unbalanced) (from memory; formulas as in
- * REFERENCE.md §5.2).
+ * docs/methods.md §5.2).
  * @returns the quantities; ratios NaN when their denominator is 0
- * @example ieee1459ThreePhaseFromComponents(c).effectivePowerFactor // 0.82552 for REFERENCE.md §5.4
+ * @example ieee1459ThreePhaseFromComponents(c).effectivePowerFactor // 0.82552 for docs/methods.md §5.4
  */
 export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): ThreePhasePower {
 	const sq = (x: number) => x * x;
@@ -199,7 +199,7 @@ export interface ThreePhaseInputPhase {
  * @param opts.neutralCurrentRmsA  time-domain RMS of the measured neutral, or of i1+i2+i3, A
  * @param opts.neutralCurrent  harmonic set of a measured neutral channel (its fundamental is used for I_e1)
  * @throws RangeError when a set lacks order 1
- * @example threePhasePowerFromHarmonics('4-wire', [l1, l2, l3]).effectiveApparentPowerVA // 7076.97 for REFERENCE.md §5.4
+ * @example threePhasePowerFromHarmonics('4-wire', [l1, l2, l3]).effectiveApparentPowerVA // 7076.97 for docs/methods.md §5.4
  */
 export function threePhasePowerFromHarmonics(
 	wiring: PowerWiring,

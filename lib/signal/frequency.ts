@@ -11,7 +11,7 @@ import { findWholeCycles, type SignalFailure } from './cycles.js';
  * (tests/signal/frequency.test.ts): < 1 µHz on a clean 10-cycle 50 Hz sine at 10 kS/s; a few mHz with
  * 1 % white noise and a 20 % 5th harmonic (IEC 61000-4-30 Class A allows ±10 mHz).
  *
- * Ref: IEC 61000-4-30:2015 5.1 power frequency (from memory; ±10 mHz Class A read, REFERENCE §3.3).
+ * Ref: IEC 61000-4-30:2015 5.1 power frequency (from memory; ±10 mHz Class A read, docs/methods.md §3.3).
  *
  * @param samples  signal, any unit; not modified
  * @param sampleRateHz  samples per second

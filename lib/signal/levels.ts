@@ -6,7 +6,7 @@ import { extremaIn, windowIntegral, type InnerSum } from './window-integral.js';
 /**
  * Scale factor of a sine-calibrated average-responding meter: K = π / (2√2) ≈ 1.110720735, the form
  * factor of a sine. The meter shows K × rectified mean.
- * Ref: REFERENCE §1.1 (instrument makers' notes, read); common practice.
+ * Ref: docs/methods.md §1.1 (instrument makers' notes, read); common practice.
  */
 export const AVERAGE_RESPONDING_FACTOR = Math.PI / (2 * Math.SQRT2);
 
@@ -39,7 +39,7 @@ export interface WaveformFigures {
 	peakToPeak: number;
 	/** max(|peak|, |peakNegative|) / rms, ratio (rms = true RMS). √2 for a sine. */
 	crestFactor: number;
-	/** rms / rectifiedMean, ratio (rms = true RMS, as issue 2 states). π/(2√2) ≈ 1.1107 for a sine. */
+	/** rms / rectifiedMean, ratio (rms = true RMS, as docs/methods.md §1.1 defines it). π/(2√2) ≈ 1.1107 for a sine. */
 	formFactor: number;
 	/**
 	 * Sine-calibrated average-responding meter: reading = K × rectifiedMean (same unit);
@@ -80,21 +80,21 @@ export interface WaveformFigures {
  * is used and a 'whole-record-fallback' warning says why. 'whole-record': plain sample means over all N
  * samples.
  *
- * Which RMS: `formFactor` and `averageResponding.errorPercent` use the true RMS (AC + DC), as issue 2
+ * Which RMS: `formFactor` and `averageResponding.errorPercent` use the true RMS (AC + DC), as docs/methods.md §1.1
  * states, while `rectifiedMean` is taken about the DC (what an AC-coupled rectifier averages). With no DC
  * (mains voltage and most currents) that is the textbook form factor and meter error. With DC the two
  * mix coupling modes, so `averageResponding.errorPercentAc` (against `acRms`) is given too: it is the
  * like-for-like error of an AC-coupled average-responding meter against an AC-coupled true-RMS meter.
  * Example: a half-wave rectified sine gives formFactor 1.425 (not the DC-coupled table value π/2),
- * errorPercent −22.05 % and errorPercentAc +1.07 % (REFERENCE §1.2 AC-coupled row).
+ * errorPercent −22.05 % and errorPercentAc +1.07 % (docs/methods.md §1.2 AC-coupled row).
  *
  * Ratios with a zero denominator are NaN: crestFactor when rms = 0; formFactor when rectifiedMean = 0
  * (a constant); errorPercentAc when acRms = 0. Empty record: every figure NaN, warning 'no-samples'.
  * NaN or ±Infinity in the samples: every figure NaN (never a silent skip), warning 'non-finite-samples'.
  * Whole cycles bridged across an interruption (see `findWholeCycles`) add a 'fundamental-bridged' warning.
  *
- * Ref: definitions REFERENCE §1.1 (true RMS, rectified average, form and crest factor; read);
- * issue 2 (rectified mean about the DC, error against true RMS); IEC 61000-4-30 whole-cycle windows (from memory).
+ * Ref: definitions docs/methods.md §1.1 (true RMS, rectified average, form and crest factor; read);
+ * docs/methods.md §1.1 (rectified mean about the DC, error against true RMS); IEC 61000-4-30 whole-cycle windows (from memory).
  *
  * @param samples  signal (V, A, …); not modified
  * @param sampleRateHz  samples per second (RangeError if not positive)

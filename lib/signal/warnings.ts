@@ -3,7 +3,7 @@ import { fmt } from './format.js';
 import { runShowsSlopeBreak } from './clip-check.js';
 import { windowIntegral } from './window-integral.js';
 
-/** IEC 61000-4-30 power-frequency measurement ranges, Hz (REFERENCE §3.3; from memory). */
+/** IEC 61000-4-30 power-frequency measurement ranges, Hz (docs/methods.md §3.3; from memory). */
 export const MAINS_FREQUENCY_RANGES_HZ = {
 	50: { lowHz: 42.5, highHz: 57.5 },
 	60: { lowHz: 51, highHz: 69 },

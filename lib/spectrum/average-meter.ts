@@ -96,7 +96,7 @@ function ordinal(h: number): string {
  * effect on the reading measured. An odd harmonic whose peak coincides with the fundamental's
  * (phaseRelDeg ≈ 0°) makes the wave peaked: form factor above 1.1107, the meter reads low. One opposing
  * it (≈ 180°) flattens the top: form factor below 1.1107, the meter reads high. Even harmonics make the
- * half-cycles unequal. Error = K/FF − 1 with K = π/(2√2) (REFERENCE.md §1.1, READ).
+ * half-cycles unequal. Error = K/FF − 1 with K = π/(2√2) (docs/methods.md §1.1, READ).
  *
  * @param set  harmonics of one channel (V or A); orders with NaN RMS are left out
  * @param unit  unit text for the sentences, e.g. 'V' or 'A'

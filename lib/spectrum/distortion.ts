@@ -14,7 +14,7 @@ function rmsByOrder(x: ByOrder): ArrayLike<number> {
 /**
  * Total demand distortion, percent: TDD = 100 · √(Σ_{h=2}^{H} I_h²) / I_L.
  * Ref: IEEE 519-2014, 3.1 (definition) and Table 2 (H = 50) (from memory; the formula is also READ in a
- * public instrument maker's note, REFERENCE.md §4.3).
+ * public instrument maker's note, docs/methods.md §4.3).
  * @param x  current harmonics, A (a HarmonicSet or RMS values by order)
  * @param ilA  maximum demand load current I_L at the PCC (fundamental), A, > 0
  * @param maxOrder  H, default 50
@@ -34,7 +34,7 @@ export function tddPercent(x: ByOrder, ilA: number, maxOrder = MAX_HARMONIC_ORDE
 /**
  * UL 1561/1562 K-factor (= IEEE C57.110 harmonic loss factor for winding eddy loss):
  * K = Σ_{h=1}^{H} I_h²·h² / Σ_{h=1}^{H} I_h²  (DC excluded). 1 for a pure sine.
- * Ref: UL 1561 / IEEE C57.110-2008 F_HL (READ via REFERENCE.md §6).
+ * Ref: UL 1561 / IEEE C57.110-2008 F_HL (READ via docs/methods.md §6).
  * @param x  current harmonics (any unit: only ratios matter)
  * @returns K (dimensionless); NaN when all currents are 0 or an order up to H is NaN/missing
  * @example ulKFactor([0, 1, 0, 0, 0, 0.2]) // (1 + 0.04·25)/(1.04) = 1.923
@@ -56,14 +56,14 @@ export function ulKFactor(x: ByOrder, maxOrder?: number): number {
 /**
  * Factor K for derating a transformer that feeds harmonic currents (rated capacity ÷ K):
  * K = √( 1 + (e/(1+e)) · (I_1/I)² · Σ_{n=2}^{N} n^q · (I_n/I_1)² ),  I = √(Σ_{n=1}^{N} I_n²) (DC excluded).
- * The sum starts at n = 2 as written in the standard (REFERENCE.md §6 explains why a published
+ * The sum starts at n = 2 as written in the standard (docs/methods.md §6 explains why a published
  * worked page that starts it at n = 1 is wrong).
- * Ref: BS 7821-4 / HD 538.3 S1, IEC 61378-1 style "factor K" (from memory; structure READ, REFERENCE.md §6).
+ * Ref: BS 7821-4 / HD 538.3 S1, IEC 61378-1 style "factor K" (from memory; structure READ, docs/methods.md §6).
  * @param x  current harmonics (any unit)
  * @param eddyLossRatio  e: eddy-current loss at the fundamental ÷ resistive (I²R) loss, ≥ 0
  * @param exponentQ  q: 1.7 for round or rectangular conductors, 1.5 for foil; default 1.7
  * @returns K ≥ 1; NaN when the fundamental is 0 or an order is NaN/missing
- * @example factorK(ratios, 0.091 / 0.909, 1.7) // 1.14672 for the REFERENCE.md §6 spectrum
+ * @example factorK(ratios, 0.091 / 0.909, 1.7) // 1.14672 for the docs/methods.md §6 spectrum
  */
 export function factorK(x: ByOrder, eddyLossRatio: number, exponentQ = 1.7, maxOrder?: number): number {
 	if (!(eddyLossRatio >= 0) || !Number.isFinite(eddyLossRatio)) throw new RangeError(`eddyLossRatio must be ≥ 0, got ${eddyLossRatio}`);

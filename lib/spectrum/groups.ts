@@ -17,7 +17,7 @@ import type { HarmonicGroups } from './types.js';
  * frequency) makes every group that contains it NaN.
  *
  * Ref: IEC 61000-4-7:2002+A1:2008, 3.2 and 5.5 (harmonic group, subgroup; interharmonic group,
- * centred subgroup), equations as given in REFERENCE.md §2.2 (from memory, not read from the standard).
+ * centred subgroup), equations as given in docs/methods.md §2.2 (from memory, not read from the standard).
  *
  * @param binRms  C_k, k = 0 … cycles·(maxOrder+1) at least; same unit as the samples
  * @example

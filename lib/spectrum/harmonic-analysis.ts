@@ -37,7 +37,7 @@ export interface HarmonicAnalysis {
  * Harmonic windows of `cycles` cycles, back to back from `startIndex` while a whole window fits before
  * `endIndex`, each analysed by `harmonicWindow`, and their aggregate:
  * - every magnitude (order RMS, bin RMS, groups, window RMS) is the square root of the mean of the
- *   squares over the windows (IEC 61000-4-30 aggregation, REFERENCE.md §3.2); percentages and THD are
+ *   squares over the windows (IEC 61000-4-30 aggregation, docs/methods.md §3.2); percentages and THD are
  *   recomputed from those aggregated magnitudes, not averaged;
  * - phases are the angle of the vector sum of the windows' phasors (rms·e^{jφ}): windows lie whole
  *   cycles apart, so their absolute phases share the first window's time origin (startS of the aggregate).

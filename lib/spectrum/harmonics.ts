@@ -40,7 +40,7 @@ export function basicWindowCycles(systemHz: number | undefined): 10 | 12 {
  * Window length in cycles giving ~200 ms as IEC 61000-4-7 asks: 10 below 55 Hz (50 Hz systems, whose
  * measured frequency stays within 42.5–57.5 Hz), 12 from 55 Hz to 70 Hz (60 Hz systems), and
  * round(0.2 s · f1) (at least 1) outside 40–70 Hz (e.g. 80 cycles at 400 Hz).
- * Ref: IEC 61000-4-7:2002, 4.4.1 (10/12 cycles), READ via REFERENCE.md §2.1; the 55 Hz split is ours.
+ * Ref: IEC 61000-4-7:2002, 4.4.1 (10/12 cycles), READ via docs/methods.md §2.1; the 55 Hz split is ours.
  * @example defaultWindowCycles(49.95) // 10
  */
 export function defaultWindowCycles(fundamentalHz: number): number {

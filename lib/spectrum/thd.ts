@@ -19,12 +19,12 @@ function harmonicPower(rms: ArrayLike<number>, maxOrder: number): number {
 
 /**
  * THD relative to the fundamental, percent:  THD_F = 100 · √(Σ_{h=2}^{H} I_h²) / I_1.
- * Ref: IEC 60050-551-20-13 via the IEC terms database (READ in REFERENCE.md §2.2); H = 40 as in
+ * Ref: IEC 60050-551-20-13 via the IEC terms database (READ in docs/methods.md §2.2); H = 40 as in
  * IEC 61000-4-7 / EN 50160, H = 50 as in IEEE 519 and IEC 61000-4-30 Ed.3 (from memory).
  * @param x  a HarmonicSet or RMS values indexed by order (index 1 = fundamental)
  * @param maxOrder  H, the highest order included (default 40)
  * @returns percent; NaN when orders up to H are missing or NaN, or the fundamental is 0
- * @example thdFPercent([0, 230, 0, 4.6, 0, 11.5, 0, 6.9], 7) // 6.16441 (REFERENCE.md §1.3)
+ * @example thdFPercent([0, 230, 0, 4.6, 0, 11.5, 0, 6.9], 7) // 6.16441 (docs/methods.md §1.3)
  */
 export function thdFPercent(x: ByOrder, maxOrder = 40): number {
 	const rms = orderRms(x);
@@ -48,7 +48,7 @@ export function thdRPercent(x: ByOrder, maxOrder = 40): number {
 
 /**
  * The eight THD figures of a window: THD_F and THD_R to orders 40 and 50 from the order RMS values,
- * THDG and THDS (Ref: IEC 61000-4-7 Annex / REFERENCE.md §2.2, from memory) from harmonic groups and
+ * THDG and THDS (Ref: IEC 61000-4-7 Annex / docs/methods.md §2.2, from memory) from harmonic groups and
  * subgroups, each relative to its own order-1 value.
  */
 export function thdFigures(orderRmsValues: ArrayLike<number>, groupRms: ArrayLike<number>, subgroupRms: ArrayLike<number>): HarmonicThd {

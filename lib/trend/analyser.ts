@@ -13,11 +13,11 @@
  *   first cycle after the tick (the window holding the tick completes and overlaps), and the 150/180-cycle
  *   group is cut there;
  * - power frequency per 10 s: whole measured cycles inside the interval / their duration.
- * Aggregates overlapping an event are flagged (REFERENCE §3.5). One declared voltage serves every voltage
+ * Aggregates overlapping an event are flagged (docs/methods.md §3.5). One declared voltage serves every voltage
  * channel: give line-to-neutral channels of one system (a line-to-line channel would read as a swell).
  * Memory: rings (channels × 2^k ≥ 0.5 s + 4096 samples) plus the rows kept (`keep`) and the events.
  *
- * Ref: IEC 61000-4-30:2015, 4.4-4.7, 5.1, 5.4 (from memory); REFERENCE §3.2-3.5.
+ * Ref: IEC 61000-4-30:2015, 4.4-4.7, 5.1, 5.4 (from memory); docs/methods.md §3.2-3.5.
  */
 import { basicWindowCycles, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import type { Diagnostic } from '../capture.js';
@@ -44,7 +44,7 @@ export interface TrendAnalyser {
 	readonly samplesPushed: number;
 }
 
-/** Default thresholds, % of Udin. Ref: REFERENCE §3.4 typical settings. */
+/** Default thresholds, % of Udin. Ref: docs/methods.md §3.4 typical settings. */
 export const TREND_DEFAULT_THRESHOLDS: Readonly<TrendThresholds> = { dipPercent: 90, swellPercent: 110, interruptionPercent: 5, hysteresisPercent: 2 };
 
 const BLOCK = 4096;

@@ -10,7 +10,7 @@
  *
  * Ref: IEC 61000-4-30:2015, 3.35 and 5.4.1: Urms(1/2) is measured over 1 cycle, commencing at a
  * fundamental zero crossing, refreshed each half-cycle, independently on each channel (from memory;
- * REFERENCE §3.2).
+ * docs/methods.md §3.2).
  */
 
 /** Receives what the tracker finds. Indices are absolute sample indices from the recording start. */

@@ -3,9 +3,9 @@
  * (by window start, then channel). Times are in samples from the recording start (interpolated zero
  * crossing times); an event is stamped with the start
  * of the Urms(1/2) window that began it and ends at the start of the window that ended it, so a 100 ms
- * dip starting on a zero crossing measures 110 ms (REFERENCE §3.4 worked example, within ±1 cycle).
+ * dip starting on a zero crossing measures 110 ms (docs/methods.md §3.4 worked example, within ±1 cycle).
  *
- * Polyphase rules (REFERENCE §3.4):
+ * Polyphase rules (docs/methods.md §3.4):
  * - dip: starts when any channel is below the dip threshold; ends when every channel is at or above
  *   threshold + hysteresis;
  * - swell: starts when any channel is above the swell threshold; ends when every channel is at or
@@ -16,7 +16,7 @@
  * swell. An interruption is also a dip (residual below the dip threshold), so it is reported as both,
  * each by its own rule.
  *
- * Ref: IEC 61000-4-30:2015, 5.4.2-5.4.4 (from memory; rules as in REFERENCE §3.4).
+ * Ref: IEC 61000-4-30:2015, 5.4.2-5.4.4 (from memory; rules as in docs/methods.md §3.4).
  */
 import type { TrendEventKind } from './types.js';
 

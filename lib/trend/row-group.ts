@@ -3,7 +3,7 @@
  * values (each 10/12-cycle window counts once, whatever its sample count). A flagged window flags the
  * group.
  *
- * Ref: IEC 61000-4-30:2015, 4.5.2-4.5.3 (from memory); REFERENCE §3.2 (150/180-cycle = √(mean of 15
+ * Ref: IEC 61000-4-30:2015, 4.5.2-4.5.3 (from memory); docs/methods.md §3.2 (150/180-cycle = √(mean of 15
  * squared 10/12-cycle values); 10-min = RMS of the 10/12-cycle values in the interval) and §3.5 (flags).
  */
 import type { TrendInterval, TrendRow } from './types.js';

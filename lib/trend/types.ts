@@ -13,7 +13,7 @@ export interface TrendChannelSpec {
 	unit: string;
 }
 
-/** Event thresholds in % of the declared voltage Udin. Ref: REFERENCE §3.4 (typical settings). */
+/** Event thresholds in % of the declared voltage Udin. Ref: docs/methods.md §3.4 (typical settings). */
 export interface TrendThresholds {
 	/** A dip starts when Urms(1/2) falls below this. Default 90. */
 	dipPercent: number;
@@ -85,7 +85,7 @@ export interface TrendOptions {
 	flickerPinst?: boolean;
 }
 
-/** Aggregation interval kinds of IEC 61000-4-30 (REFERENCE §3.2). */
+/** Aggregation interval kinds of IEC 61000-4-30 (docs/methods.md §3.2). */
 export type TrendInterval = '10/12-cycle' | '150/180-cycle' | '10-min';
 
 /** One aggregate: a value per channel (same order as the options' channels). */
@@ -99,13 +99,13 @@ export interface TrendRow {
 	frequencyHz: number;
 	/** False for a group cut short by the end of the recording (or, for 150/180-cycle, by a 10-min tick). */
 	complete: boolean;
-	/** True when any part of the interval overlaps a dip, swell or interruption (REFERENCE §3.5). */
+	/** True when any part of the interval overlaps a dip, swell or interruption (docs/methods.md §3.5). */
 	flagged: boolean;
 	/** RMS per channel, channel's unit. Longer intervals: √(mean of the squared 10/12-cycle values). */
 	rms: number[];
 	/**
 	 * THD per channel in % of the fundamental: harmonic subgroups 2-50 over the 10/12-cycle window (THDS,
-	 * IEC 61000-4-7 as used by IEC 61000-4-30 class A, REFERENCE §2.2; orders above fs/2 left out).
+	 * IEC 61000-4-7 as used by IEC 61000-4-30 class A, docs/methods.md §2.2; orders above fs/2 left out).
 	 * NaN when not computed; longer intervals aggregate it like rms.
 	 */
 	thdPercent: number[];
@@ -122,7 +122,7 @@ export interface TrendRow {
 	unbalancePercent?: number;
 }
 
-/** Power frequency over one 10 s interval: whole cycles / their duration (REFERENCE §3.3). */
+/** Power frequency over one 10 s interval: whole cycles / their duration (docs/methods.md §3.3). */
 export interface TrendFrequencyRow {
 	startS: number;
 	durationS: number;

@@ -14,8 +14,8 @@
  * 0.2·fs, < 2.3 % at 0.25·fs (the 50th harmonic at 10 kS/s); IEC 61000-4-7 class I allows ±5 % of the
  * reading. Low orders, which dominate THD, are exact to ~1e-5 relative.
  *
- * Ref: IEC 61000-4-7:2002, 4.4.1 and 3.3 (subgroups), via REFERENCE §2.1-2.2 (from memory); IEC
- * 61000-4-30:2015 class A uses subgroups up to the 50th order (REFERENCE §2.2, from memory).
+ * Ref: IEC 61000-4-7:2002, 4.4.1 and 3.3 (subgroups), via docs/methods.md §2.1-2.2 (from memory); IEC
+ * 61000-4-30:2015 class A uses subgroups up to the 50th order (docs/methods.md §2.2, from memory).
  */
 import { MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import FFT from 'fft.js';
@@ -63,7 +63,7 @@ export class WindowThd {
 	 * fundamental's subgroup (index = order; [1] = 100; NaN at or above fs/2 and for order 0).
 	 * When `fundamentalOut` (length ≥ 2) is given it receives the fundamental's DFT bin (re, im; a phasor in
 	 * the window's time frame, the same frame for every channel windowed on the same crossings).
-	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the REFERENCE §1.3 mix
+	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the docs/methods.md §1.3 mix
 	 */
 	thdPercent(ring: Float64Array, mask: number, startT: number, endT: number, sampleRateHz: number, harmonicsOut?: Float64Array, fundamentalOut?: Float64Array): number {
 		const tab = weightTable();

@@ -3,7 +3,7 @@
  * in this process, fed the file as a Blob (fs.openAsBlob, as a picked File reaches the worker) that it
  * streams in slices through lib/io's CsvStreamReader, then analysis, trends and events, up to the 'opened'
  * message. Reference measured in the same run on the same file: the CLI, `sinecheck analyse --json --jobs 0`
- * (readFileSync, openCaptures, analyseCapture; no trends). Target (issue 16): under 6 s for the worker path
+ * (readFileSync, openCaptures, analyseCapture; no trends). Target: under 6 s for the worker path
  * on a ~279 MB, 24 M-value CSV on this machine. Also printed: the stages the progress reported (each with
  * a fraction or an estimate), peak memory, and the load average (the machine is shared: compare ratios).
  * The file (time + 6 channels x 4,000,000 rows, ~282 MB) is written once to a temporary folder and removed.

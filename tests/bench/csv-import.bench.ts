@@ -3,7 +3,7 @@
  * (Node file stream, `step` callback, parseFloat per field into pre-sized Float64Arrays), on a generated
  * 1,000,000-row x 5-column file (time + 4 channels, ~54 MB) and its semicolon/decimal-comma twin.
  * Each case runs in a fresh child process, so its peak memory (VmHWM minus the baseline just before the
- * parse) is its own. Targets (issue 5): throughput >= 3x papaparse; peak memory < 3x the final arrays.
+ * parse) is its own. Target: throughput >= 3x papaparse; peak memory < 3x the final arrays.
  */
 import { spawnSync } from 'node:child_process';
 import { createReadStream, mkdtempSync, openSync, readSync, rmSync, statSync, writeSync, closeSync } from 'node:fs';

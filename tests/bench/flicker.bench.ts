@@ -3,7 +3,7 @@
  * a 230 V, 50 Hz supply with 7 changes/min rectangular modulation (3.84 million samples, generated once
  * into one array), pushed in 65536-sample chunks: blocks 1-4 per sample, classification, Pst.
  *
- * Target (issue 13): >= 2000x real time per channel on one core (10 minutes in < 0.3 s).
+ * Target: >= 2000x real time per channel on one core (10 minutes in < 0.3 s).
  * Reference measured in the same run over the same samples: one bare second-order IIR section (direct
  * form II transposed), the cheapest recursive filter there is; the flickermeter runs eight sections, a
  * division and a classification per sample, so a ratio of ~8-15x that kernel is the expected cost.

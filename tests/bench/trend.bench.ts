@@ -5,7 +5,7 @@
  * events, 10/12-cycle RMS and THD, 150/180-cycle, 10-min, 10 s frequency), as `sinecheck trend` does in
  * CSV mode (rows handed on, none kept).
  *
- * Targets (issue 8): ≥ 200x real time on one core (the hour in < 18 s); peak memory < 300 MB whatever
+ * Target: ≥ 200x real time on one core (the hour in < 18 s); peak memory < 300 MB whatever
  * the length (checked by running a 10-minute file first: the peak must not grow with the hour).
  * References measured in the same run: the same file read by the same reader plus a bare sum of
  * squares (I/O and decoding floor), and a bare in-memory sum-of-squares pass (the ~0.6 ns/sample kernel).

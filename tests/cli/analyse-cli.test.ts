@@ -1,7 +1,7 @@
 /**
  * End-to-end: the BUILT command (node dist/src/cli/main.js) run as a child process on capture files
  * written here from closed-form signals. Expected figures come from formulas (named beside each check),
- * from REFERENCE.md's computed vectors, or from the library called in this process on the same file.
+ * from docs/methods.md's computed vectors, or from the library called in this process on the same file.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -43,7 +43,7 @@ const I1 = { header: 'I1 (A)', tones: [{ order: 1, rms: 10, phaseDeg: -30 }] };
 beforeAll(async () => {
 	await ensureBuiltCli();
 	writeCsvCapture(join(dir, 'feeder.csv'), [U1, I1], { frequencyHz: F, sampleRateHz: FS, cycles: 20 });
-	// REFERENCE.md section 5.4 / 7 set: 230 V at 0 deg, 220 V at -118 deg, 235 V at +121 deg.
+	// docs/methods.md section 5.4 / 7 set: 230 V at 0 deg, 220 V at -118 deg, 235 V at +121 deg.
 	writeCsvCapture(
 		join(dir, 'board.csv'),
 		[
@@ -62,7 +62,7 @@ beforeAll(async () => {
 	// RIFF layout: 'RIFF' size 'WAVE' (bytes 0-11), then the 'fmt ' chunk id (12-15) and its size field
 	// (16-19) saying 16 bytes, of which only 4 follow: the size field at byte 16 is what is wrong.
 	writeFileSync(join(dir, 'truncated.wav'), Buffer.concat([Buffer.from('RIFF'), Buffer.alloc(4), Buffer.from('WAVEfmt '), Buffer.from([16, 0, 0, 0, 1, 0, 1, 0])]));
-	// 5th harmonic at 6.004 % of the fundamental: 0.004 percent points over EN 50160's 6 % (REFERENCE.md 4.1).
+	// 5th harmonic at 6.004 % of the fundamental: 0.004 percent points over EN 50160's 6 % (docs/methods.md 4.1).
 	writeCsvCapture(join(dir, 'at-limit.csv'), [{ header: 'U1 (V)', tones: [{ order: 1, rms: 230 }, { order: 5, rms: 230 * 0.06004 }] }], { frequencyHz: F, sampleRateHz: FS, cycles: 20 });
 }, 120_000);
 
@@ -80,7 +80,7 @@ describe('sinecheck analyse --json', () => {
 		expect(doc.durationS).toBeCloseTo(20 / F, 9); // N / fs
 	});
 
-	it('analyse --json gives true RMS sqrt(230^2 + 11.5^2) and THD 5.00 % on a sine with a 5 % 5th (RMS of a sum of harmonics, REFERENCE.md 1.3)', () => {
+	it('analyse --json gives true RMS sqrt(230^2 + 11.5^2) and THD 5.00 % on a sine with a 5 % 5th (RMS of a sum of harmonics, docs/methods.md 1.3)', () => {
 		const doc = JSON.parse(run(['analyse', 'feeder.csv', '--json']).stdout);
 		const u = doc.channels.find((c: { name: string }) => c.name === 'U1');
 		expect(u.unit).toBe('V');
@@ -98,7 +98,7 @@ describe('sinecheck analyse --json', () => {
 		expect(doc.cyclesAnalysed).toBeLessThanOrEqual(20);
 	});
 
-	it('analyse --json gives lag 30 deg = 1.667 ms and P = 230·10·cos 30°, Q1 = 230·10·sin 30° for a current lagging 30° (IEEE 1459 definitions, REFERENCE.md 5.1)', () => {
+	it('analyse --json gives lag 30 deg = 1.667 ms and P = 230·10·cos 30°, Q1 = 230·10·sin 30° for a current lagging 30° (IEEE 1459 definitions, docs/methods.md 5.1)', () => {
 		const doc = JSON.parse(run(['analyse', 'feeder.csv', '--json']).stdout);
 		const pair = doc.pairs.find((p: { other: string }) => p.other === 'I1');
 		expect(pair.ref).toBe('U1');
@@ -125,7 +125,7 @@ describe('sinecheck analyse --json', () => {
 		expect(doc).toEqual(JSON.parse(JSON.stringify(lib)));
 	});
 
-	it('analyse --json on an unbalanced three-phase set gives VUF 2.7699 %, PVUR 3.6496 %, LVUR 2.4680 % (REFERENCE.md section 7 computed vectors)', () => {
+	it('analyse --json on an unbalanced three-phase set gives VUF 2.7699 %, PVUR 3.6496 %, LVUR 2.4680 % (docs/methods.md section 7 computed vectors)', () => {
 		const r = run(['analyse', 'board.csv', '--json']);
 		expect(r.code).toBe(0);
 		const doc = JSON.parse(r.stdout);
@@ -143,7 +143,7 @@ describe('sinecheck analyse --json', () => {
 });
 
 describe('sinecheck analyse exit codes', () => {
-	it('analyse --limits en50160 exits 0 with a 5 % 5th (EN 50160 limit 6 %, REFERENCE.md 4.1)', () => {
+	it('analyse --limits en50160 exits 0 with a 5 % 5th (EN 50160 limit 6 %, docs/methods.md 4.1)', () => {
 		const r = run(['analyse', 'feeder.csv', '--limits', 'en50160', '--json']);
 		expect(r.code).toBe(0);
 		const doc = JSON.parse(r.stdout);
@@ -157,7 +157,7 @@ describe('sinecheck analyse exit codes', () => {
 		expect(h5.pass).toBe(true);
 	});
 
-	it('analyse --limits en50160 exits 1 with a 7 % 5th (over the 6 % limit, REFERENCE.md 4.1)', () => {
+	it('analyse --limits en50160 exits 1 with a 7 % 5th (over the 6 % limit, docs/methods.md 4.1)', () => {
 		const r = run(['analyse', 'distorted.csv', '--limits', 'en50160']);
 		expect(r.code).toBe(1);
 		expect(r.stdout).toMatch(/FAIL/);
@@ -249,7 +249,7 @@ describe('sinecheck analyse output forms', () => {
 		expect(lines.filter((l) => l.startsWith('file,'))).toHaveLength(1);
 	});
 
-	it('analyse --limits en50160 prints a 5th 0.004 points over 6 % with enough decimals to show it, the limit source as standard + table (no provenance words) and the basis it was judged on (REFERENCE.md 4.1)', () => {
+	it('analyse --limits en50160 prints a 5th 0.004 points over 6 % with enough decimals to show it, the limit source as standard + table (no provenance words) and the basis it was judged on (docs/methods.md 4.1)', () => {
 		const r = run(['analyse', 'at-limit.csv', '--limits', 'en50160']);
 		expect(r.code).toBe(1);
 		// 6.004 - 6 = 0.004: 2 decimals read -0.00, 3 show it

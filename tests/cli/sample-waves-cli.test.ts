@@ -117,7 +117,7 @@ describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
 		expect(table.stdout).toMatch(/EN 50160:2010, Table 5: 70 > u ≥ 40 %, 10-200 ms: 1/);
 	});
 
-	it('trend incomer-dip.cfg (wired as sinecheck trend) reports the dip on Ub: residual 55 % of 230 V, 0.12 s within one cycle (ground truth; IEC 61000-4-30 duration uncertainty, REFERENCE.md 3.4)', () => {
+	it('trend incomer-dip.cfg (wired as sinecheck trend) reports the dip on Ub: residual 55 % of 230 V, 0.12 s within one cycle (ground truth; IEC 61000-4-30 duration uncertainty, docs/methods.md 3.4)', () => {
 		const r = spawnSync(process.execPath, [main, 'trend', join('sample-waves', 'incomer-dip.cfg')], { cwd: root, encoding: 'utf8', timeout: 120_000 });
 		expect(r.status, r.stderr).toBe(0);
 		expect(r.stdout.split('\n')[0]).toMatch(/^interval,start_s/);

@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { isImportError, parseComtrade, parseComtradeCff } from '../../lib/index.js';
 import { comtradeCffBytes, comtradeCfgText, comtradeDatBytes, type WriterSpec } from '../../sample-waves/writers/comtrade.js';
 
-// Property (issue 5): on any input the COMTRADE readers return a capture or throw the typed ImportError,
+// Property: on any input the COMTRADE readers return a capture or throw the typed ImportError,
 // never anything else, and they finish (vitest's timeout bounds every property run).
 function readsOrRefuses(f: () => unknown): boolean {
 	try {

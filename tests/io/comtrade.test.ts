@@ -86,7 +86,7 @@ describe('parseComtrade on a hand-written 1999 ASCII record (tests/fixtures/comt
 });
 
 describe('parseComtrade on binary records built byte by byte in the test', () => {
-	// BINARY layout (IEEE C37.111, REFERENCE.md §8.2: read in a secondary source, python-comtrade's reader): uint32 n, uint32 stamp,
+	// BINARY layout (IEEE C37.111, docs/methods.md §8.2: read in a secondary source, python-comtrade's reader): uint32 n, uint32 stamp,
 	// int16 per analog, uint16 per 16 digital channels, little-endian.
 	const cfg = ['Bench,rig,1999', '2,1A,1D', '1,Ia,A,feeder,A,0.001,0.5,0,-32767,32767,100,1,P', '1,trip,,,1', '60', '1', '2000,3',
 		'05/03/2026,12:00:00.000000', '05/03/2026,12:00:00.000000', 'BINARY', '1', ''].join('\r\n');

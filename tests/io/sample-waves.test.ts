@@ -84,7 +84,7 @@ describe('sample-waves demo captures', () => {
 		});
 
 		it(`${f.file}: unbalance from DFT phasors of the samples equals the ground truth (within 0.05 points)`, () => {
-			// symmetrical components (Fortescue; REFERENCE.md §7): X2 = (X1 + a²·X2 + a·X3)/3, X1 = (X1 + a·X2 + a²·X3)/3
+			// symmetrical components (Fortescue; docs/methods.md §7): X2 = (X1 + a²·X2 + a·X3)/3, X1 = (X1 + a·X2 + a²·X3)/3
 			const c = openDemo(f).captures[0];
 			const dip = f.channels.flatMap((ch) => ch.envelope)[0];
 			for (const t of f.threePhase) {

@@ -2,17 +2,17 @@ import { describe, expect, it } from 'vitest';
 import { EN50160_TABLE, evaluateLimits, IEC61000_2_2_TABLE, IEEE519_TABLE, LIMIT_TABLES, type LimitInput, type LimitTableId } from '../../lib/index.js';
 
 // Expected limits written out here, independently of the tables under test, from the standards' tables
-// as given in REFERENCE §4 (shared reference notes); each block says how the notes obtained them.
+// as given in docs/methods.md §4 (shared reference notes); each block says how the notes obtained them.
 
-// EN 50160:2010, Table 1 (LV), % of the fundamental; REFERENCE §4.1 [READ] (read in a secondary source
+// EN 50160:2010, Table 1 (LV), % of the fundamental; docs/methods.md §4.1 (read in a secondary source
 // reprinting the table, not in the standard itself).
 const EN50160: Record<number, number> = {
 	2: 2, 3: 5, 4: 1, 5: 6, 6: 0.5, 7: 5, 8: 0.5, 9: 1.5, 10: 0.5, 11: 3.5, 12: 0.5, 13: 3, 14: 0.5, 15: 0.5,
 	16: 0.5, 17: 2, 18: 0.5, 19: 1.5, 20: 0.5, 21: 0.5, 22: 0.5, 23: 1.5, 24: 0.5, 25: 1.5,
 };
 
-// IEC 61000-2-2:2002+A1+A2, Table 1 tabulated values and its three formulas for high orders; REFERENCE
-// §4.2 [MEMORY]: from memory, not read in the standard.
+// IEC 61000-2-2:2002+A1+A2, Table 1 tabulated values and its three formulas for high orders;
+// docs/methods.md §4.2: from memory, not read in the standard.
 function iec61000_2_2(h: number): number | undefined {
 	const fixed: Record<number, number> = { 2: 2, 3: 5, 4: 1, 5: 6, 6: 0.5, 7: 5, 8: 0.5, 9: 1.5, 11: 3.5, 13: 3, 15: 0.4, 21: 0.3 };
 	if (h in fixed) return fixed[h];
@@ -32,20 +32,20 @@ function spectrum(limits: Map<number, number>, fraction: number, order?: number,
 
 const EPS = 1e-6;
 
-describe('limit tables hold the standards\' values (REFERENCE §4) with a source on every row', () => {
-	it('EN 50160:2010 Table 1: orders 2…25, and 4.2.8 THD 8 % to order 40 (REFERENCE §4.1, read in a secondary source)', () => {
+describe('limit tables hold the standards\' values (docs/methods.md §4) with a source on every row', () => {
+	it('EN 50160:2010 Table 1: orders 2…25, and 4.2.8 THD 8 % to order 40 (docs/methods.md §4.1, read in a secondary source)', () => {
 		expect(EN50160_TABLE.rows.map((r) => [r.order, r.limitPercent])).toEqual(Object.entries(EN50160).map(([h, v]) => [Number(h), v]));
 		expect(EN50160_TABLE.total).toMatchObject({ name: 'THD', limitPercent: 8, maxOrder: 40 });
 	});
 
-	it('IEC 61000-2-2 Table 1: tabulated values and the three formulas for orders 2…50 (REFERENCE §4.2, from memory)', () => {
+	it('IEC 61000-2-2 Table 1: tabulated values and the three formulas for orders 2…50 (docs/methods.md §4.2, from memory)', () => {
 		for (let h = 2; h <= 50; h++) {
 			const row = IEC61000_2_2_TABLE.rows.find((r) => r.order === h);
 			const expected = iec61000_2_2(h);
 			if (expected === undefined) expect(row).toBeUndefined();
 			else expect(row?.limitPercent).toBeCloseTo(expected, 12);
 		}
-		// IEC 61000-2-2 Table 1 formula 2.27·(17/h) − 0.27 worked by hand (REFERENCE §4.2 note, from memory):
+		// IEC 61000-2-2 Table 1 formula 2.27·(17/h) − 0.27 worked by hand (docs/methods.md §4.2 note, from memory):
 		// h = 19: 2.27·17/19 − 0.27 = 1.761; h = 25: 2.27·17/25 − 0.27 = 1.274 → 1.76 / 1.27 %
 		expect(IEC61000_2_2_TABLE.rows.find((r) => r.order === 19)?.limitPercent).toBeCloseTo(1.76, 2);
 		expect(IEC61000_2_2_TABLE.rows.find((r) => r.order === 25)?.limitPercent).toBeCloseTo(1.27, 2);
@@ -64,7 +64,7 @@ describe('limit tables hold the standards\' values (REFERENCE §4) with a source
 			expect(provenances).toContain(r.provenance);
 			expect(r.provenanceNote.length).toBeGreaterThan(10);
 		}
-		// REFERENCE §4.1 [READ], §4.2 [MEMORY], §4.3 Tables 1–2 [READ] and Tables 3–4 [MEMORY]
+		// docs/methods.md §4.1 (read in a secondary source), §4.2 (from memory), §4.3 Tables 1–2 (read in secondary sources) and Tables 3–4 (from memory)
 		expect(EN50160_TABLE.rows.every((r) => r.provenance === 'read in a secondary source')).toBe(true);
 		expect(IEC61000_2_2_TABLE.rows.every((r) => r.provenance === 'from memory')).toBe(true);
 		for (const r of IEEE519_TABLE.current) expect(r.provenance).toBe(r.upToV <= 69_000 ? 'read in a secondary source' : 'from memory');
@@ -122,7 +122,7 @@ describe('evaluateLimits on spectra just under and just over each limit', () => 
 		expect(e.total.pass).toBe(true); // √(30.25 + 20.25 + 11.56 + 0.16) = 7.888 % ≤ 8 %
 	});
 
-	// IEEE 519-2014/2022 Table 1, REFERENCE §4.3 [READ] (secondary summaries of the 2014 revision)
+	// IEEE 519-2014/2022 Table 1, docs/methods.md §4.3 (read in secondary summaries of the 2014 revision)
 	it('IEEE 519 voltage: the Table 1 row follows the bus voltage (≤1 kV 5/8, ≤69 kV 3/5, ≤161 kV 1.5/2.5, above 1/1.5)', () => {
 		const rows: [number, number, number][] = [[400, 5, 8], [1000, 5, 8], [11_000, 3, 5], [69_000, 3, 5], [132_000, 1.5, 2.5], [400_000, 1, 1.5]];
 		for (const [v, ind, thd] of rows) {
@@ -137,9 +137,9 @@ describe('evaluateLimits on spectra just under and just over each limit', () => 
 		}
 	});
 
-	// IEEE 519-2014/2022 Table 2 (120 V–69 kV), REFERENCE §4.3 [READ] (textbook reprint of the 1992 table, same
-	// numbers in 2014/2022); even rule: 25 % of the odd limit (1992/2014 note, [READ] textbook reprint),
-	// 2022: 50 % for h ≤ 6 and 100 % above ([READ] summary of the 2022 revision).
+	// IEEE 519-2014/2022 Table 2 (120 V–69 kV), docs/methods.md §4.3 (read in a textbook reprint of the 1992 table, same
+	// numbers in 2014/2022); even rule: 25 % of the odd limit (1992/2014 note, read in a textbook reprint),
+	// 2022: 50 % for h ≤ 6 and 100 % above (read in a summary of the 2022 revision).
 	// I_SC/I_L rows: [ratio, 3–10, 11–16, 17–22, 23–34, 35–50, TDD]
 	const TABLE2: [number, number, number, number, number, number, number][] = [
 		[10, 4, 2, 1.5, 0.6, 0.3, 5],
@@ -191,7 +191,7 @@ describe('evaluateLimits on spectra just under and just over each limit', () => 
 		}
 	});
 
-	// IEEE 519-2014 Tables 3 and 4 (REFERENCE §4.3 [MEMORY]: from memory): I_SC/I_L 20–50 row, h5 (band 3 ≤ h < 11)
+	// IEEE 519-2014 Tables 3 and 4 (docs/methods.md §4.3 (from memory): from memory): I_SC/I_L 20–50 row, h5 (band 3 ≤ h < 11)
 	// 3.5 % and TDD 4.0 % in Table 3; 2.0 % and TDD 2.5 % in Table 4's 25–<50 row.
 	it('IEEE 519 currents above 69 kV use Table 3, above 161 kV Table 4 (from memory, provenance says so)', () => {
 		const p = new Float64Array(51);

@@ -8,11 +8,11 @@ const o = { frequencyHz: 50, sampleRateHz: fs, cycles: 10.4 };
 const sine = (rms: number, deg: number) => sineSamples({ amplitude: rms * Math.SQRT2, frequencyHz: 50, sampleRateHz: fs, cycles: 10.4, phaseDeg: deg });
 
 describe('threePhaseFromSamples', () => {
-	// REFERENCE.md §5.4 set [COMPUTED]: phasor angles; the common sine/cosine reference does not change relations
+	// docs/methods.md §5.4 set (computed by docs/check-vectors.py): phasor angles; the common sine/cosine reference does not change relations
 	const voltages: T3 = [sine(230, 0), sine(220, -118), sine(235, 121)];
 	const currents: T3 = [sine(10, -30), sine(12, -150), sine(8, 90)];
 
-	it('of the REFERENCE.md §5.4 set (computed vector from the shared reference script) gives VUF 2.7699 %, Ve 228.4083 V, Ie 10.3280 A, Se 7076.97 VA, PF 0.82552, positive rotation', () => {
+	it('of the docs/methods.md §5.4 set (computed vector from the shared reference script) gives VUF 2.7699 %, Ve 228.4083 V, Ie 10.3280 A, Se 7076.97 VA, PF 0.82552, positive rotation', () => {
 		const r = threePhaseFromSamples({ voltages, currents, wiring: '4-wire' }, fs);
 		if (!r.ok) throw new Error(r.message);
 		expect(r.voltageUnbalance.vufPercent).toBeCloseTo(2.7699, 3);

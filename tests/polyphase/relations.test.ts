@@ -31,7 +31,7 @@ describe('line-to-line voltages', () => {
 		expect(phasorArgDeg(v31)).toBeCloseTo(150, 10);
 	});
 
-	it('sqrt3Check passes a balanced star and fails the REFERENCE.md §5.4 unbalanced set (computed vector from the shared reference script)', () => {
+	it('sqrt3Check passes a balanced star and fails the docs/methods.md §5.4 unbalanced set (computed vector from the shared reference script)', () => {
 		const b = balanced();
 		const ok = sqrt3Check(b, lineVoltagePhasors(...b));
 		expect(ok.consistent).toBe(true);

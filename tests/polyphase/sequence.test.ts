@@ -49,7 +49,7 @@ describe('symmetricalComponents: constructed cases (closed form)', () => {
 	});
 });
 
-describe('phase-voltage example of REFERENCE.md §5.4/§7 [COMPUTED by reference-vectors.py, not published]', () => {
+describe('phase-voltage example of docs/methods.md §5.4/§7 [COMPUTED by reference-vectors.py, not published]', () => {
 	const va = P(230, 0);
 	const vb = P(220, -118);
 	const vc = P(235, 121);
@@ -85,8 +85,8 @@ describe('phase-voltage example of REFERENCE.md §5.4/§7 [COMPUTED by reference
 	});
 });
 
-describe('NEMA line-voltage unbalance, published examples (NEMA MG 1 LVUR; examples read in a secondary source, REFERENCE.md §7)', () => {
-	it('460/467/450 V gives LVUR 1.96 % (published); β 0.33364020 and VUF 2.1465 % [COMPUTED]', () => {
+describe('NEMA line-voltage unbalance, published examples (NEMA MG 1 LVUR; examples read in a secondary source, docs/methods.md §7)', () => {
+	it('460/467/450 V gives LVUR 1.96 % (published); β 0.33364020 and VUF 2.1465 % (computed by docs/check-vectors.py)', () => {
 		const u = lineMagnitudeUnbalance(460, 467, 450);
 		expect(u.lvurPercent).toBeCloseTo(1.96, 2);
 		expect(u.betaRatio).toBeCloseTo(0.3336402, 8);
@@ -98,7 +98,7 @@ describe('NEMA line-voltage unbalance, published examples (NEMA MG 1 LVUR; examp
 	it('480/476/472 V gives LVUR 0.84 % (published), not the (max − min)/avg 1.68 %', () => {
 		expect(lineMagnitudeUnbalance(480, 476, 472).lvurPercent).toBeCloseTo(0.84, 2);
 	});
-	it('the β formula agrees with |V2|/|V1| of the closed line-voltage triangle (460/467/450 V, |V1| 458.947, |V2| 9.851 [COMPUTED])', () => {
+	it('the β formula agrees with |V2|/|V1| of the closed line-voltage triangle (460/467/450 V, |V1| 458.947, |V2| 9.851 (computed by docs/check-vectors.py))', () => {
 		// place U12 on the real axis, close the triangle by the law of cosines (closed form)
 		const [a, b, c] = [460, 467, 450];
 		const phi = Math.acos((c * c - a * a - b * b) / (2 * a * b));
@@ -144,20 +144,20 @@ describe('phaseRotation', () => {
 });
 
 describe('currentUnbalance', () => {
-	it('of the REFERENCE.md §5.4 currents (computed vector from the shared reference script: 10∠−30°, 12∠−150°, 8∠90°) gives max deviation 20 % (closed form: avg 10, dev 2) and |I0|/|I1| = |In|/(3|I1|)', () => {
+	it('of the docs/methods.md §5.4 currents (computed vector from the shared reference script: 10∠−30°, 12∠−150°, 8∠90°) gives max deviation 20 % (closed form: avg 10, dev 2) and |I0|/|I1| = |In|/(3|I1|)', () => {
 		const ia = P(10, -30);
 		const ib = P(12, -150);
 		const ic = P(8, 90);
 		const u = currentUnbalance(ia, ib, ic);
 		expect(u.maxDeviationPercent).toBeCloseTo(20, 12);
 		const inMag = phasorAbs({ re: ia.re + ib.re + ic.re, im: ia.im + ib.im + ic.im });
-		expect(inMag).toBeCloseTo(3.4641, 4); // REFERENCE.md §5.4 [COMPUTED]
+		expect(inMag).toBeCloseTo(3.4641, 4); // docs/methods.md §5.4 (computed by docs/check-vectors.py)
 		expect(u.zeroSequencePercent).toBeCloseTo((100 * inMag) / 3 / symmetricalComponents(ia, ib, ic).positiveRms, 10);
 	});
 });
 
 describe('unbalance with phase labels in negative rotation', () => {
-	it('swapping labels 2 and 3 of the §5.4 set keeps VUF 2.7699 % and V0/V1 1.3375 % [COMPUTED] and reports the rotation', () => {
+	it('swapping labels 2 and 3 of the §5.4 set keeps VUF 2.7699 % and V0/V1 1.3375 % (computed by docs/check-vectors.py) and reports the rotation', () => {
 		const u = voltageUnbalance(P(230, 0), P(235, 121), P(220, -118));
 		expect(u.measuredRotation).toBe('negative');
 		expect(u.vufPercent).toBeCloseTo(2.7699, 4);

@@ -34,13 +34,13 @@ describe('channelRelationFromSamples (lib/signal whole cycles + lib/spectrum pha
 });
 
 describe('singlePhasePowerFromSamples', () => {
-	it('reproduces REFERENCE.md §5.3 [COMPUTED] from samples found by lib/signal (10.5 cycles recorded)', () => {
+	it('reproduces docs/methods.md §5.3 (computed by docs/check-vectors.py) from samples found by lib/signal (10.5 cycles recorded)', () => {
 		const o = { frequencyHz: 50, sampleRateHz: 12_800, cycles: 10.5 };
 		const v = harmonicSamples([{ order: 1, rms: 230 }, { order: 3, rms: 6.9 }, { order: 5, rms: 11.5 }], o);
 		const i = harmonicSamples([{ order: 1, rms: 10, phaseDeg: -30 }, { order: 3, rms: 3, phaseDeg: 60 }, { order: 5, rms: 2, phaseDeg: -45 }], o);
 		const r = singlePhasePowerFromSamples(v, i, 12_800);
 		if (!r.ok) throw new Error(r.message);
-		// REFERENCE.md §5.3, computed vector from the shared reference script; the last three are closed form:
+		// docs/methods.md §5.3, computed vector from the shared reference script; the last three are closed form:
 		// Q1 = 230·10·sin 30° = 1150 var, DPF = cos 30° = 0.866025, THD_I = √(3² + 2²)/10 = 36.0555 %
 		expect(r.power.activePowerW).toBeCloseTo(2018.4719, 2);
 		expect(r.power.fundamentalReactivePowerVar).toBeCloseTo(1150, 2);

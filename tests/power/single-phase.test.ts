@@ -95,7 +95,7 @@ describe('ieee1459FromComponents: a hand-derived example (own closed form)', () 
 	});
 });
 
-describe('single-phase worked example of REFERENCE.md §5.3 [COMPUTED by reference-vectors.py, not a published example]', () => {
+describe('single-phase worked example of docs/methods.md §5.3 [COMPUTED by reference-vectors.py, not a published example]', () => {
 	// v: V1 = 230, V3 = 6.9, V5 = 11.5 V at 0°; i: I1 = 10 A lag 30°, I3 = 3 A with θ3 = −60°, I5 = 2 A lag 45° (sine reference)
 	const vTones = [{ order: 1, rms: 230 }, { order: 3, rms: 6.9 }, { order: 5, rms: 11.5 }];
 	const iTones = [{ order: 1, rms: 10, phaseDeg: -30 }, { order: 3, rms: 3, phaseDeg: 60 }, { order: 5, rms: 2, phaseDeg: -45 }];
@@ -183,7 +183,7 @@ describe('windowMean and powerWindowWeights (trapezoid rule with fractional ends
 });
 
 describe('powerPerOrder', () => {
-	it('splits REFERENCE.md §5.3 into P3 = 6.9·3·cos 60° = 10.35 W and P5 = 11.5·2·cos 45° W, summing to P_H = 26.6135 W [COMPUTED]', () => {
+	it('splits docs/methods.md §5.3 into P3 = 6.9·3·cos 60° = 10.35 W and P5 = 11.5·2·cos 45° W, summing to P_H = 26.6135 W (computed by docs/check-vectors.py)', () => {
 		const u = setFromSineTones([{ order: 1, rms: 230 }, { order: 3, rms: 6.9 }, { order: 5, rms: 11.5 }]);
 		const i = setFromSineTones([{ order: 1, rms: 10, phaseDeg: -30 }, { order: 3, rms: 3, phaseDeg: 60 }, { order: 5, rms: 2, phaseDeg: -45 }]);
 		const per = powerPerOrder(u, i);

@@ -21,7 +21,7 @@ function fundamentalOnly(v: Three<ComplexPhasor>, i: Three<ComplexPhasor>, wirin
 	});
 }
 
-describe('ieee1459ThreePhaseFromComponents: three-phase example of REFERENCE.md §5.4 [COMPUTED by reference-vectors.py, not published]', () => {
+describe('ieee1459ThreePhaseFromComponents: three-phase example of docs/methods.md §5.4 [COMPUTED by reference-vectors.py, not published]', () => {
 	const v: Three<ComplexPhasor> = [P(230, 0), P(220, -118), P(235, 121)];
 	const i: Three<ComplexPhasor> = [P(10, -30), P(12, -150), P(8, 90)];
 	const r = fundamentalOnly(v, i, '4-wire');
@@ -103,7 +103,7 @@ describe('threePhasePowerFromHarmonics', () => {
 });
 
 describe('ieee1459ThreePhaseFromComponents with phase labels in negative rotation', () => {
-	it('takes the positive sequence in the measured rotation: swapping labels 2 and 3 of the §5.4 set keeps S1+ 6849.315 VA and S_U1 1780.565 VA [COMPUTED]', () => {
+	it('takes the positive sequence in the measured rotation: swapping labels 2 and 3 of the §5.4 set keeps S1+ 6849.315 VA and S_U1 1780.565 VA (computed by docs/check-vectors.py)', () => {
 		const v: Three<ComplexPhasor> = [P(230, 0), P(235, 121), P(220, -118)];
 		const i: Three<ComplexPhasor> = [P(10, -30), P(8, 90), P(12, -150)];
 		const r = fundamentalOnly(v, i, '4-wire');

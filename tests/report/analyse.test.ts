@@ -1,6 +1,6 @@
 /**
  * analyseCapture on captures built from closed-form signals (tests/helpers/synth.ts). Expected values come
- * from formulas written out here, REFERENCE.md's tables and computed vectors, or independent sums over the
+ * from formulas written out here, docs/methods.md's tables and computed vectors, or independent sums over the
  * samples; never from the code under test.
  */
 import { readFileSync } from 'node:fs';
@@ -35,7 +35,7 @@ describe('analyseCapture: one channel', () => {
 	const report = analyseCapture(capture([channel('U1', 'V', 'voltage', u)]));
 	const c = report.channels[0];
 
-	it('analyseCapture(capture) separates DC: mean 10, acRms √(230² + 11.5²), rms √(acRms² + 10²) (RMS of a sum of harmonics, REFERENCE.md 1.3, read in a secondary source)', () => {
+	it('analyseCapture(capture) separates DC: mean 10, acRms √(230² + 11.5²), rms √(acRms² + 10²) (RMS of a sum of harmonics, docs/methods.md 1.3, read in a secondary source)', () => {
 		const ac = Math.hypot(230, 11.5);
 		expect(c.mean).toBeCloseTo(10, 6);
 		expect(c.acRms).toBeCloseTo(ac, 6);
@@ -43,14 +43,14 @@ describe('analyseCapture: one channel', () => {
 		expect(c.harmonics[0].rms).toBeCloseTo(10, 6); // order 0 is |DC|
 	});
 
-	it('analyseCapture(capture) gives THD_F 5 % and THD_R 5/√(1+0.05²) % for a 5 % 5th (THD definitions, REFERENCE.md 2.2: IEC terms database definition read in a secondary source, equations from memory)', () => {
+	it('analyseCapture(capture) gives THD_F 5 % and THD_R 5/√(1+0.05²) % for a 5 % 5th (THD definitions, docs/methods.md 2.2: IEC terms database definition read in a secondary source, equations from memory)', () => {
 		expect(c.thdPercent).toBeCloseTo(5, 6);
 		expect(c.thdRPercent).toBeCloseTo(5 / Math.sqrt(1 + 0.05 ** 2), 6);
 		expect(c.harmonics[5].percentOfFundamental).toBeCloseTo(5, 6);
 		expect(c.harmonics).toHaveLength(51);
 	});
 
-	it('analyseCapture(capture) gives K-factor (230² + 11.5²·25)/(230² + 11.5²) (UL K-factor, REFERENCE.md 6, read in a secondary source)', () => {
+	it('analyseCapture(capture) gives K-factor (230² + 11.5²·25)/(230² + 11.5²) (UL K-factor, docs/methods.md 6, read in a secondary source)', () => {
 		expect(c.kFactor).toBeCloseTo((230 ** 2 + 11.5 ** 2 * 25) / (230 ** 2 + 11.5 ** 2), 6);
 	});
 
@@ -75,7 +75,7 @@ describe('analyseCapture: one channel', () => {
 });
 
 describe('analyseCapture: windows and span', () => {
-	it('analyseCapture(capture) cuts 10-cycle harmonic windows at 50 Hz and 12-cycle ones at 60 Hz (IEC 61000-4-7 4.4.1, REFERENCE.md 2.1, read in a secondary source)', () => {
+	it('analyseCapture(capture) cuts 10-cycle harmonic windows at 50 Hz and 12-cycle ones at 60 Hz (IEC 61000-4-7 4.4.1, docs/methods.md 2.1, read in a secondary source)', () => {
 		const r50 = analyseCapture(capture([channel('U1', 'V', 'voltage', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 52 }))]));
 		expect(r50.window.harmonicWindowCycles).toBe(10);
 		expect(r50.window.harmonicWindows).toBe(Math.floor(r50.cyclesAnalysed / 10));
@@ -149,7 +149,7 @@ describe('analyseCapture: reference and relations', () => {
 		expect(r.power.map((p) => [p.voltage, p.current, p.pairedBy])).toEqual([['Ua', 'Ib', 'user']]);
 	});
 
-	it('analyseCapture(capture) finds rotation of a balanced set positive, VUF 0, and swapping two phases makes it negative (Fortescue, REFERENCE.md 7, read in a secondary source)', () => {
+	it('analyseCapture(capture) finds rotation of a balanced set positive, VUF 0, and swapping two phases makes it negative (Fortescue, docs/methods.md 7, read in a secondary source)', () => {
 		const set = (b: number, c: number) =>
 			capture([
 				channel('L1', 'V', 'voltage', tones([{ order: 1, rms: 230, phaseDeg: 0 }], cycles)),
@@ -173,7 +173,7 @@ describe('analyseCapture: limits', () => {
 	const u = tones([{ order: 1, rms: 230 }, { order: 3, rms: 230 * 0.045 }], cycles);
 	const i = tones([{ order: 1, rms: 100, phaseDeg: -10 }, { order: 5, rms: 10 }], cycles);
 
-	it("analyseCapture(capture, { limits: 'iec61000-2-2' }) passes a 4.5 % 3rd against the 5 % level (IEC 61000-2-2 Table 1, REFERENCE.md 4.2, from memory)", () => {
+	it("analyseCapture(capture, { limits: 'iec61000-2-2' }) passes a 4.5 % 3rd against the 5 % level (IEC 61000-2-2 Table 1, docs/methods.md 4.2, from memory)", () => {
 		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u)]), { limits: 'iec61000-2-2' });
 		const h3 = r.limits!.rows.find((x) => x.order === 3 && x.figure === 'harmonic')!;
 		expect(h3.limit).toBe(5);
@@ -182,7 +182,7 @@ describe('analyseCapture: limits', () => {
 		expect(r.limits!.pass).toBe(true);
 	});
 
-	it("analyseCapture(capture, { limits: 'ieee519', iscIl: 30 }) fails a 10 % 5th current against 7 % of I_L (IEEE 519 Table 2, 20 < ISC/IL < 50, REFERENCE.md 4.3, read in a secondary source)", () => {
+	it("analyseCapture(capture, { limits: 'ieee519', iscIl: 30 }) fails a 10 % 5th current against 7 % of I_L (IEEE 519 Table 2, 20 < ISC/IL < 50, docs/methods.md 4.3, read in a secondary source)", () => {
 		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u), channel('I1', 'A', 'current', i)]), { limits: 'ieee519', iscIl: 30, nominalV: 400 });
 		const h5 = r.limits!.rows.find((x) => x.channel === 'I1' && x.order === 5)!;
 		expect(h5.limit).toBe(7);
@@ -192,7 +192,7 @@ describe('analyseCapture: limits', () => {
 		expect(r.limits!.notes.join(' ')).toMatch(/I_L taken as the measured fundamental/);
 	});
 
-	it("analyseCapture(capture, { limits: 'ieee519', iscIl: 30, ilA: 200 }) passes the same current as 5 % of I_L, TDD 5 % under 8 % (IEEE 519 Table 2, REFERENCE.md 4.3, read in a secondary source)", () => {
+	it("analyseCapture(capture, { limits: 'ieee519', iscIl: 30, ilA: 200 }) passes the same current as 5 % of I_L, TDD 5 % under 8 % (IEEE 519 Table 2, docs/methods.md 4.3, read in a secondary source)", () => {
 		const r = analyseCapture(capture([channel('I1', 'A', 'current', i)]), { limits: 'ieee519', iscIl: 30, ilA: 200, nominalV: 400 });
 		const h5 = r.limits!.rows.find((x) => x.order === 5)!;
 		expect(h5.value).toBeCloseTo(5, 6);
@@ -203,7 +203,7 @@ describe('analyseCapture: limits', () => {
 		expect(r.channels[0].tddPercent).toBeCloseTo(5, 6);
 	});
 
-	it("analyseCapture(capture, { ieee519Edition }) limits a 2nd-harmonic current to 50 % (2022) or 25 % (2014) of the 3rd-10th band's 7 % (IEEE 519 Table 2 note, REFERENCE.md 4.3)", () => {
+	it("analyseCapture(capture, { ieee519Edition }) limits a 2nd-harmonic current to 50 % (2022) or 25 % (2014) of the 3rd-10th band's 7 % (IEEE 519 Table 2 note, docs/methods.md 4.3)", () => {
 		const i2 = tones([{ order: 1, rms: 100 }, { order: 2, rms: 2 }], cycles);
 		const limitOf = (edition: '2014' | '2022') =>
 			analyseCapture(capture([channel('I1', 'A', 'current', i2)]), { limits: 'ieee519', iscIl: 30, ilA: 100, nominalV: 400, ieee519Edition: edition }).limits!.rows.find((x) => x.order === 2)!;
@@ -223,7 +223,7 @@ describe('analyseCapture: limits', () => {
 describe('analyseCapture: three-phase power and neutral', () => {
 	const cycles = 20;
 	// Balanced 230 V set; each line current 10 A lagging 30° plus 3 A of 3rd harmonic. The 3rd of phase k has
-	// phase 3·(−120°·k) ≡ 0°: zero sequence, so the three add in the neutral (REFERENCE.md §7, triplens, from memory).
+	// phase 3·(−120°·k) ≡ 0°: zero sequence, so the three add in the neutral (docs/methods.md §7, triplens, from memory).
 	const make = () =>
 		capture(
 			[0, 1, 2].flatMap((k) => [
@@ -233,7 +233,7 @@ describe('analyseCapture: three-phase power and neutral', () => {
 		);
 	const r = analyseCapture(make());
 
-	it('analyseCapture(capture) gives a computed neutral of 3 × 3 A = 9 A, all triplen (Kirchhoff; zero-sequence triplens, REFERENCE.md 7)', () => {
+	it('analyseCapture(capture) gives a computed neutral of 3 × 3 A = 9 A, all triplen (Kirchhoff; zero-sequence triplens, docs/methods.md 7)', () => {
 		expect(r.neutral).not.toBeNull();
 		expect(r.neutral!.source).toBe('computed');
 		expect(r.neutral!.neutralRmsA).toBeCloseTo(9, 6);
@@ -241,7 +241,7 @@ describe('analyseCapture: three-phase power and neutral', () => {
 		expect(r.neutral!.percentOfMaxPhase).toBeCloseTo((100 * 9) / Math.hypot(10, 3), 4);
 	});
 
-	it('analyseCapture(capture) gives P = 3·230·10·cos 30° and S_e = 3·V_e·I_e with I_e = √((ΣI² + I_N²)/3) (IEEE 1459-2010 4-wire, REFERENCE.md 5.2, from memory)', () => {
+	it('analyseCapture(capture) gives P = 3·230·10·cos 30° and S_e = 3·V_e·I_e with I_e = √((ΣI² + I_N²)/3) (IEEE 1459-2010 4-wire, docs/methods.md 5.2, from memory)', () => {
 		const t = r.threePhasePower!;
 		expect(t.channels).toEqual([['L1', 'I1'], ['L2', 'I2'], ['L3', 'I3']]);
 		expect(t.figures.activePowerW).toBeCloseTo(3 * 230 * 10 * Math.cos(Math.PI / 6), 3);
@@ -277,7 +277,7 @@ describe('analyseCapture: three-phase power and neutral', () => {
 });
 
 describe('analyseCapture: line-to-line voltages', () => {
-	it('analyseCapture(capture) of U12, U23, U31 gives the phase-voltage VUF 2.7699 % and LVUR 2.4680 % (line voltages hold no zero sequence; REFERENCE.md 7 computed vectors)', () => {
+	it('analyseCapture(capture) of U12, U23, U31 gives the phase-voltage VUF 2.7699 % and LVUR 2.4680 % (line voltages hold no zero sequence; docs/methods.md 7 computed vectors)', () => {
 		const cycles = 20;
 		const va = tones([{ order: 1, rms: 230, phaseDeg: 0 }], cycles);
 		const vb = tones([{ order: 1, rms: 220, phaseDeg: -118 }], cycles);
@@ -296,7 +296,7 @@ describe('analyseCapture: line-to-line voltages', () => {
 });
 
 describe('analyseCapture: IEC 61000-4-7 groups', () => {
-	it('analyseCapture(capture) puts a tone two 5 Hz bins above h5 into the harmonic group of h5 but not its subgroup (REFERENCE.md 2.2 grouping)', () => {
+	it('analyseCapture(capture) puts a tone two 5 Hz bins above h5 into the harmonic group of h5 but not its subgroup (docs/methods.md 2.2 grouping)', () => {
 		// 230 V at 50 Hz, 10 V at 250 Hz (h5) and 3 V at 260 Hz (two 5 Hz bins above h5), 10-cycle windows.
 		const n = 2 * 10_000; // 2 s
 		const x = new Float64Array(n);

@@ -8,8 +8,8 @@ import {
 } from '../../lib/signal/index.js';
 import { harmonicSamples, shapeSamples, sineSamples } from '../helpers/synth.js';
 
-// Closed forms. Continuous values: REFERENCE §1.2 table (textbook closed forms, from memory there; the
-// sine's 0.637 / 0.707 / 1.11 / 1.414 are common practice per issue 2). Sampled values: exact sums over the
+// Closed forms. Continuous values: docs/methods.md §1.2 table (textbook closed forms, from memory there; the
+// sine's 0.637 / 0.707 / 1.11 / 1.414 are common practice, docs/methods.md §1.2). Sampled values: exact sums over the
 // samples the synth helper makes (P = 200 samples per cycle), derived below from the finite-sum identities
 //   Σ_{n=0}^{P/2−1} sin(2πn/P) = cot(π/P)        (sum of sines in arithmetic progression)
 //   Σ_{k=1}^{M} k² = M(M+1)(2M+1)/6               (sum of squares)
@@ -20,14 +20,14 @@ const A = 1;
 const F = 50;
 const FS = 10_000;
 const P = FS / F; // 200 samples per cycle
-const K = Math.PI / (2 * Math.SQRT2); // sine form factor, REFERENCE §1.1
+const K = Math.PI / (2 * Math.SQRT2); // sine form factor, docs/methods.md §1.1
 
 function closeRel(actual: number, expected: number, rel: number): void {
 	expect(Math.abs(actual - expected)).toBeLessThanOrEqual(rel * Math.abs(expected));
 }
 
 describe('AVERAGE_RESPONDING_FACTOR and averageRespondingReading', () => {
-	it('AVERAGE_RESPONDING_FACTOR equals π/(2√2) = 1.110720735 (REFERENCE §1.1)', () => {
+	it('AVERAGE_RESPONDING_FACTOR equals π/(2√2) = 1.110720735 (docs/methods.md §1.1)', () => {
 		expect(AVERAGE_RESPONDING_FACTOR).toBeCloseTo(1.110720735, 9);
 	});
 	it('averageRespondingReading(2A/π) of a sine equals its RMS A/√2 (the meter is sine-calibrated)', () => {
@@ -58,7 +58,7 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 		expect(Math.abs(w.averageResponding.errorPercent)).toBeLessThan(0.01);
 	});
 
-	it('square ±A: rms = rectified mean = peak = A, FF = CF = 1, meter error = +11.07 % (REFERENCE §1.2)', () => {
+	it('square ±A: rms = rectified mean = peak = A, FF = CF = 1, meter error = +11.07 % (docs/methods.md §1.2)', () => {
 		const w = waveformFigures(shapeSamples('square', opts), FS);
 		expect(w.rms).toBeCloseTo(A, 12);
 		expect(w.rectifiedMean).toBeCloseTo(A, 12);
@@ -79,12 +79,12 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 		closeRel(w.rms, A / Math.sqrt(3), 1 / (4 * m * m)); // √(1 + 1/(2M²)) − 1 < 1/(4M²)
 		closeRel(w.formFactor, 2 / Math.sqrt(3), 1 / (4 * m * m));
 		closeRel(w.crestFactor, Math.sqrt(3), 1 / (4 * m * m));
-		// REFERENCE §1.2: K/FF − 1 = −3.81 %
+		// docs/methods.md §1.2: K/FF − 1 = −3.81 %
 		expect(w.averageResponding.errorPercent).toBeCloseTo(100 * ((K * (A / 2)) / rmsSampled - 1), 9);
 		expect(w.averageResponding.errorPercent).toBeCloseTo(-3.81, 1);
 	});
 
-	it('sawtooth ±A: samples A·k/M (k = −M…M−1, M = P/2): mean = −A/(2M), rms² = A²(1/3 + 1/(6M²)), MAV = A/2 → REFERENCE §1.2 row', () => {
+	it('sawtooth ±A: samples A·k/M (k = −M…M−1, M = P/2): mean = −A/(2M), rms² = A²(1/3 + 1/(6M²)), MAV = A/2 → docs/methods.md §1.2 row', () => {
 		const w = waveformFigures(shapeSamples('sawtooth', opts), FS);
 		const m = P / 2;
 		expect(w.mean).toBeCloseTo(-A / (2 * m), 12);
@@ -102,29 +102,29 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 	it('half-wave rectified sine: mean → A/π, rms = A/2, CF = 2; rectified mean about the DC and both meter errors from closed form', () => {
 		const w = waveformFigures(shapeSamples('half-wave', opts), FS);
 		expect(w.rms).toBeCloseTo(A / 2, 12); // Σ sin² over a half period = P/4 exactly
-		expect(w.mean).toBeCloseTo((A / P) / Math.tan(Math.PI / P), 12); // cot sum; → A/π (REFERENCE §1.2)
+		expect(w.mean).toBeCloseTo((A / P) / Math.tan(Math.PI / P), 12); // cot sum; → A/π (docs/methods.md §1.2)
 		closeRel(w.mean, A / Math.PI, 1e-4);
-		expect(w.crestFactor).toBeCloseTo(2, 12); // REFERENCE §1.2
-		// Issue 2 defines rectified mean = mean|x − DC|. With m = A/π, x − m > 0 on [α, π − α], α = asin(1/π);
+		expect(w.crestFactor).toBeCloseTo(2, 12); // docs/methods.md §1.2
+		// docs/methods.md §1.1 defines rectified mean = mean|x − DC|. With m = A/π, x − m > 0 on [α, π − α], α = asin(1/π);
 		// the positive and negative parts of x − m have equal area, so MAV = 2·(1/2π)∫(A sinθ − m)dθ
 		//   = (A/π)·(2 cos α − 1 + 2α/π) = 0.35084·A
 		const alpha = Math.asin(1 / Math.PI);
 		const mav = (A / Math.PI) * (2 * Math.cos(alpha) - 1 + (2 * alpha) / Math.PI);
 		closeRel(w.rectifiedMean, mav, 2e-4); // sampling at 200/cycle, kinks at two crossings of the mean
 		closeRel(w.formFactor, A / 2 / mav, 2e-4);
-		const acRms = A * Math.sqrt(1 / 4 - 1 / Math.PI ** 2); // √(rms² − mean²) = 0.38559·A (REFERENCE §1.2)
+		const acRms = A * Math.sqrt(1 / 4 - 1 / Math.PI ** 2); // √(rms² − mean²) = 0.38559·A (docs/methods.md §1.2)
 		const meanSampled = (A / P) / Math.tan(Math.PI / P);
 		expect(w.acRms).toBeCloseTo(Math.sqrt((A * A) / 4 - meanSampled ** 2), 12);
 		closeRel(w.acRms, acRms, 1e-4);
-		// against true RMS (issue 2): K·MAV/(A/2) − 1 = −22.05 %
+		// against true RMS (docs/methods.md §1.2): K·MAV/(A/2) − 1 = −22.05 %
 		expect(w.averageResponding.errorPercent).toBeCloseTo(100 * ((K * mav) / (A / 2) - 1), 1);
-		// against AC RMS: REFERENCE §1.2 "AC-coupled average meters", +1.06 %
+		// against AC RMS: docs/methods.md §1.2 "AC-coupled average meters", +1.06 %
 		expect(w.averageResponding.errorPercentAc).toBeCloseTo(100 * ((K * mav) / acRms - 1), 1);
 		expect(w.averageResponding.errorPercentAc).toBeCloseTo(1.06, 1);
-		expect(w.averageResponding.reading).toBeCloseTo(0.38969 * A, 3); // REFERENCE §1.2
+		expect(w.averageResponding.reading).toBeCloseTo(0.38969 * A, 3); // docs/methods.md §1.2
 	});
 
-	it('full-wave rectified sine: found as 100 Hz; rms = A/√2, mean → 2A/π, CF = √2, AC-coupled meter error −3.26 % (REFERENCE §1.2)', () => {
+	it('full-wave rectified sine: found as 100 Hz; rms = A/√2, mean → 2A/π, CF = √2, AC-coupled meter error −3.26 % (docs/methods.md §1.2)', () => {
 		const w = waveformFigures(shapeSamples('full-wave', opts), FS);
 		expect(w.cycles).toBeGreaterThanOrEqual(19); // 10.3 × 2 fundamental (100 Hz) cycles recorded
 		expect(w.rms).toBeCloseTo(A / Math.SQRT2, 12);
@@ -136,23 +136,23 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 		const beta = Math.asin(2 / Math.PI);
 		const mav = ((2 * A) / Math.PI) * (2 * Math.cos(beta) - ((Math.PI - 2 * beta) * 2) / Math.PI);
 		closeRel(w.rectifiedMean, mav, 3e-4);
-		const acRms = A * Math.sqrt(1 / 2 - 4 / Math.PI ** 2); // 0.30776·A (REFERENCE §1.2)
+		const acRms = A * Math.sqrt(1 / 2 - 4 / Math.PI ** 2); // 0.30776·A (docs/methods.md §1.2)
 		const meanSampled = ((2 * A) / P) / Math.tan(Math.PI / P);
 		expect(w.acRms).toBeCloseTo(Math.sqrt((A * A) / 2 - meanSampled ** 2), 12);
 		// the sampled mean is low by (π/P)²/3 relative, which moves √(A²/2 − mean²) by about 4e-4 relative
 		closeRel(w.acRms, acRms, 6e-4);
 		expect(w.averageResponding.errorPercent).toBeCloseTo(100 * ((K * mav) / (A / Math.SQRT2) - 1), 1);
 		expect(w.averageResponding.errorPercentAc).toBeCloseTo(-3.26, 1);
-		expect(w.averageResponding.reading).toBeCloseTo(0.29771 * A, 3); // REFERENCE §1.2
+		expect(w.averageResponding.reading).toBeCloseTo(0.29771 * A, 3); // docs/methods.md §1.2
 	});
 
-	it('REFERENCE §1.3 vector: 230 V + 4.6 V 3rd + 11.5 V 5th + 6.9 V 7th (RMS), 50 Hz, fs 10 240 Hz → rms 230.43659 V', () => {
+	it('docs/methods.md §1.3 vector: 230 V + 4.6 V 3rd + 11.5 V 5th + 6.9 V 7th (RMS), 50 Hz, fs 10 240 Hz → rms 230.43659 V', () => {
 		const x = harmonicSamples(
 			[{ order: 1, rms: 230 }, { order: 3, rms: 4.6 }, { order: 5, rms: 11.5 }, { order: 7, rms: 6.9 }],
 			{ frequencyHz: 50, sampleRateHz: 10_240, cycles: 10 },
 		);
 		expect(waveformFigures(x, 10_240).rms).toBeCloseTo(230.43659, 4);
-		// √Σ V_h² (REFERENCE §1.3); 204.8 samples per cycle puts the window end between samples, whose partial
+		// √Σ V_h² (docs/methods.md §1.3); 204.8 samples per cycle puts the window end between samples, whose partial
 		// sample adds an error of order 1/P² of one sample's share: 1e-6 relative is ample
 		closeRel(waveformFigures(x, 10_240).rms, Math.sqrt(230 ** 2 + 4.6 ** 2 + 11.5 ** 2 + 6.9 ** 2), 1e-6);
 	});
@@ -319,7 +319,7 @@ describe('waveformFigures properties (fast-check)', () => {
 			fc.property(signal, (s) => {
 				const w = waveformFigures(make(s), s.fs);
 				expect(w.span).toBe('whole-cycles');
-				const truth = Math.sqrt(s.dc ** 2 + 1 + s.h3 ** 2 + s.h5 ** 2 + s.h7 ** 2); // REFERENCE §1.3: RMS = √Σ V_h²
+				const truth = Math.sqrt(s.dc ** 2 + 1 + s.h3 ** 2 + s.h5 ** 2 + s.h7 ** 2); // docs/methods.md §1.3: RMS = √Σ V_h²
 				closeRel(w.rms, truth, 5e-4);
 			}),
 			{ numRuns: 60 },
@@ -345,7 +345,7 @@ describe('waveformFigures properties (fast-check)', () => {
 		expect(b.crestFactor).toBeCloseTo(a.crestFactor, 8);
 	});
 
-	it('9.37 cycles of a sine give the same rms as 9 cycles within 0.05 % (issue 2 example)', () => {
+	it('9.37 cycles of a sine give the same rms as 9 cycles within 0.05 % (a non-whole number of cycles)', () => {
 		const nine = waveformFigures(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 7_800, cycles: 9, phaseDeg: 17 }), 7_800);
 		const more = waveformFigures(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 7_800, cycles: 9.37, phaseDeg: 17 }), 7_800);
 		closeRel(more.rms, nine.rms, 5e-4);

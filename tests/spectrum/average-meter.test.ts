@@ -10,7 +10,7 @@ function setOfShape(shape: 'square' | 'triangle' | 'half-wave', maxOrder: number
 }
 
 describe('averageMeterExplanation', () => {
-	it('triangle: the meter reads 3.81 % low (REFERENCE.md §1.2: closed form from memory, checked by the shared reference script), led by a peaked 3rd harmonic', () => {
+	it('triangle: the meter reads 3.81 % low (docs/methods.md §1.2: closed form from memory, checked by the shared reference script), led by a peaked 3rd harmonic', () => {
 		const e = averageMeterExplanation(setOfShape('triangle', 50), 'V');
 		expect(e.readingErrorPercent).toBeCloseTo(-3.81, 2);
 		expect(e.formFactor).toBeCloseTo(2 / Math.sqrt(3), 4);
@@ -20,7 +20,7 @@ describe('averageMeterExplanation', () => {
 		expect(e.summary).toMatch(/3\.8 % low/);
 	});
 
-	it('half-wave rectified sine: 29.29 % low, form factor π/2 (REFERENCE.md §1.2: closed form from memory, checked by the shared reference script); DC and 2nd named', () => {
+	it('half-wave rectified sine: 29.29 % low, form factor π/2 (docs/methods.md §1.2: closed form from memory, checked by the shared reference script); DC and 2nd named', () => {
 		const e = averageMeterExplanation(setOfShape('half-wave', 200));
 		expect(e.readingErrorPercent).toBeCloseTo(-29.29, 1);
 		expect(e.formFactor).toBeCloseTo(Math.PI / 2, 3);
@@ -31,7 +31,7 @@ describe('averageMeterExplanation', () => {
 		expect(e.reasons.find((r) => r.order === 2)?.shape).toBe('asymmetric');
 	});
 
-	it('square wave to order 1000: +11.07 % (REFERENCE.md §1.2: closed form from memory, checked by the shared reference script) within the truncation of the series; a flattening 3rd leads', () => {
+	it('square wave to order 1000: +11.07 % (docs/methods.md §1.2: closed form from memory, checked by the shared reference script) within the truncation of the series; a flattening 3rd leads', () => {
 		const e = averageMeterExplanation(setOfShape('square', 1000));
 		expect(Math.abs(e.readingErrorPercent - 11.07)).toBeLessThan(0.05);
 		expect(e.reasons[0].order).toBe(3);

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { factorK, percentOfIl, tddPercent, thdFPercent, thdRPercent, ulKFactor, type HarmonicSet } from '../../lib/index.js';
 
-// REFERENCE.md §6 worked example (READ, public worked-example page): I_h/I_1 by order
+// docs/methods.md §6 worked example (READ, public worked-example page): I_h/I_1 by order
 const WORKED = (() => {
 	const r = new Float64Array(26);
 	const pairs: [number, number][] = [[1, 1], [5, 0.2], [7, 0.14], [11, 0.091], [13, 0.077], [17, 0.058], [19, 0.056], [23, 0.043], [25, 0.04]];
@@ -14,7 +14,7 @@ function setOf(rms: number[]): HarmonicSet {
 }
 
 describe('ulKFactor', () => {
-	it('ulKFactor of the REFERENCE.md §6 spectrum is 8.3476 (published worked example, read in a secondary source; the shared reference script agrees)', () => {
+	it('ulKFactor of the docs/methods.md §6 spectrum is 8.3476 (published worked example, read in a secondary source; the shared reference script agrees)', () => {
 		expect(ulKFactor(WORKED)).toBeCloseTo(8.3476, 4);
 	});
 	it('ulKFactor of a pure fundamental is 1 (definition)', () => {
@@ -29,7 +29,7 @@ describe('ulKFactor', () => {
 });
 
 describe('factorK', () => {
-	it('factorK of the §6 spectrum with q = 1.7, e/(1+e) = 0.091 is 1.14672 (sum from n = 2, REFERENCE.md §6, computed vector from the shared reference script)', () => {
+	it('factorK of the §6 spectrum with q = 1.7, e/(1+e) = 0.091 is 1.14672 (sum from n = 2, docs/methods.md §6, computed vector from the shared reference script)', () => {
 		const e = 0.091 / (1 - 0.091);
 		expect(factorK(WORKED, e, 1.7)).toBeCloseTo(1.14672, 5);
 	});
@@ -64,7 +64,7 @@ describe('tddPercent and percentOfIl', () => {
 });
 
 describe('thdFPercent and thdRPercent', () => {
-	it('thdFPercent of the REFERENCE.md §1.3 spectrum is 6.16441 % (computed vector from the shared reference script)', () => {
+	it('thdFPercent of the docs/methods.md §1.3 spectrum is 6.16441 % (computed vector from the shared reference script)', () => {
 		const r = new Array(41).fill(0);
 		r[1] = 230;
 		r[3] = 4.6;

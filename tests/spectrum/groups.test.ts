@@ -3,7 +3,7 @@ import { harmonicWindow, iecHarmonicGroups } from '../../lib/index.js';
 import { harmonicSamples } from '../helpers/synth.js';
 
 describe('iecHarmonicGroups via harmonicWindow', () => {
-	it('REFERENCE.md §2.4 vector (computed vector from the shared reference script; every tone on a bin): C_50, G_sg,5, G_g,5, G_g,6, C_ig,5, C_isg,5', () => {
+	it('docs/methods.md §2.4 vector (computed vector from the shared reference script; every tone on a bin): C_50, G_sg,5, G_g,5, G_g,6, C_ig,5, C_isg,5', () => {
 		// 230 V at 50 Hz, 10 V at 250, 3 V at 255, 2 V at 270, 1 V at 275, 0.5 V at 285 Hz (RMS), fs 10 240, 2048 samples
 		const x = harmonicSamples(
 			[
@@ -32,7 +32,7 @@ describe('iecHarmonicGroups via harmonicWindow', () => {
 		expect(w.thd.thdS40Percent).toBeCloseTo((100 * Math.sqrt(109)) / 230, 6);
 	});
 
-	it('tones between bins: groups equal the IEC 61000-4-7 sums over bins (REFERENCE §2.2, equations from memory) taken from the DFT closed form', () => {
+	it('tones between bins: groups equal the IEC 61000-4-7 sums over bins (docs/methods.md §2.2, equations from memory) taken from the DFT closed form', () => {
 		// fs 10 kS/s, 2000 samples (10 cycles of 50 Hz); tones at 252.5 Hz (bin 50.5), 277.3 Hz and 612.25 Hz, sine reference
 		const fs = 10_000;
 		const n = 2000;
@@ -96,7 +96,7 @@ describe('iecHarmonicGroups via harmonicWindow', () => {
 		// Closed form: a tone at bin α = k0 + ½ of a rectangular N-point window lands in bin k with the share
 		// |D(α − k)|²/N² = sin²(π(α − k)) / (N² sin²(π(α − k)/N)) → 1/(π²(α − k)²) for |α − k| ≪ N (the shares
 		// over all k sum to (2/π²)·Σ_m 1/(m + ½)² = (8/π²)·(π²/8) = 1). Group 5 = bins 46…54 in full, 45 and 55 half
-		// (IEC 61000-4-7, REFERENCE §2.2, from memory): distances ½ (twice), 1½ (twice), 2½ (twice), 3½ (twice),
+		// (IEC 61000-4-7, docs/methods.md §2.2, from memory): distances ½ (twice), 1½ (twice), 2½ (twice), 3½ (twice),
 		// 4½ (bin 46), and the half-weighted 5½ (bin 45) and 4½ (bin 55):
 		// share = (1/π²)·[2·(4 + 0.4444 + 0.16 + 0.08163) + 0.04938 + ½·0.03306 + ½·0.04938] = 9.4627/π² = 0.95878,
 		// so G_g,5 = 4 V·√0.95878 = 3.9167 V.
@@ -114,7 +114,7 @@ describe('iecHarmonicGroups via harmonicWindow', () => {
 		expect(Math.abs(w.groups.harmonicGroupRms[5] / expected - 1)).toBeLessThan(0.01);
 	});
 
-	it('12-cycle windows (60 Hz): the edge bins k ± 6 are half-weighted (IEC 61000-4-7, REFERENCE.md §2.2, from memory; N = 12)', () => {
+	it('12-cycle windows (60 Hz): the edge bins k ± 6 are half-weighted (IEC 61000-4-7, docs/methods.md §2.2, from memory; N = 12)', () => {
 		const bins = new Float64Array(12 * 4 + 1);
 		bins[12 * 2] = 3; // h2
 		bins[12 * 2 + 6] = 2; // half-way between h2 and h3

@@ -89,8 +89,8 @@ describe('harmonicWindow on closed-form shapes', () => {
 	});
 });
 
-describe('harmonicWindow on REFERENCE.md vectors', () => {
-	it('230 V + 4.6 V 3rd + 11.5 V 5th + 6.9 V 7th at 10 240 S/s: THD_F 6.16441 %, RMS 230.43659 V (REFERENCE.md §1.3)', () => {
+describe('harmonicWindow on docs/methods.md vectors', () => {
+	it('230 V + 4.6 V 3rd + 11.5 V 5th + 6.9 V 7th at 10 240 S/s: THD_F 6.16441 %, RMS 230.43659 V (docs/methods.md §1.3)', () => {
 		const x = harmonicSamples(
 			[
 				{ order: 1, rms: 230 },
@@ -110,7 +110,7 @@ describe('harmonicWindow on REFERENCE.md vectors', () => {
 		expect(w.dftLength).toBe(2048);
 	});
 
-	it('a 50.5 Hz sine analysed as if 50 Hz leaks: bin 10 = 225.305 V, apparent THD 1.8043 % (REFERENCE.md §2.5)', () => {
+	it('a 50.5 Hz sine analysed as if 50 Hz leaks: bin 10 = 225.305 V, apparent THD 1.8043 % (docs/methods.md §2.5)', () => {
 		const x = sineSamples({ amplitude: 230 * Math.SQRT2, frequencyHz: 50.5, sampleRateHz: 10_240, samples: 2048 });
 		const w = harmonicWindow(x, 10_240, { fundamentalHz: 50 });
 		expect(w.binRms[10]).toBeCloseTo(225.305, 3);

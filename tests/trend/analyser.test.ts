@@ -23,10 +23,10 @@ function threePhase(steps: ChannelSpec['steps'][], durationS: number, fs = 10_00
 }
 
 const CYCLE_S = 0.02;
-// Class A: residual / maximum voltage within ±0.2 % of Udin, duration within ±1 cycle (REFERENCE §3.4, from memory).
+// Class A: residual / maximum voltage within ±0.2 % of Udin, duration within ±1 cycle (docs/methods.md §3.4, from memory).
 const VOLT_TOL = 0.002 * 230;
 
-describe('createTrendAnalyser: REFERENCE §3.4 worked example, computed vector from the shared reference script (230 V -> 115 V for 5 cycles at a zero crossing)', () => {
+describe('createTrendAnalyser: docs/methods.md §3.4 worked example, computed vector from the shared reference script (230 V -> 115 V for 5 cycles at a zero crossing)', () => {
 	const fs = 10_000;
 	const [x] = makeChannels([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.2, toS: 0.3, rms: 115 }] }], { f0Hz: 50 }, fs, 1);
 	const halves: [number, number][] = [];
@@ -35,7 +35,7 @@ describe('createTrendAnalyser: REFERENCE §3.4 worked example, computed vector f
 	it('Urms(1/2) reads 230, then sqrt((230² + 115²)/2) = 181.83 for the window 190-210 ms, then 115', () => {
 		const at = (t: number) => halves.find(([s]) => Math.abs(s - t) < 0.0005)?.[1];
 		expect(at(0.17)).toBeCloseTo(230, 6);
-		expect(at(0.19)).toBeCloseTo(Math.sqrt((230 ** 2 + 115 ** 2) / 2), 2); // 181.83: half the window at each level, closed form (REFERENCE §3.4, computed vector from the shared reference script)
+		expect(at(0.19)).toBeCloseTo(Math.sqrt((230 ** 2 + 115 ** 2) / 2), 2); // 181.83: half the window at each level, closed form (docs/methods.md §3.4, computed vector from the shared reference script)
 		expect(at(0.2)).toBeCloseTo(115, 6);
 		expect(at(0.29)).toBeCloseTo(181.83, 2);
 		expect(at(0.3)).toBeCloseTo(230, 6);
@@ -45,7 +45,7 @@ describe('createTrendAnalyser: REFERENCE §3.4 worked example, computed vector f
 		expect(r.events.map((e) => e.kind)).toEqual(['dip']);
 		const d = r.events[0];
 		expect(d.startS).toBeCloseTo(0.19, 4);
-		expect(d.durationS).toBeCloseTo(0.11, 4); // 110 ms for a true 100 ms dip (REFERENCE §3.4, computed vector from the shared reference script)
+		expect(d.durationS).toBeCloseTo(0.11, 4); // 110 ms for a true 100 ms dip (docs/methods.md §3.4, computed vector from the shared reference script)
 		expect(Math.abs(d.durationS - 0.1)).toBeLessThanOrEqual(CYCLE_S);
 		expect(Math.abs(d.residualV! - 115)).toBeLessThanOrEqual(VOLT_TOL);
 		expect(d.percentOfDeclared).toBeCloseTo(50, 3);
@@ -53,7 +53,7 @@ describe('createTrendAnalyser: REFERENCE §3.4 worked example, computed vector f
 		expect(d.ended).toBe(true);
 	});
 
-	it('flags exactly the 10-cycle windows that overlap the dip (IEC 61000-4-30 flagging, REFERENCE §3.5, read in a secondary source)', () => {
+	it('flags exactly the 10-cycle windows that overlap the dip (IEC 61000-4-30 flagging, docs/methods.md §3.5, read in a secondary source)', () => {
 		expect(r.cycles10.length).toBeGreaterThan(2);
 		for (const row of r.cycles10) {
 			const end = row.startS + row.durationS;
@@ -149,7 +149,7 @@ describe('createTrendAnalyser: constructed events', () => {
 });
 
 describe('createTrendAnalyser: aggregates and frequency', () => {
-	it('10-cycle RMS of a stepped sine equals each step, and the 150-cycle value is √(mean of the 15 squared values) (IEC 61000-4-30 aggregation, REFERENCE §3.2, read in a secondary source)', () => {
+	it('10-cycle RMS of a stepped sine equals each step, and the 150-cycle value is √(mean of the 15 squared values) (IEC 61000-4-30 aggregation, docs/methods.md §3.2, read in a secondary source)', () => {
 		// Phase −90°: the first rising zero crossing is at 5 ms; windows then span 0.005 + 0.2k .. 0.205 + 0.2k s.
 		const fs = 10_000;
 		const levels = Array.from({ length: 16 }, (_, k) => 222 + 1.5 * k);
@@ -215,13 +215,13 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 			if (tm(m2) >= b) m2--;
 			if (i === 0) m1 = Math.max(m1, 1); // the crossing at t = 0 is the first sample, not seen as a crossing
 			const expected = (m2 - m1) / (tm(m2) - tm(m1));
-			expect(Math.abs(row.frequencyHz - expected)).toBeLessThan(0.001); // IEC 61000-4-30 Class A ±10 mHz (REFERENCE §3.3, read in a secondary source)
+			expect(Math.abs(row.frequencyHz - expected)).toBeLessThan(0.001); // IEC 61000-4-30 Class A ±10 mHz (docs/methods.md §3.3, read in a secondary source)
 			expect(row.cycles).toBe(m2 - m1);
 			expect(row.flagged).toBe(false);
 		}
 	});
 
-	it('10-cycle RMS and THD of the REFERENCE §1.3 mixture (230 V + 4.6 V h3 + 11.5 V h5 + 6.9 V h7) are 230.43659 V and 6.16441 % (computed vector from the shared reference script; closed form √Σ V_h²)', () => {
+	it('10-cycle RMS and THD of the docs/methods.md §1.3 mixture (230 V + 4.6 V h3 + 11.5 V h5 + 6.9 V h7) are 230.43659 V and 6.16441 % (computed vector from the shared reference script; closed form √Σ V_h²)', () => {
 		const x = harmonicSamples(
 			[
 				{ order: 1, rms: 230 },
@@ -234,7 +234,7 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 		const r = run([x], { sampleRateHz: 10_240, declaredV: 230, nominalHz: 50 });
 		expect(r.cycles10.length).toBe(3);
 		for (const row of r.cycles10) {
-			expect(row.rms[0]).toBeCloseTo(230.43659, 4); // REFERENCE §1.3, computed vector from the shared reference script: √(230² + 4.6² + 11.5² + 6.9²)
+			expect(row.rms[0]).toBeCloseTo(230.43659, 4); // docs/methods.md §1.3, computed vector from the shared reference script: √(230² + 4.6² + 11.5² + 6.9²)
 			expect(row.thdPercent[0]).toBeCloseTo(6.16441, 4); // every tone on a bin: THDS = THDF
 		}
 	});
@@ -293,7 +293,7 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 		const r = run(xs, { sampleRateHz: 7680 });
 		expect(r.nominalHz).toBe(60);
 		expect(r.cycles10[0].cycles).toBe(12);
-		expect(r.cycles10[0].durationS).toBeCloseTo(0.2, 9); // 12 cycles / 60 Hz (IEC 61000-4-30 12-cycle window, REFERENCE §3.2, from memory)
+		expect(r.cycles10[0].durationS).toBeCloseTo(0.2, 9); // 12 cycles / 60 Hz (IEC 61000-4-30 12-cycle window, docs/methods.md §3.2, from memory)
 		expect(r.cycles10[0].rms[0]).toBeCloseTo(120, 6);
 		expect(r.diagnostics.find((d) => d.code === 'nominal-frequency-inferred')?.severity).toBe('assumption');
 	});
@@ -374,7 +374,7 @@ describe('createTrendAnalyser: distorted, noisy supply', () => {
 		expect(r.events).toEqual([]);
 		const expected = Math.sqrt(230 ** 2 + 11.5 ** 2 + 6.9 ** 2 + 2 ** 2); // RMS of a sum of orthogonal parts
 		expect(r.cycles10.length).toBeGreaterThanOrEqual(13);
-		// 0.1 %: IEC 61000-4-30 Class A voltage uncertainty, 0.1 % of Udin (REFERENCE §3.1, read in a secondary source)
+		// 0.1 %: IEC 61000-4-30 Class A voltage uncertainty, 0.1 % of Udin (docs/methods.md §3.1, read in a secondary source)
 		for (const row of r.cycles10) expect(Math.abs(row.rms[0] / expected - 1)).toBeLessThan(0.001);
 		// Urms(1/2) keeps one value per half cycle: no extra or missing crossings from the noise or the harmonics
 		expect(Math.abs(halves.length - 2 * 50.02 * 3)).toBeLessThanOrEqual(4);

@@ -95,7 +95,7 @@ describe('analyseTrend on the field recording feeder-sag-1999', () => {
 		expect(d.channels).toEqual(dipped);
 		const halfCycleS = 0.5 / 60;
 		expect(Math.abs(d.startS - firstBelowS)).toBeLessThanOrEqual(halfCycleS);
-		expect(Math.abs(d.residualV! - residualV)).toBeLessThanOrEqual(0.002 * DECLARED_V); // IEC 61000-4-30 Class A ±0.2 % Udin (REFERENCE §3.4, from memory)
+		expect(Math.abs(d.residualV! - residualV)).toBeLessThanOrEqual(0.002 * DECLARED_V); // IEC 61000-4-30 Class A ±0.2 % Udin (docs/methods.md §3.4, from memory)
 		expect(d.ended).toBe(false); // PROVENANCE.md: the dip lasts to the end of the record
 		// a 60 Hz interconnection runs within ±0.1 Hz of nominal in normal operation (common practice)
 		expect(r.frequency[0].frequencyHz).toBeGreaterThan(59.9);

@@ -2,7 +2,7 @@
  * COMTRADE 2013 single-file format (.cff): CFG, INF, HDR and DAT sections, each introduced by a line
  * `--- file type: CFG ---`, ..., `--- file type: DAT ASCII ---` or `--- file type: DAT BINARY: <bytes> ---`.
  * Ref: IEC 60255-24:2013 / IEEE C37.111-2013, combined file format (from memory; section lines as in
- * the public sample files listed in REFERENCE.md §8.3).
+ * the public sample files listed in docs/methods.md §8.3).
  */
 import type { Capture } from '../../capture.js';
 import { ImportError } from '../import-error.js';

@@ -2,7 +2,7 @@
  * COMTRADE configuration (.cfg) reader: text -> a typed description of the record, with every field's
  * line so later errors and diagnostics can point back at it.
  * Ref: IEEE C37.111-1991/1999/2013 (= IEC 60255-24:2013), configuration file (from memory; the line
- * layout is the one in REFERENCE.md §8.1).
+ * layout is the one in docs/methods.md §8.1).
  */
 import type { Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';

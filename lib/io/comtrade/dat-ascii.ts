@@ -2,14 +2,14 @@
  * COMTRADE ASCII .dat reader: a byte scanner straight into Float64Arrays (no line strings, no field
  * objects), with 1-based line and column for every error. A record is
  * `n,timestamp,A1,…,AA,D1,…,DD`; a blank or 99999 analog value is missing (NaN).
- * Ref: IEEE C37.111-1999/2013, ASCII data file (from memory; REFERENCE.md §8.2).
+ * Ref: IEEE C37.111-1999/2013, ASCII data file (from memory; docs/methods.md §8.2).
  */
 import { ImportError } from '../import-error.js';
 import type { ComtradeConfig } from './cfg.js';
 import type { DatContent } from './dat.js';
 
 const COMMA = 44, LF = 10, CR = 13, SPACE = 32, TAB = 9;
-/** ASCII missing-value marker. Ref: REFERENCE.md §8.2 (read in python-comtrade's test files). */
+/** ASCII missing-value marker. Ref: docs/methods.md §8.2 (read in python-comtrade's test files). */
 const MISSING_ASCII = 99999;
 
 const isBlank = (b: number) => b === SPACE || b === TAB;

@@ -1,7 +1,7 @@
 /**
  * COMTRADE data (.dat) reader: ASCII, BINARY (int16), BINARY32 (int32) and FLOAT32 records -> raw
  * per-channel columns (before a*x+b), time stamps and digital states. Missing values become NaN and are counted.
- * Ref: IEEE C37.111-1999/2013, data file (from memory; record layouts as in REFERENCE.md §8.2).
+ * Ref: IEEE C37.111-1999/2013, data file (from memory; record layouts as in docs/methods.md §8.2).
  */
 import { ImportError } from '../import-error.js';
 import type { ComtradeConfig } from './cfg.js';
@@ -26,7 +26,7 @@ export interface DatContent {
 	trailingBytes: number;
 }
 
-/** Missing-value markers. Ref: REFERENCE.md §8.2 (0x8000 BINARY read; BINARY32 0x80000000 from memory). */
+/** Missing-value markers. Ref: docs/methods.md §8.2 (0x8000 BINARY read; BINARY32 0x80000000 from memory). */
 const MISSING_INT16 = -0x8000;
 const MISSING_INT32 = -0x80000000;
 

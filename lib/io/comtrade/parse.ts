@@ -2,7 +2,7 @@
  * COMTRADE (.cfg + .dat) -> Capture: analog scaling a*x+b, primary or secondary values (PS flag and
  * ratio), units normalised to V and A, time base from the sampling rate(s) or the time stamps, start
  * relative to the trigger, digital channels kept as they were recorded.
- * Ref: IEEE C37.111-1999/2013 = IEC 60255-24:2013 (from memory; layout as in REFERENCE.md §8).
+ * Ref: IEEE C37.111-1999/2013 = IEC 60255-24:2013 (from memory; layout as in docs/methods.md §8).
  */
 import type { Capture, Channel, Diagnostic, DigitalChannel } from '../../capture.js';
 import { ImportError } from '../import-error.js';

@@ -3,7 +3,7 @@
  * 1991 form `mm/dd/yy,hh:mm:ss.ssssss`. Kept as whole seconds plus a fraction so that differences of
  * nanoseconds survive double precision.
  * Ref: IEEE C37.111-1999 / IEC 60255-24:2013, configuration file, date/time stamps (from memory; layout
- * cross-checked with REFERENCE.md §8.1).
+ * cross-checked with docs/methods.md §8.1).
  */
 
 export interface CfgStamp {
