@@ -7,6 +7,7 @@ import type { ReportFinding } from './findings.js';
 import { threshold } from './thresholds.js';
 import type { AnalysisReport } from './types.js';
 import { PLAIN_WORDS, type NumberWords } from './words.js';
+import { maxOf } from '../signal/extremes.js';
 
 /** Flicker and voltage-step findings of every voltage channel with a flicker section. */
 export function flickerFindings(report: AnalysisReport, w: NumberWords = PLAIN_WORDS): ReportFinding[] {
@@ -15,8 +16,8 @@ export function flickerFindings(report: AnalysisReport, w: NumberWords = PLAIN_W
 	for (const c of report.flicker?.channels ?? []) {
 		const base = { topic: 'flicker' as const, channel: c.channel };
 		if (c.hasPst) {
-			const pst = Math.max(...c.pst.map((p) => p.pst));
-			const plt = c.plt.length > 0 ? Math.max(...c.plt.map((p) => p.plt)) : NaN;
+			const pst = maxOf(c.pst.map((p) => p.pst));
+			const plt = c.plt.length > 0 ? maxOf(c.plt.map((p) => p.plt)) : NaN;
 			const high = pst > irritation || plt > irritation;
 			out.push({
 				...base,
