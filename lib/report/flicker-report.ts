@@ -58,8 +58,11 @@ export function flickerReport(capture: Capture, nominalHz: number | undefined, n
 	if (capture.sampleRateHz < FLICKER_MIN_SAMPLE_RATE_HZ) {
 		return { channels: [], notes: [`Flicker not measured: it needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second (this record has ${capture.sampleRateHz}).`] };
 	}
-	if (nominalHz !== 50 && nominalHz !== 60) return { channels: [], notes: ['Flicker not measured: the mains frequency (50 or 60 Hz) is not known.'] };
 	const durationS = (voltages[0].samples.length ?? 0) / capture.sampleRateHz;
+	if (nominalHz !== 50 && nominalHz !== 60) {
+		const why = durationS <= FLICKER_SETTLING_S ? `the record is ${durationS < 1 ? `${(durationS * 1000).toFixed(0)} ms` : `${durationS.toFixed(1)} s`} long, too short for a flicker reading` : 'the mains frequency (50 or 60 Hz) is not known';
+		return { channels: [], notes: [`Flicker not measured: ${why}.`] };
+	}
 	if (durationS <= FLICKER_SETTLING_S) {
 		notes.push(`The record is ${durationS.toFixed(1)} s long: too short for a flicker reading (the flickermeter's filters settle over the first ${FLICKER_SETTLING_S} s).`);
 	} else if (durationS < PST_INTERVAL_S) {

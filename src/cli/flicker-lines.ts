@@ -13,7 +13,7 @@ export function flickerLines(r: ReportJson): string[] {
 	const f = r.flicker;
 	if (!f || (f.channels.length === 0 && f.notes.length === 0)) return [];
 	const nothing = f.channels.every((c) => c.pinst.max === null && (c.changes.count ?? 0) === 0);
-	if (nothing) return ['', `  flicker: not measured. ${f.notes[0] ?? ''}`.trimEnd()];
+	if (nothing) return ['', `  flicker: ${(f.notes[0] ?? 'not measured.').replace(/^Flicker not measured: /, 'not measured: ')}`];
 	const out = ['', '  flicker (IEC 61000-4-15 flickermeter):'];
 	for (const c of f.channels) {
 		const lamp = `${c.lamp} lamp`;
