@@ -123,6 +123,7 @@ cli
 	.option('--nominal <V>', 'Declared supply voltage Un in V (line-to-neutral when the channels are); inferred when absent')
 	.option('--frequency <Hz>', 'Nominal frequency, 50 or 60; from the file or the first cycles when absent')
 	.option('--json', 'The survey as one JSON document')
+	.option('--csv', 'The survey as CSV: one row per rule (every harmonic order) and per dip/swell table cell')
 	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
 	.action(async (paths: string[], options: Record<string, unknown>) => {
 		const { importOptionsFrom } = await import('./import-settings.js');
@@ -133,6 +134,7 @@ cli
 			nominal: options.nominal as number | string | undefined,
 			frequency: options.frequency as number | string | undefined,
 			json: options.json === true,
+			csv: options.csv === true,
 			open,
 		});
 	});

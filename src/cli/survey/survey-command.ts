@@ -16,7 +16,7 @@ import { ERROR_PREFIX, errorLine } from '../error-line.js';
 import { UsageError } from '../usage-error.js';
 import { analyseFile } from '../trend/read-recording.js';
 import { trendJson } from '../trend/trend-output.js';
-import { surveyJson, surveyTable } from './survey-output.js';
+import { surveyCsv, surveyJson, surveyTable } from './survey-output.js';
 
 export interface SurveyCommandOptions {
 	standard?: string;
@@ -24,6 +24,8 @@ export interface SurveyCommandOptions {
 	nominal?: number | string;
 	frequency?: number | string;
 	json?: boolean;
+	/** One CSV row per rule line and per event-table cell. */
+	csv?: boolean;
 	open?: OpenOptions;
 	stdout?: NodeJS.WritableStream;
 	stderr?: NodeJS.WritableStream;
@@ -80,6 +82,7 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 		standard = s;
 		declaredV = number('nominal', options.nominal, (x) => x > 0, 'the declared supply voltage in V (line-to-neutral for line-to-neutral channels)');
 		nominalHz = number('frequency', options.frequency, (x) => x === 50 || x === 60, '50 or 60 (Hz)');
+		if (options.json && options.csv) throw new UsageError('survey: give --json or --csv, not both');
 	} catch (e) {
 		err.write(`${ERROR_PREFIX}${(e as Error).message}\n`);
 		return 2;
@@ -118,7 +121,10 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 		const result = assessSurvey(input, standard);
 		const notes = diagnostics.map((d) => d.message);
 		if (options.json) out.write(`${surveyJson(result, { files: docs.map((d) => d.source), clockAligned: input.clockAligned, spanStartS: input.spanStartS, diagnostics })}\n`);
-		else out.write(surveyTable(result, input.spanStartS, input.clockAligned, notes));
+		else if (options.csv) {
+			out.write(surveyCsv(result));
+			for (const n of notes) err.write(`note: ${n}\n`);
+		} else out.write(surveyTable(result, input.spanStartS, input.clockAligned, notes));
 		if (failed > 0) return 2;
 		return result.meets === false ? 1 : 0;
 	} catch (e) {

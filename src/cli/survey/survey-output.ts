@@ -1,4 +1,5 @@
-/** Text forms of a survey: the readable table, and the JSON document (NaN as null). */
+/** Text forms of a survey: the readable table, the CSV rows and the JSON document (NaN as null). */
+import { csvCell } from '../../../lib/report/index.js';
 import { maxOf } from '../../../lib/signal/index.js';
 import type { SurveyEventTable, SurveyLine, SurveyResult } from '../../../lib/survey/types.js';
 
@@ -84,4 +85,25 @@ export function surveyTable(r: SurveyResult, spanStartS: number, clockAligned: b
 /** JSON-safe copy: NaN and infinities as null. */
 export function surveyJson(r: SurveyResult, extra: Record<string, unknown>): string {
 	return JSON.stringify({ ...extra, ...r }, (_k, v) => (typeof v === 'number' && !Number.isFinite(v) ? null : v), 1);
+}
+
+/**
+ * The survey as CSV for a spreadsheet: one row per rule line (every harmonic order, unlike the table),
+ * then the dip and swell tables as rows of counts. Cells go through the shared formula guard.
+ * Columns: section, id, quantity, channel, rule, measured, value, limit, unit, verdict, used,
+ * excluded_flagged, excluded_partial, source.
+ */
+export function surveyCsv(r: SurveyResult): string {
+	const num = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(6))) : '');
+	const row = (cells: string[]) => `${cells.map((c) => csvCell(c)).join(',')}\n`;
+	let out = row(['section', 'id', 'quantity', 'channel', 'rule', 'measured', 'value', 'limit', 'unit', 'verdict', 'used', 'excluded_flagged', 'excluded_partial', 'source']);
+	for (const l of r.lines) {
+		out += row(['rule', l.id, l.quantity, l.channel ?? 'all', l.rule, l.measured, num(l.value), num(l.limit), l.unit, l.verdict, String(l.used), String(l.excludedFlagged), String(l.excludedPartial), l.source]);
+	}
+	for (const t of [r.dips, r.swells]) {
+		t.rows.forEach((band, i) => t.columns.forEach((dur, j) => (out += row([`${t.kind} table`, `${t.kind}-${i + 1}-${j + 1}`, band, 'all', dur, `${t.counts[i][j]} event(s)`, String(t.counts[i][j]), '', '', '', '', '', '', t.source]))));
+	}
+	out += row(['interruptions', 'short', 'up to 3 min', 'all', '', `${r.interruptions.short} event(s)`, String(r.interruptions.short), '', '', '', '', '', '', r.interruptions.source]);
+	out += row(['interruptions', 'long', 'over 3 min', 'all', '', `${r.interruptions.long} event(s)`, String(r.interruptions.long), '', '', '', '', '', '', r.interruptions.source]);
+	return out;
 }

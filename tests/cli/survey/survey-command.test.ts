@@ -6,6 +6,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ensureBuiltCli, mainJs, root } from '../built-cli.js';
 
@@ -62,6 +63,21 @@ describe('sinecheck survey', () => {
 		const table = run(a, b);
 		expect(table.stdout).toContain('DOES NOT MEET');
 		expect(table.stdout).toContain('2026-05-04 08:00:00');
+	});
+
+	it('--csv gives one row per rule line (every harmonic order) that papaparse reads back to the JSON figures, and the dip table cells', () => {
+		const a = join(dir, 'c08.json');
+		writeFileSync(a, JSON.stringify(hour('c08.cfg', '2026-05-04T08:00:00Z', (k) => (k < 2 ? 9 : 3))));
+		const json = JSON.parse(run(a, '--json').stdout);
+		const r = run(a, '--csv');
+		expect(r.status).toBe(1);
+		const rows = Papa.parse<Record<string, string>>(r.stdout, { header: true, skipEmptyLines: true }).data;
+		const rules = rows.filter((x) => x.section === 'rule');
+		expect(rules.map((x) => x.id)).toEqual(json.lines.map((l: { id: string }) => l.id));
+		const thd = rules.find((x) => x.id === 'thd')!;
+		expect(Number(thd.value)).toBe(9); // nearest rank ceil(0.95 x 6) = 6: the largest of 3, 3, 3, 3, 9, 9
+		expect(thd.verdict).toBe('does not meet');
+		expect(rows.filter((x) => x.section === 'dip table')).toHaveLength(json.dips.rows.length * json.dips.columns.length);
 	});
 
 	it('a JSON file that is not a trend document is refused with its name, exit 2, no stack trace', () => {
