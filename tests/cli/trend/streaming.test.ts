@@ -6,25 +6,15 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Writable } from 'node:stream';
 import { afterAll, describe, expect, it } from 'vitest';
 import { trendCommand } from '../../../src/cli/trend/index.js';
 import { comtradeCffBytes, comtradeCfgText, comtradeDatBytes, type WriterSpec } from '../../../sample-waves/writers/comtrade.js';
+import { textSink } from './text-sink.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-trend-stream-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-function sink(): Writable & { text: () => string } {
-	const parts: string[] = [];
-	const w = new Writable({
-		write(chunk, _enc, cb) {
-			parts.push(String(chunk));
-			cb();
-		},
-	}) as Writable & { text: () => string };
-	w.text = () => parts.join('');
-	return w;
-}
+const sink = textSink;
 
 const FS = 5000;
 const N = 3 * FS; // 3 s: more than the 4096 rows a CSV's rate is taken from

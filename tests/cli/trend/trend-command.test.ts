@@ -1,28 +1,18 @@
 import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
-import { Writable } from 'node:stream';
 import { afterAll, describe, expect, it } from 'vitest';
 import { trendCommand } from '../../../src/cli/trend/index.js';
 import { trendErrorLine } from '../../../src/cli/trend/trend-command.js';
 import { ImportError } from '../../../lib/io/import-error.js';
 import { FloatWavWriter } from '../../trend/float-wav.js';
 import { makeChannels } from '../../trend/signals.js';
+import { textSink } from './text-sink.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-trend-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-function sink(): Writable & { text: () => string } {
-	const parts: string[] = [];
-	const w = new Writable({
-		write(chunk, _enc, cb) {
-			parts.push(String(chunk));
-			cb();
-		},
-	}) as Writable & { text: () => string };
-	w.text = () => parts.join('');
-	return w;
-}
+const sink = textSink;
 
 // Three phases at 230 V, 50 Hz, 10 kS/s, 2 s, with a 70 % dip of 60 ms on L2 from 0.5057 s, and a 10 A current.
 const T0 = 0.5057;

@@ -5,26 +5,16 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { Writable } from 'node:stream';
 import { afterAll, describe, expect, it } from 'vitest';
 import { trendCommand } from '../../../src/cli/trend/index.js';
 import { FloatWavWriter } from '../../trend/float-wav.js';
 import { forEachChunk } from '../../helpers/flicker-signals.js';
+import { textSink } from './text-sink.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-trend-flicker-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-function sink(): Writable & { text: () => string } {
-	const parts: string[] = [];
-	const w = new Writable({
-		write(chunk, _enc, cb) {
-			parts.push(String(chunk));
-			cb();
-		},
-	}) as Writable & { text: () => string };
-	w.text = () => parts.join('');
-	return w;
-}
+const sink = textSink;
 
 const FS = 1600;
 const DURATION_S = 601;
