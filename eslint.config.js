@@ -11,7 +11,10 @@ import tseslint from 'typescript-eslint';
 
 const LIB_PLATFORM_FREE = [
 	{ group: ['**/src/**'], message: 'lib must not depend on UI or CLI code' },
-	{ group: ['svelte', 'svelte/*', 'uplot', 'node:*', 'fs', 'path', 'os', 'worker_threads', 'child_process'], message: 'lib stays platform-free: no Node, Svelte or uPlot' },
+	{
+		group: ['svelte', 'svelte/*', 'uplot', 'node:*', 'fs', 'path', 'os', 'worker_threads', 'child_process'],
+		message: 'lib stays platform-free: no Node, Svelte or uPlot',
+	},
 ];
 
 // lib/ areas with an index.ts: src/ imports them through it; top-level lib/*.ts files are public as they are.
@@ -24,7 +27,17 @@ const LIB_INTERNALS = [
 ];
 
 export default tseslint.config(
-	{ ignores: ['dist/**', 'dist-ui/**', 'test-artifacts/**', 'coverage/**', 'node_modules/**', '.vite/**', 'sample-waves/**/*.{csv,cfg,dat,cff,wav,json}'] },
+	{
+		ignores: [
+			'dist/**',
+			'dist-ui/**',
+			'test-artifacts/**',
+			'coverage/**',
+			'node_modules/**',
+			'.vite/**',
+			'sample-waves/**/*.{csv,cfg,dat,cff,wav,json}',
+		],
+	},
 	js.configs.recommended,
 	...tseslint.configs.recommended,
 	...svelte.configs['flat/recommended'],
@@ -33,13 +46,23 @@ export default tseslint.config(
 		plugins: { 'import-x': importX },
 		// imports name the emitted .js file; the resolver maps it back to the .ts source
 		settings: {
-			'import-x/resolver-next': [createNodeResolver({ extensions: ['.ts', '.js', '.svelte'], extensionAlias: { '.js': ['.ts', '.js'] } })],
+			'import-x/resolver-next': [
+				createNodeResolver({ extensions: ['.ts', '.js', '.svelte'], extensionAlias: { '.js': ['.ts', '.js'] } }),
+			],
 			'import-x/extensions': ['.ts', '.js'],
 			'import-x/parsers': { '@typescript-eslint/parser': ['.ts'] },
 		},
 		rules: {
 			'import-x/no-cycle': ['error', { ignoreExternal: true }],
-			'@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrors: 'none', destructuredArrayIgnorePattern: '^_' }],
+			'@typescript-eslint/no-unused-vars': [
+				'error',
+				{
+					argsIgnorePattern: '^_',
+					varsIgnorePattern: '^_',
+					caughtErrors: 'none',
+					destructuredArrayIgnorePattern: '^_',
+				},
+			],
 			// `x === x` is the NaN test in hot loops (faster than Number.isNaN there); kept deliberately
 			'no-self-compare': 'off',
 			// {' '}, {'\t'}, {'\n'} in markup are deliberate whitespace
@@ -61,7 +84,18 @@ export default tseslint.config(
 		rules: {
 			'no-restricted-imports': 'off',
 			'@typescript-eslint/no-restricted-imports': ['error', { patterns: LIB_PLATFORM_FREE }],
-			'no-restricted-globals': ['error', 'window', 'document', 'navigator', 'localStorage', 'process', 'Buffer', 'require', '__dirname', 'self'],
+			'no-restricted-globals': [
+				'error',
+				'window',
+				'document',
+				'navigator',
+				'localStorage',
+				'process',
+				'Buffer',
+				'require',
+				'__dirname',
+				'self',
+			],
 		},
 	},
 	{

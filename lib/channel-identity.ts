@@ -90,7 +90,21 @@ export interface ParsedPhaseLabel {
 // Words for the quantity in the languages recorders are set to (common practice): English, German, French, Spanish.
 const WORD_VOLTAGE = new Set(['VOLTAGE', 'VOLTS', 'VOLT', 'SPANNUNG', 'TENSION', 'TENSIÓN']);
 const WORD_CURRENT = new Set(['CURRENT', 'AMPS', 'AMP', 'AMPERE', 'AMPERES', 'STROM', 'COURANT', 'CORRIENTE']);
-const WORD_NOISE = new Set(['PHASE', 'PH', 'LINE', 'RMS', 'INST', 'INSTANTANEOUS', 'WAVE', 'WAVEFORM', 'SAMPLE', 'SAMPLES', 'TO', 'PRIMARY', 'SECONDARY']);
+const WORD_NOISE = new Set([
+	'PHASE',
+	'PH',
+	'LINE',
+	'RMS',
+	'INST',
+	'INSTANTANEOUS',
+	'WAVE',
+	'WAVEFORM',
+	'SAMPLE',
+	'SAMPLES',
+	'TO',
+	'PRIMARY',
+	'SECONDARY',
+]);
 const PREFIXES: [string, 'voltage' | 'current'][] = [
 	['U', 'voltage'],
 	['V', 'voltage'],
@@ -193,7 +207,11 @@ export function resolvePhaseToken(token: string, letterFamily: PhaseFamily): Pha
  * `assumed` is true, so the caller can report it.
  * @example inferPhaseFamily([['R'], ['Y'], ['B']].map((t) => ({ kind: 'phase', tokens: t }))) // { family: 'RYB', assumed: false }
  */
-export function inferPhaseFamily(labels: ParsedPhaseLabel[]): { family: PhaseFamily; assumed: boolean; conflicting: PhaseFamily[] } {
+export function inferPhaseFamily(labels: ParsedPhaseLabel[]): {
+	family: PhaseFamily;
+	assumed: boolean;
+	conflicting: PhaseFamily[];
+} {
 	const letters = new Set(labels.flatMap((l) => l.tokens).filter((t) => /[A-Z]/.test(t)));
 	if (letters.size === 0) return { family: 'numeric', assumed: false, conflicting: [] };
 	const votes: PhaseFamily[] = [];
@@ -207,7 +225,13 @@ export function inferPhaseFamily(labels: ParsedPhaseLabel[]): { family: PhaseFam
 
 /** Display label of a phase in a family: 'L1' (numeric), 'A', 'R', 'U'... */
 export function phaseDisplayLabel(index: PhaseIndex, family: PhaseFamily): PhaseName {
-	const names: Record<PhaseFamily, PhaseName[]> = { numeric: ['L1', 'L2', 'L3'], ABC: ['A', 'B', 'C'], RST: ['R', 'S', 'T'], RYB: ['R', 'Y', 'B'], UVW: ['U', 'V', 'W'] };
+	const names: Record<PhaseFamily, PhaseName[]> = {
+		numeric: ['L1', 'L2', 'L3'],
+		ABC: ['A', 'B', 'C'],
+		RST: ['R', 'S', 'T'],
+		RYB: ['R', 'Y', 'B'],
+		UVW: ['U', 'V', 'W'],
+	};
 	return names[family][index - 1];
 }
 

@@ -24,7 +24,12 @@ describe('dependency direction', () => {
 			const text = readFileSync(f, 'utf8');
 			for (const m of text.matchAll(importRe)) {
 				const spec = m[1] ?? m[2];
-				if (/(^|\/)src\//.test(spec) || /^(svelte|uplot)(\/|$)/.test(spec) || spec.startsWith('node:') || /^(fs|path|os|worker_threads|child_process)$/.test(spec)) {
+				if (
+					/(^|\/)src\//.test(spec) ||
+					/^(svelte|uplot)(\/|$)/.test(spec) ||
+					spec.startsWith('node:') ||
+					/^(fs|path|os|worker_threads|child_process)$/.test(spec)
+				) {
 					offenders.push(`${relative('.', f)} imports ${spec}`);
 				}
 			}
@@ -35,16 +40,21 @@ describe('dependency direction', () => {
 	it('lib/ files use no DOM or Node globals (document, window, process, Buffer, require)', () => {
 		const offenders: string[] = [];
 		for (const f of libFiles) {
-			const code = readFileSync(f, 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
+			const code = readFileSync(f, 'utf8')
+				.replace(/\/\*[\s\S]*?\*\//g, '')
+				.replace(/\/\/.*$/gm, '');
 			// `window` is a fine local name in signal code (a harmonic window), so only its browser members count.
-			const m = code.match(/\b(document\.\w|process\.\w|Buffer\.\w|require\s*\(|window\.(?:document|location|navigator|localStorage|addEventListener|postMessage)\b|typeof\s+window\b)/);
+			const m = code.match(
+				/\b(document\.\w|process\.\w|Buffer\.\w|require\s*\(|window\.(?:document|location|navigator|localStorage|addEventListener|postMessage)\b|typeof\s+window\b)/,
+			);
 			if (m) offenders.push(`${relative('.', f)} uses ${m[1]}`);
 		}
 		expect(offenders).toEqual([]);
 	});
 
 	it('the global check flags browser/Node globals but not a local variable named window', () => {
-		const re = /\b(document\.\w|process\.\w|Buffer\.\w|require\s*\(|window\.(?:document|location|navigator|localStorage|addEventListener|postMessage)\b|typeof\s+window\b)/;
+		const re =
+			/\b(document\.\w|process\.\w|Buffer\.\w|require\s*\(|window\.(?:document|location|navigator|localStorage|addEventListener|postMessage)\b|typeof\s+window\b)/;
 		expect(re.test('const n = window.startIndex + 1;')).toBe(false);
 		expect(re.test('document.createElement("a")')).toBe(true);
 		expect(re.test('process.exit(1)')).toBe(true);

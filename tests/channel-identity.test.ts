@@ -6,7 +6,13 @@
 import wavefile from 'wavefile';
 import { describe, expect, it } from 'vitest';
 import type { Capture } from '../lib/capture.js';
-import { channelIdentity, channelPhase, normaliseUnitText, quantityFromName, readUnit } from '../lib/channel-identity.js';
+import {
+	channelIdentity,
+	channelPhase,
+	normaliseUnitText,
+	quantityFromName,
+	readUnit,
+} from '../lib/channel-identity.js';
 import { openCapture, openCaptures } from '../lib/io/open.js';
 import { pairPowerChannels } from '../lib/power/pairing.js';
 import { comtradeCffBytes, type WriterSpec } from '../sample-waves/writers/comtrade.js';
@@ -23,10 +29,19 @@ describe('readUnit and normaliseUnitText', () => {
 	});
 
 	it.each([
-		['V', 'V', 1, 'voltage'], ['kV', 'V', 1e3, 'voltage'], ['KV', 'V', 1e3, 'voltage'], ['mV', 'V', 1e-3, 'voltage'],
-		['A', 'A', 1, 'current'], ['kA', 'A', 1e3, 'current'], ['mA', 'A', 1e-3, 'current'], [' a ', 'A', 1, 'current'],
-		['Volts', 'V', 1, 'voltage'], ['(V)', 'V', 1, 'voltage'],
-		['Hz', 'Hz', 1, 'other'], ['MW', 'MW', 1, 'other'], ['', '', 1, 'other'],
+		['V', 'V', 1, 'voltage'],
+		['kV', 'V', 1e3, 'voltage'],
+		['KV', 'V', 1e3, 'voltage'],
+		['mV', 'V', 1e-3, 'voltage'],
+		['A', 'A', 1, 'current'],
+		['kA', 'A', 1e3, 'current'],
+		['mA', 'A', 1e-3, 'current'],
+		[' a ', 'A', 1, 'current'],
+		['Volts', 'V', 1, 'voltage'],
+		['(V)', 'V', 1, 'voltage'],
+		['Hz', 'Hz', 1, 'other'],
+		['MW', 'MW', 1, 'other'],
+		['', '', 1, 'other'],
 	])('normaliseUnitText(%j) gives %s ×%d (%s)', (text, unit, factor, quantity) => {
 		expect(normaliseUnitText(text)).toEqual({ unit, factor, quantity });
 	});
@@ -80,7 +95,14 @@ describe('channelIdentity(name)', () => {
 	});
 
 	it('a V or A unit decides the quantity over the name, and the disagreement is kept', () => {
-		expect(channelIdentity('I1', 'mV')).toEqual({ quantity: 'voltage', quantityFrom: 'unit', nameQuantity: 'current', phase: 'L1', unit: 'V', factor: 1e-3 });
+		expect(channelIdentity('I1', 'mV')).toEqual({
+			quantity: 'voltage',
+			quantityFrom: 'unit',
+			nameQuantity: 'current',
+			phase: 'L1',
+			unit: 'V',
+			factor: 1e-3,
+		});
 	});
 
 	it('a phase field that reads as a label wins over the name; one that does not falls back to the name', () => {
@@ -119,10 +141,22 @@ function comtradeCapture(): Capture {
 }
 
 function wavCapture(): Capture {
-	const { WaveFile } = wavefile as unknown as { WaveFile: new () => { fromScratch(ch: number, rate: number, depth: string, s: number[][]): void; toBuffer(): Uint8Array } };
+	const { WaveFile } = wavefile as unknown as {
+		WaveFile: new () => {
+			fromScratch(ch: number, rate: number, depth: string, s: number[][]): void;
+			toBuffer(): Uint8Array;
+		};
+	};
 	const w = new WaveFile();
-	w.fromScratch(fileNames.length, 1000, '16', fileNames.map(() => values.map((v) => Math.round(v * 16000))));
-	return openCapture({ name: 'names.wav', bytes: w.toBuffer() }, [], { wav: { channels: fileNames.map((name) => ({ fullScale: 1, name })) } });
+	w.fromScratch(
+		fileNames.length,
+		1000,
+		'16',
+		fileNames.map(() => values.map((v) => Math.round(v * 16000))),
+	);
+	return openCapture({ name: 'names.wav', bytes: w.toBuffer() }, [], {
+		wav: { channels: fileNames.map((name) => ({ fullScale: 1, name })) },
+	});
 }
 
 describe('the same channel names in CSV, COMTRADE and WAV', () => {
@@ -134,31 +168,63 @@ describe('the same channel names in CSV, COMTRADE and WAV', () => {
 	for (const [format, make] of formats) {
 		it(`${format}: every name gets the quantity and phase of the table`, () => {
 			const c = make();
-			expect(c.channels.map((ch) => [ch.name, ch.quantity, ch.phase])).toEqual(NAMES.map(([n, q, p]) => [n, q ?? 'other', p]));
+			expect(c.channels.map((ch) => [ch.name, ch.quantity, ch.phase])).toEqual(
+				NAMES.map(([n, q, p]) => [n, q ?? 'other', p]),
+			);
 		});
 	}
 
 	it("a unit beside the name: CSV 'N (V)' and COMTRADE 'N' in V are the neutral voltage", () => {
-		const csv = openCapture({ name: 'n.csv', bytes: new TextEncoder().encode(['t (s);N (V)', ...values.map((v, k) => `${k / 1000};${v}`)].join('\n')) });
+		const csv = openCapture({
+			name: 'n.csv',
+			bytes: new TextEncoder().encode(['t (s);N (V)', ...values.map((v, k) => `${k / 1000};${v}`)].join('\n')),
+		});
 		const spec: WriterSpec = {
-			station: 'Tallowmere Joinery', device: 'n', revYear: 1999, lineFrequencyHz: 50, rates: [{ sampleRateHz: 1000, endSample: N }],
-			firstData: '01/02/2026,10:00:00.000000', trigger: '01/02/2026,10:00:00.000000', fileType: 'ASCII',
+			station: 'Tallowmere Joinery',
+			device: 'n',
+			revYear: 1999,
+			lineFrequencyHz: 50,
+			rates: [{ sampleRateHz: 1000, endSample: N }],
+			firstData: '01/02/2026,10:00:00.000000',
+			trigger: '01/02/2026,10:00:00.000000',
+			fileType: 'ASCII',
 			analog: [{ name: 'N', unit: 'V', values }],
 		};
 		const cff = openCapture({ name: 'n.cff', bytes: comtradeCffBytes(spec) });
-		for (const c of [csv, cff]) expect(c.channels.map((ch) => [ch.name, ch.quantity, ch.unit, ch.phase])).toEqual([['N', 'voltage', 'V', 'N']]);
+		for (const c of [csv, cff])
+			expect(c.channels.map((ch) => [ch.name, ch.quantity, ch.unit, ch.phase])).toEqual([['N', 'voltage', 'V', 'N']]);
 	});
 
 	it('pairing gives the same pairs for one three-phase naming in every format', () => {
 		const names = ['VAN', 'VBN', 'VCN', 'Ia', 'Ib', 'Ic'];
 		const pick = (c: Capture) => ({ ...c, channels: c.channels.filter((ch) => names.includes(ch.name)) });
-		const csv = openCaptures([{ name: 'p.csv', bytes: new TextEncoder().encode(['t (s);' + names.join(';'), ...values.map((v, k) => `${k / 1000};${names.map(() => v).join(';')}`)].join('\n')) }]).captures[0];
-		const pairsOf = (c: Capture) => pairPowerChannels(pick(c).channels).pairs.map((p) => [p.label, p.voltage, p.current]);
-		const expected = [['A', 'VAN', 'Ia'], ['B', 'VBN', 'Ib'], ['C', 'VCN', 'Ic']];
+		const csv = openCaptures([
+			{
+				name: 'p.csv',
+				bytes: new TextEncoder().encode(
+					['t (s);' + names.join(';'), ...values.map((v, k) => `${k / 1000};${names.map(() => v).join(';')}`)].join(
+						'\n',
+					),
+				),
+			},
+		]).captures[0];
+		const pairsOf = (c: Capture) =>
+			pairPowerChannels(pick(c).channels).pairs.map((p) => [p.label, p.voltage, p.current]);
+		const expected = [
+			['A', 'VAN', 'Ia'],
+			['B', 'VBN', 'Ib'],
+			['C', 'VCN', 'Ic'],
+		];
 		expect(pairsOf(csv)).toEqual(expected);
 		const spec: WriterSpec = {
-			station: 'Tallowmere Joinery', device: 'pairs', revYear: 1999, lineFrequencyHz: 50, rates: [{ sampleRateHz: 1000, endSample: N }],
-			firstData: '01/02/2026,10:00:00.000000', trigger: '01/02/2026,10:00:00.000000', fileType: 'ASCII',
+			station: 'Tallowmere Joinery',
+			device: 'pairs',
+			revYear: 1999,
+			lineFrequencyHz: 50,
+			rates: [{ sampleRateHz: 1000, endSample: N }],
+			firstData: '01/02/2026,10:00:00.000000',
+			trigger: '01/02/2026,10:00:00.000000',
+			fileType: 'ASCII',
 			analog: names.map((name) => ({ name, unit: '', values })),
 		};
 		expect(pairsOf(openCapture({ name: 'p.cff', bytes: comtradeCffBytes(spec) }))).toEqual(expected);

@@ -21,9 +21,12 @@ describe('no spreading of arrays into Math.min / Math.max / String.fromCharCode 
 	it('lib/ and src/ hold none', () => {
 		const offenders: string[] = [];
 		for (const f of [...filesUnder('lib'), ...filesUnder('src')]) {
-			const code = readFileSync(f, 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
+			const code = readFileSync(f, 'utf8')
+				.replace(/\/\*[\s\S]*?\*\//g, '')
+				.replace(/\/\/.*$/gm, '');
 			code.split('\n').forEach((line, i) => {
-				if (/Math\.(min|max)\([^)]*\.\.\.|\.apply\(\s*(null|Math|undefined)\s*,/.test(line)) offenders.push(`${relative('.', f)}:${i + 1}: ${line.trim()}`);
+				if (/Math\.(min|max)\([^)]*\.\.\.|\.apply\(\s*(null|Math|undefined)\s*,/.test(line))
+					offenders.push(`${relative('.', f)}:${i + 1}: ${line.trim()}`);
 			});
 		}
 		expect(offenders).toEqual([]);

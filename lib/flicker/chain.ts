@@ -14,7 +14,13 @@ import { pinstClass } from './classifier.js';
 const MAX_NORMALISED_SQUARE = 1e4;
 
 /** Filter states, indices into FlickerChain.state. */
-const ADAPTOR = 0, HP = 1, LP = 2, W = 8, SMOOTH = 12, LAST_U = 13, STATE_LENGTH = 14;
+const ADAPTOR = 0,
+	HP = 1,
+	LP = 2,
+	W = 8,
+	SMOOTH = 12,
+	LAST_U = 13,
+	STATE_LENGTH = 14;
 
 /** Running statistics of one stretch: written by `run`. */
 export interface ChainStretch {
@@ -27,15 +33,45 @@ export class FlickerChain {
 	readonly state = new Float64Array(STATE_LENGTH);
 	private readonly c: Float64Array;
 
-	constructor(readonly design: FlickerDesign, initialMeanSquare: number) {
+	constructor(
+		readonly design: FlickerDesign,
+		initialMeanSquare: number,
+	) {
 		const d = design;
 		const [l0, l1, l2] = d.lowPass;
 		const [w0, w1] = d.weighting;
 		this.c = Float64Array.from([
-			d.adaptorAlpha, d.highPass.b0, d.highPass.b1, d.highPass.a1,
-			l0.b0, l0.b1, l0.b2, l0.a1, l0.a2, l1.b0, l1.b1, l1.b2, l1.a1, l1.a2, l2.b0, l2.b1, l2.b2, l2.a1, l2.a2,
-			w0.b0, w0.b1, w0.b2, w0.a1, w0.a2, w1.b0, w1.b1, w1.b2, w1.a1, w1.a2,
-			d.smoothingAlpha, d.scale,
+			d.adaptorAlpha,
+			d.highPass.b0,
+			d.highPass.b1,
+			d.highPass.a1,
+			l0.b0,
+			l0.b1,
+			l0.b2,
+			l0.a1,
+			l0.a2,
+			l1.b0,
+			l1.b1,
+			l1.b2,
+			l1.a1,
+			l1.a2,
+			l2.b0,
+			l2.b1,
+			l2.b2,
+			l2.a1,
+			l2.a2,
+			w0.b0,
+			w0.b1,
+			w0.b2,
+			w0.a1,
+			w0.a2,
+			w1.b0,
+			w1.b1,
+			w1.b2,
+			w1.a1,
+			w1.a2,
+			d.smoothingAlpha,
+			d.scale,
 		]);
 		// Start in the steady state of an unmodulated supply: running mean square known, demodulator
 		// output 1 already blocked by the high-pass (its state holds −b0), every later filter at rest.
@@ -50,19 +86,56 @@ export class FlickerChain {
 	 * (counted in out.nonFinite).
 	 */
 	run(x: Float64Array, from: number, to: number, counts: Uint32Array, out: ChainStretch): void {
-		const c = this.c, s = this.state;
-		const aA = c[0], hb0 = c[1], hb1 = c[2], ha1 = c[3];
-		const p0 = c[4], p1 = c[5], p2 = c[6], p3 = c[7], p4 = c[8];
-		const q0 = c[9], q1 = c[10], q2 = c[11], q3 = c[12], q4 = c[13];
-		const r0 = c[14], r1 = c[15], r2 = c[16], r3 = c[17], r4 = c[18];
-		const u0 = c[19], u1 = c[20], u2 = c[21], u3 = c[22], u4 = c[23];
-		const v0 = c[24], v1 = c[25], v2 = c[26], v3 = c[27], v4 = c[28];
-		const aS = c[29], scale = c[30];
-		let ms = s[ADAPTOR], h1 = s[HP];
-		let pa = s[LP], pb = s[LP + 1], qa = s[LP + 2], qb = s[LP + 3], ra = s[LP + 4], rb = s[LP + 5];
-		let ua = s[W], ub = s[W + 1], va = s[W + 2], vb = s[W + 3];
-		let sm = s[SMOOTH], u = s[LAST_U];
-		let max = out.max, sum = out.sum, bad = 0;
+		const c = this.c,
+			s = this.state;
+		const aA = c[0],
+			hb0 = c[1],
+			hb1 = c[2],
+			ha1 = c[3];
+		const p0 = c[4],
+			p1 = c[5],
+			p2 = c[6],
+			p3 = c[7],
+			p4 = c[8];
+		const q0 = c[9],
+			q1 = c[10],
+			q2 = c[11],
+			q3 = c[12],
+			q4 = c[13];
+		const r0 = c[14],
+			r1 = c[15],
+			r2 = c[16],
+			r3 = c[17],
+			r4 = c[18];
+		const u0 = c[19],
+			u1 = c[20],
+			u2 = c[21],
+			u3 = c[22],
+			u4 = c[23];
+		const v0 = c[24],
+			v1 = c[25],
+			v2 = c[26],
+			v3 = c[27],
+			v4 = c[28];
+		const aS = c[29],
+			scale = c[30];
+		let ms = s[ADAPTOR],
+			h1 = s[HP];
+		let pa = s[LP],
+			pb = s[LP + 1],
+			qa = s[LP + 2],
+			qb = s[LP + 3],
+			ra = s[LP + 4],
+			rb = s[LP + 5];
+		let ua = s[W],
+			ub = s[W + 1],
+			va = s[W + 2],
+			vb = s[W + 3];
+		let sm = s[SMOOTH],
+			u = s[LAST_U];
+		let max = out.max,
+			sum = out.sum,
+			bad = 0;
 		for (let i = from; i < to; i++) {
 			const v = x[i];
 			if (v - v === 0) {
@@ -93,10 +166,22 @@ export class FlickerChain {
 			if (pinst > max) max = pinst;
 			sum += pinst;
 		}
-		s[ADAPTOR] = ms; s[HP] = h1;
-		s[LP] = pa; s[LP + 1] = pb; s[LP + 2] = qa; s[LP + 3] = qb; s[LP + 4] = ra; s[LP + 5] = rb;
-		s[W] = ua; s[W + 1] = ub; s[W + 2] = va; s[W + 3] = vb;
-		s[SMOOTH] = sm; s[LAST_U] = u;
-		out.max = max; out.sum = sum; out.nonFinite += bad;
+		s[ADAPTOR] = ms;
+		s[HP] = h1;
+		s[LP] = pa;
+		s[LP + 1] = pb;
+		s[LP + 2] = qa;
+		s[LP + 3] = qb;
+		s[LP + 4] = ra;
+		s[LP + 5] = rb;
+		s[W] = ua;
+		s[W + 1] = ub;
+		s[W + 2] = va;
+		s[W + 3] = vb;
+		s[SMOOTH] = sm;
+		s[LAST_U] = u;
+		out.max = max;
+		out.sum = sum;
+		out.nonFinite += bad;
 	}
 }

@@ -101,4 +101,3 @@ export function pltFromPst(pstValues: readonly number[]): number {
 	for (const p of pstValues) s += p * p * p;
 	return Math.cbrt(s / pstValues.length);
 }
-

@@ -55,7 +55,11 @@ function lagAlpha(timeConstantS: number, sampleRateHz: number): number {
 export function weightingSections(lamp: FlickerLamp, sampleRateHz: number): [Biquad, Biquad] {
 	const c = FLICKER_WEIGHTING[lamp];
 	const tau = 2 * Math.PI;
-	const w1 = tau * c.f1Hz, w2 = tau * c.f2Hz, w3 = tau * c.f3Hz, w4 = tau * c.f4Hz, lambda = tau * c.lambdaHz;
+	const w1 = tau * c.f1Hz,
+		w2 = tau * c.f2Hz,
+		w3 = tau * c.f3Hz,
+		w4 = tau * c.f4Hz,
+		lambda = tau * c.lambdaHz;
 	const f = FLICKER_REFERENCE.frequencyHz;
 	return [
 		bilinear([0, c.k * w1, 0], [1, 2 * lambda, w1 * w1], sampleRateHz, f),
@@ -78,7 +82,8 @@ export function designFlickermeter(settings: FlickerSettings): FlickerDesign {
 	if (!Number.isFinite(fs) || fs < FLICKER_MIN_SAMPLE_RATE_HZ) {
 		throw new RangeError(`flickermeter needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second, got ${fs}`);
 	}
-	if (settings.nominalHz !== 50 && settings.nominalHz !== 60) throw new RangeError(`nominal frequency must be 50 or 60 Hz, got ${settings.nominalHz}`);
+	if (settings.nominalHz !== 50 && settings.nominalHz !== 60)
+		throw new RangeError(`nominal frequency must be 50 or 60 Hz, got ${settings.nominalHz}`);
 	const lamp = settings.lamp ?? (settings.nominalHz === 50 ? '230V' : '120V');
 	const wc = 2 * Math.PI * FLICKER_HIGH_PASS_HZ;
 	const highPass = bilinear([0, 1, 0], [0, 1, wc], fs, FLICKER_HIGH_PASS_HZ);
@@ -99,7 +104,13 @@ export function designFlickermeter(settings: FlickerSettings): FlickerDesign {
 	};
 }
 
-function referenceScale(fs: number, highPass: Biquad, lowPass: Biquad[], weighting: Biquad[], smoothingAlpha: number): number {
+function referenceScale(
+	fs: number,
+	highPass: Biquad,
+	lowPass: Biquad[],
+	weighting: Biquad[],
+	smoothingAlpha: number,
+): number {
 	const f = FLICKER_REFERENCE.frequencyHz;
 	let g = biquadGain(highPass, f, fs);
 	for (const q of [...lowPass, ...weighting]) g *= biquadGain(q, f, fs);

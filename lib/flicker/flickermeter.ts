@@ -132,7 +132,8 @@ class StreamingFlickermeter implements Flickermeter {
 		this.startBuffer = new Float64Array(Math.round((START_CYCLES * fs) / options.nominalHz));
 		this.intervalSamples = Math.round(PST_INTERVAL_S * fs);
 		const offsetS = options.intervalOffsetS ?? 0;
-		if (!(offsetS >= 0 && offsetS < PST_INTERVAL_S)) throw new RangeError(`intervalOffsetS must be in [0, ${PST_INTERVAL_S}) s, got ${options.intervalOffsetS}`);
+		if (!(offsetS >= 0 && offsetS < PST_INTERVAL_S))
+			throw new RangeError(`intervalOffsetS must be in [0, ${PST_INTERVAL_S}) s, got ${options.intervalOffsetS}`);
 		this.offsetSamples = Math.round(offsetS * fs) % this.intervalSamples;
 		this.settlingSamples = Math.round(FLICKER_SETTLING_S * fs);
 		this.blockS = options.pinstBlockS ?? 1;
@@ -157,8 +158,13 @@ class StreamingFlickermeter implements Flickermeter {
 	/** Builds the chain from the start buffer's mean square, then runs the buffer through it. */
 	private start(): void {
 		const b = this.startBuffer.subarray(0, this.startFill);
-		let sumSq = 0, finite = 0;
-		for (const v of b) if (Number.isFinite(v)) { sumSq += v * v; finite++; }
+		let sumSq = 0,
+			finite = 0;
+		for (const v of b)
+			if (Number.isFinite(v)) {
+				sumSq += v * v;
+				finite++;
+			}
 		this.chain = new FlickerChain(this.design, finite > 0 ? sumSq / finite : 0);
 		if (b.length > 0) this.feed(b, 0, b.length);
 	}
@@ -169,7 +175,9 @@ class StreamingFlickermeter implements Flickermeter {
 		let i = from;
 		while (i < to) {
 			const blockEnd = Math.round((this.block + 1) * this.blockS * fs);
-			const intervalEnd = (Math.floor((this.n + this.offsetSamples) / this.intervalSamples) + 1) * this.intervalSamples - this.offsetSamples;
+			const intervalEnd =
+				(Math.floor((this.n + this.offsetSamples) / this.intervalSamples) + 1) * this.intervalSamples -
+				this.offsetSamples;
 			if (this.n < this.settlingSamples) {
 				const stop = Math.min(to, i + (this.settlingSamples - this.n));
 				this.settle(x, i, stop);
@@ -206,7 +214,8 @@ class StreamingFlickermeter implements Flickermeter {
 		const count = this.n - startN;
 		const st = this.stretch;
 		if (count > 0) {
-			const startS = startN / fs, mean = st.sum / count;
+			const startS = startN / fs,
+				mean = st.sum / count;
 			this.options.onPinstBlock?.(startS, st.max, mean);
 			if (this.blocks) {
 				this.blocks.startS.push(startS);
@@ -285,7 +294,11 @@ export function pltIntervals(pst: readonly PstInterval[]): PltInterval[] {
 	for (let k = 0; k + PLT_PST_COUNT <= pst.length; k += PLT_PST_COUNT) {
 		const group = pst.slice(k, k + PLT_PST_COUNT);
 		const last = group[group.length - 1];
-		out.push({ startS: group[0].startS, durationS: last.startS + last.durationS - group[0].startS, plt: pltFromPst(group.map((p) => p.pst)) });
+		out.push({
+			startS: group[0].startS,
+			durationS: last.startS + last.durationS - group[0].startS,
+			plt: pltFromPst(group.map((p) => p.pst)),
+		});
 	}
 	return out;
 }

@@ -17,13 +17,22 @@ export interface HalfPeriodRms {
  * @param onValue       called with the window start (s from the first sample) and its RMS (V)
  * @example a 230 V RMS sine gives 230 V for every half period
  */
-export function createHalfPeriodRms(sampleRateHz: number, nominalHz: number, onValue: (startS: number, rmsV: number) => void): HalfPeriodRms {
+export function createHalfPeriodRms(
+	sampleRateHz: number,
+	nominalHz: number,
+	onValue: (startS: number, rmsV: number) => void,
+): HalfPeriodRms {
 	const half = sampleRateHz / (2 * nominalHz);
 	const minGap = Math.max(1, Math.floor(0.6 * half));
 	const maxGap = Math.ceil(1.5 * half);
 	// Window edges are the interpolated crossing instants (in samples); the mean square divides the sum of
 	// the samples between them by that length, so a sample sitting at zero cannot shift the value.
-	let n = 0, edge = 0, count = 0, sumSq = 0, prev = 0, seenCrossing = false;
+	let n = 0,
+		edge = 0,
+		count = 0,
+		sumSq = 0,
+		prev = 0,
+		seenCrossing = false;
 	const emit = (end: number) => {
 		const len = end - edge;
 		if (len > 0) onValue(edge / sampleRateHz, Math.sqrt(sumSq / len));
@@ -38,10 +47,14 @@ export function createHalfPeriodRms(sampleRateHz: number, nominalHz: number, onV
 					const at = n - 1 + prev / (prev - v);
 					if (seenCrossing) emit(at);
 					seenCrossing = true;
-					edge = at; count = 0; sumSq = 0;
+					edge = at;
+					count = 0;
+					sumSq = 0;
 				} else if (seenCrossing && count >= maxGap) {
 					emit(n);
-					edge = n; count = 0; sumSq = 0;
+					edge = n;
+					count = 0;
+					sumSq = 0;
 				}
 				prev = v;
 				count++;

@@ -30,8 +30,16 @@ export interface Biquad {
  * @param prewarpHz  frequency in Hz matched exactly; omit for c = 2 fs
  * @example bilinear([0, 0, 1], [0, 1, 2 * Math.PI * 10], 1000) // first-order low-pass at 10 Hz
  */
-export function bilinear(num: readonly number[], den: readonly number[], sampleRateHz: number, prewarpHz?: number): Biquad {
-	const c = prewarpHz === undefined ? 2 * sampleRateHz : (2 * Math.PI * prewarpHz) / Math.tan((Math.PI * prewarpHz) / sampleRateHz);
+export function bilinear(
+	num: readonly number[],
+	den: readonly number[],
+	sampleRateHz: number,
+	prewarpHz?: number,
+): Biquad {
+	const c =
+		prewarpHz === undefined
+			? 2 * sampleRateHz
+			: (2 * Math.PI * prewarpHz) / Math.tan((Math.PI * prewarpHz) / sampleRateHz);
 	const c2 = c * c;
 	const [B2, B1, B0] = num;
 	const [A2, A1, A0] = den;
@@ -56,10 +64,14 @@ export function bilinear(num: readonly number[], den: readonly number[], sampleR
  */
 export function biquadGain(q: Biquad, frequencyHz: number, sampleRateHz: number): number {
 	const w = (2 * Math.PI * frequencyHz) / sampleRateHz;
-	const c1 = Math.cos(w), s1 = -Math.sin(w);
-	const c2 = Math.cos(2 * w), s2 = -Math.sin(2 * w);
-	const nr = q.b0 + q.b1 * c1 + q.b2 * c2, ni = q.b1 * s1 + q.b2 * s2;
-	const dr = 1 + q.a1 * c1 + q.a2 * c2, di = q.a1 * s1 + q.a2 * s2;
+	const c1 = Math.cos(w),
+		s1 = -Math.sin(w);
+	const c2 = Math.cos(2 * w),
+		s2 = -Math.sin(2 * w);
+	const nr = q.b0 + q.b1 * c1 + q.b2 * c2,
+		ni = q.b1 * s1 + q.b2 * s2;
+	const dr = 1 + q.a1 * c1 + q.a2 * c2,
+		di = q.a1 * s1 + q.a2 * s2;
 	return Math.sqrt((nr * nr + ni * ni) / (dr * dr + di * di));
 }
 

@@ -2,7 +2,14 @@
 export * from './constants.js';
 export { bilinear, biquadGain, butterworthLowPass, type Biquad } from './iir.js';
 export { designFlickermeter, weightingSections, type FlickerDesign, type FlickerSettings } from './design.js';
-export { pinstLevelExceeded, pinstClass, pstFromHistogram, pltFromPst, PINST_CLASSES, type PstFigures } from './classifier.js';
+export {
+	pinstLevelExceeded,
+	pinstClass,
+	pstFromHistogram,
+	pltFromPst,
+	PINST_CLASSES,
+	type PstFigures,
+} from './classifier.js';
 export {
 	createFlickermeter,
 	pltIntervals,

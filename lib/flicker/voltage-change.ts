@@ -13,7 +13,6 @@
  */
 import { maxOf, minOf } from '../signal/extremes.js';
 
-
 /** Band and duration of a steady state. Ref: IEC 61000-4-15:2010, 3.1 (from memory). */
 export const STEADY_STATE_BAND_PERCENT = 0.2;
 export const STEADY_STATE_S = 1;
@@ -54,7 +53,8 @@ export interface VoltageChangeTracker {
  * @example a 230 V supply stepping to 222 V and staying there gives one change with dc ≈ 3.48 %.
  */
 export function createVoltageChangeTracker(nominalV: number, nominalHz: 50 | 60): VoltageChangeTracker {
-	if (!(nominalV > 0) || !Number.isFinite(nominalV)) throw new RangeError(`nominal voltage must be > 0 V, got ${nominalV}`);
+	if (!(nominalV > 0) || !Number.isFinite(nominalV))
+		throw new RangeError(`nominal voltage must be > 0 V, got ${nominalV}`);
 	return new Tracker(nominalV, nominalHz);
 }
 
@@ -79,7 +79,10 @@ class Tracker implements VoltageChangeTracker {
 	private awaitingAfter: Pending | null = null;
 	private readonly out: VoltageChange[] = [];
 
-	constructor(private readonly un: number, nominalHz: 50 | 60) {
+	constructor(
+		private readonly un: number,
+		nominalHz: 50 | 60,
+	) {
 		this.need = Math.round(2 * nominalHz * STEADY_STATE_S);
 		this.bandV = (2 * STEADY_STATE_BAND_PERCENT * un) / 100;
 		this.halfS = 1 / (2 * nominalHz);
@@ -90,7 +93,10 @@ class Tracker implements VoltageChangeTracker {
 		const s = this.steady;
 		if (s) {
 			if (Math.max(s.max, rmsV) - Math.min(s.min, rmsV) <= this.bandV) {
-				s.sum += rmsV; s.count++; s.min = Math.min(s.min, rmsV); s.max = Math.max(s.max, rmsV);
+				s.sum += rmsV;
+				s.count++;
+				s.min = Math.min(s.min, rmsV);
+				s.max = Math.max(s.max, rmsV);
 				return;
 			}
 			this.endSteady();
@@ -104,9 +110,11 @@ class Tracker implements VoltageChangeTracker {
 
 	/** Drops values from the front of the candidate run until it fits the band; dropped values belong to the change. */
 	private trimRun(): void {
-		let lo = minOf(this.runV), hi = maxOf(this.runV);
+		let lo = minOf(this.runV),
+			hi = maxOf(this.runV);
 		while (hi - lo > this.bandV) {
-			const v = this.runV.shift()!, t = this.runT.shift()!;
+			const v = this.runV.shift()!,
+				t = this.runT.shift()!;
 			this.account(t, v);
 			lo = minOf(this.runV);
 			hi = maxOf(this.runV);

@@ -57,7 +57,7 @@ export function gapFreeSpan(capture: Capture): GapFreeSpan {
 			{
 				code: 'gap-free-span',
 				severity: 'warning',
-				message: `Figures cover the longest stretch without gaps: samples ${start + 1} to ${end} of ${n} (${(t(start)).toFixed(4)} s to ${t(end - 1).toFixed(4)} s from the first sample); ${gapRows.size} row${gapRows.size === 1 ? '' : 's'} with gaps are left out.`,
+				message: `Figures cover the longest stretch without gaps: samples ${start + 1} to ${end} of ${n} (${t(start).toFixed(4)} s to ${t(end - 1).toFixed(4)} s from the first sample); ${gapRows.size} row${gapRows.size === 1 ? '' : 's'} with gaps are left out.`,
 			},
 		],
 	};

@@ -40,7 +40,9 @@ export class ImportError extends Error {
 		/** What was expected there, in words. */
 		readonly expected: string,
 	) {
-		super(`${source}:${line}:${column}: ${code}: expected ${expected}${text ? `, got ${JSON.stringify(text.slice(0, 80))}` : ''}`);
+		super(
+			`${source}:${line}:${column}: ${code}: expected ${expected}${text ? `, got ${JSON.stringify(text.slice(0, 80))}` : ''}`,
+		);
 	}
 }
 

@@ -29,7 +29,13 @@ export function hasImportSettings(s: ImportSettings | undefined): boolean {
  * What a channel's settings do, in apply order: scale and offset, the unit's prefix, probe/VT/CT ratio,
  * clamp (1000 / (mV/A): A per V) or shunt (1 / R, Ohm's law). Ratios are primary/secondary (common practice).
  */
-export function settingsChain(s: ChannelSettings): { factor: number; offset: number; unit?: string; quantity?: Quantity; steps: string[] } {
+export function settingsChain(s: ChannelSettings): {
+	factor: number;
+	offset: number;
+	unit?: string;
+	quantity?: Quantity;
+	steps: string[];
+} {
 	let factor = s.scale ?? 1;
 	let offset = s.offset ?? 0;
 	const steps: string[] = [];
@@ -65,7 +71,13 @@ export function settingsChain(s: ChannelSettings): { factor: number; offset: num
 		quantity = s.quantity;
 		steps.push(`measures ${s.quantity}`);
 	}
-	return { factor, offset, ...(unit !== undefined ? { unit } : {}), ...(quantity !== undefined ? { quantity } : {}), steps };
+	return {
+		factor,
+		offset,
+		...(unit !== undefined ? { unit } : {}),
+		...(quantity !== undefined ? { quantity } : {}),
+		steps,
+	};
 }
 
 /** Throws when a setting names a channel the capture does not have (CSV captures also take `col<N>`). */
@@ -73,7 +85,14 @@ export function checkSettingNames(capture: Capture, s: ImportSettings): void {
 	const known = new Set(capture.channels.map((c) => c.name));
 	for (const name of Object.keys(s.channels ?? {})) {
 		if (known.has(name) || (capture.format === 'csv' && /^col\d+$/.test(name))) continue;
-		throw new ImportError(capture.source, 0, 0, 'bad-option', `settings for channel ${name}`, `a channel this file has (${[...known].join(', ')})`);
+		throw new ImportError(
+			capture.source,
+			0,
+			0,
+			'bad-option',
+			`settings for channel ${name}`,
+			`a channel this file has (${[...known].join(', ')})`,
+		);
 	}
 }
 
@@ -89,9 +108,17 @@ function applyToChannel(c: Channel, s: ChannelSettings, diagnostics: Diagnostic[
 		for (let i = 0; i < samples.length; i++) samples[i] = chain.factor * c.samples[i] + chain.offset;
 	}
 	const what = chain.steps.join(', ');
-	diagnostics.push({ code: 'channel-from-user', severity: 'info', message: `Channel ${c.name}: ${what} (set by the user); now in ${unit || 'no unit'}, measures ${quantity}.` });
+	diagnostics.push({
+		code: 'channel-from-user',
+		severity: 'info',
+		message: `Channel ${c.name}: ${what} (set by the user); now in ${unit || 'no unit'}, measures ${quantity}.`,
+	});
 	const before = c.scaling ?? { factor: 1, offset: 0, description: '' };
-	const scaling = { factor: before.factor * chain.factor, offset: before.offset * chain.factor + chain.offset, description: [before.description, what].filter(Boolean).join('; ') };
+	const scaling = {
+		factor: before.factor * chain.factor,
+		offset: before.offset * chain.factor + chain.offset,
+		description: [before.description, what].filter(Boolean).join('; '),
+	};
 	return { ...c, samples, unit, quantity, scaling };
 }
 
@@ -108,8 +135,20 @@ export function applyImportSettings(capture: Capture, s: ImportSettings): Captur
 	const diagnostics = [...capture.diagnostics];
 	let sampleRateHz = capture.sampleRateHz;
 	if (s.sampleRateHz !== undefined && s.sampleRateHz !== capture.sampleRateHz) {
-		if (capture.timeS) throw new ImportError(capture.source, 0, 0, 'bad-option', `rate ${s.sampleRateHz} Hz`, 'no sample rate: this file has an explicit, non-uniform time base a single rate cannot replace');
-		diagnostics.push({ code: 'rate-from-user', severity: 'assumption', message: `Sample rate set to ${s.sampleRateHz} Hz by the user (the file states ${capture.sampleRateHz} Hz).` });
+		if (capture.timeS)
+			throw new ImportError(
+				capture.source,
+				0,
+				0,
+				'bad-option',
+				`rate ${s.sampleRateHz} Hz`,
+				'no sample rate: this file has an explicit, non-uniform time base a single rate cannot replace',
+			);
+		diagnostics.push({
+			code: 'rate-from-user',
+			severity: 'assumption',
+			message: `Sample rate set to ${s.sampleRateHz} Hz by the user (the file states ${capture.sampleRateHz} Hz).`,
+		});
 		sampleRateHz = s.sampleRateHz;
 	}
 	const channels = capture.channels.map((c) => {

@@ -3,6 +3,15 @@ export * from './import-error.js';
 export * from './csv/index.js';
 export { parseWav, type WavOptions, type WavChannelCalibration } from './wav.js';
 export * from './comtrade/index.js';
-export { openCaptures, openCapture, detectFileKind, csvOptionsWithSettings, DETECT_HEAD_BYTES, type FileKind, type InputFile, type OpenOptions } from './open.js';
+export {
+	openCaptures,
+	openCapture,
+	detectFileKind,
+	csvOptionsWithSettings,
+	DETECT_HEAD_BYTES,
+	type FileKind,
+	type InputFile,
+	type OpenOptions,
+} from './open.js';
 export { gapFreeSpan, longestGapFreeRun, type GapFreeSpan } from './gaps.js';
 export * from './import-settings.js';

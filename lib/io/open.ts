@@ -93,12 +93,21 @@ export function csvOptionsWithSettings(options: OpenOptions): CsvOptions {
 	if (!hasImportSettings(s)) return options.csv ?? {};
 	const channels = { ...options.csv?.channels };
 	for (const [name, cs] of Object.entries(s?.channels ?? {})) channels[name] = { ...channels[name], ...cs };
-	return { ...options.csv, ...(s?.sampleRateHz !== undefined ? { sampleRateHz: s.sampleRateHz } : {}), ...(Object.keys(channels).length ? { channels } : {}) };
+	return {
+		...options.csv,
+		...(s?.sampleRateHz !== undefined ? { sampleRateHz: s.sampleRateHz } : {}),
+		...(Object.keys(channels).length ? { channels } : {}),
+	};
 }
 
 /** A capture whose format came from its content against what its name says: reported. */
 function byContent(capture: Capture, byName: boolean, what: string): Capture {
-	if (!byName) capture.diagnostics.unshift({ code: 'format-from-content', severity: 'info', message: `${capture.source} was read as ${what} from its content, whatever its name says.` });
+	if (!byName)
+		capture.diagnostics.unshift({
+			code: 'format-from-content',
+			severity: 'info',
+			message: `${capture.source} was read as ${what} from its content, whatever its name says.`,
+		});
 	return capture;
 }
 
@@ -112,15 +121,39 @@ function readByKind(file: InputFile, companions: InputFile[], options: OpenOptio
 	const { base, ext } = splitName(file.name);
 	if (file.bytes.length === 0) throw new ImportError(file.name, 0, 0, 'empty-file', '', 'a file with data in it');
 	const { kind, byName } = detectFileKind(file.name, file.bytes.subarray(0, DETECT_HEAD_BYTES));
-	if (kind === 'wav') return byContent({ ...parseWav(file.bytes, file.name, options.wav), format: 'wav' }, byName || ext === 'wav', 'a WAV file');
-	if (kind === 'comtrade-cff') return byContent({ ...parseComtradeCff(file.bytes, file.name, options.comtrade), format: 'comtrade' }, byName, 'a single-file COMTRADE record (.cff)');
-	const sibling = (wanted: string) => companions.find((c) => c !== file && splitName(c.name).base === base && splitName(c.name).ext === wanted);
+	if (kind === 'wav')
+		return byContent(
+			{ ...parseWav(file.bytes, file.name, options.wav), format: 'wav' },
+			byName || ext === 'wav',
+			'a WAV file',
+		);
+	if (kind === 'comtrade-cff')
+		return byContent(
+			{ ...parseComtradeCff(file.bytes, file.name, options.comtrade), format: 'comtrade' },
+			byName,
+			'a single-file COMTRADE record (.cff)',
+		);
+	const sibling = (wanted: string) =>
+		companions.find((c) => c !== file && splitName(c.name).base === base && splitName(c.name).ext === wanted);
 	if (kind === 'comtrade-cfg') {
 		const dat = sibling('dat');
-		if (!dat) throw new ImportError(file.name, 0, 0, 'missing-companion-file', '', `the data file ${file.name.replace(/\.cfg$/i, '.dat')} next to this .cfg (give both files)`);
+		if (!dat)
+			throw new ImportError(
+				file.name,
+				0,
+				0,
+				'missing-companion-file',
+				'',
+				`the data file ${file.name.replace(/\.cfg$/i, '.dat')} next to this .cfg (give both files)`,
+			);
 		const { text, encoding } = decodeText(file.bytes);
 		const capture = parseComtrade(text, dat.bytes, file.name, { ...options.comtrade, datSource: dat.name });
-		if (encoding === 'latin1') capture.diagnostics.push({ code: 'comtrade-latin1', severity: 'assumption', message: `${file.name} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.` });
+		if (encoding === 'latin1')
+			capture.diagnostics.push({
+				code: 'comtrade-latin1',
+				severity: 'assumption',
+				message: `${file.name} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.`,
+			});
 		for (const kind of ['hdr', 'inf']) {
 			const f = sibling(kind);
 			if (f) capture.metadata[`comtrade.${kind}`] = decodeText(f.bytes).text.trim();
@@ -128,21 +161,49 @@ function readByKind(file: InputFile, companions: InputFile[], options: OpenOptio
 		return { ...capture, format: 'comtrade' };
 	}
 	if (kind === 'comtrade-part') {
-		throw new ImportError(file.name, 0, 0, 'missing-companion-file', '', `the configuration file ${file.name.replace(/\.[^.]+$/, '.cfg')} that describes this COMTRADE .${ext} file`);
+		throw new ImportError(
+			file.name,
+			0,
+			0,
+			'missing-companion-file',
+			'',
+			`the configuration file ${file.name.replace(/\.[^.]+$/, '.cfg')} that describes this COMTRADE .${ext} file`,
+		);
 	}
 	if (kind === 'binary') {
-		throw new ImportError(file.name, 0, 0, 'unsupported-format', ext ? `.${ext}` : '', 'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file');
+		throw new ImportError(
+			file.name,
+			0,
+			0,
+			'unsupported-format',
+			ext ? `.${ext}` : '',
+			'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file',
+		);
 	}
-	const capture: Capture = { ...parseCsv(file.bytes, file.name, csvOptionsWithSettings(options), options.onProgress), format: 'csv' };
+	const capture: Capture = {
+		...parseCsv(file.bytes, file.name, csvOptionsWithSettings(options), options.onProgress),
+		format: 'csv',
+	};
 	if (byName) return capture;
-	capture.diagnostics.unshift({ code: 'format-from-content', severity: 'assumption', message: `The name ${file.name} does not say the format; the text was read as a delimited table.` });
+	capture.diagnostics.unshift({
+		code: 'format-from-content',
+		severity: 'assumption',
+		message: `The name ${file.name} does not say the format; the text was read as a delimited table.`,
+	});
 	return capture;
 }
 
 function wrap(file: InputFile, e: unknown): ImportError {
 	if (isImportError(e)) return e;
 	// A reader failing any other way is a bug; the user still gets a typed error for that one file.
-	return new ImportError(file.name, 0, 0, 'internal-error', e instanceof Error ? e.message : String(e), 'a file the reader could handle (this is a fault in Sinecheck; please report it)');
+	return new ImportError(
+		file.name,
+		0,
+		0,
+		'internal-error',
+		e instanceof Error ? e.message : String(e),
+		'a file the reader could handle (this is a fault in Sinecheck; please report it)',
+	);
 }
 
 /**
@@ -151,7 +212,10 @@ function wrap(file: InputFile, e: unknown): ImportError {
  * returned in `errors`, in input order.
  * @example openCaptures([{ name: 'a.cfg', bytes: cfg }, { name: 'A.DAT', bytes: dat }]).captures.length // 1
  */
-export function openCaptures(files: InputFile[], options: OpenOptions = {}): { captures: Capture[]; errors: ImportError[] } {
+export function openCaptures(
+	files: InputFile[],
+	options: OpenOptions = {},
+): { captures: Capture[]; errors: ImportError[] } {
 	const captures: Capture[] = [];
 	const errors: ImportError[] = [];
 	const cfgBases = new Set(files.filter((f) => splitName(f.name).ext === 'cfg').map((f) => splitName(f.name).base));

@@ -45,7 +45,8 @@ function checkRiff(bytes: Uint8Array, source: string): { dataBytes: number; trun
 		throw new ImportError(source, 0, offset + 1, 'bad-wav', got, expected);
 	};
 	if (bytes.length < 12) fail(bytes.length, '', `a 12-byte RIFF header; the file has ${bytes.length} bytes`);
-	if (ascii(bytes, 0) !== 'RIFF' && ascii(bytes, 0) !== 'RIFX') fail(0, ascii(bytes, 0), "'RIFF' at the start of a WAV file");
+	if (ascii(bytes, 0) !== 'RIFF' && ascii(bytes, 0) !== 'RIFX')
+		fail(0, ascii(bytes, 0), "'RIFF' at the start of a WAV file");
 	if (ascii(bytes, 8) !== 'WAVE') fail(8, ascii(bytes, 8), "'WAVE' after the RIFF header");
 	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	const le = ascii(bytes, 0) === 'RIFF';
@@ -58,7 +59,8 @@ function checkRiff(bytes: Uint8Array, source: string): { dataBytes: number; trun
 		if (id === 'fmt ') {
 			fmtAt = p;
 			fmtSize = size;
-			if (size < 16 || p + 8 + 16 > bytes.length) fail(p + 4, String(size), "a complete 'fmt ' chunk of at least 16 bytes");
+			if (size < 16 || p + 8 + 16 > bytes.length)
+				fail(p + 4, String(size), "a complete 'fmt ' chunk of at least 16 bytes");
 		}
 		if (id === 'data') {
 			if (fmtAt < 0) fail(p, id, "a 'fmt ' chunk before the 'data' chunk");
@@ -66,16 +68,30 @@ function checkRiff(bytes: Uint8Array, source: string): { dataBytes: number; trun
 			const channels = view.getUint16(fmtAt + 10, le);
 			const rate = view.getUint32(fmtAt + 12, le);
 			const bits = view.getUint16(fmtAt + 22, le);
-			const sub = format === 0xfffe && fmtSize >= 40 && fmtAt + 8 + 26 <= bytes.length ? view.getUint16(fmtAt + 8 + 24, le) : format;
-			if (sub !== 1 && sub !== 3) fail(fmtAt + 8, String(format), 'PCM integer (format 1) or IEEE float (format 3) samples; compressed WAV is not read');
+			const sub =
+				format === 0xfffe && fmtSize >= 40 && fmtAt + 8 + 26 <= bytes.length
+					? view.getUint16(fmtAt + 8 + 24, le)
+					: format;
+			if (sub !== 1 && sub !== 3)
+				fail(
+					fmtAt + 8,
+					String(format),
+					'PCM integer (format 1) or IEEE float (format 3) samples; compressed WAV is not read',
+				);
 			if (channels < 1) fail(fmtAt + 10, String(channels), 'at least one channel');
 			if (rate < 1) fail(fmtAt + 12, String(rate), 'a sample rate above 0 Hz');
 			const okBits = sub === 1 ? [8, 16, 24, 32] : [32, 64];
-			if (!okBits.includes(bits)) fail(fmtAt + 22, String(bits), `${okBits.join(', ')} bits per sample for ${sub === 1 ? 'integer' : 'float'} data`);
+			if (!okBits.includes(bits))
+				fail(
+					fmtAt + 22,
+					String(bits),
+					`${okBits.join(', ')} bits per sample for ${sub === 1 ? 'integer' : 'float'} data`,
+				);
 			const available = bytes.length - (p + 8);
 			return { dataBytes: Math.min(size, available), truncatedBy: Math.max(0, size - available), isFloat: sub === 3 };
 		}
-		if (p + 8 + size > bytes.length) fail(p + 4, `${id} ${size}`, `a '${id}' chunk that fits in the file (${bytes.length - p - 8} bytes left)`);
+		if (p + 8 + size > bytes.length)
+			fail(p + 4, `${id} ${size}`, `a '${id}' chunk that fits in the file (${bytes.length - p - 8} bytes left)`);
 		p += 8 + size + (size & 1);
 	}
 	return fail(Math.min(p, bytes.length), '', fmtAt < 0 ? "a 'fmt ' chunk" : "a 'data' chunk");
@@ -113,21 +129,49 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 	try {
 		wav = new WaveFile(bytes);
 	} catch (e) {
-		throw new ImportError(source, 0, 1, 'bad-wav', e instanceof Error ? e.message : String(e), 'a WAV file the decoder can read');
+		throw new ImportError(
+			source,
+			0,
+			1,
+			'bad-wav',
+			e instanceof Error ? e.message : String(e),
+			'a WAV file the decoder can read',
+		);
 	}
 	const { numChannels, sampleRate, bitsPerSample } = wav.fmt;
 	const diagnostics: Diagnostic[] = [
-		{ code: 'wav-format', severity: 'info', message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples.` },
+		{
+			code: 'wav-format',
+			severity: 'info',
+			message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples.`,
+		},
 	];
 	const blockBytes = (numChannels * bitsPerSample) / 8;
 	const frames = Math.floor(dataBytes / blockBytes);
-	if (truncatedBy > 0) diagnostics.push({ code: 'wav-truncated', severity: 'warning', message: `The data chunk is ${truncatedBy} bytes shorter than its header says; the ${frames} whole sample frames present are read.` });
+	if (truncatedBy > 0)
+		diagnostics.push({
+			code: 'wav-truncated',
+			severity: 'warning',
+			message: `The data chunk is ${truncatedBy} bytes shorter than its header says; the ${frames} whole sample frames present are read.`,
+		});
 	const optionCal = options.channels;
 	if (optionCal && optionCal.length > numChannels) {
-		throw new ImportError(source, 0, 0, 'bad-option', `${optionCal.length} calibrations`, `at most ${numChannels} channel calibrations (the file has ${numChannels} channels)`);
+		throw new ImportError(
+			source,
+			0,
+			0,
+			'bad-option',
+			`${optionCal.length} calibrations`,
+			`at most ${numChannels} channel calibrations (the file has ${numChannels} channels)`,
+		);
 	}
 	const fileCal = optionCal ? undefined : calibrationFromComment(safeTag(wav, 'ICMT'));
-	if (fileCal) diagnostics.push({ code: 'wav-calibration-from-file', severity: 'info', message: 'Channel calibration taken from the file\'s INFO comment (sinecheck-calibration).' });
+	if (fileCal)
+		diagnostics.push({
+			code: 'wav-calibration-from-file',
+			severity: 'info',
+			message: "Channel calibration taken from the file's INFO comment (sinecheck-calibration).",
+		});
 	const calibration = optionCal ?? fileCal ?? [];
 
 	const interleaved = wav.getSamples(true);
@@ -138,7 +182,14 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 	for (let c = 0; c < numChannels; c++) {
 		const cal = calibration[c];
 		if (cal && !(Number.isFinite(cal.fullScale) && cal.fullScale !== 0)) {
-			throw new ImportError(source, 0, 0, 'bad-option', String(cal.fullScale), `a non-zero full-scale value for channel ${c + 1}`);
+			throw new ImportError(
+				source,
+				0,
+				0,
+				'bad-option',
+				String(cal.fullScale),
+				`a non-zero full-scale value for channel ${c + 1}`,
+			);
 		}
 		const u = normaliseUnitText(cal?.unit ?? '');
 		const name = cal?.name ?? `ch${c + 1}`;
@@ -146,24 +197,44 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 		const offset = -shift * factor;
 		const samples = new Float64Array(frames);
 		for (let k = 0, j = c; k < frames; k++, j += numChannels) samples[k] = factor * interleaved[j] + offset;
-		const quantity = cal?.quantity ?? (u.quantity !== 'other' ? u.quantity : cal ? quantityFromName(name) ?? 'other' : 'other');
+		const quantity =
+			cal?.quantity ?? (u.quantity !== 'other' ? u.quantity : cal ? (quantityFromName(name) ?? 'other') : 'other');
 		const ch: Channel = {
 			name,
 			unit: u.unit,
 			quantity,
 			samples,
-			scaling: { factor, offset, description: cal ? `${cal.fullScale} ${cal.unit ?? ''} at full scale` : 'normalised to full scale (no calibration)' },
+			scaling: {
+				factor,
+				offset,
+				description: cal
+					? `${cal.fullScale} ${cal.unit ?? ''} at full scale`
+					: 'normalised to full scale (no calibration)',
+			},
 		};
 		const ph = cal ? channelPhase(name, cal.phase) : undefined;
 		if (ph) ch.phase = ph;
 		if (!cal) uncalibrated.push(name);
-		else diagnostics.push({ code: 'wav-calibration', severity: 'info', message: `Channel ${c + 1} (${name}): full scale = ${cal.fullScale} ${cal.unit ?? ''}.` });
+		else
+			diagnostics.push({
+				code: 'wav-calibration',
+				severity: 'info',
+				message: `Channel ${c + 1} (${name}): full scale = ${cal.fullScale} ${cal.unit ?? ''}.`,
+			});
 		channels.push(ch);
 	}
 	if (uncalibrated.length > 0) {
-		diagnostics.push({ code: 'wav-uncalibrated', severity: 'assumption', message: `No calibration for ${uncalibrated.join(', ')}: samples are left as fractions of full scale (−1 … 1), unit '' and quantity 'other'. Give volts or amps at full scale to get real values.` });
+		diagnostics.push({
+			code: 'wav-uncalibrated',
+			severity: 'assumption',
+			message: `No calibration for ${uncalibrated.join(', ')}: samples are left as fractions of full scale (−1 … 1), unit '' and quantity 'other'. Give volts or amps at full scale to get real values.`,
+		});
 	}
-	const metadata: Record<string, string> = { 'wav.channels': String(numChannels), 'wav.sampleRateHz': String(sampleRate), 'wav.bitDepth': wav.bitDepth };
+	const metadata: Record<string, string> = {
+		'wav.channels': String(numChannels),
+		'wav.sampleRateHz': String(sampleRate),
+		'wav.bitDepth': wav.bitDepth,
+	};
 	for (const tag of ['INAM', 'ICMT', 'ICRD', 'ISFT']) {
 		const v = safeTag(wav, tag);
 		if (v) metadata[`wav.${tag}`] = v;

@@ -5,7 +5,16 @@
 import { EN50160_TABLE } from './en50160.js';
 import { IEC61000_2_2_TABLE } from './iec61000-2-2.js';
 import { IEEE519_TABLE } from './ieee519.js';
-import type { Ieee519Table, LimitCheck, LimitEvaluation, LimitInput, LimitRow, LimitTable, LimitTableId, TotalLimit } from './types.js';
+import type {
+	Ieee519Table,
+	LimitCheck,
+	LimitEvaluation,
+	LimitInput,
+	LimitRow,
+	LimitTable,
+	LimitTableId,
+	TotalLimit,
+} from './types.js';
 
 /** Every table by id. */
 export const LIMIT_TABLES: Record<LimitTableId, LimitTable> = {
@@ -19,9 +28,18 @@ export const ONE_OFF_CAPTURE_NOTE =
 	'A single capture is not a compliance measurement: these limits apply to statistics (percentiles of 10-minute and 3-second values) over a week or longer, measured with a Class A instrument. This comparison only shows how this capture sits against the limit values.';
 
 /** The limit rows and total that apply to this input (IEEE 519 picks its row by bus voltage and I_SC/I_L). */
-function resolve(table: LimitTable, input: LimitInput): { rows: LimitRow[]; total: TotalLimit; selection: string; quantity: 'voltage' | 'current'; basis: string } {
+function resolve(
+	table: LimitTable,
+	input: LimitInput,
+): { rows: LimitRow[]; total: TotalLimit; selection: string; quantity: 'voltage' | 'current'; basis: string } {
 	if (table.kind === 'per-order') {
-		return { rows: table.rows, total: table.total, selection: 'all orders of the table', quantity: 'voltage', basis: table.basis };
+		return {
+			rows: table.rows,
+			total: table.total,
+			selection: 'all orders of the table',
+			quantity: 'voltage',
+			basis: table.basis,
+		};
 	}
 	return resolveIeee519(table, input);
 }
@@ -29,21 +47,37 @@ function resolve(table: LimitTable, input: LimitInput): { rows: LimitRow[]; tota
 function resolveIeee519(t: Ieee519Table, input: LimitInput) {
 	const quantity = input.quantity ?? (input.percentOfIl ? 'current' : 'voltage');
 	const v = input.busVoltageV;
-	if (!(v !== undefined && v > 0 && Number.isFinite(v))) throw new RangeError('IEEE 519 needs busVoltageV, the nominal bus voltage at the PCC in V');
+	if (!(v !== undefined && v > 0 && Number.isFinite(v)))
+		throw new RangeError('IEEE 519 needs busVoltageV, the nominal bus voltage at the PCC in V');
 	if (quantity === 'voltage') {
 		const row = t.voltage.find((r) => v > r.aboveV && v <= r.upToV)!;
 		const rows: LimitRow[] = [];
-		for (let h = 2; h <= t.voltageMaxOrder; h++) rows.push({ order: h, limitPercent: row.individualPercent, source: `${row.source}, individual harmonic`, provenance: row.provenance, provenanceNote: row.provenanceNote });
+		for (let h = 2; h <= t.voltageMaxOrder; h++)
+			rows.push({
+				order: h,
+				limitPercent: row.individualPercent,
+				source: `${row.source}, individual harmonic`,
+				provenance: row.provenance,
+				provenanceNote: row.provenanceNote,
+			});
 		return {
 			rows,
-			total: { name: 'THD' as const, limitPercent: row.thdPercent, maxOrder: t.voltageMaxOrder, source: `${row.source}, THD`, provenance: row.provenance, provenanceNote: row.provenanceNote },
+			total: {
+				name: 'THD' as const,
+				limitPercent: row.thdPercent,
+				maxOrder: t.voltageMaxOrder,
+				source: `${row.source}, THD`,
+				provenance: row.provenance,
+				provenanceNote: row.provenanceNote,
+			},
 			selection: `Table 1 row for a ${v} V bus`,
 			quantity,
 			basis: '% of the fundamental voltage',
 		};
 	}
 	const ratio = input.iscIlRatio;
-	if (!(ratio !== undefined && ratio > 0 && Number.isFinite(ratio))) throw new RangeError('IEEE 519 current limits need iscIlRatio, I_SC/I_L at the PCC');
+	if (!(ratio !== undefined && ratio > 0 && Number.isFinite(ratio)))
+		throw new RangeError('IEEE 519 current limits need iscIlRatio, I_SC/I_L at the PCC');
 	const edition = input.edition ?? '2022';
 	const row = t.current.find((r) => v > r.aboveV && v <= r.upToV && ratio >= r.ratioFrom && ratio < r.ratioBelow)!;
 	const rule = t.evenRules.find((r) => r.edition === edition)!;
@@ -53,32 +87,64 @@ function resolveIeee519(t: Ieee519Table, input: LimitInput) {
 		const odd = row.bandPercent[band];
 		const b = t.currentBands[band];
 		if (h % 2 === 1) {
-			rows.push({ order: h, limitPercent: odd, source: `${row.source}, ${b.fromOrder === 2 ? 3 : b.fromOrder} ≤ h ≤ ${b.toOrder}`, provenance: row.provenance, provenanceNote: row.provenanceNote });
+			rows.push({
+				order: h,
+				limitPercent: odd,
+				source: `${row.source}, ${b.fromOrder === 2 ? 3 : b.fromOrder} ≤ h ≤ ${b.toOrder}`,
+				provenance: row.provenance,
+				provenanceNote: row.provenanceNote,
+			});
 		} else {
 			const factor = rule.steps.find((s) => h <= s.upToOrder)!.factor;
 			rows.push({
 				order: h,
 				limitPercent: odd * factor,
 				source: `${row.source}, even h: ${factor * 100} % of the odd limit ${odd} % (${edition} rule: ${rule.text})`,
-				provenance: row.provenance === 'from memory' || rule.provenance === 'from memory' ? 'from memory' : 'read in a secondary source',
+				provenance:
+					row.provenance === 'from memory' || rule.provenance === 'from memory'
+						? 'from memory'
+						: 'read in a secondary source',
 				provenanceNote: `${row.provenanceNote}; even rule: ${rule.provenanceNote}`,
 			});
 		}
 	}
 	return {
 		rows,
-		total: { name: 'TDD' as const, limitPercent: row.tddPercent, maxOrder: t.currentMaxOrder, source: `${row.source}, TDD`, provenance: row.provenance, provenanceNote: row.provenanceNote },
+		total: {
+			name: 'TDD' as const,
+			limitPercent: row.tddPercent,
+			maxOrder: t.currentMaxOrder,
+			source: `${row.source}, TDD`,
+			provenance: row.provenance,
+			provenanceNote: row.provenanceNote,
+		},
 		selection: `${row.source}; ${v} V bus; ${edition} even-harmonic rule`,
 		quantity,
 		basis: '% of the maximum demand load current I_L',
 	};
 }
 
-function check(label: string, order: number | null, measured: number | undefined, limit: number, row: Pick<LimitRow, 'source' | 'provenance' | 'provenanceNote'>): LimitCheck {
+function check(
+	label: string,
+	order: number | null,
+	measured: number | undefined,
+	limit: number,
+	row: Pick<LimitRow, 'source' | 'provenance' | 'provenanceNote'>,
+): LimitCheck {
 	const { source, provenance, provenanceNote } = row;
 	const m = measured === undefined ? NaN : measured;
 	const ok = Number.isFinite(m);
-	return { label, order, measuredPercent: m, limitPercent: limit, marginPercent: ok ? limit - m : NaN, pass: ok ? m <= limit : null, source, provenance, provenanceNote };
+	return {
+		label,
+		order,
+		measuredPercent: m,
+		limitPercent: limit,
+		marginPercent: ok ? limit - m : NaN,
+		pass: ok ? m <= limit : null,
+		source,
+		provenance,
+		provenanceNote,
+	};
 }
 
 /**
@@ -97,7 +163,8 @@ function check(label: string, order: number | null, measured: number | undefined
  */
 export function evaluateLimits(table: LimitTableId | LimitTable, input: LimitInput): LimitEvaluation {
 	const t = typeof table === 'string' ? LIMIT_TABLES[table] : table;
-	if (!t) throw new RangeError(`unknown limit table '${String(table)}'; known: ${Object.keys(LIMIT_TABLES).join(', ')}`);
+	if (!t)
+		throw new RangeError(`unknown limit table '${String(table)}'; known: ${Object.keys(LIMIT_TABLES).join(', ')}`);
 	const r = resolve(t, input);
 	const values = r.quantity === 'current' ? input.percentOfIl : input.percentOfFundamental;
 	const checks = r.rows.map((row) => check(`h${row.order}`, row.order, values?.[row.order], row.limitPercent, row));

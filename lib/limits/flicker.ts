@@ -37,7 +37,14 @@ export const FLICKER_LIMIT_TABLES: Readonly<Record<FlickerLimitTableId, FlickerL
 		name: 'EN 50160 flicker severity (LV and MV supply)',
 		context: 'supply',
 		rows: [
-			{ figure: 'Plt', limit: 1, statistic: '95 % of values', source: 'EN 50160:2010, 4.2.7: Plt ≤ 1 for 95 % of the time of each week', provenance: 'read in a secondary source', provenanceNote: 'read in a published summary of the standard, not in the standard itself' },
+			{
+				figure: 'Plt',
+				limit: 1,
+				statistic: '95 % of values',
+				source: 'EN 50160:2010, 4.2.7: Plt ≤ 1 for 95 % of the time of each week',
+				provenance: 'read in a secondary source',
+				provenanceNote: 'read in a published summary of the standard, not in the standard itself',
+			},
 		],
 		notes: ['EN 50160 judges the 2-hour Plt values of a whole week.'],
 	},
@@ -46,23 +53,77 @@ export const FLICKER_LIMIT_TABLES: Readonly<Record<FlickerLimitTableId, FlickerL
 		name: 'IEC 61000-2-2 compatibility levels for flicker (public LV networks)',
 		context: 'supply',
 		rows: [
-			{ figure: 'Pst', limit: 1, statistic: '95 % of values', source: 'IEC 61000-2-2:2002, 4.1: compatibility level Pst = 1.0', provenance: MEMORY, provenanceNote: 'recollection of the standard; check against the text' },
-			{ figure: 'Plt', limit: 0.8, statistic: '95 % of values', source: 'IEC 61000-2-2:2002, 4.1: compatibility level Plt = 0.8', provenance: MEMORY, provenanceNote: 'recollection of the standard; check against the text' },
+			{
+				figure: 'Pst',
+				limit: 1,
+				statistic: '95 % of values',
+				source: 'IEC 61000-2-2:2002, 4.1: compatibility level Pst = 1.0',
+				provenance: MEMORY,
+				provenanceNote: 'recollection of the standard; check against the text',
+			},
+			{
+				figure: 'Plt',
+				limit: 0.8,
+				statistic: '95 % of values',
+				source: 'IEC 61000-2-2:2002, 4.1: compatibility level Plt = 0.8',
+				provenance: MEMORY,
+				provenanceNote: 'recollection of the standard; check against the text',
+			},
 		],
-		notes: ['Compatibility levels are planning figures for the network, exceeded with a small probability; they are not limits for one site.'],
+		notes: [
+			'Compatibility levels are planning figures for the network, exceeded with a small probability; they are not limits for one site.',
+		],
 	},
 	'iec61000-3-3': {
 		id: 'iec61000-3-3',
 		name: 'IEC 61000-3-3 voltage changes and flicker from one appliance (≤ 16 A per phase)',
 		context: 'equipment',
 		rows: [
-			{ figure: 'Pst', limit: 1, statistic: 'highest', source: 'IEC 61000-3-3:2013, 5.2: Pst ≤ 1.0', provenance: MEMORY, provenanceNote: 'recollection of the standard; check against the text' },
-			{ figure: 'Plt', limit: 0.65, statistic: 'highest', source: 'IEC 61000-3-3:2013, 5.2: Plt ≤ 0.65', provenance: MEMORY, provenanceNote: 'recollection of the standard; check against the text' },
-			{ figure: 'dc', limit: 3.3, statistic: 'highest', source: 'IEC 61000-3-3:2013, 5.2: dc ≤ 3.3 %', provenance: MEMORY, provenanceNote: 'recollection of the standard; check against the text' },
-			{ figure: 'dmax', limit: 4, statistic: 'highest', source: 'IEC 61000-3-3:2013, 5.2 a): dmax ≤ 4 % without further conditions (6 % or 7 % for some switching conditions)', provenance: MEMORY, provenanceNote: 'recollection of the standard; check against the text' },
-			{ figure: 'Tmax', limit: 0.5, statistic: 'highest', source: 'IEC 61000-3-3:2013, 5.2: d(t) beyond 3.3 % for at most 500 ms per change', provenance: MEMORY, provenanceNote: 'recollection of the standard; check against the text' },
+			{
+				figure: 'Pst',
+				limit: 1,
+				statistic: 'highest',
+				source: 'IEC 61000-3-3:2013, 5.2: Pst ≤ 1.0',
+				provenance: MEMORY,
+				provenanceNote: 'recollection of the standard; check against the text',
+			},
+			{
+				figure: 'Plt',
+				limit: 0.65,
+				statistic: 'highest',
+				source: 'IEC 61000-3-3:2013, 5.2: Plt ≤ 0.65',
+				provenance: MEMORY,
+				provenanceNote: 'recollection of the standard; check against the text',
+			},
+			{
+				figure: 'dc',
+				limit: 3.3,
+				statistic: 'highest',
+				source: 'IEC 61000-3-3:2013, 5.2: dc ≤ 3.3 %',
+				provenance: MEMORY,
+				provenanceNote: 'recollection of the standard; check against the text',
+			},
+			{
+				figure: 'dmax',
+				limit: 4,
+				statistic: 'highest',
+				source:
+					'IEC 61000-3-3:2013, 5.2 a): dmax ≤ 4 % without further conditions (6 % or 7 % for some switching conditions)',
+				provenance: MEMORY,
+				provenanceNote: 'recollection of the standard; check against the text',
+			},
+			{
+				figure: 'Tmax',
+				limit: 0.5,
+				statistic: 'highest',
+				source: 'IEC 61000-3-3:2013, 5.2: d(t) beyond 3.3 % for at most 500 ms per change',
+				provenance: MEMORY,
+				provenanceNote: 'recollection of the standard; check against the text',
+			},
 		],
-		notes: ['These are type-test limits for one appliance on the standard\'s reference impedance, not supply limits: a site recording compares with them only as a rough guide.'],
+		notes: [
+			"These are type-test limits for one appliance on the standard's reference impedance, not supply limits: a site recording compares with them only as a rough guide.",
+		],
 	},
 };
 
@@ -102,7 +163,13 @@ export function levelNotExceeded(values: readonly number[], fraction: number): n
 	return v[Math.min(v.length - 1, Math.max(0, Math.ceil(fraction * v.length) - 1))];
 }
 
-const KEY: Record<FlickerFigure, keyof FlickerMeasured> = { Pst: 'pst', Plt: 'plt', dc: 'dcPercent', dmax: 'dmaxPercent', Tmax: 'tmaxS' };
+const KEY: Record<FlickerFigure, keyof FlickerMeasured> = {
+	Pst: 'pst',
+	Plt: 'plt',
+	dc: 'dcPercent',
+	dmax: 'dmaxPercent',
+	Tmax: 'tmaxS',
+};
 
 /**
  * Compares measured flicker figures with one table: per row, the highest value or the level 95 % of the
@@ -112,7 +179,10 @@ const KEY: Record<FlickerFigure, keyof FlickerMeasured> = { Pst: 'pst', Plt: 'pl
  */
 export function evaluateFlickerLimits(id: FlickerLimitTableId, measured: FlickerMeasured): FlickerLimitEvaluation {
 	const t = FLICKER_LIMIT_TABLES[id];
-	if (!t) throw new RangeError(`unknown flicker limit table '${String(id)}'; known: ${Object.keys(FLICKER_LIMIT_TABLES).join(', ')}`);
+	if (!t)
+		throw new RangeError(
+			`unknown flicker limit table '${String(id)}'; known: ${Object.keys(FLICKER_LIMIT_TABLES).join(', ')}`,
+		);
 	const checks = t.rows.map((row): FlickerLimitCheck => {
 		const values = (measured[KEY[row.figure]] ?? []).filter(Number.isFinite);
 		const m = row.statistic === 'highest' ? (values.length ? maxOf(values) : NaN) : levelNotExceeded(values, 0.95);

@@ -14,18 +14,40 @@ const NOTE = 'from memory of the standard; to be checked against a licensed copy
  * odd non-triplen 17 ≤ h ≤ 49: 2.27·(17/h) − 0.27; triplen 21 < h ≤ 45: 0.2; even 10 ≤ h ≤ 50: 0.25·(10/h) + 0.25.
  */
 function level(h: number): { value: number; how: string } | undefined {
-	const fixed: Record<number, number> = { 2: 2, 3: 5, 4: 1, 5: 6, 6: 0.5, 7: 5, 8: 0.5, 9: 1.5, 11: 3.5, 13: 3, 15: 0.4, 21: 0.3 };
+	const fixed: Record<number, number> = {
+		2: 2,
+		3: 5,
+		4: 1,
+		5: 6,
+		6: 0.5,
+		7: 5,
+		8: 0.5,
+		9: 1.5,
+		11: 3.5,
+		13: 3,
+		15: 0.4,
+		21: 0.3,
+	};
 	if (fixed[h] !== undefined) return { value: fixed[h], how: 'tabulated value' };
-	if (h % 2 === 0 && h >= 10 && h <= 50) return { value: 0.25 * (10 / h) + 0.25, how: 'even 10 ≤ h ≤ 50: 0.25·(10/h) + 0.25' };
+	if (h % 2 === 0 && h >= 10 && h <= 50)
+		return { value: 0.25 * (10 / h) + 0.25, how: 'even 10 ≤ h ≤ 50: 0.25·(10/h) + 0.25' };
 	if (h % 3 === 0 && h % 2 === 1 && h > 21 && h <= 45) return { value: 0.2, how: 'triplen 21 < h ≤ 45: 0.2' };
-	if (h % 2 === 1 && h % 3 !== 0 && h >= 17 && h <= 49) return { value: 2.27 * (17 / h) - 0.27, how: 'odd non-triplen 17 ≤ h ≤ 49: 2.27·(17/h) − 0.27' };
+	if (h % 2 === 1 && h % 3 !== 0 && h >= 17 && h <= 49)
+		return { value: 2.27 * (17 / h) - 0.27, how: 'odd non-triplen 17 ≤ h ≤ 49: 2.27·(17/h) − 0.27' };
 	return undefined;
 }
 
 const rows: LimitRow[] = [];
 for (let h = 2; h <= 50; h++) {
 	const l = level(h);
-	if (l) rows.push({ order: h, limitPercent: l.value, source: `${TABLE}, h = ${h}, ${l.how}`, provenance: MEMORY, provenanceNote: NOTE });
+	if (l)
+		rows.push({
+			order: h,
+			limitPercent: l.value,
+			source: `${TABLE}, h = ${h}, ${l.how}`,
+			provenance: MEMORY,
+			provenanceNote: NOTE,
+		});
 }
 
 /**
@@ -44,7 +66,14 @@ export const IEC61000_2_2_TABLE: OrderLimitTable = {
 	basis: '% of the fundamental voltage',
 	assessment: 'compatibility levels: not to be exceeded for 95 % of the time (statistical, long-term; from memory)',
 	rows,
-	total: { name: 'THD', limitPercent: 8, maxOrder: 40, source: 'IEC 61000-2-2:2002+A1:2017, THD compatibility level 8 % (orders to 40 in Ed.2; A1:2017 extends to 50)', provenance: MEMORY, provenanceNote: NOTE },
+	total: {
+		name: 'THD',
+		limitPercent: 8,
+		maxOrder: 40,
+		source: 'IEC 61000-2-2:2002+A1:2017, THD compatibility level 8 % (orders to 40 in Ed.2; A1:2017 extends to 50)',
+		provenance: MEMORY,
+		provenanceNote: NOTE,
+	},
 	notes: [
 		'Orders 15 and 21 differ from EN 50160 (0.4 % and 0.3 % here, 0.5 % there); 19, 23 and 25 follow the formula (1.76, 1.41, 1.27 %).',
 		'Triplen orders above 45 and odd orders above 49 have no level in the table.',

@@ -13,20 +13,73 @@ const T4 = 'IEEE 519-2014, Table 4 (> 161 kV)';
 const READ = 'read in a secondary source' as const;
 const MEMORY = 'from memory' as const;
 const T1_NOTE = 'Table 1 rows read in published summaries of the 2014 revision, not in the standard itself';
-const T2_NOTE = 'Table 2 values read in a textbook reprint of the 1992 table (same numbers in 2014/2022); band notation from a summary of the 2014 revision';
+const T2_NOTE =
+	'Table 2 values read in a textbook reprint of the 1992 table (same numbers in 2014/2022); band notation from a summary of the 2014 revision';
 const T34_NOTE = 'from memory of the 2014 standard; to be checked against a licensed copy';
 
 const voltage: Ieee519VoltageRow[] = [
-	{ aboveV: 0, upToV: 1_000, individualPercent: 5.0, thdPercent: 8.0, source: `${T1}, V ≤ 1.0 kV (new in 2014)`, provenance: READ, provenanceNote: T1_NOTE },
-	{ aboveV: 1_000, upToV: 69_000, individualPercent: 3.0, thdPercent: 5.0, source: `${T1}, 1 kV < V ≤ 69 kV`, provenance: READ, provenanceNote: T1_NOTE },
-	{ aboveV: 69_000, upToV: 161_000, individualPercent: 1.5, thdPercent: 2.5, source: `${T1}, 69 kV < V ≤ 161 kV`, provenance: READ, provenanceNote: T1_NOTE },
-	{ aboveV: 161_000, upToV: Infinity, individualPercent: 1.0, thdPercent: 1.5, source: `${T1}, V > 161 kV`, provenance: READ, provenanceNote: T1_NOTE },
+	{
+		aboveV: 0,
+		upToV: 1_000,
+		individualPercent: 5.0,
+		thdPercent: 8.0,
+		source: `${T1}, V ≤ 1.0 kV (new in 2014)`,
+		provenance: READ,
+		provenanceNote: T1_NOTE,
+	},
+	{
+		aboveV: 1_000,
+		upToV: 69_000,
+		individualPercent: 3.0,
+		thdPercent: 5.0,
+		source: `${T1}, 1 kV < V ≤ 69 kV`,
+		provenance: READ,
+		provenanceNote: T1_NOTE,
+	},
+	{
+		aboveV: 69_000,
+		upToV: 161_000,
+		individualPercent: 1.5,
+		thdPercent: 2.5,
+		source: `${T1}, 69 kV < V ≤ 161 kV`,
+		provenance: READ,
+		provenanceNote: T1_NOTE,
+	},
+	{
+		aboveV: 161_000,
+		upToV: Infinity,
+		individualPercent: 1.0,
+		thdPercent: 1.5,
+		source: `${T1}, V > 161 kV`,
+		provenance: READ,
+		provenanceNote: T1_NOTE,
+	},
 ];
 
-function cur(table: string, aboveV: number, upToV: number, from: number, below: number, bands: number[], tdd: number): Ieee519CurrentRow {
-	const ratio = below === Infinity ? `I_SC/I_L ≥ ${from}` : from === 0 ? `I_SC/I_L < ${below}` : `${from} ≤ I_SC/I_L < ${below}`;
+function cur(
+	table: string,
+	aboveV: number,
+	upToV: number,
+	from: number,
+	below: number,
+	bands: number[],
+	tdd: number,
+): Ieee519CurrentRow {
+	const ratio =
+		below === Infinity ? `I_SC/I_L ≥ ${from}` : from === 0 ? `I_SC/I_L < ${below}` : `${from} ≤ I_SC/I_L < ${below}`;
 	const read = table === T2;
-	return { table, aboveV, upToV, ratioFrom: from, ratioBelow: below, bandPercent: bands, tddPercent: tdd, source: `${table}, ${ratio}`, provenance: read ? READ : MEMORY, provenanceNote: read ? T2_NOTE : T34_NOTE };
+	return {
+		table,
+		aboveV,
+		upToV,
+		ratioFrom: from,
+		ratioBelow: below,
+		bandPercent: bands,
+		tddPercent: tdd,
+		source: `${table}, ${ratio}`,
+		provenance: read ? READ : MEMORY,
+		provenanceNote: read ? T2_NOTE : T34_NOTE,
+	};
 }
 
 const current: Ieee519CurrentRow[] = [
@@ -59,7 +112,8 @@ export const IEEE519_TABLE: Ieee519Table = {
 	name: 'IEEE 519 harmonic limits at the PCC',
 	source: 'IEEE Std 519-2014 / 519-2022, Tables 1–4',
 	provenance: 'per row',
-	provenanceNote: 'Tables 1–2 and the 2014 and 2022 even-harmonic rules read in secondary sources; Tables 3–4 from memory',
+	provenanceNote:
+		'Tables 1–2 and the 2014 and 2022 even-harmonic rules read in secondary sources; Tables 3–4 from memory',
 	assessment:
 		'voltage: weekly 95th percentile of 10-minute values ≤ Table 1, daily 99th percentile of 3-s values ≤ 1.5 × Table 1; current: weekly 99th percentile of 10-minute values ≤ 1.5 × Table 2 and 95th ≤ Table 2, daily 99th percentile of 3-s values ≤ 2 × Table 2 (from memory)',
 	voltage,
@@ -73,8 +127,23 @@ export const IEEE519_TABLE: Ieee519Table = {
 	],
 	current,
 	evenRules: [
-		{ edition: '2014', steps: [{ upToOrder: 50, factor: 0.25 }], text: 'even harmonics are limited to 25 % of the odd harmonic limits', provenance: READ, provenanceNote: 'note to Table 2 read in a textbook reprint of the 1992 table (kept in 2014)' },
-		{ edition: '2022', steps: [{ upToOrder: 6, factor: 0.5 }, { upToOrder: 50, factor: 1 }], text: 'even harmonics h ≤ 6 are limited to 50 % and h > 6 to 100 % of the odd limits', provenance: READ, provenanceNote: 'read in a published summary of the 2022 revision' },
+		{
+			edition: '2014',
+			steps: [{ upToOrder: 50, factor: 0.25 }],
+			text: 'even harmonics are limited to 25 % of the odd harmonic limits',
+			provenance: READ,
+			provenanceNote: 'note to Table 2 read in a textbook reprint of the 1992 table (kept in 2014)',
+		},
+		{
+			edition: '2022',
+			steps: [
+				{ upToOrder: 6, factor: 0.5 },
+				{ upToOrder: 50, factor: 1 },
+			],
+			text: 'even harmonics h ≤ 6 are limited to 50 % and h > 6 to 100 % of the odd limits',
+			provenance: READ,
+			provenanceNote: 'read in a published summary of the 2022 revision',
+		},
 	],
 	currentMaxOrder: 50,
 	notes: [

@@ -26,7 +26,20 @@ export function statusOf(computedSomething: boolean, needs: string[]): NextStepS
 
 /** A step that does not apply to this recording; `finding` says why. */
 export function notApplicable(step: NextStepId, title: string, finding: string, method: string[]): NextStep {
-	return { step, title, status: 'not-applicable', finding, method, inputs: [], needs: [], result: null, conclusions: [], assumptions: [], warnings: [], caution: NEXT_STEP_CAUTION };
+	return {
+		step,
+		title,
+		status: 'not-applicable',
+		finding,
+		method,
+		inputs: [],
+		needs: [],
+		result: null,
+		conclusions: [],
+		assumptions: [],
+		warnings: [],
+		caution: NEXT_STEP_CAUTION,
+	};
 }
 
 /** Linear interpolation in a table of [x, y] points sorted by x; NaN outside it. */

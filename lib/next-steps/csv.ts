@@ -11,7 +11,8 @@ export const NEXT_STEPS_CSV_COLUMNS = ['file', 'step', 'status', 'figure', 'valu
 
 function flatten(value: unknown, path: string, out: [string, unknown][]): void {
 	if (Array.isArray(value)) value.forEach((v, k) => flatten(v, `${path}[${k}]`, out));
-	else if (value !== null && typeof value === 'object') for (const [k, v] of Object.entries(value)) flatten(v, path ? `${path}.${k}` : k, out);
+	else if (value !== null && typeof value === 'object')
+		for (const [k, v] of Object.entries(value)) flatten(v, path ? `${path}.${k}` : k, out);
 	else out.push([path, value]);
 }
 
@@ -19,7 +20,17 @@ function flatten(value: unknown, path: string, out: [string, unknown][]): void {
 export function nextStepsCsvRows(report: ReportJson): string[] {
 	const rows: string[] = [];
 	for (const s of report.nextSteps?.steps ?? []) {
-		const row = (figure: string, value: string, text: string) => rows.push([csvTextCell(report.file), csvTextCell(s.step), csvTextCell(s.status), csvTextCell(figure), value, csvTextCell(text)].join(','));
+		const row = (figure: string, value: string, text: string) =>
+			rows.push(
+				[
+					csvTextCell(report.file),
+					csvTextCell(s.step),
+					csvTextCell(s.status),
+					csvTextCell(figure),
+					value,
+					csvTextCell(text),
+				].join(','),
+			);
 		row('finding', '', s.finding);
 		if (s.needs.length > 0) row('needs', '', s.needs.join('; '));
 		const figures: [string, unknown][] = [];

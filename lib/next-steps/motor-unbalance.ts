@@ -67,10 +67,20 @@ export function motorUnbalance(channels: string[], lvurPercent: number): NextSte
 		operationNotRecommended: lvurPercent > NEMA_DO_NOT_OPERATE_ABOVE_PERCENT,
 	};
 	const conclusions = result.operationNotRecommended
-		? [`Voltage unbalance ${fmt(lvurPercent, 2)} % is above 5 %: NEMA MG 1 recommends not running induction motors on it; find the cause first.`]
-		: [`Voltage unbalance ${fmt(lvurPercent, 2)} %: load induction motors to at most ${fmt(d * 100, 0)} % of their rating (derating factor ${fmt(d, 2)}, interpolated on the NEMA MG 1 curve).`];
-	conclusions.push(`The hottest winding runs about ${fmt(result.extraHeatingPercent, 0)} % hotter in temperature rise than on a balanced supply.`);
-	const warnings = result.aboveDeratingThreshold ? [`Unbalance above ${NEMA_DERATE_ABOVE_PERCENT} %: motors need derating; look for unevenly shared single-phase loads or a poor connection.`] : [];
+		? [
+				`Voltage unbalance ${fmt(lvurPercent, 2)} % is above 5 %: NEMA MG 1 recommends not running induction motors on it; find the cause first.`,
+			]
+		: [
+				`Voltage unbalance ${fmt(lvurPercent, 2)} %: load induction motors to at most ${fmt(d * 100, 0)} % of their rating (derating factor ${fmt(d, 2)}, interpolated on the NEMA MG 1 curve).`,
+			];
+	conclusions.push(
+		`The hottest winding runs about ${fmt(result.extraHeatingPercent, 0)} % hotter in temperature rise than on a balanced supply.`,
+	);
+	const warnings = result.aboveDeratingThreshold
+		? [
+				`Unbalance above ${NEMA_DERATE_ABOVE_PERCENT} %: motors need derating; look for unevenly shared single-phase loads or a poor connection.`,
+			]
+		: [];
 	return {
 		step: 'motor-unbalance',
 		title: 'Motors on an unbalanced supply',
@@ -85,7 +95,10 @@ export function motorUnbalance(channels: string[], lvurPercent: number): NextSte
 		needs: [],
 		result,
 		conclusions,
-		assumptions: ['The unbalance of this recording is typical of the supply at the motor terminals; the curve is for polyphase induction motors at rated load.', 'Derating interpolated between curve points (a straight line between them).'],
+		assumptions: [
+			'The unbalance of this recording is typical of the supply at the motor terminals; the curve is for polyphase induction motors at rated load.',
+			'Derating interpolated between curve points (a straight line between them).',
+		],
 		warnings,
 		caution: NEXT_STEP_CAUTION,
 	};

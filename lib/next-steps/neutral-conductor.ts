@@ -34,7 +34,10 @@ export interface NeutralSizing {
  * @example neutralSizing(39, 40) // { basis: 'neutral', factor: 0.86, annexNeutralA: 46.8, designCurrentA: 54.4 }
  */
 export function neutralSizing(phaseCurrentA: number, thirdHarmonicPercent: number): NeutralSizing {
-	if (!(phaseCurrentA >= 0) || !(thirdHarmonicPercent >= 0)) throw new RangeError(`phase current and third-harmonic content must be >= 0, got ${phaseCurrentA} A, ${thirdHarmonicPercent} %`);
+	if (!(phaseCurrentA >= 0) || !(thirdHarmonicPercent >= 0))
+		throw new RangeError(
+			`phase current and third-harmonic content must be >= 0, got ${phaseCurrentA} A, ${thirdHarmonicPercent} %`,
+		);
 	const band = NEUTRAL_REDUCTION_BANDS.find((b) => thirdHarmonicPercent <= b.upToPercent)!;
 	const annexNeutralA = (3 * thirdHarmonicPercent * phaseCurrentA) / 100;
 	const basisA = band.basis === 'phase' ? phaseCurrentA : annexNeutralA;
@@ -58,24 +61,48 @@ const METHOD = [
  * The neutral-conductor step from a three-phase current set and its neutral (measured or summed).
  * @param phases  the three phase currents: RMS, A, and third harmonic, % of the fundamental
  */
-export function neutralConductor(phases: { channel: string; rmsA: number; thirdPercent: number }[], neutral: { rmsA: number; measured: boolean }): NextStep<NeutralConductorResult> {
+export function neutralConductor(
+	phases: { channel: string; rmsA: number; thirdPercent: number }[],
+	neutral: { rmsA: number; measured: boolean },
+): NextStep<NeutralConductorResult> {
 	const phaseA = maxOf(phases.map((p) => p.rmsA));
 	const h3 = maxOf(phases.map((p) => p.thirdPercent));
 	const s = neutralSizing(phaseA, h3);
-	const designRecorded = s.basis === 'neutral' && neutral.rmsA > s.annexNeutralA ? neutral.rmsA / s.factor : s.designCurrentA;
-	const result: NeutralConductorResult = { ...s, phaseCurrentA: phaseA, thirdHarmonicPercent: h3, recordedNeutralA: neutral.rmsA, designCurrentRecordedA: designRecorded };
+	const designRecorded =
+		s.basis === 'neutral' && neutral.rmsA > s.annexNeutralA ? neutral.rmsA / s.factor : s.designCurrentA;
+	const result: NeutralConductorResult = {
+		...s,
+		phaseCurrentA: phaseA,
+		thirdHarmonicPercent: h3,
+		recordedNeutralA: neutral.rmsA,
+		designCurrentRecordedA: designRecorded,
+	};
 	const basisA = s.basis === 'phase' ? phaseA : s.annexNeutralA;
 	const which = `the ${s.basis} current${s.basis === 'neutral' ? ` (3 × ${fmt(h3 / 100, 2)} × ${fmt(phaseA, 1)} A = ${fmt(basisA, 1)} A)` : ''}: ${s.factor === 1 ? `${fmt(basisA, 1)} A, no reduction factor` : `${fmt(basisA, 1)} A ÷ ${s.factor} = ${fmt(s.designCurrentA, 1)} A`}`;
 	const conclusions = [`Third harmonic ${fmt(h3, 1)} % of the phase current: choose the cable for ${which}.`];
-	if (designRecorded > s.designCurrentA) conclusions.push(`The recorded neutral current (${fmt(neutral.rmsA, 1)} A) is above the Annex's estimate: chosen on it, the cable needs ${fmt(designRecorded, 1)} A.`);
-	const warnings = neutral.rmsA > phaseA ? [`The neutral carries ${fmt(neutral.rmsA, 1)} A, more than the largest phase (${fmt(phaseA, 1)} A): check the neutral's cross-section and its terminations.`] : [];
+	if (designRecorded > s.designCurrentA)
+		conclusions.push(
+			`The recorded neutral current (${fmt(neutral.rmsA, 1)} A) is above the Annex's estimate: chosen on it, the cable needs ${fmt(designRecorded, 1)} A.`,
+		);
+	const warnings =
+		neutral.rmsA > phaseA
+			? [
+					`The neutral carries ${fmt(neutral.rmsA, 1)} A, more than the largest phase (${fmt(phaseA, 1)} A): check the neutral's cross-section and its terminations.`,
+				]
+			: [];
 	return {
 		step: 'neutral-conductor',
 		title: 'Neutral conductor',
 		status: 'result',
 		finding: `${neutral.measured ? 'Measured' : 'Computed (sum of the phases)'} neutral current ${fmt(neutral.rmsA, 1)} A with phase currents up to ${fmt(phaseA, 1)} A; third harmonic up to ${fmt(h3, 1)} % of the fundamental.`,
 		method: METHOD,
-		inputs: [...phases.flatMap((p) => [recorded(`${p.channel} RMS current`, p.rmsA, 'A'), recorded(`${p.channel} third harmonic`, p.thirdPercent, '% of fundamental')]), recorded('neutral RMS current', neutral.rmsA, 'A')],
+		inputs: [
+			...phases.flatMap((p) => [
+				recorded(`${p.channel} RMS current`, p.rmsA, 'A'),
+				recorded(`${p.channel} third harmonic`, p.thirdPercent, '% of fundamental'),
+			]),
+			recorded('neutral RMS current', neutral.rmsA, 'A'),
+		],
 		needs: [],
 		result,
 		conclusions,

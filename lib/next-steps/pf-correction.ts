@@ -96,7 +96,13 @@ export function ordersPresent(currents: CurrentSpectrum[]): number[] {
 }
 
 export interface PfCorrectionResult {
-	perPhase: { label: string; fundamentalActiveW: number; displacementPowerFactor: number; powerFactor: number; reactiveToAddVar: number }[];
+	perPhase: {
+		label: string;
+		fundamentalActiveW: number;
+		displacementPowerFactor: number;
+		powerFactor: number;
+		reactiveToAddVar: number;
+	}[];
 	totalReactiveToAddVar: number;
 	/** The three-phase bank the resonance is worked out for: the total, or 3/n × it when n < 3 phases were recorded, var. */
 	bankForResonanceVar: number;
@@ -121,11 +127,23 @@ const METHOD = [
 ];
 
 /** The power-factor correction step (see the file header). */
-export function powerFactorCorrection(phases: PhasePowerFigures[], currents: CurrentSpectrum[], site: SiteInputs): NextStep<PfCorrectionResult> {
+export function powerFactorCorrection(
+	phases: PhasePowerFigures[],
+	currents: CurrentSpectrum[],
+	site: SiteInputs,
+): NextStep<PfCorrectionResult> {
 	const target = site.targetPowerFactor;
-	const finding = phases.map((p) => `${p.label}: displacement PF ${fmt(p.displacementPowerFactor, 3)} (${p.character ?? 'unknown'}), true PF ${fmt(p.powerFactor, 3)}, P ${fmt(p.activeW / 1000, 2)} kW`).join('; ');
+	const finding = phases
+		.map(
+			(p) =>
+				`${p.label}: displacement PF ${fmt(p.displacementPowerFactor, 3)} (${p.character ?? 'unknown'}), true PF ${fmt(p.powerFactor, 3)}, P ${fmt(p.activeW / 1000, 2)} kW`,
+		)
+		.join('; ');
 	const inputs = [
-		...phases.flatMap((p) => [recorded(`${p.label} fundamental active power`, p.fundamentalActiveW, 'W'), recorded(`${p.label} displacement power factor`, p.displacementPowerFactor, '')]),
+		...phases.flatMap((p) => [
+			recorded(`${p.label} fundamental active power`, p.fundamentalActiveW, 'W'),
+			recorded(`${p.label} displacement power factor`, p.displacementPowerFactor, ''),
+		]),
 		given('target displacement power factor', target, ''),
 		given('short-circuit power of the supply', site.supplyShortCircuitKva, 'kVA'),
 		given('transformer rating', site.transformerKva, 'kVA'),
@@ -135,20 +153,41 @@ export function powerFactorCorrection(phases: PhasePowerFigures[], currents: Cur
 	if (target === undefined) needs.push('the target power factor');
 	const ssc = shortCircuitOf(site);
 	// The resonance needs the supply only when there is a bank to resonate.
-	const bankNeeded = target === undefined || phases.some((p) => p.character !== 'capacitive' && reactivePowerToAdd(1, p.displacementPowerFactor, target) > 0);
-	if (ssc.kva === undefined && bankNeeded) needs.push('the short-circuit power at the board, or the transformer kVA and impedance');
-	const step = { step: 'power-factor-correction' as const, title: TITLE, finding, method: METHOD, inputs, needs, caution: NEXT_STEP_CAUTION };
-	if (target === undefined) return { ...step, status: 'needs-input', result: null, conclusions: [], assumptions: [], warnings: [] };
+	const bankNeeded =
+		target === undefined ||
+		phases.some((p) => p.character !== 'capacitive' && reactivePowerToAdd(1, p.displacementPowerFactor, target) > 0);
+	if (ssc.kva === undefined && bankNeeded)
+		needs.push('the short-circuit power at the board, or the transformer kVA and impedance');
+	const step = {
+		step: 'power-factor-correction' as const,
+		title: TITLE,
+		finding,
+		method: METHOD,
+		inputs,
+		needs,
+		caution: NEXT_STEP_CAUTION,
+	};
+	if (target === undefined)
+		return { ...step, status: 'needs-input', result: null, conclusions: [], assumptions: [], warnings: [] };
 	return { ...step, status: statusOf(true, needs), ...correctionResult(phases, currents, target, ssc) };
 }
 
 function shortCircuitOf(site: SiteInputs): { kva: number | undefined; from: 'supply' | 'transformer' | null } {
 	if (site.supplyShortCircuitKva !== undefined) return { kva: site.supplyShortCircuitKva, from: 'supply' };
-	if (site.transformerKva !== undefined && site.transformerImpedancePercent !== undefined) return { kva: transformerShortCircuitKva(site.transformerKva, site.transformerImpedancePercent), from: 'transformer' };
+	if (site.transformerKva !== undefined && site.transformerImpedancePercent !== undefined)
+		return {
+			kva: transformerShortCircuitKva(site.transformerKva, site.transformerImpedancePercent),
+			from: 'transformer',
+		};
 	return { kva: undefined, from: null };
 }
 
-function correctionResult(phases: PhasePowerFigures[], currents: CurrentSpectrum[], target: number, ssc: { kva: number | undefined; from: 'supply' | 'transformer' | null }) {
+function correctionResult(
+	phases: PhasePowerFigures[],
+	currents: CurrentSpectrum[],
+	target: number,
+	ssc: { kva: number | undefined; from: 'supply' | 'transformer' | null },
+) {
 	const conclusions: string[] = [];
 	const assumptions = [
 		'P1 and the displacement power factor are those of the recording; size the bank on the maximum demand, not on one recording.',
@@ -158,39 +197,100 @@ function correctionResult(phases: PhasePowerFigures[], currents: CurrentSpectrum
 	const perPhase = phases.map((p) => {
 		const p1 = Number.isFinite(p.fundamentalActiveW) ? p.fundamentalActiveW : p.activeW;
 		const q = p.character === 'capacitive' ? 0 : reactivePowerToAdd(p1, p.displacementPowerFactor, target);
-		if (p.character === 'capacitive') warnings.push(`${p.label} draws leading (capacitive) current already: capacitors would lower its power factor further.`);
-		return { label: p.label, fundamentalActiveW: p1, displacementPowerFactor: p.displacementPowerFactor, powerFactor: p.powerFactor, reactiveToAddVar: q };
+		if (p.character === 'capacitive')
+			warnings.push(
+				`${p.label} draws leading (capacitive) current already: capacitors would lower its power factor further.`,
+			);
+		return {
+			label: p.label,
+			fundamentalActiveW: p1,
+			displacementPowerFactor: p.displacementPowerFactor,
+			powerFactor: p.powerFactor,
+			reactiveToAddVar: q,
+		};
 	});
 	const total = perPhase.reduce((s, p) => s + p.reactiveToAddVar, 0);
 	phases.forEach((ph, k) => {
 		const p = perPhase[k];
 		const dpf = fmt(p.displacementPowerFactor, 3);
-		if (p.reactiveToAddVar > 0) conclusions.push(`${p.label}: add ${fmt(p.reactiveToAddVar / 1000, 2)} kvar to raise the displacement PF from ${dpf} to ${fmt(target, 2)}.`);
-		else if (ph.character === 'capacitive' && p.displacementPowerFactor < target - POWER_FACTOR_TOLERANCE) conclusions.push(`${p.label}: the displacement PF ${dpf} is leading: capacitors cannot raise it; removing capacitance (or adding reactors) does.`);
-		else conclusions.push(`${p.label}: no capacitors needed (displacement PF ${dpf}${ph.character === 'capacitive' ? ', leading' : ''}; target ${fmt(target, 2)}).`);
+		if (p.reactiveToAddVar > 0)
+			conclusions.push(
+				`${p.label}: add ${fmt(p.reactiveToAddVar / 1000, 2)} kvar to raise the displacement PF from ${dpf} to ${fmt(target, 2)}.`,
+			);
+		else if (ph.character === 'capacitive' && p.displacementPowerFactor < target - POWER_FACTOR_TOLERANCE)
+			conclusions.push(
+				`${p.label}: the displacement PF ${dpf} is leading: capacitors cannot raise it; removing capacitance (or adding reactors) does.`,
+			);
+		else
+			conclusions.push(
+				`${p.label}: no capacitors needed (displacement PF ${dpf}${ph.character === 'capacitive' ? ', leading' : ''}; target ${fmt(target, 2)}).`,
+			);
 	});
 	if (phases.length > 1 && total > 0) conclusions.push(`All phases recorded: ${fmt(total / 1000, 2)} kvar.`);
 	// Ssc is a three-phase figure: the resonance is worked out for the three-phase bank.
 	const bankVar = (total * 3) / Math.min(3, phases.length);
-	if (phases.length < 3) assumptions.push(`Only ${phases.length} phase(s) recorded: the resonance is worked out for a balanced three-phase bank of ${fmt(bankVar / 1000, 2)} kvar (${3 / phases.length} × the recorded phases) on a three-phase supply; on a single-phase supply use its own short-circuit power and the kvar as recorded.`);
+	if (phases.length < 3)
+		assumptions.push(
+			`Only ${phases.length} phase(s) recorded: the resonance is worked out for a balanced three-phase bank of ${fmt(bankVar / 1000, 2)} kvar (${3 / phases.length} × the recorded phases) on a three-phase supply; on a single-phase supply use its own short-circuit power and the kvar as recorded.`,
+		);
 	const present = ordersPresent(currents);
 	const h = ssc.kva === undefined || !(total > 0) ? NaN : resonanceOrder(ssc.kva, bankVar / 1000);
-	if (ssc.from === 'transformer') assumptions.push('Short-circuit power taken as transformer kVA ÷ per-unit impedance (the network upstream neglected): the true Ssc is lower, and so is the resonance order.');
+	if (ssc.from === 'transformer')
+		assumptions.push(
+			'Short-circuit power taken as transformer kVA ÷ per-unit impedance (the network upstream neglected): the true Ssc is lower, and so is the resonance order.',
+		);
 	const near = present.filter((n) => Math.abs(h - n) <= RESONANCE_NEAR_FRACTION * n);
 	if (Number.isFinite(h)) {
-		conclusions.push(`With the whole bank in, it would resonate with the supply near harmonic order ${fmt(h, 1)}; with fewer steps switched in, the order rises.`);
-		if (near.length > 0) warnings.push(`The resonance falls near order ${near.join(', ')}, present in the recorded current: a plain (undetuned) bank risks amplifying it. Consider a detuned bank.`);
+		conclusions.push(
+			`With the whole bank in, it would resonate with the supply near harmonic order ${fmt(h, 1)}; with fewer steps switched in, the order rises.`,
+		);
+		if (near.length > 0)
+			warnings.push(
+				`The resonance falls near order ${near.join(', ')}, present in the recorded current: a plain (undetuned) bank risks amplifying it. Consider a detuned bank.`,
+			);
 		const above = present.filter((n) => n >= h * (1 - RESONANCE_NEAR_FRACTION));
-		if (near.length === 0 && above.length > 0) warnings.push(`Orders ${above.slice(0, 6).join(', ')} present in the current lie above the resonance: a partly switched bank can resonate with them.`);
+		if (near.length === 0 && above.length > 0)
+			warnings.push(
+				`Orders ${above.slice(0, 6).join(', ')} present in the current lie above the resonance: a partly switched bank can resonate with them.`,
+			);
 	}
 	const lowest = present[0] ?? NaN;
-	const detuned = DETUNING_REACTOR_PERCENT.map((p) => ({ reactorPercent: p, tuningOrder: detunedTuningOrder(p), belowLowestOrderPresent: !(detunedTuningOrder(p) >= lowest * (1 - RESONANCE_NEAR_FRACTION)) }));
-	const fit = detuned.filter((d) => d.belowLowestOrderPresent).map((d) => `${d.reactorPercent} % (tuned to ${fmt(d.tuningOrder, 2)})`);
-	if (present.length > 0) conclusions.push(`Detuned reactors tuned safely below the lowest order present (${lowest}): ${fit.length ? fit.join(', ') : 'none of 5.67, 7, 14 %'}.`);
-	const after = phases.map((p) => (p.character === 'capacitive' ? NaN : truePowerFactorAfter(p.powerFactor, p.displacementPowerFactor, target)));
+	const detuned = DETUNING_REACTOR_PERCENT.map((p) => ({
+		reactorPercent: p,
+		tuningOrder: detunedTuningOrder(p),
+		belowLowestOrderPresent: !(detunedTuningOrder(p) >= lowest * (1 - RESONANCE_NEAR_FRACTION)),
+	}));
+	const fit = detuned
+		.filter((d) => d.belowLowestOrderPresent)
+		.map((d) => `${d.reactorPercent} % (tuned to ${fmt(d.tuningOrder, 2)})`);
+	if (present.length > 0)
+		conclusions.push(
+			`Detuned reactors tuned safely below the lowest order present (${lowest}): ${fit.length ? fit.join(', ') : 'none of 5.67, 7, 14 %'}.`,
+		);
+	const after = phases.map((p) =>
+		p.character === 'capacitive' ? NaN : truePowerFactorAfter(p.powerFactor, p.displacementPowerFactor, target),
+	);
 	const harmonic = phases.some((p) => p.displacementPowerFactor >= target && p.powerFactor < target);
-	if (harmonic) conclusions.push('The displacement power factor already meets the target but the true power factor does not: the shortfall is harmonic current, and capacitors will not fix it (harmonic filters or lower-distortion equipment do).');
-	else if (after.some((x) => x < target - 0.01)) conclusions.push(`With the harmonic current as recorded the true PF after correction would be about ${after.map((x) => fmt(x, 2)).join(', ')}: capacitors fix only the displacement part.`);
-	const result: PfCorrectionResult = { perPhase, totalReactiveToAddVar: total, bankForResonanceVar: bankVar, shortCircuitKva: ssc.kva ?? NaN, shortCircuitFrom: ssc.from, resonanceOrder: h, ordersPresent: present, resonanceNearOrders: near, detuned, truePowerFactorAfter: after, lowPowerFactorIsHarmonic: harmonic };
+	if (harmonic)
+		conclusions.push(
+			'The displacement power factor already meets the target but the true power factor does not: the shortfall is harmonic current, and capacitors will not fix it (harmonic filters or lower-distortion equipment do).',
+		);
+	else if (after.some((x) => x < target - 0.01))
+		conclusions.push(
+			`With the harmonic current as recorded the true PF after correction would be about ${after.map((x) => fmt(x, 2)).join(', ')}: capacitors fix only the displacement part.`,
+		);
+	const result: PfCorrectionResult = {
+		perPhase,
+		totalReactiveToAddVar: total,
+		bankForResonanceVar: bankVar,
+		shortCircuitKva: ssc.kva ?? NaN,
+		shortCircuitFrom: ssc.from,
+		resonanceOrder: h,
+		ordersPresent: present,
+		resonanceNearOrders: near,
+		detuned,
+		truePowerFactorAfter: after,
+		lowPowerFactorIsHarmonic: harmonic,
+	};
 	return { result, conclusions, assumptions, warnings };
 }

@@ -79,27 +79,61 @@ export function transformerLoading(
 	maxOrder: number,
 	site: SiteInputs,
 ): NextStep<TransformerResult> {
-	const scored = currents.map((c) => ({ ...c, k: ulKFactor(c.rmsByOrder, Math.min(maxOrder, c.rmsByOrder.length - 1)) })).filter((c) => Number.isFinite(c.k));
+	const scored = currents
+		.map((c) => ({ ...c, k: ulKFactor(c.rmsByOrder, Math.min(maxOrder, c.rmsByOrder.length - 1)) }))
+		.filter((c) => Number.isFinite(c.k));
 	const worst = scored.sort((a, b) => b.k - a.k)[0];
 	if (!worst) throw new RangeError('transformerLoading needs at least one current channel with harmonics');
 	const pec = site.transformerEddyLossPu;
 	const needs: string[] = [];
-	if (pec === undefined) needs.push("the transformer's winding eddy-current loss as a fraction of its I²R loss (P_EC-R, from its test report or maker)");
+	if (pec === undefined)
+		needs.push(
+			"the transformer's winding eddy-current loss as a fraction of its I²R loss (P_EC-R, from its test report or maker)",
+		);
 	if (site.transformerKva === undefined) needs.push('the transformer kVA');
 	const top = Math.min(maxOrder, worst.rmsByOrder.length - 1);
 	const fhl = harmonicLossFactor(worst.rmsByOrder, top);
 	const imax = pec === undefined ? NaN : maxLoadCurrentPu(pec, fhl);
 	const fk = pec === undefined ? NaN : factorK(worst.rmsByOrder, pec, FACTOR_K_EXPONENT_Q, top);
-	const ratedA = site.transformerKva !== undefined && worst.phaseVoltageV !== undefined && worst.phaseVoltageV > 0 ? (site.transformerKva * 1000) / (3 * worst.phaseVoltageV) : NaN;
+	const ratedA =
+		site.transformerKva !== undefined && worst.phaseVoltageV !== undefined && worst.phaseVoltageV > 0
+			? (site.transformerKva * 1000) / (3 * worst.phaseVoltageV)
+			: NaN;
 	const loadPu = (worst.rmsA ?? NaN) / ratedA;
-	const result: TransformerResult = { channel: worst.channel, harmonicLossFactor: fhl, kFactor: worst.k, kRatedClass: kRatedClass(worst.k), maxLoadCurrentPu: imax, factorK: fk, maxLoadKva: site.transformerKva === undefined ? NaN : site.transformerKva * imax, ratedCurrentA: ratedA, loadPu };
-	const conclusions = [`Harmonic loss factor F_HL (= K-factor) ${fmt(fhl, 2)} on ${worst.channel}${scored.length > 1 ? ' (the highest of the current channels)' : ''}.`];
-	conclusions.push(result.kRatedClass === 1 ? 'A standard (K-1) transformer carries this current spectrum without a K-rating.' : Number.isFinite(result.kRatedClass) ? `If a K-rated transformer is chosen, K-${result.kRatedClass} or above covers this load.` : 'The K-factor is above the K-50 class: ask the maker.');
-	if (Number.isFinite(imax)) conclusions.push(`A standard transformer may carry at most ${fmt(imax * 100, 0)} % of its rated current with this spectrum${Number.isFinite(result.maxLoadKva) ? ` (${fmt(result.maxLoadKva, 0)} kVA of ${fmt(site.transformerKva!, 0)} kVA)` : ''}; BS 7821 factor K ${fmt(fk, 3)} derates it to ${fmt(100 / fk, 0)} %.`);
+	const result: TransformerResult = {
+		channel: worst.channel,
+		harmonicLossFactor: fhl,
+		kFactor: worst.k,
+		kRatedClass: kRatedClass(worst.k),
+		maxLoadCurrentPu: imax,
+		factorK: fk,
+		maxLoadKva: site.transformerKva === undefined ? NaN : site.transformerKva * imax,
+		ratedCurrentA: ratedA,
+		loadPu,
+	};
+	const conclusions = [
+		`Harmonic loss factor F_HL (= K-factor) ${fmt(fhl, 2)} on ${worst.channel}${scored.length > 1 ? ' (the highest of the current channels)' : ''}.`,
+	];
+	conclusions.push(
+		result.kRatedClass === 1
+			? 'A standard (K-1) transformer carries this current spectrum without a K-rating.'
+			: Number.isFinite(result.kRatedClass)
+				? `If a K-rated transformer is chosen, K-${result.kRatedClass} or above covers this load.`
+				: 'The K-factor is above the K-50 class: ask the maker.',
+	);
+	if (Number.isFinite(imax))
+		conclusions.push(
+			`A standard transformer may carry at most ${fmt(imax * 100, 0)} % of its rated current with this spectrum${Number.isFinite(result.maxLoadKva) ? ` (${fmt(result.maxLoadKva, 0)} kVA of ${fmt(site.transformerKva!, 0)} kVA)` : ''}; BS 7821 factor K ${fmt(fk, 3)} derates it to ${fmt(100 / fk, 0)} %.`,
+		);
 	const warnings: string[] = [];
 	if (Number.isFinite(loadPu)) {
-		conclusions.push(`${worst.channel} carries ${fmt(worst.rmsA!, 1)} A, ${fmt(loadPu * 100, 0)} % of the rated ${fmt(ratedA, 0)} A per phase at ${fmt(worst.phaseVoltageV!, 0)} V (if this recording is the transformer's whole load).`);
-		if (loadPu > imax) warnings.push(`${worst.channel} at ${fmt(loadPu * 100, 0)} % of rated current is above the ${fmt(imax * 100, 0)} % a standard transformer carries with this spectrum.`);
+		conclusions.push(
+			`${worst.channel} carries ${fmt(worst.rmsA!, 1)} A, ${fmt(loadPu * 100, 0)} % of the rated ${fmt(ratedA, 0)} A per phase at ${fmt(worst.phaseVoltageV!, 0)} V (if this recording is the transformer's whole load).`,
+		);
+		if (loadPu > imax)
+			warnings.push(
+				`${worst.channel} at ${fmt(loadPu * 100, 0)} % of rated current is above the ${fmt(imax * 100, 0)} % a standard transformer carries with this spectrum.`,
+			);
 	}
 	return {
 		step: 'transformer-loading',
@@ -107,11 +141,20 @@ export function transformerLoading(
 		status: statusOf(true, needs),
 		finding: `${worst.channel}: K-factor ${fmt(worst.k, 2)} from harmonics to order ${top}.`,
 		method: METHOD,
-		inputs: [recorded(`${worst.channel} current harmonics to order`, top, ''), recorded(`${worst.channel} RMS current`, worst.rmsA ?? NaN, 'A'), recorded('phase voltage it is paired with', worst.phaseVoltageV ?? NaN, 'V'), given('transformer winding eddy-current loss P_EC-R', pec, 'pu of I²R loss'), given('transformer rating', site.transformerKva, 'kVA')],
+		inputs: [
+			recorded(`${worst.channel} current harmonics to order`, top, ''),
+			recorded(`${worst.channel} RMS current`, worst.rmsA ?? NaN, 'A'),
+			recorded('phase voltage it is paired with', worst.phaseVoltageV ?? NaN, 'V'),
+			given('transformer winding eddy-current loss P_EC-R', pec, 'pu of I²R loss'),
+			given('transformer rating', site.transformerKva, 'kVA'),
+		],
 		needs,
 		result,
 		conclusions,
-		assumptions: ['The spectrum recorded is the one at full load; other stray loss neglected (dry-type winding hot spot); for liquid-filled units the top-oil criterion of IEEE C57.110 also applies.', `Factor K with q = ${FACTOR_K_EXPONENT_Q} (round or rectangular conductors; 1.5 for foil windings).`],
+		assumptions: [
+			'The spectrum recorded is the one at full load; other stray loss neglected (dry-type winding hot spot); for liquid-filled units the top-oil criterion of IEEE C57.110 also applies.',
+			`Factor K with q = ${FACTOR_K_EXPONENT_Q} (round or rectangular conductors; 1.5 for foil windings).`,
+		],
 		warnings,
 		caution: NEXT_STEP_CAUTION,
 	};

@@ -46,7 +46,8 @@ export const SITE_INPUT_LABELS: Record<keyof SiteInputs, { label: string; unit: 
 	meterResponse: { label: 'how the meter responds (true RMS or average-responding)', unit: '' },
 };
 
-export type NextStepId = 'power-factor-correction' | 'transformer-loading' | 'neutral-conductor' | 'motor-unbalance' | 'meter-reading';
+export type NextStepId =
+	'power-factor-correction' | 'transformer-loading' | 'neutral-conductor' | 'motor-unbalance' | 'meter-reading';
 
 /**
  * 'result': every input given and a result follows; 'partial': part of the result, the rest `needs`

@@ -82,5 +82,8 @@ export function phasorScale(x: ComplexPhasor, k: number): ComplexPhasor {
  * Ref: IEEE Std 1459-2010, 3.1.2 (P1 = V1·I1·cos θ1, Q1 = V1·I1·sin θ1, θ1 = α1 − β1) (from memory).
  */
 export function complexPower(voltage: ComplexPhasor, current: ComplexPhasor): ComplexPhasor {
-	return { re: voltage.re * current.re + voltage.im * current.im, im: voltage.im * current.re - voltage.re * current.im };
+	return {
+		re: voltage.re * current.re + voltage.im * current.im,
+		im: voltage.im * current.re - voltage.re * current.im,
+	};
 }

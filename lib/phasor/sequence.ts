@@ -54,7 +54,11 @@ export function symmetricalComponents(xa: ComplexPhasor, xb: ComplexPhasor, xc: 
  * Ref: as symmetricalComponents.
  * @example phasesFromSequence({re:0,im:0}, {re:230,im:0}, {re:0,im:0})[1] // 230∠−120°
  */
-export function phasesFromSequence(zero: ComplexPhasor, positive: ComplexPhasor, negative: ComplexPhasor): [ComplexPhasor, ComplexPhasor, ComplexPhasor] {
+export function phasesFromSequence(
+	zero: ComplexPhasor,
+	positive: ComplexPhasor,
+	negative: ComplexPhasor,
+): [ComplexPhasor, ComplexPhasor, ComplexPhasor] {
 	return [
 		phasorAdd(phasorAdd(zero, positive), negative),
 		phasorAdd(phasorAdd(zero, phasorMul(A2, positive)), phasorMul(FORTESCUE_A, negative)),

@@ -17,9 +17,14 @@ import { phasorScale, phasorSub, type ComplexPhasor } from '../phasor/phasor.js'
  * @throws RangeError for channels of unequal length
  * @example artificialNeutralVoltages(u12, u23, u31)[0] // 230 V RMS from a 400 V balanced set
  */
-export function artificialNeutralVoltages(u12: Float64Array, u23: Float64Array, u31: Float64Array): [Float64Array, Float64Array, Float64Array] {
+export function artificialNeutralVoltages(
+	u12: Float64Array,
+	u23: Float64Array,
+	u31: Float64Array,
+): [Float64Array, Float64Array, Float64Array] {
 	const n = u12.length;
-	if (u23.length !== n || u31.length !== n) throw new RangeError(`line-voltage channels differ in length: ${n}, ${u23.length}, ${u31.length} samples`);
+	if (u23.length !== n || u31.length !== n)
+		throw new RangeError(`line-voltage channels differ in length: ${n}, ${u23.length}, ${u31.length} samples`);
 	const v1 = new Float64Array(n);
 	const v2 = new Float64Array(n);
 	const v3 = new Float64Array(n);
@@ -32,8 +37,16 @@ export function artificialNeutralVoltages(u12: Float64Array, u23: Float64Array, 
 }
 
 /** Phasor form of artificialNeutralVoltages (fundamental line-voltage phasors in, star phasors out). */
-export function artificialNeutralPhasors(u12: ComplexPhasor, u23: ComplexPhasor, u31: ComplexPhasor): [ComplexPhasor, ComplexPhasor, ComplexPhasor] {
-	return [phasorScale(phasorSub(u12, u31), 1 / 3), phasorScale(phasorSub(u23, u12), 1 / 3), phasorScale(phasorSub(u31, u23), 1 / 3)];
+export function artificialNeutralPhasors(
+	u12: ComplexPhasor,
+	u23: ComplexPhasor,
+	u31: ComplexPhasor,
+): [ComplexPhasor, ComplexPhasor, ComplexPhasor] {
+	return [
+		phasorScale(phasorSub(u12, u31), 1 / 3),
+		phasorScale(phasorSub(u23, u12), 1 / 3),
+		phasorScale(phasorSub(u31, u23), 1 / 3),
+	];
 }
 
 /**
@@ -42,7 +55,8 @@ export function artificialNeutralPhasors(u12: ComplexPhasor, u23: ComplexPhasor,
  * @throws RangeError for channels of unequal length
  */
 export function thirdLineVoltage(u12: Float64Array, u23: Float64Array): Float64Array {
-	if (u12.length !== u23.length) throw new RangeError(`line-voltage channels differ in length: ${u12.length} vs ${u23.length} samples`);
+	if (u12.length !== u23.length)
+		throw new RangeError(`line-voltage channels differ in length: ${u12.length} vs ${u23.length} samples`);
 	const out = new Float64Array(u12.length);
 	for (let i = 0; i < out.length; i++) out[i] = -(u12[i] + u23[i]);
 	return out;

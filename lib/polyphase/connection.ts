@@ -37,7 +37,12 @@ export interface VoltageChannelLevel {
 /** How each channel reads, and the capture's verdict. */
 export interface LineToLineDetection {
 	verdict: 'line-to-line' | 'line-to-neutral' | 'mixed' | 'unknown';
-	channels: { name: string; reading: 'line-to-line' | 'line-to-neutral' | 'unknown'; byName?: 'line-to-line' | 'line-to-neutral'; byLevel?: 'line-to-line' | 'line-to-neutral' }[];
+	channels: {
+		name: string;
+		reading: 'line-to-line' | 'line-to-neutral' | 'unknown';
+		byName?: 'line-to-line' | 'line-to-neutral';
+		byLevel?: 'line-to-line' | 'line-to-neutral';
+	}[];
 	diagnostics: Diagnostic[];
 }
 
@@ -47,7 +52,10 @@ export const NOMINAL_MATCH_PERCENT = 10;
 const AMBIGUITY_PERCENT = 2;
 
 /** Reading of one RMS level against the nominal systems: the nearer of the nearest LN and LL nominals. */
-function readLevel(rmsV: number, systems: readonly (readonly [number, number])[]): { reading?: 'line-to-line' | 'line-to-neutral'; system?: readonly [number, number] } {
+function readLevel(
+	rmsV: number,
+	systems: readonly (readonly [number, number])[],
+): { reading?: 'line-to-line' | 'line-to-neutral'; system?: readonly [number, number] } {
 	const dist = (nom: number) => Math.abs(rmsV / nom - 1) * 100;
 	let ln = { d: Infinity, sys: systems[0] };
 	let ll = { d: Infinity, sys: systems[0] };
@@ -68,11 +76,15 @@ function readLevel(rmsV: number, systems: readonly (readonly [number, number])[]
  * Ref: common practice; nominal levels from NOMINAL_LV_SYSTEMS_V.
  * @example detectLineToLineVoltages([{ name: 'U12', rmsV: 401 }, ...]).verdict // 'line-to-line'
  */
-export function detectLineToLineVoltages(voltages: readonly VoltageChannelLevel[], systems: readonly (readonly [number, number])[] = NOMINAL_LV_SYSTEMS_V): LineToLineDetection {
+export function detectLineToLineVoltages(
+	voltages: readonly VoltageChannelLevel[],
+	systems: readonly (readonly [number, number])[] = NOMINAL_LV_SYSTEMS_V,
+): LineToLineDetection {
 	const diagnostics: Diagnostic[] = [];
 	const channels: LineToLineDetection['channels'] = voltages.map((v) => {
 		const lab = parsePhaseLabel(v.name);
-		const byName = lab?.kind === 'line-to-line' ? 'line-to-line' : lab?.kind === 'phase' ? 'line-to-neutral' : undefined;
+		const byName =
+			lab?.kind === 'line-to-line' ? 'line-to-line' : lab?.kind === 'phase' ? 'line-to-neutral' : undefined;
 		const level = readLevel(v.rmsV, systems);
 		const byLevel = level.reading;
 		if (byName && byLevel && byName !== byLevel) {
@@ -87,18 +99,40 @@ export function detectLineToLineVoltages(voltages: readonly VoltageChannelLevel[
 		return { name: v.name, reading, ...(byName ? { byName } : {}), ...(byLevel ? { byLevel } : {}) };
 	});
 	const kinds = new Set(channels.map((c) => c.reading).filter((r) => r !== 'unknown'));
-	const verdict: LineToLineDetection['verdict'] = kinds.size === 0 ? 'unknown' : kinds.size === 2 ? 'mixed' : [...kinds][0] === 'line-to-line' ? 'line-to-line' : 'line-to-neutral';
+	const verdict: LineToLineDetection['verdict'] =
+		kinds.size === 0
+			? 'unknown'
+			: kinds.size === 2
+				? 'mixed'
+				: [...kinds][0] === 'line-to-line'
+					? 'line-to-line'
+					: 'line-to-neutral';
 	if (verdict === 'line-to-line') {
-		diagnostics.push({ code: 'voltages-line-to-line', severity: 'info', message: `the capture holds line-to-line voltages (${channels.map((c) => c.name).join(', ')}): phase powers need line-to-neutral voltages; unbalance is given from line voltages (VUF, LVUR).` });
+		diagnostics.push({
+			code: 'voltages-line-to-line',
+			severity: 'info',
+			message: `the capture holds line-to-line voltages (${channels.map((c) => c.name).join(', ')}): phase powers need line-to-neutral voltages; unbalance is given from line voltages (VUF, LVUR).`,
+		});
 	} else if (verdict === 'mixed') {
-		diagnostics.push({ code: 'voltages-mixed', severity: 'info', message: `the capture holds both line-to-line (${channels.filter((c) => c.reading === 'line-to-line').map((c) => c.name).join(', ')}) and line-to-neutral voltages.` });
+		diagnostics.push({
+			code: 'voltages-mixed',
+			severity: 'info',
+			message: `the capture holds both line-to-line (${channels
+				.filter((c) => c.reading === 'line-to-line')
+				.map((c) => c.name)
+				.join(', ')}) and line-to-neutral voltages.`,
+		});
 	}
 	const ph = voltages.map((v) => v.phasor).filter((p): p is ComplexPhasor => p !== undefined);
 	if (ph.length === 3) {
 		const s = symmetricalComponents(ph[0], ph[1], ph[2]);
 		const ratio = s.positiveRms + s.negativeRms > 0 ? (100 * s.zeroRms) / Math.max(s.positiveRms, s.negativeRms) : NaN;
 		if (ratio < 0.1 && verdict !== 'line-to-line') {
-			diagnostics.push({ code: 'voltages-sum-to-zero', severity: 'info', message: `the three voltages sum to zero within ${ratio.toFixed(3)} %: line-to-line voltages always do; line-to-neutral voltages only on a perfectly balanced supply.` });
+			diagnostics.push({
+				code: 'voltages-sum-to-zero',
+				severity: 'info',
+				message: `the three voltages sum to zero within ${ratio.toFixed(3)} %: line-to-line voltages always do; line-to-neutral voltages only on a perfectly balanced supply.`,
+			});
 		}
 	}
 	return { verdict, channels, diagnostics };
@@ -129,11 +163,17 @@ export const LINE_VOLTAGE_AGREEMENT_PERCENT = 2;
 export function starDeltaHints(e: StarDeltaEvidence): Diagnostic[] {
 	const out: Diagnostic[] = [];
 	if (e.phaseVoltages) {
-		const derived: [ComplexPhasor, ComplexPhasor, ComplexPhasor] = [phasorSub(e.phaseVoltages[0], e.phaseVoltages[1]), phasorSub(e.phaseVoltages[1], e.phaseVoltages[2]), phasorSub(e.phaseVoltages[2], e.phaseVoltages[0])];
+		const derived: [ComplexPhasor, ComplexPhasor, ComplexPhasor] = [
+			phasorSub(e.phaseVoltages[0], e.phaseVoltages[1]),
+			phasorSub(e.phaseVoltages[1], e.phaseVoltages[2]),
+			phasorSub(e.phaseVoltages[2], e.phaseVoltages[0]),
+		];
 		const c = sqrt3Check(e.phaseVoltages, derived);
 		out.push({ code: 'star-sqrt3-check', severity: c.consistent ? 'info' : 'warning', message: c.sentence });
 		if (e.lineVoltages) {
-			const dev = [0, 1, 2].map((k) => (100 * phasorAbs(phasorSub(e.lineVoltages![k], derived[k]))) / phasorAbs(derived[k]));
+			const dev = [0, 1, 2].map(
+				(k) => (100 * phasorAbs(phasorSub(e.lineVoltages![k], derived[k]))) / phasorAbs(derived[k]),
+			);
 			const worst = maxOf(dev);
 			out.push({
 				code: 'line-voltage-agreement',
@@ -150,7 +190,11 @@ export function starDeltaHints(e: StarDeltaEvidence): Diagnostic[] {
 		const major = Math.max(s.positiveRms, s.negativeRms);
 		const inPercent = major > 0 ? (100 * 3 * s.zeroRms) / major : NaN;
 		if (inPercent < 1) {
-			out.push({ code: 'currents-sum-to-zero', severity: 'info', message: `the line currents sum to ${inPercent.toFixed(2)} % of the dominant sequence current: a 3-wire connection (delta, or star without neutral), or a balanced star.` });
+			out.push({
+				code: 'currents-sum-to-zero',
+				severity: 'info',
+				message: `the line currents sum to ${inPercent.toFixed(2)} % of the dominant sequence current: a 3-wire connection (delta, or star without neutral), or a balanced star.`,
+			});
 		} else if (inPercent >= 1) {
 			out.push({
 				code: 'currents-leave-neutral-current',
@@ -159,10 +203,16 @@ export function starDeltaHints(e: StarDeltaEvidence): Diagnostic[] {
 			});
 		}
 		if (e.phaseVoltages) {
-			const th = [0, 1, 2].map((k) => wrapAngleDeg(phasorArgDeg(e.phaseVoltages![k]) - phasorArgDeg(e.lineCurrents![k])));
+			const th = [0, 1, 2].map((k) =>
+				wrapAngleDeg(phasorArgDeg(e.phaseVoltages![k]) - phasorArgDeg(e.lineCurrents![k])),
+			);
 			const mean = (th[0] + th[1] + th[2]) / 3;
 			if (maxOf(th) - minOf(th) < 5 && Math.abs(Math.abs(mean) - 30) < 3) {
-				out.push({ code: 'angles-near-30', severity: 'info', message: `voltage/current angles are all ${mean.toFixed(1)} deg: a load with PF 0.87, or voltages measured line-to-line (which shifts every angle by 30 deg) on a resistive load.` });
+				out.push({
+					code: 'angles-near-30',
+					severity: 'info',
+					message: `voltage/current angles are all ${mean.toFixed(1)} deg: a load with PF 0.87, or voltages measured line-to-line (which shifts every angle by 30 deg) on a resistive load.`,
+				});
 			}
 		}
 	}

@@ -3,9 +3,19 @@
  * set on it, then rotation, sequence components, unbalance, line voltages, IEEE 1459 power and the neutral.
  */
 import type { Diagnostic } from '../capture.js';
-import { harmonicSetsOnReferenceWindow, type AnalysedWindow, type FromSamplesOptions, type PowerSampleFailure } from '../power/from-samples.js';
+import {
+	harmonicSetsOnReferenceWindow,
+	type AnalysedWindow,
+	type FromSamplesOptions,
+	type PowerSampleFailure,
+} from '../power/from-samples.js';
 import { phasorAbs, phasorAdd, phasorFromHarmonic, phasorSub, type ComplexPhasor } from '../phasor/phasor.js';
-import { threePhasePowerFromHarmonics, type PowerWiring, type ThreePhaseInputPhase, type ThreePhasePower } from '../power/three-phase.js';
+import {
+	threePhasePowerFromHarmonics,
+	type PowerWiring,
+	type ThreePhaseInputPhase,
+	type ThreePhasePower,
+} from '../power/three-phase.js';
 import { activePowerFromSamplesW, powerWindowRms } from '../power/sample-span.js';
 import type { HarmonicSet } from '../spectrum/types.js';
 import { starDeltaHints } from './connection.js';
@@ -61,13 +71,23 @@ export interface ThreePhaseAnalysis {
  * @throws RangeError for channels of unequal length
  * @example threePhaseFromSamples({ voltages: [u1, u2, u3], currents: [i1, i2, i3] }, 10_000).voltageUnbalance.vufPercent // 2.7699 for docs/methods.md §5.4
  */
-export function threePhaseFromSamples(input: ThreePhaseSamples, sampleRateHz: number, opts: FromSamplesOptions = {}): ThreePhaseAnalysis | PowerSampleFailure {
+export function threePhaseFromSamples(
+	input: ThreePhaseSamples,
+	sampleRateHz: number,
+	opts: FromSamplesOptions = {},
+): ThreePhaseAnalysis | PowerSampleFailure {
 	const diagnostics: Diagnostic[] = [];
 	const wiring = input.wiring ?? '4-wire';
-	if (!input.wiring) diagnostics.push({ code: 'wiring-assumed', severity: 'assumption', message: 'wiring not given: taken as 4-wire (three lines and neutral) for the IEEE 1459 effective values.' });
+	if (!input.wiring)
+		diagnostics.push({
+			code: 'wiring-assumed',
+			severity: 'assumption',
+			message: 'wiring not given: taken as 4-wire (three lines and neutral) for the IEEE 1459 effective values.',
+		});
 	const currents = input.currents;
 	const computeNeutral = currents && !input.neutralCurrent && wiring === '4-wire';
-	const neutral = input.neutralCurrent ?? (computeNeutral ? sumPhaseCurrents(currents[0], currents[1], currents[2]) : undefined);
+	const neutral =
+		input.neutralCurrent ?? (computeNeutral ? sumPhaseCurrents(currents[0], currents[1], currents[2]) : undefined);
 	const all = [...input.voltages, ...(currents ?? []), ...(neutral ? [neutral] : [])];
 	const r = harmonicSetsOnReferenceWindow(input.voltages[0], all, sampleRateHz, opts);
 	if (!r.ok) return r;
@@ -77,7 +97,9 @@ export function threePhaseFromSamples(input: ThreePhaseSamples, sampleRateHz: nu
 	const nSet = neutral ? r.sets[r.sets.length - 1] : undefined;
 	const v1 = vSets.map((s) => phasorFromHarmonic(s.orders[1])) as Three<ComplexPhasor>;
 	const ll = lineVoltagePhasors(v1[0], v1[1], v1[2]);
-	const lineVoltageRmsV = [0, 1, 2].map((k) => powerWindowRms(lineToLineSamples(input.voltages[k], input.voltages[(k + 1) % 3]), w)) as Three<number>;
+	const lineVoltageRmsV = [0, 1, 2].map((k) =>
+		powerWindowRms(lineToLineSamples(input.voltages[k], input.voltages[(k + 1) % 3]), w),
+	) as Three<number>;
 	const out: ThreePhaseAnalysis = {
 		ok: true,
 		window: w,
@@ -102,11 +124,20 @@ export function threePhaseFromSamples(input: ThreePhaseSamples, sampleRateHz: nu
 			[0, 1, 2].map((k) => ({
 				voltage: vSets[k],
 				current: iSets[k],
-				totals: { voltageRmsV: powerWindowRms(input.voltages[k], w), currentRmsA: iRms[k], activePowerW: activePowerFromSamplesW(input.voltages[k], currents[k], w) },
+				totals: {
+					voltageRmsV: powerWindowRms(input.voltages[k], w),
+					currentRmsA: iRms[k],
+					activePowerW: activePowerFromSamplesW(input.voltages[k], currents[k], w),
+				},
 			})) as Three<ThreePhaseInputPhase>,
-			{ lineVoltageRmsV, neutralCurrentRmsA: neutralRmsA, ...(input.neutralCurrent && nSet ? { neutralCurrent: nSet } : {}) },
+			{
+				lineVoltageRmsV,
+				neutralCurrentRmsA: neutralRmsA,
+				...(input.neutralCurrent && nSet ? { neutralCurrent: nSet } : {}),
+			},
 		);
-		if (neutral && nSet) out.neutral = neutralCurrentFigures(input.neutralCurrent ? 'measured' : 'computed', neutralRmsA, iRms, nSet);
+		if (neutral && nSet)
+			out.neutral = neutralCurrentFigures(input.neutralCurrent ? 'measured' : 'computed', neutralRmsA, iRms, nSet);
 		if (input.neutralCurrent && nSet) {
 			// a measured neutral should match the sum of the line currents (fundamental phasors, same window);
 			// either clamp orientation is accepted, since the neutral's reference direction varies between setups
@@ -122,7 +153,9 @@ export function threePhaseFromSamples(input: ThreePhaseSamples, sampleRateHz: nu
 				});
 			}
 		}
-		diagnostics.push(...starDeltaHints({ phaseVoltages: v1, lineCurrents: i1, ...(input.wiring ? { wiring: input.wiring } : {}) }));
+		diagnostics.push(
+			...starDeltaHints({ phaseVoltages: v1, lineCurrents: i1, ...(input.wiring ? { wiring: input.wiring } : {}) }),
+		);
 	} else {
 		diagnostics.push(...starDeltaHints({ phaseVoltages: v1 }));
 	}

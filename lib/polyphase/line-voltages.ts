@@ -9,7 +9,8 @@ import { phasorAbs, phasorArgDeg, phasorSub, wrapAngleDeg, type ComplexPhasor } 
  * @example lineToLineSamples(u1, u2) // 400 V RMS from two 230 V phases 120° apart
  */
 export function lineToLineSamples(from: Float64Array, to: Float64Array): Float64Array {
-	if (from.length !== to.length) throw new RangeError(`channels differ in length: ${from.length} vs ${to.length} samples`);
+	if (from.length !== to.length)
+		throw new RangeError(`channels differ in length: ${from.length} vs ${to.length} samples`);
 	const out = new Float64Array(from.length);
 	for (let i = 0; i < out.length; i++) out[i] = from[i] - to[i];
 	return out;
@@ -19,7 +20,11 @@ export function lineToLineSamples(from: Float64Array, to: Float64Array): Float64
  * Line-to-line phasors V12 = V1 − V2, V23 = V2 − V3, V31 = V3 − V1 from line-to-neutral phasors.
  * @example lineVoltagePhasors(230∠0°, 230∠−120°, 230∠120°)[0] // 398.37∠30°
  */
-export function lineVoltagePhasors(v1: ComplexPhasor, v2: ComplexPhasor, v3: ComplexPhasor): [ComplexPhasor, ComplexPhasor, ComplexPhasor] {
+export function lineVoltagePhasors(
+	v1: ComplexPhasor,
+	v2: ComplexPhasor,
+	v3: ComplexPhasor,
+): [ComplexPhasor, ComplexPhasor, ComplexPhasor] {
 	return [phasorSub(v1, v2), phasorSub(v2, v3), phasorSub(v3, v1)];
 }
 
@@ -55,9 +60,16 @@ export interface Sqrt3Check {
  * @returns ratios NaN where a phase voltage is zero
  * @example sqrt3Check([230∠0°, 230∠−120°, 230∠120°], lineVoltagePhasors(...)).consistent // true
  */
-export function sqrt3Check(phase: [ComplexPhasor, ComplexPhasor, ComplexPhasor], line: [ComplexPhasor, ComplexPhasor, ComplexPhasor]): Sqrt3Check {
+export function sqrt3Check(
+	phase: [ComplexPhasor, ComplexPhasor, ComplexPhasor],
+	line: [ComplexPhasor, ComplexPhasor, ComplexPhasor],
+): Sqrt3Check {
 	const ratios = [0, 1, 2].map((k) => phasorAbs(line[k]) / phasorAbs(phase[k])) as [number, number, number];
-	const leadDeg = [0, 1, 2].map((k) => wrapAngleDeg(phasorArgDeg(line[k]) - phasorArgDeg(phase[k]))) as [number, number, number];
+	const leadDeg = [0, 1, 2].map((k) => wrapAngleDeg(phasorArgDeg(line[k]) - phasorArgDeg(phase[k]))) as [
+		number,
+		number,
+		number,
+	];
 	const meanRatio = (ratios[0] + ratios[1] + ratios[2]) / 3;
 	const deviationPercent = (100 * (meanRatio - Math.sqrt(3))) / Math.sqrt(3);
 	const ratiosOk = ratios.every((r) => Math.abs(r / Math.sqrt(3) - 1) * 100 <= SQRT3_RATIO_TOLERANCE_PERCENT);

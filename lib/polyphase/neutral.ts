@@ -13,7 +13,8 @@ import { maxOf } from '../signal/extremes.js';
  * @throws RangeError for arrays of unequal length
  */
 export function sumPhaseCurrents(i1: Float64Array, i2: Float64Array, i3: Float64Array): Float64Array {
-	if (i1.length !== i2.length || i1.length !== i3.length) throw new RangeError(`current channels differ in length: ${i1.length}, ${i2.length}, ${i3.length} samples`);
+	if (i1.length !== i2.length || i1.length !== i3.length)
+		throw new RangeError(`current channels differ in length: ${i1.length}, ${i2.length}, ${i3.length} samples`);
 	const out = new Float64Array(i1.length);
 	for (let n = 0; n < out.length; n++) out[n] = i1[n] + i2[n] + i3[n];
 	return out;
@@ -25,13 +26,21 @@ export function sumPhaseCurrents(i1: Float64Array, i2: Float64Array, i3: Float64
  * @throws RangeError when the sets come from different windows
  */
 export function sumHarmonicSets(a: HarmonicSet, b: HarmonicSet, c: HarmonicSet): HarmonicSet {
-	if (a.startS !== b.startS || a.startS !== c.startS || a.fundamentalHz !== b.fundamentalHz || a.fundamentalHz !== c.fundamentalHz) {
+	if (
+		a.startS !== b.startS ||
+		a.startS !== c.startS ||
+		a.fundamentalHz !== b.fundamentalHz ||
+		a.fundamentalHz !== c.fundamentalHz
+	) {
 		throw new RangeError('harmonic sets come from different windows: their phasors cannot be added');
 	}
 	const n = Math.min(a.orders.length, b.orders.length, c.orders.length);
 	const orders = [];
 	for (let h = 0; h < n; h++) {
-		const s = phasorAdd(phasorAdd(phasorFromHarmonic(a.orders[h]), phasorFromHarmonic(b.orders[h])), phasorFromHarmonic(c.orders[h]));
+		const s = phasorAdd(
+			phasorAdd(phasorFromHarmonic(a.orders[h]), phasorFromHarmonic(b.orders[h])),
+			phasorFromHarmonic(c.orders[h]),
+		);
 		const rms = phasorAbs(s);
 		// order 0 keeps the DC convention of HarmonicPhasor: 0° for a positive mean, 180° for a negative one
 		orders.push({ order: h, rms, phaseDeg: rms === 0 ? NaN : phasorArgDeg(s) });
@@ -73,7 +82,12 @@ export interface NeutralCurrentFigures {
  * @returns percentages NaN when the phase currents are all zero
  * @example neutralCurrentFigures('computed', 9.0, [10.44, 10.44, 10.44], set).triplenPercentOfNeutral // 100 for 3 A of 3rd per phase
  */
-export function neutralCurrentFigures(source: 'measured' | 'computed', neutralRmsA: number, phaseRmsA: [number, number, number], neutralSet?: HarmonicSet): NeutralCurrentFigures {
+export function neutralCurrentFigures(
+	source: 'measured' | 'computed',
+	neutralRmsA: number,
+	phaseRmsA: [number, number, number],
+	neutralSet?: HarmonicSet,
+): NeutralCurrentFigures {
 	const mean = (phaseRmsA[0] + phaseRmsA[1] + phaseRmsA[2]) / 3;
 	const max = maxOf(phaseRmsA);
 	let triplenSq = 0;
@@ -97,7 +111,19 @@ export function neutralCurrentFigures(source: 'measured' | 'computed', neutralRm
 	const triplenPercentOfNeutral = neutralRmsA > 0 ? (100 * triplenRmsA) / neutralRmsA : NaN;
 	const what = source === 'measured' ? 'measured neutral current' : 'neutral current (sum of the phase currents)';
 	let sentence = `${what} ${neutralRmsA.toFixed(2)} A RMS = ${percentOfMaxPhase.toFixed(0)} % of the largest phase current`;
-	if (neutralSet && neutralRmsA > 0) sentence += `; triplen harmonics make up ${triplenPercentOfNeutral.toFixed(0)} % of it${largestTriplenOrder ? ` (largest: order ${largestTriplenOrder}, ${largestTriplenRmsA.toFixed(2)} A)` : ''}`;
+	if (neutralSet && neutralRmsA > 0)
+		sentence += `; triplen harmonics make up ${triplenPercentOfNeutral.toFixed(0)} % of it${largestTriplenOrder ? ` (largest: order ${largestTriplenOrder}, ${largestTriplenRmsA.toFixed(2)} A)` : ''}`;
 	if (percentOfMaxPhase > 100) sentence += '; the neutral carries more than any phase: check its cross-section';
-	return { source, neutralRmsA, percentOfMeanPhase, percentOfMaxPhase, fundamentalRmsA, triplenRmsA, triplenPercentOfNeutral, largestTriplenOrder, largestTriplenRmsA, sentence };
+	return {
+		source,
+		neutralRmsA,
+		percentOfMeanPhase,
+		percentOfMaxPhase,
+		fundamentalRmsA,
+		triplenRmsA,
+		triplenPercentOfNeutral,
+		largestTriplenOrder,
+		largestTriplenRmsA,
+		sentence,
+	};
 }

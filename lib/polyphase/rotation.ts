@@ -46,8 +46,13 @@ export function phaseRotation(xa: ComplexPhasor, xb: ComplexPhasor, xc: ComplexP
 	const ratio = major > 0 ? Math.min(p, n) / major : NaN;
 	const bMinusADeg = wrapAngleDeg(phasorArgDeg(xb) - phasorArgDeg(xa));
 	const cMinusADeg = wrapAngleDeg(phasorArgDeg(xc) - phasorArgDeg(xa));
-	const clarity: PhaseRotation['clarity'] = ratio < ROTATION_CLEAR_RATIO ? 'clear' : ratio < ROTATION_UNDETERMINED_RATIO ? 'probable' : 'doubtful';
-	const rotation: PhaseRotation['rotation'] = !(ratio < ROTATION_UNDETERMINED_RATIO) ? 'undetermined' : p > n ? 'positive' : 'negative';
+	const clarity: PhaseRotation['clarity'] =
+		ratio < ROTATION_CLEAR_RATIO ? 'clear' : ratio < ROTATION_UNDETERMINED_RATIO ? 'probable' : 'doubtful';
+	const rotation: PhaseRotation['rotation'] = !(ratio < ROTATION_UNDETERMINED_RATIO)
+		? 'undetermined'
+		: p > n
+			? 'positive'
+			: 'negative';
 	const pct = (100 * ratio).toFixed(1);
 	const sentence =
 		rotation === 'undetermined'
@@ -55,5 +60,14 @@ export function phaseRotation(xa: ComplexPhasor, xb: ComplexPhasor, xc: ComplexP
 			: rotation === 'positive'
 				? `positive rotation (phase 2 lags phase 1 by ${(-bMinusADeg).toFixed(1)} deg); negative sequence is ${pct} % of positive (${clarity})`
 				: `negative rotation: two phases are swapped (phase 2 leads phase 1 by ${bMinusADeg.toFixed(1)} deg); positive sequence is ${pct} % of negative (${clarity})`;
-	return { rotation, clarity, positiveRms: p, negativeRms: n, minorToMajorRatio: ratio, bMinusADeg, cMinusADeg, sentence };
+	return {
+		rotation,
+		clarity,
+		positiveRms: p,
+		negativeRms: n,
+		minorToMajorRatio: ratio,
+		bMinusADeg,
+		cMinusADeg,
+		sentence,
+	};
 }

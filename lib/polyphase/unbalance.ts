@@ -25,8 +25,13 @@ const ROTATION_NOTE: Record<MeasuredRotation, string> = {
 };
 
 /** The dominant (major) and the other (minor) of |X1| and |X2|, and which one dominates. */
-function dominantSequence(positiveRms: number, negativeRms: number): { major: number; minor: number; measuredRotation: MeasuredRotation } {
-	return negativeRms > positiveRms ? { major: negativeRms, minor: positiveRms, measuredRotation: 'negative' } : { major: positiveRms, minor: negativeRms, measuredRotation: 'positive' };
+function dominantSequence(
+	positiveRms: number,
+	negativeRms: number,
+): { major: number; minor: number; measuredRotation: MeasuredRotation } {
+	return negativeRms > positiveRms
+		? { major: negativeRms, minor: positiveRms, measuredRotation: 'negative' }
+		: { major: positiveRms, minor: negativeRms, measuredRotation: 'positive' };
 }
 
 /** NEMA-style rate: max |x − mean| / mean × 100 over three magnitudes. NaN when the mean is 0. */
@@ -48,27 +53,44 @@ export function maxDeviationFromMeanPercent(a: number, b: number, c: number): nu
  * @returns betaRatio in [1/3, 1/2]; vufPercent NaN when β is outside that range (magnitudes that cannot close a triangle)
  * @example lineMagnitudeUnbalance(460, 467, 450) // { betaRatio: 0.33364020, vufPercent: 2.1465, lvurPercent: 1.9608, ... }
  */
-export function lineMagnitudeUnbalance(u12: number, u23: number, u31: number): { betaRatio: number; vufPercent: number; lvurPercent: number; figures: UnbalanceFigure[] } {
+export function lineMagnitudeUnbalance(
+	u12: number,
+	u23: number,
+	u31: number,
+): { betaRatio: number; vufPercent: number; lvurPercent: number; figures: UnbalanceFigure[] } {
 	const s2 = u12 * u12 + u23 * u23 + u31 * u31;
 	const betaRatio = s2 > 0 ? (u12 ** 4 + u23 ** 4 + u31 ** 4) / (s2 * s2) : NaN;
 	const root = 3 - 6 * betaRatio;
 	const r = root >= 0 ? Math.sqrt(root) : NaN;
 	// β slightly under 1/3 happens only through rounding of a perfectly balanced set: treat as 0 %.
-	const vufPercent = betaRatio > 0.5 + 1e-12 ? NaN : Number.isNaN(r) ? NaN : 100 * Math.sqrt(Math.max(0, (1 - r) / (1 + r)));
+	const vufPercent =
+		betaRatio > 0.5 + 1e-12 ? NaN : Number.isNaN(r) ? NaN : 100 * Math.sqrt(Math.max(0, (1 - r) / (1 + r)));
 	const lvurPercent = maxDeviationFromMeanPercent(u12, u23, u31);
 	return {
 		betaRatio,
 		vufPercent,
 		lvurPercent,
 		figures: [
-			{ code: 'vuf-beta', name: 'VUF from line magnitudes (IEC β formula)', definition: '√((1 − √(3 − 6β)) / (1 + √(3 − 6β))), β = ΣU⁴/(ΣU²)² over the three line voltages', reference: 'IEC 61000-4-30:2015, 5.7.2 (from memory)', percent: vufPercent },
+			{
+				code: 'vuf-beta',
+				name: 'VUF from line magnitudes (IEC β formula)',
+				definition: '√((1 − √(3 − 6β)) / (1 + √(3 − 6β))), β = ΣU⁴/(ΣU²)² over the three line voltages',
+				reference: 'IEC 61000-4-30:2015, 5.7.2 (from memory)',
+				percent: vufPercent,
+			},
 			lvurFigure(lvurPercent),
 		],
 	};
 }
 
 function lvurFigure(percent: number): UnbalanceFigure {
-	return { code: 'lvur-nema', name: 'LVUR (NEMA line-voltage unbalance rate)', definition: 'max deviation of the line-voltage magnitudes from their average / average', reference: 'NEMA MG 1, 14.35 (from memory)', percent };
+	return {
+		code: 'lvur-nema',
+		name: 'LVUR (NEMA line-voltage unbalance rate)',
+		definition: 'max deviation of the line-voltage magnitudes from their average / average',
+		reference: 'NEMA MG 1, 14.35 (from memory)',
+		percent,
+	};
 }
 
 /**
@@ -116,7 +138,11 @@ export function voltageUnbalance(va: ComplexPhasor, vb: ComplexPhasor, vc: Compl
 	const avg = (ma + mb + mc) / 3;
 	const pvurPercent = maxDeviationFromMeanPercent(ma, mb, mc);
 	const pvurMaxMinPercent = avg > 0 ? (100 * (Math.max(ma, mb, mc) - Math.min(ma, mb, mc))) / avg : NaN;
-	const line = lineMagnitudeUnbalance(phasorAbs(phasorSub(va, vb)), phasorAbs(phasorSub(vb, vc)), phasorAbs(phasorSub(vc, va)));
+	const line = lineMagnitudeUnbalance(
+		phasorAbs(phasorSub(va, vb)),
+		phasorAbs(phasorSub(vb, vc)),
+		phasorAbs(phasorSub(vc, va)),
+	);
 	return {
 		vufPercent,
 		zeroSequencePercent,
@@ -125,11 +151,35 @@ export function voltageUnbalance(va: ComplexPhasor, vb: ComplexPhasor, vc: Compl
 		pvurPercent,
 		pvurMaxMinPercent,
 		figures: [
-			{ code: 'vuf-iec', name: 'VUF (IEC negative-sequence unbalance u2)', definition: `|V2| / |V1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`, reference: 'IEC 61000-4-30:2015, 5.7.1; EN 50160 (from memory)', percent: vufPercent },
-			{ code: 'zero-sequence-ratio', name: 'Zero-sequence unbalance u0', definition: `|V0| / |V1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`, reference: 'IEC 61000-4-30:2015, 5.7.1 (from memory)', percent: zeroSequencePercent },
+			{
+				code: 'vuf-iec',
+				name: 'VUF (IEC negative-sequence unbalance u2)',
+				definition: `|V2| / |V1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`,
+				reference: 'IEC 61000-4-30:2015, 5.7.1; EN 50160 (from memory)',
+				percent: vufPercent,
+			},
+			{
+				code: 'zero-sequence-ratio',
+				name: 'Zero-sequence unbalance u0',
+				definition: `|V0| / |V1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`,
+				reference: 'IEC 61000-4-30:2015, 5.7.1 (from memory)',
+				percent: zeroSequencePercent,
+			},
 			...line.figures,
-			{ code: 'pvur-ieee', name: 'PVUR (IEEE phase-voltage unbalance rate)', definition: 'max deviation of the phase-voltage magnitudes from their average / average', reference: 'IEEE Std 141 (from memory); Pillay & Manyage 2001 (from memory)', percent: pvurPercent },
-			{ code: 'pvur-ieee-max-min', name: 'PVUR, older IEEE variant', definition: '(max − min) of the phase-voltage magnitudes / average', reference: 'older IEEE texts (from memory)', percent: pvurMaxMinPercent },
+			{
+				code: 'pvur-ieee',
+				name: 'PVUR (IEEE phase-voltage unbalance rate)',
+				definition: 'max deviation of the phase-voltage magnitudes from their average / average',
+				reference: 'IEEE Std 141 (from memory); Pillay & Manyage 2001 (from memory)',
+				percent: pvurPercent,
+			},
+			{
+				code: 'pvur-ieee-max-min',
+				name: 'PVUR, older IEEE variant',
+				definition: '(max − min) of the phase-voltage magnitudes / average',
+				reference: 'older IEEE texts (from memory)',
+				percent: pvurMaxMinPercent,
+			},
 		],
 	};
 }
@@ -139,7 +189,11 @@ export function voltageUnbalance(va: ComplexPhasor, vb: ComplexPhasor, vc: Compl
  * Line voltages carry no zero sequence, so only VUF = |V2|/|V1| and NEMA LVUR are defined.
  * @example lineVoltageUnbalance(u12, u23, u31).vufPercent // 2.1465 for the 460/467/450 V triangle
  */
-export function lineVoltageUnbalance(v12: ComplexPhasor, v23: ComplexPhasor, v31: ComplexPhasor): { vufPercent: number; lvurPercent: number; measuredRotation: MeasuredRotation; figures: UnbalanceFigure[] } {
+export function lineVoltageUnbalance(
+	v12: ComplexPhasor,
+	v23: ComplexPhasor,
+	v31: ComplexPhasor,
+): { vufPercent: number; lvurPercent: number; measuredRotation: MeasuredRotation; figures: UnbalanceFigure[] } {
 	const seq = symmetricalComponents(v12, v23, v31);
 	const { major, minor, measuredRotation } = dominantSequence(seq.positiveRms, seq.negativeRms);
 	const vufPercent = major > 0 ? (100 * minor) / major : NaN;
@@ -149,7 +203,13 @@ export function lineVoltageUnbalance(v12: ComplexPhasor, v23: ComplexPhasor, v31
 		lvurPercent,
 		measuredRotation,
 		figures: [
-			{ code: 'vuf-iec', name: 'VUF (IEC negative-sequence unbalance u2)', definition: `|V2| / |V1| of the fundamental line-voltage phasors${ROTATION_NOTE[measuredRotation]}`, reference: 'IEC 61000-4-30:2015, 5.7.1 (from memory)', percent: vufPercent },
+			{
+				code: 'vuf-iec',
+				name: 'VUF (IEC negative-sequence unbalance u2)',
+				definition: `|V2| / |V1| of the fundamental line-voltage phasors${ROTATION_NOTE[measuredRotation]}`,
+				reference: 'IEC 61000-4-30:2015, 5.7.1 (from memory)',
+				percent: vufPercent,
+			},
 			lvurFigure(lvurPercent),
 		],
 	};
@@ -160,7 +220,17 @@ export function lineVoltageUnbalance(v12: ComplexPhasor, v23: ComplexPhasor, v31
  * @returns negative- and zero-sequence ratios |I2|/|I1|, |I0|/|I1| and the max deviation of magnitudes, %
  * @example currentUnbalance(10∠−30°, 12∠−150°, 8∠90°).maxDeviationPercent // 20
  */
-export function currentUnbalance(ia: ComplexPhasor, ib: ComplexPhasor, ic: ComplexPhasor): { negativeSequencePercent: number; zeroSequencePercent: number; maxDeviationPercent: number; measuredRotation: MeasuredRotation; figures: UnbalanceFigure[] } {
+export function currentUnbalance(
+	ia: ComplexPhasor,
+	ib: ComplexPhasor,
+	ic: ComplexPhasor,
+): {
+	negativeSequencePercent: number;
+	zeroSequencePercent: number;
+	maxDeviationPercent: number;
+	measuredRotation: MeasuredRotation;
+	figures: UnbalanceFigure[];
+} {
 	const seq = symmetricalComponents(ia, ib, ic);
 	const { major: i1, minor: i2, measuredRotation } = dominantSequence(seq.positiveRms, seq.negativeRms);
 	const negativeSequencePercent = i1 > 0 ? (100 * i2) / i1 : NaN;
@@ -172,9 +242,27 @@ export function currentUnbalance(ia: ComplexPhasor, ib: ComplexPhasor, ic: Compl
 		maxDeviationPercent,
 		measuredRotation,
 		figures: [
-			{ code: 'iuf-negative', name: 'Current unbalance, negative sequence', definition: `|I2| / |I1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`, reference: 'by analogy with IEC 61000-4-30 u2 (common practice)', percent: negativeSequencePercent },
-			{ code: 'iuf-zero', name: 'Current unbalance, zero sequence', definition: '|I0| / |I1| (|I0| = one third of the fundamental neutral current)', reference: 'common practice', percent: zeroSequencePercent },
-			{ code: 'current-max-deviation', name: 'Current unbalance, max deviation from average', definition: 'max deviation of the line-current magnitudes from their average / average', reference: 'NEMA-style rate applied to currents (common practice)', percent: maxDeviationPercent },
+			{
+				code: 'iuf-negative',
+				name: 'Current unbalance, negative sequence',
+				definition: `|I2| / |I1| of the fundamental phasors${ROTATION_NOTE[measuredRotation]}`,
+				reference: 'by analogy with IEC 61000-4-30 u2 (common practice)',
+				percent: negativeSequencePercent,
+			},
+			{
+				code: 'iuf-zero',
+				name: 'Current unbalance, zero sequence',
+				definition: '|I0| / |I1| (|I0| = one third of the fundamental neutral current)',
+				reference: 'common practice',
+				percent: zeroSequencePercent,
+			},
+			{
+				code: 'current-max-deviation',
+				name: 'Current unbalance, max deviation from average',
+				definition: 'max deviation of the line-current magnitudes from their average / average',
+				reference: 'NEMA-style rate applied to currents (common practice)',
+				percent: maxDeviationPercent,
+			},
 		],
 	};
 }

@@ -44,12 +44,28 @@ export function harmonicSetsOnReferenceWindow(
 	sampleRateHz: number,
 	opts: FromSamplesOptions = {},
 ): { ok: true; window: AnalysedWindow; sets: HarmonicSet[] } | PowerSampleFailure {
-	for (const c of channels) if (c.length !== reference.length) throw new RangeError(`channels differ in length: ${c.length} vs ${reference.length} samples`);
-	const w = findWholeCycles(reference, sampleRateHz, { ...(opts.nominalHz ? { nominalHz: opts.nominalHz } : {}), ...(opts.maxCycles ? { maxCycles: opts.maxCycles } : {}) });
+	for (const c of channels)
+		if (c.length !== reference.length)
+			throw new RangeError(`channels differ in length: ${c.length} vs ${reference.length} samples`);
+	const w = findWholeCycles(reference, sampleRateHz, {
+		...(opts.nominalHz ? { nominalHz: opts.nominalHz } : {}),
+		...(opts.maxCycles ? { maxCycles: opts.maxCycles } : {}),
+	});
 	if (!w.ok) return { ok: false, code: w.code, message: w.message };
-	const span: AnalysedWindow = { startIndex: w.startIndex, endIndex: w.endIndex, cycles: w.cycles, frequencyHz: w.frequencyHz };
+	const span: AnalysedWindow = {
+		startIndex: w.startIndex,
+		endIndex: w.endIndex,
+		cycles: w.cycles,
+		frequencyHz: w.frequencyHz,
+	};
 	const sets = channels.map(
-		(c) => harmonicWindow(c, sampleRateHz, { fundamentalHz: span.frequencyHz, startIndex: span.startIndex, cycles: span.cycles, maxOrder: opts.maxOrder ?? MAX_HARMONIC_ORDER }).set,
+		(c) =>
+			harmonicWindow(c, sampleRateHz, {
+				fundamentalHz: span.frequencyHz,
+				startIndex: span.startIndex,
+				cycles: span.cycles,
+				maxOrder: opts.maxOrder ?? MAX_HARMONIC_ORDER,
+			}).set,
 	);
 	return { ok: true, window: span, sets };
 }
@@ -128,5 +144,12 @@ export function singlePhasePowerFromSamples(
 		currentRmsA: powerWindowRms(current, r.window),
 		activePowerW: activePowerFromSamplesW(voltage, current, r.window),
 	});
-	return { ok: true, window: r.window, power, loadCharacter: loadCharacterFromAngle(power.theta1Deg, opts.resistiveBandDeg), voltageSet: r.sets[0], currentSet: r.sets[1] };
+	return {
+		ok: true,
+		window: r.window,
+		power,
+		loadCharacter: loadCharacterFromAngle(power.theta1Deg, opts.resistiveBandDeg),
+		voltageSet: r.sets[0],
+		currentSet: r.sets[1],
+	};
 }

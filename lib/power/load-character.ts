@@ -38,10 +38,17 @@ export interface LoadCharacter {
  * @example loadCharacterFromAngle(36.87).sentence // "inductive load: current lags voltage by 36.9 deg (displacement PF 0.800); resistive band is ±3.0 deg"
  */
 export function loadCharacterFromAngle(theta1Deg: number, resistiveBandDeg = RESISTIVE_BAND_DEG): LoadCharacter {
-	if (!(resistiveBandDeg >= 0 && resistiveBandDeg < 90)) throw new RangeError(`resistiveBandDeg must be in [0, 90), got ${resistiveBandDeg}`);
+	if (!(resistiveBandDeg >= 0 && resistiveBandDeg < 90))
+		throw new RangeError(`resistiveBandDeg must be in [0, 90), got ${resistiveBandDeg}`);
 	const band = `resistive band is ±${resistiveBandDeg.toFixed(1)} deg`;
 	if (Number.isNaN(theta1Deg)) {
-		return { character: 'undetermined', reverseFlow: false, theta1Deg, resistiveBandDeg, sentence: `load character undetermined: no fundamental angle (${band})` };
+		return {
+			character: 'undetermined',
+			reverseFlow: false,
+			theta1Deg,
+			resistiveBandDeg,
+			sentence: `load character undetermined: no fundamental angle (${band})`,
+		};
 	}
 	const t = wrapAngleDeg(theta1Deg);
 	const reverseFlow = Math.abs(t) > 90;
@@ -60,5 +67,11 @@ export function loadCharacterFromAngle(theta1Deg: number, resistiveBandDeg = RES
 		character = 'capacitive';
 		what = `capacitive load: current leads voltage by ${(-t).toFixed(1)} deg`;
 	}
-	return { character, reverseFlow, theta1Deg: t, resistiveBandDeg, sentence: `${what} (displacement PF ${dpf})${flow}; ${band}` };
+	return {
+		character,
+		reverseFlow,
+		theta1Deg: t,
+		resistiveBandDeg,
+		sentence: `${what} (displacement PF ${dpf})${flow}; ${band}`,
+	};
 }

@@ -2,7 +2,15 @@
  * Pairs voltage and current channels of a capture by phase label, with a user override of every pair.
  */
 import type { Channel, Diagnostic } from '../capture.js';
-import { inferPhaseFamily, parsePhaseLabel, phaseDisplayLabel, resolvePhaseToken, type ParsedPhaseLabel, type PhaseFamily, type PhaseIndex } from '../channel-identity.js';
+import {
+	inferPhaseFamily,
+	parsePhaseLabel,
+	phaseDisplayLabel,
+	resolvePhaseToken,
+	type ParsedPhaseLabel,
+	type PhaseFamily,
+	type PhaseIndex,
+} from '../channel-identity.js';
 
 /** A voltage channel and a current channel of the same phase. */
 export interface PowerChannelPair {
@@ -61,25 +69,41 @@ type ChannelInfo = Pick<Channel, 'name' | 'quantity'> & { phase?: string; unit?:
  * @throws RangeError for an override naming an unknown channel or using a channel twice
  * @example pairPowerChannels(capture.channels).pairs // [{ phase: 1, label: 'A', voltage: 'Va', current: 'Ia', origin: 'auto' }, ...]
  */
-export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: readonly PowerPairOverride[] = []): PowerChannelPairing {
+export function pairPowerChannels(
+	channels: readonly ChannelInfo[],
+	overrides: readonly PowerPairOverride[] = [],
+): PowerChannelPairing {
 	const diagnostics: Diagnostic[] = [];
 	const names = new Set(channels.map((c) => c.name));
 	const parsed = new Map<string, ParsedPhaseLabel | undefined>();
-	for (const c of channels) parsed.set(c.name, (c.phase ? parsePhaseLabel(c.phase) : undefined) ?? parsePhaseLabel(c.name));
+	for (const c of channels)
+		parsed.set(c.name, (c.phase ? parsePhaseLabel(c.phase) : undefined) ?? parsePhaseLabel(c.name));
 	const labels = [...parsed.values()].filter((p): p is ParsedPhaseLabel => p !== undefined);
 	const fam = inferPhaseFamily(labels);
 	if (fam.assumed) {
-		diagnostics.push({ code: 'pairing-family-assumed', severity: 'assumption', message: `phase letters are ambiguous; read as ${fam.family === 'ABC' ? 'A/B/C (B = phase 2, not R/Y/B where B = phase 3)' : 'R/S/T'}. Override the pairs if that is wrong.` });
+		diagnostics.push({
+			code: 'pairing-family-assumed',
+			severity: 'assumption',
+			message: `phase letters are ambiguous; read as ${fam.family === 'ABC' ? 'A/B/C (B = phase 2, not R/Y/B where B = phase 3)' : 'R/S/T'}. Override the pairs if that is wrong.`,
+		});
 	}
 	if (fam.conflicting.length > 0) {
-		diagnostics.push({ code: 'pairing-family-mixed', severity: 'warning', message: `channel names mix phase-letter families (${[fam.family, ...fam.conflicting].join(', ')}); letters were read as ${fam.family}.` });
+		diagnostics.push({
+			code: 'pairing-family-mixed',
+			severity: 'warning',
+			message: `channel names mix phase-letter families (${[fam.family, ...fam.conflicting].join(', ')}); letters were read as ${fam.family}.`,
+		});
 	}
 
 	const quantityOf = (c: ChannelInfo): 'voltage' | 'current' | 'other' => {
 		if (c.quantity !== 'other') return c.quantity;
 		const hint = parsed.get(c.name)?.quantityHint;
 		if (hint) {
-			diagnostics.push({ code: 'pairing-quantity-from-name', severity: 'assumption', message: `channel ${c.name} has no V or A unit; taken as a ${hint} channel from its name.` });
+			diagnostics.push({
+				code: 'pairing-quantity-from-name',
+				severity: 'assumption',
+				message: `channel ${c.name} has no V or A unit; taken as a ${hint} channel from its name.`,
+			});
 			return hint;
 		}
 		return 'other';
@@ -89,15 +113,28 @@ export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: r
 	const pairs: PowerChannelPair[] = [];
 	overrides.forEach((o, k) => {
 		for (const n of [o.voltage, o.current]) {
-			if (!names.has(n)) throw new RangeError(`pairing override names channel "${n}", which the capture does not have (it has: ${[...names].join(', ')})`);
+			if (!names.has(n))
+				throw new RangeError(
+					`pairing override names channel "${n}", which the capture does not have (it has: ${[...names].join(', ')})`,
+				);
 			if (used.has(n)) throw new RangeError(`pairing override uses channel "${n}" twice`);
 			used.add(n);
 		}
 		const lab = parsed.get(o.voltage);
 		const fromLabel = lab?.kind === 'phase' ? resolvePhaseToken(lab.tokens[0], fam.family) : undefined;
 		const phase = o.phase ?? fromLabel ?? (((k % 3) + 1) as PhaseIndex);
-		pairs.push({ phase, label: phaseDisplayLabel(phase, fam.family), voltage: o.voltage, current: o.current, origin: 'override' });
-		diagnostics.push({ code: 'pairing-override', severity: 'info', message: `${o.voltage} paired with ${o.current} as phase ${phaseDisplayLabel(phase, fam.family)} (set by the user).` });
+		pairs.push({
+			phase,
+			label: phaseDisplayLabel(phase, fam.family),
+			voltage: o.voltage,
+			current: o.current,
+			origin: 'override',
+		});
+		diagnostics.push({
+			code: 'pairing-override',
+			severity: 'info',
+			message: `${o.voltage} paired with ${o.current} as phase ${phaseDisplayLabel(phase, fam.family)} (set by the user).`,
+		});
 	});
 
 	const phaseVoltages: { phase: PhaseIndex; name: string }[] = [];
@@ -125,7 +162,11 @@ export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: r
 		}
 		const idx = lab.tokens.map((t) => resolvePhaseToken(t, fam.family));
 		if (idx.some((i) => i === undefined)) {
-			diagnostics.push({ code: 'pairing-label-family', severity: 'warning', message: `channel ${c.name}: its phase letter does not belong to the ${fam.family} family the other channels use; not paired.` });
+			diagnostics.push({
+				code: 'pairing-label-family',
+				severity: 'warning',
+				message: `channel ${c.name}: its phase letter does not belong to the ${fam.family} family the other channels use; not paired.`,
+			});
 			continue;
 		}
 		if (lab.kind === 'line-to-line') {
@@ -147,16 +188,32 @@ export function pairPowerChannels(channels: readonly ChannelInfo[], overrides: r
 		if (vs.length === 1 && is.length === 1) {
 			pairs.push({ phase, label, voltage: vs[0].name, current: is[0].name, origin: 'auto' });
 			used.add(vs[0].name).add(is[0].name);
-			diagnostics.push({ code: 'pairing-auto', severity: 'info', message: `${vs[0].name} paired with ${is[0].name} as phase ${label} (matched by phase label).` });
+			diagnostics.push({
+				code: 'pairing-auto',
+				severity: 'info',
+				message: `${vs[0].name} paired with ${is[0].name} as phase ${label} (matched by phase label).`,
+			});
 		} else if (vs.length > 1 || is.length > 1) {
-			diagnostics.push({ code: 'pairing-ambiguous', severity: 'warning', message: `phase ${label} has ${vs.length} voltage and ${is.length} current channels (${[...vs, ...is].map((x) => x.name).join(', ')}); not paired: give the pair explicitly.` });
+			diagnostics.push({
+				code: 'pairing-ambiguous',
+				severity: 'warning',
+				message: `phase ${label} has ${vs.length} voltage and ${is.length} current channels (${[...vs, ...is].map((x) => x.name).join(', ')}); not paired: give the pair explicitly.`,
+			});
 		} else if (vs.length + is.length === 1) {
 			const only = vs[0] ?? is[0];
-			diagnostics.push({ code: 'pairing-missing-partner', severity: 'info', message: `phase ${label} has ${vs.length ? 'a voltage' : 'a current'} channel (${only.name}) but no ${vs.length ? 'current' : 'voltage'} channel: no power for that phase.` });
+			diagnostics.push({
+				code: 'pairing-missing-partner',
+				severity: 'info',
+				message: `phase ${label} has ${vs.length ? 'a voltage' : 'a current'} channel (${only.name}) but no ${vs.length ? 'current' : 'voltage'} channel: no power for that phase.`,
+			});
 		}
 	}
 	if (unlabelled.length > 0) {
-		diagnostics.push({ code: 'pairing-unlabelled', severity: 'info', message: `no phase label could be read from ${unlabelled.join(', ')}; pair them by hand if they belong to a phase.` });
+		diagnostics.push({
+			code: 'pairing-unlabelled',
+			severity: 'info',
+			message: `no phase label could be read from ${unlabelled.join(', ')}; pair them by hand if they belong to a phase.`,
+		});
 	}
 	pairs.sort((a, b) => a.phase - b.phase);
 	return {

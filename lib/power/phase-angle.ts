@@ -52,7 +52,8 @@ export function harmonicLagsDeg(ref: HarmonicSet, other: HarmonicSet): OrderLag[
 	assertSameWindow(ref, other);
 	const n = Math.min(ref.orders.length, other.orders.length);
 	const out: OrderLag[] = [];
-	for (let h = 1; h < n; h++) out.push({ order: h, lagDeg: phaseLagDeg(ref.orders[h].phaseDeg, other.orders[h].phaseDeg) });
+	for (let h = 1; h < n; h++)
+		out.push({ order: h, lagDeg: phaseLagDeg(ref.orders[h].phaseDeg, other.orders[h].phaseDeg) });
 	return out;
 }
 
@@ -67,13 +68,21 @@ export const IN_PHASE_TOLERANCE_DEG = 1;
  * @param toleranceDeg  in-phase band, default IN_PHASE_TOLERANCE_DEG (1°, a typical current-clamp phase error; our choice)
  * @example describePhaseLag('U1', 'I1', 32) // "I1 lags U1 by 32.0 deg"
  */
-export function describePhaseLag(refName: string, otherName: string, lagDeg: number, toleranceDeg = IN_PHASE_TOLERANCE_DEG): string {
+export function describePhaseLag(
+	refName: string,
+	otherName: string,
+	lagDeg: number,
+	toleranceDeg = IN_PHASE_TOLERANCE_DEG,
+): string {
 	if (!(toleranceDeg >= 0)) throw new RangeError(`toleranceDeg must be >= 0, got ${toleranceDeg}`);
-	if (Number.isNaN(lagDeg)) return `the angle between ${refName} and ${otherName} is undefined (one of them has no component at this order)`;
+	if (Number.isNaN(lagDeg))
+		return `the angle between ${refName} and ${otherName} is undefined (one of them has no component at this order)`;
 	const a = wrapAngleDeg(lagDeg);
 	if (Math.abs(a) <= toleranceDeg) return `${otherName} is in phase with ${refName}`;
 	if (180 - Math.abs(a) <= toleranceDeg) return `${otherName} is in antiphase with ${refName}`;
-	return a > 0 ? `${otherName} lags ${refName} by ${a.toFixed(1)} deg` : `${otherName} leads ${refName} by ${(-a).toFixed(1)} deg`;
+	return a > 0
+		? `${otherName} lags ${refName} by ${a.toFixed(1)} deg`
+		: `${otherName} leads ${refName} by ${(-a).toFixed(1)} deg`;
 }
 
 function assertSameWindow(a: HarmonicSet, b: HarmonicSet): void {

@@ -20,7 +20,8 @@ export function checkPowerWindow(span: PowerSampleWindow, length: number): void 
 	if (!(s >= 0 && e > s && e <= length)) {
 		throw new RangeError(`window ${s}..${e} must satisfy 0 <= startIndex < endIndex <= ${length} (samples available)`);
 	}
-	if (!(cycles >= 1) || !Number.isInteger(cycles)) throw new RangeError(`window cycles must be a whole number >= 1, got ${cycles}`);
+	if (!(cycles >= 1) || !Number.isInteger(cycles))
+		throw new RangeError(`window cycles must be a whole number >= 1, got ${cycles}`);
 }
 
 /**
@@ -103,9 +104,14 @@ function continuedPastEnd(f: (n: number) => number, length: number, span: PowerS
 }
 
 export function activePowerFromSamplesW(voltage: Float64Array, current: Float64Array, span: PowerSampleWindow): number {
-	if (voltage.length !== current.length) throw new RangeError(`voltage has ${voltage.length} samples, current ${current.length}`);
+	if (voltage.length !== current.length)
+		throw new RangeError(`voltage has ${voltage.length} samples, current ${current.length}`);
 	checkPowerWindow(span, voltage.length);
-	return windowMean(continuedPastEnd((n) => voltage[n] * current[n], voltage.length, span), span.startIndex, span.endIndex);
+	return windowMean(
+		continuedPastEnd((n) => voltage[n] * current[n], voltage.length, span),
+		span.startIndex,
+		span.endIndex,
+	);
 }
 
 /**
@@ -115,5 +121,11 @@ export function activePowerFromSamplesW(voltage: Float64Array, current: Float64A
  */
 export function powerWindowRms(samples: Float64Array, span: PowerSampleWindow): number {
 	checkPowerWindow(span, samples.length);
-	return Math.sqrt(windowMean(continuedPastEnd((n) => samples[n] * samples[n], samples.length, span), span.startIndex, span.endIndex));
+	return Math.sqrt(
+		windowMean(
+			continuedPastEnd((n) => samples[n] * samples[n], samples.length, span),
+			span.startIndex,
+			span.endIndex,
+		),
+	);
 }

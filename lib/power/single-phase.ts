@@ -138,7 +138,8 @@ export interface TimeDomainTotals {
 export function activePowerFromHarmonicsW(voltage: HarmonicSet, current: HarmonicSet): number {
 	const n = Math.min(voltage.orders.length, current.orders.length);
 	let p = 0;
-	for (let h = 0; h < n; h++) p += complexPower(phasorFromHarmonic(voltage.orders[h]), phasorFromHarmonic(current.orders[h])).re;
+	for (let h = 0; h < n; h++)
+		p += complexPower(phasorFromHarmonic(voltage.orders[h]), phasorFromHarmonic(current.orders[h])).re;
 	return p;
 }
 
@@ -158,7 +159,11 @@ export function rmsFromHarmonicSet(set: HarmonicSet): number {
  * @throws RangeError when a set lacks order 1
  * @example singlePhasePowerFromHarmonics(u, i, { activePowerW: p }).powerFactor // 0.824173 for docs/methods.md §5.3
  */
-export function singlePhasePowerFromHarmonics(voltage: HarmonicSet, current: HarmonicSet, totals: TimeDomainTotals = {}): SinglePhasePower {
+export function singlePhasePowerFromHarmonics(
+	voltage: HarmonicSet,
+	current: HarmonicSet,
+	totals: TimeDomainTotals = {},
+): SinglePhasePower {
 	const v1 = voltage.orders[1];
 	const i1 = current.orders[1];
 	if (!v1 || !i1) throw new RangeError('harmonic sets must hold order 1 (the fundamental)');

@@ -4,8 +4,21 @@
  */
 import type { HarmonicSet } from '../spectrum/types.js';
 import { symmetricalComponents } from '../phasor/sequence.js';
-import { complexPower, phasorAbs, phasorAdd, phasorFromHarmonic, phasorSub, type ComplexPhasor } from '../phasor/phasor.js';
-import { ieee1459FromComponents, activePowerFromHarmonicsW, rmsFromHarmonicSet, type SinglePhasePower, type TimeDomainTotals } from './single-phase.js';
+import {
+	complexPower,
+	phasorAbs,
+	phasorAdd,
+	phasorFromHarmonic,
+	phasorSub,
+	type ComplexPhasor,
+} from '../phasor/phasor.js';
+import {
+	ieee1459FromComponents,
+	activePowerFromHarmonicsW,
+	rmsFromHarmonicSet,
+	type SinglePhasePower,
+	type TimeDomainTotals,
+} from './single-phase.js';
 import { phasorArgDeg, wrapAngleDeg } from '../phasor/phasor.js';
 import { minOf } from '../signal/extremes.js';
 
@@ -125,10 +138,17 @@ export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): Three
 	) as Three<SinglePhasePower>;
 	const v1Mag = c.v1.map(phasorAbs) as Three<number>;
 	const i1Mag = c.i1.map(phasorAbs) as Three<number>;
-	const v1Line = [phasorSub(c.v1[0], c.v1[1]), phasorSub(c.v1[1], c.v1[2]), phasorSub(c.v1[2], c.v1[0])].map(phasorAbs) as Three<number>;
+	const v1Line = [phasorSub(c.v1[0], c.v1[1]), phasorSub(c.v1[1], c.v1[2]), phasorSub(c.v1[2], c.v1[0])].map(
+		phasorAbs,
+	) as Three<number>;
 	const in1 = c.i1Neutral ? phasorAbs(c.i1Neutral) : phasorAbs(phasorAdd(phasorAdd(c.i1[0], c.i1[1]), c.i1[2]));
 	const fourWire = c.wiring === '4-wire';
-	const ve = (ln: Three<number>, ll: Three<number>) => Math.sqrt(fourWire ? (3 * sum(ln.map(sq) as Three<number>) + sum(ll.map(sq) as Three<number>)) / 18 : sum(ll.map(sq) as Three<number>) / 9);
+	const ve = (ln: Three<number>, ll: Three<number>) =>
+		Math.sqrt(
+			fourWire
+				? (3 * sum(ln.map(sq) as Three<number>) + sum(ll.map(sq) as Three<number>)) / 18
+				: sum(ll.map(sq) as Three<number>) / 9,
+		);
 	const ie = (i: Three<number>, n: number) => Math.sqrt((sum(i.map(sq) as Three<number>) + (fourWire ? n * n : 0)) / 3);
 	const Ve = ve(c.voltageRmsV, c.lineVoltageRmsV);
 	const Ie = ie(c.currentRmsA, c.neutralCurrentRmsA);
@@ -142,15 +162,21 @@ export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): Three
 	const asLabelled = symmetricalComponents(c.v1[0], c.v1[1], c.v1[2]);
 	const swap = asLabelled.negativeRms > asLabelled.positiveRms;
 	const vSeq = swap ? symmetricalComponents(c.v1[0], c.v1[2], c.v1[1]) : asLabelled;
-	const iSeq = swap ? symmetricalComponents(c.i1[0], c.i1[2], c.i1[1]) : symmetricalComponents(c.i1[0], c.i1[1], c.i1[2]);
+	const iSeq = swap
+		? symmetricalComponents(c.i1[0], c.i1[2], c.i1[1])
+		: symmetricalComponents(c.i1[0], c.i1[1], c.i1[2]);
 	const s1p = complexPower(vSeq.positive, iSeq.positive);
 	const S1p = 3 * phasorAbs(s1p);
-	const q1 = perPhase[0].fundamentalReactivePowerVar + perPhase[1].fundamentalReactivePowerVar + perPhase[2].fundamentalReactivePowerVar;
+	const q1 =
+		perPhase[0].fundamentalReactivePowerVar +
+		perPhase[1].fundamentalReactivePowerVar +
+		perPhase[2].fundamentalReactivePowerVar;
 	return {
 		wiring: c.wiring,
 		perPhase,
 		activePowerW: P,
-		fundamentalActivePowerW: perPhase[0].fundamentalActivePowerW + perPhase[1].fundamentalActivePowerW + perPhase[2].fundamentalActivePowerW,
+		fundamentalActivePowerW:
+			perPhase[0].fundamentalActivePowerW + perPhase[1].fundamentalActivePowerW + perPhase[2].fundamentalActivePowerW,
 		fundamentalReactivePowerVar: q1,
 		effectiveVoltageV: Ve,
 		effectiveCurrentA: Ie,
@@ -178,7 +204,8 @@ export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): Three
 		effectivePowerFactor: Se > 0 ? P / Se : NaN,
 		positiveSequencePowerFactor: S1p > 0 ? (3 * s1p.re) / S1p : NaN,
 		effectiveHarmonicPollutionRatio: Se1 > 0 ? sqrtPos(Se * Se - Se1 * Se1) / Se1 : NaN,
-		arithmeticApparentPowerVA: c.voltageRmsV[0] * c.currentRmsA[0] + c.voltageRmsV[1] * c.currentRmsA[1] + c.voltageRmsV[2] * c.currentRmsA[2],
+		arithmeticApparentPowerVA:
+			c.voltageRmsV[0] * c.currentRmsA[0] + c.voltageRmsV[1] * c.currentRmsA[1] + c.voltageRmsV[2] * c.currentRmsA[2],
 		vectorApparentPowerVA: Math.hypot(P, q1),
 	};
 }
@@ -206,7 +233,9 @@ export function threePhasePowerFromHarmonics(
 	phases: Three<ThreePhaseInputPhase>,
 	opts: { lineVoltageRmsV?: Three<number>; neutralCurrentRmsA?: number; neutralCurrent?: HarmonicSet } = {},
 ): ThreePhasePower {
-	for (const p of phases) if (!p.voltage.orders[1] || !p.current.orders[1]) throw new RangeError('harmonic sets must hold order 1 (the fundamental)');
+	for (const p of phases)
+		if (!p.voltage.orders[1] || !p.current.orders[1])
+			throw new RangeError('harmonic sets must hold order 1 (the fundamental)');
 	const orders = minOf(phases.flatMap((p) => [p.voltage.orders.length, p.current.orders.length]));
 	const perOrderRms = (f: (h: number) => ComplexPhasor) => {
 		let s = 0;
@@ -218,9 +247,14 @@ export function threePhasePowerFromHarmonics(
 	};
 	const v = (k: number, h: number) => phasorFromHarmonic(phases[k].voltage.orders[h]);
 	const i = (k: number, h: number) => phasorFromHarmonic(phases[k].current.orders[h]);
-	const lineVoltageRmsV = opts.lineVoltageRmsV ?? ([0, 1, 2].map((k) => perOrderRms((h) => phasorSub(v(k, h), v((k + 1) % 3, h)))) as Three<number>);
+	const lineVoltageRmsV =
+		opts.lineVoltageRmsV ??
+		([0, 1, 2].map((k) => perOrderRms((h) => phasorSub(v(k, h), v((k + 1) % 3, h)))) as Three<number>);
 	const neutralCurrentRmsA =
-		opts.neutralCurrentRmsA ?? (opts.neutralCurrent ? rmsFromHarmonicSet(opts.neutralCurrent) : perOrderRms((h) => phasorAdd(phasorAdd(i(0, h), i(1, h)), i(2, h))));
+		opts.neutralCurrentRmsA ??
+		(opts.neutralCurrent
+			? rmsFromHarmonicSet(opts.neutralCurrent)
+			: perOrderRms((h) => phasorAdd(phasorAdd(i(0, h), i(1, h)), i(2, h))));
 	return ieee1459ThreePhaseFromComponents({
 		wiring,
 		voltageRmsV: phases.map((p) => p.totals?.voltageRmsV ?? rmsFromHarmonicSet(p.voltage)) as Three<number>,
@@ -230,7 +264,9 @@ export function threePhasePowerFromHarmonics(
 		v1: [v(0, 1), v(1, 1), v(2, 1)],
 		i1: [i(0, 1), i(1, 1), i(2, 1)],
 		...(opts.neutralCurrent?.orders[1] ? { i1Neutral: phasorFromHarmonic(opts.neutralCurrent.orders[1]) } : {}),
-		activePowerW: phases.map((p) => p.totals?.activePowerW ?? activePowerFromHarmonicsW(p.voltage, p.current)) as Three<number>,
+		activePowerW: phases.map(
+			(p) => p.totals?.activePowerW ?? activePowerFromHarmonicsW(p.voltage, p.current),
+		) as Three<number>,
 	});
 }
 

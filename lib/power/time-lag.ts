@@ -66,7 +66,14 @@ export function crossCorrelationLag(
 		e -= (cycles - maxCycles) * periodSamples;
 		cycles = maxCycles;
 	}
-	const nan: ChannelTimeLag = { lagS: NaN, lagSamples: NaN, lagDeg: NaN, periodS, cyclesUsed: Math.max(cycles, 0), correlationCoefficient: NaN };
+	const nan: ChannelTimeLag = {
+		lagS: NaN,
+		lagSamples: NaN,
+		lagDeg: NaN,
+		periodS,
+		cyclesUsed: Math.max(cycles, 0),
+		correlationCoefficient: NaN,
+	};
 	if (cycles < 1) return nan;
 
 	const { firstIndex: f0, weights } = powerWindowWeights(s, e);
@@ -144,7 +151,13 @@ export function crossCorrelationLag(
 const MAX_PERIOD_SAMPLES = 2048;
 
 /** crossCorrelationLag on both channels block-averaged by M = ⌈P/1024⌉; the lag scaled back by M. */
-function decimatedLag(ref: Float64Array, other: Float64Array, sampleRateHz: number, span: PowerSampleWindow, maxCycles: number): ChannelTimeLag {
+function decimatedLag(
+	ref: Float64Array,
+	other: Float64Array,
+	sampleRateHz: number,
+	span: PowerSampleWindow,
+	maxCycles: number,
+): ChannelTimeLag {
 	const periodSamples = (span.endIndex - span.startIndex) / span.cycles;
 	const block = Math.ceil(periodSamples / 1024);
 	const cycles = Math.min(span.cycles, maxCycles);
@@ -165,7 +178,21 @@ function decimatedLag(ref: Float64Array, other: Float64Array, sampleRateHz: numb
 	const startIndex = Math.max(0, (span.startIndex - first - shift) / block);
 	const periodBlocks = periodSamples / block;
 	const fits = Math.min(cycles, Math.floor((count - 1 - startIndex) / periodBlocks + 1e-9));
-	if (fits < 1) return { lagS: NaN, lagSamples: NaN, lagDeg: NaN, periodS: periodSamples / sampleRateHz, cyclesUsed: 0, correlationCoefficient: NaN };
-	const inner = crossCorrelationLag(mean(ref), mean(other), sampleRateHz / block, { startIndex, endIndex: startIndex + fits * periodBlocks, cycles: fits }, { maxCycles });
+	if (fits < 1)
+		return {
+			lagS: NaN,
+			lagSamples: NaN,
+			lagDeg: NaN,
+			periodS: periodSamples / sampleRateHz,
+			cyclesUsed: 0,
+			correlationCoefficient: NaN,
+		};
+	const inner = crossCorrelationLag(
+		mean(ref),
+		mean(other),
+		sampleRateHz / block,
+		{ startIndex, endIndex: startIndex + fits * periodBlocks, cycles: fits },
+		{ maxCycles },
+	);
 	return { ...inner, lagSamples: inner.lagSamples * block };
 }

@@ -36,17 +36,22 @@ function diagnosticText(d: Diagnostic): string {
 
 function checkOptions(o: AnalysisOptions): void {
 	const positive = (name: string, x: number | undefined) => {
-		if (x !== undefined && !(Number.isFinite(x) && x > 0)) throw new RangeError(`${name} must be a positive number, got ${x}`);
+		if (x !== undefined && !(Number.isFinite(x) && x > 0))
+			throw new RangeError(`${name} must be a positive number, got ${x}`);
 	};
 	positive('nominalV', o.nominalV);
 	positive('nominalHz', o.nominalHz);
 	positive('iscIl', o.iscIl);
 	positive('ilA', o.ilA);
-	if (o.windowCycles !== undefined && !(Number.isInteger(o.windowCycles) && o.windowCycles >= 1)) throw new RangeError(`windowCycles must be a whole number >= 1, got ${o.windowCycles}`);
-	if (o.ieee519Edition !== undefined && o.ieee519Edition !== '2014' && o.ieee519Edition !== '2022') throw new RangeError(`ieee519Edition must be '2014' or '2022', got ${String(o.ieee519Edition)}`);
+	if (o.windowCycles !== undefined && !(Number.isInteger(o.windowCycles) && o.windowCycles >= 1))
+		throw new RangeError(`windowCycles must be a whole number >= 1, got ${o.windowCycles}`);
+	if (o.ieee519Edition !== undefined && o.ieee519Edition !== '2014' && o.ieee519Edition !== '2022')
+		throw new RangeError(`ieee519Edition must be '2014' or '2022', got ${String(o.ieee519Edition)}`);
 	if (o.site !== undefined) checkSiteInputs(o.site);
-	if (o.maxOrder !== undefined && !(Number.isInteger(o.maxOrder) && o.maxOrder >= 1)) throw new RangeError(`maxOrder must be a whole number >= 1, got ${o.maxOrder}`);
-	if (o.harmonicBasis !== undefined && o.harmonicBasis !== 'standard' && o.harmonicBasis !== 'single-bins') throw new RangeError(`harmonicBasis must be 'standard' or 'single-bins', got ${String(o.harmonicBasis)}`);
+	if (o.maxOrder !== undefined && !(Number.isInteger(o.maxOrder) && o.maxOrder >= 1))
+		throw new RangeError(`maxOrder must be a whole number >= 1, got ${o.maxOrder}`);
+	if (o.harmonicBasis !== undefined && o.harmonicBasis !== 'standard' && o.harmonicBasis !== 'single-bins')
+		throw new RangeError(`harmonicBasis must be 'standard' or 'single-bins', got ${String(o.harmonicBasis)}`);
 	positive('declaredV', o.declaredV);
 }
 
@@ -83,33 +88,62 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	const window = ref.window;
 	const resolutions = capture.channels.map((c) => channelResolution(c.samples));
 	// Under two whole cycles: one least-squares fit of every channel (lib/report/short-record.ts)
-	const short = !window && ref.index >= 0 ? fitShortRecord(capture, ref.index, maxOrder, options.nominalHz ?? capture.nominalFrequencyHz, resolutions) : undefined;
+	const short =
+		!window && ref.index >= 0
+			? fitShortRecord(capture, ref.index, maxOrder, options.nominalHz ?? capture.nominalFrequencyHz, resolutions)
+			: undefined;
 	const fitted = typeof short === 'object' ? short : undefined;
 	const frequencyHz = window?.frequencyHz ?? fitted?.fit.frequencyHz ?? NaN;
-	const nominalHz = options.nominalHz ?? capture.nominalFrequencyHz ?? (window ? (Math.abs(frequencyHz - 60) < Math.abs(frequencyHz - 50) ? 60 : 50) : undefined);
+	const nominalHz =
+		options.nominalHz ??
+		capture.nominalFrequencyHz ??
+		(window ? (Math.abs(frequencyHz - 60) < Math.abs(frequencyHz - 50) ? 60 : 50) : undefined);
 	if (options.nominalHz === undefined && capture.nominalFrequencyHz === undefined && nominalHz !== undefined) {
-		assumptions.push(`Nominal frequency taken as ${nominalHz} Hz (nearest to the measured ${frequencyHz.toFixed(3)} Hz).`);
+		assumptions.push(
+			`Nominal frequency taken as ${nominalHz} Hz (nearest to the measured ${frequencyHz.toFixed(3)} Hz).`,
+		);
 	}
 	const windowCycles = options.windowCycles ?? basicWindowCycles(nominalHz);
 	if (timeBaseIrregular(capture)) warnings.push('The time base is not uniform; figures assume the mean sample rate.');
 	const periods = fitted ? fittedPeriods(n, fs, fitted.fit.frequencyHz) : undefined;
 	if (fitted) warnings.push(shortRecordSentence(fitted.fit, n, fs, periods?.cycles ?? 0));
 	else if (!window) {
-		warnings.push(`No periodic fundamental found (${ref.failure ?? 'no channels'}${typeof short === 'string' ? `; ${short}` : ''}): figures cover the whole record; harmonics, phase and power are not given.`);
+		warnings.push(
+			`No periodic fundamental found (${ref.failure ?? 'no channels'}${typeof short === 'string' ? `; ${short}` : ''}): figures cover the whole record; harmonics, phase and power are not given.`,
+		);
 	}
 	const slots = window ? planWindows(window, fs, windowCycles) : [];
 	if (window && window.cycles < windowCycles) {
-		warnings.push(`Only ${window.cycles} whole cycles: harmonics come from one ${window.cycles}-cycle window (IEC 61000-4-7 uses ${windowCycles}).`);
+		warnings.push(
+			`Only ${window.cycles} whole cycles: harmonics come from one ${window.cycles}-cycle window (IEC 61000-4-7 uses ${windowCycles}).`,
+		);
 	} else if (window && slots.length * windowCycles < window.cycles) {
-		assumptions.push(`Harmonics from ${slots.length} window(s) of ${windowCycles} cycles; the last ${window.cycles - slots.length * windowCycles} cycle(s) are not in a full window.`);
+		assumptions.push(
+			`Harmonics from ${slots.length} window(s) of ${windowCycles} cycles; the last ${window.cycles - slots.length * windowCycles} cycle(s) are not in a full window.`,
+		);
 	}
 	const ev = captureEvents(capture, nominalHz, options.declaredV);
 	const flagged = flaggedSlots(slots, fs, ev.events?.events ?? []);
-	const spectra: (ChannelSpectrum | undefined)[] = capture.channels.map((c) => (slots.length > 0 ? channelSpectrum(c.samples, fs, slots, maxOrder) : undefined));
+	const spectra: (ChannelSpectrum | undefined)[] = capture.channels.map((c) =>
+		slots.length > 0 ? channelSpectrum(c.samples, fs, slots, maxOrder) : undefined,
+	);
 
 	const wholeRecord: ReportChannel[] = capture.channels.map((c, i) => {
-		const figs = waveformFigures(c.samples, fs, window && span === 'whole-cycles' ? { span, window, nominalHz, maxOrder } : { span: 'whole-record', frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder });
-		const own = i === ref.index && window ? { ok: true as const, frequencyHz: window.frequencyHz } : findWholeCycles(c.samples, fs, window ? { frequencyHz } : searchHz !== undefined ? { nominalHz: searchHz } : {});
+		const figs = waveformFigures(
+			c.samples,
+			fs,
+			window && span === 'whole-cycles'
+				? { span, window, nominalHz, maxOrder }
+				: { span: 'whole-record', frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder },
+		);
+		const own =
+			i === ref.index && window
+				? { ok: true as const, frequencyHz: window.frequencyHz }
+				: findWholeCycles(
+						c.samples,
+						fs,
+						window ? { frequencyHz } : searchHz !== undefined ? { nominalHz: searchHz } : {},
+					);
 		const channelHz = own.ok ? own.frequencyHz : NaN;
 		const agg = spectra[i]?.aggregate;
 		const set = agg?.set;
@@ -121,7 +155,10 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		const shape = shapeFigures(figs);
 		const intervals = channelIntervals(c.samples, fs, slots, flagged);
 		// the whole-record error differs from every interval's: levels changed over the record
-		const levelChanges = intervals !== null && intervals.count >= 2 && Math.abs(intervals.meterErrorPercent.worst - meter.errorPercent) >= 0.05;
+		const levelChanges =
+			intervals !== null &&
+			intervals.count >= 2 &&
+			Math.abs(intervals.meterErrorPercent.worst - meter.errorPercent) >= 0.05;
 		return {
 			name: c.name,
 			unit: c.unit,
@@ -141,10 +178,23 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			thdRPercent: set ? thdRPercent(rmsByOrder, thdOrder) : NaN,
 			thdMaxOrder: thdOrder,
 			kFactor: set ? ulKFactor(rmsByOrder, thdOrder) : NaN,
-			tddPercent: set && c.quantity === 'current' && options.ilA !== undefined ? tddPercent(rmsByOrder, options.ilA, thdOrder) : NaN,
-			averageResponding: { ...meter, ...(set ? { explanation: meterExplanation(set, meter, c.unit, undefined, levelChanges) } : {}) },
+			tddPercent:
+				set && c.quantity === 'current' && options.ilA !== undefined
+					? tddPercent(rmsByOrder, options.ilA, thdOrder)
+					: NaN,
+			averageResponding: {
+				...meter,
+				...(set ? { explanation: meterExplanation(set, meter, c.unit, undefined, levelChanges) } : {}),
+			},
 			intervals,
-			harmonics: set ? set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })) : [],
+			harmonics: set
+				? set.orders.map((o) => ({
+						order: o.order,
+						rms: o.rms,
+						percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN,
+						phaseDeg: o.phaseDeg,
+					}))
+				: [],
 			groups: agg
 				? {
 						harmonicGroupRms: Array.from(agg.groups.harmonicGroupRms),
@@ -158,7 +208,12 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			warnings: chWarnings,
 		};
 	});
-	const channels = wholeRecord.map((c, i) => markBelowResolution(fitted ? fittedChannel(c, capture.channels[i].samples, fs, fitted, i, nominalHz, maxOrder) : c, resolutions[i]));
+	const channels = wholeRecord.map((c, i) =>
+		markBelowResolution(
+			fitted ? fittedChannel(c, capture.channels[i].samples, fs, fitted, i, nominalHz, maxOrder) : c,
+			resolutions[i],
+		),
+	);
 
 	const report: AnalysisReport = {
 		schemaVersion: REPORT_SCHEMA_VERSION,
@@ -176,7 +231,13 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			harmonicWindows: slots.length,
 		},
 		assumptions,
-		diagnostics: capture.diagnostics.map((d) => ({ code: d.code, message: d.message, severity: d.severity, line: d.line ?? null, column: d.column ?? null })),
+		diagnostics: capture.diagnostics.map((d) => ({
+			code: d.code,
+			message: d.message,
+			severity: d.severity,
+			line: d.line ?? null,
+			column: d.column ?? null,
+		})),
 		warnings,
 		channels,
 		pairs: [],
@@ -200,8 +261,20 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		report.power = pairing.pairs.map((p) => {
 			const pw = pairPower(capture, p, spectra, powerWindow);
 			const words = loadWords(pw.displacementPowerFactor, pw.reactiveVar, channels[p.current].thdPercent);
-			const pfIntervals = powerFactorIntervals(capture.channels[p.voltage].samples, capture.channels[p.current].samples, fs, slots, flagged);
-			return { ...pw, character: words.character, relation: words.relation, loadSentence: words.sentence, powerFactorIntervals: pfIntervals };
+			const pfIntervals = powerFactorIntervals(
+				capture.channels[p.voltage].samples,
+				capture.channels[p.current].samples,
+				fs,
+				slots,
+				flagged,
+			);
+			return {
+				...pw,
+				character: words.character,
+				relation: words.relation,
+				loadSentence: words.sentence,
+				powerFactorIntervals: pfIntervals,
+			};
 		});
 		const three = threePhaseSets(capture.channels, pairing.pairing, phasors);
 		assumptions.push(...three.assumptions);
@@ -211,8 +284,17 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		const currentSet = three.sets.findIndex((t) => t.quantity === 'current');
 		if (currentSet >= 0) {
 			const neutralName = pairing.pairing.neutralCurrent;
-			const neutralIndex = neutralName === undefined ? undefined : capture.channels.findIndex((c) => c.name === neutralName);
-			report.neutral = neutralCurrent(capture, three.members[currentSet], neutralIndex, spectra, slots, powerWindow, maxOrder);
+			const neutralIndex =
+				neutralName === undefined ? undefined : capture.channels.findIndex((c) => c.name === neutralName);
+			report.neutral = neutralCurrent(
+				capture,
+				three.members[currentSet],
+				neutralIndex,
+				spectra,
+				slots,
+				powerWindow,
+				maxOrder,
+			);
 		}
 	} else if (fitted && ref.index >= 0) {
 		report.pairs = fittedPairs(capture, ref.index, fitted);
@@ -231,13 +313,17 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	return applyLimits(report, options);
 }
 
-
 function timeBaseIrregular(capture: Capture): boolean {
 	return capture.timeS !== undefined;
 }
 
 /** The capture-wide warning of a short record: cycles held at the fitted frequency and what covers what. */
-function shortRecordSentence(fit: { frequencyHz: number; frequencyStdHz: number; cycles: number; highestOrder: number }, n: number, fs: number, periods: number): string {
+function shortRecordSentence(
+	fit: { frequencyHz: number; frequencyStdHz: number; cycles: number; highestOrder: number },
+	n: number,
+	fs: number,
+	periods: number,
+): string {
 	const r = (x: number, d: number) => Number(x.toFixed(d)).toString();
 	const span =
 		periods >= 1

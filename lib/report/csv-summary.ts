@@ -82,7 +82,8 @@ function rowOf(report: ReportJson, c: ReportJson['channels'][number]): string {
 	const pair = report.pairs.find((p) => p.other === c.name);
 	const limitRows = report.limits?.rows.filter((r) => r.channel === c.name) ?? [];
 	const fl = report.flicker?.channels.find((f) => f.channel === c.name);
-	const limitsPass = report.limits === undefined || limitRows.length === 0 ? '' : limitRows.every((r) => r.pass) ? 'pass' : 'fail';
+	const limitsPass =
+		report.limits === undefined || limitRows.length === 0 ? '' : limitRows.every((r) => r.pass) ? 'pass' : 'fail';
 	const cells = [
 		csvTextCell(report.file),
 		csvTextCell(c.name),

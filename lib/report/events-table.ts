@@ -67,8 +67,18 @@ function table(events: ReportEvent[], source: string, rows: Band[], columns: Ban
 /** The dip/interruption table and the swell table of a list of events (each event in one cell). */
 export function classifyEvents(events: ReportEvent[]): { dipTable: ReportEventTable; swellTable: ReportEventTable } {
 	return {
-		dipTable: table(events.filter((e) => e.kind !== 'swell'), 'EN 50160:2010, Table 5', DIP_ROWS, DIP_COLUMNS),
-		swellTable: table(events.filter((e) => e.kind === 'swell'), 'EN 50160:2010, Table 6', SWELL_ROWS, SWELL_COLUMNS),
+		dipTable: table(
+			events.filter((e) => e.kind !== 'swell'),
+			'EN 50160:2010, Table 5',
+			DIP_ROWS,
+			DIP_COLUMNS,
+		),
+		swellTable: table(
+			events.filter((e) => e.kind === 'swell'),
+			'EN 50160:2010, Table 6',
+			SWELL_ROWS,
+			SWELL_COLUMNS,
+		),
 	};
 }
 

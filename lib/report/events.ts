@@ -65,7 +65,8 @@ function extremeOn(s: Series, fromS: number, toS: number, low: boolean): number 
 /** Folds each dip that overlaps an interruption into it (kept as `dip`); other events pass unchanged. */
 export function foldInterruptions(events: TrendEvent[]): (TrendEvent & { dip?: TrendEvent })[] {
 	const interruptions = events.filter((e) => e.kind === 'interruption');
-	const overlaps = (a: TrendEvent, b: TrendEvent) => a.startS <= b.startS + b.durationS && b.startS <= a.startS + a.durationS;
+	const overlaps = (a: TrendEvent, b: TrendEvent) =>
+		a.startS <= b.startS + b.durationS && b.startS <= a.startS + a.durationS;
 	const out: (TrendEvent & { dip?: TrendEvent })[] = [];
 	for (const e of events) {
 		if (e.kind === 'dip' && interruptions.some((i) => overlaps(i, e))) continue;
@@ -90,7 +91,12 @@ function toReportEvent(e: TrendEvent & { dip?: TrendEvent }, r: TrendResult, ser
 		.filter((c) => c.quantity === 'voltage' && series.has(c.name))
 		.map((c) => {
 			const x = extremeOn(series.get(c.name)!, e.startS, endS, low);
-			return { channel: c.name, extremeV: x, percentOfDeclared: (100 * x) / r.declaredV, crossed: e.channels.includes(c.name) };
+			return {
+				channel: c.name,
+				extremeV: x,
+				percentOfDeclared: (100 * x) / r.declaredV,
+				crossed: e.channels.includes(c.name),
+			};
 		});
 	return {
 		kind: e.kind as ReportEvent['kind'],
@@ -111,7 +117,11 @@ function toReportEvent(e: TrendEvent & { dip?: TrendEvent }, r: TrendResult, ser
  * @param declaredV  declared supply voltage (line-to-neutral for phase channels); inferred when absent
  * @returns the events and their tables, and the trend analyser's notes (as sentences) for the assumptions
  */
-export function captureEvents(capture: Capture, nominalHz: number | undefined, declaredV?: number): { events: ReportEvents | null; notes: string[] } {
+export function captureEvents(
+	capture: Capture,
+	nominalHz: number | undefined,
+	declaredV?: number,
+): { events: ReportEvents | null; notes: string[] } {
 	if (!capture.channels.some((c) => c.quantity === 'voltage')) return { events: null, notes: [] };
 	const series = new Map<string, Series>();
 	const names = capture.channels.map((c) => c.name);
@@ -130,7 +140,10 @@ export function captureEvents(capture: Capture, nominalHz: number | undefined, d
 			},
 		});
 	} catch (e) {
-		return { events: null, notes: [`Voltage events were not looked for: ${e instanceof Error ? e.message : String(e)}`] };
+		return {
+			events: null,
+			notes: [`Voltage events were not looked for: ${e instanceof Error ? e.message : String(e)}`],
+		};
 	}
 	if (!Number.isFinite(r.declaredV)) return { events: null, notes: [] };
 	const events = foldInterruptions(r.events.filter((e) => e.kind !== 'rvc')).map((e) => toReportEvent(e, r, series));
@@ -140,7 +153,12 @@ export function captureEvents(capture: Capture, nominalHz: number | undefined, d
 		events: {
 			declaredV: r.declaredV,
 			declaredVSource: r.declaredVSource,
-			thresholdsPercent: { dip: t.dipPercent, swell: t.swellPercent, interruption: t.interruptionPercent, hysteresis: t.hysteresisPercent },
+			thresholdsPercent: {
+				dip: t.dipPercent,
+				swell: t.swellPercent,
+				interruption: t.interruptionPercent,
+				hysteresis: t.hysteresisPercent,
+			},
 			events,
 			...classifyEvents(events),
 		},

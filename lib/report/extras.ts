@@ -17,7 +17,8 @@ import { minOf } from '../signal/extremes.js';
 /** The cycle with the highest RMS and the one with the highest peak magnitude (UPS and generator sizing). */
 export function worstCycle(samples: Float64Array, window: CycleWindow, sampleRateHz: number): ReportWorstCycle {
 	const p = perCycleFigures(samples, window);
-	const peakOf = (k: number) => (k < 0 ? NaN : Math.abs(p.peak[k]) >= Math.abs(p.peakNegative[k]) ? p.peak[k] : p.peakNegative[k]);
+	const peakOf = (k: number) =>
+		k < 0 ? NaN : Math.abs(p.peak[k]) >= Math.abs(p.peakNegative[k]) ? p.peak[k] : p.peakNegative[k];
 	return {
 		rmsCycle: p.worstRmsCycle,
 		rms: p.worstRmsCycle >= 0 ? p.rms[p.worstRmsCycle] : NaN,
@@ -48,20 +49,33 @@ export function threePhasePower(
 		return {
 			voltage: spectra[p!.voltage]!.aggregate.set,
 			current: spectra[p!.current]!.aggregate.set,
-			totals: { voltageRmsV: powerWindowRms(v.samples, window), currentRmsA: powerWindowRms(i.samples, window), activePowerW: activePowerFromSamplesW(v.samples, i.samples, window) },
+			totals: {
+				voltageRmsV: powerWindowRms(v.samples, window),
+				currentRmsA: powerWindowRms(i.samples, window),
+				activePowerW: activePowerFromSamplesW(v.samples, i.samples, window),
+			},
 		};
 	}) as [ThreePhaseInputPhase, ThreePhaseInputPhase, ThreePhaseInputPhase];
 	// Line voltages and the neutral from the time domain, as lib/power recommends: summing them per order
 	// from the sets would also stumble on orders whose phase is undefined (RMS at rounding level).
 	const v = byPhase.map((p) => capture.channels[p!.voltage].samples);
 	const i = byPhase.map((p) => capture.channels[p!.current].samples);
-	const lineVoltageRmsV = [0, 1, 2].map((k) => powerWindowRms(lineToLineSamples(v[k], v[(k + 1) % 3]), window)) as [number, number, number];
+	const lineVoltageRmsV = [0, 1, 2].map((k) => powerWindowRms(lineToLineSamples(v[k], v[(k + 1) % 3]), window)) as [
+		number,
+		number,
+		number,
+	];
 	const neutralCurrentRmsA = powerWindowRms(sumPhaseCurrents(i[0], i[1], i[2]), window);
 	const q = threePhasePowerFromHarmonics('4-wire', phases, { lineVoltageRmsV, neutralCurrentRmsA });
 	// Scalar figures only: lib/power's result also holds phasors, per-phase sets and words.
 	const figures: Record<string, number> = {};
 	for (const [k, x] of Object.entries(q)) if (typeof x === 'number') figures[k] = x;
-	return { channels: byPhase.map((p) => [capture.channels[p!.voltage].name, capture.channels[p!.current].name]), wiring: q.wiring, sequenceOrder: q.sequenceOrder, figures };
+	return {
+		channels: byPhase.map((p) => [capture.channels[p!.voltage].name, capture.channels[p!.current].name]),
+		wiring: q.wiring,
+		sequenceOrder: q.sequenceOrder,
+		figures,
+	};
 }
 
 /** Neutral current of a three-phase current set: measured when a neutral channel exists, else the sum of the phases. */
@@ -76,10 +90,19 @@ export function neutralCurrent(
 ): ReportNeutral {
 	const phaseRms = currents.map((k) => powerWindowRms(capture.channels[k].samples, window)) as [number, number, number];
 	if (neutralIndex !== undefined) {
-		const f = neutralCurrentFigures('measured', powerWindowRms(capture.channels[neutralIndex].samples, window), phaseRms, spectra[neutralIndex]?.aggregate.set);
+		const f = neutralCurrentFigures(
+			'measured',
+			powerWindowRms(capture.channels[neutralIndex].samples, window),
+			phaseRms,
+			spectra[neutralIndex]?.aggregate.set,
+		);
 		return { channel: capture.channels[neutralIndex].name, ...f };
 	}
-	const sum = sumPhaseCurrents(capture.channels[currents[0]].samples, capture.channels[currents[1]].samples, capture.channels[currents[2]].samples);
+	const sum = sumPhaseCurrents(
+		capture.channels[currents[0]].samples,
+		capture.channels[currents[1]].samples,
+		capture.channels[currents[2]].samples,
+	);
 	const set = slots.length > 0 ? channelSpectrum(sum, capture.sampleRateHz, slots, maxOrder).aggregate.set : undefined;
 	const f = neutralCurrentFigures('computed', powerWindowRms(sum, window), phaseRms, set);
 	return { channel: null, ...f };
@@ -103,6 +126,12 @@ export function digitalSummary(capture: Capture): ReportDigital[] {
 				if (first < 0) first = n;
 			}
 		}
-		return { name: d.name, normalState: d.normalState ?? null, changes, firstActiveS: first < 0 ? NaN : first / fs, activeS: count / fs };
+		return {
+			name: d.name,
+			normalState: d.normalState ?? null,
+			changes,
+			firstActiveS: first < 0 ? NaN : first / fs,
+			activeS: count / fs,
+		};
 	});
 }

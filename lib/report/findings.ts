@@ -28,10 +28,17 @@ export interface ReportFinding {
 }
 
 /** Short names of the limit tables for sentences. */
-export const LIMIT_TABLE_NAMES: Record<string, string> = { en50160: 'EN 50160', 'iec61000-2-2': 'IEC 61000-2-2', ieee519: 'IEEE 519' };
+export const LIMIT_TABLE_NAMES: Record<string, string> = {
+	en50160: 'EN 50160',
+	'iec61000-2-2': 'IEC 61000-2-2',
+	ieee519: 'IEEE 519',
+};
 
 /** "I1 lags U1 by 32.0°, 1.78 ms" (or "leads"; "is in phase with" within ±0.05°): positive lagDeg = lags. */
-export function lagSentence(pair: Pick<ReportPair, 'ref' | 'other' | 'lagDeg' | 'lagS'>, w: NumberWords = PLAIN_WORDS): string {
+export function lagSentence(
+	pair: Pick<ReportPair, 'ref' | 'other' | 'lagDeg' | 'lagS'>,
+	w: NumberWords = PLAIN_WORDS,
+): string {
 	if (!Number.isFinite(pair.lagDeg)) return `${pair.other} has no fundamental to compare with ${pair.ref}`;
 	if (Math.abs(pair.lagDeg) < 0.05) return `${pair.other} is in phase with ${pair.ref}`;
 	return `${pair.other} ${pair.lagDeg > 0 ? 'lags' : 'leads'} ${pair.ref} by ${w.deg(Math.abs(pair.lagDeg))}, ${w.duration(Math.abs(pair.lagS))}`;
@@ -43,16 +50,27 @@ function distortion(report: AnalysisReport, ch: ReportChannel, w: NumberWords): 
 	const limits = report.limits;
 	const rows = limits?.rows.filter((r) => r.channel === ch.name) ?? [];
 	if (!limits || rows.length === 0) {
-		return { ...base, level: 'info', text: `${ch.name}: distortion ${thd}${limits ? ` (the ${LIMIT_TABLE_NAMES[limits.table]} table has no limits for a ${ch.quantity})` : ' (no limit table chosen)'}.`, figure: thd };
+		return {
+			...base,
+			level: 'info',
+			text: `${ch.name}: distortion ${thd}${limits ? ` (the ${LIMIT_TABLE_NAMES[limits.table]} table has no limits for a ${ch.quantity})` : ' (no limit table chosen)'}.`,
+			figure: thd,
+		};
 	}
 	const table = `the ${LIMIT_TABLE_NAMES[limits.table]} limits`;
-	const what = (r: (typeof rows)[number]) => (r.figure === 'harmonic' ? `${ordinal(r.order)} harmonic` : r.figure.toUpperCase());
+	const what = (r: (typeof rows)[number]) =>
+		r.figure === 'harmonic' ? `${ordinal(r.order)} harmonic` : r.figure.toUpperCase();
 	const on = ` (on ${limits.basis.kind === 'single-bins' ? 'single DFT bins' : 'harmonic subgroups'})`;
 	const over = rows.filter((r) => !r.pass).sort((a, b) => a.margin - b.margin);
 	if (over.length === 0) {
 		const share = (r: (typeof rows)[number]) => (r.limit > 0 ? r.value / r.limit : -Infinity);
 		const tightest = [...rows].sort((a, b) => share(b) - share(a))[0];
-		return { ...base, level: 'ok', text: `${ch.name}: harmonics within ${table}${on}.`, figure: `${thd}; nearest its limit: ${what(tightest)} at ${w.percent(tightest.value, 2)} of ${w.percent(tightest.limit, 2)} allowed` };
+		return {
+			...base,
+			level: 'ok',
+			text: `${ch.name}: harmonics within ${table}${on}.`,
+			figure: `${thd}; nearest its limit: ${what(tightest)} at ${w.percent(tightest.value, 2)} of ${w.percent(tightest.limit, 2)} allowed`,
+		};
 	}
 	const list = over.slice(0, 4).map((r) => `${what(r)} ${w.percent(r.value, 2)} (limit ${w.percent(r.limit, 2)})`);
 	return {
@@ -77,12 +95,22 @@ function meter(ch: ReportChannel, w: NumberWords): ReportFinding[] {
 	const base = { id: `meter-${ch.name}`, topic: 'meter' as const, channel: ch.name };
 	const iv = ch.intervals && ch.intervals.count >= 2 ? ch.intervals : null;
 	const error = iv ? iv.meterErrorPercent.worst : m.errorPercent;
-	if (!Number.isFinite(error)) return [{ ...base, level: 'info', text: `${ch.name}: cannot tell how an average-responding meter would read.`, figure: `true RMS ${w.quantity(ch.rms, ch.unit)}` }];
+	if (!Number.isFinite(error))
+		return [
+			{
+				...base,
+				level: 'info',
+				text: `${ch.name}: cannot tell how an average-responding meter would read.`,
+				figure: `true RMS ${w.quantity(ch.rms, ch.unit)}`,
+			},
+		];
 	const limit = threshold('meterErrorPercent');
 	const ok = Math.abs(error) <= limit;
 	const note = intervalNote(ch, w);
 	const whole = `an AC-coupled meter would show ${w.quantity(m.reading, ch.unit)} against ${w.quantity(m.trueRms, ch.unit)} true RMS (${w.percent(m.errorPercent)})`;
-	const dc = m.dcMatters ? `; a DC-coupled one ${w.quantity(m.dcCoupled.reading, ch.unit)} against ${w.quantity(m.dcCoupled.trueRms, ch.unit)} with the DC (${w.percent(m.dcCoupled.errorPercent)})` : '';
+	const dc = m.dcMatters
+		? `; a DC-coupled one ${w.quantity(m.dcCoupled.reading, ch.unit)} against ${w.quantity(m.dcCoupled.trueRms, ch.unit)} with the DC (${w.percent(m.dcCoupled.errorPercent)})`
+		: '';
 	const out: ReportFinding[] = [
 		{
 			...base,
@@ -136,15 +164,29 @@ function threePhase(report: AnalysisReport, w: NumberWords): ReportFinding[] {
 	const limit = threshold('voltageUnbalancePercent');
 	const high = tp.quantity === 'voltage' && tp.unbalancePercent > limit;
 	const rotation =
-		tp.rotation === 'positive' ? `Rotation ${seq} is positive (the phases follow each other in that order).` : tp.rotation === 'negative' ? `Rotation ${seq} is reversed: two phases are swapped (a motor would run backwards).` : `Rotation of ${seq} cannot be told.`;
+		tp.rotation === 'positive'
+			? `Rotation ${seq} is positive (the phases follow each other in that order).`
+			: tp.rotation === 'negative'
+				? `Rotation ${seq} is reversed: two phases are swapped (a motor would run backwards).`
+				: `Rotation of ${seq} cannot be told.`;
 	return [
-		{ id: 'rotation', topic: 'three-phase', channel: null, level: tp.rotation === 'positive' ? 'ok' : tp.rotation === 'negative' ? 'attention' : 'info', text: rotation, figure: `positive sequence ${w.quantity(tp.sequence.positive, unit)}, negative sequence ${w.quantity(tp.sequence.negative, unit, 4, 1e-6 * tp.sequence.positive)}` },
+		{
+			id: 'rotation',
+			topic: 'three-phase',
+			channel: null,
+			level: tp.rotation === 'positive' ? 'ok' : tp.rotation === 'negative' ? 'attention' : 'info',
+			text: rotation,
+			figure: `positive sequence ${w.quantity(tp.sequence.positive, unit)}, negative sequence ${w.quantity(tp.sequence.negative, unit, 4, 1e-6 * tp.sequence.positive)}`,
+		},
 		{
 			id: 'unbalance',
 			topic: 'three-phase',
 			channel: null,
 			level: tp.quantity === 'voltage' ? (high ? 'attention' : 'ok') : 'info',
-			text: tp.quantity === 'voltage' ? `${tp.channels.join(', ')}: ${high ? `unbalanced beyond ${limit} %` : `balanced within ${limit} %`}.` : `${tp.channels.join(', ')}: current unbalance ${w.percent(tp.unbalancePercent, 2)}.`,
+			text:
+				tp.quantity === 'voltage'
+					? `${tp.channels.join(', ')}: ${high ? `unbalanced beyond ${limit} %` : `balanced within ${limit} %`}.`
+					: `${tp.channels.join(', ')}: current unbalance ${w.percent(tp.unbalancePercent, 2)}.`,
 			figure: `unbalance (negative / positive sequence) ${w.percent(tp.unbalancePercent, 2)}; LVUR ${w.percent(tp.lvurPercent, 2)}; PVUR ${w.percent(tp.pvurPercent, 2)}`,
 		},
 	];
@@ -153,8 +195,27 @@ function threePhase(report: AnalysisReport, w: NumberWords): ReportFinding[] {
 /** Every finding of a report, in reading order. `words` sets the decimal mark (the UI passes its locale's). */
 export function reportFindings(report: AnalysisReport, words: NumberWords = PLAIN_WORDS): ReportFinding[] {
 	const chs = report.channels.filter((c) => c.quantity !== 'other');
-	const out: ReportFinding[] = [...chs.map((c) => distortion(report, c, words)), ...chs.flatMap((c) => meter(c, words)), ...report.power.map((p) => load(p, words)), ...threePhase(report, words), ...eventFindings(report.events, words), ...flickerFindings(report, words)];
-	report.warnings.forEach((t, i) => out.push({ id: `warning-${i}`, topic: 'data', level: 'attention', channel: null, text: t, figure: '' }));
-	for (const ch of report.channels) ch.warnings.forEach((t, i) => out.push({ id: `warning-${ch.name}-${i}`, topic: 'data', level: 'attention', channel: ch.name, text: `${ch.name}: ${t}`, figure: '' }));
+	const out: ReportFinding[] = [
+		...chs.map((c) => distortion(report, c, words)),
+		...chs.flatMap((c) => meter(c, words)),
+		...report.power.map((p) => load(p, words)),
+		...threePhase(report, words),
+		...eventFindings(report.events, words),
+		...flickerFindings(report, words),
+	];
+	report.warnings.forEach((t, i) =>
+		out.push({ id: `warning-${i}`, topic: 'data', level: 'attention', channel: null, text: t, figure: '' }),
+	);
+	for (const ch of report.channels)
+		ch.warnings.forEach((t, i) =>
+			out.push({
+				id: `warning-${ch.name}-${i}`,
+				topic: 'data',
+				level: 'attention',
+				channel: ch.name,
+				text: `${ch.name}: ${t}`,
+				figure: '',
+			}),
+		);
 	return out;
 }

@@ -23,7 +23,9 @@ export function flickerFindings(report: AnalysisReport, w: NumberWords = PLAIN_W
 				...base,
 				id: `flicker-${c.channel}`,
 				level: high ? 'attention' : 'ok',
-				text: high ? `${c.channel}: lights on this supply may flicker enough to irritate people.` : `${c.channel}: flicker below the irritation level.`,
+				text: high
+					? `${c.channel}: lights on this supply may flicker enough to irritate people.`
+					: `${c.channel}: flicker below the irritation level.`,
 				figure: `highest short-term flicker Pst ${w.ratio(pst)} over ${c.pst.length} period(s) of 10 minutes${Number.isFinite(plt) ? `, long-term Plt ${w.ratio(plt)}` : ''} (1 = irritating for half of observers)`,
 			});
 		} else if (Number.isFinite(c.pinst.max)) {

@@ -4,7 +4,12 @@
  * Pst; the IEC 61000-3-3 voltage change parameters; and, with a supply limit table, the flicker limits.
  */
 import type { Capture } from '../capture.js';
-import { createFlickermeter, FLICKER_MIN_SAMPLE_RATE_HZ, FLICKER_SETTLING_S, PST_INTERVAL_S } from '../flicker/index.js';
+import {
+	createFlickermeter,
+	FLICKER_MIN_SAMPLE_RATE_HZ,
+	FLICKER_SETTLING_S,
+	PST_INTERVAL_S,
+} from '../flicker/index.js';
 import { createHalfPeriodRms, createVoltageChangeTracker, type VoltageChange } from '../flicker/index.js';
 import { evaluateFlickerLimits, type FlickerLimitEvaluation, type FlickerLimitTableId } from '../limits/flicker.js';
 import { declaredVoltageFromRms } from '../trend/declared-voltage.js';
@@ -51,22 +56,39 @@ const CHUNK = 65_536;
  * @param nominalV  Un for the change parameters; else a common nominal voltage matching the channel RMS
  * @param limits    the report's limit table, when one was asked for
  */
-export function flickerReport(capture: Capture, nominalHz: number | undefined, nominalV: number | undefined, limits: ReportLimitTableId | undefined): ReportFlicker {
+export function flickerReport(
+	capture: Capture,
+	nominalHz: number | undefined,
+	nominalV: number | undefined,
+	limits: ReportLimitTableId | undefined,
+): ReportFlicker {
 	const notes: string[] = [];
 	const voltages = capture.channels.filter((c) => c.quantity === 'voltage');
 	if (voltages.length === 0) return { channels: [], notes: ['No voltage channel: flicker not measured.'] };
 	if (capture.sampleRateHz < FLICKER_MIN_SAMPLE_RATE_HZ) {
-		return { channels: [], notes: [`Flicker not measured: it needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second (this record has ${capture.sampleRateHz}).`] };
+		return {
+			channels: [],
+			notes: [
+				`Flicker not measured: it needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second (this record has ${capture.sampleRateHz}).`,
+			],
+		};
 	}
 	const durationS = (voltages[0].samples.length ?? 0) / capture.sampleRateHz;
 	if (nominalHz !== 50 && nominalHz !== 60) {
-		const why = durationS <= FLICKER_SETTLING_S ? `the record is ${durationS < 1 ? `${(durationS * 1000).toFixed(0)} ms` : `${durationS.toFixed(1)} s`} long, too short for a flicker reading` : 'the mains frequency (50 or 60 Hz) is not known';
+		const why =
+			durationS <= FLICKER_SETTLING_S
+				? `the record is ${durationS < 1 ? `${(durationS * 1000).toFixed(0)} ms` : `${durationS.toFixed(1)} s`} long, too short for a flicker reading`
+				: 'the mains frequency (50 or 60 Hz) is not known';
 		return { channels: [], notes: [`Flicker not measured: ${why}.`] };
 	}
 	if (durationS <= FLICKER_SETTLING_S) {
-		notes.push(`The record is ${durationS.toFixed(1)} s long: too short for a flicker reading (the flickermeter's filters settle over the first ${FLICKER_SETTLING_S} s).`);
+		notes.push(
+			`The record is ${durationS.toFixed(1)} s long: too short for a flicker reading (the flickermeter's filters settle over the first ${FLICKER_SETTLING_S} s).`,
+		);
 	} else if (durationS < PST_INTERVAL_S) {
-		notes.push(`The record is ${durationS.toFixed(1)} s long: a Pst needs 10 minutes, so only instantaneous flicker (Pinst) statistics are given. They are not a Pst.`);
+		notes.push(
+			`The record is ${durationS.toFixed(1)} s long: a Pst needs 10 minutes, so only instantaneous flicker (Pinst) statistics are given. They are not a Pst.`,
+		);
 	}
 	let un = nominalV ?? NaN;
 	if (nominalV === undefined) {
@@ -82,12 +104,24 @@ export function flickerReport(capture: Capture, nominalHz: number | undefined, n
 }
 
 function rms(x: Float64Array): number {
-	let s = 0, n = 0;
-	for (const v of x) if (Number.isFinite(v)) { s += v * v; n++; }
+	let s = 0,
+		n = 0;
+	for (const v of x)
+		if (Number.isFinite(v)) {
+			s += v * v;
+			n++;
+		}
 	return n > 0 ? Math.sqrt(s / n) : NaN;
 }
 
-function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50 | 60, un: number, limits: ReportLimitTableId | undefined): ReportFlickerChannel {
+function flickerChannel(
+	name: string,
+	x: Float64Array,
+	fs: number,
+	nominalHz: 50 | 60,
+	un: number,
+	limits: ReportLimitTableId | undefined,
+): ReportFlickerChannel {
 	// a record within the settling time gives no Pinst at all: skip the meter (and its 256 KB of class tables)
 	const meter = x.length / fs > FLICKER_SETTLING_S ? createFlickermeter({ sampleRateHz: fs, nominalHz }) : null;
 	const uhp: number[] = [];
@@ -98,7 +132,12 @@ function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50
 		meter?.push(chunk);
 		half.push(chunk);
 	}
-	const r = meter?.finish() ?? { lamp: nominalHz === 50 ? ('230V' as const) : ('120V' as const), pst: [], plt: [], pinst: { durationS: x.length / fs, max: NaN, mean: NaN, p1: NaN, p10: NaN, p50: NaN } };
+	const r = meter?.finish() ?? {
+		lamp: nominalHz === 50 ? ('230V' as const) : ('120V' as const),
+		pst: [],
+		plt: [],
+		pinst: { durationS: x.length / fs, max: NaN, mean: NaN, p1: NaN, p10: NaN, p50: NaN },
+	};
 	const list: VoltageChange[] = [];
 	if (Number.isFinite(un) && un > 0) {
 		const tracker = createVoltageChangeTracker(un, nominalHz);
@@ -110,8 +149,15 @@ function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50
 		return v.length ? maxOf(v) : NaN;
 	};
 	const pst = r.pst.map((p) => ({ startS: p.startS, durationS: p.durationS, pst: p.pst }));
-	const measured = { pst: pst.map((p) => p.pst), plt: r.plt.map((p) => p.plt), dcPercent: list.map((v) => v.dcPercent), dmaxPercent: list.map((v) => v.dmaxPercent), tmaxS: list.map((v) => v.tmaxS) };
-	const tables: FlickerLimitTableId[] = limits === 'en50160' || limits === 'iec61000-2-2' ? [limits, 'iec61000-3-3'] : [];
+	const measured = {
+		pst: pst.map((p) => p.pst),
+		plt: r.plt.map((p) => p.plt),
+		dcPercent: list.map((v) => v.dcPercent),
+		dmaxPercent: list.map((v) => v.dmaxPercent),
+		tmaxS: list.map((v) => v.tmaxS),
+	};
+	const tables: FlickerLimitTableId[] =
+		limits === 'en50160' || limits === 'iec61000-2-2' ? [limits, 'iec61000-3-3'] : [];
 	return {
 		channel: name,
 		lamp: r.lamp,
@@ -120,7 +166,13 @@ function flickerChannel(name: string, x: Float64Array, fs: number, nominalHz: 50
 		plt: r.plt,
 		pinst: r.pinst,
 		nominalV: un,
-		changes: { count: list.length, dcMaxPercent: worst((v) => v.dcPercent), dmaxPercent: worst((v) => v.dmaxPercent), tmaxS: worst((v) => v.tmaxS), list: list.slice(0, MAX_LISTED_CHANGES) },
+		changes: {
+			count: list.length,
+			dcMaxPercent: worst((v) => v.dcPercent),
+			dmaxPercent: worst((v) => v.dmaxPercent),
+			tmaxS: worst((v) => v.tmaxS),
+			list: list.slice(0, MAX_LISTED_CHANGES),
+		},
 		limits: tables.map((t) => evaluateFlickerLimits(t, measured)),
 	};
 }

@@ -23,7 +23,14 @@ export {
 } from './types.js';
 export { FITTED_NOTE, SHORT_RECORD_SEARCH_HZ } from './short-record.js';
 export { reportToJson, reportValueToJson, type ReportJson, type ReportJsonValue, type Jsonified } from './to-json.js';
-export { CSV_SUMMARY_COLUMNS, csvTextCell, csvNumberCell, csvSummaryHeader, csvSummaryRows, reportsToCsv } from './csv-summary.js';
+export {
+	CSV_SUMMARY_COLUMNS,
+	csvTextCell,
+	csvNumberCell,
+	csvSummaryHeader,
+	csvSummaryRows,
+	reportsToCsv,
+} from './csv-summary.js';
 export { flickerReport, type ReportFlicker, type ReportFlickerChannel } from './flicker-report.js';
 export { csvCell, startsLikeFormula } from './csv-cell.js';
 export { chooseReference } from './reference.js';

@@ -47,7 +47,11 @@ export function slotRanges(slots: WindowSlot[], sampleRateHz: number, n: number)
 }
 
 /** Whether each slot overlaps one of the spans [startS, startS + durationS] (voltage events). */
-export function flaggedSlots(slots: WindowSlot[], sampleRateHz: number, spans: { startS: number; durationS: number }[]): boolean[] {
+export function flaggedSlots(
+	slots: WindowSlot[],
+	sampleRateHz: number,
+	spans: { startS: number; durationS: number }[],
+): boolean[] {
 	return slots.map((s) => {
 		const a = s.startIndex / sampleRateHz;
 		const b = a + s.cycles / s.fundamentalHz;
@@ -56,7 +60,12 @@ export function flaggedSlots(slots: WindowSlot[], sampleRateHz: number, spans: {
 }
 
 /** Typical (median) and worst of per-interval values, flagged ones left out unless all are; `worse(a, b)`: a is worse than b. */
-export function summarise(values: number[], startsS: number[], worse: (a: number, b: number) => boolean, flagged: boolean[] = []): IntervalFigure {
+export function summarise(
+	values: number[],
+	startsS: number[],
+	worse: (a: number, b: number) => boolean,
+	flagged: boolean[] = [],
+): IntervalFigure {
 	const finite = values.map((_, k) => k).filter((k) => Number.isFinite(values[k]));
 	const clean = finite.filter((k) => !flagged[k]);
 	const idx = clean.length > 0 ? clean : finite;
@@ -69,7 +78,12 @@ export function summarise(values: number[], startsS: number[], worse: (a: number
 }
 
 /** Meter error, crest factor and AC RMS of one channel per interval. */
-export function channelIntervals(samples: Float64Array, sampleRateHz: number, slots: WindowSlot[], flagged: boolean[] = []): ChannelIntervals | null {
+export function channelIntervals(
+	samples: Float64Array,
+	sampleRateHz: number,
+	slots: WindowSlot[],
+	flagged: boolean[] = [],
+): ChannelIntervals | null {
 	if (slots.length === 0) return null;
 	const ranges = slotRanges(slots, sampleRateHz, samples.length);
 	const starts = slots.map((s) => s.startIndex / sampleRateHz);
@@ -106,7 +120,13 @@ export function channelIntervals(samples: Float64Array, sampleRateHz: number, sl
 }
 
 /** Power factor P/S of a voltage/current pair per interval (P = mean v·i, S = Vrms·Irms, IEEE 1459-2010); worst = lowest |PF|. */
-export function powerFactorIntervals(v: Float64Array, i: Float64Array, sampleRateHz: number, slots: WindowSlot[], flagged: boolean[] = []): IntervalFigure | null {
+export function powerFactorIntervals(
+	v: Float64Array,
+	i: Float64Array,
+	sampleRateHz: number,
+	slots: WindowSlot[],
+	flagged: boolean[] = [],
+): IntervalFigure | null {
 	if (slots.length === 0) return null;
 	const ranges = slotRanges(slots, sampleRateHz, Math.min(v.length, i.length));
 	const starts = slots.map((s) => s.startIndex / sampleRateHz);
@@ -130,10 +150,17 @@ export function powerFactorIntervals(v: Float64Array, i: Float64Array, sampleRat
  * intervals, and the worst interval's meter error (to 0.1 %) or crest factor (to 0.001) differs from the
  * whole record's. Outputs show per-interval rows only then.
  */
-export function intervalsDiffer(c: { intervals: ChannelIntervals | null; crestFactor: number; averageResponding: { errorPercent: number } }): boolean {
+export function intervalsDiffer(c: {
+	intervals: ChannelIntervals | null;
+	crestFactor: number;
+	averageResponding: { errorPercent: number };
+}): boolean {
 	const iv = c.intervals;
 	if (!iv || iv.count < 2) return false;
 	const e = (x: number) => Math.round(10 * x);
 	const cf = (x: number) => Math.round(1000 * x);
-	return e(iv.meterErrorPercent.worst) !== e(c.averageResponding.errorPercent) || cf(iv.crestFactor.worst) !== cf(c.crestFactor);
+	return (
+		e(iv.meterErrorPercent.worst) !== e(c.averageResponding.errorPercent) ||
+		cf(iv.crestFactor.worst) !== cf(c.crestFactor)
+	);
 }

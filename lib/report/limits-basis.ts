@@ -24,11 +24,18 @@ const SUBGROUPS = 'harmonic subgroups of 10/12-cycle windows';
 const BASIS: Record<ReportLimitTableId, ReportLimitBasis> = {
 	en50160: { kind: 'harmonic-subgroups', text: `${SUBGROUPS} (IEC 61000-4-30 class A with IEC 61000-4-7)` },
 	'iec61000-2-2': { kind: 'harmonic-subgroups', text: `${SUBGROUPS} (IEC 61000-4-30 class A with IEC 61000-4-7)` },
-	ieee519: { kind: 'harmonic-subgroups', text: `${SUBGROUPS} (IEEE 519-2014 clause 4: measured per IEC 61000-4-7 and IEC 61000-4-30)` },
+	ieee519: {
+		kind: 'harmonic-subgroups',
+		text: `${SUBGROUPS} (IEEE 519-2014 clause 4: measured per IEC 61000-4-7 and IEC 61000-4-30)`,
+	},
 };
 
 /** The basis for a table: the standard's own, or single DFT bins when asked for. */
 export function limitBasis(table: ReportLimitTableId, basis: ReportHarmonicBasis): ReportLimitBasis {
-	if (basis === 'single-bins') return { kind: 'single-bins', text: "single DFT bins of 10/12-cycle windows (as asked; not the basis the table's standard uses)" };
+	if (basis === 'single-bins')
+		return {
+			kind: 'single-bins',
+			text: "single DFT bins of 10/12-cycle windows (as asked; not the basis the table's standard uses)",
+		};
 	return BASIS[table];
 }

@@ -8,7 +8,14 @@ import type { LimitEvaluation } from '../limits/types.js';
 import { reportFindings } from './findings.js';
 import { limitBasis } from './limits-basis.js';
 import type { ReportFlicker, ReportFlickerChannel } from './flicker-report.js';
-import type { AnalysisOptions, AnalysisReport, ReportChannel, ReportLimitRow, ReportLimits, ReportLimitTableId } from './types.js';
+import type {
+	AnalysisOptions,
+	AnalysisReport,
+	ReportChannel,
+	ReportLimitRow,
+	ReportLimits,
+	ReportLimitTableId,
+} from './types.js';
 import { maxOf } from '../signal/extremes.js';
 
 function rowsOf(channel: string, e: LimitEvaluation): { rows: ReportLimitRow[]; unmeasured: string[] } {
@@ -63,43 +70,84 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 	const notes: string[] = [];
 	const rows: ReportLimitRow[] = [];
 	const measured = report.channels.filter((c) => c.harmonics.length > 1);
-	for (const c of report.channels) if (c.harmonics.length <= 1) notes.push(`${c.name}: no harmonics (no fundamental found); not evaluated.`);
+	for (const c of report.channels)
+		if (c.harmonics.length <= 1) notes.push(`${c.name}: no harmonics (no fundamental found); not evaluated.`);
 	let busVoltageV = options.nominalV;
 	if (id === 'ieee519' && busVoltageV === undefined) {
-		const vmax = Math.max(0, maxOf(measured.filter((c) => c.quantity === 'voltage').map((c) => c.rms).filter(Number.isFinite)));
+		const vmax = Math.max(
+			0,
+			maxOf(
+				measured
+					.filter((c) => c.quantity === 'voltage')
+					.map((c) => c.rms)
+					.filter(Number.isFinite),
+			),
+		);
 		busVoltageV = vmax > 0 ? Math.round(Math.sqrt(3) * vmax) : 400;
-		notes.push(`Bus voltage for the IEEE 519 row taken as ${busVoltageV} V (${vmax > 0 ? '√3 × the highest measured voltage' : 'no voltage channel: a low-voltage bus assumed'}); set the nominal voltage to choose the row.`);
+		notes.push(
+			`Bus voltage for the IEEE 519 row taken as ${busVoltageV} V (${vmax > 0 ? '√3 × the highest measured voltage' : 'no voltage channel: a low-voltage bus assumed'}); set the nominal voltage to choose the row.`,
+		);
 	}
 	let firstEvaluation: LimitEvaluation | undefined;
 	const add = (name: string, e: LimitEvaluation) => {
 		firstEvaluation ??= e;
 		const r = rowsOf(name, e);
 		rows.push(...r.rows);
-		if (r.unmeasured.length > 0) notes.push(`${name}: ${r.unmeasured.join(', ')} not measured (above the Nyquist order or not analysed).`);
+		if (r.unmeasured.length > 0)
+			notes.push(`${name}: ${r.unmeasured.join(', ')} not measured (above the Nyquist order or not analysed).`);
 		if (e.selection !== 'all orders of the table') notes.push(`${name}: ${e.selection}.`);
 	};
 	for (const c of measured) {
 		if (c.quantity === 'voltage') {
 			const pct = percents(c, singleBins);
-			add(c.name, evaluateLimits(id, id === 'ieee519' ? { quantity: 'voltage', percentOfFundamental: pct, busVoltageV } : { percentOfFundamental: pct }));
+			add(
+				c.name,
+				evaluateLimits(
+					id,
+					id === 'ieee519'
+						? { quantity: 'voltage', percentOfFundamental: pct, busVoltageV }
+						: { percentOfFundamental: pct },
+				),
+			);
 		} else if (c.quantity === 'current' && id === 'ieee519') {
 			if (options.iscIl === undefined) {
-				notes.push(`${c.name}: IEEE 519 current limits need the ratio of short-circuit current to maximum demand current (I_SC/I_L) at the point of common coupling; not evaluated.`);
+				notes.push(
+					`${c.name}: IEEE 519 current limits need the ratio of short-circuit current to maximum demand current (I_SC/I_L) at the point of common coupling; not evaluated.`,
+				);
 				continue;
 			}
 			const rms = rmsByOrder(c, singleBins);
 			const i1 = rms[1];
 			const ilA = options.ilA ?? i1;
-			if (options.ilA === undefined) notes.push(`${c.name}: I_L taken as the measured fundamental ${i1.toPrecision(4)} A (give the maximum demand current to use it instead); TDD then equals THD.`);
+			if (options.ilA === undefined)
+				notes.push(
+					`${c.name}: I_L taken as the measured fundamental ${i1.toPrecision(4)} A (give the maximum demand current to use it instead); TDD then equals THD.`,
+				);
 			const percentOfIl = rms.map((x) => (100 * x) / ilA);
-			add(c.name, evaluateLimits(id, { quantity: 'current', percentOfIl, busVoltageV, iscIlRatio: options.iscIl, edition: options.ieee519Edition ?? '2022' }));
+			add(
+				c.name,
+				evaluateLimits(id, {
+					quantity: 'current',
+					percentOfIl,
+					busVoltageV,
+					iscIlRatio: options.iscIl,
+					edition: options.ieee519Edition ?? '2022',
+				}),
+			);
 		} else {
 			notes.push(`${c.name}: ${table.name} sets no limits for a ${c.quantity} channel; not evaluated.`);
 		}
 	}
 	if (rows.length === 0) notes.push('Nothing was evaluated against the table.');
 	if (firstEvaluation) notes.push(...firstEvaluation.notes, firstEvaluation.complianceNote);
-	return { table: id, title: `${table.name} (${table.source})`, basis, pass: rows.every((r) => r.pass), rows, notes: [...new Set(notes)] };
+	return {
+		table: id,
+		title: `${table.name} (${table.source})`,
+		basis,
+		pass: rows.every((r) => r.pass),
+		rows,
+		notes: [...new Set(notes)],
+	};
 }
 
 /** The analysis options only the limit step reads: changing them needs no new analysis (nominalV also sets flicker's Un: not here). */
@@ -124,7 +172,13 @@ function flickerMeasured(c: ReportFlickerChannel): FlickerMeasured {
 /** The flicker part of the limit step: a supply table (EN 50160, IEC 61000-2-2) with IEC 61000-3-3 beside it. */
 function flickerWithLimits(f: ReportFlicker, id: ReportLimitTableId | undefined): ReportFlicker {
 	const tables: FlickerLimitTableId[] = id === 'en50160' || id === 'iec61000-2-2' ? [id, 'iec61000-3-3'] : [];
-	return { ...f, channels: f.channels.map((c) => ({ ...c, limits: tables.map((t) => evaluateFlickerLimits(t, flickerMeasured(c))) })) };
+	return {
+		...f,
+		channels: f.channels.map((c) => ({
+			...c,
+			limits: tables.map((t) => evaluateFlickerLimits(t, flickerMeasured(c))),
+		})),
+	};
 }
 
 /**

@@ -26,8 +26,14 @@ export interface LoadWords {
  * @param currentThdPercent  THD of the current, % of its fundamental
  * @example loadWords(0.866, 1150, 0.1).sentence // "inductive: current lags the voltage by 30.0°"
  */
-export function loadWords(dpf: number, reactiveVar: number, currentThdPercent: number, words: NumberWords = PLAIN_WORDS): LoadWords {
-	if (!Number.isFinite(dpf)) return { relation: null, character: null, sentence: 'load character cannot be told (no fundamental)' };
+export function loadWords(
+	dpf: number,
+	reactiveVar: number,
+	currentThdPercent: number,
+	words: NumberWords = PLAIN_WORDS,
+): LoadWords {
+	if (!Number.isFinite(dpf))
+		return { relation: null, character: null, sentence: 'load character cannot be told (no fundamental)' };
 	const reverse = dpf < 0 ? '; active power flows back (generation, or a clamp turned round)' : '';
 	const thetaDeg = (Math.acos(Math.min(1, Math.abs(dpf))) * 180) / Math.PI;
 	const sinusoidal = Number.isFinite(currentThdPercent) && currentThdPercent < threshold('sinusoidalCurrentThdPercent');
@@ -40,7 +46,12 @@ export function loadWords(dpf: number, reactiveVar: number, currentThdPercent: n
 	}
 	const lags = reactiveVar > 0;
 	const how = `current lags the voltage by ${words.deg(thetaDeg)}`.replace('lags', lags ? 'lags' : 'leads');
-	if (sinusoidal) return { relation: lags ? 'lags' : 'leads', character: lags ? 'inductive' : 'capacitive', sentence: `${lags ? 'inductive' : 'capacitive'}: ${how}${reverse}` };
+	if (sinusoidal)
+		return {
+			relation: lags ? 'lags' : 'leads',
+			character: lags ? 'inductive' : 'capacitive',
+			sentence: `${lags ? 'inductive' : 'capacitive'}: ${how}${reverse}`,
+		};
 	return {
 		relation: lags ? 'lags' : 'leads',
 		character: null,

@@ -27,7 +27,13 @@ export interface MeterExplanation {
  * @param model  the channel's meter model (the table's figures)
  * @example meterExplanation(dimmerSet, model, 'A').summary // "An AC-coupled average-responding meter would read 29.3 % low: …"
  */
-export function meterExplanation(set: HarmonicSet, model: MeterModel, unit: string, words: NumberWords = PLAIN_WORDS, wholeRecordOnly = false): MeterExplanation {
+export function meterExplanation(
+	set: HarmonicSet,
+	model: MeterModel,
+	unit: string,
+	words: NumberWords = PLAIN_WORDS,
+	wholeRecordOnly = false,
+): MeterExplanation {
 	const w = words;
 	// on a record whose level changes, this is the whole record's reading (the findings judge each interval)
 	const an = wholeRecordOnly ? 'Over the whole record, which includes level changes, an' : 'An';
@@ -52,7 +58,9 @@ export function meterExplanation(set: HarmonicSet, model: MeterModel, unit: stri
 	}
 	if (model.dcMatters) {
 		const dc = model.dcCoupled;
-		reasons.push(`A DC-coupled average-responding meter would read ${w.quantity(dc.reading, unit)} against ${w.quantity(dc.trueRms, unit)} true RMS including the DC (${w.percent(dc.errorPercent)}).`);
+		reasons.push(
+			`A DC-coupled average-responding meter would read ${w.quantity(dc.reading, unit)} against ${w.quantity(dc.trueRms, unit)} true RMS including the DC (${w.percent(dc.errorPercent)}).`,
+		);
 	}
 	return { summary, reasons, harmonicsErrorPercent: e.readingErrorPercent, remainderPercent: remainder };
 }

@@ -54,8 +54,11 @@ function ratio(a: number, b: number): number {
 /** Mean of |x| over the same span the waveform figures used (trapezoid over whole cycles, or every sample). */
 function dcRectifiedMean(samples: Float64Array, figs: WaveformFigures, window: CycleWindow | undefined): number {
 	if (figs.span === 'whole-cycles' && window) {
-		const period = window.cycles >= 1 ? (figs.endIndex - figs.startIndex) / window.cycles : figs.endIndex - figs.startIndex;
-		return windowIntegral(samples, figs.startIndex, figs.endIndex, Math.abs, period) / (figs.endIndex - figs.startIndex);
+		const period =
+			window.cycles >= 1 ? (figs.endIndex - figs.startIndex) / window.cycles : figs.endIndex - figs.startIndex;
+		return (
+			windowIntegral(samples, figs.startIndex, figs.endIndex, Math.abs, period) / (figs.endIndex - figs.startIndex)
+		);
 	}
 	let s = 0;
 	for (let i = 0; i < samples.length; i++) s += Math.abs(samples[i]);

@@ -28,7 +28,11 @@ function candidates(channels: Channel[]): number[] {
  * tried, and the report says so.
  * @param nominalHz  narrows the frequency search (0.7…1.3 × nominal); undefined = search 50/60 Hz mains and beyond
  */
-export function chooseReference(capture: Capture, refChannel: string | undefined, nominalHz: number | undefined): ReferenceChoice {
+export function chooseReference(
+	capture: Capture,
+	refChannel: string | undefined,
+	nominalHz: number | undefined,
+): ReferenceChoice {
 	const channels = capture.channels;
 	const assumptions: string[] = [];
 	if (channels.length === 0) return { index: -1, failure: 'The capture has no analogue channels.', assumptions };
@@ -36,11 +40,18 @@ export function chooseReference(capture: Capture, refChannel: string | undefined
 	if (refChannel !== undefined) {
 		const index = channels.findIndex((c) => c.name === refChannel);
 		if (index < 0) {
-			throw new RangeError(`${capture.source}: reference channel "${refChannel}" not found; the channels are ${channels.map((c) => c.name).join(', ')}`);
+			throw new RangeError(
+				`${capture.source}: reference channel "${refChannel}" not found; the channels are ${channels.map((c) => c.name).join(', ')}`,
+			);
 		}
 		const found = findWholeCycles(channels[index].samples, capture.sampleRateHz, opts);
-		if (found.ok) return { index, window: found, assumptions: [`Reference channel ${refChannel} (chosen by the user).`] };
-		return { index, failure: `${refChannel}: ${found.message}`, assumptions: [`Reference channel ${refChannel} (chosen by the user).`] };
+		if (found.ok)
+			return { index, window: found, assumptions: [`Reference channel ${refChannel} (chosen by the user).`] };
+		return {
+			index,
+			failure: `${refChannel}: ${found.message}`,
+			assumptions: [`Reference channel ${refChannel} (chosen by the user).`],
+		};
 	}
 	const order = candidates(channels);
 	let failure = '';
@@ -48,7 +59,10 @@ export function chooseReference(capture: Capture, refChannel: string | undefined
 		const c = channels[order[k]];
 		const found = findWholeCycles(c.samples, capture.sampleRateHz, opts);
 		if (found.ok) {
-			const why = k === 0 ? `the first ${c.quantity === 'other' ? '' : `${c.quantity} `}channel` : `the first channel with a periodic fundamental (${failure})`;
+			const why =
+				k === 0
+					? `the first ${c.quantity === 'other' ? '' : `${c.quantity} `}channel`
+					: `the first channel with a periodic fundamental (${failure})`;
 			assumptions.push(`Reference channel ${c.name}: ${why}; every channel is analysed on its whole cycles.`);
 			return { index: order[k], window: found, assumptions };
 		}
@@ -57,5 +71,9 @@ export function chooseReference(capture: Capture, refChannel: string | undefined
 		// harmonic could otherwise pass for a fundamental); the short-record fit takes over
 		if (found.code === 'too-short') break;
 	}
-	return { index: order[0], failure, assumptions: [`Reference channel ${channels[order[0]].name}: the first ${channels[order[0]].quantity} channel.`] };
+	return {
+		index: order[0],
+		failure,
+		assumptions: [`Reference channel ${channels[order[0]].name}: the first ${channels[order[0]].quantity} channel.`],
+	};
 }

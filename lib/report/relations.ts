@@ -8,7 +8,16 @@ import { phaseRotation } from '../polyphase/rotation.js';
 import { symmetricalComponents } from '../phasor/sequence.js';
 import { loadCharacterFromAngle } from '../power/load-character.js';
 import { pairPowerChannels, type PowerChannelPairing } from '../power/pairing.js';
-import { complexPower, phasorAbs, phasorArgDeg, phasorFromHarmonic, phasorMul, phasorScale, wrapAngleDeg, type ComplexPhasor } from '../phasor/phasor.js';
+import {
+	complexPower,
+	phasorAbs,
+	phasorArgDeg,
+	phasorFromHarmonic,
+	phasorMul,
+	phasorScale,
+	wrapAngleDeg,
+	type ComplexPhasor,
+} from '../phasor/phasor.js';
 import { ieee1459FromComponents } from '../power/single-phase.js';
 import { crossCorrelationLag } from '../power/time-lag.js';
 import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
@@ -20,7 +29,10 @@ import type { ReportPairOverride, ReportPair, ReportPower, ReportThreePhase } fr
  * reference fundamental lies at 0°: a stable phasor per channel even when the windows start at different
  * points of the wave. Magnitudes are RMS; the reference comes out real and positive.
  */
-export function alignedFundamentals(spectra: (ChannelSpectrum | undefined)[], refIndex: number): (ComplexPhasor | undefined)[] {
+export function alignedFundamentals(
+	spectra: (ChannelSpectrum | undefined)[],
+	refIndex: number,
+): (ComplexPhasor | undefined)[] {
 	const ref = spectra[refIndex];
 	if (!ref) return spectra.map(() => undefined);
 	const turns = ref.windows.map((w) => {
@@ -42,7 +54,12 @@ export function alignedFundamentals(spectra: (ChannelSpectrum | undefined)[], re
 }
 
 /** Every other channel with a fundamental against the reference: phasor angle and cross-correlation time lag. */
-export function pairsAgainstReference(capture: Capture, refIndex: number, phasors: (ComplexPhasor | undefined)[], window: PowerSampleWindow): ReportPair[] {
+export function pairsAgainstReference(
+	capture: Capture,
+	refIndex: number,
+	phasors: (ComplexPhasor | undefined)[],
+	window: PowerSampleWindow,
+): ReportPair[] {
 	const ref = capture.channels[refIndex];
 	const out: ReportPair[] = [];
 	capture.channels.forEach((c, i) => {
@@ -65,15 +82,24 @@ export interface PairingResult {
 /** Voltage/current pairs: by phase label (lib/power), the user's overrides first; one V and one I pair anyway. */
 export function pairChannels(channels: Channel[], overrides: ReportPairOverride[] | undefined): PairingResult {
 	const pairing = pairPowerChannels(channels, overrides ?? []);
-	const assumptions = pairing.diagnostics.filter((d) => d.severity !== 'info' || d.code === 'pairing-auto').map((d) => d.message);
+	const assumptions = pairing.diagnostics
+		.filter((d) => d.severity !== 'info' || d.code === 'pairing-auto')
+		.map((d) => d.message);
 	const idx = (name: string) => channels.findIndex((c) => c.name === name);
-	const pairs: PairingResult['pairs'] = pairing.pairs.map((p) => ({ voltage: idx(p.voltage), current: idx(p.current), pairedBy: p.origin === 'override' ? 'user' : 'phase-label', phase: p.phase }));
+	const pairs: PairingResult['pairs'] = pairing.pairs.map((p) => ({
+		voltage: idx(p.voltage),
+		current: idx(p.current),
+		pairedBy: p.origin === 'override' ? 'user' : 'phase-label',
+		phase: p.phase,
+	}));
 	if (pairs.length === 0 && !(overrides && overrides.length)) {
 		const vs = channels.map((c, i) => (c.quantity === 'voltage' ? i : -1)).filter((i) => i >= 0);
 		const is = channels.map((c, i) => (c.quantity === 'current' ? i : -1)).filter((i) => i >= 0);
 		if (vs.length === 1 && is.length === 1) {
 			pairs.push({ voltage: vs[0], current: is[0], pairedBy: 'only-pair', phase: null });
-			assumptions.push(`${channels[vs[0]].name} and ${channels[is[0]].name} paired for power: the only voltage and the only current channel.`);
+			assumptions.push(
+				`${channels[vs[0]].name} and ${channels[is[0]].name} paired for power: the only voltage and the only current channel.`,
+			);
 		}
 	}
 	return { pairs, pairing, assumptions };
@@ -133,7 +159,11 @@ export function pairPower(
 }
 
 /** Three-phase sets: phase voltages (or currents) labelled 1, 2, 3; else exactly three unlabelled channels of a kind. */
-export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing, phasors: (ComplexPhasor | undefined)[]): { sets: ReportThreePhase[]; members: number[][]; assumptions: string[] } {
+export function threePhaseSets(
+	channels: Channel[],
+	pairing: PowerChannelPairing,
+	phasors: (ComplexPhasor | undefined)[],
+): { sets: ReportThreePhase[]; members: number[][]; assumptions: string[] } {
 	const sets: ReportThreePhase[] = [];
 	const memberList: number[][] = [];
 	const assumptions: string[] = [];
@@ -146,10 +176,17 @@ export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing
 		else {
 			const all = channels.map((c, i) => (c.quantity === quantity ? i : -1)).filter((i) => i >= 0);
 			const lines = new Set(pairing.lineVoltages.map((l) => l.name));
-			const plain = all.filter((i) => !lines.has(channels[i].name) && channels[i].name !== pairing.neutralCurrent && channels[i].name !== pairing.neutralVoltage);
+			const plain = all.filter(
+				(i) =>
+					!lines.has(channels[i].name) &&
+					channels[i].name !== pairing.neutralCurrent &&
+					channels[i].name !== pairing.neutralVoltage,
+			);
 			if (labelled.length === 0 && plain.length === 3) {
 				members = plain;
-				assumptions.push(`${plain.map((i) => channels[i].name).join(', ')} taken as phases 1, 2, 3 in column order (no phase labels could be read).`);
+				assumptions.push(
+					`${plain.map((i) => channels[i].name).join(', ')} taken as phases 1, 2, 3 in column order (no phase labels could be read).`,
+				);
 			}
 		}
 		if (!members) continue;
@@ -202,8 +239,16 @@ export function threePhaseSets(channels: Channel[], pairing: PowerChannelPairing
  * way round, U21, counts negated). Line voltages hold no zero sequence; VUF from their sequence
  * components equals the phase-voltage VUF; PVUR needs phase voltages and is NaN.
  */
-function lineToLineSet(channels: Channel[], pairing: PowerChannelPairing, phasors: (ComplexPhasor | undefined)[]): { set: ReportThreePhase; members: number[] } | undefined {
-	const want: [number, number][] = [[1, 2], [2, 3], [3, 1]];
+function lineToLineSet(
+	channels: Channel[],
+	pairing: PowerChannelPairing,
+	phasors: (ComplexPhasor | undefined)[],
+): { set: ReportThreePhase; members: number[] } | undefined {
+	const want: [number, number][] = [
+		[1, 2],
+		[2, 3],
+		[3, 1],
+	];
 	const found = want.map(([a, b]) => {
 		const same = pairing.lineVoltages.find((l) => l.from === a && l.to === b);
 		const reversed = pairing.lineVoltages.find((l) => l.from === b && l.to === a);

@@ -27,11 +27,25 @@ export function fittedPeriods(n: number, sampleRateHz: number, frequencyHz: numb
  * mean and RMS come from the fit (dc and Σ A_h²/2) and rectified mean, form and crest factor and the meter
  * error are withheld (NaN). Harmonics 0…maxOrder, THD_F/THD_R and K-factor to the highest fitted order.
  */
-export function fittedChannel(base: ReportChannel, samples: Float64Array, sampleRateHz: number, r: ShortRecordResult, index: number, nominalHz: number | undefined, maxOrder: number): ReportChannel {
+export function fittedChannel(
+	base: ReportChannel,
+	samples: Float64Array,
+	sampleRateHz: number,
+	r: ShortRecordResult,
+	index: number,
+	nominalHz: number | undefined,
+	maxOrder: number,
+): ReportChannel {
 	const set = r.sets[index];
 	const fitted = r.fit.channels[index];
 	const window = fittedPeriods(samples.length, sampleRateHz, r.fit.frequencyHz);
-	const figs = waveformFigures(samples, sampleRateHz, window ? { span: 'whole-cycles', window, nominalHz, maxOrder } : { span: 'whole-record', frequencyHz: r.fit.frequencyHz, nominalHz, maxOrder });
+	const figs = waveformFigures(
+		samples,
+		sampleRateHz,
+		window
+			? { span: 'whole-cycles', window, nominalHz, maxOrder }
+			: { span: 'whole-record', frequencyHz: r.fit.frequencyHz, nominalHz, maxOrder },
+	);
 	const rmsByOrder = set.orders.map((o) => (Number.isNaN(o.rms) ? 0 : o.rms));
 	const thdOrder = Math.min(maxOrder, 50, r.fit.highestOrder);
 	const h1 = set.orders[1].rms;
@@ -52,9 +66,23 @@ export function fittedChannel(base: ReportChannel, samples: Float64Array, sample
 		thdRPercent: thdRPercent(rmsByOrder, thdOrder),
 		thdMaxOrder: thdOrder,
 		kFactor: ulKFactor(rmsByOrder, thdOrder),
-		averageResponding: whole ? meterModel(samples, figs, window) : { coupling: 'ac', reading: NaN, trueRms: NaN, errorPercent: NaN, dcCoupled: { reading: NaN, trueRms: NaN, errorPercent: NaN }, dcMatters: false },
+		averageResponding: whole
+			? meterModel(samples, figs, window)
+			: {
+					coupling: 'ac',
+					reading: NaN,
+					trueRms: NaN,
+					errorPercent: NaN,
+					dcCoupled: { reading: NaN, trueRms: NaN, errorPercent: NaN },
+					dcMatters: false,
+				},
 		intervals: null,
-		harmonics: set.orders.map((o) => ({ order: o.order, rms: o.rms, percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN, phaseDeg: o.phaseDeg })),
+		harmonics: set.orders.map((o) => ({
+			order: o.order,
+			rms: o.rms,
+			percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN,
+			phaseDeg: o.phaseDeg,
+		})),
 		groups: null,
 		thdVariants: null,
 		worstCycle: null,
@@ -73,7 +101,13 @@ export function markBelowResolution(channel: ReportChannel, resolution: ChannelR
 	const floor = resolution.harmonicFloorRms;
 	return {
 		...channel,
-		resolution: { codeStep: resolution.codeStep, codesUsed: resolution.codesUsed, bitsUsed: resolution.bitsUsed, noiseRms: resolution.noiseRms, harmonicFloorRms: floor },
+		resolution: {
+			codeStep: resolution.codeStep,
+			codesUsed: resolution.codesUsed,
+			bitsUsed: resolution.bitsUsed,
+			noiseRms: resolution.noiseRms,
+			harmonicFloorRms: floor,
+		},
 		harmonics: channel.harmonics.map((h) => (h.order >= 1 && h.rms < floor ? { ...h, belowResolution: true } : h)),
 	};
 }

@@ -37,16 +37,27 @@ export interface ShortRecordResult {
  * @param floors  per channel, its rounding floor (RMS) or 0 when it shows no code step
  * @returns the fit, or a sentence saying why none (too short, no fundamental on the reference)
  */
-export function fitShortRecord(capture: Capture, refIndex: number, maxOrder: number, nominalHz: number | undefined, resolutions: (ChannelResolution | undefined)[]): ShortRecordResult | string {
+export function fitShortRecord(
+	capture: Capture,
+	refIndex: number,
+	maxOrder: number,
+	nominalHz: number | undefined,
+	resolutions: (ChannelResolution | undefined)[],
+): ShortRecordResult | string {
 	const fs = capture.sampleRateHz;
 	const n = capture.channels[0]?.samples.length ?? 0;
 	const range = nominalHz !== undefined ? { lowHz: 0.7 * nominalHz, highHz: 1.3 * nominalHz } : SHORT_RECORD_SEARCH_HZ;
 	if ((n * range.highHz) / fs < SHORT_RECORD_MIN_CYCLES) {
 		return `The record lasts ${round((1000 * n) / fs)} ms, under ${SHORT_RECORD_MIN_CYCLES} cycle of anything up to ${round(range.highHz)} Hz: too short even for a fit.`;
 	}
-	if (capture.channels.some((c) => c.samples.some((x) => !Number.isFinite(x)))) return 'Some samples are not numbers: no fit.';
+	if (capture.channels.some((c) => c.samples.some((x) => !Number.isFinite(x))))
+		return 'Some samples are not numbers: no fit.';
 	const floors = resolutions.map((r) => (r ? r.harmonicFloorRms * Math.SQRT2 : 0));
-	const fit = fitSharedSine(capture.channels.map((c) => c.samples), fs, { ...range, maxOrder, floors });
+	const fit = fitSharedSine(
+		capture.channels.map((c) => c.samples),
+		fs,
+		{ ...range, maxOrder, floors },
+	);
 	if (!fit.ok) return fit.message;
 	const ref = fit.channels[refIndex];
 	if (!(ref.amplitude[1] > FOUND_STD * ref.amplitudeStd[1] && ref.amplitude[1] > floors[refIndex])) {
@@ -64,7 +75,8 @@ export function fitShortRecord(capture: Capture, refIndex: number, maxOrder: num
 	}));
 	const info: ReportShortRecord = {
 		note: FITTED_NOTE,
-		method: 'least-squares sine fit, one frequency shared by all channels, harmonics to the highest order the record resolves (IEEE Std 1057 four-parameter fit, extended)',
+		method:
+			'least-squares sine fit, one frequency shared by all channels, harmonics to the highest order the record resolves (IEEE Std 1057 four-parameter fit, extended)',
 		frequencyHz: fit.frequencyHz,
 		frequencyUncertaintyHz: fit.frequencyStdHz,
 		cyclesHeld: fit.cycles,
@@ -79,7 +91,11 @@ export function fitShortRecord(capture: Capture, refIndex: number, maxOrder: num
 function fittedSet(c: SineFit['channels'][number], fit: SineFit, maxOrder: number): HarmonicSet {
 	const orders = [{ order: 0, rms: Math.abs(c.dc), phaseDeg: c.dc > 0 ? 0 : c.dc < 0 ? 180 : NaN }];
 	for (let h = 1; h <= maxOrder; h++) {
-		orders.push(h <= fit.highestOrder ? { order: h, rms: c.amplitude[h] / Math.SQRT2, phaseDeg: c.amplitude[h] > 0 ? deg(c.phaseRad[h]) : NaN } : { order: h, rms: NaN, phaseDeg: NaN });
+		orders.push(
+			h <= fit.highestOrder
+				? { order: h, rms: c.amplitude[h] / Math.SQRT2, phaseDeg: c.amplitude[h] > 0 ? deg(c.phaseRad[h]) : NaN }
+				: { order: h, rms: NaN, phaseDeg: NaN },
+		);
 	}
 	return { fundamentalHz: fit.frequencyHz, startS: 0, cycles: fit.cycles, orders };
 }
@@ -108,14 +124,22 @@ export function fittedPairs(capture: Capture, refIndex: number, r: ShortRecordRe
 			other: capture.channels[i].name,
 			lagDeg,
 			lagS: lagDeg / (360 * r.fit.frequencyHz),
-			fit: { lagDegUncertainty: ok ? sdDeg : NaN, lagSUncertainty: ok ? sdDeg / (360 * r.fit.frequencyHz) : NaN, note: FITTED_NOTE },
+			fit: {
+				lagDegUncertainty: ok ? sdDeg : NaN,
+				lagSUncertainty: ok ? sdDeg / (360 * r.fit.frequencyHz) : NaN,
+				note: FITTED_NOTE,
+			},
 		});
 	});
 	return out;
 }
 
 /** IEEE 1459 power of each voltage/current pair from the fitted harmonic sets, with first-order uncertainties. */
-export function fittedPower(capture: Capture, r: ShortRecordResult, overrides: Parameters<typeof pairChannels>[1]): { power: ReportPower[]; assumptions: string[] } {
+export function fittedPower(
+	capture: Capture,
+	r: ShortRecordResult,
+	overrides: Parameters<typeof pairChannels>[1],
+): { power: ReportPower[]; assumptions: string[] } {
 	const pairing = pairChannels(capture.channels, overrides);
 	const power = pairing.pairs.map((p): ReportPower => {
 		const q = singlePhasePowerFromHarmonics(r.sets[p.voltage], r.sets[p.current]);
@@ -124,8 +148,16 @@ export function fittedPower(capture: Capture, r: ShortRecordResult, overrides: P
 		const th = (q.theta1Deg * Math.PI) / 180;
 		const dTh = Math.hypot(v.phaseStdRad[1], i.phaseStdRad[1]);
 		const [dV, dI] = [v.amplitudeStd[1] / Math.SQRT2, i.amplitudeStd[1] / Math.SQRT2];
-		const dP1 = Math.hypot(q.i1RmsA * dV * Math.cos(th), q.v1RmsV * dI * Math.cos(th), q.v1RmsV * q.i1RmsA * Math.sin(th) * dTh);
-		const dQ1 = Math.hypot(q.i1RmsA * dV * Math.sin(th), q.v1RmsV * dI * Math.sin(th), q.v1RmsV * q.i1RmsA * Math.cos(th) * dTh);
+		const dP1 = Math.hypot(
+			q.i1RmsA * dV * Math.cos(th),
+			q.v1RmsV * dI * Math.cos(th),
+			q.v1RmsV * q.i1RmsA * Math.sin(th) * dTh,
+		);
+		const dQ1 = Math.hypot(
+			q.i1RmsA * dV * Math.sin(th),
+			q.v1RmsV * dI * Math.sin(th),
+			q.v1RmsV * q.i1RmsA * Math.cos(th) * dTh,
+		);
 		const all: Record<string, number> = {};
 		for (const [k, x] of Object.entries(q)) if (typeof x === 'number') all[k] = x;
 		const ch = loadCharacterFromAngle(q.theta1Deg);
@@ -139,13 +171,28 @@ export function fittedPower(capture: Capture, r: ShortRecordResult, overrides: P
 			displacementPowerFactor: q.displacementPowerFactor,
 			...(() => {
 				const cur = r.sets[p.current].orders.map((o) => (Number.isNaN(o.rms) ? 0 : o.rms));
-				const words = loadWords(q.displacementPowerFactor, q.fundamentalReactivePowerVar, thdFPercent(cur, Math.min(50, r.fit.highestOrder)));
-				return { character: ch.character === 'undetermined' ? null : words.character, relation: words.relation, loadSentence: words.sentence, powerFactorIntervals: null };
+				const words = loadWords(
+					q.displacementPowerFactor,
+					q.fundamentalReactivePowerVar,
+					thdFPercent(cur, Math.min(50, r.fit.highestOrder)),
+				);
+				return {
+					character: ch.character === 'undetermined' ? null : words.character,
+					relation: words.relation,
+					loadSentence: words.sentence,
+					powerFactorIntervals: null,
+				};
 			})(),
 			ieee1459: all,
 			pairedBy: p.pairedBy,
 			phase: p.phase,
-			fit: { fundamentalActiveWUncertainty: dP1, reactiveVarUncertainty: dQ1, displacementPowerFactorUncertainty: Math.abs(Math.sin(th)) * dTh, theta1UncertaintyDeg: deg(dTh), note: FITTED_NOTE },
+			fit: {
+				fundamentalActiveWUncertainty: dP1,
+				reactiveVarUncertainty: dQ1,
+				displacementPowerFactorUncertainty: Math.abs(Math.sin(th)) * dTh,
+				theta1UncertaintyDeg: deg(dTh),
+				note: FITTED_NOTE,
+			},
 		};
 	});
 	return { power, assumptions: pairing.assumptions };

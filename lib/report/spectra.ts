@@ -49,10 +49,22 @@ export interface ChannelSpectrum {
 export const HARMONIC_RATE_HZ = 400_000;
 
 /** Every window of one channel, and their aggregate. `slots` must not be empty. */
-export function channelSpectrum(samples: Float64Array, sampleRateHz: number, slots: WindowSlot[], maxOrder: number): ChannelSpectrum {
+export function channelSpectrum(
+	samples: Float64Array,
+	sampleRateHz: number,
+	slots: WindowSlot[],
+	maxOrder: number,
+): ChannelSpectrum {
 	const m = Math.floor(sampleRateHz / HARMONIC_RATE_HZ);
 	if (m >= 2) return decimatedSpectrum(samples, sampleRateHz, slots, maxOrder, m);
-	const windows = slots.map((s) => harmonicWindow(samples, sampleRateHz, { fundamentalHz: s.fundamentalHz, startIndex: s.startIndex, cycles: s.cycles, maxOrder }));
+	const windows = slots.map((s) =>
+		harmonicWindow(samples, sampleRateHz, {
+			fundamentalHz: s.fundamentalHz,
+			startIndex: s.startIndex,
+			cycles: s.cycles,
+			maxOrder,
+		}),
+	);
 	return { windows, aggregate: aggregateHarmonicWindows(windows) };
 }
 
@@ -61,7 +73,13 @@ export function channelSpectrum(samples: Float64Array, sampleRateHz: number, slo
  * multiple of the new rate). Block j stands at (jM + (M − 1)/2): window starts are mapped to that time
  * base and back, so phases refer to the same instants. O(N).
  */
-function decimatedSpectrum(samples: Float64Array, sampleRateHz: number, slots: WindowSlot[], maxOrder: number, m: number): ChannelSpectrum {
+function decimatedSpectrum(
+	samples: Float64Array,
+	sampleRateHz: number,
+	slots: WindowSlot[],
+	maxOrder: number,
+	m: number,
+): ChannelSpectrum {
 	const count = Math.floor(samples.length / m);
 	const y = new Float64Array(count);
 	for (let j = 0; j < count; j++) {
@@ -71,7 +89,12 @@ function decimatedSpectrum(samples: Float64Array, sampleRateHz: number, slots: W
 	}
 	const shift = (m - 1) / 2;
 	const windows = slots.map((s) => {
-		const w = harmonicWindow(y, sampleRateHz / m, { fundamentalHz: s.fundamentalHz, startIndex: Math.max(0, (s.startIndex - shift) / m), cycles: s.cycles, maxOrder });
+		const w = harmonicWindow(y, sampleRateHz / m, {
+			fundamentalHz: s.fundamentalHz,
+			startIndex: Math.max(0, (s.startIndex - shift) / m),
+			cycles: s.cycles,
+			maxOrder,
+		});
 		return { ...w, startIndex: w.startIndex * m + shift, endIndex: w.endIndex * m + shift };
 	});
 	return { windows, aggregate: aggregateHarmonicWindows(windows) };

@@ -55,7 +55,8 @@ export const VERDICT_THRESHOLDS: Readonly<Record<VerdictThresholdId, VerdictThre
 		id: 'displacementExplainsPowerFactor',
 		value: 0.95,
 		unit: '',
-		meaning: 'with a displacement power factor at or above this, a low power factor comes from harmonic current (PF = DPF × I1/I, IEEE 1459-2010)',
+		meaning:
+			'with a displacement power factor at or above this, a low power factor comes from harmonic current (PF = DPF × I1/I, IEEE 1459-2010)',
 		source: 'our choice: the displacement then costs at most 5 % of the power factor',
 	},
 	nearUnityDisplacement: {
@@ -63,13 +64,15 @@ export const VERDICT_THRESHOLDS: Readonly<Record<VerdictThresholdId, VerdictThre
 		value: 0.99,
 		unit: '',
 		meaning: 'a displacement power factor at or above this is called near unity (current in step with the voltage)',
-		source: 'our choice: within 8° of the voltage, the phase error of an ordinary clamp plus a small filter capacitor or magnetising current',
+		source:
+			'our choice: within 8° of the voltage, the phase error of an ordinary clamp plus a small filter capacitor or magnetising current',
 	},
 	sinusoidalCurrentThdPercent: {
 		id: 'sinusoidalCurrentThdPercent',
 		value: 10,
 		unit: '%',
-		meaning: 'below this current THD the current is close enough to a sine that the words inductive/capacitive (a fundamental-only model) fit',
+		meaning:
+			'below this current THD the current is close enough to a sine that the words inductive/capacitive (a fundamental-only model) fit',
 		source: 'our choice: at 10 % THD the harmonics carry under 1 % of the current RMS (√(1 + 0.1²) = 1.005)',
 	},
 	voltageUnbalancePercent: {
@@ -77,13 +80,15 @@ export const VERDICT_THRESHOLDS: Readonly<Record<VerdictThresholdId, VerdictThre
 		value: 2,
 		unit: '%',
 		meaning: 'voltage unbalance (negative / positive sequence) above this is flagged',
-		source: 'EN 50160:2010, 4.2.5: negative-sequence up to 2 % of positive-sequence (10-minute means, 95 % of each week)',
+		source:
+			'EN 50160:2010, 4.2.5: negative-sequence up to 2 % of positive-sequence (10-minute means, 95 % of each week)',
 	},
 	flickerIrritation: {
 		id: 'flickerIrritation',
 		value: 1,
 		unit: '',
-		meaning: 'a Pst or Plt above this may irritate people (half of observers find a 60 W filament lamp irritating at 1)',
+		meaning:
+			'a Pst or Plt above this may irritate people (half of observers find a 60 W filament lamp irritating at 1)',
 		source: 'IEC 61000-4-15: the flickermeter scale (common practice)',
 	},
 	stepDmaxPercent: {

@@ -17,7 +17,16 @@ import type { ReportHarmonicBasis, ReportLimitBasis } from './limits-basis.js';
 import type { MeterModel } from './meter.js';
 import type { VerdictThreshold } from './thresholds.js';
 
-export type { ReportEvents, ReportFinding, ChannelIntervals, IntervalFigure, ReportLimitBasis, ReportHarmonicBasis, MeterModel, VerdictThreshold };
+export type {
+	ReportEvents,
+	ReportFinding,
+	ChannelIntervals,
+	IntervalFigure,
+	ReportLimitBasis,
+	ReportHarmonicBasis,
+	MeterModel,
+	VerdictThreshold,
+};
 
 /** Schema version of the JSON report; bumped on any incompatible change. */
 export const REPORT_SCHEMA_VERSION = 1;
@@ -162,7 +171,9 @@ export interface ReportChannel {
 	 * A sine-calibrated average-responding meter: AC-coupled (the headline: reading, trueRms = AC RMS,
 	 * errorPercent), the DC-coupled reading beside it, and why it misreads the wave (the same numbers).
 	 */
-	averageResponding: MeterModel & { explanation?: { summary: string; reasons: string[]; harmonicsErrorPercent: number; remainderPercent: number } };
+	averageResponding: MeterModel & {
+		explanation?: { summary: string; reasons: string[]; harmonicsErrorPercent: number; remainderPercent: number };
+	};
 	/** Meter error, crest factor and AC RMS judged per 10/12-cycle interval (typical and worst); null without harmonic windows. */
 	intervals: ChannelIntervals | null;
 	/** Orders 0..maxOrder. */
@@ -171,7 +182,12 @@ export interface ReportChannel {
 	 * IEC 61000-4-7 groupings of the aggregated DFT bins (RMS, channel unit), index = order (interharmonic
 	 * index n = between n and n+1); null without harmonics.
 	 */
-	groups: { harmonicGroupRms: number[]; harmonicSubgroupRms: number[]; interharmonicGroupRms: number[]; interharmonicSubgroupRms: number[] } | null;
+	groups: {
+		harmonicGroupRms: number[];
+		harmonicSubgroupRms: number[];
+		interharmonicGroupRms: number[];
+		interharmonicSubgroupRms: number[];
+	} | null;
 	/** The THD variants of lib/spectrum (F/R to order 40 and 50; G from groups, S from subgroups), percent; null without harmonics. */
 	thdVariants: Record<string, number> | null;
 	/** The worst whole cycle by RMS and by peak, null without whole cycles. */
@@ -274,7 +290,13 @@ export interface ReportPower {
 	/** How the pair was formed: 'phase-label', 'only-pair', 'order' or 'user'. */
 	pairedBy: string;
 	/** On a short record: one standard deviation of the fundamental figures, and the 'from a fit' note. */
-	fit?: { fundamentalActiveWUncertainty: number; reactiveVarUncertainty: number; displacementPowerFactorUncertainty: number; theta1UncertaintyDeg: number; note: string };
+	fit?: {
+		fundamentalActiveWUncertainty: number;
+		reactiveVarUncertainty: number;
+		displacementPowerFactorUncertainty: number;
+		theta1UncertaintyDeg: number;
+		note: string;
+	};
 }
 
 export interface ReportThreePhase {
@@ -340,7 +362,13 @@ export interface AnalysisReport {
 	frequencyHz: number;
 	referenceChannel: string | null;
 	/** The span analysed, seconds from the first sample. */
-	window: { startS: number; endS: number; span: 'whole-cycles' | 'whole-record'; harmonicWindowCycles: number; harmonicWindows: number };
+	window: {
+		startS: number;
+		endS: number;
+		span: 'whole-cycles' | 'whole-record';
+		harmonicWindowCycles: number;
+		harmonicWindows: number;
+	};
 	/** Every importer diagnostic and analysis assumption, as sentences. */
 	assumptions: string[];
 	/** Importer diagnostics with their codes and locations (structured form of part of `assumptions`). */

@@ -34,7 +34,13 @@ export interface NumberWords {
 
 const NONE = '–';
 const PREFIXABLE = new Set(['V', 'A', 'W', 'VA', 'var', 'Hz', 's', 'Ω']);
-const PREFIXES: [number, string][] = [[1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ']];
+const PREFIXES: [number, string][] = [
+	[1e6, 'M'],
+	[1e3, 'k'],
+	[1, ''],
+	[1e-3, 'm'],
+	[1e-6, 'µ'],
+];
 
 function decimalsFor(value: number, significant: number): number {
 	const a = Math.abs(value);
@@ -71,7 +77,8 @@ export function numberWords(fixed: FixedFormat = plainFixed): NumberWords {
 			const a = Math.abs(seconds);
 			if (a >= 1) return `${f(seconds, decimalsFor(seconds, 3))} s`;
 			// 10 µs steps below 10 ms (a phase lag), 3 significant digits above (an event of 130 ms)
-			if (a >= 1e-4 || a === 0) return `${f(seconds * 1e3, a === 0 ? 0 : a < 0.01 ? 2 : decimalsFor(seconds * 1e3, 3))} ms`;
+			if (a >= 1e-4 || a === 0)
+				return `${f(seconds * 1e3, a === 0 ? 0 : a < 0.01 ? 2 : decimalsFor(seconds * 1e3, 3))} ms`;
 			return `${f(seconds * 1e6, 1)} µs`;
 		},
 		at(seconds) {
@@ -88,6 +95,7 @@ export const PLAIN_WORDS = numberWords();
 
 /** 1st, 2nd, 3rd, 11th... */
 export function ordinal(n: number): string {
-	const s = n % 100 >= 11 && n % 100 <= 13 ? 'th' : ({ 1: 'st', 2: 'nd', 3: 'rd' } as Record<number, string>)[n % 10] ?? 'th';
+	const s =
+		n % 100 >= 11 && n % 100 <= 13 ? 'th' : (({ 1: 'st', 2: 'nd', 3: 'rd' } as Record<number, string>)[n % 10] ?? 'th');
 	return `${n}${s}`;
 }

@@ -16,14 +16,29 @@
  * Ref: clipping as a slope discontinuity at a flat top (common practice); least-squares parabola (closed form).
  * @param codeStep  the channel's code step (0 when unknown)
  */
-export function runShowsSlopeBreak(samples: Float64Array, first: number, last: number, side: 1 | -1, level: number, codeStep: number): boolean {
+export function runShowsSlopeBreak(
+	samples: Float64Array,
+	first: number,
+	last: number,
+	side: 1 | -1,
+	level: number,
+	codeStep: number,
+): boolean {
 	const run = last - first + 1;
 	const flank = Math.max(8, run);
 	if (first - flank < 0 || last + flank >= samples.length) return false;
 	const centre = (first + last) / 2;
 	const scale = (run + 2 * flank) / 2;
 	// normal equations of a + b·u + c·u², u = (i − centre)/scale, over both flanks
-	let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, y0 = 0, y1 = 0, y2 = 0, yy = 0;
+	let s0 = 0,
+		s1 = 0,
+		s2 = 0,
+		s3 = 0,
+		s4 = 0,
+		y0 = 0,
+		y1 = 0,
+		y2 = 0,
+		yy = 0;
 	const add = (i: number) => {
 		const u = (i - centre) / scale;
 		const y = side * (samples[i] - level);

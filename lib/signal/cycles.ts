@@ -93,11 +93,15 @@ export function findWholeCycles(
 	const bad = checkParameters(sampleRateHz, opts);
 	if (bad) return fail('bad-parameter', bad);
 	const n = samples.length;
-	if (n < 8) return fail('too-short', `The record has ${n} sample${n === 1 ? '' : 's'}; at least two whole cycles are needed.`);
+	if (n < 8)
+		return fail('too-short', `The record has ${n} sample${n === 1 ? '' : 's'}; at least two whole cycles are needed.`);
 	let mean = 0;
 	for (let i = 0; i < n; i++) {
 		if (!Number.isFinite(samples[i])) {
-			return fail('bad-parameter', `Sample at index ${i} is ${samples[i]}: remove or repair non-numeric samples before analysis.`);
+			return fail(
+				'bad-parameter',
+				`Sample at index ${i} is ${samples[i]}: remove or repair non-numeric samples before analysis.`,
+			);
 		}
 		mean += samples[i];
 	}
@@ -110,13 +114,15 @@ export function findWholeCycles(
 		return fail('dc-only', `The record is constant (${fmt(mean)}): no alternating signal, so no cycles or frequency.`);
 	}
 
-	if (opts.frequencyHz === undefined && opts.nominalHz !== undefined && (n * 1.3 * opts.nominalHz) / sampleRateHz < 1.8) return tooShortBlind(n, sampleRateHz);
+	if (opts.frequencyHz === undefined && opts.nominalHz !== undefined && (n * 1.3 * opts.nominalHz) / sampleRateHz < 1.8)
+		return tooShortBlind(n, sampleRateHz);
 	const block = Math.floor(sampleRateHz / CROSSING_RATE_HZ);
 	if (block >= 2 && n >= 16 * block) return onBlockMeans(samples, sampleRateHz, opts, block);
 	let frequencyHz = opts.frequencyHz ?? coarseFrequencyHz(samples, sampleRateHz, { nominalHz: opts.nominalHz });
 	if (!Number.isFinite(frequencyHz) || frequencyHz <= 0) {
 		// a record under two cycles of the lowest mains frequency searched (0.7 × 50 Hz): its peak lies below the search
-		if (opts.frequencyHz === undefined && n / sampleRateHz < 2 / (0.7 * (opts.nominalHz ?? 50))) return tooShortBlind(n, sampleRateHz);
+		if (opts.frequencyHz === undefined && n / sampleRateHz < 2 / (0.7 * (opts.nominalHz ?? 50)))
+			return tooShortBlind(n, sampleRateHz);
 		return fail('no-fundamental', 'No periodic fundamental stands out in the spectrum of this record.');
 	}
 	const recordCycles = (n * frequencyHz) / sampleRateHz;
@@ -132,7 +138,10 @@ export function findWholeCycles(
 	for (let pass = 0; pass < 8; pass++) {
 		track = trackCrossings(samples, sampleRateHz / frequencyHz, opts.maxCycles, opts.toRecordEnd === true);
 		if (track.irregular) break;
-		if (track.crossings.length < 3) return blind && recordCycles < 2.2 ? tooShortBlind(n, sampleRateHz) : tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
+		if (track.crossings.length < 3)
+			return blind && recordCycles < 2.2
+				? tooShortBlind(n, sampleRateHz)
+				: tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
 		const c = track.crossings;
 		const measuredHz = ((c.length - 1) * sampleRateHz) / (c[c.length - 1] - c[0]);
 		const gapHz = measuredHz - frequencyHz;
@@ -147,8 +156,13 @@ export function findWholeCycles(
 	}
 	const t = track as Track;
 	if (t.irregular || !(t.periodSpread <= MAX_PERIOD_SPREAD)) {
-		const spread = t.irregular ? 'successive zero crossings jump by more than half a cycle' : `cycle lengths vary by ${fmt(100 * t.periodSpread)} % (at most ${100 * MAX_PERIOD_SPREAD} % accepted)`;
-		return fail('no-fundamental', `No steady fundamental near ${fmt(frequencyHz)} Hz: ${spread}. The record looks like noise or a non-periodic signal.`);
+		const spread = t.irregular
+			? 'successive zero crossings jump by more than half a cycle'
+			: `cycle lengths vary by ${fmt(100 * t.periodSpread)} % (at most ${100 * MAX_PERIOD_SPREAD} % accepted)`;
+		return fail(
+			'no-fundamental',
+			`No steady fundamental near ${fmt(frequencyHz)} Hz: ${spread}. The record looks like noise or a non-periodic signal.`,
+		);
 	}
 	if (!(t.fundamentalRatio >= MIN_FUNDAMENTAL_RATIO)) {
 		return fail(
@@ -158,7 +172,8 @@ export function findWholeCycles(
 		);
 	}
 	let crossings = Float64Array.from(t.crossings);
-	if (opts.maxCycles !== undefined && crossings.length - 1 > opts.maxCycles) crossings = crossings.slice(0, opts.maxCycles + 1);
+	if (opts.maxCycles !== undefined && crossings.length - 1 > opts.maxCycles)
+		crossings = crossings.slice(0, opts.maxCycles + 1);
 	const cycles = crossings.length - 1;
 	const startIndex = crossings[0];
 	const endIndex = crossings[cycles];
@@ -177,7 +192,8 @@ function checkParameters(
 	sampleRateHz: number,
 	opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number },
 ): string | undefined {
-	if (!(Number.isFinite(sampleRateHz) && sampleRateHz > 0)) return `Sample rate must be a positive number of Hz, got ${sampleRateHz}.`;
+	if (!(Number.isFinite(sampleRateHz) && sampleRateHz > 0))
+		return `Sample rate must be a positive number of Hz, got ${sampleRateHz}.`;
 	if (opts.frequencyHz !== undefined && !(opts.frequencyHz > 0 && opts.frequencyHz < sampleRateHz / 2)) {
 		return `Frequency must lie between 0 and half the sample rate (${fmt(sampleRateHz / 2)} Hz), got ${opts.frequencyHz}.`;
 	}
@@ -225,7 +241,12 @@ function overflowFailure(samples: Float64Array, mean: number): SignalFailure {
 const CROSSING_RATE_HZ = 51_200;
 
 /** findWholeCycles on block means (block j stands at jM + (M − 1)/2), crossings mapped back to sample indices. */
-function onBlockMeans(samples: Float64Array, sampleRateHz: number, opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number; toRecordEnd?: boolean }, m: number): ({ ok: true } & CycleWindow) | SignalFailure {
+function onBlockMeans(
+	samples: Float64Array,
+	sampleRateHz: number,
+	opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number; toRecordEnd?: boolean },
+	m: number,
+): ({ ok: true } & CycleWindow) | SignalFailure {
 	const n = samples.length;
 	const count = Math.floor(n / m);
 	const y = new Float64Array(count);
@@ -236,13 +257,22 @@ function onBlockMeans(samples: Float64Array, sampleRateHz: number, opts: { frequ
 	}
 	const r = findWholeCycles(y, sampleRateHz / m, opts);
 	// a duration quoted from the block means would drop the last partial block: quote the record's own
-	if (!r.ok) return r.code === 'too-short' && r.message.startsWith('The record lasts') ? tooShortBlind(n, sampleRateHz) : r;
+	if (!r.ok)
+		return r.code === 'too-short' && r.message.startsWith('The record lasts') ? tooShortBlind(n, sampleRateHz) : r;
 	const last = opts.toRecordEnd ? n : n - 1;
 	const mapped = Array.from(r.crossings, (c) => c * m + (m - 1) / 2).filter((c) => c >= 0 && c <= last);
 	if (mapped.length < 3) return tooShort((n * r.frequencyHz) / sampleRateHz, r.frequencyHz, mapped.length - 1);
 	const crossings = Float64Array.from(mapped);
 	const cycles = crossings.length - 1;
-	return { ok: true, startIndex: crossings[0], endIndex: crossings[cycles], cycles, frequencyHz: (cycles * sampleRateHz) / (crossings[cycles] - crossings[0]), crossings, bridgedCrossings: r.bridgedCrossings };
+	return {
+		ok: true,
+		startIndex: crossings[0],
+		endIndex: crossings[cycles],
+		cycles,
+		frequencyHz: (cycles * sampleRateHz) / (crossings[cycles] - crossings[0]),
+		crossings,
+		bridgedCrossings: r.bridgedCrossings,
+	};
 }
 
 function tooShortBlind(n: number, sampleRateHz: number): SignalFailure {

@@ -67,7 +67,16 @@ export function fitFundamental(
 	const hcw = Math.cos(hannStep);
 	const hsw = Math.sin(hannStep);
 
-	let sW = 0, sC = 0, sS = 0, sCC = 0, sSS = 0, sCS = 0, sX = 0, sXC = 0, sXS = 0, sXX = 0;
+	let sW = 0,
+		sC = 0,
+		sS = 0,
+		sCC = 0,
+		sSS = 0,
+		sCS = 0,
+		sX = 0,
+		sXC = 0,
+		sXS = 0,
+		sXX = 0;
 	for (let i = first; i <= last; i++) {
 		const w = hs * hs;
 		const x = samples[i];
@@ -89,8 +98,7 @@ export function fitFundamental(
 		hc = h2;
 	}
 	// Solve [[sW sC sS][sC sCC sCS][sS sCS sSS]]·[d a b] = [sX sXC sXS] by Cramer's rule.
-	const det =
-		sW * (sCC * sSS - sCS * sCS) - sC * (sC * sSS - sCS * sS) + sS * (sC * sCS - sCC * sS);
+	const det = sW * (sCC * sSS - sCS * sCS) - sC * (sC * sSS - sCS * sS) + sS * (sC * sCS - sCC * sS);
 	if (!(Math.abs(det) > 0)) return { crossingIndex: NaN, amplitude: 0, residualRms: NaN };
 	const d = (sX * (sCC * sSS - sCS * sCS) - sC * (sXC * sSS - sCS * sXS) + sS * (sXC * sCS - sCC * sXS)) / det;
 	const a = (sW * (sXC * sSS - sXS * sCS) - sX * (sC * sSS - sCS * sS) + sS * (sC * sXS - sXC * sS)) / det;

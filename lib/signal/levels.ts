@@ -119,7 +119,8 @@ export function waveformFigures(
 		peakAccuracyPercent?: number;
 	} = {},
 ): WaveformFigures {
-	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
+	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
+		throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
 	const n = samples.length;
 	const warnings: Diagnostic[] = [];
 	if (n === 0) {
@@ -129,7 +130,11 @@ export function waveformFigures(
 	let frequencyHz = opts.window?.frequencyHz ?? opts.frequencyHz;
 	let cycleWindow = opts.window;
 	if (opts.span !== 'whole-record' && cycleWindow === undefined) {
-		const found = findWholeCycles(samples, sampleRateHz, { frequencyHz: opts.frequencyHz, nominalHz: opts.nominalHz, toRecordEnd: true });
+		const found = findWholeCycles(samples, sampleRateHz, {
+			frequencyHz: opts.frequencyHz,
+			nominalHz: opts.nominalHz,
+			toRecordEnd: true,
+		});
 		if (found.ok) {
 			cycleWindow = found;
 			frequencyHz = found.frequencyHz;
@@ -142,8 +147,13 @@ export function waveformFigures(
 		}
 	}
 	// The record covers N sample intervals, [0, N): a window may end at N (see window-integral.ts).
-	if (cycleWindow !== undefined && !(cycleWindow.startIndex >= 0 && cycleWindow.endIndex <= n && cycleWindow.endIndex > cycleWindow.startIndex)) {
-		throw new RangeError(`window ${cycleWindow.startIndex}…${cycleWindow.endIndex} does not lie inside the record's 0…${n}`);
+	if (
+		cycleWindow !== undefined &&
+		!(cycleWindow.startIndex >= 0 && cycleWindow.endIndex <= n && cycleWindow.endIndex > cycleWindow.startIndex)
+	) {
+		throw new RangeError(
+			`window ${cycleWindow.startIndex}…${cycleWindow.endIndex} does not lie inside the record's 0…${n}`,
+		);
 	}
 	if (cycleWindow?.bridgedCrossings) {
 		warnings.push({
@@ -171,9 +181,11 @@ export function waveformFigures(
 
 	// Whole record: each sample weighs 1/N. Whole cycles: trapezoid over the fractional window; a window
 	// ending past the last sample (at most at N) takes the value there one period earlier.
-	const periodSamples = cycleWindow && cycleWindow.cycles >= 1 ? (endIndex - startIndex) / cycleWindow.cycles : endIndex - startIndex;
+	const periodSamples =
+		cycleWindow && cycleWindow.cycles >= 1 ? (endIndex - startIndex) / cycleWindow.cycles : endIndex - startIndex;
 	const average = cycleWindow
-		? (g: (x: number) => number, inner: InnerSum) => windowIntegral(samples, startIndex, endIndex, g, periodSamples, inner) / (endIndex - startIndex)
+		? (g: (x: number) => number, inner: InnerSum) =>
+				windowIntegral(samples, startIndex, endIndex, g, periodSamples, inner) / (endIndex - startIndex)
 		: (g: (x: number) => number, inner: InnerSum) => windowIntegral(samples, 0, n, g, n, inner) / n;
 	const mean = average((x) => x, { kind: 'x' });
 	const rms = Math.sqrt(average((x) => x * x, { kind: 'square', about: 0 }));

@@ -66,7 +66,10 @@ export function orthonormalise(cols: Float64Array[]): QrBasis {
 }
 
 /** Coefficients β (basis·β ≈ y), residual y − basis·β and its sum of squares. */
-export function solveOnBasis(qr: QrBasis, y: Float64Array): { beta: Float64Array; residual: Float64Array; rss: number } {
+export function solveOnBasis(
+	qr: QrBasis,
+	y: Float64Array,
+): { beta: Float64Array; residual: Float64Array; rss: number } {
 	const k = qr.q.length;
 	const z = new Float64Array(k);
 	const residual = Float64Array.from(y);

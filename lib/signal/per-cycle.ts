@@ -51,7 +51,10 @@ export function perCycleFigures(samples: Float64Array, cycleWindow: CycleWindow)
 	let worstPeak = -Infinity;
 	const square = (x: number) => x * x;
 	for (let k = 0; k < cycles; k++) {
-		rms[k] = Math.sqrt(windowIntegral(samples, c[k], c[k + 1], square, c[k + 1] - c[k], { kind: 'square', about: 0 }) / (c[k + 1] - c[k]));
+		rms[k] = Math.sqrt(
+			windowIntegral(samples, c[k], c[k + 1], square, c[k + 1] - c[k], { kind: 'square', about: 0 }) /
+				(c[k + 1] - c[k]),
+		);
 		const e = extremaIn(samples, c[k], c[k + 1]);
 		const nan = !Number.isFinite(rms[k]);
 		peak[k] = nan ? NaN : e.max;

@@ -4,7 +4,14 @@
  * whole cycles (and a DFT over them) cannot.
  */
 import { decimateForFit, decimationGain, decimationNoiseInflation } from './fit-decimate.js';
-import { harmonicBasis, inverseGramDiagonal, orthonormalise, projectOut, solveOnBasis, type QrBasis } from './linear-fit.js';
+import {
+	harmonicBasis,
+	inverseGramDiagonal,
+	orthonormalise,
+	projectOut,
+	solveOnBasis,
+	type QrBasis,
+} from './linear-fit.js';
 
 /** Fitted figures of one channel. Amplitudes are peak values; phases cosine reference at the first sample. */
 export interface SineFitChannel {
@@ -96,7 +103,8 @@ export function fitSharedSine(
 	sampleRateHz: number,
 	opts: { lowHz: number; highHz: number; maxOrder: number; floors?: number[] },
 ): SineFit | SineFitFailure {
-	if (!(sampleRateHz > 0) || !(opts.lowHz > 0 && opts.highHz > opts.lowHz)) throw new RangeError('sampleRateHz and 0 < lowHz < highHz required');
+	if (!(sampleRateHz > 0) || !(opts.lowHz > 0 && opts.highHz > opts.lowHz))
+		throw new RangeError('sampleRateHz and 0 < lowHz < highHz required');
 	const n = channels[0]?.length ?? 0;
 	const byRate = Math.floor(sampleRateHz / (FIT_SAMPLES_PER_TOP_PERIOD * (opts.maxOrder + 1) * opts.highHz));
 	const m = Math.max(1, Math.min(byRate, Math.floor(n / MIN_FIT_SAMPLES)));
@@ -111,18 +119,32 @@ export function fitSharedSine(
 	const rateOrders = Math.max(1, Math.floor((0.45 * fitRate) / opts.highHz));
 	const omegaOf = (hz: number) => (2 * Math.PI * hz) / sampleRateHz;
 
-	let omega = gridSearch(ys, tau, weights, omegaOf(opts.lowHz), omegaOf(opts.highHz), n, Math.min(SEARCH_ORDERS, rateOrders));
+	let omega = gridSearch(
+		ys,
+		tau,
+		weights,
+		omegaOf(opts.lowHz),
+		omegaOf(opts.highHz),
+		n,
+		Math.min(SEARCH_ORDERS, rateOrders),
+	);
 	omega = gaussNewton(ys, tau, weights, omega, Math.min(SEARCH_ORDERS, rateOrders));
 	omega = gaussNewton(ys, tau, weights, omega, Math.min(3, rateOrders));
 	const orders = resolvableOrders(tau, omega, Math.min(opts.maxOrder, rateOrders));
 	const full = finalFit(ys, tau, omega, orders, centre, m);
 	const frequencyOrders = significantOrders(full.channels, Math.min(orders, MAX_FREQUENCY_ORDERS), opts.floors);
 	// weight each channel by its noise (residual, or the quantisation floor where that is larger): 1/σ²
-	const noiseWeights = ys.map((y, c) => 1 / Math.max(full.channels[c].residualRms ** 2, (opts.floors?.[c] ?? 0) ** 2 / 2, 1e-30 * variance(y), 1e-300));
+	const noiseWeights = ys.map(
+		(y, c) =>
+			1 / Math.max(full.channels[c].residualRms ** 2, (opts.floors?.[c] ?? 0) ** 2 / 2, 1e-30 * variance(y), 1e-300),
+	);
 	omega = gaussNewton(ys, tau, noiseWeights, omega, frequencyOrders);
 	const hz = (omega * sampleRateHz) / (2 * Math.PI);
 	if (!(hz >= opts.lowHz && hz <= opts.highHz)) {
-		return { ok: false, message: `No fundamental between ${opts.lowHz} and ${opts.highHz} Hz: the fit left that range.` };
+		return {
+			ok: false,
+			message: `No fundamental between ${opts.lowHz} and ${opts.highHz} Hz: the fit left that range.`,
+		};
 	}
 	const fit = finalFit(ys, tau, omega, orders, centre, m);
 	const omegaStd = finalFit(ys, tau, omega, frequencyOrders, centre, m).omegaStd;
@@ -157,7 +179,15 @@ function cost(ys: Float64Array[], tau: Float64Array, weights: number[], omega: n
 }
 
 /** Best grid point, then golden-section refinement between its neighbours. */
-function gridSearch(ys: Float64Array[], tau: Float64Array, weights: number[], lo: number, hi: number, n: number, orders: number): number {
+function gridSearch(
+	ys: Float64Array[],
+	tau: Float64Array,
+	weights: number[],
+	lo: number,
+	hi: number,
+	n: number,
+	orders: number,
+): number {
 	const step = (2 * Math.PI * GRID_CYCLES) / n;
 	const points = Math.max(16, Math.ceil((hi - lo) / step) + 1);
 	const at = (k: number) => lo + ((hi - lo) * k) / (points - 1);
@@ -188,7 +218,8 @@ function significantOrders(channels: SineFitChannel[], cap: number, floors: numb
 	channels.forEach((c, i) => {
 		// an order under 1e-7 of the channel's fundamental is rounding of the arithmetic, not signal
 		const floor = Math.max(floors?.[i] ?? 0, RELATIVE_FLOOR * c.amplitude[1]);
-		for (let h = 2; h <= cap; h++) if (c.amplitude[h] > Math.max(SIGNIFICANT_STD * c.amplitudeStd[h], floor)) top = Math.max(top, h);
+		for (let h = 2; h <= cap; h++)
+			if (c.amplitude[h] > Math.max(SIGNIFICANT_STD * c.amplitudeStd[h], floor)) top = Math.max(top, h);
 	});
 	return top;
 }
@@ -197,7 +228,8 @@ function significantOrders(channels: SineFitChannel[], cap: number, floors: numb
 function resolvableOrders(tau: Float64Array, omega: number, maxOrders: number): number {
 	const qr = orthonormalise(harmonicBasis(tau, omega, maxOrders));
 	for (let h = 1; h <= maxOrders; h++) {
-		if (qr.independence[2 * h - 1] < MIN_INDEPENDENCE || qr.independence[2 * h] < MIN_INDEPENDENCE) return Math.max(1, h - 1);
+		if (qr.independence[2 * h - 1] < MIN_INDEPENDENCE || qr.independence[2 * h] < MIN_INDEPENDENCE)
+			return Math.max(1, h - 1);
 	}
 	return maxOrders;
 }
@@ -289,7 +321,14 @@ function finalFit(ys: Float64Array[], tau: Float64Array, omega: number, orders: 
 			amplitudeStd[h] = Math.sqrt((sigma2 * (varFactors[2 * h - 1] + varFactors[2 * h])) / 2) / gain;
 			phaseStdRad[h] = amplitude[h] > 0 ? amplitudeStd[h] / amplitude[h] : NaN;
 		}
-		return { dc: s.beta[0], amplitude, phaseRad, amplitudeStd, phaseStdRad, residualRms: Math.sqrt(s.rss / tau.length) };
+		return {
+			dc: s.beta[0],
+			amplitude,
+			phaseRad,
+			amplitudeStd,
+			phaseStdRad,
+			residualRms: Math.sqrt(s.rss / tau.length),
+		};
 	});
 	return { channels, omegaStd: info > 0 ? 1 / Math.sqrt(info) : NaN };
 }

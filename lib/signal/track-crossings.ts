@@ -38,7 +38,12 @@ export interface Track {
  *   the spread of cycle lengths, whether tracking broke off, and how many crossings were bridged
  * @example trackCrossings(sine 50 Hz at 10 kS/s, 10 cycles from phase 0, 200, undefined, true).crossings // [0, 200, …, 2000]
  */
-export function trackCrossings(samples: Float64Array, periodSamples: number, maxCycles?: number, toRecordEnd = false): Track {
+export function trackCrossings(
+	samples: Float64Array,
+	periodSamples: number,
+	maxCycles?: number,
+	toRecordEnd = false,
+): Track {
 	const n = samples.length;
 	const last = n - 1;
 	const end = toRecordEnd ? n : last;
@@ -122,7 +127,7 @@ export function trackCrossings(samples: Float64Array, periodSamples: number, max
 			previousQuality = quality(f);
 			out.push(c);
 			const k = Math.min(out.length, recent);
-			period = direction * (c - (out.length > k ? out[out.length - 1 - k] : anchor)) / k;
+			period = (direction * (c - (out.length > k ? out[out.length - 1 - k] : anchor))) / k;
 			prev = c;
 			if (direction > 0 && maxCycles !== undefined && out.length > maxCycles) break;
 		}

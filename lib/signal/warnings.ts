@@ -55,11 +55,15 @@ export function signalWarnings(
 	sampleRateHz: number,
 	info: { frequencyHz?: number; cycles?: number; maxOrder?: number; nominalHz?: number; peakAccuracyPercent?: number },
 ): Diagnostic[] {
-	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz))) throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
+	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
+		throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
 	const out: Diagnostic[] = [];
 	const warn = (code: string, message: string) => out.push({ code, message, severity: 'warning' });
 	const n = samples.length;
-	const f = info.frequencyHz !== undefined && info.frequencyHz > 0 && Number.isFinite(info.frequencyHz) ? info.frequencyHz : undefined;
+	const f =
+		info.frequencyHz !== undefined && info.frequencyHz > 0 && Number.isFinite(info.frequencyHz)
+			? info.frequencyHz
+			: undefined;
 
 	let bad = -1;
 	let badCount = 0;
@@ -70,7 +74,10 @@ export function signalWarnings(
 		}
 	}
 	if (bad >= 0) {
-		warn('non-finite-samples', `${badCount} sample(s) are not numbers (first at index ${bad}, value ${samples[bad]}); figures that include them are NaN.`);
+		warn(
+			'non-finite-samples',
+			`${badCount} sample(s) are not numbers (first at index ${bad}, value ${samples[bad]}); figures that include them are NaN.`,
+		);
 	}
 
 	if (f !== undefined && n > 0) {
@@ -114,8 +121,13 @@ export function signalWarnings(
 	}
 	if (f !== undefined) {
 		const range =
-			info.nominalHz === 50 ? [MAINS_FREQUENCY_RANGES_HZ[50]] : info.nominalHz === 60 ? [MAINS_FREQUENCY_RANGES_HZ[60]]
-			: info.nominalHz === undefined ? [MAINS_FREQUENCY_RANGES_HZ[50], MAINS_FREQUENCY_RANGES_HZ[60]] : [];
+			info.nominalHz === 50
+				? [MAINS_FREQUENCY_RANGES_HZ[50]]
+				: info.nominalHz === 60
+					? [MAINS_FREQUENCY_RANGES_HZ[60]]
+					: info.nominalHz === undefined
+						? [MAINS_FREQUENCY_RANGES_HZ[50], MAINS_FREQUENCY_RANGES_HZ[60]]
+						: [];
 		if (range.length > 0 && !range.some((r) => f >= r.lowHz && f <= r.highHz)) {
 			const which = range.map((r) => `${r.lowHz}–${r.highHz} Hz`).join(' or ');
 			warn(
@@ -186,7 +198,10 @@ function dcOffsetWarning(samples: Float64Array, periodSamples: number | undefine
 	if (periodSamples !== undefined && wholePeriods >= 1) {
 		const end = Math.min(n, wholePeriods * periodSamples);
 		mean = windowIntegral(samples, 0, end, (x) => x, periodSamples, { kind: 'x' }) / end;
-		acRms = Math.sqrt(windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean), periodSamples, { kind: 'square', about: mean }) / end);
+		acRms = Math.sqrt(
+			windowIntegral(samples, 0, end, (x) => (x - mean) * (x - mean), periodSamples, { kind: 'square', about: mean }) /
+				end,
+		);
 	} else {
 		mean = 0;
 		for (let i = 0; i < n; i++) mean += samples[i];

@@ -72,7 +72,8 @@ export function windowIntegral(
 	let sum = ((gStart + gFirst) / 2) * (first - startIndex);
 	const g1 = at(i1);
 	if (i1 > first) {
-		sum += (inner ? innerSum(samples, first + 1, i1, inner) : innerGeneric(samples, first + 1, i1, g)) + (gFirst + g1) / 2;
+		sum +=
+			(inner ? innerSum(samples, first + 1, i1, inner) : innerGeneric(samples, first + 1, i1, g)) + (gFirst + g1) / 2;
 	}
 	return sum + ((g1 + gEnd) / 2) * (endIndex - i1);
 }

@@ -47,7 +47,13 @@ interface Comp {
 	phaseRad: number;
 }
 
-let buffers = { p: 0, re: new Float64Array(0), im: new Float64Array(0), outRe: new Float64Array(0), outIm: new Float64Array(0) };
+let buffers = {
+	p: 0,
+	re: new Float64Array(0),
+	im: new Float64Array(0),
+	outRe: new Float64Array(0),
+	outIm: new Float64Array(0),
+};
 
 /**
  * RMS, rectified mean and peak of one period of Σ amp·cos(hθ + φ), rebuilt on P points by one DFT:
@@ -58,7 +64,16 @@ function shapeFigures(comps: Comp[]): { rms: number; mav: number; peak: number }
 	for (const c of comps) top = Math.max(top, c.order);
 	let p = POINTS;
 	while (p < 4 * top) p *= 2;
-	const b = (buffers.p === p ? buffers : (buffers = { p, re: new Float64Array(p), im: new Float64Array(p), outRe: new Float64Array(p), outIm: new Float64Array(p) }));
+	const b =
+		buffers.p === p
+			? buffers
+			: (buffers = {
+					p,
+					re: new Float64Array(p),
+					im: new Float64Array(p),
+					outRe: new Float64Array(p),
+					outIm: new Float64Array(p),
+				});
 	const { re, im, outRe, outIm } = b;
 	re.fill(0);
 	im.fill(0);
@@ -85,7 +100,8 @@ function errorPercent(comps: Comp[]): number {
 }
 
 function ordinal(h: number): string {
-	const s = h % 100 >= 11 && h % 100 <= 13 ? 'th' : h % 10 === 1 ? 'st' : h % 10 === 2 ? 'nd' : h % 10 === 3 ? 'rd' : 'th';
+	const s =
+		h % 100 >= 11 && h % 100 <= 13 ? 'th' : h % 10 === 1 ? 'st' : h % 10 === 2 ? 'nd' : h % 10 === 3 ? 'rd' : 'th';
 	return `${h}${s}`;
 }
 
@@ -111,11 +127,23 @@ export function averageMeterExplanation(set: HarmonicSet, unit = ''): AverageMet
 	for (const o of set.orders) {
 		if (!(o.rms > 0)) continue;
 		const ph = Number.isNaN(o.phaseDeg) ? 0 : (o.phaseDeg * Math.PI) / 180;
-		comps.push(o.order === 0 ? { order: 0, amp: o.phaseDeg === 180 ? -o.rms : o.rms, phaseRad: 0 } : { order: o.order, amp: Math.SQRT2 * o.rms, phaseRad: ph });
+		comps.push(
+			o.order === 0
+				? { order: 0, amp: o.phaseDeg === 180 ? -o.rms : o.rms, phaseRad: 0 }
+				: { order: o.order, amp: Math.SQRT2 * o.rms, phaseRad: ph },
+		);
 	}
 	const fund = comps.find((c) => c.order === 1);
 	if (!fund) {
-		return { trueRms: NaN, averageReading: NaN, readingErrorPercent: NaN, formFactor: NaN, crestFactor: NaN, summary: 'No fundamental: the average-responding reading cannot be explained from harmonics.', reasons: [] };
+		return {
+			trueRms: NaN,
+			averageReading: NaN,
+			readingErrorPercent: NaN,
+			formFactor: NaN,
+			crestFactor: NaN,
+			summary: 'No fundamental: the average-responding reading cannot be explained from harmonics.',
+			reasons: [],
+		};
 	}
 	const f = shapeFigures(comps);
 	const averageReading = SINE_FORM_FACTOR * f.mav;
@@ -142,7 +170,12 @@ export function averageMeterExplanation(set: HarmonicSet, unit = ''): AverageMet
 		} else {
 			const onPeak = Math.cos((rel * Math.PI) / 180); // the harmonic's value at the fundamental's crest, per unit
 			shape = onPeak > 0.5 ? 'peaked' : onPeak < -0.5 ? 'flattened' : 'shifted';
-			const how = shape === 'peaked' ? 'adds to the fundamental\'s crest (a pointed wave)' : shape === 'flattened' ? 'takes from the fundamental\'s crest (a flat-topped wave)' : 'peaks beside the fundamental\'s crest (a tilted wave)';
+			const how =
+				shape === 'peaked'
+					? "adds to the fundamental's crest (a pointed wave)"
+					: shape === 'flattened'
+						? "takes from the fundamental's crest (a flat-topped wave)"
+						: "peaks beside the fundamental's crest (a tilted wave)";
 			const why = e < 0 ? 'raises the RMS more than the rectified mean' : 'raises the rectified mean more than the RMS';
 			text = `The ${ordinal(c.order)} harmonic (${pct.toFixed(1)} %, ${rel.toFixed(0).replace(/^-0$/, '0')}° from the crest) ${how} and ${why}; alone it would make the meter read ${reading}.`;
 		}
@@ -155,5 +188,13 @@ export function averageMeterExplanation(set: HarmonicSet, unit = ''): AverageMet
 		Math.abs(readingErrorPercent) < 1
 			? `An average-responding meter would read within 1 % of true RMS (${readingErrorPercent.toFixed(2)} %, form factor ${formFactor.toFixed(4)} against 1.1107 for a sine).`
 			: `An average-responding meter would read ${Math.abs(readingErrorPercent).toFixed(1)} % ${readingErrorPercent < 0 ? 'low' : 'high'} (${averageReading.toPrecision(4)}${u} instead of ${f.rms.toPrecision(4)}${u} true RMS; form factor ${formFactor.toFixed(4)} against 1.1107 for a sine).`;
-	return { trueRms: f.rms, averageReading, readingErrorPercent, formFactor, crestFactor: f.peak / f.rms, summary, reasons };
+	return {
+		trueRms: f.rms,
+		averageReading,
+		readingErrorPercent,
+		formFactor,
+		crestFactor: f.peak / f.rms,
+		summary,
+		reasons,
+	};
 }

@@ -66,7 +66,8 @@ export function ulKFactor(x: ByOrder, maxOrder?: number): number {
  * @example factorK(ratios, 0.091 / 0.909, 1.7) // 1.14672 for the docs/methods.md §6 spectrum
  */
 export function factorK(x: ByOrder, eddyLossRatio: number, exponentQ = 1.7, maxOrder?: number): number {
-	if (!(eddyLossRatio >= 0) || !Number.isFinite(eddyLossRatio)) throw new RangeError(`eddyLossRatio must be ≥ 0, got ${eddyLossRatio}`);
+	if (!(eddyLossRatio >= 0) || !Number.isFinite(eddyLossRatio))
+		throw new RangeError(`eddyLossRatio must be ≥ 0, got ${eddyLossRatio}`);
 	if (!(exponentQ > 0) || !Number.isFinite(exponentQ)) throw new RangeError(`exponentQ must be > 0, got ${exponentQ}`);
 	const r = rmsByOrder(x);
 	const top = maxOrder ?? r.length - 1;

@@ -26,9 +26,11 @@ import type { HarmonicGroups } from './types.js';
  */
 export function iecHarmonicGroups(binRms: Float64Array, cycles: number, maxOrder: number): HarmonicGroups {
 	if (!Number.isInteger(cycles) || cycles < 1) throw new RangeError(`cycles must be an integer ≥ 1, got ${cycles}`);
-	if (!Number.isInteger(maxOrder) || maxOrder < 0) throw new RangeError(`maxOrder must be an integer ≥ 0, got ${maxOrder}`);
+	if (!Number.isInteger(maxOrder) || maxOrder < 0)
+		throw new RangeError(`maxOrder must be an integer ≥ 0, got ${maxOrder}`);
 	const need = cycles * (maxOrder + 1) + 1;
-	if (binRms.length < need) throw new RangeError(`need ${need} bins for order ${maxOrder} at ${cycles} cycles, got ${binRms.length}`);
+	if (binRms.length < need)
+		throw new RangeError(`need ${need} bins for order ${maxOrder} at ${cycles} cycles, got ${binRms.length}`);
 	const c = cycles;
 	// bin powers once; plain loops (not prefix sums, which would lose small groups beside a large fundamental)
 	const pw = new Float64Array(need);
@@ -51,7 +53,9 @@ export function iecHarmonicGroups(binRms: Float64Array, cycles: number, maxOrder
 			g[0] = binRms[0];
 			sg[0] = binRms[0];
 		} else {
-			const core = even ? sum(k - half + 1, k + half - 1) + 0.5 * (p2(k - half) + p2(k + half)) : sum(k - half, k + half);
+			const core = even
+				? sum(k - half + 1, k + half - 1) + 0.5 * (p2(k - half) + p2(k + half))
+				: sum(k - half, k + half);
 			g[n] = Math.sqrt(core);
 			sg[n] = Math.sqrt(sum(k - 1, k + 1));
 		}

@@ -48,7 +48,11 @@ export interface HarmonicAnalysis {
  * // 1 s of 50 Hz at 10 kS/s: five 10-cycle windows
  * harmonicAnalysis(x, 10_000, { fundamentalHz: 50 }).windows.length // 5
  */
-export function harmonicAnalysis(samples: Float64Array, sampleRateHz: number, opts: HarmonicAnalysisOptions): HarmonicAnalysis {
+export function harmonicAnalysis(
+	samples: Float64Array,
+	sampleRateHz: number,
+	opts: HarmonicAnalysisOptions,
+): HarmonicAnalysis {
 	const f1 = opts.fundamentalHz;
 	const cycles = opts.cycles ?? defaultWindowCycles(f1);
 	const start = opts.startIndex ?? 0;
@@ -58,7 +62,14 @@ export function harmonicAnalysis(samples: Float64Array, sampleRateHz: number, op
 	const len = (cycles * sampleRateHz) / f1;
 	const windows: HarmonicWindow[] = [];
 	for (let i = 0; start + (i + 1) * len <= end + 1e-9; i++) {
-		windows.push(harmonicWindow(samples, sampleRateHz, { fundamentalHz: f1, cycles, maxOrder: opts.maxOrder, startIndex: start + i * len }));
+		windows.push(
+			harmonicWindow(samples, sampleRateHz, {
+				fundamentalHz: f1,
+				cycles,
+				maxOrder: opts.maxOrder,
+				startIndex: start + i * len,
+			}),
+		);
 	}
 	return { windows, aggregate: windows.length ? aggregateHarmonicWindows(windows) : null };
 }
@@ -74,7 +85,8 @@ export function aggregateHarmonicWindows(windows: HarmonicWindow[]): HarmonicAgg
 	const nOrders = first.set.orders.length;
 	const nBins = first.binRms.length;
 	for (const w of windows) {
-		if (w.set.cycles !== c || w.set.orders.length !== nOrders) throw new RangeError('windows differ in cycles or orders');
+		if (w.set.cycles !== c || w.set.orders.length !== nOrders)
+			throw new RangeError('windows differ in cycles or orders');
 	}
 	const n = windows.length;
 	const meanSquare = (pick: (w: HarmonicWindow) => ArrayLike<number>, size: number) => {
@@ -98,7 +110,8 @@ export function aggregateHarmonicWindows(windows: HarmonicWindow[]): HarmonicAgg
 			re += o.rms * Math.cos((o.phaseDeg * Math.PI) / 180);
 			im += o.rms * Math.sin((o.phaseDeg * Math.PI) / 180);
 		}
-		const phaseDeg = re === 0 && im === 0 ? NaN : h === 0 ? (re >= 0 ? 0 : 180) : wrapAngleDeg((Math.atan2(im, re) * 180) / Math.PI);
+		const phaseDeg =
+			re === 0 && im === 0 ? NaN : h === 0 ? (re >= 0 ? 0 : 180) : wrapAngleDeg((Math.atan2(im, re) * 180) / Math.PI);
 		orders.push({ order: h, rms: orderRms[h], phaseDeg });
 	}
 	const maxOrder = nOrders - 1;

@@ -73,7 +73,6 @@ function work(m: number): Work {
 	return w;
 }
 
-
 /**
  * Harmonic analysis of one window of exactly `cycles` cycles of the measured fundamental, starting at
  * the fractional sample `startIndex` (length L = cycles·fs/f1 samples).
@@ -105,7 +104,11 @@ function work(m: number): Work {
  * const w = harmonicWindow(x, 10_000, { fundamentalHz: 49.97 });
  * w.set.orders[1].rms // 230.000; w.percentOfFundamental[5] // 5.0000; w.thd.thdF40Percent // 5.0000
  */
-export function harmonicWindow(samples: Float64Array, sampleRateHz: number, opts: HarmonicWindowOptions): HarmonicWindow {
+export function harmonicWindow(
+	samples: Float64Array,
+	sampleRateHz: number,
+	opts: HarmonicWindowOptions,
+): HarmonicWindow {
 	const f1 = opts.fundamentalHz;
 	const fs = sampleRateHz;
 	if (!(fs > 0) || !Number.isFinite(fs)) throw new RangeError(`sampleRateHz must be a positive number, got ${fs}`);

@@ -3,7 +3,13 @@ export * from './types.js';
 export { dftPlan, dftReal, DFT_MAX_LENGTH, type DftPlan } from './dft.js';
 export { iecHarmonicGroups } from './groups.js';
 export { thdFPercent, thdRPercent, thdFigures } from './thd.js';
-export { harmonicWindow, defaultWindowCycles, basicWindowCycles, MAX_HARMONIC_ORDER, type HarmonicWindowOptions } from './harmonics.js';
+export {
+	harmonicWindow,
+	defaultWindowCycles,
+	basicWindowCycles,
+	MAX_HARMONIC_ORDER,
+	type HarmonicWindowOptions,
+} from './harmonics.js';
 export {
 	harmonicAnalysis,
 	aggregateHarmonicWindows,

@@ -47,7 +47,8 @@ export class MixedRadixEngine implements ComplexEngine {
 
 	constructor(readonly n: number) {
 		const factors = smoothFactors(n);
-		if (!factors || n < 2) throw new RangeError(`mixed-radix FFT needs n ≥ 2 with prime factors ≤ ${MAX_RADIX}, got ${n}`);
+		if (!factors || n < 2)
+			throw new RangeError(`mixed-radix FFT needs n ≥ 2 with prime factors ≤ ${MAX_RADIX}, got ${n}`);
 		let len = n;
 		let s = 1;
 		for (const p of factors) {
@@ -116,10 +117,14 @@ function radix2(st: Stage, x: Float64Array, y: Float64Array): void {
 			const i1 = i0 + 2 * s * m;
 			const o0 = 2 * (q + s * 2 * p);
 			const o1 = o0 + 2 * s;
-			const ar = x[i0], ai = x[i0 + 1], br = x[i1], bi = x[i1 + 1];
+			const ar = x[i0],
+				ai = x[i0 + 1],
+				br = x[i1],
+				bi = x[i1 + 1];
 			y[o0] = ar + br;
 			y[o0 + 1] = ai + bi;
-			const dr = ar - br, di = ai - bi;
+			const dr = ar - br,
+				di = ai - bi;
 			y[o1] = dr * wr - di * wi;
 			y[o1 + 1] = dr * wi + di * wr;
 		}
@@ -131,20 +136,41 @@ function radix4(st: Stage, x: Float64Array, y: Float64Array): void {
 	const sm2 = 2 * s * m;
 	for (let p = 0; p < m; p++) {
 		const t = 6 * p;
-		const w1r = tw[t], w1i = tw[t + 1], w2r = tw[t + 2], w2i = tw[t + 3], w3r = tw[t + 4], w3i = tw[t + 5];
+		const w1r = tw[t],
+			w1i = tw[t + 1],
+			w2r = tw[t + 2],
+			w2i = tw[t + 3],
+			w3r = tw[t + 4],
+			w3i = tw[t + 5];
 		for (let q = 0; q < s; q++) {
 			const i0 = 2 * (q + s * p);
-			const i1 = i0 + sm2, i2 = i1 + sm2, i3 = i2 + sm2;
-			const a0r = x[i0], a0i = x[i0 + 1], a1r = x[i1], a1i = x[i1 + 1];
-			const a2r = x[i2], a2i = x[i2 + 1], a3r = x[i3], a3i = x[i3 + 1];
-			const t0r = a0r + a2r, t0i = a0i + a2i, t1r = a0r - a2r, t1i = a0i - a2i;
-			const t2r = a1r + a3r, t2i = a1i + a3i;
-			const t3r = a1i - a3i, t3i = a3r - a1r; // (a1 − a3)·(−j)
+			const i1 = i0 + sm2,
+				i2 = i1 + sm2,
+				i3 = i2 + sm2;
+			const a0r = x[i0],
+				a0i = x[i0 + 1],
+				a1r = x[i1],
+				a1i = x[i1 + 1];
+			const a2r = x[i2],
+				a2i = x[i2 + 1],
+				a3r = x[i3],
+				a3i = x[i3 + 1];
+			const t0r = a0r + a2r,
+				t0i = a0i + a2i,
+				t1r = a0r - a2r,
+				t1i = a0i - a2i;
+			const t2r = a1r + a3r,
+				t2i = a1i + a3i;
+			const t3r = a1i - a3i,
+				t3i = a3r - a1r; // (a1 − a3)·(−j)
 			const o0 = 2 * (q + s * 4 * p);
-			const o1 = o0 + 2 * s, o2 = o1 + 2 * s, o3 = o2 + 2 * s;
+			const o1 = o0 + 2 * s,
+				o2 = o1 + 2 * s,
+				o3 = o2 + 2 * s;
 			y[o0] = t0r + t2r;
 			y[o0 + 1] = t0i + t2i;
-			let r = t1r + t3r, i = t1i + t3i;
+			let r = t1r + t3r,
+				i = t1i + t3i;
 			y[o1] = r * w1r - i * w1i;
 			y[o1 + 1] = r * w1i + i * w1r;
 			r = t0r - t2r;
@@ -166,20 +192,31 @@ function radix3(st: Stage, x: Float64Array, y: Float64Array): void {
 	const sm2 = 2 * s * m;
 	for (let p = 0; p < m; p++) {
 		const t = 4 * p;
-		const w1r = tw[t], w1i = tw[t + 1], w2r = tw[t + 2], w2i = tw[t + 3];
+		const w1r = tw[t],
+			w1i = tw[t + 1],
+			w2r = tw[t + 2],
+			w2i = tw[t + 3];
 		for (let q = 0; q < s; q++) {
 			const i0 = 2 * (q + s * p);
-			const i1 = i0 + sm2, i2 = i1 + sm2;
-			const a0r = x[i0], a0i = x[i0 + 1];
-			const sr = x[i1] + x[i2], si = x[i1 + 1] + x[i2 + 1];
-			const dr = x[i1] - x[i2], di = x[i1 + 1] - x[i2 + 1];
-			const mr = a0r - 0.5 * sr, mi = a0i - 0.5 * si;
-			const jr = SIN60 * di, ji = -SIN60 * dr; // (−j·√3/2)(a1 − a2)
+			const i1 = i0 + sm2,
+				i2 = i1 + sm2;
+			const a0r = x[i0],
+				a0i = x[i0 + 1];
+			const sr = x[i1] + x[i2],
+				si = x[i1 + 1] + x[i2 + 1];
+			const dr = x[i1] - x[i2],
+				di = x[i1 + 1] - x[i2 + 1];
+			const mr = a0r - 0.5 * sr,
+				mi = a0i - 0.5 * si;
+			const jr = SIN60 * di,
+				ji = -SIN60 * dr; // (−j·√3/2)(a1 − a2)
 			const o0 = 2 * (q + s * 3 * p);
-			const o1 = o0 + 2 * s, o2 = o1 + 2 * s;
+			const o1 = o0 + 2 * s,
+				o2 = o1 + 2 * s;
 			y[o0] = a0r + sr;
 			y[o0 + 1] = a0i + si;
-			let r = mr + jr, i = mi + ji;
+			let r = mr + jr,
+				i = mi + ji;
 			y[o1] = r * w1r - i * w1i;
 			y[o1 + 1] = r * w1i + i * w1r;
 			r = mr - jr;
@@ -200,26 +237,48 @@ function radix5(st: Stage, x: Float64Array, y: Float64Array): void {
 	const sm2 = 2 * s * m;
 	for (let p = 0; p < m; p++) {
 		const t = 8 * p;
-		const w1r = tw[t], w1i = tw[t + 1], w2r = tw[t + 2], w2i = tw[t + 3];
-		const w3r = tw[t + 4], w3i = tw[t + 5], w4r = tw[t + 6], w4i = tw[t + 7];
+		const w1r = tw[t],
+			w1i = tw[t + 1],
+			w2r = tw[t + 2],
+			w2i = tw[t + 3];
+		const w3r = tw[t + 4],
+			w3i = tw[t + 5],
+			w4r = tw[t + 6],
+			w4i = tw[t + 7];
 		for (let q = 0; q < s; q++) {
 			const i0 = 2 * (q + s * p);
-			const i1 = i0 + sm2, i2 = i1 + sm2, i3 = i2 + sm2, i4 = i3 + sm2;
-			const a0r = x[i0], a0i = x[i0 + 1];
-			const b1r = x[i1] + x[i4], b1i = x[i1 + 1] + x[i4 + 1];
-			const b2r = x[i2] + x[i3], b2i = x[i2 + 1] + x[i3 + 1];
-			const d1r = x[i1] - x[i4], d1i = x[i1 + 1] - x[i4 + 1];
-			const d2r = x[i2] - x[i3], d2i = x[i2 + 1] - x[i3 + 1];
-			const r1r = a0r + C1 * b1r + C2 * b2r, r1i = a0i + C1 * b1i + C2 * b2i;
-			const r2r = a0r + C2 * b1r + C1 * b2r, r2i = a0i + C2 * b1i + C1 * b2i;
-			const e1r = S1 * d1r + S2 * d2r, e1i = S1 * d1i + S2 * d2i;
-			const e2r = S2 * d1r - S1 * d2r, e2i = S2 * d1i - S1 * d2i;
+			const i1 = i0 + sm2,
+				i2 = i1 + sm2,
+				i3 = i2 + sm2,
+				i4 = i3 + sm2;
+			const a0r = x[i0],
+				a0i = x[i0 + 1];
+			const b1r = x[i1] + x[i4],
+				b1i = x[i1 + 1] + x[i4 + 1];
+			const b2r = x[i2] + x[i3],
+				b2i = x[i2 + 1] + x[i3 + 1];
+			const d1r = x[i1] - x[i4],
+				d1i = x[i1 + 1] - x[i4 + 1];
+			const d2r = x[i2] - x[i3],
+				d2i = x[i2 + 1] - x[i3 + 1];
+			const r1r = a0r + C1 * b1r + C2 * b2r,
+				r1i = a0i + C1 * b1i + C2 * b2i;
+			const r2r = a0r + C2 * b1r + C1 * b2r,
+				r2i = a0i + C2 * b1i + C1 * b2i;
+			const e1r = S1 * d1r + S2 * d2r,
+				e1i = S1 * d1i + S2 * d2i;
+			const e2r = S2 * d1r - S1 * d2r,
+				e2i = S2 * d1i - S1 * d2i;
 			const o0 = 2 * (q + s * 5 * p);
-			const o1 = o0 + 2 * s, o2 = o1 + 2 * s, o3 = o2 + 2 * s, o4 = o3 + 2 * s;
+			const o1 = o0 + 2 * s,
+				o2 = o1 + 2 * s,
+				o3 = o2 + 2 * s,
+				o4 = o3 + 2 * s;
 			y[o0] = a0r + b1r + b2r;
 			y[o0 + 1] = a0i + b1i + b2i;
 			// y1 = r1 − j·e1, y4 = r1 + j·e1, y2 = r2 − j·e2, y3 = r2 + j·e2
-			let r = r1r + e1i, i = r1i - e1r;
+			let r = r1r + e1i,
+				i = r1i - e1r;
 			y[o1] = r * w1r - i * w1i;
 			y[o1 + 1] = r * w1i + i * w1r;
 			r = r2r + e2i;

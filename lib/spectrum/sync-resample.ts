@@ -119,7 +119,13 @@ function kernel(w: number): Kernel {
  * @param passbandRatio  highest frequency that must be kept ÷ input sample rate (< 0.5); default 0.4
  * @returns `out`
  */
-export function syncResample(samples: Float64Array, start: number, lengthSamples: number, out: Float64Array, passbandRatio = 0.4): Float64Array {
+export function syncResample(
+	samples: Float64Array,
+	start: number,
+	lengthSamples: number,
+	out: Float64Array,
+	passbandRatio = 0.4,
+): Float64Array {
 	const n = samples.length;
 	const m = out.length;
 	// int32 throughout the index arithmetic (`| 0`: positions are ≥ 0, so truncation is floor), which lets

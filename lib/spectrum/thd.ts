@@ -51,7 +51,11 @@ export function thdRPercent(x: ByOrder, maxOrder = 40): number {
  * THDG and THDS (Ref: IEC 61000-4-7 Annex / docs/methods.md §2.2, from memory) from harmonic groups and
  * subgroups, each relative to its own order-1 value.
  */
-export function thdFigures(orderRmsValues: ArrayLike<number>, groupRms: ArrayLike<number>, subgroupRms: ArrayLike<number>): HarmonicThd {
+export function thdFigures(
+	orderRmsValues: ArrayLike<number>,
+	groupRms: ArrayLike<number>,
+	subgroupRms: ArrayLike<number>,
+): HarmonicThd {
 	return {
 		thdF40Percent: thdFPercent(orderRmsValues, 40),
 		thdF50Percent: thdFPercent(orderRmsValues, 50),

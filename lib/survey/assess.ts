@@ -6,7 +6,14 @@
 import { dipTable, interruptionCounts, swellTable } from './event-table.js';
 import { SURVEY_STANDARDS, type BandRule, type PercentileRule, type SurveyStandard } from './rules.js';
 import { finiteRange, percentileNearestRank, shareWithinPercent } from './statistics.js';
-import type { SurveyInput, SurveyInterval, SurveyLine, SurveyResult, SurveyStandardId, SurveyVerdict } from './types.js';
+import type {
+	SurveyInput,
+	SurveyInterval,
+	SurveyLine,
+	SurveyResult,
+	SurveyStandardId,
+	SurveyVerdict,
+} from './types.js';
 
 const WEEK_S = 7 * 24 * 3600;
 /** Intervals further apart than this (s) leave a gap (clock jitter of a logger is far smaller). */
@@ -19,7 +26,10 @@ interface Counts {
 }
 
 /** The values of one series over the usable intervals, and how many were left out and why. */
-function seriesOf(intervals: readonly SurveyInterval[], pick: (i: SurveyInterval) => number | undefined): { values: number[] } & Counts {
+function seriesOf(
+	intervals: readonly SurveyInterval[],
+	pick: (i: SurveyInterval) => number | undefined,
+): { values: number[] } & Counts {
 	const values: number[] = [];
 	let excludedFlagged = 0;
 	let excludedPartial = 0;
@@ -37,7 +47,14 @@ function verdictOf(measured: boolean, ok: boolean): SurveyVerdict {
 	return !measured ? 'not measured' : ok ? 'meets' : 'does not meet';
 }
 
-function bandLine(rule: BandRule, nominal: number, unit: string, values: number[], counts: Counts, channel?: string): SurveyLine {
+function bandLine(
+	rule: BandRule,
+	nominal: number,
+	unit: string,
+	values: number[],
+	counts: Counts,
+	channel?: string,
+): SurveyLine {
 	const low = rule.lowFactor * nominal;
 	const high = rule.highFactor * nominal;
 	const share = shareWithinPercent(values, low, high);
@@ -47,7 +64,10 @@ function bandLine(rule: BandRule, nominal: number, unit: string, values: number[
 		? `${share.toFixed(1)} % of ${values.length} values within ${low.toFixed(digits)}-${high.toFixed(digits)} ${unit} (lowest ${min.toFixed(digits)} ${unit}, highest ${max.toFixed(digits)} ${unit})`
 		: 'no usable values';
 	const pct = (f: number) => Math.abs(Math.round((f - 1) * 1000) / 10);
-	const band = pct(rule.highFactor) === pct(rule.lowFactor) ? `± ${pct(rule.highFactor)} %` : `+${pct(rule.highFactor)} % / −${pct(rule.lowFactor)} %`;
+	const band =
+		pct(rule.highFactor) === pct(rule.lowFactor)
+			? `± ${pct(rule.highFactor)} %`
+			: `+${pct(rule.highFactor)} % / −${pct(rule.lowFactor)} %`;
 	return {
 		id: rule.id,
 		quantity: rule.quantity,
@@ -63,7 +83,14 @@ function bandLine(rule: BandRule, nominal: number, unit: string, values: number[
 	};
 }
 
-function percentileLine(rule: PercentileRule, values: number[], counts: Counts, channel?: string, id = rule.id, quantity = rule.quantity): SurveyLine {
+function percentileLine(
+	rule: PercentileRule,
+	values: number[],
+	counts: Counts,
+	channel?: string,
+	id = rule.id,
+	quantity = rule.quantity,
+): SurveyLine {
 	const p = percentileNearestRank(values, rule.percent);
 	const u = rule.unit ? ` ${rule.unit}` : '';
 	return {
@@ -71,7 +98,9 @@ function percentileLine(rule: PercentileRule, values: number[], counts: Counts, 
 		quantity,
 		rule: `${rule.percent} % of values ≤ ${Number(rule.limit.toFixed(3))}${u}`,
 		channel,
-		measured: Number.isFinite(p) ? `${rule.percent}th percentile ${p.toFixed(2)}${u} over ${values.length} values` : 'no usable values',
+		measured: Number.isFinite(p)
+			? `${rule.percent}th percentile ${p.toFixed(2)}${u} over ${values.length} values`
+			: 'no usable values',
 		value: p,
 		limit: rule.limit,
 		unit: rule.unit,
@@ -91,9 +120,17 @@ function ruleLines(std: SurveyStandard, input: SurveyInput): SurveyLine[] {
 				lines.push(bandLine(rule, input.declaredV, 'V', s.values, s, ch));
 			});
 		} else if (rule.kind === 'band') {
-			const values = input.frequency.filter((f) => !f.flagged && Number.isFinite(f.frequencyHz)).map((f) => f.frequencyHz);
+			const values = input.frequency
+				.filter((f) => !f.flagged && Number.isFinite(f.frequencyHz))
+				.map((f) => f.frequencyHz);
 			const flagged = input.frequency.filter((f) => f.flagged && Number.isFinite(f.frequencyHz)).length;
-			lines.push(bandLine(rule, input.nominalHz, 'Hz', values, { used: values.length, excludedFlagged: flagged, excludedPartial: 0 }));
+			lines.push(
+				bandLine(rule, input.nominalHz, 'Hz', values, {
+					used: values.length,
+					excludedFlagged: flagged,
+					excludedPartial: 0,
+				}),
+			);
 		} else if (rule.series === 'unbalance') {
 			const s = seriesOf(iv, (i) => i.unbalancePercent);
 			lines.push(percentileLine(rule, s.values, s));
@@ -107,7 +144,9 @@ function ruleLines(std: SurveyStandard, input: SurveyInput): SurveyLine[] {
 			input.channels.forEach((ch, c) => {
 				const values = plt.filter((p) => !p.flagged && Number.isFinite(p.plt[c])).map((p) => p.plt[c]);
 				const flagged = plt.filter((p) => p.flagged).length;
-				lines.push(percentileLine(rule, values, { used: values.length, excludedFlagged: flagged, excludedPartial: 0 }, ch));
+				lines.push(
+					percentileLine(rule, values, { used: values.length, excludedFlagged: flagged, excludedPartial: 0 }, ch),
+				);
 			});
 		}
 	}
@@ -121,7 +160,16 @@ function harmonicLines(std: SurveyStandard, input: SurveyInput): SurveyLine[] {
 		for (const row of table.rows) {
 			const s = seriesOf(input.intervals, (i) => i.harmonicsPercent?.[c]?.[row.order]);
 			if (s.used + s.excludedFlagged + s.excludedPartial === 0) continue;
-			const rule: PercentileRule = { kind: 'percentile', id: `harmonic-${row.order}`, series: 'thd', percent, limit: row.limitPercent, unit: '%', quantity: `Harmonic voltage h${row.order}, 10-minute means`, source: row.source };
+			const rule: PercentileRule = {
+				kind: 'percentile',
+				id: `harmonic-${row.order}`,
+				series: 'thd',
+				percent,
+				limit: row.limitPercent,
+				unit: '%',
+				quantity: `Harmonic voltage h${row.order}, 10-minute means`,
+				source: row.source,
+			};
 			lines.push(percentileLine(rule, s.values, s, ch));
 		}
 	});
@@ -129,7 +177,9 @@ function harmonicLines(std: SurveyStandard, input: SurveyInput): SurveyLine[] {
 }
 
 /** Stretches of the span no interval covers (before the first, between two, after the last). */
-export function findGaps(input: Pick<SurveyInput, 'intervals' | 'spanStartS' | 'spanEndS'>): { startS: number; endS: number }[] {
+export function findGaps(
+	input: Pick<SurveyInput, 'intervals' | 'spanStartS' | 'spanEndS'>,
+): { startS: number; endS: number }[] {
 	const sorted = [...input.intervals].sort((a, b) => a.startS - b.startS);
 	const gaps: { startS: number; endS: number }[] = [];
 	let covered = input.spanStartS;
@@ -156,7 +206,8 @@ function days(s: number): string {
 export function assessSurvey(input: SurveyInput, standard: SurveyStandardId): SurveyResult {
 	const std = SURVEY_STANDARDS[standard];
 	if (!std) throw new RangeError(`unknown survey standard ${standard}`);
-	if (!(input.declaredV > 0 && Number.isFinite(input.declaredV))) throw new RangeError('declaredV must be a positive number of volts');
+	if (!(input.declaredV > 0 && Number.isFinite(input.declaredV)))
+		throw new RangeError('declaredV must be a positive number of volts');
 	const lines = [...ruleLines(std, input), ...harmonicLines(std, input)];
 	const spanS = Math.max(0, input.spanEndS - input.spanStartS);
 	const complete = input.intervals.filter((i) => i.complete);
@@ -164,11 +215,21 @@ export function assessSurvey(input: SurveyInput, standard: SurveyStandardId): Su
 	const anyFail = lines.some((l) => l.verdict === 'does not meet');
 	const anyMeasured = lines.some((l) => l.verdict !== 'not measured');
 	const notes = [...std.notes];
-	if (!input.clockAligned) notes.push('The recording states no start time: 10-minute intervals count from its first sample, not from the clock.');
+	if (!input.clockAligned)
+		notes.push(
+			'The recording states no start time: 10-minute intervals count from its first sample, not from the clock.',
+		);
 	return {
 		standard,
 		standardName: std.name,
-		coverage: { spanS, measuredS, intervals: input.intervals.length, completeIntervals: complete.length, flaggedIntervals: complete.filter((i) => i.flagged).length, gaps: findGaps(input) },
+		coverage: {
+			spanS,
+			measuredS,
+			intervals: input.intervals.length,
+			completeIntervals: complete.length,
+			flaggedIntervals: complete.filter((i) => i.flagged).length,
+			gaps: findGaps(input),
+		},
 		weekNote:
 			spanS >= WEEK_S
 				? `${std.period} The recording spans ${days(spanS)}.`

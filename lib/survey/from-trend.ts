@@ -32,7 +32,14 @@ export interface TrendDocument {
 		pst?: (number | null)[];
 	}[];
 	frequency: { startS: number; durationS: number; frequencyHz: number | null; complete: boolean; flagged: boolean }[];
-	events: { kind: string; startS: number; durationS: number; percentOfDeclared: number; channels: string[]; ended: boolean }[];
+	events: {
+		kind: string;
+		startS: number;
+		durationS: number;
+		percentOfDeclared: number;
+		channels: string[];
+		ended: boolean;
+	}[];
 	plt?: { startS: number; plt: (number | null)[]; flagged: boolean }[];
 }
 
@@ -59,7 +66,8 @@ interface Placed {
 }
 
 function place(docs: readonly TrendDocument[], diagnostics: Diagnostic[]): { placed: Placed[]; clockAligned: boolean } {
-	const clockOf = (d: TrendDocument) => (typeof d.clockStartS === 'number' ? d.clockStartS : clockTimeOf(d.startTime)?.unixS);
+	const clockOf = (d: TrendDocument) =>
+		typeof d.clockStartS === 'number' ? d.clockStartS : clockTimeOf(d.startTime)?.unixS;
 	const clockAligned = docs.every((d) => clockOf(d) !== undefined);
 	let next = 0;
 	const placed = docs.map((doc) => {
@@ -68,7 +76,11 @@ function place(docs: readonly TrendDocument[], diagnostics: Diagnostic[]): { pla
 		if (clockAligned) baseS = clockOf(doc)!;
 		else {
 			baseS = next;
-			diagnostics.push({ code: 'survey-no-start-time', severity: 'assumption', message: `${doc.source} states no start time: placed right after the file before it, in the order given.` });
+			diagnostics.push({
+				code: 'survey-no-start-time',
+				severity: 'assumption',
+				message: `${doc.source} states no start time: placed right after the file before it, in the order given.`,
+			});
 		}
 		next = baseS + doc.durationS;
 		return { doc, baseS, volts };
@@ -79,10 +91,18 @@ function place(docs: readonly TrendDocument[], diagnostics: Diagnostic[]): { pla
 
 function checkChannels(placed: Placed[]): string[] {
 	const names = placed[0].volts.map((i) => placed[0].doc.channels[i].name);
-	if (names.length === 0) throw new SurveyMergeError(placed[0].doc.source, 'has no voltage channel: a voltage survey needs the supply voltages.');
+	if (names.length === 0)
+		throw new SurveyMergeError(
+			placed[0].doc.source,
+			'has no voltage channel: a voltage survey needs the supply voltages.',
+		);
 	for (const p of placed) {
 		const these = p.volts.map((i) => p.doc.channels[i].name);
-		if (these.join('\u0000') !== names.join('\u0000')) throw new SurveyMergeError(p.doc.source, `has voltage channels ${these.join(', ')}; the first file has ${names.join(', ')}. One survey takes one set of channels.`);
+		if (these.join('\u0000') !== names.join('\u0000'))
+			throw new SurveyMergeError(
+				p.doc.source,
+				`has voltage channels ${these.join(', ')}; the first file has ${names.join(', ')}. One survey takes one set of channels.`,
+			);
 	}
 	return names;
 }
@@ -101,8 +121,14 @@ function joinParts(a: SurveyInterval, b: SurveyInterval): SurveyInterval {
 		flagged: a.flagged || b.flagged,
 		rmsV: pair(a.rmsV, b.rmsV)!,
 		thdPercent: pair(a.thdPercent, b.thdPercent),
-		harmonicsPercent: a.harmonicsPercent && b.harmonicsPercent ? a.harmonicsPercent.map((h, c) => pair(h, b.harmonicsPercent![c])!) : undefined,
-		unbalancePercent: a.unbalancePercent !== undefined && b.unbalancePercent !== undefined ? w(a.unbalancePercent, b.unbalancePercent) : undefined,
+		harmonicsPercent:
+			a.harmonicsPercent && b.harmonicsPercent
+				? a.harmonicsPercent.map((h, c) => pair(h, b.harmonicsPercent![c])!)
+				: undefined,
+		unbalancePercent:
+			a.unbalancePercent !== undefined && b.unbalancePercent !== undefined
+				? w(a.unbalancePercent, b.unbalancePercent)
+				: undefined,
 	};
 }
 
@@ -127,8 +153,14 @@ function mergeIntervals(lists: SurveyInterval[][], clockAligned: boolean): Surve
 	for (const list of lists) {
 		for (const iv of list) {
 			const last = out[out.length - 1];
-			const sameSlot = clockAligned && last && !last.complete && !iv.complete && Math.floor((last.startS + 1e-6) / TEN_MIN_S) === Math.floor((iv.startS + 1e-6) / TEN_MIN_S);
-			if (sameSlot && Math.abs(last.startS + last.durationS - iv.startS) <= JOIN_TOLERANCE_S + 1) out[out.length - 1] = joinParts(last, iv);
+			const sameSlot =
+				clockAligned &&
+				last &&
+				!last.complete &&
+				!iv.complete &&
+				Math.floor((last.startS + 1e-6) / TEN_MIN_S) === Math.floor((iv.startS + 1e-6) / TEN_MIN_S);
+			if (sameSlot && Math.abs(last.startS + last.durationS - iv.startS) <= JOIN_TOLERANCE_S + 1)
+				out[out.length - 1] = joinParts(last, iv);
 			else out.push(iv);
 		}
 	}
@@ -145,12 +177,22 @@ function mergeEvents(placed: Placed[]): SurveyEvent[] {
 			for (let k = out.length - 1; k >= 0 && !prev; k--) if (out[k].open && out[k].kind === e.kind) prev = out[k];
 			if (prev && Math.abs(prev.startS + prev.durationS - startS) <= JOIN_TOLERANCE_S && e.startS <= JOIN_TOLERANCE_S) {
 				prev.durationS = startS + e.durationS - prev.startS;
-				prev.percentOfDeclared = e.kind === 'swell' ? Math.max(prev.percentOfDeclared, e.percentOfDeclared) : Math.min(prev.percentOfDeclared, e.percentOfDeclared);
+				prev.percentOfDeclared =
+					e.kind === 'swell'
+						? Math.max(prev.percentOfDeclared, e.percentOfDeclared)
+						: Math.min(prev.percentOfDeclared, e.percentOfDeclared);
 				prev.channels = [...new Set([...prev.channels, ...e.channels])];
 				prev.open = !e.ended;
 				continue;
 			}
-			out.push({ kind: e.kind, startS, durationS: e.durationS, percentOfDeclared: e.percentOfDeclared, channels: [...e.channels], open: !e.ended });
+			out.push({
+				kind: e.kind,
+				startS,
+				durationS: e.durationS,
+				percentOfDeclared: e.percentOfDeclared,
+				channels: [...e.channels],
+				open: !e.ended,
+			});
 		}
 	}
 	return out.map(({ open: _open, ...e }) => e);
@@ -161,22 +203,40 @@ function mergeEvents(placed: Placed[]): SurveyEvent[] {
  * @throws SurveyMergeError when the files do not form one recording (different voltage channels or
  *   declared voltages), naming the file.
  */
-export function surveyInputFromTrend(docs: readonly TrendDocument[], declaredV?: number): { input: SurveyInput; diagnostics: Diagnostic[] } {
+export function surveyInputFromTrend(
+	docs: readonly TrendDocument[],
+	declaredV?: number,
+): { input: SurveyInput; diagnostics: Diagnostic[] } {
 	if (docs.length === 0) throw new SurveyMergeError('<input>', 'no recording given');
 	const diagnostics: Diagnostic[] = [];
 	const { placed, clockAligned } = place(docs, diagnostics);
 	const names = checkChannels(placed);
 	const udin = declaredV ?? num(placed[0].doc.declaredV);
-	if (!(udin > 0)) throw new SurveyMergeError(placed[0].doc.source, 'states no declared voltage: give the nominal supply voltage.');
+	if (!(udin > 0))
+		throw new SurveyMergeError(placed[0].doc.source, 'states no declared voltage: give the nominal supply voltage.');
 	for (const p of placed) {
 		const d = num(p.doc.declaredV);
-		if (declaredV === undefined && d > 0 && Math.abs(d - udin) > 1e-9 * udin) throw new SurveyMergeError(p.doc.source, `was analysed with a declared voltage of ${d} V, the first file with ${udin} V: analyse all files with the same declared voltage.`);
+		if (declaredV === undefined && d > 0 && Math.abs(d - udin) > 1e-9 * udin)
+			throw new SurveyMergeError(
+				p.doc.source,
+				`was analysed with a declared voltage of ${d} V, the first file with ${udin} V: analyse all files with the same declared voltage.`,
+			);
 	}
 	for (let k = 1; k < placed.length; k++) {
 		const endPrev = placed[k - 1].baseS + placed[k - 1].doc.durationS;
 		const gap = placed[k].baseS - endPrev;
-		if (gap > JOIN_TOLERANCE_S) diagnostics.push({ code: 'survey-gap', severity: 'warning', message: `No data for ${gap.toFixed(1)} s between ${placed[k - 1].doc.source} and ${placed[k].doc.source}.` });
-		else if (gap < -JOIN_TOLERANCE_S) diagnostics.push({ code: 'survey-overlap', severity: 'warning', message: `${placed[k].doc.source} starts ${(-gap).toFixed(1)} s before ${placed[k - 1].doc.source} ends: the overlapping intervals are counted once, from the earlier file.` });
+		if (gap > JOIN_TOLERANCE_S)
+			diagnostics.push({
+				code: 'survey-gap',
+				severity: 'warning',
+				message: `No data for ${gap.toFixed(1)} s between ${placed[k - 1].doc.source} and ${placed[k].doc.source}.`,
+			});
+		else if (gap < -JOIN_TOLERANCE_S)
+			diagnostics.push({
+				code: 'survey-overlap',
+				severity: 'warning',
+				message: `${placed[k].doc.source} starts ${(-gap).toFixed(1)} s before ${placed[k - 1].doc.source} ends: the overlapping intervals are counted once, from the earlier file.`,
+			});
 	}
 	const lists = placed.map(intervalsOf);
 	let covered = -Infinity;
@@ -185,8 +245,18 @@ export function surveyInputFromTrend(docs: readonly TrendDocument[], declaredV?:
 		if (kept.length) covered = Math.max(covered, kept[kept.length - 1].startS + kept[kept.length - 1].durationS);
 		return kept;
 	});
-	const frequency: SurveyFrequency[] = placed.flatMap((p) => p.doc.frequency.filter((f) => f.complete).map((f) => ({ startS: p.baseS + f.startS, frequencyHz: num(f.frequencyHz), flagged: f.flagged })));
-	const plt: SurveyPlt[] = placed.flatMap((p) => (p.doc.plt ?? []).map((r) => ({ startS: p.baseS + r.startS, flagged: r.flagged, plt: p.volts.map((i) => num(r.plt[i])) })));
+	const frequency: SurveyFrequency[] = placed.flatMap((p) =>
+		p.doc.frequency
+			.filter((f) => f.complete)
+			.map((f) => ({ startS: p.baseS + f.startS, frequencyHz: num(f.frequencyHz), flagged: f.flagged })),
+	);
+	const plt: SurveyPlt[] = placed.flatMap((p) =>
+		(p.doc.plt ?? []).map((r) => ({
+			startS: p.baseS + r.startS,
+			flagged: r.flagged,
+			plt: p.volts.map((i) => num(r.plt[i])),
+		})),
+	);
 	const nominal = placed[0].doc.nominalHz === 60 ? 60 : 50;
 	const last = placed[placed.length - 1];
 	return {

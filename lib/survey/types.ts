@@ -116,7 +116,14 @@ export interface SurveyResult {
 	standard: SurveyStandardId;
 	standardName: string;
 	/** How much of the recording span the complete 10-minute intervals cover, and the span itself. */
-	coverage: { spanS: number; measuredS: number; intervals: number; completeIntervals: number; flaggedIntervals: number; gaps: { startS: number; endS: number }[] };
+	coverage: {
+		spanS: number;
+		measuredS: number;
+		intervals: number;
+		completeIntervals: number;
+		flaggedIntervals: number;
+		gaps: { startS: number; endS: number }[];
+	};
 	/** The standards assess a week (EN 50160: each week); shorter recordings are said to be so. */
 	weekNote: string;
 	lines: SurveyLine[];

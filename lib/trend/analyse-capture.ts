@@ -18,8 +18,13 @@ const CHUNK = 65_536;
  *   frequency from `capture.nominalFrequencyHz` when it is 50 or 60 and none is given)
  * @example analyseTrend(capture, { declaredV: 230 }).events // [{ kind: 'dip', channels: ['L2'], ... }]
  */
-export function analyseTrend(capture: Capture, opts: Omit<TrendOptions, 'sampleRateHz' | 'channels'> = {}): TrendResult {
-	const nominal = opts.nominalHz ?? (capture.nominalFrequencyHz === 50 || capture.nominalFrequencyHz === 60 ? capture.nominalFrequencyHz : undefined);
+export function analyseTrend(
+	capture: Capture,
+	opts: Omit<TrendOptions, 'sampleRateHz' | 'channels'> = {},
+): TrendResult {
+	const nominal =
+		opts.nominalHz ??
+		(capture.nominalFrequencyHz === 50 || capture.nominalFrequencyHz === 60 ? capture.nominalFrequencyHz : undefined);
 	const analyser = createTrendAnalyser({
 		...opts,
 		nominalHz: nominal,
@@ -32,7 +37,15 @@ export function analyseTrend(capture: Capture, opts: Omit<TrendOptions, 'sampleR
 		analyser.push(capture.channels.map((c) => c.samples.subarray(off, end)));
 	}
 	const result = analyser.finish();
-	const extra = capture.timeS ? [{ code: 'time-base-treated-uniform', severity: 'warning' as const, message: `The capture has an explicit time base; trends treat it as uniform at its mean rate ${capture.sampleRateHz} Hz.` }] : [];
+	const extra = capture.timeS
+		? [
+				{
+					code: 'time-base-treated-uniform',
+					severity: 'warning' as const,
+					message: `The capture has an explicit time base; trends treat it as uniform at its mean rate ${capture.sampleRateHz} Hz.`,
+				},
+			]
+		: [];
 	result.diagnostics = [...extra, ...result.diagnostics];
 	return result;
 }

@@ -45,7 +45,12 @@ export interface TrendAnalyser {
 }
 
 /** Default thresholds, % of Udin. Ref: docs/methods.md §3.4 typical settings. */
-export const TREND_DEFAULT_THRESHOLDS: Readonly<TrendThresholds> = { dipPercent: 90, swellPercent: 110, interruptionPercent: 5, hysteresisPercent: 2 };
+export const TREND_DEFAULT_THRESHOLDS: Readonly<TrendThresholds> = {
+	dipPercent: 90,
+	swellPercent: 110,
+	interruptionPercent: 5,
+	hysteresisPercent: 2,
+};
 
 const BLOCK = 4096;
 const LOG = 64;
@@ -85,15 +90,19 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const limit = trendLimitProblem(fs, nCh, BLOCK);
 	if (limit) throw new RangeError(`expected ${limit.expected}, got ${limit.got}`);
 	const th: TrendThresholds = { ...TREND_DEFAULT_THRESHOLDS, ...opts.thresholds };
-	for (const [k, v] of Object.entries(th)) if (!(v >= 0) || !Number.isFinite(v)) throw new RangeError(`threshold ${k} must be a number >= 0, got ${v}`);
+	for (const [k, v] of Object.entries(th))
+		if (!(v >= 0) || !Number.isFinite(v)) throw new RangeError(`threshold ${k} must be a number >= 0, got ${v}`);
 	if (!(th.interruptionPercent < th.dipPercent && th.dipPercent < 100 && th.swellPercent > 100)) {
 		throw new RangeError('thresholds must satisfy interruption < dip < 100 < swell (% of declared voltage)');
 	}
-	if (opts.nominalHz !== undefined && opts.nominalHz !== 50 && opts.nominalHz !== 60) throw new RangeError(`nominalHz must be 50 or 60, got ${opts.nominalHz}`);
-	if (opts.declaredV !== undefined && !(opts.declaredV > 0)) throw new RangeError(`declaredV must be above 0, got ${opts.declaredV}`);
+	if (opts.nominalHz !== undefined && opts.nominalHz !== 50 && opts.nominalHz !== 60)
+		throw new RangeError(`nominalHz must be 50 or 60, got ${opts.nominalHz}`);
+	if (opts.declaredV !== undefined && !(opts.declaredV > 0))
+		throw new RangeError(`declaredV must be above 0, got ${opts.declaredV}`);
 	const voltage = channels.flatMap((c, i) => (c.quantity === 'voltage' ? [i] : []));
 	const ref = opts.referenceChannel ?? voltage[0] ?? 0;
-	if (!(ref >= 0 && ref < nCh && Number.isInteger(ref))) throw new RangeError(`referenceChannel ${ref} is not a channel index`);
+	if (!(ref >= 0 && ref < nCh && Number.isInteger(ref)))
+		throw new RangeError(`referenceChannel ${ref} is not a channel index`);
 	const keep = { cycles10: true, cycles150: true, min10: true, ...opts.keep };
 	const diagnostics: Diagnostic[] = [];
 
@@ -102,7 +111,8 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	const rings = channels.map(() => new Float64Array(ringLen));
 	const wantThd = opts.thd ?? true;
 	const thdMethod = opts.thdMethod ?? 'lagrange';
-	if (thdMethod !== 'lagrange' && thdMethod !== 'sinc') throw new RangeError(`thdMethod must be 'lagrange' or 'sinc', got ${thdMethod}`);
+	if (thdMethod !== 'lagrange' && thdMethod !== 'sinc')
+		throw new RangeError(`thdMethod must be 'lagrange' or 'sinc', got ${thdMethod}`);
 	const scratch = wantThd && thdMethod === 'sinc' ? new Float64Array(ringLen) : undefined;
 	const wantHarmonics = wantThd && thdMethod === 'lagrange' && opts.harmonics === true;
 	const harmScratch = wantHarmonics ? new Float64Array(TREND_MAX_ORDER + 1) : undefined;
@@ -124,19 +134,26 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	// sample, 10-min intervals and 10-s frequency values start at the clock's ticks. Sample positions stay
 	// relative to the first sample; `tickOffset` is how far past a 10-min tick sample 0 lies.
 	const clockStartS = opts.clockStartS;
-	if (clockStartS !== undefined && !Number.isFinite(clockStartS)) throw new RangeError(`clockStartS must be a finite number of seconds, got ${clockStartS}`);
+	if (clockStartS !== undefined && !Number.isFinite(clockStartS))
+		throw new RangeError(`clockStartS must be a finite number of seconds, got ${clockStartS}`);
 	const tickOffset = clockStartS === undefined ? 0 : Math.round(secondsPastTick(clockStartS, TEN_MIN_S) * fs) % tickLen;
 	const freqOffset = clockStartS === undefined ? 0 : Math.round(secondsPastTick(clockStartS, FREQ_S) * fs) % freqLen;
 
 	let nominalHz: number | undefined = opts.nominalHz;
-	const flicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) ? new TrendFlickerTracker(fs, channels, voltage, diagnostics, opts.flickerPinst === true, tickOffset / fs) : null;
+	const flicker =
+		opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics)
+			? new TrendFlickerTracker(fs, channels, voltage, diagnostics, opts.flickerPinst === true, tickOffset / fs)
+			: null;
 	let declaredV = opts.declaredV ?? NaN;
 	let detector: EventDetector | undefined;
 	let rvc: RvcDetector | undefined;
 	if (opts.rvc) {
 		const t = opts.rvc.thresholdPercent;
 		const hy = opts.rvc.hysteresisPercent ?? t / 2;
-		if (!(t > 0 && hy >= 0 && hy < t)) throw new RangeError(`rvc needs thresholdPercent > 0 and 0 <= hysteresisPercent < thresholdPercent, got ${t} and ${hy}`);
+		if (!(t > 0 && hy >= 0 && hy < t))
+			throw new RangeError(
+				`rvc needs thresholdPercent > 0 and 0 <= hysteresisPercent < thresholdPercent, got ${t} and ${hy}`,
+			);
 	}
 	let detectEvents = voltage.length > 0;
 	const inferenceEnd = Math.round((opts.inferenceS ?? 1) * fs);
@@ -170,7 +187,12 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 
 	const pendingRows: PendingRow[] = [];
 	const pendingFreq: PendingFreq[] = [];
-	const out = { cycles10: [] as TrendRow[], cycles150: [] as TrendRow[], min10: [] as TrendRow[], frequency: [] as TrendFrequencyRow[] };
+	const out = {
+		cycles10: [] as TrendRow[],
+		cycles150: [] as TrendRow[],
+		min10: [] as TrendRow[],
+		frequency: [] as TrendFrequencyRow[],
+	};
 	const g150 = new RowGroup('150/180-cycle', nCh);
 	const g10m = new RowGroup('10-min', nCh);
 	let tickOfGroups = 0;
@@ -204,21 +226,47 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 				const w = scratch.subarray(0, e0 - s0);
 				for (let j = s0; j < e0; j++) w[j - s0] = ring[j & mask];
 				const f1 = (cyclesPerWindow * fs) / lengthT;
-				thd[c] = f1 < fs / 2 ? harmonicWindow(w, fs, { fundamentalHz: f1, startIndex: startT - s0, cycles: cyclesPerWindow, maxOrder: MAX_HARMONIC_ORDER }).thd.thdS50Percent : NaN;
+				thd[c] =
+					f1 < fs / 2
+						? harmonicWindow(w, fs, {
+								fundamentalHz: f1,
+								startIndex: startT - s0,
+								cycles: cyclesPerWindow,
+								maxOrder: MAX_HARMONIC_ORDER,
+							}).thd.thdS50Percent
+						: NaN;
 			} else if (wantThd) {
 				if (!fastThd || fastThdCycles !== cyclesPerWindow) {
 					fastThd = new WindowThd(cyclesPerWindow);
 					fastThdCycles = cyclesPerWindow;
 				}
 				const k = phasors ? voltage.indexOf(c) : -1;
-				thd[c] = fastThd.thdPercent(ring, mask, startT, endT, fs, harmScratch, k >= 0 ? phasors!.subarray(2 * k, 2 * k + 2) : undefined);
+				thd[c] = fastThd.thdPercent(
+					ring,
+					mask,
+					startT,
+					endT,
+					fs,
+					harmScratch,
+					k >= 0 ? phasors!.subarray(2 * k, 2 * k + 2) : undefined,
+				);
 				if (harm) harm.push(Array.from(harmScratch!));
 			} else thd[c] = NaN;
 		}
 		pendingRows.push({
 			start,
 			end,
-			row: { interval: '10/12-cycle', startS: startT / fs, durationS: lengthT / fs, cycles: cyclesPerWindow, frequencyHz: (cyclesPerWindow * fs) / lengthT, complete: true, flagged: false, rms, thdPercent: thd },
+			row: {
+				interval: '10/12-cycle',
+				startS: startT / fs,
+				durationS: lengthT / fs,
+				cycles: cyclesPerWindow,
+				frequencyHz: (cyclesPerWindow * fs) / lengthT,
+				complete: true,
+				flagged: false,
+				rms,
+				thdPercent: thd,
+			},
 		});
 		if (harm) pendingRows[pendingRows.length - 1].row.harmonicsPercent = harm;
 		if (phasors) pendingRows[pendingRows.length - 1].row.unbalancePercent = windowUnbalancePercent(phasors);
@@ -228,7 +276,14 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		pendingFreq.push({
 			start: fStart,
 			end,
-			row: { startS: fStart / fs, durationS: (end - fStart) / fs, frequencyHz: fCount > 0 ? (fCount * fs) / fDur : NaN, cycles: fCount, complete, flagged: false },
+			row: {
+				startS: fStart / fs,
+				durationS: (end - fStart) / fs,
+				frequencyHz: fCount > 0 ? (fCount * fs) / fDur : NaN,
+				cycles: fCount,
+				complete,
+				flagged: false,
+			},
 		});
 		fStart = end;
 		fCount = 0;
@@ -263,7 +318,11 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 			const f = (4 * fs) / (nomTimes[4] - nomTimes[0]);
 			nominalHz = Math.abs(f - 50) <= Math.abs(f - 60) ? 50 : 60;
 			cyclesPerWindow = basicWindowCycles(nominalHz);
-			diagnostics.push({ code: 'nominal-frequency-inferred', severity: 'assumption', message: `Nominal frequency taken as ${nominalHz} Hz from the first cycles (${f.toFixed(2)} Hz measured); 10/12-cycle windows use ${cyclesPerWindow} cycles.` });
+			diagnostics.push({
+				code: 'nominal-frequency-inferred',
+				severity: 'assumption',
+				message: `Nominal frequency taken as ${nominalHz} Hz from the first cycles (${f.toFixed(2)} Hz measured); 10/12-cycle windows use ${cyclesPerWindow} cycles.`,
+			});
 			ws = Math.max(0, seq - LOG + 1);
 		}
 		if (seq - ws < cyclesPerWindow) return;
@@ -292,13 +351,25 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 	};
 	const trackers: CrossingTracker[] = [];
 	for (let c = 0; c < nCh; c++) {
-		if (c === ref || vIndex[c] >= 0) trackers.push(new CrossingTracker(c, rings[c], fs, nominalHz, sink, vIndex[c] >= 0));
+		if (c === ref || vIndex[c] >= 0)
+			trackers.push(new CrossingTracker(c, rings[c], fs, nominalHz, sink, vIndex[c] >= 0));
 	}
 
 	function makeDetector(): void {
 		if (voltage.length === 0) {
-			diagnostics.push({ code: 'no-voltage-channel', severity: 'info', message: 'No voltage channel: no dip, swell or interruption detection, aggregates only.' });
-			detector = new EventDetector(0, { dipV: 0, dipEndV: 0, swellV: 0, swellEndV: 0, interruptionV: 0, interruptionEndV: 0 });
+			diagnostics.push({
+				code: 'no-voltage-channel',
+				severity: 'info',
+				message: 'No voltage channel: no dip, swell or interruption detection, aggregates only.',
+			});
+			detector = new EventDetector(0, {
+				dipV: 0,
+				dipEndV: 0,
+				swellV: 0,
+				swellEndV: 0,
+				interruptionV: 0,
+				interruptionEndV: 0,
+			});
 			return;
 		}
 		if (Number.isNaN(declaredV)) {
@@ -309,15 +380,34 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		}
 		if (Number.isNaN(declaredV)) {
 			detectEvents = false;
-			diagnostics.push({ code: 'events-not-detected', severity: 'warning', message: 'No declared voltage: dips, swells and interruptions were not looked for. Give the declared voltage to detect them.' });
-			detector = new EventDetector(0, { dipV: 0, dipEndV: 0, swellV: 0, swellEndV: 0, interruptionV: 0, interruptionEndV: 0 });
+			diagnostics.push({
+				code: 'events-not-detected',
+				severity: 'warning',
+				message:
+					'No declared voltage: dips, swells and interruptions were not looked for. Give the declared voltage to detect them.',
+			});
+			detector = new EventDetector(0, {
+				dipV: 0,
+				dipEndV: 0,
+				swellV: 0,
+				swellEndV: 0,
+				interruptionV: 0,
+				interruptionEndV: 0,
+			});
 			return;
 		}
 		const u = declaredV / 100;
 		if (opts.rvc) {
 			const t = opts.rvc.thresholdPercent;
 			const hy = opts.rvc.hysteresisPercent ?? t / 2;
-			rvc = new RvcDetector(voltage.length, (nominalHz ?? 50) === 60 ? 120 : 100, t * u, (t - hy) * u, th.dipPercent * u, th.swellPercent * u);
+			rvc = new RvcDetector(
+				voltage.length,
+				(nominalHz ?? 50) === 60 ? 120 : 100,
+				t * u,
+				(t - hy) * u,
+				th.dipPercent * u,
+				th.swellPercent * u,
+			);
 		}
 		detector = new EventDetector(voltage.length, {
 			dipV: th.dipPercent * u,
@@ -381,9 +471,19 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 		// Events that ended before everything still pending can no longer flag anything.
 		if (detector) {
 			// A window not yet closed can start up to a ring length back (an overlapping restart at a tick).
-			const oldest = Math.min(pendingRows[0]?.start ?? Infinity, pendingFreq[0]?.start ?? Infinity, fStart, abs - ringLen);
+			const oldest = Math.min(
+				pendingRows[0]?.start ?? Infinity,
+				pendingFreq[0]?.start ?? Infinity,
+				fStart,
+				abs - ringLen,
+			);
 			const ev = detector.events;
-			while (firstRelevantEvent < ev.length && !Number.isNaN(ev[firstRelevantEvent].end) && ev[firstRelevantEvent].end <= oldest) firstRelevantEvent++;
+			while (
+				firstRelevantEvent < ev.length &&
+				!Number.isNaN(ev[firstRelevantEvent].end) &&
+				ev[firstRelevantEvent].end <= oldest
+			)
+				firstRelevantEvent++;
 		}
 	}
 
@@ -440,16 +540,29 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 			finished = true;
 			if (nominalHz === undefined) {
 				nominalHz = 50;
-				diagnostics.push({ code: 'nominal-frequency-unknown', severity: 'warning', message: 'Too few zero crossings to tell 50 from 60 Hz; 50 Hz assumed.' });
+				diagnostics.push({
+					code: 'nominal-frequency-unknown',
+					severity: 'warning',
+					message: 'Too few zero crossings to tell 50 from 60 Hz; 50 Hz assumed.',
+				});
 			}
 			while (abs >= fNext) nextFrequency();
 			if (abs > fStart) closeFrequency(abs, false);
-			if (seq >= ws && seq - ws > 0) diagnostics.push({ code: 'last-window-partial', severity: 'info', message: `The last ${seq - ws} cycle(s) do not fill a ${cyclesPerWindow}-cycle window and are left out of the aggregates.` });
+			if (seq >= ws && seq - ws > 0)
+				diagnostics.push({
+					code: 'last-window-partial',
+					severity: 'info',
+					message: `The last ${seq - ws} cycle(s) do not fill a ${cyclesPerWindow}-cycle window and are left out of the aggregates.`,
+				});
 			afterBlock(true);
 			emitGroupRows(g150.size === 15, false);
 			for (const t of trackers) {
 				if (t.forcedCount > 0) {
-					diagnostics.push({ code: 'zero-crossings-lost', severity: 'info', message: `${channels[t.channel].name}: no zero crossing for ${t.forcedCount} half cycle(s) (interruption or very low signal); timing free-ran at the last measured period there.` });
+					diagnostics.push({
+						code: 'zero-crossings-lost',
+						severity: 'info',
+						message: `${channels[t.channel].name}: no zero crossing for ${t.forcedCount} half cycle(s) (interruption or very low signal); timing free-ran at the last measured period there.`,
+					});
 				}
 			}
 			if (nonFiniteWindows > 0) {
@@ -459,10 +572,31 @@ export function createTrendAnalyser(opts: TrendOptions): TrendAnalyser {
 					message: `${nonFiniteWindows} channel window(s) of 10/12 cycles hold missing or non-finite samples, or samples too large to square (beyond about 1e154), the first on ${channels[firstNonFinite.channel].name} at ${firstNonFinite.startS.toFixed(4)} s: their values are left empty, and no event can be detected from them.`,
 				});
 			}
-			if (seq < 0) diagnostics.push({ code: 'no-zero-crossings', severity: 'warning', message: `${channels[ref].name}: no zero crossing found; no aggregate could be formed.` });
-			if (clockStartS !== undefined) diagnostics.push({ code: 'clock-aligned', severity: 'info', message: '10-min intervals and 10-s frequency values follow the clock from the recording\'s start time; the first and last may be partial.' });
-			else if (abs >= tickLen) diagnostics.push({ code: 'ten-minute-from-start', severity: 'info', message: '10-min intervals count from the start of the recording (no start time on the clock given).' });
-			if (!wantThd) diagnostics.push({ code: 'thd-not-computed', severity: 'info', message: 'THD was not computed for this run (no harmonic analysis attached).' });
+			if (seq < 0)
+				diagnostics.push({
+					code: 'no-zero-crossings',
+					severity: 'warning',
+					message: `${channels[ref].name}: no zero crossing found; no aggregate could be formed.`,
+				});
+			if (clockStartS !== undefined)
+				diagnostics.push({
+					code: 'clock-aligned',
+					severity: 'info',
+					message:
+						"10-min intervals and 10-s frequency values follow the clock from the recording's start time; the first and last may be partial.",
+				});
+			else if (abs >= tickLen)
+				diagnostics.push({
+					code: 'ten-minute-from-start',
+					severity: 'info',
+					message: '10-min intervals count from the start of the recording (no start time on the clock given).',
+				});
+			if (!wantThd)
+				diagnostics.push({
+					code: 'thd-not-computed',
+					severity: 'info',
+					message: 'THD was not computed for this run (no harmonic analysis attached).',
+				});
 			const events: TrendEvent[] = (detector?.events ?? []).map((e) => {
 				const ended = !Number.isNaN(e.end);
 				const end = ended ? e.end : abs;

@@ -29,7 +29,8 @@ export function clockTimeOf(text: string | undefined | null): ClockTime | undefi
 	const [y, mo, d, hh = '0', mi = '0', ss = '0'] = m.slice(1, 7);
 	const month = Number(mo);
 	const day = Number(d);
-	if (month < 1 || month > 12 || day < 1 || day > 31 || Number(hh) > 23 || Number(mi) > 59 || Number(ss) > 60) return undefined;
+	if (month < 1 || month > 12 || day < 1 || day > 31 || Number(hh) > 23 || Number(mi) > 59 || Number(ss) > 60)
+		return undefined;
 	let unixS = Date.UTC(Number(y), month - 1, day, Number(hh), Number(mi), Number(ss)) / 1000;
 	if (m[7]) unixS += Number(`0.${m[7]}`);
 	const zone = m[8];

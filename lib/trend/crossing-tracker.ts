@@ -162,7 +162,8 @@ export class CrossingTracker {
 			// Divide by the interpolated duration, not the sample count: samples next to a crossing hold
 			// almost no energy, so this keeps a one-cycle window exact when fs/f is not a whole number.
 			const n = t - this.lastT;
-			if (this.prevN > 0) this.sink.halfCycle(this.channel, this.prevBoundaryT, t, Math.sqrt((s + this.prevSumSq) / (n + this.prevN)));
+			if (this.prevN > 0)
+				this.sink.halfCycle(this.channel, this.prevBoundaryT, t, Math.sqrt((s + this.prevSumSq) / (n + this.prevN)));
 			this.prevSumSq = s;
 			this.prevN = n;
 		}

@@ -9,7 +9,9 @@ import type { Diagnostic } from '../capture.js';
  * 230/400 V, 120/208 V, 120/240 V split phase, 277/480 V, 347/600 V; from memory). Equipment ratings such
  * as 110 or 115 V are left out: they are not system nominals.
  */
-export const COMMON_NOMINAL_VOLTAGES_V = [100, 120, 127, 208, 220, 230, 240, 277, 347, 380, 400, 415, 480, 600, 690] as const;
+export const COMMON_NOMINAL_VOLTAGES_V = [
+	100, 120, 127, 208, 220, 230, 240, 277, 347, 380, 400, 415, 480, 600, 690,
+] as const;
 
 /**
  * Picks the declared voltage Udin for event detection from RMS values of the first seconds.
@@ -26,7 +28,12 @@ export function declaredVoltageFromRms(rmsValuesV: ArrayLike<number>): { declare
 	if (v.length === 0) {
 		return {
 			declaredV: NaN,
-			diagnostic: { code: 'declared-voltage-unknown', severity: 'warning', message: 'No voltage RMS value to infer the declared voltage from; give it to detect dips, swells and interruptions.' },
+			diagnostic: {
+				code: 'declared-voltage-unknown',
+				severity: 'warning',
+				message:
+					'No voltage RMS value to infer the declared voltage from; give it to detect dips, swells and interruptions.',
+			},
 		};
 	}
 	v.sort((a, b) => a - b);

@@ -4,8 +4,18 @@
  * swell or interruption overlaps it (IEC 61000-4-30 flagging, from memory).
  */
 import type { Diagnostic } from '../capture.js';
-import { createFlickermeter, FLICKER_MIN_SAMPLE_RATE_HZ, type Flickermeter, type FlickerResult } from '../flicker/index.js';
-import { createHalfPeriodRms, createVoltageChangeTracker, type HalfPeriodRms, type VoltageChangeTracker } from '../flicker/index.js';
+import {
+	createFlickermeter,
+	FLICKER_MIN_SAMPLE_RATE_HZ,
+	type Flickermeter,
+	type FlickerResult,
+} from '../flicker/index.js';
+import {
+	createHalfPeriodRms,
+	createVoltageChangeTracker,
+	type HalfPeriodRms,
+	type VoltageChangeTracker,
+} from '../flicker/index.js';
 import type { TrendChannelSpec, TrendEvent } from './types.js';
 import { maxOf } from '../signal/extremes.js';
 
@@ -68,7 +78,11 @@ export class TrendFlickerTracker {
 	static wanted(sampleRateHz: number, voltage: number[], diagnostics: Diagnostic[]): boolean {
 		if (voltage.length === 0) return false;
 		if (sampleRateHz < FLICKER_MIN_SAMPLE_RATE_HZ) {
-			diagnostics.push({ code: 'flicker-not-measured', severity: 'info', message: `Flicker not measured: it needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second (this recording has ${sampleRateHz}).` });
+			diagnostics.push({
+				code: 'flicker-not-measured',
+				severity: 'info',
+				message: `Flicker not measured: it needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second (this recording has ${sampleRateHz}).`,
+			});
 			return false;
 		}
 		return true;
@@ -97,9 +111,18 @@ export class TrendFlickerTracker {
 	}
 
 	private start(nominalHz: 50 | 60): void {
-		this.meters = this.voltage.map(() => createFlickermeter({ sampleRateHz: this.sampleRateHz, nominalHz, keepPinstBlocks: this.keepPinst, intervalOffsetS: this.intervalOffsetS }));
+		this.meters = this.voltage.map(() =>
+			createFlickermeter({
+				sampleRateHz: this.sampleRateHz,
+				nominalHz,
+				keepPinstBlocks: this.keepPinst,
+				intervalOffsetS: this.intervalOffsetS,
+			}),
+		);
 		this.uhpWaiting = this.voltage.map(() => []);
-		this.halves = this.voltage.map((_, k) => createHalfPeriodRms(this.sampleRateHz, nominalHz, (t, v) => this.halfPeriod(k, t, v, nominalHz)));
+		this.halves = this.voltage.map((_, k) =>
+			createHalfPeriodRms(this.sampleRateHz, nominalHz, (t, v) => this.halfPeriod(k, t, v, nominalHz)),
+		);
 		for (const p of this.pending) for (let k = 0; k < p.length; k++) this.feed(k, p[k]);
 		this.pending = [];
 	}
@@ -135,7 +158,12 @@ export class TrendFlickerTracker {
 		const worst = (v: number[]) => (v.filter(Number.isFinite).length ? maxOf(v.filter(Number.isFinite)) : NaN);
 		return this.changeTrackers.map((tr) => {
 			const list = tr.finish();
-			return { count: list.length, dcMaxPercent: worst(list.map((c) => c.dcPercent)), dmaxPercent: worst(list.map((c) => c.dmaxPercent)), tmaxS: worst(list.map((c) => c.tmaxS)) };
+			return {
+				count: list.length,
+				dcMaxPercent: worst(list.map((c) => c.dcPercent)),
+				dmaxPercent: worst(list.map((c) => c.dmaxPercent)),
+				tmaxS: worst(list.map((c) => c.tmaxS)),
+			};
 		});
 	}
 
@@ -146,11 +174,24 @@ export class TrendFlickerTracker {
 		this.startChanges(nominalHz === 60 ? 60 : 50);
 		const results = this.meters!.map((m) => m.finish());
 		const flagging = events.filter((e) => e.kind !== 'rvc');
-		const flagged = (startS: number, durationS: number) => flagging.some((e) => e.startS < startS + durationS && e.startS + e.durationS > startS);
-		const rows = (pick: (r: FlickerResult) => { startS: number; durationS: number; value: number }[]): TrendFlickerRow[] =>
-			pick(results[0]).map((first, k) => ({ startS: first.startS, durationS: first.durationS, values: results.map((r) => pick(r)[k].value), flagged: flagged(first.startS, first.durationS) }));
+		const flagged = (startS: number, durationS: number) =>
+			flagging.some((e) => e.startS < startS + durationS && e.startS + e.durationS > startS);
+		const rows = (
+			pick: (r: FlickerResult) => { startS: number; durationS: number; value: number }[],
+		): TrendFlickerRow[] =>
+			pick(results[0]).map((first, k) => ({
+				startS: first.startS,
+				durationS: first.durationS,
+				values: results.map((r) => pick(r)[k].value),
+				flagged: flagged(first.startS, first.durationS),
+			}));
 		if (results.some((r) => r.nonFiniteSamples > 0)) {
-			this.diagnostics.push({ code: 'flicker-non-finite', severity: 'warning', message: 'Flicker: missing or non-finite samples were bridged by repeating the previous value; the Pst around them is doubtful.' });
+			this.diagnostics.push({
+				code: 'flicker-non-finite',
+				severity: 'warning',
+				message:
+					'Flicker: missing or non-finite samples were bridged by repeating the previous value; the Pst around them is doubtful.',
+			});
 		}
 		return {
 			channels: this.voltage.map((c) => this.channels[c].name),
@@ -159,7 +200,9 @@ export class TrendFlickerTracker {
 			plt: rows((r) => r.plt.map((p) => ({ startS: p.startS, durationS: p.durationS, value: p.plt }))),
 			pinstMax: results.map((r) => r.pinst.max),
 			...(this.changeTrackers ? { changes: this.changeSummary() } : {}),
-			...(this.keepPinst ? { pinst: { startS: results[0].pinstBlocks?.startS ?? [], max: results.map((r) => r.pinstBlocks?.max ?? []) } } : {}),
+			...(this.keepPinst
+				? { pinst: { startS: results[0].pinstBlocks?.startS ?? [], max: results.map((r) => r.pinstBlocks?.max ?? []) } }
+				: {}),
 		};
 	}
 }

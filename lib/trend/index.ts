@@ -5,5 +5,12 @@ export { analyseTrend } from './analyse-capture.js';
 export { declaredVoltageFromRms, COMMON_NOMINAL_VOLTAGES_V } from './declared-voltage.js';
 export { TREND_MAX_ORDER } from './window-thd.js';
 export { TrendFlickerTracker, type TrendFlicker, type TrendFlickerRow } from './flicker-tracker.js';
-export { trendLimitProblem, TREND_MIN_SAMPLE_RATE_HZ, TREND_MAX_SAMPLE_RATE_HZ, TREND_MAX_CHANNELS, TREND_RING_BUDGET_BYTES, type TrendLimitProblem } from './limits.js';
+export {
+	trendLimitProblem,
+	TREND_MIN_SAMPLE_RATE_HZ,
+	TREND_MAX_SAMPLE_RATE_HZ,
+	TREND_MAX_CHANNELS,
+	TREND_RING_BUDGET_BYTES,
+	type TrendLimitProblem,
+} from './limits.js';
 export { clockTimeOf } from './clock.js';

@@ -46,8 +46,16 @@ export interface TrendLimitProblem {
  * Ref: common practice (sampling well above twice the power frequency)
  * @example trendLimitProblem(1e-300, 3) // { what: 'sample-rate', expected: 'a sample rate from 288 Hz to 10000000 Hz', got: '1e-300 Hz' }
  */
-export function trendLimitProblem(sampleRateHz: number, channelCount: number, blockSamples = 4096): TrendLimitProblem | undefined {
-	if (!(Number.isFinite(sampleRateHz) && sampleRateHz >= TREND_MIN_SAMPLE_RATE_HZ && sampleRateHz <= TREND_MAX_SAMPLE_RATE_HZ)) {
+export function trendLimitProblem(
+	sampleRateHz: number,
+	channelCount: number,
+	blockSamples = 4096,
+): TrendLimitProblem | undefined {
+	if (!(
+		Number.isFinite(sampleRateHz) &&
+		sampleRateHz >= TREND_MIN_SAMPLE_RATE_HZ &&
+		sampleRateHz <= TREND_MAX_SAMPLE_RATE_HZ
+	)) {
 		return {
 			what: 'sample-rate',
 			expected: `a sample rate from ${TREND_MIN_SAMPLE_RATE_HZ} Hz to ${TREND_MAX_SAMPLE_RATE_HZ} Hz (at least 4 samples per cycle of the power frequency)`,
@@ -55,7 +63,11 @@ export function trendLimitProblem(sampleRateHz: number, channelCount: number, bl
 		};
 	}
 	if (!(Number.isInteger(channelCount) && channelCount >= 1 && channelCount <= TREND_MAX_CHANNELS)) {
-		return { what: 'channels', expected: `1 to ${TREND_MAX_CHANNELS} channels in one recording (split the file to trend more)`, got: `${channelCount} channels` };
+		return {
+			what: 'channels',
+			expected: `1 to ${TREND_MAX_CHANNELS} channels in one recording (split the file to trend more)`,
+			got: `${channelCount} channels`,
+		};
 	}
 	const bytes = channelCount * trendRingLength(sampleRateHz, blockSamples) * 8;
 	if (bytes > TREND_RING_BUDGET_BYTES) {

@@ -102,7 +102,14 @@ export class RvcDetector {
 				if (Number.isFinite(o.meanBefore)) deltaUss = Math.max(deltaUss, Math.abs(o.sum / n - o.meanBefore));
 				end = Math.max(end, o.starts[o.head]); // oldest of the last N values: the steady window's start
 			}
-			if (!a.spoilt) this.events.push({ start: a.start, end: Math.max(end, a.start), deltaUmaxV: a.deltaUmaxV, deltaUssV: deltaUss, channels: a.channels });
+			if (!a.spoilt)
+				this.events.push({
+					start: a.start,
+					end: Math.max(end, a.start),
+					deltaUmaxV: a.deltaUmaxV,
+					deltaUssV: deltaUss,
+					channels: a.channels,
+				});
 			this.active = null;
 		}
 	}

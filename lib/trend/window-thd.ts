@@ -53,7 +53,8 @@ export class WindowThd {
 	private raw = new Float64Array(M + 64);
 
 	constructor(private readonly cycles: number) {
-		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2) throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
+		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2)
+			throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
 	}
 
 	/**
@@ -65,7 +66,15 @@ export class WindowThd {
 	 * the window's time frame, the same frame for every channel windowed on the same crossings).
 	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the docs/methods.md §1.3 mix
 	 */
-	thdPercent(ring: Float64Array, mask: number, startT: number, endT: number, sampleRateHz: number, harmonicsOut?: Float64Array, fundamentalOut?: Float64Array): number {
+	thdPercent(
+		ring: Float64Array,
+		mask: number,
+		startT: number,
+		endT: number,
+		sampleRateHz: number,
+		harmonicsOut?: Float64Array,
+		fundamentalOut?: Float64Array,
+	): number {
 		const tab = weightTable();
 		// Copy the window (with the taps' margin) out of the ring once, so the tap loop needs no masking.
 		const first = Math.floor(startT) - 3;

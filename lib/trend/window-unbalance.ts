@@ -11,7 +11,11 @@ import { symmetricalComponents } from '../polyphase/sequence.js';
  * @example windowUnbalancePercent(binsOf(230∠0°, 220∠−118°, 235∠121°)) // 2.7699 (docs/methods.md §7 check vector)
  */
 export function windowUnbalancePercent(bins: Float64Array): number {
-	const s = symmetricalComponents({ re: bins[0], im: bins[1] }, { re: bins[2], im: bins[3] }, { re: bins[4], im: bins[5] });
+	const s = symmetricalComponents(
+		{ re: bins[0], im: bins[1] },
+		{ re: bins[2], im: bins[3] },
+		{ re: bins[4], im: bins[5] },
+	);
 	const v1 = Math.hypot(s.positive.re, s.positive.im);
 	const v2 = Math.hypot(s.negative.re, s.negative.im);
 	const hi = Math.max(v1, v2);

@@ -62,17 +62,34 @@ export function comtradeCfgText(spec: WriterSpec): string {
 	const eol = spec.lineEnd ?? '\r\n';
 	const dig = spec.digital ?? [];
 	const n = sampleCount(spec);
-	const lines = [`${spec.station},${spec.device},${spec.revYear}`, `${spec.analog.length + dig.length},${spec.analog.length}A,${dig.length}D`];
-	const range = spec.fileType === 'ASCII' ? '-99999,99998' : spec.fileType === 'BINARY' ? '-32767,32767' : spec.fileType === 'BINARY32' ? '-2147483647,2147483647' : '-3.4e38,3.4e38';
+	const lines = [
+		`${spec.station},${spec.device},${spec.revYear}`,
+		`${spec.analog.length + dig.length},${spec.analog.length}A,${dig.length}D`,
+	];
+	const range =
+		spec.fileType === 'ASCII'
+			? '-99999,99998'
+			: spec.fileType === 'BINARY'
+				? '-32767,32767'
+				: spec.fileType === 'BINARY32'
+					? '-2147483647,2147483647'
+					: '-3.4e38,3.4e38';
 	spec.analog.forEach((a, i) => {
-		lines.push(`${i + 1},${a.name},${a.phase ?? ''},${a.circuit ?? ''},${a.unit},${multiplier(spec, a)},${a.b ?? 0},0,${range},${a.primary ?? 1},${a.secondary ?? 1},${a.ps ?? 'P'}`);
+		lines.push(
+			`${i + 1},${a.name},${a.phase ?? ''},${a.circuit ?? ''},${a.unit},${multiplier(spec, a)},${a.b ?? 0},0,${range},${a.primary ?? 1},${a.secondary ?? 1},${a.ps ?? 'P'}`,
+		);
 	});
 	dig.forEach((d, i) => lines.push(`${i + 1},${d.name},,,${d.normalState ?? 0}`));
 	lines.push(String(spec.lineFrequencyHz));
 	lines.push(String(spec.rates.length));
 	if (spec.rates.length === 0) lines.push(`0,${n}`);
 	for (const r of spec.rates) lines.push(`${r.sampleRateHz},${r.endSample}`);
-	lines.push(spec.firstData, spec.trigger, spec.fileType.toLowerCase() === 'float32' ? 'FLOAT32' : spec.fileType, String(spec.timeMult ?? 1));
+	lines.push(
+		spec.firstData,
+		spec.trigger,
+		spec.fileType.toLowerCase() === 'float32' ? 'FLOAT32' : spec.fileType,
+		String(spec.timeMult ?? 1),
+	);
 	if (spec.revYear === 2013) lines.push('0,0', '0,0');
 	return lines.join(eol) + eol;
 }
@@ -97,10 +114,21 @@ function stamps(spec: WriterSpec, n: number): Float64Array {
 function rawCodes(spec: WriterSpec, a: WriterAnalog): Float64Array {
 	const mult = multiplier(spec, a);
 	const out = new Float64Array(a.values.length);
-	const missing = spec.fileType === 'ASCII' ? 99999 : spec.fileType === 'BINARY' ? -32768 : spec.fileType === 'BINARY32' ? -2147483648 : NaN;
+	const missing =
+		spec.fileType === 'ASCII'
+			? 99999
+			: spec.fileType === 'BINARY'
+				? -32768
+				: spec.fileType === 'BINARY32'
+					? -2147483648
+					: NaN;
 	for (let i = 0; i < out.length; i++) {
 		const v = a.values[i];
-		out[i] = Number.isNaN(v) ? missing : spec.fileType === 'FLOAT32' ? (v - (a.b ?? 0)) / mult : Math.round((v - (a.b ?? 0)) / mult);
+		out[i] = Number.isNaN(v)
+			? missing
+			: spec.fileType === 'FLOAT32'
+				? (v - (a.b ?? 0)) / mult
+				: Math.round((v - (a.b ?? 0)) / mult);
 	}
 	return out;
 }
@@ -151,7 +179,10 @@ export function comtradeDatBytes(spec: WriterSpec): Uint8Array {
 export function comtradeCffBytes(spec: WriterSpec, hdrText = ''): Uint8Array {
 	const eol = spec.lineEnd ?? '\r\n';
 	const dat = comtradeDatBytes(spec);
-	const datHeader = spec.fileType === 'ASCII' ? `--- file type: DAT ASCII ---` : `--- file type: DAT ${spec.fileType}: ${dat.length} ---`;
+	const datHeader =
+		spec.fileType === 'ASCII'
+			? `--- file type: DAT ASCII ---`
+			: `--- file type: DAT ${spec.fileType}: ${dat.length} ---`;
 	const head = `--- file type: CFG ---${eol}${comtradeCfgText(spec)}--- file type: INF ---${eol}--- file type: HDR ---${eol}${hdrText ? hdrText + eol : ''}${datHeader}${eol}`;
 	const headBytes = new TextEncoder().encode(head);
 	const out = new Uint8Array(headBytes.length + dat.length);

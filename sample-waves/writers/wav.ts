@@ -29,7 +29,11 @@ function infoChunk(tags: Record<string, string>): Uint8Array {
 }
 
 /** Channels of equal length, values already as fractions of full scale (−1 … 1). */
-export function wavFloat32Bytes(channels: ArrayLike<number>[], sampleRateHz: number, tags: Record<string, string> = {}): Uint8Array {
+export function wavFloat32Bytes(
+	channels: ArrayLike<number>[],
+	sampleRateHz: number,
+	tags: Record<string, string> = {},
+): Uint8Array {
 	const nCh = channels.length;
 	const frames = channels[0].length;
 	const dataBytes = frames * nCh * 4;

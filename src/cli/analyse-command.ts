@@ -32,21 +32,29 @@ function jobsFrom(raw: unknown, units: number): number {
 	// One file runs in a worker too: its heap and time limits keep a hostile file from taking the machine.
 	if (raw === undefined) return Math.max(1, Math.min(availableParallelism(), units, 8));
 	const n = Number(raw);
-	if (!Number.isInteger(n) || n < 0) throw new UsageError(`--jobs ${String(raw)}: expected a whole number, 0 to analyse in this thread`);
+	if (!Number.isInteger(n) || n < 0)
+		throw new UsageError(`--jobs ${String(raw)}: expected a whole number, 0 to analyse in this thread`);
 	return n;
 }
 
 export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = stdio): Promise<number> {
 	if (raw.json && raw.csv) throw new UsageError('--json and --csv cannot be used together');
 	const settings = settingsFromOptions(raw);
-	if (paths.length === 0) throw new UsageError('name at least one capture file or folder, e.g. sinecheck analyse board.csv');
+	if (paths.length === 0)
+		throw new UsageError('name at least one capture file or folder, e.g. sinecheck analyse board.csv');
 	const limits = limitsFrom(raw.timeLimit, raw.memoryLimit);
 	const { units, skipped, problems: pathProblems } = collectUnits(paths);
 	const mode = raw.json ? 'json' : raw.csv ? 'csv' : 'table';
-	if (skipped.length > 0 && raw.quiet !== true) io.err(printable(`note: skipped ${skipped.length} file(s) that are not captures (e.g. ${skipped[0]})`) + '\n');
+	if (skipped.length > 0 && raw.quiet !== true)
+		io.err(printable(`note: skipped ${skipped.length} file(s) that are not captures (e.g. ${skipped[0]})`) + '\n');
 	for (const p of pathProblems) io.err(`${problemText(p)}\n`);
 	if (units.length === 0) {
-		if (pathProblems.length === 0) io.err(printable(`sinecheck: no capture files found in ${paths.join(', ')} (looked for ${['.csv', '.txt', '.tsv', '.wav', '.cfg', '.cff'].join(' ')})`) + '\n');
+		if (pathProblems.length === 0)
+			io.err(
+				printable(
+					`sinecheck: no capture files found in ${paths.join(', ')} (looked for ${['.csv', '.txt', '.tsv', '.wav', '.cfg', '.cff'].join(' ')})`,
+				) + '\n',
+			);
 		return 2;
 	}
 	const jobs = jobsFrom(raw.jobs, units.length);
@@ -78,7 +86,8 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 				limitFailures++;
 			}
 			io.out(render(r, mode, printedAny, nextSteps));
-			if (mode !== 'table' && raw.quiet !== true) for (const a of noteworthy(r)) io.err(`${printable(`${r.file}: ${a}`)}\n`);
+			if (mode !== 'table' && raw.quiet !== true)
+				for (const a of noteworthy(r)) io.err(`${printable(`${r.file}: ${a}`)}\n`);
 			printedAny = true;
 		}
 	};
@@ -90,22 +99,27 @@ export async function analyseCommand(paths: string[], raw: RawOptions, io: Io = 
 		settings,
 		jobs,
 		(index, result) => {
-		progress.tick(units[index].files[0]);
-		pending.set(index, result);
-		while (pending.has(nextToPrint)) {
-			emit(pending.get(nextToPrint)!);
-			pending.delete(nextToPrint);
-			nextToPrint++;
-		}
+			progress.tick(units[index].files[0]);
+			pending.set(index, result);
+			while (pending.has(nextToPrint)) {
+				emit(pending.get(nextToPrint)!);
+				pending.delete(nextToPrint);
+				nextToPrint++;
+			}
 		},
 		{ heapMiB: limits.heapMiB ?? defaultHeapMiB(jobs), timeLimitS: limits.timeLimitS },
 	);
 	progress.done();
-	if (cellRefused) io.err('sinecheck: a cell that is not a number refused a file; --gaps reads such cells as gaps (listed, left out of the figures)\n');
+	if (cellRefused)
+		io.err(
+			'sinecheck: a cell that is not a number refused a file; --gaps reads such cells as gaps (listed, left out of the figures)\n',
+		);
 	// The summary line of a batch always prints (a file that crashed or timed out is counted with errors).
 	if (units.length + pathProblems.length > 1 && raw.quiet !== true) {
 		const failedLimits = limitFailures > 0 ? `; limits failed in ${limitFailures}` : '';
-		io.err(`analysed ${reports} capture(s) from ${units.length + pathProblems.length} file set(s); ${problemUnits} with errors${failedLimits}\n`);
+		io.err(
+			`analysed ${reports} capture(s) from ${units.length + pathProblems.length} file set(s); ${problemUnits} with errors${failedLimits}\n`,
+		);
 	}
 	return badInput ? 2 : limitFailed ? 1 : 0;
 }
@@ -116,12 +130,19 @@ function render(r: ReportJson, mode: 'json' | 'csv' | 'table', printedAny: boole
 	// JSON: C1 and bidi controls as \u escapes (the same value, safe on a terminal). CSV cells are data for a
 	// spreadsheet and go out as they are (formula-guarded and quoted). The table escapes control characters.
 	if (mode === 'json') return printableJson(JSON.stringify(r)) + '\n';
-	if (mode === 'csv') return (nextSteps ? nextStepsCsvRows(r) : csvSummaryRows(r)).map((line) => line + '\r\n').join('');
-	return (printedAny ? '\n' : '') + [...formatReport(r), ...(nextSteps ? formatNextSteps(r) : [])].map(printable).join('\n') + '\n';
+	if (mode === 'csv')
+		return (nextSteps ? nextStepsCsvRows(r) : csvSummaryRows(r)).map((line) => line + '\r\n').join('');
+	return (
+		(printedAny ? '\n' : '') +
+		[...formatReport(r), ...(nextSteps ? formatNextSteps(r) : [])].map(printable).join('\n') +
+		'\n'
+	);
 }
 
 /** What --json/--csv repeat on stderr: the importer's assumptions and warnings, and every analysis warning. */
 function noteworthy(r: ReportJson): string[] {
-	const importer = (r.diagnostics ?? []).filter((d) => d.severity !== 'info').map((d) => (d.line ? `${d.message} (line ${d.line})` : d.message));
+	const importer = (r.diagnostics ?? [])
+		.filter((d) => d.severity !== 'info')
+		.map((d) => (d.line ? `${d.message} (line ${d.line})` : d.message));
 	return [...importer, ...r.warnings, ...r.channels.flatMap((c) => (c.warnings ?? []).map((w) => `${c.name}: ${w}`))];
 }

@@ -33,7 +33,10 @@ function timeColumnProblem(e: ImportError, p: FileProblem, settings: CommandSett
 	const index = settings.import.timeColumn;
 	if (typeof index !== 'number' || e.code !== 'bad-option' || e.text !== `time column index ${index}`) return p;
 	const columns = /the file has (\d+) column/.exec(e.expected)?.[1];
-	const range = columns === undefined ? "one of the file's columns, counting from 1" : `a column number from 1 to ${columns} (the file has ${columns} column${columns === '1' ? '' : 's'})`;
+	const range =
+		columns === undefined
+			? "one of the file's columns, counting from 1"
+			: `a column number from 1 to ${columns} (the file has ${columns} column${columns === '1' ? '' : 's'})`;
 	return { ...p, message: `${e.code}: --time-column ${index + 1}: expected ${range}` };
 }
 

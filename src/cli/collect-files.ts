@@ -40,7 +40,9 @@ interface WalkState {
 	walked: Set<string>;
 }
 
-const isCaptureName = (name: string) => CAPTURE_EXTENSIONS.includes(extname(name).toLowerCase()) || COMPANION_EXTENSIONS.includes(extname(name).toLowerCase());
+const isCaptureName = (name: string) =>
+	CAPTURE_EXTENSIONS.includes(extname(name).toLowerCase()) ||
+	COMPANION_EXTENSIONS.includes(extname(name).toLowerCase());
 
 /** An entry of a folder that cannot be walked or read: reported like a bad file, the walk goes on. */
 function entryProblem(state: WalkState, file: string, message: string): void {
@@ -112,12 +114,21 @@ export function collectUnits(paths: string[]): Collected {
 			} catch {
 				// not there at all
 			}
-			state.problems.push({ file: p, code: 'unreadable', message: dangling ? 'a symbolic link to something that does not exist' : fsErrorWords(code) });
+			state.problems.push({
+				file: p,
+				code: 'unreadable',
+				message: dangling ? 'a symbolic link to something that does not exist' : fsErrorWords(code),
+			});
 			continue;
 		}
 		if (st.isDirectory()) walk(p, state);
 		else if (st.isFile()) state.files.push(p);
-		else state.problems.push({ file: p, code: 'unreadable', message: `${kindWords(st)}, not a regular file: only regular files are read` });
+		else
+			state.problems.push({
+				file: p,
+				code: 'unreadable',
+				message: `${kindWords(st)}, not a regular file: only regular files are read`,
+			});
 	}
 	const { files, skipped, problems } = state;
 	// Every file of a folder next to a .cfg of the same stem is that .cfg's companion.
@@ -144,7 +155,9 @@ export function collectUnits(paths: string[]): Collected {
 		const ext = extname(f).toLowerCase();
 		if (!COMPANION_EXTENSIONS.includes(ext) || cfgByStem.has(stemKey(f))) continue;
 		const stem = basename(f, extname(f));
-		const cfg = siblings(dirname(f)).find((n) => extname(n).toLowerCase() === '.cfg' && basename(n, extname(n)) === stem);
+		const cfg = siblings(dirname(f)).find(
+			(n) => extname(n).toLowerCase() === '.cfg' && basename(n, extname(n)) === stem,
+		);
 		if (cfg) cfgByStem.set(stemKey(f), join(dirname(f), cfg));
 	}
 	const seen = new Set<string>();
@@ -159,7 +172,11 @@ export function collectUnits(paths: string[]): Collected {
 			const stem = basename(cfg, extname(cfg));
 			const companions = siblings(dirname(cfg))
 				.filter((n) => COMPANION_EXTENSIONS.includes(extname(n).toLowerCase()) && basename(n, extname(n)) === stem)
-				.sort((a, b) => COMPANION_EXTENSIONS.indexOf(extname(a).toLowerCase()) - COMPANION_EXTENSIONS.indexOf(extname(b).toLowerCase()))
+				.sort(
+					(a, b) =>
+						COMPANION_EXTENSIONS.indexOf(extname(a).toLowerCase()) -
+						COMPANION_EXTENSIONS.indexOf(extname(b).toLowerCase()),
+				)
 				.map((n) => join(dirname(cfg), n));
 			units.push({ files: [cfg, ...companions] });
 		} else if (ext === '.hdr' || ext === '.inf') {

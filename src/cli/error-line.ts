@@ -46,13 +46,15 @@ function detail(e: unknown): string {
 }
 
 /** Engine and library texts that mean "too much data for one piece of memory". */
-const TOO_BIG = /Invalid (typed )?array length|Array buffer allocation failed|allocation failed|out of memory|"size" (argument )?is out of range|ERR_FS_FILE_TOO_LARGE|ERR_BUFFER_TOO_LARGE|ERR_STRING_TOO_LONG|Cannot create a string longer|string longer than/i;
+const TOO_BIG =
+	/Invalid (typed )?array length|Array buffer allocation failed|allocation failed|out of memory|"size" (argument )?is out of range|ERR_FS_FILE_TOO_LARGE|ERR_BUFFER_TOO_LARGE|ERR_STRING_TOO_LONG|Cannot create a string longer|string longer than/i;
 
 /**
  * RangeError texts of lib/ written for programmers (a parameter name, a contract), as opposed to those
  * written for users (a reference or pairing channel the file does not have).
  */
-const INTERNAL_RANGE = /^[a-z]+[A-Z]\w*\b|^cycles must|^threshold \w+ must|must satisfy|does not lie inside|bad span|no windows|windows differ|dft|mixed-radix|harmonic sets|push expects|bins for order|differ in length|^ref has|at least one channel|needs? [a-z]+[A-Z]|Maximum call stack|Invalid|out of range/;
+const INTERNAL_RANGE =
+	/^[a-z]+[A-Z]\w*\b|^cycles must|^threshold \w+ must|must satisfy|does not lie inside|bad span|no windows|windows differ|dft|mixed-radix|harmonic sets|push expects|bins for order|differ in length|^ref has|at least one channel|needs? [a-z]+[A-Z]|Maximum call stack|Invalid|out of range/;
 
 /** True for a message written for the program rather than a user: every non-RangeError, and internal RangeErrors. */
 function looksInternal(e: unknown, message: string): boolean {
@@ -71,13 +73,16 @@ export function userWords(e: unknown): string {
 	if (TOO_BIG.test(message) || TOO_BIG.test(err?.code ?? '')) {
 		return 'the file holds more data than analyse can hold in memory at once; for long recordings use `sinecheck trend <file>`, which reads it in pieces';
 	}
-	if (/Maximum call stack/.test(message)) return 'the record is too long for analyse; for long recordings use `sinecheck trend <file>`';
-	if (typeof err?.code === 'string' && /^E[A-Z]+$/.test(err.code)) return `cannot read the file: ${fsErrorWords(err.code)}`;
+	if (/Maximum call stack/.test(message))
+		return 'the record is too long for analyse; for long recordings use `sinecheck trend <file>`';
+	if (typeof err?.code === 'string' && /^E[A-Z]+$/.test(err.code))
+		return `cannot read the file: ${fsErrorWords(err.code)}`;
 	if (/fundamentalHz|sampleRateHz|frequency|\bf1\b|fs\b/.test(message)) {
 		return 'could not analyse: no usable fundamental frequency or sample rate could be taken from the samples (check the time column, or give --rate)';
 	}
 	if (/differ in length/.test(message)) return 'could not analyse: the channels hold different numbers of samples';
-	if (/thresholds must satisfy/.test(message)) return 'the thresholds must keep interruption < dip < 100 % < swell (of the declared voltage)';
+	if (/thresholds must satisfy/.test(message))
+		return 'the thresholds must keep interruption < dip < 100 % < swell (of the declared voltage)';
 	return 'could not analyse: an internal check failed on the data of this file (a fault in sinecheck: please report it with the file; SINECHECK_DEBUG=1 shows the detail)';
 }
 
@@ -90,7 +95,13 @@ export function userWords(e: unknown): string {
 export function problemFrom(e: unknown, file: string): FileProblem {
 	if (isImportError(e)) {
 		const got = e.text ? `, got ${JSON.stringify(e.text.slice(0, 80))}` : '';
-		return { file: e.source || file, line: e.line, column: e.column, code: e.code, message: `${e.code}: expected ${e.expected}${got}` };
+		return {
+			file: e.source || file,
+			line: e.line,
+			column: e.column,
+			code: e.code,
+			message: `${e.code}: expected ${e.expected}${got}`,
+		};
 	}
 	const message = e instanceof Error ? e.message : String(e);
 	if (!looksInternal(e, message)) {

@@ -45,7 +45,9 @@ export function kindWords(st: Stats): string {
 }
 
 /** Why `path` cannot be read as a capture, or undefined when it is a regular file (`size` is then set). */
-export function regularFileProblem(path: string): { message: string; size?: undefined } | { message?: undefined; size: number } {
+export function regularFileProblem(
+	path: string,
+): { message: string; size?: undefined } | { message?: undefined; size: number } {
 	let st: Stats;
 	try {
 		st = statSync(path);

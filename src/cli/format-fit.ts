@@ -20,18 +20,26 @@ export function fitLines(r: ReportJson): string[] {
 	const s = r.shortRecord;
 	if (!s) return [];
 	const out = ['', `  ${s.note} (± one standard deviation from the fit's residual):`];
-	out.push(`    frequency ${withUncertainty(s.frequencyHz, s.frequencyUncertaintyHz, 'Hz')}; the record holds ${Number((s.cyclesHeld ?? 0).toFixed(3))} cycles; harmonics fitted to order ${s.highestOrder}`);
+	out.push(
+		`    frequency ${withUncertainty(s.frequencyHz, s.frequencyUncertaintyHz, 'Hz')}; the record holds ${Number((s.cyclesHeld ?? 0).toFixed(3))} cycles; harmonics fitted to order ${s.highestOrder}`,
+	);
 	for (const c of r.channels) {
 		if (!c.fit) continue;
-		out.push(`    ${c.name}: fundamental ${withUncertainty(c.fit.fundamentalRms, c.fit.fundamentalRmsUncertainty, c.unit)} RMS, THD ${withUncertainty(c.thdPercent, c.fit.thdUncertaintyPercent, '%')}`);
+		out.push(
+			`    ${c.name}: fundamental ${withUncertainty(c.fit.fundamentalRms, c.fit.fundamentalRmsUncertainty, c.unit)} RMS, THD ${withUncertainty(c.thdPercent, c.fit.thdUncertaintyPercent, '%')}`,
+		);
 	}
 	for (const p of r.pairs) {
 		if (!p.fit || p.lagDeg === null || p.lagS === null) continue;
-		out.push(`    ${p.other} ${p.lagDeg >= 0 ? 'lags' : 'leads'} ${p.ref} by ${withUncertainty(Math.abs(p.lagDeg), p.fit.lagDegUncertainty, 'deg')} (${withUncertainty(Math.abs(p.lagS) * 1000, (p.fit.lagSUncertainty ?? NaN) * 1000, 'ms')})`);
+		out.push(
+			`    ${p.other} ${p.lagDeg >= 0 ? 'lags' : 'leads'} ${p.ref} by ${withUncertainty(Math.abs(p.lagDeg), p.fit.lagDegUncertainty, 'deg')} (${withUncertainty(Math.abs(p.lagS) * 1000, (p.fit.lagSUncertainty ?? NaN) * 1000, 'ms')})`,
+		);
 	}
 	for (const p of r.power) {
 		if (!p.fit) continue;
-		out.push(`    ${p.voltage} x ${p.current}: P1 ${withUncertainty(p.ieee1459.fundamentalActivePowerW, p.fit.fundamentalActiveWUncertainty, 'W')}, Q1 ${withUncertainty(p.reactiveVar, p.fit.reactiveVarUncertainty, 'var')}, DPF ${withUncertainty(p.displacementPowerFactor, p.fit.displacementPowerFactorUncertainty)}`);
+		out.push(
+			`    ${p.voltage} x ${p.current}: P1 ${withUncertainty(p.ieee1459.fundamentalActivePowerW, p.fit.fundamentalActiveWUncertainty, 'W')}, Q1 ${withUncertainty(p.reactiveVar, p.fit.reactiveVarUncertainty, 'var')}, DPF ${withUncertainty(p.displacementPowerFactor, p.fit.displacementPowerFactorUncertainty)}`,
+		);
 	}
 	return out;
 }

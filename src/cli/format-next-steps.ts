@@ -4,7 +4,12 @@
  */
 import type { ReportJson } from '../../lib/report/to-json.js';
 
-const STATUS: Record<string, string> = { result: '', partial: ' (partial: site values missing)', 'needs-input': ' (needs site values)', 'not-applicable': ' (does not apply to this recording)' };
+const STATUS: Record<string, string> = {
+	result: '',
+	partial: ' (partial: site values missing)',
+	'needs-input': ' (needs site values)',
+	'not-applicable': ' (does not apply to this recording)',
+};
 
 /** Lines (no trailing newline) of the next steps of one report; none when the report has no such section. */
 export function formatNextSteps(r: ReportJson): string[] {

@@ -27,7 +27,14 @@ function fixed(x: number | null | undefined, decimals: number): string {
 function table(rows: string[][], indent = '  '): string[] {
 	const widths: number[] = [];
 	for (const r of rows) r.forEach((c, i) => (widths[i] = Math.max(widths[i] ?? 0, c.length)));
-	return rows.map((r) => indent + r.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i]))).join('  ').trimEnd());
+	return rows.map(
+		(r) =>
+			indent +
+			r
+				.map((c, i) => (i === 0 ? c.padEnd(widths[i]) : c.padStart(widths[i])))
+				.join('  ')
+				.trimEnd(),
+	);
 }
 
 /** Levels of a channel with as many decimals as 5 significant figures of its RMS need (so -1e-14 V reads 0.00). */
@@ -60,7 +67,11 @@ const FIGURES: [string, (c: Channel) => string][] = [
 
 /** Rows shown only when they say something: the DC-coupled meter where DC moves it, per-interval figures of a long record. */
 const EXTRA_FIGURES: [string, (c: Channel) => string, (r: ReportJson) => boolean][] = [
-	['  DC-coupled, with DC, error %', (c) => fixed(c.averageResponding.dcCoupled?.errorPercent, 1), (r) => r.channels.some((c) => c.averageResponding.dcMatters)],
+	[
+		'  DC-coupled, with DC, error %',
+		(c) => fixed(c.averageResponding.dcCoupled?.errorPercent, 1),
+		(r) => r.channels.some((c) => c.averageResponding.dcMatters),
+	],
 	['meter error %, typical interval', (c) => fixed(c.intervals?.meterErrorPercent.typical, 1), long],
 	['meter error %, worst interval', (c) => fixed(c.intervals?.meterErrorPercent.worst, 1), long],
 	['crest factor, typical interval', (c) => fixed(c.intervals?.crestFactor.typical, 3), long],
@@ -75,7 +86,10 @@ const MARK = { ok: 'ok  ', attention: '!!  ', fail: 'FAIL', info: 'i   ' } as co
 
 function topHarmonics(c: Channel, count: number): string {
 	const hs = c.harmonics
-		.filter((h) => (h.order ?? 0) >= 2 && !h.belowResolution && h.percentOfFundamental !== null && h.percentOfFundamental >= 0.5)
+		.filter(
+			(h) =>
+				(h.order ?? 0) >= 2 && !h.belowResolution && h.percentOfFundamental !== null && h.percentOfFundamental >= 0.5,
+		)
 		.sort((a, b) => (b.percentOfFundamental ?? 0) - (a.percentOfFundamental ?? 0))
 		.slice(0, count);
 	return hs.length ? hs.map((h) => `h${h.order ?? 0} ${fixed(h.percentOfFundamental, 1)}%`).join(', ') : 'none >= 0.5%';
@@ -103,7 +117,8 @@ export function limitRowText(x: LimitRow): string {
 	}
 	let decimals = 2;
 	while (decimals < 6 && roundsToZero(margin, decimals)) decimals++;
-	if (roundsToZero(margin, decimals)) return `${x.channel} ${what}: ${fixed(x.value, 2)} % at the limit of ${fixed(x.limit, 2)} %${source}`;
+	if (roundsToZero(margin, decimals))
+		return `${x.channel} ${what}: ${fixed(x.value, 2)} % at the limit of ${fixed(x.limit, 2)} %${source}`;
 	const relation = margin < 0 ? 'over limit' : 'within limit';
 	return `${x.channel} ${what}: ${fixed(x.value, decimals)} % ${relation} ${fixed(x.limit, decimals)} % (margin ${margin.toFixed(decimals)})${source}`;
 }
@@ -113,12 +128,20 @@ function eventBlock(r: ReportJson): string[] {
 	const ev = r.events;
 	if (!ev) return [];
 	const t = ev.thresholdsPercent;
-	const out = ['', `  voltage events (declared ${ev.declaredV === null ? 'n/a' : +ev.declaredV.toPrecision(4)} V, ${ev.declaredVSource}; dip < ${t.dip} %, swell > ${t.swell} %, interruption < ${t.interruption} %): ${ev.events.length === 0 ? 'none' : ev.events.length}`];
+	const out = [
+		'',
+		`  voltage events (declared ${ev.declaredV === null ? 'n/a' : +ev.declaredV.toPrecision(4)} V, ${ev.declaredVSource}; dip < ${t.dip} %, swell > ${t.swell} %, interruption < ${t.interruption} %): ${ev.events.length === 0 ? 'none' : ev.events.length}`,
+	];
 	for (const e of ev.events) out.push(`    ${eventLine(e as Parameters<typeof eventLine>[0])}`);
 	for (const tab of [ev.dipTable, ev.swellTable]) {
-		const cells = tab.rows.flatMap((row, i) => tab.columns.map((col, j) => ({ row, col, n: tab.counts[i][j] }))).filter((c) => (c.n ?? 0) > 0);
+		const cells = tab.rows
+			.flatMap((row, i) => tab.columns.map((col, j) => ({ row, col, n: tab.counts[i][j] })))
+			.filter((c) => (c.n ?? 0) > 0);
 		const outside = tab.outside ?? 0;
-		if (cells.length > 0 || outside > 0) out.push(`    ${tab.source}: ${[...cells.map((c) => `${c.row} %, ${c.col}: ${c.n}`), ...(outside > 0 ? [`over 1 min: ${outside}`] : [])].join('; ')}`);
+		if (cells.length > 0 || outside > 0)
+			out.push(
+				`    ${tab.source}: ${[...cells.map((c) => `${c.row} %, ${c.col}: ${c.n}`), ...(outside > 0 ? [`over 1 min: ${outside}`] : [])].join('; ')}`,
+			);
 	}
 	return out;
 }
@@ -144,23 +167,38 @@ export function formatReport(r: ReportJson): string[] {
 		const extra = EXTRA_FIGURES.filter(([, , show]) => show(r)).map(([label, f]) => [label, ...r.channels.map(f)]);
 		const rows = [head, ...FIGURES.map(([label, f]) => [label, ...r.channels.map(f)]), ...extra];
 		const iv = long(r) ? r.channels.find((c) => (c.intervals?.count ?? 0) >= 2)?.intervals : undefined;
-		out.push('', `  figures over the whole analysed span${iv ? ` (whole record; per-interval rows: ${iv.count} intervals of ${iv.intervalCycles} cycles)` : ''}:`, ...table(rows));
+		out.push(
+			'',
+			`  figures over the whole analysed span${iv ? ` (whole record; per-interval rows: ${iv.count} intervals of ${iv.intervalCycles} cycles)` : ''}:`,
+			...table(rows),
+		);
 		out.push('', '  largest harmonics:');
 		for (const c of r.channels) out.push(`    ${c.name}: ${topHarmonics(c, 5)}`);
 		// Only channels whose cycles differ by more than 2 %: on a steady wave the "worst" cycle is rounding.
 		const worst = r.channels.filter((c) => {
 			const w = c.worstCycle;
-			return w && w.rmsCycle !== null && w.rmsCycle >= 0 && w.rms !== null && w.lowestRms !== null && w.rms > 1.02 * w.lowestRms;
+			return (
+				w &&
+				w.rmsCycle !== null &&
+				w.rmsCycle >= 0 &&
+				w.rms !== null &&
+				w.lowestRms !== null &&
+				w.rms > 1.02 * w.lowestRms
+			);
 		});
 		if (worst.length > 0) {
 			out.push('', '  worst cycle (one-cycle RMS):');
 			for (const c of worst) {
 				const w = c.worstCycle!;
-				out.push(`    ${c.name}: highest ${level(c, w.rms)} ${c.unit} at ${fixed(w.rmsStartS, 4)} s, lowest ${level(c, w.lowestRms)} ${c.unit}; largest peak ${level(c, w.peak)} ${c.unit} at ${fixed(w.peakStartS, 4)} s`);
+				out.push(
+					`    ${c.name}: highest ${level(c, w.rms)} ${c.unit} at ${fixed(w.rmsStartS, 4)} s, lowest ${level(c, w.lowestRms)} ${c.unit}; largest peak ${level(c, w.peak)} ${c.unit} at ${fixed(w.peakStartS, 4)} s`,
+				);
 			}
 		}
 		// the explanation beside each meter finding that advises a true-RMS meter
-		const advised = new Set((r.findings ?? []).filter((f) => f.topic === 'meter' && f.level === 'attention').map((f) => f.channel));
+		const advised = new Set(
+			(r.findings ?? []).filter((f) => f.topic === 'meter' && f.level === 'attention').map((f) => f.channel),
+		);
 		const meters = r.channels.filter((c) => advised.has(c.name) && c.averageResponding.explanation);
 		if (meters.length > 0) {
 			out.push('', '  average-responding meters:');
@@ -186,7 +224,14 @@ export function formatReport(r: ReportJson): string[] {
 		out.push('', '  power (IEEE 1459):');
 		const rows = [['pair', 'P W', 'S VA', 'Q1 var', 'PF', 'DPF']];
 		for (const p of r.power) {
-			rows.push([`${p.voltage} x ${p.current}`, formatNumber(p.activeW), formatNumber(p.apparentVA), formatNumber(p.reactiveVar), fixed(p.powerFactor, 3), fixed(p.displacementPowerFactor, 3)]);
+			rows.push([
+				`${p.voltage} x ${p.current}`,
+				formatNumber(p.activeW),
+				formatNumber(p.apparentVA),
+				formatNumber(p.reactiveVar),
+				fixed(p.powerFactor, 3),
+				fixed(p.displacementPowerFactor, 3),
+			]);
 		}
 		out.push(...table(rows, '    '));
 		for (const p of r.power) out.push(`    ${p.current} on ${p.voltage}: ${p.loadSentence}`);
@@ -203,24 +248,39 @@ export function formatReport(r: ReportJson): string[] {
 	if (r.neutral) out.push('', `  neutral: ${r.neutral.sentence}`);
 	for (const t of r.threePhaseSets) {
 		const kind = t.connection === 'line-to-line' ? 'line-to-line voltages' : `${t.quantity}s`;
-		out.push('', `  three-phase ${kind} ${t.channels.join(', ')}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`);
+		out.push(
+			'',
+			`  three-phase ${kind} ${t.channels.join(', ')}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`,
+		);
 		out.push(
 			t.quantity === 'voltage'
 				? `    unbalance: VUF (IEC, |V2|/|V1|) ${fixed(t.unbalancePercent, 2)} %; LVUR (NEMA, line voltages) ${fixed(t.lvurPercent, 2)} %; PVUR (IEEE, phase voltages) ${fixed(t.pvurPercent, 2)} %`
 				: `    unbalance: |I2|/|I1| ${fixed(t.unbalancePercent, 2)} %; max deviation from the mean current ${fixed(t.pvurPercent, 2)} %`,
 		);
-		const seq = (x: number | null) => (x !== null && t.sequence.positive !== null && Math.abs(x) < 1e-9 * Math.abs(t.sequence.positive) ? '0' : formatNumber(x));
-		out.push(`    sequence components (RMS): zero ${seq(t.sequence.zero)}, positive ${seq(t.sequence.positive)}, negative ${seq(t.sequence.negative)}`);
+		const seq = (x: number | null) =>
+			x !== null && t.sequence.positive !== null && Math.abs(x) < 1e-9 * Math.abs(t.sequence.positive)
+				? '0'
+				: formatNumber(x);
+		out.push(
+			`    sequence components (RMS): zero ${seq(t.sequence.zero)}, positive ${seq(t.sequence.positive)}, negative ${seq(t.sequence.negative)}`,
+		);
 	}
 	for (const d of r.digital ?? []) {
-		const when = d.firstActiveS === null ? 'never active' : `active from ${fixed(d.firstActiveS, 4)} s for ${fixed(d.activeS, 4)} s`;
+		const when =
+			d.firstActiveS === null
+				? 'never active'
+				: `active from ${fixed(d.firstActiveS, 4)} s for ${fixed(d.activeS, 4)} s`;
 		out.push('', `  status ${d.name}: ${when}; ${d.changes} change(s)`);
 	}
 	out.push(...flickerLines(r));
 	out.push(...eventBlock(r));
 	if (r.limits) {
 		const failed = r.limits.rows.filter((x) => !x.pass);
-		out.push('', `  limits ${r.limits.table} (${r.limits.title}): ${r.limits.pass ? 'PASS' : `FAIL (${failed.length} over)`}`, `    judged on ${r.limits.basis.text}`);
+		out.push(
+			'',
+			`  limits ${r.limits.table} (${r.limits.title}): ${r.limits.pass ? 'PASS' : `FAIL (${failed.length} over)`}`,
+			`    judged on ${r.limits.basis.text}`,
+		);
 		for (const x of failed) out.push(`    ${limitRowText(x)}`);
 		for (const n of r.limits.notes) out.push(`    note: ${n}`);
 	}

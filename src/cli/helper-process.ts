@@ -57,7 +57,11 @@ function hookExit(): void {
 	hooked = true;
 	process.on('exit', killLive);
 	// A signal ends this process with the usual 128 + signal number, after the helpers.
-	for (const [signal, n] of [['SIGINT', 2], ['SIGTERM', 15], ['SIGHUP', 1]] as const) {
+	for (const [signal, n] of [
+		['SIGINT', 2],
+		['SIGTERM', 15],
+		['SIGHUP', 1],
+	] as const) {
 		process.once(signal, () => {
 			killLive();
 			process.exit(128 + n);
@@ -94,11 +98,18 @@ export class HelperProcess {
 	}
 
 	private stoppedWords(code: number | null, signal: NodeJS.Signals | null): string {
-		const oom = /heap out of memory|Reached heap limit|Allocation failed|invalid table size|invalid array length/i.test(this.stderrTail);
+		const oom = /heap out of memory|Reached heap limit|Allocation failed|invalid table size|invalid array length/i.test(
+			this.stderrTail,
+		);
 		const words = oom
 			? `could not analyse: the analysis needed more than the ${bytesWords(this.heapMiB * 2 ** 20)} of memory one file may use (--memory-limit)${this.longRecordingHint}`
 			: 'could not analyse: the analysis of this file stopped unexpectedly (a fault in sinecheck: please report it with the file)';
-		const last = this.stderrTail.trim().split('\n').filter((l) => /\S/.test(l)).slice(-1)[0] ?? '';
+		const last =
+			this.stderrTail
+				.trim()
+				.split('\n')
+				.filter((l) => /\S/.test(l))
+				.slice(-1)[0] ?? '';
 		return words + (process.env.SINECHECK_DEBUG ? ` [detail: exit ${code ?? signal}: ${last}]` : '');
 	}
 
@@ -131,9 +142,13 @@ export class HelperProcess {
 				if (child.stderr && !child.stderr.readableEnded) child.stderr.once('close', report);
 				else report();
 			};
-			const onError = () => finish('could not analyse: the helper process for this file could not be started or reached');
+			const onError = () =>
+				finish('could not analyse: the helper process for this file could not be started or reached');
 			const timer = setTimeout(
-				() => finish(`could not analyse: gave up after ${Math.round(limitS)} s, the time one file may take (--time-limit); the file may be damaged${this.longRecordingHint}`),
+				() =>
+					finish(
+						`could not analyse: gave up after ${Math.round(limitS)} s, the time one file may take (--time-limit); the file may be damaged${this.longRecordingHint}`,
+					),
 				limitS * 1000,
 			);
 			child.on('message', onAnswer).on('exit', onExit).on('error', onError);

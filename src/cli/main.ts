@@ -24,47 +24,102 @@ for (const stream of [process.stdout, process.stderr]) {
 }
 
 cli
-	.command('analyse [...paths]', 'Analyse capture files and folders (CSV, WAV, COMTRADE): RMS, harmonics, THD, phase, power, three-phase, limits')
+	.command(
+		'analyse [...paths]',
+		'Analyse capture files and folders (CSV, WAV, COMTRADE): RMS, harmonics, THD, phase, power, three-phase, limits',
+	)
 	.alias('analyze')
-	.option('--json', 'One JSON report per file on stdout, one line each (JSON Lines); schema: lib/report/report.schema.json')
+	.option(
+		'--json',
+		'One JSON report per file on stdout, one line each (JSON Lines); schema: lib/report/report.schema.json',
+	)
 	.option('--csv', 'One summary row per channel per file, for spreadsheets')
-	.option('--limits <table>', 'Evaluate harmonics against a limit table: en50160, iec61000-2-2, ieee519 (sets exit code 1 on a failure)')
-	.option('--isc-il <ratio>', 'IEEE 519: short-circuit to maximum demand load current ratio at the point of common coupling')
+	.option(
+		'--limits <table>',
+		'Evaluate harmonics against a limit table: en50160, iec61000-2-2, ieee519 (sets exit code 1 on a failure)',
+	)
+	.option(
+		'--isc-il <ratio>',
+		'IEEE 519: short-circuit to maximum demand load current ratio at the point of common coupling',
+	)
 	.option('--il <A>', 'IEEE 519: maximum demand load current I_L in A (for TDD)')
-	.option('--single-bins', 'Judge limits on each order\'s single DFT bin instead of the harmonic subgroups the tables\' standards use')
-	.option('--declared <V>', 'Declared supply voltage for dips, swells and interruptions, V (line-to-neutral for phase channels); inferred when absent')
-	.option('--ieee519-edition <year>', 'IEEE 519 even-harmonic current rule: 2022 (default; 50 % of the odd limit up to h6) or 2014 (25 %)')
+	.option(
+		'--single-bins',
+		"Judge limits on each order's single DFT bin instead of the harmonic subgroups the tables' standards use",
+	)
+	.option(
+		'--declared <V>',
+		'Declared supply voltage for dips, swells and interruptions, V (line-to-neutral for phase channels); inferred when absent',
+	)
+	.option(
+		'--ieee519-edition <year>',
+		'IEEE 519 even-harmonic current rule: 2022 (default; 50 % of the odd limit up to h6) or 2014 (25 %)',
+	)
 	.option('--ref <channel>', 'Reference channel for frequency, window and phase (default: the first voltage channel)')
 	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
-	.option('--scale <channel=factor>', 'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable', { type: [String] })
+	.option(
+		'--scale <channel=factor>',
+		'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable',
+		{ type: [String] },
+	)
 	.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
-	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', { type: [String] })
+	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', {
+		type: [String],
+	})
 	.option('--delimiter <which>', 'CSV column separator when detection guesses wrong: comma, semicolon, tab or space')
 	.option('--decimal <mark>', 'CSV decimal mark: point or comma (e.g. 0,707)')
 	.option('--time-column <n>', 'CSV column (from 1) holding the time, or none')
 	.option('--time-unit <unit>', 'Unit of the CSV time column: s, ms, us, ns, or index (a sample number; give --rate)')
-	.option('--gaps', 'CSV: read cells that are not numbers (e.g. OVL) as gaps instead of refusing the file; they are listed, and the figures come from the longest stretch without gaps')
+	.option(
+		'--gaps',
+		'CSV: read cells that are not numbers (e.g. OVL) as gaps instead of refusing the file; they are listed, and the figures come from the longest stretch without gaps',
+	)
 	.option('--secondary', 'COMTRADE: report secondary values (what the recorder saw) instead of primary')
-	.option('--pair <voltage=current>', 'Pair a voltage and a current channel for power (replaces pairing by phase label); repeatable', { type: [String] })
+	.option(
+		'--pair <voltage=current>',
+		'Pair a voltage and a current channel for power (replaces pairing by phase label); repeatable',
+		{ type: [String] },
+	)
 	.option('--window <cycles>', 'Harmonic window length in cycles (default 10 at 50 Hz, 12 at 60 Hz)')
-	.option('--nominal <V>', 'Nominal system voltage in V, line-to-line (e.g. 400 for 230/400 V): chooses the IEEE 519 row; default from the measured voltage')
+	.option(
+		'--nominal <V>',
+		'Nominal system voltage in V, line-to-line (e.g. 400 for 230/400 V): chooses the IEEE 519 row; default from the measured voltage',
+	)
 	.option('--nominal-hz <Hz>', 'Nominal frequency, 50 or 60 (default: from the file, else the nearer one)')
 	.option('--max-order <n>', 'Highest harmonic order reported (default 50)')
-	.option('--next-steps', 'Show the next steps (capacitor bank, transformer, neutral, motors, meter) in the table; with --csv, their rows instead of the channel summary')
+	.option(
+		'--next-steps',
+		'Show the next steps (capacitor bank, transformer, neutral, motors, meter) in the table; with --csv, their rows instead of the channel summary',
+	)
 	.option('--target-pf <pf>', 'Next steps: displacement power factor wanted after correction (e.g. 0.95)')
 	.option('--supply-ssc-kva <kVA>', 'Next steps: short-circuit power at the board, kVA (for the capacitor resonance)')
 	.option('--transformer-kva <kVA>', 'Next steps: rating of the transformer feeding the board, kVA')
-	.option('--transformer-z-pct <pct>', 'Next steps: transformer impedance, % (Ssc = kVA / z when --supply-ssc-kva is not given)')
-	.option('--transformer-pec-pu <pu>', "Next steps: transformer winding eddy-current loss, per unit of its I²R loss (from its test report)")
+	.option(
+		'--transformer-z-pct <pct>',
+		'Next steps: transformer impedance, % (Ssc = kVA / z when --supply-ssc-kva is not given)',
+	)
+	.option(
+		'--transformer-pec-pu <pu>',
+		'Next steps: transformer winding eddy-current loss, per unit of its I²R loss (from its test report)',
+	)
 	.option('--meter-crest <cf>', "Next steps: the meter's rated crest factor at full scale")
 	.option('--meter-bandwidth-hz <Hz>', "Next steps: the meter's bandwidth, Hz")
 	.option('--meter-range-v <V>', 'Next steps: full scale of the voltage range used on the meter')
 	.option('--meter-range-a <A>', 'Next steps: full scale of the current range used on the meter')
-	.option('--meter-response <kind>', 'Next steps: how the meter responds: true-rms or average (average-responding, calibrated on a sine)')
+	.option(
+		'--meter-response <kind>',
+		'Next steps: how the meter responds: true-rms or average (average-responding, calibrated on a sine)',
+	)
 	.option('--whole-record', 'Time-domain figures over every sample instead of whole cycles')
-	.option('--jobs <n>', 'Files analysed at once, each in a helper process (default: one per core, up to 8; 0 = in this process, without the time and memory limits)')
+	.option(
+		'--jobs <n>',
+		'Files analysed at once, each in a helper process (default: one per core, up to 8; 0 = in this process, without the time and memory limits)',
+	)
 	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
-	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine shared among the workers)')
+	.option(
+		'--memory-limit <MiB>',
+		'Memory one file may use for its analysis, MiB (default: up to half the machine shared among the workers)',
+	)
 	.option('--quiet', 'With --json/--csv: do not repeat the assumptions on stderr')
 	.option('--no-progress', 'No progress bar (it is drawn only when stderr is a terminal anyway)')
 	.action(async (paths: string[], options: Record<string, unknown>) => {
@@ -74,10 +129,16 @@ cli
 	});
 
 cli
-	.command('trend [...paths]', 'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings; folders are walked')
+	.command(
+		'trend [...paths]',
+		'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings; folders are walked',
+	)
 	.usage('trend [...paths]  (recording files or folders; folders are walked for .csv .tsv .txt .wav .cfg .cff)')
 	.option('--json', 'One JSON document per file instead of CSV rows')
-	.option('--interval <which>', 'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s), 10-min (10min), or flicker (Pst per 10 min and Plt per 2 h per voltage channel)')
+	.option(
+		'--interval <which>',
+		'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s), 10-min (10min), or flicker (Pst per 10 min and Plt per 2 h per voltage channel)',
+	)
 	.option('--nominal <V>', 'Declared voltage Udin in V (line-to-neutral when the channels are); inferred when absent')
 	.option('--frequency <Hz>', 'Nominal frequency, 50 or 60; from the file or the first cycles when absent')
 	.option('--dip-percent <pct>', 'Dip threshold, % of the declared voltage')
@@ -87,14 +148,25 @@ cli
 	.option('--no-thd', 'Skip the harmonic analysis (THD columns empty; faster)')
 	.option('--harmonics', 'Also every harmonic order 2-50 per channel, % of the fundamental')
 	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
-	.option('--scale <channel=factor>', 'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable', { type: [String] })
+	.option(
+		'--scale <channel=factor>',
+		'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable',
+		{ type: [String] },
+	)
 	.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
-	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', { type: [String] })
+	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', {
+		type: [String],
+	})
 	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
 	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine)')
 	.action(async (given: string[], options: Record<string, unknown>) => {
 		const files = withAfterDashes(given, options);
-		const settings = settingsFromOptions({ rate: options.rate, scale: options.scale, unit: options.unit, quantity: options.quantity }).import;
+		const settings = settingsFromOptions({
+			rate: options.rate,
+			scale: options.scale,
+			unit: options.unit,
+			quantity: options.quantity,
+		}).import;
 		const { importOptionsFrom } = await import('./import-settings.js');
 		const { trendCommand } = await import('./trend/index.js');
 		const open = importOptionsFrom(settings);
@@ -117,10 +189,16 @@ cli
 	});
 
 cli
-	.command('survey [...paths]', 'Voltage-characteristics survey of one recording over many files (EN 50160, IEC 61000-2-2): every rule, the dip table, verdicts; also merges trend --json outputs')
+	.command(
+		'survey [...paths]',
+		'Voltage-characteristics survey of one recording over many files (EN 50160, IEC 61000-2-2): every rule, the dip table, verdicts; also merges trend --json outputs',
+	)
 	.usage('survey [...paths]  (recording files or folders of one recording, or JSON files written by trend --json)')
 	.option('--standard <which>', 'en50160 (default) or iec61000-2-2')
-	.option('--nominal <V>', 'Declared supply voltage Un in V (line-to-neutral when the channels are); inferred when absent')
+	.option(
+		'--nominal <V>',
+		'Declared supply voltage Un in V (line-to-neutral when the channels are); inferred when absent',
+	)
 	.option('--frequency <Hz>', 'Nominal frequency, 50 or 60; from the file or the first cycles when absent')
 	.option('--json', 'The survey as one JSON document')
 	.option('--csv', 'The survey as CSV: one row per rule (every harmonic order) and per dip/swell table cell')
@@ -143,9 +221,12 @@ cli.help((sections) => {
 	// cac gives a negated option (--no-progress, --no-thd) the default true and prints "(default: true)"
 	// after it, which reads as if the option were on by default: that text is left out.
 	for (const section of sections) {
-		if (section.title === 'Options') section.body = section.body.replace(/^(\s+--no-\S+.*?)\s*\(default: true\)$/gm, '$1');
+		if (section.title === 'Options')
+			section.body = section.body.replace(/^(\s+--no-\S+.*?)\s*\(default: true\)$/gm, '$1');
 	}
-	const examples = [...ANALYSE_EXAMPLES, ...TREND_EXAMPLES].map((l) => (l.startsWith('#') ? `  ${l}` : `  $ ${l}`)).join('\n');
+	const examples = [...ANALYSE_EXAMPLES, ...TREND_EXAMPLES]
+		.map((l) => (l.startsWith('#') ? `  ${l}` : `  $ ${l}`))
+		.join('\n');
 	sections.push({ title: 'Examples', body: examples });
 	sections.push({ body: wrap(EXIT_CODES, 100, '') });
 	sections.push({ body: wrap(SAFETY_CAUTION, 100, '') });
@@ -158,7 +239,8 @@ async function main(): Promise<number> {
 		cli.parse(process.argv, { run: false });
 		if (cli.options.help || cli.options.version) return 0;
 		if (!cli.matchedCommand) {
-			if (cli.args.length > 0) throw new UsageError(`unknown command ${JSON.stringify(cli.args[0])}; try sinecheck --help`);
+			if (cli.args.length > 0)
+				throw new UsageError(`unknown command ${JSON.stringify(cli.args[0])}; try sinecheck --help`);
 			cli.outputHelp();
 			return 2;
 		}
@@ -170,7 +252,10 @@ async function main(): Promise<number> {
 			return 2;
 		}
 		const code = (e as NodeJS.ErrnoException)?.code;
-		const why = typeof code === 'string' && /^E[A-Z]+$/.test(code) ? fsErrorWords(code) : 'a fault in sinecheck: please report it with the command line; SINECHECK_DEBUG=1 shows the detail';
+		const why =
+			typeof code === 'string' && /^E[A-Z]+$/.test(code)
+				? fsErrorWords(code)
+				: 'a fault in sinecheck: please report it with the command line; SINECHECK_DEBUG=1 shows the detail';
 		process.stderr.write(`sinecheck: stopped by an unexpected error (${why})\n`);
 		if (process.env.SINECHECK_DEBUG) process.stderr.write(`${e instanceof Error ? e.stack : String(e)}\n`);
 		return 2;

@@ -28,7 +28,14 @@ export interface ImportSettings {
 	gaps?: boolean;
 }
 
-const DELIMITERS: Record<string, ',' | ';' | '\t' | ' '> = { comma: ',', ',': ',', semicolon: ';', ';': ';', tab: '\t', space: ' ' };
+const DELIMITERS: Record<string, ',' | ';' | '\t' | ' '> = {
+	comma: ',',
+	',': ',',
+	semicolon: ';',
+	';': ';',
+	tab: '\t',
+	space: ' ',
+};
 
 export interface CommandSettings {
 	analysis: AnalysisOptions;
@@ -61,7 +68,10 @@ function positiveNumber(option: string, value: unknown, what: string): number | 
 function assignments(option: string, value: unknown, what: string): [string, string][] {
 	return list(value).map((text) => {
 		const at = text.lastIndexOf('=');
-		if (at <= 0 || at === text.length - 1) throw new UsageError(`--${option} ${text}: expected <channel>=<${what}>, e.g. --${option} U1=${option === 'scale' ? '100' : option === 'unit' ? 'V' : 'voltage'}`);
+		if (at <= 0 || at === text.length - 1)
+			throw new UsageError(
+				`--${option} ${text}: expected <channel>=<${what}>, e.g. --${option} U1=${option === 'scale' ? '100' : option === 'unit' ? 'V' : 'voltage'}`,
+			);
 		return [text.slice(0, at).trim(), text.slice(at + 1).trim()];
 	});
 }
@@ -83,7 +93,8 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 	}
 	const edition = last('ieee519-edition', raw.ieee519Edition);
 	if (edition !== undefined) {
-		if (edition !== '2014' && edition !== '2022') throw new UsageError(`--ieee519-edition ${edition}: expected 2014 or 2022`);
+		if (edition !== '2014' && edition !== '2022')
+			throw new UsageError(`--ieee519-edition ${edition}: expected 2014 or 2022`);
 		analysis.ieee519Edition = edition;
 	}
 	const ref = last('ref', raw.ref);
@@ -101,19 +112,22 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 	}
 	const maxOrder = positiveNumber('max-order', raw.maxOrder, 'the highest harmonic order, 2 to 50');
 	if (maxOrder !== undefined) {
-		if (!Number.isInteger(maxOrder) || maxOrder < 2 || maxOrder > 100) throw new UsageError(`--max-order ${maxOrder}: expected a whole number from 2 to 100`);
+		if (!Number.isInteger(maxOrder) || maxOrder < 2 || maxOrder > 100)
+			throw new UsageError(`--max-order ${maxOrder}: expected a whole number from 2 to 100`);
 		analysis.maxOrder = maxOrder;
 	}
 	if (raw.wholeRecord === true) analysis.span = 'whole-record';
 	if (raw.singleBins === true) {
-		if (analysis.limits === undefined) throw new UsageError('--single-bins applies to a limit check: give --limits too');
+		if (analysis.limits === undefined)
+			throw new UsageError('--single-bins applies to a limit check: give --limits too');
 		analysis.harmonicBasis = 'single-bins';
 	}
 	analysis.declaredV = positiveNumber('declared', raw.declared, 'the declared supply voltage in V');
 	const pairs = assignments('pair', raw.pair, 'current channel');
 	if (pairs.length > 0) analysis.pairs = pairs.map(([voltage, current]) => ({ voltage, current }));
 	analysis.site = siteFromOptions(raw);
-	for (const key of Object.keys(analysis) as (keyof AnalysisOptions)[]) if (analysis[key] === undefined) delete analysis[key];
+	for (const key of Object.keys(analysis) as (keyof AnalysisOptions)[])
+		if (analysis[key] === undefined) delete analysis[key];
 
 	const settings: ImportSettings = { scale: {}, unit: {}, quantity: {} };
 	const rate = positiveNumber('rate', raw.rate, 'the sample rate in Hz');
@@ -126,12 +140,14 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 	for (const [channel, unit] of assignments('unit', raw.unit, 'unit')) settings.unit[channel] = unit;
 	const delimiter = last('delimiter', raw.delimiter);
 	if (delimiter !== undefined) {
-		if (!(delimiter in DELIMITERS)) throw new UsageError(`--delimiter ${delimiter}: expected comma, semicolon, tab or space`);
+		if (!(delimiter in DELIMITERS))
+			throw new UsageError(`--delimiter ${delimiter}: expected comma, semicolon, tab or space`);
 		settings.delimiter = DELIMITERS[delimiter];
 	}
 	const decimal = last('decimal', raw.decimal);
 	if (decimal !== undefined) {
-		if (decimal !== 'point' && decimal !== 'comma') throw new UsageError(`--decimal ${decimal}: expected point or comma`);
+		if (decimal !== 'point' && decimal !== 'comma')
+			throw new UsageError(`--decimal ${decimal}: expected point or comma`);
 		settings.decimalMark = decimal === 'point' ? '.' : ',';
 	}
 	const timeColumn = last('time-column', raw.timeColumn);
@@ -143,13 +159,15 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 	}
 	const timeUnit = last('time-unit', raw.timeUnit);
 	if (timeUnit !== undefined) {
-		if (!['s', 'ms', 'us', 'ns', 'index'].includes(timeUnit)) throw new UsageError(`--time-unit ${timeUnit}: expected s, ms, us, ns or index`);
+		if (!['s', 'ms', 'us', 'ns', 'index'].includes(timeUnit))
+			throw new UsageError(`--time-unit ${timeUnit}: expected s, ms, us, ns or index`);
 		settings.timeUnit = timeUnit as ImportSettings['timeUnit'];
 	}
 	if (raw.secondary === true) settings.comtradeValues = 'secondary';
 	if (raw.gaps === true) settings.gaps = true;
 	for (const [channel, q] of assignments('quantity', raw.quantity, 'quantity')) {
-		if (q !== 'voltage' && q !== 'current' && q !== 'other') throw new UsageError(`--quantity ${channel}=${q}: expected voltage, current or other`);
+		if (q !== 'voltage' && q !== 'current' && q !== 'other')
+			throw new UsageError(`--quantity ${channel}=${q}: expected voltage, current or other`);
 		settings.quantity[channel] = q;
 	}
 	return { analysis, import: settings };
@@ -160,12 +178,16 @@ export function limitsFrom(time: unknown, memory: unknown): { timeLimitS?: numbe
 	const out: { timeLimitS?: number; heapMiB?: number } = {};
 	if (time !== undefined) {
 		const s = Number(time);
-		if (!Number.isFinite(s) || s <= 0) throw new UsageError(`--time-limit ${String(time)}: expected the seconds one file may take (a number above 0)`);
+		if (!Number.isFinite(s) || s <= 0)
+			throw new UsageError(`--time-limit ${String(time)}: expected the seconds one file may take (a number above 0)`);
 		out.timeLimitS = s;
 	}
 	if (memory !== undefined) {
 		const m = Number(memory);
-		if (!Number.isInteger(m) || m < 64) throw new UsageError(`--memory-limit ${String(memory)}: expected the MiB of memory one file may use (a whole number, at least 64)`);
+		if (!Number.isInteger(m) || m < 64)
+			throw new UsageError(
+				`--memory-limit ${String(memory)}: expected the MiB of memory one file may use (a whole number, at least 64)`,
+			);
 		out.heapMiB = m;
 	}
 	return out;

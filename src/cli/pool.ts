@@ -39,7 +39,13 @@ function failure(unit: AnalysisUnit, message: string): UnitResult {
 	return { files: unit.files, reports: [], problems: [{ file: unit.files[0], code: 'stopped', message }] };
 }
 
-async function runInHelper(helper: HelperProcess, id: number, unit: AnalysisUnit, settings: CommandSettings, limits: UnitLimits): Promise<UnitResult> {
+async function runInHelper(
+	helper: HelperProcess,
+	id: number,
+	unit: AnalysisUnit,
+	settings: CommandSettings,
+	limits: UnitLimits,
+): Promise<UnitResult> {
 	let result: UnitResult | undefined;
 	const req: WorkRequest = { kind: 'analyse', id, files: unit.files, settings };
 	const stopped = await helper.run(
@@ -52,7 +58,9 @@ async function runInHelper(helper: HelperProcess, id: number, unit: AnalysisUnit
 		},
 		timeLimitFor(unitBytes(unit), limits.timeLimitS),
 	);
-	return stopped === undefined && result ? result : failure(unit, stopped ?? 'could not analyse: no answer from the helper process');
+	return stopped === undefined && result
+		? result
+		: failure(unit, stopped ?? 'could not analyse: no answer from the helper process');
 }
 
 /**

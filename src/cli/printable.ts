@@ -15,7 +15,9 @@ const NAMED: Record<string, string> = { '\t': '\\t', '\n': '\\n', '\r': '\\r' };
 
 function escape(c: string): string {
 	const code = c.charCodeAt(0);
-	return NAMED[c] ?? (code <= 0xff ? `\\x${code.toString(16).padStart(2, '0')}` : `\\u${code.toString(16).padStart(4, '0')}`);
+	return (
+		NAMED[c] ?? (code <= 0xff ? `\\x${code.toString(16).padStart(2, '0')}` : `\\u${code.toString(16).padStart(4, '0')}`)
+	);
 }
 
 /**
@@ -31,5 +33,8 @@ export function printable(text: string): string {
  * controls, U+2028/U+2029) written as \u escapes: the same JSON value, safe to print.
  */
 export function printableJson(json: string): string {
-	return json.replace(/[\u007f-\u009f\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+	return json.replace(
+		/[\u007f-\u009f\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069]/g,
+		(c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`,
+	);
 }

@@ -9,7 +9,8 @@ import { errorLine } from './error-line.js';
 import type { CommandSettings } from './options.js';
 import { messageSink, trendFile, type TrendJob, type TrendMessage } from './trend/trend-file.js';
 
-export type WorkRequest = { kind: 'analyse'; id: number; files: string[]; settings: CommandSettings } | { kind: 'trend'; job: TrendJob };
+export type WorkRequest =
+	{ kind: 'analyse'; id: number; files: string[]; settings: CommandSettings } | { kind: 'trend'; job: TrendJob };
 
 const send = (m: unknown) => process.send?.(m);
 
@@ -19,7 +20,10 @@ process.on('message', (req: WorkRequest) => {
 		return;
 	}
 	try {
-		trendFile(req.job, messageSink((m: TrendMessage) => send(m)));
+		trendFile(
+			req.job,
+			messageSink((m: TrendMessage) => send(m)),
+		);
 		send({ t: 'done' } satisfies TrendMessage);
 	} catch (e) {
 		send({ t: 'error', line: errorLine(e, req.job.file) } satisfies TrendMessage);

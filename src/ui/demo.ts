@@ -4,11 +4,20 @@
  */
 import type { SourceFile } from './state/session.svelte.js';
 
-const urls = import.meta.glob(['../../sample-waves/*.csv', '../../sample-waves/*.wav', '../../sample-waves/*.cfg', '../../sample-waves/*.dat', '../../sample-waves/*.cff'], {
-	query: '?url',
-	import: 'default',
-	eager: true,
-}) as Record<string, string>;
+const urls = import.meta.glob(
+	[
+		'../../sample-waves/*.csv',
+		'../../sample-waves/*.wav',
+		'../../sample-waves/*.cfg',
+		'../../sample-waves/*.dat',
+		'../../sample-waves/*.cff',
+	],
+	{
+		query: '?url',
+		import: 'default',
+		eager: true,
+	},
+) as Record<string, string>;
 
 /** One line per demo capture: what it shows, in the words of sample-waves/README.md (the made-up site). */
 export const DEMO_DESCRIPTIONS: Record<string, string> = {

@@ -22,7 +22,11 @@ function nf(decimals: number): Intl.NumberFormat {
 	const key = `${decimals}`;
 	let f = cache.get(key);
 	if (!f) {
-		f = new Intl.NumberFormat(locale, { minimumFractionDigits: decimals, maximumFractionDigits: decimals, useGrouping: true });
+		f = new Intl.NumberFormat(locale, {
+			minimumFractionDigits: decimals,
+			maximumFractionDigits: decimals,
+			useGrouping: true,
+		});
 		cache.set(key, f);
 	}
 	return f;
@@ -60,7 +64,12 @@ const PREFIXES: [number, string][] = [
  * formatQuantity(12345, 'W') → "12.35 kW". Units other than V, A, W, VA, var, Hz, s, Ω are shown unprefixed.
  * |value| < `resolution` is shown as "0 V" (computed noise such as a 1e-14 V mean of a pure sine).
  */
-export function formatQuantity(value: number | null | undefined, unit: string, significant = 4, resolution = 0): string {
+export function formatQuantity(
+	value: number | null | undefined,
+	unit: string,
+	significant = 4,
+	resolution = 0,
+): string {
 	if (value === null || value === undefined || !Number.isFinite(value)) return NO_VALUE;
 	// below the stated resolution (e.g. a millionth of the channel's RMS: rounding noise) show a plain zero
 	if (Math.abs(value) < resolution) return unit ? `${formatFixed(0, 0)} ${unit}` : formatFixed(0, 0);

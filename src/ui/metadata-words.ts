@@ -23,7 +23,10 @@ export function metadataLabel(key: string): string {
 	if (NAMES[key]) return NAMES[key];
 	const ccbm = /^comtrade\.ccbm\.(.+)$/.exec(key);
 	if (ccbm) return `Circuit of ${ccbm[1]}`;
-	const text = key.replace(/^(comtrade|wav|csv)\./, '').replace(/[._]+/g, ' ').trim();
+	const text = key
+		.replace(/^(comtrade|wav|csv)\./, '')
+		.replace(/[._]+/g, ' ')
+		.trim();
 	return text.charAt(0).toUpperCase() + text.slice(1);
 }
 

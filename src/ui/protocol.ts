@@ -31,14 +31,28 @@ export interface ImportProblem {
 }
 
 export type ToWorker =
-	| { type: 'open'; jobId: number; captureKey: string; files: FileBytes[]; overrides: ImportOverrides; analysis: AnalysisOptions }
+	| {
+			type: 'open';
+			jobId: number;
+			captureKey: string;
+			files: FileBytes[];
+			overrides: ImportOverrides;
+			analysis: AnalysisOptions;
+	  }
 	| { type: 'analyse'; jobId: number; captureKey: string; analysis: AnalysisOptions }
 	| { type: 'seed'; captureKey: string; capture: Capture }
 	| { type: 'forget'; captureKey: string };
 
 export type FromWorker =
 	| { type: 'progress'; jobId: number; stage: string; fraction: number | null; etaS?: number | null; expectS?: number }
-	| { type: 'opened'; jobId: number; captureKey: string; capture: Capture; report: AnalysisReport; extras: ReportExtras }
+	| {
+			type: 'opened';
+			jobId: number;
+			captureKey: string;
+			capture: Capture;
+			report: AnalysisReport;
+			extras: ReportExtras;
+	  }
 	| { type: 'import-failed'; jobId: number; captureKey: string; problems: ImportProblem[] }
 	| { type: 'analysed'; jobId: number; captureKey: string; report: AnalysisReport; extras: ReportExtras }
 	| { type: 'missing'; jobId: number; captureKey: string }

@@ -27,9 +27,20 @@ export function lagSentence(pair: Pick<ReportPair, 'ref' | 'other' | 'lagDeg' | 
 	return libLagSentence(pair, words());
 }
 
-const TAB: Record<ReportFinding['topic'], ViewTab> = { distortion: 'harmonics', meter: 'waves', load: 'phasors', 'three-phase': 'phasors', events: 'trends', flicker: 'trends', data: 'waves' };
+const TAB: Record<ReportFinding['topic'], ViewTab> = {
+	distortion: 'harmonics',
+	meter: 'waves',
+	load: 'phasors',
+	'three-phase': 'phasors',
+	events: 'trends',
+	flicker: 'trends',
+	data: 'waves',
+};
 
 /** Every finding for a report, in reading order: distortion, meters, load, three-phase, events, data warnings. */
 export function verdictsFor(report: AnalysisReport): Verdict[] {
-	return reportFindings(report, words()).map((f) => ({ ...f, target: f.channel && f.topic !== 'three-phase' ? { tab: TAB[f.topic], channel: f.channel } : { tab: TAB[f.topic] } }));
+	return reportFindings(report, words()).map((f) => ({
+		...f,
+		target: f.channel && f.topic !== 'three-phase' ? { tab: TAB[f.topic], channel: f.channel } : { tab: TAB[f.topic] },
+	}));
 }

@@ -23,7 +23,10 @@ const trends = new Map<string, TrendView | null>();
  * Trends and events of a capture (lib/trend), collecting the Urms(1/2) values it reports per half cycle.
  * Null with no voltage or current channel; a refusal by the analyser becomes `problem`.
  */
-export function trendFor(capture: Capture, onProgress?: (fraction: number, etaS: number | null) => void): TrendView | null {
+export function trendFor(
+	capture: Capture,
+	onProgress?: (fraction: number, etaS: number | null) => void,
+): TrendView | null {
 	const channels = capture.channels.filter((c) => c.quantity !== 'other');
 	if (channels.length === 0) return null;
 	const times: number[][] = capture.channels.map(() => []);
@@ -66,10 +69,26 @@ export function trendFor(capture: Capture, onProgress?: (fraction: number, etaS:
 /** An importer failure (or any other thrown value) as data the page can show in place. */
 export function toProblem(e: unknown, fallbackSource: string): ImportProblem {
 	if (isImportError(e)) {
-		return { source: e.source, line: e.line, column: e.column, code: e.code, text: e.text, expected: e.expected, message: e.message };
+		return {
+			source: e.source,
+			line: e.line,
+			column: e.column,
+			code: e.code,
+			text: e.text,
+			expected: e.expected,
+			message: e.message,
+		};
 	}
 	const message = e instanceof Error ? e.message : String(e);
-	return { source: fallbackSource, line: 0, column: 0, code: 'unreadable', text: '', expected: 'a file Sinecheck can read', message };
+	return {
+		source: fallbackSource,
+		line: 0,
+		column: 0,
+		code: 'unreadable',
+		text: '',
+		expected: 'a file Sinecheck can read',
+		message,
+	};
 }
 
 /** Line `line` (1-based) of a text file's bytes, cut to 160 characters; undefined when the file is shorter. */
@@ -141,7 +160,10 @@ export function extrasFor(capture: Capture, report: AnalysisReport, analysis: An
  * The report of a capture, and the plot extras, on its longest stretch without gaps (the whole capture when
  * it has none); times in the extras count from that stretch like the report's, peak indices from the first sample.
  */
-function analyseSpan(capture: Capture, analysis: AnalysisOptions): { report: AnalysisReport; extras: ReportExtras; analysed: Capture } {
+function analyseSpan(
+	capture: Capture,
+	analysis: AnalysisOptions,
+): { report: AnalysisReport; extras: ReportExtras; analysed: Capture } {
 	if (!capture.gaps?.length) {
 		const report = analyseCapture(capture, analysis);
 		return { report, extras: extrasFor(capture, report, analysis), analysed: capture };
@@ -151,10 +173,18 @@ function analyseSpan(capture: Capture, analysis: AnalysisOptions): { report: Ana
 	const extras = extrasFor(span.capture, report, analysis);
 	for (const k of Object.keys(extras.peakIndex)) {
 		const p = extras.peakIndex[k];
-		extras.peakIndex[k] = { max: p.max < 0 ? -1 : p.max + span.startIndex, min: p.min < 0 ? -1 : p.min + span.startIndex };
+		extras.peakIndex[k] = {
+			max: p.max < 0 ? -1 : p.max + span.startIndex,
+			min: p.min < 0 ? -1 : p.min + span.startIndex,
+		};
 	}
 	const offsetS = span.startIndex / capture.sampleRateHz;
-	extras.gaps = { offsetS, startIndex: span.startIndex, endIndex: span.endIndex, cells: capture.gaps.map((g) => ({ ...g, timeS: g.sampleIndex / capture.sampleRateHz - offsetS })) };
+	extras.gaps = {
+		offsetS,
+		startIndex: span.startIndex,
+		endIndex: span.endIndex,
+		cells: capture.gaps.map((g) => ({ ...g, timeS: g.sampleIndex / capture.sampleRateHz - offsetS })),
+	};
 	return { report, extras, analysed: span.capture };
 }
 
@@ -170,7 +200,12 @@ function analysisEstimateS(capture: Capture, analysis: AnalysisOptions): number 
 	const n = capture.channels[0]?.samples.length ?? 0;
 	if (n / capture.sampleRateHz < ESTIMATE_FROM_S || capture.gaps?.length) return null;
 	const m = Math.max(Math.round(2 * capture.sampleRateHz), Math.round(n / 20));
-	const probe: Capture = { ...capture, timeS: capture.timeS?.subarray(0, m), channels: capture.channels.map((c) => ({ ...c, samples: c.samples.subarray(0, m) })), digital: capture.digital?.map((d) => ({ ...d, states: d.states.subarray(0, m) })) };
+	const probe: Capture = {
+		...capture,
+		timeS: capture.timeS?.subarray(0, m),
+		channels: capture.channels.map((c) => ({ ...c, samples: c.samples.subarray(0, m) })),
+		digital: capture.digital?.map((d) => ({ ...d, states: d.states.subarray(0, m) })),
+	};
 	const t0 = performance.now();
 	try {
 		analyseSpan(probe, analysis);
@@ -183,9 +218,15 @@ function analysisEstimateS(capture: Capture, analysis: AnalysisOptions): number 
 /** The 'open' request: read (streamed for one CSV), analyse, trends; progress and a time estimate at every stage. */
 async function openAndAnalyse(msg: Extract<ToWorker, { type: 'open' }>, post: Post): Promise<void> {
 	const names = msg.files.map((f) => f.name).join(', ');
-	const progress = (stage: string, fraction: number | null, etaS: number | null = null, expectS?: number) => post({ type: 'progress', jobId: msg.jobId, stage, fraction, etaS, expectS });
+	const progress = (stage: string, fraction: number | null, etaS: number | null = null, expectS?: number) =>
+		post({ type: 'progress', jobId: msg.jobId, stage, fraction, etaS, expectS });
 	progress(`Reading ${names}`, 0);
-	const { captures, problems } = await readCaptures(msg.files, msg.overrides, (f, eta) => progress(`Reading ${names}`, f, eta), (e) => toProblem(e, names));
+	const { captures, problems } = await readCaptures(
+		msg.files,
+		msg.overrides,
+		(f, eta) => progress(`Reading ${names}`, f, eta),
+		(e) => toProblem(e, names),
+	);
 	for (const p of problems) {
 		const f = msg.files.find((x) => x.name === p.source);
 		if (f && p.line > 0) p.lineText = await lineOfFile(f, p.line);
@@ -206,7 +247,17 @@ async function openAndAnalyse(msg: Extract<ToWorker, { type: 'open' }>, post: Po
 		const trend = trendFor(analysed, (f, eta) => progress(`Trends and events of ${capture.source}`, f, eta));
 		trends.set(msg.captureKey, trend);
 		const { capture: copy, transfer } = transferableCopy(capture);
-		post({ type: 'opened', jobId: msg.jobId, captureKey: msg.captureKey, capture: copy, report, extras: { ...extras, trend } }, transfer);
+		post(
+			{
+				type: 'opened',
+				jobId: msg.jobId,
+				captureKey: msg.captureKey,
+				capture: copy,
+				report,
+				extras: { ...extras, trend },
+			},
+			transfer,
+		);
 	} catch (e) {
 		post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
 	}

@@ -5,7 +5,13 @@
  * read and a time estimate from the rate so far.
  */
 import type { Capture } from '../../lib/capture.js';
-import { csvOptionsWithSettings, CsvStreamReader, detectFileKind, DETECT_HEAD_BYTES, openCaptures } from '../../lib/io/index.js';
+import {
+	csvOptionsWithSettings,
+	CsvStreamReader,
+	detectFileKind,
+	DETECT_HEAD_BYTES,
+	openCaptures,
+} from '../../lib/io/index.js';
 import type { FileBytes, ImportOverrides, ImportProblem } from './protocol.js';
 
 /** Slice read per step: large enough that per-slice overhead is small, small enough to keep memory bounded. */
@@ -27,7 +33,9 @@ export function etaFrom(done: number, total: number, elapsedS: number): number |
 
 /** Whether lib/io reads this file as CSV (its format decided from the head bytes and the name, in one place). */
 async function isCsv(f: FileBytes): Promise<boolean> {
-	const head = f.bytes ? new Uint8Array(f.bytes, 0, Math.min(DETECT_HEAD_BYTES, f.bytes.byteLength)) : new Uint8Array(await f.blob!.slice(0, DETECT_HEAD_BYTES).arrayBuffer());
+	const head = f.bytes
+		? new Uint8Array(f.bytes, 0, Math.min(DETECT_HEAD_BYTES, f.bytes.byteLength))
+		: new Uint8Array(await f.blob!.slice(0, DETECT_HEAD_BYTES).arrayBuffer());
 	return detectFileKind(f.name, head).kind === 'csv';
 }
 
@@ -39,7 +47,9 @@ async function streamCsv(f: FileBytes, overrides: ImportOverrides, progress: Rea
 	let last = -1;
 	for (let at = 0; at < total; at += READ_SLICE_BYTES) {
 		const end = Math.min(total, at + READ_SLICE_BYTES);
-		const chunk = f.blob ? new Uint8Array(await f.blob.slice(at, end).arrayBuffer()) : new Uint8Array(f.bytes!, at, end - at);
+		const chunk = f.blob
+			? new Uint8Array(await f.blob.slice(at, end).arrayBuffer())
+			: new Uint8Array(f.bytes!, at, end - at);
 		reader.push(chunk);
 		const fraction = end / total;
 		if (fraction - last >= 0.01 || end === total) {
@@ -51,7 +61,12 @@ async function streamCsv(f: FileBytes, overrides: ImportOverrides, progress: Rea
 }
 
 /** Opens the files of one capture; failures become problems (the worker's "import-failed"). */
-export async function readCaptures(files: FileBytes[], overrides: ImportOverrides, progress: ReadProgress, toProblem: (e: unknown) => ImportProblem): Promise<{ captures: Capture[]; problems: ImportProblem[] }> {
+export async function readCaptures(
+	files: FileBytes[],
+	overrides: ImportOverrides,
+	progress: ReadProgress,
+	toProblem: (e: unknown) => ImportProblem,
+): Promise<{ captures: Capture[]; problems: ImportProblem[] }> {
 	const problems: ImportProblem[] = [];
 	try {
 		const only = files.length === 1 ? files[0] : undefined;
@@ -79,11 +94,14 @@ export async function lineOfFile(f: FileBytes, line: number): Promise<string | u
 	let collected: number[] | null = line === 1 ? [] : null;
 	for (let at = 0; at < total; at += READ_SLICE_BYTES) {
 		const end = Math.min(total, at + READ_SLICE_BYTES);
-		const view = f.blob ? new Uint8Array(await f.blob.slice(at, end).arrayBuffer()) : new Uint8Array(f.bytes!, at, end - at);
+		const view = f.blob
+			? new Uint8Array(await f.blob.slice(at, end).arrayBuffer())
+			: new Uint8Array(f.bytes!, at, end - at);
 		for (let i = 0; i < view.length; i++) {
 			const b = view[i];
 			if (collected) {
-				if (b === 10 || b === 13 || collected.length >= 640) return new TextDecoder('utf-8').decode(new Uint8Array(collected)).slice(0, 160);
+				if (b === 10 || b === 13 || collected.length >= 640)
+					return new TextDecoder('utf-8').decode(new Uint8Array(collected)).slice(0, 160);
 				collected.push(b);
 			} else if (b === 10 && ++seen === line) collected = [];
 		}

@@ -27,36 +27,59 @@ try {
 	const tw = performance.now();
 	writeBigCsv(path);
 	const sizeMB = statSync(path).size / 1e6;
-	console.log(`file: ${sizeMB.toFixed(1)} MB, ${BIG_ROWS.toLocaleString('en')} rows x ${BIG_CHANNELS} channels = ${((BIG_ROWS * BIG_CHANNELS) / 1e6).toFixed(0)} M values (written in ${((performance.now() - tw) / 1000).toFixed(1)} s)`);
-	console.log(`load average before: ${loadavg().map((x) => x.toFixed(2)).join(' ')}`);
+	console.log(
+		`file: ${sizeMB.toFixed(1)} MB, ${BIG_ROWS.toLocaleString('en')} rows x ${BIG_CHANNELS} channels = ${((BIG_ROWS * BIG_CHANNELS) / 1e6).toFixed(0)} M values (written in ${((performance.now() - tw) / 1000).toFixed(1)} s)`,
+	);
+	console.log(
+		`load average before: ${loadavg()
+			.map((x) => x.toFixed(2))
+			.join(' ')}`,
+	);
 
 	// the worker path
 	const blob = await openAsBlob(path);
-	const stages = new Map<string, { firstMs: number; lastMs: number; updates: number; withFraction: number; withEstimate: number }>();
+	const stages = new Map<
+		string,
+		{ firstMs: number; lastMs: number; updates: number; withFraction: number; withEstimate: number }
+	>();
 	const t0 = performance.now();
 	const cpu0 = process.cpuUsage();
 	const done = await new Promise<FromWorker>((resolve) => {
-		handleMessage({ type: 'open', jobId: 1, captureKey: 'big', files: [{ name: 'big-recording.csv', blob: blob as unknown as Blob }], overrides: {}, analysis: { limits: 'en50160' } }, (msg) => {
-			const now = performance.now() - t0;
-			if (msg.type === 'progress') {
-				const key = msg.stage.replace(/ of .*| big-recording\.csv.*/, '');
-				const s = stages.get(key) ?? { firstMs: now, lastMs: now, updates: 0, withFraction: 0, withEstimate: 0 };
-				s.lastMs = now;
-				s.updates++;
-				if (msg.fraction !== null) s.withFraction++;
-				if (msg.etaS != null || msg.expectS !== undefined) s.withEstimate++;
-				stages.set(key, s);
-			} else resolve(msg);
-		});
+		handleMessage(
+			{
+				type: 'open',
+				jobId: 1,
+				captureKey: 'big',
+				files: [{ name: 'big-recording.csv', blob: blob as unknown as Blob }],
+				overrides: {},
+				analysis: { limits: 'en50160' },
+			},
+			(msg) => {
+				const now = performance.now() - t0;
+				if (msg.type === 'progress') {
+					const key = msg.stage.replace(/ of .*| big-recording\.csv.*/, '');
+					const s = stages.get(key) ?? { firstMs: now, lastMs: now, updates: 0, withFraction: 0, withEstimate: 0 };
+					s.lastMs = now;
+					s.updates++;
+					if (msg.fraction !== null) s.withFraction++;
+					if (msg.etaS != null || msg.expectS !== undefined) s.withEstimate++;
+					stages.set(key, s);
+				} else resolve(msg);
+			},
+		);
 	});
 	const workerMs = performance.now() - t0;
 	const cpu = process.cpuUsage(cpu0);
-	if (done.type !== 'opened') throw new Error(`worker path ended with ${done.type}: ${JSON.stringify(done).slice(0, 300)}`);
+	if (done.type !== 'opened')
+		throw new Error(`worker path ended with ${done.type}: ${JSON.stringify(done).slice(0, 300)}`);
 	const workerPeak = peakRssMB();
 
 	// the reference: the CLI on the same file
 	const tc = performance.now();
-	const cli = spawnSync(process.execPath, [mainJs, 'analyse', '--json', '--quiet', '--jobs', '0', path], { encoding: 'utf8', maxBuffer: 1 << 28 });
+	const cli = spawnSync(process.execPath, [mainJs, 'analyse', '--json', '--quiet', '--jobs', '0', path], {
+		encoding: 'utf8',
+		maxBuffer: 1 << 28,
+	});
 	const cliMs = performance.now() - tc;
 	if (cli.status !== 0) throw new Error(`CLI exited ${cli.status}: ${cli.stderr}`);
 
@@ -67,13 +90,26 @@ try {
 	printTable(
 		['run', 'wall s', 'CPU s', 'MB/s'],
 		[
-			['worker path: stream + analyse + trends (this process)', workerMs / 1000, (cpu.user + cpu.system) / 1e6, sizeMB / (workerMs / 1000)],
+			[
+				'worker path: stream + analyse + trends (this process)',
+				workerMs / 1000,
+				(cpu.user + cpu.system) / 1e6,
+				sizeMB / (workerMs / 1000),
+			],
 			['CLI analyse --jobs 0, reference', cliMs / 1000, NaN, sizeMB / (cliMs / 1000)],
 		],
 	);
-	console.log(`worker path / CLI: ${(workerMs / cliMs).toFixed(2)}x; target ${TARGET_S} s for the worker path: ${workerMs / 1000 <= TARGET_S ? 'met' : `NOT met (${(workerMs / 1000 / TARGET_S).toFixed(1)}x over)`}`);
-	console.log(`peak memory of this process: ${workerPeak.toFixed(0)} MB (file ${sizeMB.toFixed(0)} MB; samples as Float64 ${((BIG_ROWS * (BIG_CHANNELS + 1) * 8) / 1e6).toFixed(0)} MB)`);
-	console.log(`load average after: ${loadavg().map((x) => x.toFixed(2)).join(' ')}`);
+	console.log(
+		`worker path / CLI: ${(workerMs / cliMs).toFixed(2)}x; target ${TARGET_S} s for the worker path: ${workerMs / 1000 <= TARGET_S ? 'met' : `NOT met (${(workerMs / 1000 / TARGET_S).toFixed(1)}x over)`}`,
+	);
+	console.log(
+		`peak memory of this process: ${workerPeak.toFixed(0)} MB (file ${sizeMB.toFixed(0)} MB; samples as Float64 ${((BIG_ROWS * (BIG_CHANNELS + 1) * 8) / 1e6).toFixed(0)} MB)`,
+	);
+	console.log(
+		`load average after: ${loadavg()
+			.map((x) => x.toFixed(2))
+			.join(' ')}`,
+	);
 } finally {
 	rmSync(dir, { recursive: true, force: true });
 }

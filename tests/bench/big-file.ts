@@ -18,8 +18,10 @@ export function writeBigCsv(path: string, rows = BIG_ROWS): number {
 	for (let i = 0; i < rows; i++) {
 		const t = i / BIG_RATE_HZ;
 		let line = t.toFixed(7);
-		for (let k = 0; k < 3; k++) line += ',' + (325.27 * Math.sin(w * t - k * third) + 9 * Math.sin(5 * (w * t - k * third))).toFixed(4);
-		for (let k = 0; k < 3; k++) line += ',' + (56.57 * Math.sin(w * t - k * third - 0.5) + 11 * Math.sin(5 * (w * t - k * third) + 1)).toFixed(6);
+		for (let k = 0; k < 3; k++)
+			line += ',' + (325.27 * Math.sin(w * t - k * third) + 9 * Math.sin(5 * (w * t - k * third))).toFixed(4);
+		for (let k = 0; k < 3; k++)
+			line += ',' + (56.57 * Math.sin(w * t - k * third - 0.5) + 11 * Math.sin(5 * (w * t - k * third) + 1)).toFixed(6);
 		out += line + '\n';
 		if (out.length > 1 << 20) {
 			bytes += writeSync(fd, out);

@@ -20,8 +20,20 @@ for (let f = 0; f < FILES; f++) {
 	writeCsvCapture(
 		join(dir, `board-${String(f).padStart(2, '0')}.csv`),
 		[0, 1, 2].flatMap((k) => [
-			{ header: `L${k + 1} (V)`, tones: [{ order: 1, rms: 230 - f, phaseDeg: -120 * k }, { order: 5, rms: 6, phaseDeg: 10 }] },
-			{ header: `I${k + 1} (A)`, tones: [{ order: 1, rms: 20, phaseDeg: -120 * k - 25 }, { order: 3, rms: 5, phaseDeg: -360 * k }] },
+			{
+				header: `L${k + 1} (V)`,
+				tones: [
+					{ order: 1, rms: 230 - f, phaseDeg: -120 * k },
+					{ order: 5, rms: 6, phaseDeg: 10 },
+				],
+			},
+			{
+				header: `I${k + 1} (A)`,
+				tones: [
+					{ order: 1, rms: 20, phaseDeg: -120 * k - 25 },
+					{ order: 3, rms: 5, phaseDeg: -360 * k },
+				],
+			},
 		]),
 		{ frequencyHz: 50, sampleRateHz: 10_000, cycles: 250 },
 	);
@@ -29,7 +41,10 @@ for (let f = 0; f < FILES; f++) {
 
 function wallMs(args: string[], target = dir): number {
 	const t0 = performance.now();
-	const r = spawnSync(process.execPath, [mainJs, 'analyse', target, '--json', '--quiet', ...args], { encoding: 'utf8', maxBuffer: 1 << 28 });
+	const r = spawnSync(process.execPath, [mainJs, 'analyse', target, '--json', '--quiet', ...args], {
+		encoding: 'utf8',
+		maxBuffer: 1 << 28,
+	});
 	const ms = performance.now() - t0;
 	if (r.status !== 0) throw new Error(`sinecheck exited ${r.status}: ${r.stderr}`);
 	return ms;
@@ -45,7 +60,9 @@ for (let i = 0; i < 3; i++) {
 const median = (x: number[]) => x.sort((a, b) => a - b)[1];
 const m1 = median(one);
 const mN = median(many);
-console.log(`${FILES} files, 6 channels x 50,000 samples each; ${availableParallelism()} cores available (helpers used: ${Math.min(availableParallelism(), FILES, 8)})`);
+console.log(
+	`${FILES} files, 6 channels x 50,000 samples each; ${availableParallelism()} cores available (helpers used: ${Math.min(availableParallelism(), FILES, 8)})`,
+);
 printTable(
 	['run', 'wall ms', 'files/s'],
 	[

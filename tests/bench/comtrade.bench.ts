@@ -13,11 +13,22 @@ const N = 500_000;
 const FS = 6400;
 
 function spec(fileType: WriterSpec['fileType']): WriterSpec {
-	const wave = (amp: number, deg: number) => Float64Array.from({ length: N }, (_, k) => amp * Math.sin((2 * Math.PI * 50 * k) / FS + (deg * Math.PI) / 180));
+	const wave = (amp: number, deg: number) =>
+		Float64Array.from({ length: N }, (_, k) => amp * Math.sin((2 * Math.PI * 50 * k) / FS + (deg * Math.PI) / 180));
 	return {
-		station: 'Bench', device: 'gen', revYear: 1999, lineFrequencyHz: 50, rates: [{ sampleRateHz: FS, endSample: N }],
-		firstData: '01/01/2026,00:00:00.000000', trigger: '01/01/2026,00:00:00.100000', fileType,
-		analog: [0, -120, 120, -20, -140, 100].map((d, i) => ({ name: `ch${i + 1}`, unit: i < 3 ? 'V' : 'A', values: wave(i < 3 ? 325 : 60, d) })),
+		station: 'Bench',
+		device: 'gen',
+		revYear: 1999,
+		lineFrequencyHz: 50,
+		rates: [{ sampleRateHz: FS, endSample: N }],
+		firstData: '01/01/2026,00:00:00.000000',
+		trigger: '01/01/2026,00:00:00.100000',
+		fileType,
+		analog: [0, -120, 120, -20, -140, 100].map((d, i) => ({
+			name: `ch${i + 1}`,
+			unit: i < 3 ? 'V' : 'A',
+			values: wave(i < 3 ? 325 : 60, d),
+		})),
 		digital: [0, 1].map((d) => ({ name: `s${d}`, states: Array.from({ length: N }, (_, k) => (k >> (8 + d)) & 1) })),
 	};
 }
@@ -53,4 +64,6 @@ for (const ft of ['ASCII', 'BINARY'] as const) {
 	rows.push([ft, mb, ours, mb / (ours / 1000), ref, mb / (ref / 1000), ours / ref]);
 }
 printTable(['format', 'MB', 'parseComtrade ms', 'MB/s', 'bare loop ms', 'MB/s', 'ratio'], rows);
-console.log(`peak RSS ${peakRssMB().toFixed(0)} MB (${N} samples × 6 analog channels = ${((N * 6 * 8) / 1e6).toFixed(0)} MB of Float64Array output)`);
+console.log(
+	`peak RSS ${peakRssMB().toFixed(0)} MB (${N} samples × 6 analog channels = ${((N * 6 * 8) / 1e6).toFixed(0)} MB of Float64Array output)`,
+);

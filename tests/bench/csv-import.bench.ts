@@ -19,7 +19,15 @@ const COLS = 5;
 const CHUNK = 1 << 20;
 const RUNS = 5;
 
-interface CaseResult { ms: number; cpuMs: number; rows: number; checksum: number; baseMB: number; peakMB: number; finalBytes: number }
+interface CaseResult {
+	ms: number;
+	cpuMs: number;
+	rows: number;
+	checksum: number;
+	baseMB: number;
+	peakMB: number;
+	finalBytes: number;
+}
 
 function writeFile(path: string, comma: boolean): void {
 	const fd = openSync(path, 'w');
@@ -72,7 +80,15 @@ async function runSinecheck(path: string, feed: 'stream' | 'reuse'): Promise<Cas
 	const finalBytes = cols.reduce((a, c) => a + c.byteLength, 0) + (cap.timeS?.byteLength ?? 0);
 	// the time column is checked through the rate: uniform 10 kHz from 0 s
 	const okTime = Math.abs(cap.sampleRateHz - 10_000) < 1e-6 && cap.startS === 0 && !cap.timeS;
-	return { ms, cpuMs: (cu.user + cu.system) / 1000, rows: cols[0].length, checksum: okTime ? checksum(cols) : NaN, baseMB, peakMB: peakRssMB(), finalBytes };
+	return {
+		ms,
+		cpuMs: (cu.user + cu.system) / 1000,
+		rows: cols[0].length,
+		checksum: okTime ? checksum(cols) : NaN,
+		baseMB,
+		peakMB: peakRssMB(),
+		finalBytes,
+	};
 }
 
 async function runPapa(path: string, comma: boolean): Promise<CaseResult> {
@@ -100,11 +116,22 @@ async function runPapa(path: string, comma: boolean): Promise<CaseResult> {
 	});
 	const ms = performance.now() - t0;
 	const cu = process.cpuUsage(c0);
-	return { ms, cpuMs: (cu.user + cu.system) / 1000, rows: n, checksum: checksum(cols.slice(1)), baseMB, peakMB: peakRssMB(), finalBytes: (COLS - 1) * 8 * n };
+	return {
+		ms,
+		cpuMs: (cu.user + cu.system) / 1000,
+		rows: n,
+		checksum: checksum(cols.slice(1)),
+		baseMB,
+		peakMB: peakRssMB(),
+		finalBytes: (COLS - 1) * 8 * n,
+	};
 }
 
 async function child(kind: string, path: string, comma: boolean): Promise<void> {
-	const r = kind === 'papaparse' ? await runPapa(path, comma) : await runSinecheck(path, kind === 'sinecheck' ? 'stream' : 'reuse');
+	const r =
+		kind === 'papaparse'
+			? await runPapa(path, comma)
+			: await runSinecheck(path, kind === 'sinecheck' ? 'stream' : 'reuse');
 	process.stdout.write(JSON.stringify(r));
 }
 
@@ -125,7 +152,11 @@ function main(): void {
 			// alternate the readers so that load from other processes hits all of them alike
 			for (let i = 0; i < RUNS; i++) {
 				for (const kind of Object.keys(res)) {
-					const p = spawnSync(process.execPath, ['--import', 'tsx', '--expose-gc', self, 'child', kind, f.path, String(f.comma)], { encoding: 'utf8', maxBuffer: 1 << 20 });
+					const p = spawnSync(
+						process.execPath,
+						['--import', 'tsx', '--expose-gc', self, 'child', kind, f.path, String(f.comma)],
+						{ encoding: 'utf8', maxBuffer: 1 << 20 },
+					);
 					if (p.status !== 0) throw new Error(`${kind} child failed: ${p.stderr}`);
 					res[kind].push(JSON.parse(p.stdout) as CaseResult);
 				}
@@ -137,8 +168,20 @@ function main(): void {
 			const peak = (k: string) => Math.max(...res[k].map((r) => r.peakMB - r.baseMB));
 			const ppMs = best('papaparse', 'ms');
 			const ppCpu = best('papaparse', 'cpuMs');
-			rows.push([`${f.label} (${mb.toFixed(1)} MB)`, 'papaparse step (stream)', (mb / ppMs) * 1000, ppMs, (mb / ppCpu) * 1000, peak('papaparse'), '', '']);
-			for (const [kind, label] of [['sinecheck', 'sinecheck (stream)'], ['sinecheck-reuse', 'sinecheck (reused buffer)']]) {
+			rows.push([
+				`${f.label} (${mb.toFixed(1)} MB)`,
+				'papaparse step (stream)',
+				(mb / ppMs) * 1000,
+				ppMs,
+				(mb / ppCpu) * 1000,
+				peak('papaparse'),
+				'',
+				'',
+			]);
+			for (const [kind, label] of [
+				['sinecheck', 'sinecheck (stream)'],
+				['sinecheck-reuse', 'sinecheck (reused buffer)'],
+			]) {
 				const [ms, cpu] = [best(kind, 'ms'), best(kind, 'cpuMs')];
 				rows.push(['', label, (mb / ms) * 1000, ms, (mb / cpu) * 1000, peak(kind), finalMB, peak(kind) / finalMB]);
 				rows.push(['', '  ratio to papaparse (target >= 3)', ppMs / ms, '', ppCpu / cpu, '', '', '']);
@@ -146,10 +189,19 @@ function main(): void {
 			rows.push(['', same ? 'values identical in every run' : 'VALUES DIFFER', '', '', '', '', '', '']);
 		}
 		// other processes on the machine slow wall-clock figures; CPU time is less affected by them
-		console.log(`load average ${loadBefore.toFixed(1)} before, ${loadavg()[0].toFixed(1)} after, on ${cpus().length} CPUs`);
-		console.log(`${ROWS} rows x ${COLS} columns; best of ${RUNS} alternating runs, each in its own process (wall clock, and CPU time user+sys);`);
-		console.log('peak MB = largest peak RSS minus the RSS just before the parse; final arrays = the capture\'s Float64Arrays');
-		printTable(['file', 'reader', 'MB/s wall', 'ms wall', 'MB/s cpu', 'peak MB', 'final arrays MB', 'peak/final (target < 3)'], rows);
+		console.log(
+			`load average ${loadBefore.toFixed(1)} before, ${loadavg()[0].toFixed(1)} after, on ${cpus().length} CPUs`,
+		);
+		console.log(
+			`${ROWS} rows x ${COLS} columns; best of ${RUNS} alternating runs, each in its own process (wall clock, and CPU time user+sys);`,
+		);
+		console.log(
+			"peak MB = largest peak RSS minus the RSS just before the parse; final arrays = the capture's Float64Arrays",
+		);
+		printTable(
+			['file', 'reader', 'MB/s wall', 'ms wall', 'MB/s cpu', 'peak MB', 'final arrays MB', 'peak/final (target < 3)'],
+			rows,
+		);
 	} finally {
 		rmSync(dir, { recursive: true, force: true });
 	}

@@ -93,5 +93,9 @@ printTable(
 	rows,
 );
 const worst = Math.max(...rows.filter((r) => r[0] === 2000 || r[0] === 5000).map((r) => r[3] as number));
-console.log(`target: within 3x of kissfft-wasm at N = 2000 and 5000 -> worst ratio ${worst.toFixed(2)} (${worst <= 3 ? 'met' : 'NOT met'})`);
-console.log('(kissfft-wasm computes in float32; ours and fft.js in float64. 2000 = 2^4·5^3, 5000 = 2^3·5^4 and 100000 run our mixed-radix FFT; 10007 and 999983 are prime and run Bluestein.)');
+console.log(
+	`target: within 3x of kissfft-wasm at N = 2000 and 5000 -> worst ratio ${worst.toFixed(2)} (${worst <= 3 ? 'met' : 'NOT met'})`,
+);
+console.log(
+	'(kissfft-wasm computes in float32; ours and fft.js in float64. 2000 = 2^4·5^3, 5000 = 2^3·5^4 and 100000 run our mixed-radix FFT; 10007 and 999983 are prime and run Bluestein.)',
+);

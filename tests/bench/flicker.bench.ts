@@ -37,9 +37,11 @@ function cpuMs(): number {
 /** Median wall and CPU ms of RUNS calls after one warm-up. */
 function time(fn: () => void): { wall: number; cpu: number } {
 	fn();
-	const walls: number[] = [], cpusMs: number[] = [];
+	const walls: number[] = [],
+		cpusMs: number[] = [];
 	for (let r = 0; r < RUNS; r++) {
-		const c0 = cpuMs(), t0 = performance.now();
+		const c0 = cpuMs(),
+			t0 = performance.now();
 		fn();
 		walls.push(performance.now() - t0);
 		cpusMs.push(cpuMs() - c0);
@@ -60,8 +62,14 @@ const flicker = time(() => {
 // Reference: one biquad (a 10 Hz resonator-ish low-pass; coefficients only need to be stable).
 let sink = 0;
 const biquad = time(() => {
-	const b0 = 0.0002, b1 = 0.0004, b2 = 0.0002, a1 = -1.97, a2 = 0.9704;
-	let s1 = 0, s2 = 0, acc = 0;
+	const b0 = 0.0002,
+		b1 = 0.0004,
+		b2 = 0.0002,
+		a1 = -1.97,
+		a2 = 0.9704;
+	let s1 = 0,
+		s2 = 0,
+		acc = 0;
 	for (let off = 0; off < N; off += CHUNK) {
 		const end = Math.min(N, off + CHUNK);
 		for (let i = off; i < end; i++) {
@@ -77,15 +85,35 @@ const biquad = time(() => {
 
 const nsPer = (ms: number) => (ms * 1e6) / N;
 const realTime = (ms: number) => (DURATION_S * 1000) / ms;
-console.log(`${cpus().length} cores, load average ${loadavg().map((l) => l.toFixed(2)).join(' ')}; 10 min at ${FS} S/s = ${N} samples, median of ${RUNS}`);
+console.log(
+	`${cpus().length} cores, load average ${loadavg()
+		.map((l) => l.toFixed(2))
+		.join(' ')}; 10 min at ${FS} S/s = ${N} samples, median of ${RUNS}`,
+);
 printTable(
 	['kernel', 'wall ms', 'cpu ms', 'ns/sample (cpu)', 'x real time (cpu)', 'x real time (wall)'],
 	[
-		['flickermeter (blocks 1-5, Pst)', flicker.wall, flicker.cpu, nsPer(flicker.cpu), realTime(flicker.cpu), realTime(flicker.wall)],
-		['one bare biquad (reference)', biquad.wall, biquad.cpu, nsPer(biquad.cpu), realTime(biquad.cpu), realTime(biquad.wall)],
+		[
+			'flickermeter (blocks 1-5, Pst)',
+			flicker.wall,
+			flicker.cpu,
+			nsPer(flicker.cpu),
+			realTime(flicker.cpu),
+			realTime(flicker.wall),
+		],
+		[
+			'one bare biquad (reference)',
+			biquad.wall,
+			biquad.cpu,
+			nsPer(biquad.cpu),
+			realTime(biquad.cpu),
+			realTime(biquad.wall),
+		],
 	],
 );
 const rt = realTime(flicker.cpu);
 console.log(`flickermeter / bare biquad time ratio: ${(flicker.cpu / biquad.cpu).toFixed(1)}x`);
-console.log(`real-time factor per channel (cpu time; wall time counts waiting for a core on a loaded machine): ${rt.toFixed(0)}x (target >= 2000x): ${rt >= 2000 ? 'met' : 'NOT met'}`);
+console.log(
+	`real-time factor per channel (cpu time; wall time counts waiting for a core on a loaded machine): ${rt.toFixed(0)}x (target >= 2000x): ${rt >= 2000 ? 'met' : 'NOT met'}`,
+);
 console.log(`(Pst of the test signal ${pst.toFixed(3)}; checksum ${sink.toExponential(2)})`);

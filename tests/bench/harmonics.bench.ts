@@ -82,7 +82,10 @@ for (let pass = 0; pass < 12; pass++) {
 		c.best = Math.min(c.best, batchUs(c.window, c.reps));
 		c.bestDft = Math.min(c.bestDft, batchUs(c.dft, c.reps));
 	}
-	fftjsUs = Math.min(fftjsUs, batchUs(() => f.realTransform(fout, fin), 300));
+	fftjsUs = Math.min(
+		fftjsUs,
+		batchUs(() => f.realTransform(fout, fin), 300),
+	);
 }
 
 printTable(
@@ -92,5 +95,7 @@ printTable(
 console.log(`reference: fft.js realTransform of 2048 points = ${fftjsUs.toFixed(1)} us in this run`);
 for (const c of cases.filter((k) => k.label[0] === 10_000)) {
 	const rate = 1e6 / c.best;
-	console.log(`target >= 10000 windows/s at 10 kS/s, ${c.label[2]} path (f1 ${c.label[1]} Hz): ${rate.toFixed(0)} (${rate >= 10_000 ? 'met' : 'NOT met'})`);
+	console.log(
+		`target >= 10000 windows/s at 10 kS/s, ${c.label[2]} path (f1 ${c.label[1]} Hz): ${rate.toFixed(0)} (${rate >= 10_000 ? 'met' : 'NOT met'})`,
+	);
 }

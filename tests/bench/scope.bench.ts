@@ -53,8 +53,18 @@ writeCapture();
 const mb = statSync(file).size / 1048576;
 const hasNumpy = spawnSync('python3', ['-c', 'import numpy'], { encoding: 'utf8' }).status === 0;
 const reader = hasNumpy
-	? () => wallMs('python3', ['-c', `import numpy; a = numpy.loadtxt(${JSON.stringify(file)}, delimiter=',', skiprows=4); print(a.shape)`])
-	: () => wallMs(process.execPath, ['--import', 'tsx', '-e', `import { parseCsv } from ${JSON.stringify(join(import.meta.dirname, '..', '..', 'lib', 'io', 'csv', 'parse-csv.ts'))}; import { readFileSync } from 'node:fs'; console.log(parseCsv(new Uint8Array(readFileSync(${JSON.stringify(file)})), 'scope.csv').channels.length)`]);
+	? () =>
+			wallMs('python3', [
+				'-c',
+				`import numpy; a = numpy.loadtxt(${JSON.stringify(file)}, delimiter=',', skiprows=4); print(a.shape)`,
+			])
+	: () =>
+			wallMs(process.execPath, [
+				'--import',
+				'tsx',
+				'-e',
+				`import { parseCsv } from ${JSON.stringify(join(import.meta.dirname, '..', '..', 'lib', 'io', 'csv', 'parse-csv.ts'))}; import { readFileSync } from 'node:fs'; console.log(parseCsv(new Uint8Array(readFileSync(${JSON.stringify(file)})), 'scope.csv').channels.length)`,
+			]);
 const analyse = () => wallMs(process.execPath, [mainJs, 'analyse', file, '--json', '--quiet']);
 
 // interleaved so machine load affects both alike
@@ -65,12 +75,22 @@ const a2 = analyse();
 const readMs = Math.min(r1.ms, r2.ms);
 const analyseMs = Math.min(a1.ms, a2.ms);
 const doc = JSON.parse(a1.out);
-console.log(`file: 2 channels x ${N.toExponential(0)} samples at ${FS / 1e6} MS/s, ${mb.toFixed(0)} MB; load average ${loadavg().map((x) => x.toFixed(2)).join(' ')}`);
-console.log(`analysis: ${doc.frequencyHz?.toFixed(4)} Hz, ${doc.cyclesAnalysed} cycles, lag ${doc.pairs?.[0]?.lagDeg?.toFixed(2)} deg, P ${doc.power?.[0]?.activeW?.toFixed(1)} W`);
+console.log(
+	`file: 2 channels x ${N.toExponential(0)} samples at ${FS / 1e6} MS/s, ${mb.toFixed(0)} MB; load average ${loadavg()
+		.map((x) => x.toFixed(2))
+		.join(' ')}`,
+);
+console.log(
+	`analysis: ${doc.frequencyHz?.toFixed(4)} Hz, ${doc.cyclesAnalysed} cycles, lag ${doc.pairs?.[0]?.lagDeg?.toFixed(2)} deg, P ${doc.power?.[0]?.activeW?.toFixed(1)} W`,
+);
 printTable(
 	['run', 'wall ms (best of 2)', 'MB/s'],
 	[
-		[hasNumpy ? 'numpy.loadtxt alone (reference)' : 'parseCsv alone (reference; numpy not importable)', readMs, (1000 * mb) / readMs],
+		[
+			hasNumpy ? 'numpy.loadtxt alone (reference)' : 'parseCsv alone (reference; numpy not importable)',
+			readMs,
+			(1000 * mb) / readMs,
+		],
 		['sinecheck analyse --json (read + parse + analyse)', analyseMs, (1000 * mb) / analyseMs],
 	],
 );

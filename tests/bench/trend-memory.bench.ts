@@ -11,7 +11,17 @@
  * The files are written once to a temporary folder and deleted at the end (about 2.4 GB of disk).
  */
 import { spawn } from 'node:child_process';
-import { closeSync, existsSync, mkdtempSync, openSync, readFileSync, rmSync, statSync, writeFileSync, writeSync } from 'node:fs';
+import {
+	closeSync,
+	existsSync,
+	mkdtempSync,
+	openSync,
+	readFileSync,
+	rmSync,
+	statSync,
+	writeFileSync,
+	writeSync,
+} from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { ensureBuiltCli, mainJs } from '../cli/built-cli.js';
@@ -63,7 +73,9 @@ function writeComtrade(base: string, bytes: number): number {
 	const cfg = [
 		'Tallowmere Joinery,bench-rec,1999',
 		'4,4A,0D',
-		...['U1', 'U2', 'U3', 'I1'].map((n, c) => `${c + 1},${n},L${(c % 3) + 1},,${c < 3 ? 'V' : 'A'},${a[c]},0,0,-32767,32767,1,1,P`),
+		...['U1', 'U2', 'U3', 'I1'].map(
+			(n, c) => `${c + 1},${n},L${(c % 3) + 1},,${c < 3 ? 'V' : 'A'},${a[c]},0,0,-32767,32767,1,1,P`,
+		),
 		'50',
 		'1',
 		`${FS},${records}`,
@@ -78,7 +90,11 @@ function writeComtrade(base: string, bytes: number): number {
 	const block = Buffer.alloc(PER_CYCLE * 2000 * recordBytes);
 	const perBlock = block.length / recordBytes;
 	for (let r = 0; r < perBlock; r++) {
-		for (let c = 0; c < 4; c++) block.writeInt16LE(Math.round(30_000 * Math.sin((2 * Math.PI * r) / PER_CYCLE - (2 * Math.PI * (c % 3)) / 3)), r * recordBytes + 8 + 2 * c);
+		for (let c = 0; c < 4; c++)
+			block.writeInt16LE(
+				Math.round(30_000 * Math.sin((2 * Math.PI * r) / PER_CYCLE - (2 * Math.PI * (c % 3)) / 3)),
+				r * recordBytes + 8 + 2 * c,
+			);
 	}
 	const fd = openSync(`${base}.dat`, 'w');
 	for (let done = 0; done < records; done += perBlock) {
@@ -125,7 +141,14 @@ function measure(args: string[]): Promise<Run> {
 		child.on('close', (status) => {
 			if (poll) clearInterval(poll);
 			const wallS = (performance.now() - t0) / 1000;
-			if (status !== 0) console.log(`  (exit ${status}: ${stderr.split('\n').filter((l) => /sinecheck:|Error/.test(l)).slice(0, 3).join(' | ')})`);
+			if (status !== 0)
+				console.log(
+					`  (exit ${status}: ${stderr
+						.split('\n')
+						.filter((l) => /sinecheck:|Error/.test(l))
+						.slice(0, 3)
+						.join(' | ')})`,
+				);
 			if (gnuTime) {
 				const [kb, , user, sys] = readFileSync(report, 'utf8').trim().split('\n').pop()!.split(' ').map(Number);
 				resolve({ peakMB: kb / 1024, wallS, cpuS: user + sys, status });
@@ -152,10 +175,23 @@ async function main(): Promise<void> {
 			const path = join(dir, `${c.channels}ch-${c.bytes}.csv`);
 			const g0 = performance.now();
 			const size = writeCsv(path, c.channels, c.bytes);
-			console.log(`${c.name}: wrote ${(size / 1e6).toFixed(0)} MB in ${((performance.now() - g0) / 1000).toFixed(1)} s`);
+			console.log(
+				`${c.name}: wrote ${(size / 1e6).toFixed(0)} MB in ${((performance.now() - g0) / 1000).toFixed(1)} s`,
+			);
 			const floor = await measure(['-e', FLOOR, path]);
 			const trend = await measure([mainJs, 'trend', path]);
-			rows.push([c.name, size / 1e6, String(c.channels), trend.peakMB, floor.peakMB, trend.peakMB / floor.peakMB, trend.wallS, trend.cpuS, size / 1e6 / trend.cpuS, String(trend.status ?? 'killed')]);
+			rows.push([
+				c.name,
+				size / 1e6,
+				String(c.channels),
+				trend.peakMB,
+				floor.peakMB,
+				trend.peakMB / floor.peakMB,
+				trend.wallS,
+				trend.cpuS,
+				size / 1e6 / trend.cpuS,
+				String(trend.status ?? 'killed'),
+			]);
 			rmSync(path);
 		}
 		{
@@ -164,13 +200,42 @@ async function main(): Promise<void> {
 			const size = writeComtrade(base, 400e6 * scale);
 			const floor = await measure(['-e', FLOOR, `${base}.dat`]);
 			const trend = await measure([mainJs, 'trend', `${base}.cfg`]);
-			rows.push(['comtrade BINARY 4 ch', size / 1e6, '4', trend.peakMB, floor.peakMB, trend.peakMB / floor.peakMB, trend.wallS, trend.cpuS, size / 1e6 / trend.cpuS, String(trend.status ?? 'killed')]);
+			rows.push([
+				'comtrade BINARY 4 ch',
+				size / 1e6,
+				'4',
+				trend.peakMB,
+				floor.peakMB,
+				trend.peakMB / floor.peakMB,
+				trend.wallS,
+				trend.cpuS,
+				size / 1e6 / trend.cpuS,
+				String(trend.status ?? 'killed'),
+			]);
 		}
 	} finally {
 		rmSync(dir, { recursive: true, force: true });
 	}
-	console.log(`\ntrend peak RSS (target: 2 GB CSV < 300 MB, flat in length and channels); load average ${loadavg().map((x) => x.toFixed(1)).join(' ')}`);
-	printTable(['file', 'size MB', 'channels', 'trend peak MB', 'bare read peak MB', 'ratio', 'wall s', 'cpu s', 'MB per cpu s', 'exit'], rows);
+	console.log(
+		`\ntrend peak RSS (target: 2 GB CSV < 300 MB, flat in length and channels); load average ${loadavg()
+			.map((x) => x.toFixed(1))
+			.join(' ')}`,
+	);
+	printTable(
+		[
+			'file',
+			'size MB',
+			'channels',
+			'trend peak MB',
+			'bare read peak MB',
+			'ratio',
+			'wall s',
+			'cpu s',
+			'MB per cpu s',
+			'exit',
+		],
+		rows,
+	);
 }
 
 main().catch((e) => {

@@ -26,7 +26,17 @@ const dir = mkdtempSync(join(tmpdir(), 'sinecheck-trend-bench-'));
 /** Writes `durationS` of 4 channels: frequency wandering 49.95-50.05 Hz, a 100 ms 70 % dip on L2 every 7 min, a 1.5 s interruption at 30 min, a 0.5 s 112 % swell at 45 min. */
 function generate(path: string, durationS: number): number {
 	const frames = durationS * FS;
-	const w = new FloatWavWriter(path, [{ name: 'L1', unit: 'V' }, { name: 'L2', unit: 'V' }, { name: 'L3', unit: 'V' }, { name: 'I1', unit: 'A' }], FS, frames);
+	const w = new FloatWavWriter(
+		path,
+		[
+			{ name: 'L1', unit: 'V' },
+			{ name: 'L2', unit: 'V' },
+			{ name: 'L3', unit: 'V' },
+			{ name: 'I1', unit: 'A' },
+		],
+		FS,
+		frames,
+	);
 	const bufs = [0, 1, 2, 3].map(() => new Float64Array(BLOCK));
 	const a = 230 * Math.SQRT2;
 	const ai = 12 * Math.SQRT2;
@@ -66,9 +76,23 @@ function analyse(path: string): { ms: number; cpu: number; rows: number; events:
 	let rows = 0;
 	const c0 = cpuMs();
 	const t0 = performance.now();
-	const r = analyseFile(path, path, {}, { declaredV: 230, keep: { cycles10: false, cycles150: false, min10: false }, onRow: (_row: TrendRow) => void rows++ });
+	const r = analyseFile(
+		path,
+		path,
+		{},
+		{
+			declaredV: 230,
+			keep: { cycles10: false, cycles150: false, min10: false },
+			onRow: (_row: TrendRow) => void rows++,
+		},
+	);
 	const ms = performance.now() - t0;
-	return { ms, cpu: cpuMs() - c0, rows, events: r.events.map((e) => `${e.kind}@${e.startS.toFixed(2)}s/${e.durationS.toFixed(3)}s`) };
+	return {
+		ms,
+		cpu: cpuMs() - c0,
+		rows,
+		events: r.events.map((e) => `${e.kind}@${e.startS.toFixed(2)}s/${e.durationS.toFixed(3)}s`),
+	};
 }
 
 function readAndSumSquares(path: string): { ms: number; cpu: number; sum: number } {
@@ -106,7 +130,9 @@ try {
 	rmSync(short);
 	const hourFrames = generate(long, 3600);
 	const genS = (performance.now() - t) / 1000;
-	console.log(`generated ${(statSync(long).size / 1e6).toFixed(0)} MB float WAV (plus a 10-min one) in ${genS.toFixed(1)} s; the file is read back from the page cache`);
+	console.log(
+		`generated ${(statSync(long).size / 1e6).toFixed(0)} MB float WAV (plus a 10-min one) in ${genS.toFixed(1)} s; the file is read back from the page cache`,
+	);
 	const ref = readAndSumSquares(long);
 	t = performance.now();
 	const run = analyse(long);
@@ -116,18 +142,62 @@ try {
 	const nsPer = (ms: number) => (ms * 1e6) / samples;
 	const rt = (ms: number) => 3_600_000 / ms;
 	printTable(
-		['pass over 1 h x 4 ch @ 10 kS/s', 'wall s', 'cpu s', 'ns/sample (cpu)', 'Msamples/s (cpu)', 'x real time (wall)', 'x real time (cpu)'],
 		[
-			['trend analyser, file to results', run.ms / 1000, run.cpu / 1000, nsPer(run.cpu), samples / run.cpu / 1000, rt(run.ms), rt(run.cpu)],
-			['ref: same reader + sum of squares', ref.ms / 1000, ref.cpu / 1000, nsPer(ref.cpu), samples / ref.cpu / 1000, rt(ref.ms), rt(ref.cpu)],
-			['ref: bare in-memory sum of squares', bare.ms / 1000, bare.cpu / 1000, nsPer(bare.cpu), samples / bare.cpu / 1000, rt(bare.ms), rt(bare.cpu)],
+			'pass over 1 h x 4 ch @ 10 kS/s',
+			'wall s',
+			'cpu s',
+			'ns/sample (cpu)',
+			'Msamples/s (cpu)',
+			'x real time (wall)',
+			'x real time (cpu)',
+		],
+		[
+			[
+				'trend analyser, file to results',
+				run.ms / 1000,
+				run.cpu / 1000,
+				nsPer(run.cpu),
+				samples / run.cpu / 1000,
+				rt(run.ms),
+				rt(run.cpu),
+			],
+			[
+				'ref: same reader + sum of squares',
+				ref.ms / 1000,
+				ref.cpu / 1000,
+				nsPer(ref.cpu),
+				samples / ref.cpu / 1000,
+				rt(ref.ms),
+				rt(ref.cpu),
+			],
+			[
+				'ref: bare in-memory sum of squares',
+				bare.ms / 1000,
+				bare.cpu / 1000,
+				nsPer(bare.cpu),
+				samples / bare.cpu / 1000,
+				rt(bare.ms),
+				rt(bare.cpu),
+			],
 		],
 	);
-	console.log(`ratio analyser / (reader + sum of squares) = ${(run.cpu / ref.cpu).toFixed(2)} (cpu), ${(run.ms / ref.ms).toFixed(2)} (wall); analyser / bare kernel = ${(run.cpu / bare.cpu).toFixed(1)} (cpu)`);
-	console.log(`load average during the run: ${loadavg().map((x) => x.toFixed(1)).join(' ')} on ${cpus().length} cores (wall time counts waiting for a core when the machine is shared)`);
-	console.log(`target >= 200x real time on one core: ${rt(run.cpu).toFixed(0)}x by cpu time, ${rt(run.ms).toFixed(0)}x by wall time -> ${rt(run.cpu) >= 200 ? 'met by cpu time' : 'NOT met'}${rt(run.ms) >= 200 ? ' and wall time' : ''}`);
-	console.log(`peak RSS after the 10-min file ${peakShort.toFixed(0)} MB, after the 1-h file ${peakLong.toFixed(0)} MB (target < 300 MB, not growing with length) -> ${peakLong < 300 ? 'met' : 'NOT met'}`);
-	console.log(`rows handed on: ${shortRun.rows} (10 min), ${run.rows} (1 h); events in the hour: ${run.events.length}: ${run.events.slice(0, 4).join(', ')}${run.events.length > 4 ? ', ...' : ''}`);
+	console.log(
+		`ratio analyser / (reader + sum of squares) = ${(run.cpu / ref.cpu).toFixed(2)} (cpu), ${(run.ms / ref.ms).toFixed(2)} (wall); analyser / bare kernel = ${(run.cpu / bare.cpu).toFixed(1)} (cpu)`,
+	);
+	console.log(
+		`load average during the run: ${loadavg()
+			.map((x) => x.toFixed(1))
+			.join(' ')} on ${cpus().length} cores (wall time counts waiting for a core when the machine is shared)`,
+	);
+	console.log(
+		`target >= 200x real time on one core: ${rt(run.cpu).toFixed(0)}x by cpu time, ${rt(run.ms).toFixed(0)}x by wall time -> ${rt(run.cpu) >= 200 ? 'met by cpu time' : 'NOT met'}${rt(run.ms) >= 200 ? ' and wall time' : ''}`,
+	);
+	console.log(
+		`peak RSS after the 10-min file ${peakShort.toFixed(0)} MB, after the 1-h file ${peakLong.toFixed(0)} MB (target < 300 MB, not growing with length) -> ${peakLong < 300 ? 'met' : 'NOT met'}`,
+	);
+	console.log(
+		`rows handed on: ${shortRun.rows} (10 min), ${run.rows} (1 h); events in the hour: ${run.events.length}: ${run.events.slice(0, 4).join(', ')}${run.events.length > 4 ? ', ...' : ''}`,
+	);
 	console.log(`(check sums, ignore: ${ref.sum.toExponential(3)} ${bare.sum.toExponential(3)})`);
 } finally {
 	rmSync(dir, { recursive: true, force: true });

@@ -37,7 +37,13 @@ function spawnOnce(args: string[]): { code: number; stdout: string; stderr: stri
 const FS = 10_000;
 const F = 50;
 // 230 V rms fundamental with a 5 % 5th harmonic (11.5 V rms); 10 A rms current lagging 30 degrees.
-const U1 = { header: 'U1 (V)', tones: [{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }] };
+const U1 = {
+	header: 'U1 (V)',
+	tones: [
+		{ order: 1, rms: 230 },
+		{ order: 5, rms: 11.5 },
+	],
+};
 const I1 = { header: 'I1 (A)', tones: [{ order: 1, rms: 10, phaseDeg: -30 }] };
 
 beforeAll(async () => {
@@ -53,17 +59,53 @@ beforeAll(async () => {
 		],
 		{ frequencyHz: F, sampleRateHz: FS, cycles: 20 },
 	);
-	writeCsvCapture(join(dir, 'distorted.csv'), [{ header: 'U1 (V)', tones: [{ order: 1, rms: 230 }, { order: 5, rms: 16.1 }] }], { frequencyHz: F, sampleRateHz: FS, cycles: 20 });
-	writeCsvCapture(join(dir, 'formula.csv'), [{ header: '=HYPERLINK("http://example.invalid") (V)', tones: [{ order: 1, rms: 230 }] }], { frequencyHz: F, sampleRateHz: FS, cycles: 12 });
+	writeCsvCapture(
+		join(dir, 'distorted.csv'),
+		[
+			{
+				header: 'U1 (V)',
+				tones: [
+					{ order: 1, rms: 230 },
+					{ order: 5, rms: 16.1 },
+				],
+			},
+		],
+		{ frequencyHz: F, sampleRateHz: FS, cycles: 20 },
+	);
+	writeCsvCapture(
+		join(dir, 'formula.csv'),
+		[{ header: '=HYPERLINK("http://example.invalid") (V)', tones: [{ order: 1, rms: 230 }] }],
+		{ frequencyHz: F, sampleRateHz: FS, cycles: 12 },
+	);
 	mkdirSync(join(dir, 'survey'));
 	writeCsvCapture(join(dir, 'survey', 'a-good.csv'), [U1, I1], { frequencyHz: F, sampleRateHz: FS, cycles: 12 });
 	writeFileSync(join(dir, 'survey', 'b-bad.csv'), 't (s),U1 (V)\n0,1\n0.0001,2\n0.0002,abc\n0.0003,4\n');
 	writeCsvCapture(join(dir, 'survey', 'c-good.csv'), [U1], { frequencyHz: F, sampleRateHz: FS, cycles: 12 });
 	// RIFF layout: 'RIFF' size 'WAVE' (bytes 0-11), then the 'fmt ' chunk id (12-15) and its size field
 	// (16-19) saying 16 bytes, of which only 4 follow: the size field at byte 16 is what is wrong.
-	writeFileSync(join(dir, 'truncated.wav'), Buffer.concat([Buffer.from('RIFF'), Buffer.alloc(4), Buffer.from('WAVEfmt '), Buffer.from([16, 0, 0, 0, 1, 0, 1, 0])]));
+	writeFileSync(
+		join(dir, 'truncated.wav'),
+		Buffer.concat([
+			Buffer.from('RIFF'),
+			Buffer.alloc(4),
+			Buffer.from('WAVEfmt '),
+			Buffer.from([16, 0, 0, 0, 1, 0, 1, 0]),
+		]),
+	);
 	// 5th harmonic at 6.004 % of the fundamental: 0.004 percent points over EN 50160's 6 % (docs/methods.md 4.1).
-	writeCsvCapture(join(dir, 'at-limit.csv'), [{ header: 'U1 (V)', tones: [{ order: 1, rms: 230 }, { order: 5, rms: 230 * 0.06004 }] }], { frequencyHz: F, sampleRateHz: FS, cycles: 20 });
+	writeCsvCapture(
+		join(dir, 'at-limit.csv'),
+		[
+			{
+				header: 'U1 (V)',
+				tones: [
+					{ order: 1, rms: 230 },
+					{ order: 5, rms: 230 * 0.06004 },
+				],
+			},
+		],
+		{ frequencyHz: F, sampleRateHz: FS, cycles: 20 },
+	);
 }, 120_000);
 
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -150,7 +192,10 @@ describe('sinecheck analyse exit codes', () => {
 		expect(validate(doc), JSON.stringify(validate.errors)).toBe(true);
 		expect(doc.limits.table).toBe('en50160');
 		expect(doc.limits.pass).toBe(true);
-		const h5 = doc.limits.rows.find((x: { channel: string; order: number; figure: string }) => x.channel === 'U1' && x.order === 5 && x.figure === 'harmonic');
+		const h5 = doc.limits.rows.find(
+			(x: { channel: string; order: number; figure: string }) =>
+				x.channel === 'U1' && x.order === 5 && x.figure === 'harmonic',
+		);
 		expect(h5.limit).toBe(6);
 		expect(h5.value).toBeCloseTo(5, 2);
 		expect(h5.margin).toBeCloseTo(1, 2);
@@ -168,7 +213,10 @@ describe('sinecheck analyse exit codes', () => {
 		expect(r.code).toBe(2);
 		expect(r.stderr).toMatch(/b-bad\.csv:4:\d+/);
 		expect(r.stderr).not.toMatch(/\n\s+at /); // no stack trace
-		const docs = r.stdout.trim().split('\n').map((l) => JSON.parse(l));
+		const docs = r.stdout
+			.trim()
+			.split('\n')
+			.map((l) => JSON.parse(l));
 		expect(docs.map((d) => d.file)).toEqual([join('survey', 'a-good.csv'), join('survey', 'c-good.csv')]);
 		for (const d of docs) expect(validate(d), JSON.stringify(validate.errors)).toBe(true);
 	});
@@ -195,7 +243,9 @@ describe('sinecheck analyse exit codes', () => {
 	it('analyse --time-column counts from 1: 5 on a 3-column file is an error in those terms, 1 reads the time column', () => {
 		const bad = run(['analyse', 'feeder.csv', '--time-column', '5']);
 		expect(bad.code).toBe(2);
-		expect(bad.stderr).toBe('sinecheck: feeder.csv: bad-option: --time-column 5: expected a column number from 1 to 3 (the file has 3 columns)\n');
+		expect(bad.stderr).toBe(
+			'sinecheck: feeder.csv: bad-option: --time-column 5: expected a column number from 1 to 3 (the file has 3 columns)\n',
+		);
 		// feeder.csv: `t (s),U1 (V),I1 (A)`; column 1 is the time in s, at 1 / 10 kS/s steps
 		const good = run(['analyse', 'feeder.csv', '--time-column', '1', '--json']);
 		expect(good.code).toBe(0);
@@ -203,7 +253,12 @@ describe('sinecheck analyse exit codes', () => {
 	});
 
 	it('analyse with an unknown limit table, a missing file or an unknown option exits 2 with one line and no stack trace', () => {
-		for (const args of [['analyse', 'feeder.csv', '--limits', 'nope'], ['analyse', 'missing.csv'], ['analyse', 'feeder.csv', '--frobnicate'], ['analyse', 'feeder.csv', '--scale', 'U1']]) {
+		for (const args of [
+			['analyse', 'feeder.csv', '--limits', 'nope'],
+			['analyse', 'missing.csv'],
+			['analyse', 'feeder.csv', '--frobnicate'],
+			['analyse', 'feeder.csv', '--scale', 'U1'],
+		]) {
 			const r = run(args);
 			expect(r.code, args.join(' ')).toBe(2);
 			expect(r.stderr.trim().split('\n')).toHaveLength(1);
@@ -258,7 +313,9 @@ describe('sinecheck analyse output forms', () => {
 		expect(line!.trim().startsWith('U1 h5: 6.004 % over limit 6.000 % (margin -0.004) [')).toBe(true);
 		expect(line).toMatch(/\[EN 50160:2010, Table 1 \(LV\)[^\]]*h = 5\]$/);
 		expect(r.stdout).not.toMatch(/from memory|secondary source|need(s)? checking/);
-		expect(r.stdout).toMatch(/judged on harmonic subgroups of 10\/12-cycle windows \(IEC 61000-4-30 class A with IEC 61000-4-7\)/);
+		expect(r.stdout).toMatch(
+			/judged on harmonic subgroups of 10\/12-cycle windows \(IEC 61000-4-30 class A with IEC 61000-4-7\)/,
+		);
 		expect(r.stdout).not.toMatch(/-0\.0+\)/);
 	});
 

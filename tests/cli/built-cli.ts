@@ -33,5 +33,6 @@ export async function ensureBuiltCli(): Promise<void> {
 	const lib = newestSource(join(root, 'lib'));
 	const cli = newestSource(join(root, 'src', 'cli'));
 	const newest = lib.ms >= cli.ms ? lib : cli;
-	if (newest.ms > built) throw new Error(`${relative(root, mainJs)} is older than ${relative(root, newest.path)}: ${fix}`);
+	if (newest.ms > built)
+		throw new Error(`${relative(root, mainJs)} is older than ${relative(root, newest.path)}: ${fix}`);
 }

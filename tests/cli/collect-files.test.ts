@@ -71,6 +71,12 @@ describe('collectUnits', () => {
 	it('collectUnits([/dev/null]) names a device as not a regular file (no read is tried)', () => {
 		const { units, problems } = collectUnits(['/dev/null']);
 		expect(units).toEqual([]);
-		expect(problems).toEqual([{ file: '/dev/null', code: 'unreadable', message: 'a character device, not a regular file: only regular files are read' }]);
+		expect(problems).toEqual([
+			{
+				file: '/dev/null',
+				code: 'unreadable',
+				message: 'a character device, not a regular file: only regular files are read',
+			},
+		]);
 	});
 });

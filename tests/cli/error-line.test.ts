@@ -22,18 +22,28 @@ describe('error lines', () => {
 	});
 
 	it('errorLine(ImportError, path) gives sinecheck: place: code: expected …, got "text"', () => {
-		expect(errorLine(new ImportError('logs/a.csv', 12, 7, 'bad-number', 'x1', 'a number'), 'logs/a.csv')).toBe('sinecheck: logs/a.csv:12:7: bad-number: expected a number, got "x1"');
-		expect(errorLine(new ImportError('logs/a.csv', 3, 0, 'short-row', '', '4 cells'), 'logs/a.csv')).toBe('sinecheck: logs/a.csv:3: short-row: expected 4 cells');
-		expect(errorLine(new ImportError('rec/b.wav', 0, 17, 'bad-wav', '', "a 'data' chunk"), 'rec/b.wav')).toBe("sinecheck: rec/b.wav: byte 16: bad-wav: expected a 'data' chunk");
+		expect(errorLine(new ImportError('logs/a.csv', 12, 7, 'bad-number', 'x1', 'a number'), 'logs/a.csv')).toBe(
+			'sinecheck: logs/a.csv:12:7: bad-number: expected a number, got "x1"',
+		);
+		expect(errorLine(new ImportError('logs/a.csv', 3, 0, 'short-row', '', '4 cells'), 'logs/a.csv')).toBe(
+			'sinecheck: logs/a.csv:3: short-row: expected 4 cells',
+		);
+		expect(errorLine(new ImportError('rec/b.wav', 0, 17, 'bad-wav', '', "a 'data' chunk"), 'rec/b.wav')).toBe(
+			"sinecheck: rec/b.wav: byte 16: bad-wav: expected a 'data' chunk",
+		);
 		// an ImportError names its own file (the .dat beside a .cfg); the path given is the fallback
-		expect(errorLine(new ImportError('', 2, 1, 'dat-syntax', 'q', 'a sample number'), 'site/x.dat')).toBe('sinecheck: site/x.dat:2:1: dat-syntax: expected a sample number, got "q"');
+		expect(errorLine(new ImportError('', 2, 1, 'dat-syntax', 'q', 'a sample number'), 'site/x.dat')).toBe(
+			'sinecheck: site/x.dat:2:1: dat-syntax: expected a sample number, got "q"',
+		);
 	});
 
 	it('errorLine names the path once for a setting that does not fit the file, and says "could not analyse" otherwise', () => {
 		expect(errorLine(new RangeError('no channel U9'), 'a.csv')).toBe('sinecheck: a.csv: no channel U9');
 		expect(errorLine(new RangeError('a.csv: no channel U9'), 'a.csv')).toBe('sinecheck: a.csv: no channel U9');
 		expect(errorLine(new UsageError('a.csv has no channel U9'), 'a.csv')).toBe('sinecheck: a.csv has no channel U9');
-		expect(errorLine(new Error('boom'), 'a.csv')).toMatch(/^sinecheck: a\.csv: could not analyse: an internal check failed .*report it/);
+		expect(errorLine(new Error('boom'), 'a.csv')).toMatch(
+			/^sinecheck: a\.csv: could not analyse: an internal check failed .*report it/,
+		);
 	});
 
 	it('analyse (problemText of the data a worker sends) and trend (trendErrorLine) print the same line for the same error', () => {
@@ -54,11 +64,23 @@ describe('error lines', () => {
 
 	it('errorLine never shows an internal or engine message: each reaches the user in plain words', () => {
 		const cases: [unknown, RegExp][] = [
-			[new RangeError('fundamentalHz must be in (0, 5000) Hz, got 7000'), /no usable fundamental frequency or sample rate/],
-			[new RangeError('Invalid typed array length: 4294967296'), /more data than analyse can hold in memory.*sinecheck trend/],
-			[new RangeError('The value of "size" is out of range. It must be >= 0 && <= 4294967296. Received 6442450944'), /more data than analyse can hold in memory/],
+			[
+				new RangeError('fundamentalHz must be in (0, 5000) Hz, got 7000'),
+				/no usable fundamental frequency or sample rate/,
+			],
+			[
+				new RangeError('Invalid typed array length: 4294967296'),
+				/more data than analyse can hold in memory.*sinecheck trend/,
+			],
+			[
+				new RangeError('The value of "size" is out of range. It must be >= 0 && <= 4294967296. Received 6442450944'),
+				/more data than analyse can hold in memory/,
+			],
 			[new RangeError('Maximum call stack size exceeded'), /too long for analyse.*sinecheck trend/],
-			[Object.assign(new Error('ELOOP: too many symbolic links encountered'), { code: 'ELOOP' }), /a symbolic link that loops/],
+			[
+				Object.assign(new Error('ELOOP: too many symbolic links encountered'), { code: 'ELOOP' }),
+				/a symbolic link that loops/,
+			],
 			[new TypeError("Cannot read properties of undefined (reading 'length')"), /an internal check failed/],
 			[new RangeError('channels differ in length: 10 vs 12 samples'), /different numbers of samples/],
 		];
@@ -72,12 +94,18 @@ describe('error lines', () => {
 	});
 
 	it('errorLine keeps a message written for users: a reference or pairing channel the file lacks', () => {
-		expect(errorLine(new RangeError('x.csv: reference channel "phaseA" not found; the channels are phaseB, phaseC'), 'x.csv')).toBe(
-			'sinecheck: x.csv: reference channel "phaseA" not found; the channels are phaseB, phaseC',
-		);
-		expect(errorLine(new RangeError('pairing override names channel "I9", which the capture does not have (it has: U1, I1)'), 'x.csv')).toBe(
-			'sinecheck: x.csv: pairing override names channel "I9", which the capture does not have (it has: U1, I1)',
-		);
+		expect(
+			errorLine(
+				new RangeError('x.csv: reference channel "phaseA" not found; the channels are phaseB, phaseC'),
+				'x.csv',
+			),
+		).toBe('sinecheck: x.csv: reference channel "phaseA" not found; the channels are phaseB, phaseC');
+		expect(
+			errorLine(
+				new RangeError('pairing override names channel "I9", which the capture does not have (it has: U1, I1)'),
+				'x.csv',
+			),
+		).toBe('sinecheck: x.csv: pairing override names channel "I9", which the capture does not have (it has: U1, I1)');
 	});
 
 	it('problemLine(problem) escapes control and bidi characters of a file name and message (ECMA-48 C0/C1, UAX #9)', () => {

@@ -23,7 +23,8 @@ describe('file checks before reading', () => {
 
 	it('readRegularFile(FIFO) refuses at once instead of waiting for a writer', () => {
 		const fifo = join(dir, 'p.csv');
-		if (spawnSync('mkfifo', [fifo]).status !== 0) return void console.warn('mkfifo not available: FIFO case not checked');
+		if (spawnSync('mkfifo', [fifo]).status !== 0)
+			return void console.warn('mkfifo not available: FIFO case not checked');
 		expect(() => readRegularFile(fifo)).toThrow('a named pipe (FIFO), not a regular file: only regular files are read');
 		expect(regularFileProblem(fifo).message).toMatch(/named pipe/);
 	});
@@ -38,7 +39,9 @@ describe('file checks before reading', () => {
 		writeFileSync(big, '');
 		truncateSync(big, 2 ** 31 + 1); // sparse: no disk used, never read
 		expect(ANALYSE_MAX_FILE_BYTES).toBe(2 ** 31 - 1);
-		expect(() => readRegularFile(big, ANALYSE_MAX_FILE_BYTES, 'logs/big.csv')).toThrow(/the file is 2\.0 GiB, more than the 2 GiB analyse reads into memory at once; for long recordings use `sinecheck trend logs\/big\.csv`/);
+		expect(() => readRegularFile(big, ANALYSE_MAX_FILE_BYTES, 'logs/big.csv')).toThrow(
+			/the file is 2\.0 GiB, more than the 2 GiB analyse reads into memory at once; for long recordings use `sinecheck trend logs\/big\.csv`/,
+		);
 	});
 
 	it('readRegularFile(missing) says so in words', () => {

@@ -13,7 +13,11 @@ export interface FixtureChannel {
 }
 
 /** Writes `t (s),<headers...>` rows at `sampleRateHz`, `cycles` of `frequencyHz`. */
-export function writeCsvCapture(path: string, channels: FixtureChannel[], opts: { frequencyHz: number; sampleRateHz: number; cycles: number }): void {
+export function writeCsvCapture(
+	path: string,
+	channels: FixtureChannel[],
+	opts: { frequencyHz: number; sampleRateHz: number; cycles: number },
+): void {
 	const cols = channels.map((c) => harmonicSamples(c.tones, { ...opts, offset: c.offset }));
 	const n = cols[0].length;
 	const lines = [['t (s)', ...channels.map((c) => csvCell(c.header))].join(',')];

@@ -7,7 +7,16 @@
 import { describe, expect, it } from 'vitest';
 import { limitRowText } from '../../src/cli/format-table.js';
 
-const row = (value: number, limit: number, figure = 'harmonic', order = 5) => ({ channel: 'U1', order, figure, value, limit, margin: limit - value, pass: value <= limit, source: 'table row (from memory)' });
+const row = (value: number, limit: number, figure = 'harmonic', order = 5) => ({
+	channel: 'U1',
+	order,
+	figure,
+	value,
+	limit,
+	margin: limit - value,
+	pass: value <= limit,
+	source: 'table row (from memory)',
+});
 
 describe('limitRowText', () => {
 	it('limitRowText(row) prints an ordinary excess with 2 decimals', () => {
@@ -15,8 +24,12 @@ describe('limitRowText', () => {
 	});
 
 	it('limitRowText(row) never reads "8.00 % over limit 8.00 % (margin -0.00)": a THD 0.004 points over 8 % gets 3 decimals', () => {
-		expect(limitRowText(row(8.004, 8, 'thd', 0))).toBe('U1 THD: 8.004 % over limit 8.000 % (margin -0.004) [table row (from memory)]');
-		expect(limitRowText(row(8.00004, 8, 'thd', 0))).toBe('U1 THD: 8.00004 % over limit 8.00000 % (margin -0.00004) [table row (from memory)]');
+		expect(limitRowText(row(8.004, 8, 'thd', 0))).toBe(
+			'U1 THD: 8.004 % over limit 8.000 % (margin -0.004) [table row (from memory)]',
+		);
+		expect(limitRowText(row(8.00004, 8, 'thd', 0))).toBe(
+			'U1 THD: 8.00004 % over limit 8.00000 % (margin -0.00004) [table row (from memory)]',
+		);
 	});
 
 	it('limitRowText(row) says "at the limit" when the excess is below a millionth of a point, with no -0 anywhere', () => {

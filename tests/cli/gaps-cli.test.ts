@@ -11,7 +11,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ensureBuiltCli, mainJs } from './built-cli.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-gaps-'));
-const run = (args: string[]) => spawnSync(process.execPath, [mainJs, ...args], { cwd: dir, encoding: 'utf8', timeout: 60_000 });
+const run = (args: string[]) =>
+	spawnSync(process.execPath, [mainJs, ...args], { cwd: dir, encoding: 'utf8', timeout: 60_000 });
 
 beforeAll(async () => {
 	await ensureBuiltCli();

@@ -10,7 +10,16 @@
  * as the independent CSV reader; fast-check (npm) for the generated files.
  */
 import { spawn, spawnSync } from 'node:child_process';
-import { chmodSync, mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, truncateSync, writeFileSync } from 'node:fs';
+import {
+	chmodSync,
+	mkdirSync,
+	mkdtempSync,
+	readFileSync,
+	rmSync,
+	symlinkSync,
+	truncateSync,
+	writeFileSync,
+} from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import fc from 'fast-check';
@@ -33,7 +42,10 @@ const FILE_HEAP_MIB = 96;
 const ADDRESS_SPACE_BYTES = 3 * 2 ** 30;
 const WALL_LIMIT_MS = 45_000;
 const hasPrlimit = spawnSync('prlimit', ['--version']).status === 0;
-if (!hasPrlimit) console.warn('prlimit not found: the address-space cap is not applied in tests/cli/hostile-input.test.ts (heap and time caps still are)');
+if (!hasPrlimit)
+	console.warn(
+		'prlimit not found: the address-space cap is not applied in tests/cli/hostile-input.test.ts (heap and time caps still are)',
+	);
 
 interface Run {
 	code: number | null;
@@ -48,12 +60,21 @@ interface Run {
  * Runs the built CLI with the caps above. `closeStdoutAfter` closes our end of its stdout after that
  * many bytes (like `| head -c N`). `uid` runs it as another user (when this test runs as root).
  */
-function runCli(args: string[], opts: { closeStdoutAfter?: number; uid?: number; termAfterMs?: number } = {}): Promise<Run & { leftInGroup: string }> {
+function runCli(
+	args: string[],
+	opts: { closeStdoutAfter?: number; uid?: number; termAfterMs?: number } = {},
+): Promise<Run & { leftInGroup: string }> {
 	const node = [process.execPath, `--max-old-space-size=${MAIN_HEAP_MIB}`, mainJs, ...args];
 	const cmd = hasPrlimit ? ['prlimit', `--as=${ADDRESS_SPACE_BYTES}`, ...node] : node;
 	const t0 = Date.now();
 	return new Promise((resolve) => {
-		const child = spawn(cmd[0], cmd.slice(1), { cwd: dir, detached: true, uid: opts.uid, gid: opts.uid, env: { ...process.env, SINECHECK_DEBUG: '' } });
+		const child = spawn(cmd[0], cmd.slice(1), {
+			cwd: dir,
+			detached: true,
+			uid: opts.uid,
+			gid: opts.uid,
+			env: { ...process.env, SINECHECK_DEBUG: '' },
+		});
 		let stdout = '';
 		let stderr = '';
 		let timedOut = false;
@@ -88,7 +109,9 @@ function expectClean(r: Run): void {
 	expect([0, 1, 2]).toContain(r.code);
 	for (const text of [r.stdout, r.stderr]) {
 		expect(text).not.toMatch(/FATAL|Native stack|heap out of memory|^\s+at \S/m);
-		expect(text).not.toMatch(/\b(RangeError|TypeError|ReferenceError|SyntaxError)\b|ERR_[A-Z_]{3,}|EPIPE|internal error/);
+		expect(text).not.toMatch(
+			/\b(RangeError|TypeError|ReferenceError|SyntaxError)\b|ERR_[A-Z_]{3,}|EPIPE|internal error/,
+		);
 	}
 }
 
@@ -124,7 +147,9 @@ function comtradeSpec(name: string, unit: string): WriterSpec {
 		firstData: '01/03/2026,08:00:00.000000',
 		trigger: '01/03/2026,08:00:00.000000',
 		fileType: 'ASCII',
-		analog: [{ name, unit, values: Array.from({ length: n }, (_, k) => 325 * Math.sin((2 * Math.PI * 50 * k) / 1000)) }],
+		analog: [
+			{ name, unit, values: Array.from({ length: n }, (_, k) => 325 * Math.sin((2 * Math.PI * 50 * k) / 1000)) },
+		],
 	};
 }
 
@@ -155,17 +180,28 @@ beforeAll(async () => {
 	writeCsvCapture(join(dir, '-x.csv'), U1, SINE);
 	// A 50 Hz sine whose time stamps jump by 1e6 s halfway (the 10-s frequency loop's hardest case).
 	const jump = ['t (s),U1 (V)'];
-	for (let k = 0; k < 2000; k++) jump.push(`${(k / 1e4 + (k >= 1000 ? 1e6 : 0)).toFixed(4)},${(325 * Math.sin((2 * Math.PI * 50 * k) / 1e4)).toFixed(3)}`);
+	for (let k = 0; k < 2000; k++)
+		jump.push(
+			`${(k / 1e4 + (k >= 1000 ? 1e6 : 0)).toFixed(4)},${(325 * Math.sin((2 * Math.PI * 50 * k) / 1e4)).toFixed(3)}`,
+		);
 	writeFileSync(join(dir, 'jump.csv'), jump.join('\n') + '\n');
 	// Formula-like channel names (CSV-injection cases).
 	const attack = comtradeSpec('-1+T("', `")+cmd|' /C calc'!A0+T(""`);
 	writeFileSync(join(dir, 'attack.cfg'), comtradeCfgText(attack));
 	writeFileSync(join(dir, 'attack.dat'), comtradeDatBytes(attack));
-	writeCsvCapture(join(dir, 'fullwidth.csv'), [{ header: '\uFF1DHYPERLINK("x") (V)', tones: [{ order: 1, rms: 230 }] }], SINE);
+	writeCsvCapture(
+		join(dir, 'fullwidth.csv'),
+		[{ header: '\uFF1DHYPERLINK("x") (V)', tones: [{ order: 1, rms: 230 }] }],
+		SINE,
+	);
 	writeCsvCapture(join(dir, '-2+3.csv'), U1, SINE);
 	// A long, ordinary record (1.5 M rows x 3 channels, ~45 MB): its analysis takes seconds, so a signal
 	// sent 2 s after the start arrives while a helper works on it (about 3.4 s of CPU here).
-	writeCsvCapture(join(dir, 'long.csv'), ['U1', 'U2', 'U3'].map((n) => ({ header: `${n} (V)`, tones: [{ order: 1, rms: 230 }] })), { frequencyHz: 50, sampleRateHz: 10_000, cycles: 7500 });
+	writeCsvCapture(
+		join(dir, 'long.csv'),
+		['U1', 'U2', 'U3'].map((n) => ({ header: `${n} (V)`, tones: [{ order: 1, rms: 230 }] })),
+		{ frequencyHz: 50, sampleRateHz: 10_000, cycles: 7500 },
+	);
 }, 60_000);
 
 describe('sinecheck under hostile input (built CLI, capped child processes)', () => {
@@ -174,23 +210,36 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 		expectClean(r);
 		expect(r.code).toBe(2);
 		const reports = reportsByFile(r.stdout);
-		for (const good of ['batch/a-good.csv', 'batch/z-good.csv', `batch/${ESC_NAME}`]) expect(reports.get(good)?.channels.length, good).toBe(1);
+		for (const good of ['batch/a-good.csv', 'batch/z-good.csv', `batch/${ESC_NAME}`])
+			expect(reports.get(good)?.channels.length, good).toBe(1);
 		expect(errorLineFor(r.stderr, 'batch/b-dangling.csv')).toMatch(/symbolic link to something that does not exist/);
 		expect(errorLineFor(r.stderr, 'batch/c-loop')).toMatch(/loop/);
 		expect(errorLineFor(r.stderr, 'batch/d-pipe.csv')).toMatch(/named pipe \(FIFO\), not a regular file/);
 		expect(errorLineFor(r.stderr, 'batch/locked')).toMatch(/cannot read this folder: permission denied/);
 		// the overflowing file: a report, or a located line (out of memory, time limit or an import error)
-		expect(reports.has('batch/e-extreme.csv') || errorLineFor(r.stderr, 'batch/e-extreme.csv') !== undefined).toBe(true);
+		expect(reports.has('batch/e-extreme.csv') || errorLineFor(r.stderr, 'batch/e-extreme.csv') !== undefined).toBe(
+			true,
+		);
 		expect(r.stderr).toMatch(/^analysed \d+ capture\(s\) from \d+ file set\(s\); \d+ with errors/m);
 		// control characters of a file name never reach the terminal raw (JSON escapes them too)
 		expect(r.stdout + r.stderr).not.toMatch(/[\u001b\u202e]/);
 	}, 60_000);
 
 	it('analyse <fifo> /dev/zero <cfg whose .dat is a folder> <good>: a clear line for each, no hang, the good file still reported', async () => {
-		const r = await runCli(['analyse', 'pipe.csv', '/dev/zero', 'folder-dat.cfg', 'batch/a-good.csv', '--json', ...CAPS]);
+		const r = await runCli([
+			'analyse',
+			'pipe.csv',
+			'/dev/zero',
+			'folder-dat.cfg',
+			'batch/a-good.csv',
+			'--json',
+			...CAPS,
+		]);
 		expectClean(r);
 		expect(r.code).toBe(2);
-		expect(errorLineFor(r.stderr, 'pipe.csv')).toMatch(/named pipe \(FIFO\), not a regular file: only regular files are read/);
+		expect(errorLineFor(r.stderr, 'pipe.csv')).toMatch(
+			/named pipe \(FIFO\), not a regular file: only regular files are read/,
+		);
 		expect(errorLineFor(r.stderr, '/dev/zero')).toMatch(/character device, not a regular file/);
 		expect(r.stderr).toMatch(/^sinecheck: folder-dat\.dat: a folder, not a regular file/m);
 		expect(reportsByFile(r.stdout).has('batch/a-good.csv')).toBe(true);
@@ -200,7 +249,8 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 	it('trend <time stamps jumping by 1e6 s> <good> <good>: the good files trended, the jump a located warning, no crash', async () => {
 		const r = await runCli(['trend', 'jump.csv', 'batch/a-good.csv', 'batch/z-good.csv', '--nominal', '230', ...CAPS]);
 		expectClean(r);
-		for (const good of ['batch/a-good.csv', 'batch/z-good.csv']) expect(r.stdout).toMatch(new RegExp(`^${good.replace(/[.]/g, '\\.')},10/12-cycle,`, 'm'));
+		for (const good of ['batch/a-good.csv', 'batch/z-good.csv'])
+			expect(r.stdout).toMatch(new RegExp(`^${good.replace(/[.]/g, '\\.')},10/12-cycle,`, 'm'));
 		// The jump is between lines 1001 and 1002 of the file written above: the warning names line 1002.
 		expect(r.stderr).toMatch(/^jump\.csv: warning: .*gap.*line 1002/m);
 	}, 60_000);
@@ -238,7 +288,10 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 	}, 60_000);
 
 	it('analyse <folder> --json with stdout closed early (like `| head -c 200`) exits quietly', async () => {
-		const r = await runCli(['analyse', '--json', '--quiet', '--jobs', '1', 'batch/a-good.csv', 'batch/z-good.csv', 'fullwidth.csv'], { closeStdoutAfter: 1 });
+		const r = await runCli(
+			['analyse', '--json', '--quiet', '--jobs', '1', 'batch/a-good.csv', 'batch/z-good.csv', 'fullwidth.csv'],
+			{ closeStdoutAfter: 1 },
+		);
 		expectClean(r);
 		expect(r.stdout.length).toBeGreaterThan(0);
 		expect(r.stderr).toBe('');
@@ -273,17 +326,38 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 const seedWav = readFileSync(join(root, 'sample-waves', 'spindle-clamp.wav'));
 const seedCfg = readFileSync(join(root, 'sample-waves', 'incomer-dip.cfg'), 'latin1');
 const seedDat = readFileSync(join(root, 'sample-waves', 'incomer-dip.dat'));
-const extreme = fc.constantFrom('1e308', '-1e308', '5e-324', 'NaN', 'Infinity', '-0', '0', '1e-300', '9'.repeat(400), '', 'x', '1,5', '1e6');
+const extreme = fc.constantFrom(
+	'1e308',
+	'-1e308',
+	'5e-324',
+	'NaN',
+	'Infinity',
+	'-0',
+	'0',
+	'1e-300',
+	'9'.repeat(400),
+	'',
+	'x',
+	'1,5',
+	'1e6',
+);
 
 /** One generated capture: a file name (or .cfg/.dat pair) and its bytes. */
 const generatedFile = fc.oneof(
-	fc.record({ ext: fc.constantFrom('.csv', '.wav', '.txt', '.cff'), bytes: fc.uint8Array({ maxLength: 2048 }) }).map((f) => [{ ext: f.ext, bytes: f.bytes }]),
+	fc
+		.record({ ext: fc.constantFrom('.csv', '.wav', '.txt', '.cff'), bytes: fc.uint8Array({ maxLength: 2048 }) })
+		.map((f) => [{ ext: f.ext, bytes: f.bytes }]),
 	fc
 		.record({
 			header: fc.constantFrom('t (s),U1 (V)', 'N (V),U1 (V)', 'U1 (V)', 't (s);U1 (V);I1 (A)', 'sample,U1 (V)'),
-			rows: fc.array(fc.tuple(fc.oneof(fc.double(), extreme.map(Number)), extreme, fc.double({ noNaN: false })), { minLength: 0, maxLength: 400 }),
+			rows: fc.array(fc.tuple(fc.oneof(fc.double(), extreme.map(Number)), extreme, fc.double({ noNaN: false })), {
+				minLength: 0,
+				maxLength: 400,
+			}),
 		})
-		.map(({ header, rows }) => [{ ext: '.csv', bytes: Buffer.from([header, ...rows.map(([t, a, b]) => `${t},${a},${b}`)].join('\n')) }]),
+		.map(({ header, rows }) => [
+			{ ext: '.csv', bytes: Buffer.from([header, ...rows.map(([t, a, b]) => `${t},${a},${b}`)].join('\n')) },
+		]),
 	fc.nat({ max: seedWav.length }).map((n) => [{ ext: '.wav', bytes: seedWav.subarray(0, n) }]),
 	fc.tuple(fc.nat({ max: seedCfg.length }), fc.nat({ max: seedDat.length })).map(([a, b]) => [
 		{ ext: '.cfg', bytes: Buffer.from(seedCfg.slice(0, a), 'latin1') },
@@ -308,7 +382,10 @@ describe('sinecheck on generated files (fast-check)', () => {
 				const reports = reportsByFile(r.stdout);
 				for (const name of names) {
 					const datName = name.replace(/\.cfg$/, '.dat');
-					const answered = reports.has(name) || errorLineFor(r.stderr, name) !== undefined || errorLineFor(r.stderr, datName) !== undefined;
+					const answered =
+						reports.has(name) ||
+						errorLineFor(r.stderr, name) !== undefined ||
+						errorLineFor(r.stderr, datName) !== undefined;
 					expect(answered, `${name}\n${r.stderr}`).toBe(true);
 				}
 				expect(r.stderr).toMatch(/^analysed \d+ capture\(s\) from \d+ file set\(s\)/m);
@@ -316,8 +393,10 @@ describe('sinecheck on generated files (fast-check)', () => {
 				expectClean(t);
 				for (const name of names) {
 					const datName = name.replace(/\.cfg$/, '.dat');
-					const trended = t.stdout.includes(`\n${name},`) || t.stderr.split('\n').some((l) => l.startsWith(`${name}: `));
-					const answered = trended || errorLineFor(t.stderr, name) !== undefined || errorLineFor(t.stderr, datName) !== undefined;
+					const trended =
+						t.stdout.includes(`\n${name},`) || t.stderr.split('\n').some((l) => l.startsWith(`${name}: `));
+					const answered =
+						trended || errorLineFor(t.stderr, name) !== undefined || errorLineFor(t.stderr, datName) !== undefined;
 					expect(answered, `trend ${name}\n${t.stderr}`).toBe(true);
 				}
 			}),

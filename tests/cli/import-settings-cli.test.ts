@@ -16,15 +16,31 @@ const dir = mkdtempSync(join(tmpdir(), 'sinecheck-settings-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 beforeAll(ensureBuiltCli);
 
-const run = (args: string[]) => spawnSync(process.execPath, [mainJs, ...args], { cwd: dir, encoding: 'utf8', timeout: 60_000 });
+const run = (args: string[]) =>
+	spawnSync(process.execPath, [mainJs, ...args], { cwd: dir, encoding: 'utf8', timeout: 60_000 });
 
 // 230 V, 50 Hz, 6.4 kS/s, 1.5 s with a 70 % dip for 100 ms from 0.5 s, stored as fractions of 400 V
 const FS = 6400;
-const [u] = makeChannels([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 0.6, rms: 161 }] }], { f0Hz: 50 }, FS, 1.5);
+const [u] = makeChannels(
+	[{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 0.6, rms: 161 }] }],
+	{ f0Hz: 50 },
+	FS,
+	1.5,
+);
 beforeAll(() => {
-	const { WaveFile } = wavefile as unknown as { WaveFile: new () => { fromScratch(ch: number, rate: number, depth: string, s: number[]): void; toBuffer(): Uint8Array } };
+	const { WaveFile } = wavefile as unknown as {
+		WaveFile: new () => {
+			fromScratch(ch: number, rate: number, depth: string, s: number[]): void;
+			toBuffer(): Uint8Array;
+		};
+	};
 	const w = new WaveFile();
-	w.fromScratch(1, FS, '32f', Array.from(u, (v) => v / 400));
+	w.fromScratch(
+		1,
+		FS,
+		'32f',
+		Array.from(u, (v) => v / 400),
+	);
 	writeFileSync(join(dir, 'logger.wav'), w.toBuffer());
 	writeFileSync(join(dir, 'logger-named.csv'), w.toBuffer());
 });
@@ -39,11 +55,25 @@ describe('import settings on the command line', () => {
 		// whole cycles of the record (the dip included): the RMS lies between 161 V and 230 V
 		expect(ch.rms).toBeGreaterThan(161);
 		expect(ch.rms).toBeLessThanOrEqual(230.5);
-		expect(report.diagnostics.map((d: { code: string }) => d.code)).toEqual(expect.arrayContaining(['format-from-content', 'channel-from-user']));
+		expect(report.diagnostics.map((d: { code: string }) => d.code)).toEqual(
+			expect.arrayContaining(['format-from-content', 'channel-from-user']),
+		);
 	});
 
 	it('trend: a float WAV given --scale, --unit and --quantity gives its dip', () => {
-		const r = run(['trend', 'logger.wav', '--scale', 'ch1=400', '--unit', 'ch1=V', '--quantity', 'ch1=voltage', '--nominal', '230', '--json']);
+		const r = run([
+			'trend',
+			'logger.wav',
+			'--scale',
+			'ch1=400',
+			'--unit',
+			'ch1=V',
+			'--quantity',
+			'ch1=voltage',
+			'--nominal',
+			'230',
+			'--json',
+		]);
 		expect(r.status).toBe(0);
 		const doc = JSON.parse(r.stdout);
 		expect(doc.events.map((e: { kind: string }) => e.kind)).toEqual(['dip']);

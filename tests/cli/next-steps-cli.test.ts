@@ -22,11 +22,37 @@ function run(args: string[]) {
 beforeAll(async () => {
 	await ensureBuiltCli();
 	// Tallowmere Joinery's dust extractor: 230 V, 10 A lagging 36.87° (DPF 0.8) with a 3 A 5th.
-	writeCsvCapture(join(dir, 'extractor.csv'), [{ header: 'U1 (V)', tones: [{ order: 1, rms: 230 }] }, { header: 'I1 (A)', tones: [{ order: 1, rms: 10, phaseDeg: -36.8699 }, { order: 5, rms: 3 }] }], { frequencyHz: 50, sampleRateHz: 10_000, cycles: 20 });
+	writeCsvCapture(
+		join(dir, 'extractor.csv'),
+		[
+			{ header: 'U1 (V)', tones: [{ order: 1, rms: 230 }] },
+			{
+				header: 'I1 (A)',
+				tones: [
+					{ order: 1, rms: 10, phaseDeg: -36.8699 },
+					{ order: 5, rms: 3 },
+				],
+			},
+		],
+		{ frequencyHz: 50, sampleRateHz: 10_000, cycles: 20 },
+	);
 }, 120_000);
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-const SITE = ['--target-pf', '0.95', '--transformer-kva', '100', '--transformer-z-pct', '4', '--transformer-pec-pu', '0.1', '--meter-crest', '3', '--meter-bandwidth-hz', '200'];
+const SITE = [
+	'--target-pf',
+	'0.95',
+	'--transformer-kva',
+	'100',
+	'--transformer-z-pct',
+	'4',
+	'--transformer-pec-pu',
+	'0.1',
+	'--meter-crest',
+	'3',
+	'--meter-bandwidth-hz',
+	'200',
+];
 
 describe('sinecheck analyse with next-steps options', () => {
 	it('analyse --json with site options prints exactly what the library gives with the same site inputs', () => {
@@ -34,7 +60,14 @@ describe('sinecheck analyse with next-steps options', () => {
 		expect(r.code).toBe(0);
 		const doc = JSON.parse(r.stdout);
 		const opened = openCaptures([{ name: 'extractor.csv', bytes: readFileSync(join(dir, 'extractor.csv')) }]);
-		const site = { targetPowerFactor: 0.95, transformerKva: 100, transformerImpedancePercent: 4, transformerEddyLossPu: 0.1, meterCrestFactor: 3, meterBandwidthHz: 200 };
+		const site = {
+			targetPowerFactor: 0.95,
+			transformerKva: 100,
+			transformerImpedancePercent: 4,
+			transformerEddyLossPu: 0.1,
+			meterCrestFactor: 3,
+			meterBandwidthHz: 200,
+		};
 		expect(doc).toEqual(JSON.parse(JSON.stringify(reportToJson(analyseCapture(opened.captures[0], { site })))));
 		expect(doc.nextSteps.site).toEqual(site);
 	});
@@ -69,7 +102,9 @@ describe('sinecheck analyse with next-steps options', () => {
 		const r = run(['analyse', 'extractor.csv', '--csv', '--next-steps', ...SITE]);
 		const lines = r.stdout.split('\r\n');
 		expect(lines[0]).toBe('file,step,status,figure,value,text');
-		expect(lines.some((l) => l.startsWith('extractor.csv,power-factor-correction,result,totalReactiveToAddVar,775.'))).toBe(true);
+		expect(
+			lines.some((l) => l.startsWith('extractor.csv,power-factor-correction,result,totalReactiveToAddVar,775.')),
+		).toBe(true);
 	});
 
 	it('analyse --target-pf 1.2, --meter-response peak and --transformer-kva abc are usage errors (exit 2) naming the option', () => {

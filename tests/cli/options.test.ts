@@ -4,7 +4,18 @@ import { UsageError } from '../../src/cli/usage-error.js';
 
 describe('settingsFromOptions', () => {
 	it('settingsFromOptions(raw) maps every analysis option to the library names', () => {
-		const s = settingsFromOptions({ limits: 'ieee519', iscIl: 35, il: '120', ref: 'I1', window: 12, nominal: 400, nominalHz: 60, maxOrder: 40, wholeRecord: true, pair: ['U2=I3'] });
+		const s = settingsFromOptions({
+			limits: 'ieee519',
+			iscIl: 35,
+			il: '120',
+			ref: 'I1',
+			window: 12,
+			nominal: 400,
+			nominalHz: 60,
+			maxOrder: 40,
+			wholeRecord: true,
+			pair: ['U2=I3'],
+		});
 		expect(s.analysis).toEqual({
 			limits: 'ieee519',
 			iscIl: 35,
@@ -20,19 +31,45 @@ describe('settingsFromOptions', () => {
 	});
 
 	it('settingsFromOptions(raw) asks for single DFT bins only with a limit table, and reads the declared voltage for events', () => {
-		expect(settingsFromOptions({ limits: 'en50160', singleBins: true, declared: '230' }).analysis).toEqual({ limits: 'en50160', harmonicBasis: 'single-bins', declaredV: 230 });
+		expect(settingsFromOptions({ limits: 'en50160', singleBins: true, declared: '230' }).analysis).toEqual({
+			limits: 'en50160',
+			harmonicBasis: 'single-bins',
+			declaredV: 230,
+		});
 		expect(() => settingsFromOptions({ singleBins: true })).toThrow(UsageError);
 		expect(() => settingsFromOptions({ declared: '-5' })).toThrow(/--declared -5/);
 	});
 
 	it('settingsFromOptions(raw) reads repeated channel=value assignments, the last = splitting name from value', () => {
-		const s = settingsFromOptions({ scale: ['U1=100', 'I1=0,5'], unit: ['I1=A'], quantity: ['CH3=current'], rate: '10000' });
-		expect(s.import).toEqual({ sampleRateHz: 10000, scale: { U1: 100, I1: 0.5 }, unit: { I1: 'A' }, quantity: { CH3: 'current' } });
+		const s = settingsFromOptions({
+			scale: ['U1=100', 'I1=0,5'],
+			unit: ['I1=A'],
+			quantity: ['CH3=current'],
+			rate: '10000',
+		});
+		expect(s.import).toEqual({
+			sampleRateHz: 10000,
+			scale: { U1: 100, I1: 0.5 },
+			unit: { I1: 'A' },
+			quantity: { CH3: 'current' },
+		});
 	});
 
 	it('settingsFromOptions(raw) maps the CSV layout and COMTRADE overrides', () => {
-		const s = settingsFromOptions({ delimiter: 'semicolon', decimal: 'comma', timeColumn: 1, timeUnit: 'ms', secondary: true });
-		expect(s.import).toMatchObject({ delimiter: ';', decimalMark: ',', timeColumn: 0, timeUnit: 'ms', comtradeValues: 'secondary' });
+		const s = settingsFromOptions({
+			delimiter: 'semicolon',
+			decimal: 'comma',
+			timeColumn: 1,
+			timeUnit: 'ms',
+			secondary: true,
+		});
+		expect(s.import).toMatchObject({
+			delimiter: ';',
+			decimalMark: ',',
+			timeColumn: 0,
+			timeUnit: 'ms',
+			comtradeValues: 'secondary',
+		});
 		expect(settingsFromOptions({ timeColumn: 'none' }).import.timeColumn).toBe('none');
 	});
 

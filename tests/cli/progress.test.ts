@@ -2,7 +2,15 @@ import { describe, expect, it } from 'vitest';
 import { progressBar } from '../../src/cli/progress.js';
 
 function stream(isTTY: boolean): NodeJS.WriteStream & { text: string } {
-	const s = { isTTY, columns: 60, text: '', write(t: string) { s.text += t; return true; } };
+	const s = {
+		isTTY,
+		columns: 60,
+		text: '',
+		write(t: string) {
+			s.text += t;
+			return true;
+		},
+	};
 	return s as unknown as NodeJS.WriteStream & { text: string };
 }
 

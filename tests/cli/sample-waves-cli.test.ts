@@ -18,9 +18,29 @@ if (!present) console.warn('sample-waves/ground-truth.json is absent: the CLI sa
 interface Truth {
 	files: {
 		file: string;
-		channels: { name: string; envelope: unknown[]; expected: { steadyRms: number; fundamentalRms: number; thdFPct: number } }[];
-		power: { voltage: string; current: string; activePowerW: number; fundamentalReactivePowerVar: number; apparentPowerVA: number; powerFactor: number; displacementPowerFactor: number }[];
-		threePhase: { channels: string[]; rotation: string; positiveRms: number; negativeRms: number; zeroRms: number; unbalanceNegativePct: number; window?: string }[];
+		channels: {
+			name: string;
+			envelope: unknown[];
+			expected: { steadyRms: number; fundamentalRms: number; thdFPct: number };
+		}[];
+		power: {
+			voltage: string;
+			current: string;
+			activePowerW: number;
+			fundamentalReactivePowerVar: number;
+			apparentPowerVA: number;
+			powerFactor: number;
+			displacementPowerFactor: number;
+		}[];
+		threePhase: {
+			channels: string[];
+			rotation: string;
+			positiveRms: number;
+			negativeRms: number;
+			zeroRms: number;
+			unbalanceNegativePct: number;
+			window?: string;
+		}[];
 	}[];
 }
 
@@ -32,7 +52,11 @@ let stderr = '';
 beforeAll(async () => {
 	await ensureBuiltCli();
 	if (!present) return;
-	const r = spawnSync(process.execPath, [main, 'analyse', 'sample-waves', '--json', '--quiet'], { cwd: root, encoding: 'utf8', timeout: 120_000 });
+	const r = spawnSync(process.execPath, [main, 'analyse', 'sample-waves', '--json', '--quiet'], {
+		cwd: root,
+		encoding: 'utf8',
+		timeout: 120_000,
+	});
 	code = r.status ?? -1;
 	stderr = r.stderr;
 	for (const line of r.stdout.trim().split('\n')) {
@@ -68,37 +92,43 @@ describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
 			}
 		});
 
-		if (f.power.length > 0) it(`${f.file}: P, Q1, S, PF and DPF of every pair match IEEE 1459 computed from the construction`, () => {
-			const d = docs.get(f.file);
-			for (const p of f.power) {
-				const got = d.power.find((x: { voltage: string; current: string }) => x.voltage === p.voltage && x.current === p.current);
-				expect(got, `${p.voltage}/${p.current} paired`).toBeDefined();
-				expect(rel(got.activeW, p.activePowerW)).toBeLessThan(3e-3);
-				expect(Math.abs(got.reactiveVar - p.fundamentalReactivePowerVar)).toBeLessThan(3e-3 * p.apparentPowerVA);
-				expect(rel(got.apparentVA, p.apparentPowerVA)).toBeLessThan(3e-3);
-				expect(Math.abs(got.powerFactor - p.powerFactor)).toBeLessThan(3e-3);
-				expect(Math.abs(got.displacementPowerFactor - p.displacementPowerFactor)).toBeLessThan(3e-3);
-			}
-		});
+		if (f.power.length > 0)
+			it(`${f.file}: P, Q1, S, PF and DPF of every pair match IEEE 1459 computed from the construction`, () => {
+				const d = docs.get(f.file);
+				for (const p of f.power) {
+					const got = d.power.find(
+						(x: { voltage: string; current: string }) => x.voltage === p.voltage && x.current === p.current,
+					);
+					expect(got, `${p.voltage}/${p.current} paired`).toBeDefined();
+					expect(rel(got.activeW, p.activePowerW)).toBeLessThan(3e-3);
+					expect(Math.abs(got.reactiveVar - p.fundamentalReactivePowerVar)).toBeLessThan(3e-3 * p.apparentPowerVA);
+					expect(rel(got.apparentVA, p.apparentPowerVA)).toBeLessThan(3e-3);
+					expect(Math.abs(got.powerFactor - p.powerFactor)).toBeLessThan(3e-3);
+					expect(Math.abs(got.displacementPowerFactor - p.displacementPowerFactor)).toBeLessThan(3e-3);
+				}
+			});
 
 		const sets = f.threePhase.filter((t) => t.window === undefined);
-		if (sets.length > 0) it(`${f.file}: rotation, sequence components and VUF match the Fortescue transform of the construction`, () => {
-			const d = docs.get(f.file);
-			for (const t of sets) {
-				const got = d.threePhaseSets.find((x: { channels: string[] }) => x.channels.join() === t.channels.join());
-				expect(got, t.channels.join()).toBeDefined();
-				expect(t.rotation.startsWith(got.rotation)).toBe(true);
-				expect(rel(got.sequence.positive, t.positiveRms)).toBeLessThan(2e-3);
-				expect(Math.abs(got.sequence.negative - t.negativeRms)).toBeLessThan(2e-3 * t.positiveRms);
-				expect(Math.abs(got.sequence.zero - t.zeroRms)).toBeLessThan(2e-3 * t.positiveRms);
-				expect(Math.abs(got.unbalancePercent - t.unbalanceNegativePct)).toBeLessThan(0.05);
-			}
-		});
+		if (sets.length > 0)
+			it(`${f.file}: rotation, sequence components and VUF match the Fortescue transform of the construction`, () => {
+				const d = docs.get(f.file);
+				for (const t of sets) {
+					const got = d.threePhaseSets.find((x: { channels: string[] }) => x.channels.join() === t.channels.join());
+					expect(got, t.channels.join()).toBeDefined();
+					expect(t.rotation.startsWith(got.rotation)).toBe(true);
+					expect(rel(got.sequence.positive, t.positiveRms)).toBeLessThan(2e-3);
+					expect(Math.abs(got.sequence.negative - t.negativeRms)).toBeLessThan(2e-3 * t.positiveRms);
+					expect(Math.abs(got.sequence.zero - t.zeroRms)).toBeLessThan(2e-3 * t.positiveRms);
+					expect(Math.abs(got.unbalancePercent - t.unbalanceNegativePct)).toBeLessThan(0.05);
+				}
+			});
 	}
 
 	it('analyse --json incomer-dip.cfg carries the dip on Ub as one event (residual 55 % of 230 V within 0.5 %, 0.12 s within one cycle: ground truth; IEC 61000-4-30 class A duration uncertainty, docs/methods.md §3.4), classified once and named in the findings', () => {
 		const d = docs.get('incomer-dip.cfg');
-		const truth = JSON.parse(readFileSync(truthPath, 'utf8')).files.find((f: { file: string }) => f.file === 'incomer-dip.cfg');
+		const truth = JSON.parse(readFileSync(truthPath, 'utf8')).files.find(
+			(f: { file: string }) => f.file === 'incomer-dip.cfg',
+		);
 		const env = truth.channels.find((c: { name: string }) => c.name === 'Ub').envelope[0];
 		expect(d.events.events).toHaveLength(1);
 		const e = d.events.events[0];
@@ -108,17 +138,32 @@ describe.skipIf(!present)('sinecheck analyse sample-waves', () => {
 		expect(Math.abs(e.durationS - (env.toS - env.fromS))).toBeLessThanOrEqual(0.02);
 		expect(d.events.dipTable.counts.flat().reduce((a: number, b: number) => a + b, 0)).toBe(1);
 		expect(d.findings.find((f: { id: string }) => f.id === 'events').text).toContain('1 dip');
-		const csv = spawnSync(process.execPath, [main, 'analyse', join('sample-waves', 'incomer-dip.cfg'), '--csv'], { cwd: root, encoding: 'utf8', timeout: 120_000 });
-		const [head, ...rows] = csv.stdout.trim().split(/\r?\n/).map((l) => l.split(','));
+		const csv = spawnSync(process.execPath, [main, 'analyse', join('sample-waves', 'incomer-dip.cfg'), '--csv'], {
+			cwd: root,
+			encoding: 'utf8',
+			timeout: 120_000,
+		});
+		const [head, ...rows] = csv.stdout
+			.trim()
+			.split(/\r?\n/)
+			.map((l) => l.split(','));
 		const ub = rows.find((r) => r[1] === 'Ub')!;
 		expect(ub[head.indexOf('dips')]).toBe('1');
-		const table = spawnSync(process.execPath, [main, 'analyse', join('sample-waves', 'incomer-dip.cfg')], { cwd: root, encoding: 'utf8', timeout: 120_000 });
+		const table = spawnSync(process.execPath, [main, 'analyse', join('sample-waves', 'incomer-dip.cfg')], {
+			cwd: root,
+			encoding: 'utf8',
+			timeout: 120_000,
+		});
 		expect(table.stdout).toMatch(/voltage events .*: 1\n\s+dip to 55\.\d % .* on Ub/);
 		expect(table.stdout).toMatch(/EN 50160:2010, Table 5: 70 > u ≥ 40 %, 10-200 ms: 1/);
 	});
 
 	it('trend incomer-dip.cfg (wired as sinecheck trend) reports the dip on Ub: residual 55 % of 230 V, 0.12 s within one cycle (ground truth; IEC 61000-4-30 duration uncertainty, docs/methods.md 3.4)', () => {
-		const r = spawnSync(process.execPath, [main, 'trend', join('sample-waves', 'incomer-dip.cfg')], { cwd: root, encoding: 'utf8', timeout: 120_000 });
+		const r = spawnSync(process.execPath, [main, 'trend', join('sample-waves', 'incomer-dip.cfg')], {
+			cwd: root,
+			encoding: 'utf8',
+			timeout: 120_000,
+		});
 		expect(r.status, r.stderr).toBe(0);
 		expect(r.stdout.split('\n')[0]).toMatch(/^interval,start_s/);
 		const m = /dip on Ub at [-\d.]+ s for ([\d.]+) s, residual ([\d.]+) V/.exec(r.stderr);

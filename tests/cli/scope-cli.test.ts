@@ -14,7 +14,8 @@ import { ensureBuiltCli, mainJs, root } from './built-cli.js';
 
 const file = join('sample-waves', 'moulder-drive-scope.csv');
 beforeAll(async () => ensureBuiltCli(), 120_000);
-const run = (args: string[]) => spawnSync(process.execPath, [mainJs, ...args], { cwd: root, encoding: 'utf8', timeout: 60_000 });
+const run = (args: string[]) =>
+	spawnSync(process.execPath, [mainJs, ...args], { cwd: root, encoding: 'utf8', timeout: 60_000 });
 
 describe('sinecheck analyse on a one-cycle 8-bit scope capture', () => {
 	it('analyse --json prints exactly what the library gives for the same file, with the short-record fit', () => {

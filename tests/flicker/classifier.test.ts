@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { PINST_CLASSES, pinstClass, pinstLevelExceeded, pltFromPst, pltIntervals, pstFromHistogram, type PstInterval } from '../../lib/flicker/index.js';
+import {
+	PINST_CLASSES,
+	pinstClass,
+	pinstLevelExceeded,
+	pltFromPst,
+	pltIntervals,
+	pstFromHistogram,
+	type PstInterval,
+} from '../../lib/flicker/index.js';
 
 function histogram(values: number[]): Uint32Array {
 	const h = new Uint32Array(PINST_CLASSES);
@@ -82,7 +90,16 @@ describe('pltFromPst', () => {
 });
 
 describe('pltIntervals', () => {
-	const pst = (k: number, value: number): PstInterval => ({ startS: 600 * k, durationS: 600, pst: value, p01: 0, p1s: 0, p3s: 0, p10s: 0, p50s: 0 });
+	const pst = (k: number, value: number): PstInterval => ({
+		startS: 600 * k,
+		durationS: 600,
+		pst: value,
+		p01: 0,
+		p1s: 0,
+		p3s: 0,
+		p10s: 0,
+		p50s: 0,
+	});
 
 	it('makes one Plt per 12 consecutive Pst from the first and drops an incomplete group', () => {
 		const values = Array.from({ length: 30 }, (_, k) => pst(k, k < 12 ? 1 : 0.5));

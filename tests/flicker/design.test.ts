@@ -13,7 +13,12 @@ import {
 function analogueWeighting(lamp: FlickerLamp, hz: number): number {
 	const c = FLICKER_WEIGHTING[lamp];
 	const t = 2 * Math.PI;
-	const w = t * hz, w1 = t * c.f1Hz, w2 = t * c.f2Hz, w3 = t * c.f3Hz, w4 = t * c.f4Hz, l = t * c.lambdaHz;
+	const w = t * hz,
+		w1 = t * c.f1Hz,
+		w2 = t * c.f2Hz,
+		w3 = t * c.f3Hz,
+		w4 = t * c.f4Hz,
+		l = t * c.lambdaHz;
 	// K ω1 jω / (ω1² − ω² + j2λω) · (1 + jω/ω2) / ((1 + jω/ω3)(1 + jω/ω4))
 	const bp = (c.k * w1 * w) / Math.hypot(w1 * w1 - w * w, 2 * l * w);
 	return (bp * Math.hypot(1, w / w2)) / (Math.hypot(1, w / w3) * Math.hypot(1, w / w4));
@@ -30,7 +35,8 @@ describe('bilinear', () => {
 	});
 
 	it('bilinear without pre-warping maps analogue ω to digital 2·atan(ω/(2 fs)) (frequency warping, closed form)', () => {
-		const fs = 1000, w = 2 * Math.PI * 100;
+		const fs = 1000,
+			w = 2 * Math.PI * 100;
 		const q = bilinear([0, 0, w], [0, 1, w], fs);
 		const digitalHz = (Math.atan(w / (2 * fs)) * fs) / Math.PI;
 		expect(biquadGain(q, digitalHz, fs)).toBeCloseTo(Math.SQRT1_2, 12);
@@ -65,10 +71,14 @@ describe('weightingSections', () => {
 	}
 
 	it('230 V lamp: the weighting peaks near 8.8 Hz at unit gain (K normalises the peak; from memory)', () => {
-		let best = 0, bestHz = 0;
+		let best = 0,
+			bestHz = 0;
 		for (let hz = 5; hz <= 12; hz += 0.05) {
 			const g = analogueWeighting('230V', hz);
-			if (g > best) { best = g; bestHz = hz; }
+			if (g > best) {
+				best = g;
+				bestHz = hz;
+			}
 		}
 		expect(best).toBeCloseTo(1, 2);
 		expect(Math.abs(bestHz - 8.8)).toBeLessThan(0.5);

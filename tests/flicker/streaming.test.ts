@@ -67,7 +67,11 @@ describe('createFlickermeter streaming', () => {
 		const m = createFlickermeter({ sampleRateHz: 1600, nominalHz: 50 });
 		let first = true;
 		forEachChunk({ ...SPEC, durationS: 30, modulation: { shape: 'none' } }, (c) => {
-			if (first) { c[5000] = NaN; c[5001] = Infinity; first = false; }
+			if (first) {
+				c[5000] = NaN;
+				c[5001] = Infinity;
+				first = false;
+			}
 			m.push(c);
 		});
 		const r = m.finish();

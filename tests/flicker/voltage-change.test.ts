@@ -18,7 +18,10 @@ function track(levels: [number, number][], un = 230): VoltageChange[] {
 
 describe('createVoltageChangeTracker', () => {
 	it('a step 230 V -> 222 V between two 2 s steady states gives dc = dmax = 8/230 and Tmax = 0 (3.48 % is a change, not time beyond 3.3 % during it)', () => {
-		const c = track([[230, 200], [222, 200]]);
+		const c = track([
+			[230, 200],
+			[222, 200],
+		]);
 		expect(c).toHaveLength(1);
 		expect(c[0].dcPercent).toBeCloseTo((100 * 8) / 230, 9);
 		expect(c[0].ussBeforeV).toBe(230);
@@ -28,7 +31,11 @@ describe('createVoltageChangeTracker', () => {
 	});
 
 	it('a motor start: 230 V, 300 ms at 210 V, then steady 228 V gives dmax = 20/230, dc = 2/230, Tmax = 0.30 s', () => {
-		const c = track([[230, 150], [210, 30], [228, 150]]);
+		const c = track([
+			[230, 150],
+			[210, 30],
+			[228, 150],
+		]);
 		expect(c).toHaveLength(1);
 		expect(c[0].dmaxPercent).toBeCloseTo((100 * 20) / 230, 9);
 		expect(c[0].dcPercent).toBeCloseTo((100 * 2) / 230, 9);
@@ -37,7 +44,11 @@ describe('createVoltageChangeTracker', () => {
 	});
 
 	it('a dip of 3 % (inside 3.3 %) gives Tmax = 0', () => {
-		const c = track([[230, 150], [230 * 0.97, 40], [230, 150]]);
+		const c = track([
+			[230, 150],
+			[230 * 0.97, 40],
+			[230, 150],
+		]);
 		expect(c[0].tmaxS).toBe(0);
 		expect(c[0].dmaxPercent).toBeCloseTo(3, 9);
 		expect(c[0].dcPercent).toBeCloseTo(0, 9);
@@ -50,7 +61,10 @@ describe('createVoltageChangeTracker', () => {
 	});
 
 	it('a record ending during a change reports it unfinished with dc NaN', () => {
-		const c = track([[230, 150], [200, 20]]);
+		const c = track([
+			[230, 150],
+			[200, 20],
+		]);
 		expect(c).toHaveLength(1);
 		expect(c[0].ended).toBe(false);
 		expect(c[0].dcPercent).toBeNaN();
@@ -58,7 +72,11 @@ describe('createVoltageChangeTracker', () => {
 	});
 
 	it('two changes in a row each take the steady state before them as reference', () => {
-		const c = track([[230, 150], [225, 150], [220, 150]]);
+		const c = track([
+			[230, 150],
+			[225, 150],
+			[220, 150],
+		]);
 		expect(c).toHaveLength(2);
 		expect(c[0].dcPercent).toBeCloseTo((100 * 5) / 230, 9);
 		expect(c[1].ussBeforeV).toBe(225);
@@ -74,7 +92,13 @@ describe('createHalfPeriodRms', () => {
 	it('a 230 V RMS, 50 Hz sine gives 230 V per half period (sin² over a half period averages 1/2), 100 values per second', () => {
 		const values: number[] = [];
 		const h = createHalfPeriodRms(6400, 50, (_t, v) => values.push(v));
-		const x = sineSamples({ amplitude: 230 * Math.SQRT2, frequencyHz: 50, sampleRateHz: 6400, cycles: 50, phaseDeg: 10 });
+		const x = sineSamples({
+			amplitude: 230 * Math.SQRT2,
+			frequencyHz: 50,
+			sampleRateHz: 6400,
+			cycles: 50,
+			phaseDeg: 10,
+		});
 		h.push(x.subarray(0, 1000));
 		h.push(x.subarray(1000));
 		expect(values.length).toBeGreaterThanOrEqual(98);

@@ -70,7 +70,7 @@ export function shapeSamples(
 	const out = new Float64Array(n);
 	const a = opts.amplitude;
 	for (let i = 0; i < n; i++) {
-		const u = (((i * opts.frequencyHz) / opts.sampleRateHz) % 1 + 1) % 1; // position in the cycle, 0..1
+		const u = ((((i * opts.frequencyHz) / opts.sampleRateHz) % 1) + 1) % 1; // position in the cycle, 0..1
 		switch (shape) {
 			case 'square':
 				out[i] = u < 0.5 ? a : -a;

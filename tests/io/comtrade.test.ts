@@ -1,7 +1,12 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { ImportError, parseComtrade, parseComtradeCff } from '../../lib/index.js';
-import { comtradeCffBytes, comtradeCfgText, comtradeDatBytes, type WriterSpec } from '../../sample-waves/writers/comtrade.js';
+import {
+	comtradeCffBytes,
+	comtradeCfgText,
+	comtradeDatBytes,
+	type WriterSpec,
+} from '../../sample-waves/writers/comtrade.js';
 
 const FIX = 'tests/fixtures/comtrade/';
 const text = (name: string) => readFileSync(FIX + name, 'utf8');
@@ -74,11 +79,20 @@ describe('parseComtrade on a hand-written 1999 ASCII record (tests/fixtures/comt
 		const commas = text('good-1999.cfg').replace(/\n/g, ',\n');
 		const t = parseComtrade(commas, bytes('good-1999.dat'), 'commas.cfg');
 		expect(t.channels.map((ch) => Array.from(ch.samples))).toEqual(c.channels.map((ch) => Array.from(ch.samples)));
-		expect([t.sampleRateHz, t.startS, t.digital?.length, t.metadata['comtrade.timemult']]).toEqual([c.sampleRateHz, c.startS, 1, '1']);
+		expect([t.sampleRateHz, t.startS, t.digital?.length, t.metadata['comtrade.timemult']]).toEqual([
+			c.sampleRateHz,
+			c.startS,
+			1,
+			'1',
+		]);
 	});
 
 	it('parseComtrade reads LF and CRLF versions of the same record identically', () => {
-		const crlf = parseComtrade(text('good-1999.cfg').replace(/\n/g, '\r\n'), new TextEncoder().encode(text('good-1999.dat').replace(/\n/g, '\r\n')), 'x.cfg');
+		const crlf = parseComtrade(
+			text('good-1999.cfg').replace(/\n/g, '\r\n'),
+			new TextEncoder().encode(text('good-1999.dat').replace(/\n/g, '\r\n')),
+			'x.cfg',
+		);
 		expect(crlf.channels.map((ch) => Array.from(ch.samples))).toEqual(c.channels.map((ch) => Array.from(ch.samples)));
 		expect(crlf.diagnostics.some((d) => d.code === 'comtrade-lf-line-ends')).toBe(false);
 		expect(c.diagnostics.some((d) => d.code === 'comtrade-lf-line-ends')).toBe(true);
@@ -88,8 +102,20 @@ describe('parseComtrade on a hand-written 1999 ASCII record (tests/fixtures/comt
 describe('parseComtrade on binary records built byte by byte in the test', () => {
 	// BINARY layout (IEEE C37.111, docs/methods.md §8.2: read in a secondary source, python-comtrade's reader): uint32 n, uint32 stamp,
 	// int16 per analog, uint16 per 16 digital channels, little-endian.
-	const cfg = ['Bench,rig,1999', '2,1A,1D', '1,Ia,A,feeder,A,0.001,0.5,0,-32767,32767,100,1,P', '1,trip,,,1', '60', '1', '2000,3',
-		'05/03/2026,12:00:00.000000', '05/03/2026,12:00:00.000000', 'BINARY', '1', ''].join('\r\n');
+	const cfg = [
+		'Bench,rig,1999',
+		'2,1A,1D',
+		'1,Ia,A,feeder,A,0.001,0.5,0,-32767,32767,100,1,P',
+		'1,trip,,,1',
+		'60',
+		'1',
+		'2000,3',
+		'05/03/2026,12:00:00.000000',
+		'05/03/2026,12:00:00.000000',
+		'BINARY',
+		'1',
+		'',
+	].join('\r\n');
 	const record = (n: number, stamp: number, value: number, bits: number) => {
 		const b = new Uint8Array(12);
 		const v = new DataView(b.buffer);
@@ -127,10 +153,22 @@ function spec(fileType: WriterSpec['fileType'], extra: Partial<WriterSpec> = {})
 	const va = Float64Array.from({ length: n }, (_, k) => 325 * Math.sin((2 * Math.PI * k) / 32));
 	const ia = Float64Array.from({ length: n }, (_, k) => 14 * Math.sin((2 * Math.PI * k) / 32 - 0.5));
 	return {
-		station: 'Kiln Yard', device: 'relay-7', revYear: 2013, lineFrequencyHz: 50, rates: [{ sampleRateHz: 1600, endSample: n }],
-		firstData: '01/03/2026,08:00:00.000000', trigger: '01/03/2026,08:00:00.010000', fileType,
-		analog: [{ name: 'VA', unit: 'V', values: va }, { name: 'IA', unit: 'A', values: ia }],
-		digital: Array.from({ length: 17 }, (_, d) => ({ name: `S${d + 1}`, states: Array.from({ length: n }, (_, k) => ((k >> (d % 5)) & 1)) })),
+		station: 'Kiln Yard',
+		device: 'relay-7',
+		revYear: 2013,
+		lineFrequencyHz: 50,
+		rates: [{ sampleRateHz: 1600, endSample: n }],
+		firstData: '01/03/2026,08:00:00.000000',
+		trigger: '01/03/2026,08:00:00.010000',
+		fileType,
+		analog: [
+			{ name: 'VA', unit: 'V', values: va },
+			{ name: 'IA', unit: 'A', values: ia },
+		],
+		digital: Array.from({ length: 17 }, (_, d) => ({
+			name: `S${d + 1}`,
+			states: Array.from({ length: n }, (_, k) => (k >> (d % 5)) & 1),
+		})),
 		...extra,
 	};
 }
@@ -142,7 +180,10 @@ describe('parseComtrade round trip through the writer in sample-waves/writers', 
 			const cfgText = comtradeCfgText(s);
 			const c = parseComtrade(cfgText, comtradeDatBytes(s), 'rt.cfg');
 			// the multiplier a is field 6 of each analog line of the written .cfg
-			const a = cfgText.split('\r\n').slice(2, 4).map((l) => Number(l.split(',')[5]));
+			const a = cfgText
+				.split('\r\n')
+				.slice(2, 4)
+				.map((l) => Number(l.split(',')[5]));
 			s.analog.forEach((ch, i) => {
 				const tol = ft === 'FLOAT32' ? 1e-4 * 325 : a[i] / 2 + 1e-9;
 				for (let k = 0; k < 64; k++) expect(Math.abs(c.channels[i].samples[k] - ch.values[k])).toBeLessThanOrEqual(tol);
@@ -158,14 +199,22 @@ describe('parseComtrade round trip through the writer in sample-waves/writers', 
 			const s = spec(ft);
 			const split = parseComtrade(comtradeCfgText(s), comtradeDatBytes(s), 'x.cfg');
 			const single = parseComtradeCff(comtradeCffBytes(s, 'header note'), 'x.cff');
-			expect(single.channels.map((ch) => Array.from(ch.samples))).toEqual(split.channels.map((ch) => Array.from(ch.samples)));
+			expect(single.channels.map((ch) => Array.from(ch.samples))).toEqual(
+				split.channels.map((ch) => Array.from(ch.samples)),
+			);
 			expect(single.metadata['comtrade.hdr']).toBe('header note');
 		}
 	});
 
 	it('parseComtrade with nrates = 0 takes the time stamps × timemult as the time base', () => {
 		// stamps 0, 100, 250, 450 with timemult 2 -> 0, 200, 500, 900 µs after the first sample
-		const s = spec('ASCII', { rates: [], stampsUs: [0, 100, 250, 450], timeMult: 2, analog: [{ name: 'VA', unit: 'V', values: [1, 2, 3, 4] }], digital: [] });
+		const s = spec('ASCII', {
+			rates: [],
+			stampsUs: [0, 100, 250, 450],
+			timeMult: 2,
+			analog: [{ name: 'VA', unit: 'V', values: [1, 2, 3, 4] }],
+			digital: [],
+		});
 		const c = parseComtrade(comtradeCfgText(s), comtradeDatBytes(s), 'ts.cfg');
 		expect(Array.from(c.timeS!)).toEqual([0, 200e-6, 500e-6, 900e-6].map((t) => expect.closeTo(t - 0.01, 12)));
 		// mean rate = (N − 1)/(t_last − t_first) = 3 / 900 µs
@@ -175,7 +224,14 @@ describe('parseComtrade round trip through the writer in sample-waves/writers', 
 
 	it('parseComtrade with two sampling rates keeps each sample at its own time and warns', () => {
 		// 4 samples at 1000 Hz then 2 at 250 Hz: times 0, 1, 2, 3, 7, 11 ms from the first sample
-		const s = spec('ASCII', { rates: [{ sampleRateHz: 1000, endSample: 4 }, { sampleRateHz: 250, endSample: 6 }], analog: [{ name: 'VA', unit: 'V', values: [1, 2, 3, 4, 5, 6] }], digital: [] });
+		const s = spec('ASCII', {
+			rates: [
+				{ sampleRateHz: 1000, endSample: 4 },
+				{ sampleRateHz: 250, endSample: 6 },
+			],
+			analog: [{ name: 'VA', unit: 'V', values: [1, 2, 3, 4, 5, 6] }],
+			digital: [],
+		});
 		const c = parseComtrade(comtradeCfgText(s), comtradeDatBytes(s), 'mr.cfg');
 		expect(Array.from(c.timeS!)).toEqual([0, 1, 2, 3, 7, 11].map((ms) => expect.closeTo(ms / 1000 - 0.01, 12)));
 		expect(c.sampleRateHz).toBeCloseTo(5 / 0.011, 9);
@@ -200,7 +256,11 @@ describe('parseComtrade on other revisions and value types', () => {
 
 	it('parseComtrade(BINARY32, FLOAT32) marks the missing values 0x80000000 and NaN as NaN', () => {
 		for (const ft of ['BINARY32', 'FLOAT32'] as const) {
-			const s = spec(ft, { analog: [{ name: 'VA', unit: 'V', values: [1, NaN, 3, 4], a: 0.5 }], digital: [], rates: [{ sampleRateHz: 1000, endSample: 4 }] });
+			const s = spec(ft, {
+				analog: [{ name: 'VA', unit: 'V', values: [1, NaN, 3, 4], a: 0.5 }],
+				digital: [],
+				rates: [{ sampleRateHz: 1000, endSample: 4 }],
+			});
 			const c = parseComtrade(comtradeCfgText(s), comtradeDatBytes(s), 'm.cfg');
 			expect(Array.from(c.channels[0].samples)).toEqual([1, NaN, 3, 4]);
 			expect(c.diagnostics.find((d) => d.code === 'comtrade-missing-values')?.message).toContain('1 of 4');
@@ -209,7 +269,21 @@ describe('parseComtrade on other revisions and value types', () => {
 
 	it('parseComtrade(2013 .cfg with 9-digit time stamps) reads the .dat stamps as nanoseconds', () => {
 		// stamps 0, 250, 750 ns with nrates = 0; first data 1 µs before the trigger
-		const cfg = ['Lab,r,2013', '1,1A,0D', '1,VA,,,V,1,0,0,-99999,99998,1,1,P', '50', '0', '0,3', '01/01/2026,00:00:00.000000000', '01/01/2026,00:00:00.000001000', 'ASCII', '1', '0,0', '0,0', ''].join('\r\n');
+		const cfg = [
+			'Lab,r,2013',
+			'1,1A,0D',
+			'1,VA,,,V,1,0,0,-99999,99998,1,1,P',
+			'50',
+			'0',
+			'0,3',
+			'01/01/2026,00:00:00.000000000',
+			'01/01/2026,00:00:00.000001000',
+			'ASCII',
+			'1',
+			'0,0',
+			'0,0',
+			'',
+		].join('\r\n');
 		const c = parseComtrade(cfg, enc('1,0,1\r\n2,250,2\r\n3,750,3\r\n'), 'ns.cfg');
 		expect(Array.from(c.timeS!)).toEqual([-1e-6, -0.75e-6, -0.25e-6].map((t) => expect.closeTo(t, 15)));
 	});
@@ -253,7 +327,11 @@ describe('parseComtrade errors: one fixture per code with its line and column', 
 			return thrown(() => parseComtrade(cfg, enc(r.join('\n') + '\n'), 'r.cfg'));
 		};
 		// short: 4 of 5 fields; the column is just past the end of the line (length 12 + 1)
-		expect([at('3,2000,0,30', 2).code, at('3,2000,0,30', 2).line, at('3,2000,0,30', 2).column]).toEqual(['dat-syntax', 3, 12]);
+		expect([at('3,2000,0,30', 2).code, at('3,2000,0,30', 2).line, at('3,2000,0,30', 2).column]).toEqual([
+			'dat-syntax',
+			3,
+			12,
+		]);
 		// long: a sixth field "7" starts at column 15 of "3,2000,0,30,1,7"
 		expect([at('3,2000,0,30,1,7', 2).line, at('3,2000,0,30,1,7', 2).column]).toEqual([3, 15]);
 		// digital state 2 at column 13 of "4,3000,5,40,2"
@@ -261,7 +339,11 @@ describe('parseComtrade errors: one fixture per code with its line and column', 
 	});
 
 	it('parseComtrade warns when sample numbers skip (records missing) and points at the first break', () => {
-		const c = parseComtrade(text('good-1999.cfg'), enc('1,0,100,10,0\n2,1000,-50,20,0\n4,3000,0,30,1\n5,4000,5,40,1\n'), 'g.cfg');
+		const c = parseComtrade(
+			text('good-1999.cfg'),
+			enc('1,0,100,10,0\n2,1000,-50,20,0\n4,3000,0,30,1\n5,4000,5,40,1\n'),
+			'g.cfg',
+		);
 		const d = c.diagnostics.find((x) => x.code === 'comtrade-sample-number-break');
 		expect(d?.severity).toBe('warning');
 		expect(d?.message).toContain('line 3 of g.dat');
@@ -269,14 +351,26 @@ describe('parseComtrade errors: one fixture per code with its line and column', 
 
 	it('parseComtrade warns when the time stamps span a different time than the sample rate gives', () => {
 		// 4 samples at 1000 Hz span 3 ms; stamps 0 … 6000 µs span 6 ms
-		const c = parseComtrade(text('good-1999.cfg'), enc('1,0,100,10,0\n2,2000,-50,20,0\n3,4000,0,30,1\n4,6000,5,40,1\n'), 'g.cfg');
+		const c = parseComtrade(
+			text('good-1999.cfg'),
+			enc('1,0,100,10,0\n2,2000,-50,20,0\n3,4000,0,30,1\n4,6000,5,40,1\n'),
+			'g.cfg',
+		);
 		expect(c.diagnostics.find((x) => x.code === 'comtrade-stamps-disagree')?.severity).toBe('warning');
 		expect(c.sampleRateHz).toBe(1000);
-		expect(open('good-1999').diagnostics.some((x) => x.code === 'comtrade-stamps-disagree' || x.code === 'comtrade-sample-number-break')).toBe(false);
+		expect(
+			open('good-1999').diagnostics.some(
+				(x) => x.code === 'comtrade-stamps-disagree' || x.code === 'comtrade-sample-number-break',
+			),
+		).toBe(false);
 	});
 
 	it('parseComtrade(.dat with a trailing comma and a blank analog field) reads the row, the blank as missing', () => {
-		const c = parseComtrade(text('good-1999.cfg'), enc('1,0,100,10,0,\r\n2,1000,,20,0\r\n3,2000,0,30,1\r\n4,3000,5,40,1\r\n'), 'b.cfg');
+		const c = parseComtrade(
+			text('good-1999.cfg'),
+			enc('1,0,100,10,0,\r\n2,1000,,20,0\r\n3,2000,0,30,1\r\n4,3000,5,40,1\r\n'),
+			'b.cfg',
+		);
 		expect(c.channels[0].samples[0]).toBeCloseTo(1000, 9);
 		expect(c.channels[0].samples[1]).toBeNaN();
 		expect(c.channels[0].samples[3]).toBeCloseTo(50, 9);
@@ -289,7 +383,12 @@ describe('parseComtrade errors: one fixture per code with its line and column', 
 	});
 
 	it('parseComtradeCff reports CFG errors with lines counted in the .cff', () => {
-		const cff = new TextEncoder().encode('--- file type: CFG ---\n' + text('err-cfg-syntax.cfg') + '--- file type: DAT ASCII ---\n' + text('good-1999.dat'));
+		const cff = new TextEncoder().encode(
+			'--- file type: CFG ---\n' +
+				text('err-cfg-syntax.cfg') +
+				'--- file type: DAT ASCII ---\n' +
+				text('good-1999.dat'),
+		);
 		const e = thrown(() => parseComtradeCff(cff, 'x.cff'));
 		expect([e.code, e.line]).toEqual(['cfg-syntax', 4]);
 	});

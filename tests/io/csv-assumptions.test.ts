@@ -24,7 +24,8 @@ const codes = (c: Capture) => c.diagnostics.map((d) => d.code);
 const find = (c: Capture, code: string) => c.diagnostics.filter((d) => d.code === code);
 
 // Library option keys that must not appear in messages shown by both the CLI and the web front end.
-const OPTION_KEYS = /channels\.|clampMvPerA|shuntOhms|timeUnit|timeColumn|sampleRateHz|decimalMark|headerRow|in the options/;
+const OPTION_KEYS =
+	/channels\.|clampMvPerA|shuntOhms|timeUnit|timeColumn|sampleRateHz|decimalMark|headerRow|in the options/;
 
 describe('parseCsv: a comma that is either a delimiter or a decimal mark', () => {
 	it('parseCsv(one column named U1, rows like 20,412) reads decimal commas and says it assumed so', () => {
@@ -60,7 +61,11 @@ describe('parseCsv: a comma that is either a delimiter or a decimal mark', () =>
 	});
 
 	it('parseCsv(the one-column file with the delimiter set to comma) follows the setting with no ambiguity note', () => {
-		const c = parseCsv(fixture('decimal-comma-one-column.csv'), 'a.csv', { sampleRateHz: 1000, delimiter: ',', decimalMark: '.' });
+		const c = parseCsv(fixture('decimal-comma-one-column.csv'), 'a.csv', {
+			sampleRateHz: 1000,
+			delimiter: ',',
+			decimalMark: '.',
+		});
 		expect(c.channels).toHaveLength(2);
 		expect(codes(c)).not.toContain('comma-ambiguous');
 	});

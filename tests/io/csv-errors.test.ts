@@ -42,7 +42,11 @@ describe('parseCsv errors', () => {
 	for (const c of cases) {
 		it(`parseCsv(${c.file}) throws ImportError ${c.code} at line ${c.line}, column ${c.column}`, () => {
 			const e = errorOf(() => parseCsv(fixture(c.file), c.file));
-			expect({ code: e.code, line: e.line, column: e.column, text: e.text, source: e.source }).toEqual({ ...c, source: c.file, file: undefined });
+			expect({ code: e.code, line: e.line, column: e.column, text: e.text, source: e.source }).toEqual({
+				...c,
+				source: c.file,
+				file: undefined,
+			});
 			expect(e.expected.length).toBeGreaterThan(0);
 			expect(isImportError(e)).toBe(true);
 		});
@@ -64,7 +68,9 @@ describe('parseCsv errors', () => {
 		expect(errorOf(() => parseCsv('t,U1\n0,1\n1,2\n', 'a.csv', { timeColumn: 5 })).code).toBe('bad-option');
 		expect(errorOf(() => parseCsv('t,U1\n0,1\n1,2\n', 'a.csv', { headerRow: 9 })).code).toBe('bad-option');
 		expect(errorOf(() => parseCsv('U1\n1\n2\n', 'a.csv', { sampleRateHz: -5 })).text).toBe('sampleRateHz = -5');
-		expect(errorOf(() => parseCsv('t,U1\n0,1\n1,2\n', 'a.csv', { channels: { U1: { shuntOhms: 0 } } })).code).toBe('bad-option');
+		expect(errorOf(() => parseCsv('t,U1\n0,1\n1,2\n', 'a.csv', { channels: { U1: { shuntOhms: 0 } } })).code).toBe(
+			'bad-option',
+		);
 	});
 
 	it('parseCsv(an empty cell) throws bad-number at that cell, not a silent NaN', () => {

@@ -56,12 +56,20 @@ const validBytes = fc.constantFrom(...VALID.map(enc));
 
 describe('CSV reader fuzz', () => {
 	it('parseCsv(random bytes) returns a capture or throws ImportError', () => {
-		fc.assert(fc.property(fc.uint8Array({ maxLength: 3000 }), (b) => check(() => parseCsv(b, 'f.csv'))), { numRuns: 400 });
+		fc.assert(
+			fc.property(fc.uint8Array({ maxLength: 3000 }), (b) => check(() => parseCsv(b, 'f.csv'))),
+			{ numRuns: 400 },
+		);
 	});
 
 	it('parseCsv(random CSV-like text) returns a capture or throws ImportError', () => {
-		const unit = fc.constantFrom(...'0123456789012345678901234567890123456789,,,;;\t  \n\n\r..--eE"aV()[]#:=µ'.split(''));
-		fc.assert(fc.property(fc.string({ unit, maxLength: 600 }), (s) => check(() => parseCsv(s, 'f.csv'))), { numRuns: 600 });
+		const unit = fc.constantFrom(
+			...'0123456789012345678901234567890123456789,,,;;\t  \n\n\r..--eE"aV()[]#:=µ'.split(''),
+		);
+		fc.assert(
+			fc.property(fc.string({ unit, maxLength: 600 }), (s) => check(() => parseCsv(s, 'f.csv'))),
+			{ numRuns: 600 },
+		);
 	});
 
 	it('parseCsv(valid files cut at any byte) returns a capture or throws ImportError', () => {
@@ -113,7 +121,11 @@ describe('CSV reader fuzz', () => {
 function outcome(run: () => Capture): unknown {
 	try {
 		const c = run();
-		return { ...c, channels: c.channels.map((ch) => ({ ...ch, samples: Array.from(ch.samples) })), timeS: c.timeS && Array.from(c.timeS) };
+		return {
+			...c,
+			channels: c.channels.map((ch) => ({ ...ch, samples: Array.from(ch.samples) })),
+			timeS: c.timeS && Array.from(c.timeS),
+		};
 	} catch (e) {
 		if (!(e instanceof ImportError)) throw e;
 		return { code: e.code, line: e.line, column: e.column, text: e.text };

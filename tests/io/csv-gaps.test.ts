@@ -15,7 +15,11 @@ function csv(rows: number, bad: Record<number, { col: 1 | 2 | 0; text: string }>
 	const out = ['t (s),U1 (V),I1 (A)'];
 	for (let k = 0; k < rows; k++) {
 		const t = k / FS;
-		const cells = [t.toFixed(4), (325.27 * Math.sin(2 * Math.PI * 50 * t)).toFixed(3), (14.14 * Math.sin(2 * Math.PI * 50 * t - Math.PI / 6)).toFixed(4)];
+		const cells = [
+			t.toFixed(4),
+			(325.27 * Math.sin(2 * Math.PI * 50 * t)).toFixed(3),
+			(14.14 * Math.sin(2 * Math.PI * 50 * t - Math.PI / 6)).toFixed(4),
+		];
 		const b = bad[out.length + 1];
 		if (b) cells[b.col] = b.text;
 		out.push(cells.join(','));
@@ -46,7 +50,16 @@ describe('unreadableCells: gap', () => {
 	});
 
 	it('several cells in one line, an empty cell, CRLF line ends and cells across chunk boundaries are all found', () => {
-		const text = csv(30_000, { 3: { col: 1, text: 'OVL' }, 40: { col: 2, text: '' }, 41: { col: 1, text: '--' }, 20_001: { col: 2, text: 'err' } }, true);
+		const text = csv(
+			30_000,
+			{
+				3: { col: 1, text: 'OVL' },
+				40: { col: 2, text: '' },
+				41: { col: 1, text: '--' },
+				20_001: { col: 2, text: 'err' },
+			},
+			true,
+		);
 		const bytes = new TextEncoder().encode(text.replace('\r\n40', '\r\n40'));
 		const line3 = text.split('\r\n')[2];
 		const r = new CsvStreamReader('many.csv', { unreadableCells: 'gap' }, { totalBytes: bytes.length });
@@ -63,7 +76,9 @@ describe('unreadableCells: gap', () => {
 	});
 
 	it('a bad time cell still refuses the file (a row without a time cannot be placed)', () => {
-		expect(() => parseCsv(csv(100, { 50: { col: 0, text: 'x' } }), 't.csv', { unreadableCells: 'gap' })).toThrow(/t\.csv:50:1: bad-number/);
+		expect(() => parseCsv(csv(100, { 50: { col: 0, text: 'x' } }), 't.csv', { unreadableCells: 'gap' })).toThrow(
+			/t\.csv:50:1: bad-number/,
+		);
 	});
 });
 

@@ -19,13 +19,18 @@ describe('parseCsv: delimiters and decimal marks', () => {
 		expect(c.channels[1].scaling?.factor).toBe(0.001);
 		// 0.1 ms step = 10 kHz (closed form: 1 / 0.1e-3 s)
 		expect(c.sampleRateHz).toBeCloseTo(10_000, 6);
-		expect(codes(c)).toEqual(expect.arrayContaining(['decimal-comma', 'line-break', 'delimiter', 'header', 'time-column', 'unit-normalised']));
+		expect(codes(c)).toEqual(
+			expect.arrayContaining(['decimal-comma', 'line-break', 'delimiter', 'header', 'time-column', 'unit-normalised']),
+		);
 	});
 
 	it('detectCsvLayout(head) reports the delimiter and decimal mark of 0,707;-3,25 as semicolon and comma', () => {
 		const l = detectCsvLayout('U1;U2\n0,707;-3,25\n0,5;1,25\n', { sampleRateHz: 1000 });
 		expect([l.delimiter, l.decimalMark, l.headerLine, l.bodyLine]).toEqual([';', ',', 1, 2]);
-		expect(l.preview).toEqual([['0,707', '-3,25'], ['0,5', '1,25']]);
+		expect(l.preview).toEqual([
+			['0,707', '-3,25'],
+			['0,5', '1,25'],
+		]);
 	});
 
 	it('parseCsv(tab-separated, decimal comma) reads the values', () => {
@@ -35,7 +40,10 @@ describe('parseCsv: delimiters and decimal marks', () => {
 	});
 
 	it('parseCsv(columns aligned with runs of spaces) reads space-separated values', () => {
-		const c = parseCsv('   time      UL1      UL2\n  0.000    325.0   -162.5\n  0.001    320.5   -150.0\n  0.002    310.0   -140.25\n', 'a.txt');
+		const c = parseCsv(
+			'   time      UL1      UL2\n  0.000    325.0   -162.5\n  0.001    320.5   -150.0\n  0.002    310.0   -140.25\n',
+			'a.txt',
+		);
 		expect(values(c, 0)).toEqual([325, 320.5, 310]);
 		expect(values(c, 1)).toEqual([-162.5, -150, -140.25]);
 		expect(c.diagnostics.find((d) => d.code === 'delimiter')?.message).toMatch(/spaces/);
@@ -91,9 +99,15 @@ describe('parseCsv: delimiters and decimal marks', () => {
 
 describe('parseCsv: header, units, preamble', () => {
 	it('parseCsv(header units in four forms and with prefixes) gives names without units and values in V and A', () => {
-		const c = parseCsv('t/s,U1 in kV,U2 [V],I1 (kA),I2/mA\n0,0.5,1,1.25,250\n1,0.25,2,2.5,500\n2,1,3,0.5,750\n', 'a.csv');
+		const c = parseCsv(
+			't/s,U1 in kV,U2 [V],I1 (kA),I2/mA\n0,0.5,1,1.25,250\n1,0.25,2,2.5,500\n2,1,3,0.5,750\n',
+			'a.csv',
+		);
 		expect(c.channels.map((ch) => [ch.name, ch.unit, ch.quantity])).toEqual([
-			['U1', 'V', 'voltage'], ['U2', 'V', 'voltage'], ['I1', 'A', 'current'], ['I2', 'A', 'current'],
+			['U1', 'V', 'voltage'],
+			['U2', 'V', 'voltage'],
+			['I1', 'A', 'current'],
+			['I2', 'A', 'current'],
 		]);
 		// kV x 1000, kA x 1000, mA / 1000 (SI prefixes)
 		expect(values(c, 0)).toEqual([500, 250, 1000]);
@@ -123,7 +137,12 @@ describe('parseCsv: header, units, preamble', () => {
 			'0;0',
 		].join('\n');
 		const c = parseCsv(text, 'a.csv');
-		expect(c.metadata).toEqual({ Site: 'Workshop feeder, board 2', 'Start time': '2031-05-14 09:30:00.250', 'Sample interval': '0,2 ms', 'Nominal frequency': '50 Hz' });
+		expect(c.metadata).toEqual({
+			Site: 'Workshop feeder, board 2',
+			'Start time': '2031-05-14 09:30:00.250',
+			'Sample interval': '0,2 ms',
+			'Nominal frequency': '50 Hz',
+		});
 		// 0.2 ms interval = 5000 Hz
 		expect(c.sampleRateHz).toBeCloseTo(5000, 9);
 		expect(c.startTime).toBe('2031-05-14T09:30:00.250');
@@ -143,10 +162,16 @@ describe('parseCsv: header, units, preamble', () => {
 
 	it('parseCsv(options) overrides the header row, units, quantity and time column', () => {
 		const c = parseCsv('0,1,2\n1,3,4\n2,5,6\n', 'a.csv', {
-			headerRow: 'none', timeColumn: 'none', sampleRateHz: 2000,
+			headerRow: 'none',
+			timeColumn: 'none',
+			sampleRateHz: 2000,
 			channels: { col1: { name: 'Ua', unit: 'V' }, col2: { unit: 'mA' }, col3: { quantity: 'other' } },
 		});
-		expect(c.channels.map((ch) => [ch.name, ch.unit, ch.quantity])).toEqual([['Ua', 'V', 'voltage'], ['col2', 'A', 'current'], ['col3', '', 'other']]);
+		expect(c.channels.map((ch) => [ch.name, ch.unit, ch.quantity])).toEqual([
+			['Ua', 'V', 'voltage'],
+			['col2', 'A', 'current'],
+			['col3', '', 'other'],
+		]);
 		expect(values(c, 1)).toEqual([0.001, 0.003, 0.005]);
 		expect(c.sampleRateHz).toBe(2000);
 	});
@@ -208,7 +233,10 @@ describe('parseCsv: time base', () => {
 	});
 
 	it('parseCsv(date-and-time stamps with a decimal comma, across midnight) counts time from the first stamp', () => {
-		const c = parseCsv('Timestamp;U1 [V]\n2031-05-14 23:59:59,9990;1,5\n2031-05-14 23:59:59,9995;2\n2031-05-15 00:00:00,0000;3\n2031-05-15 00:00:00,0005;4\n', 'a.csv');
+		const c = parseCsv(
+			'Timestamp;U1 [V]\n2031-05-14 23:59:59,9990;1,5\n2031-05-14 23:59:59,9995;2\n2031-05-15 00:00:00,0000;3\n2031-05-15 00:00:00,0005;4\n',
+			'a.csv',
+		);
 		// 0.5 ms steps = 2 kHz; the first stamp is the wall-clock start
 		expect(c.sampleRateHz).toBe(2000);
 		expect(c.startS).toBe(0);
@@ -223,7 +251,10 @@ describe('parseCsv: time base', () => {
 	});
 
 	it('parseCsv(a Date column then a Time column, decimal comma) joins them into the time base', () => {
-		const c = parseCsv('Date;Time;U1 [V];I1 [A]\n14.05.2031;23:59:59,998;1,5;2\n14.05.2031;23:59:59,999;2;3\n15.05.2031;00:00:00,000;3;4\n', 'a.csv');
+		const c = parseCsv(
+			'Date;Time;U1 [V];I1 [A]\n14.05.2031;23:59:59,998;1,5;2\n14.05.2031;23:59:59,999;2;3\n15.05.2031;00:00:00,000;3;4\n',
+			'a.csv',
+		);
 		// 1 ms steps = 1 kHz, across midnight
 		expect(c.sampleRateHz).toBe(1000);
 		expect(c.startTime).toBe('2031-05-14T23:59:59.998');
@@ -232,13 +263,18 @@ describe('parseCsv: time base', () => {
 	});
 
 	it('parseCsv(date and time separated by the same spaces as the columns) joins them too', () => {
-		const c = parseCsv('date time U1\n2031-05-14 12:00:00.000 1\n2031-05-14 12:00:00.001 2\n2031-05-14 12:00:00.002 3\n', 'a.txt');
+		const c = parseCsv(
+			'date time U1\n2031-05-14 12:00:00.000 1\n2031-05-14 12:00:00.001 2\n2031-05-14 12:00:00.002 3\n',
+			'a.txt',
+		);
 		expect(c.sampleRateHz).toBe(1000);
 		expect(values(c, 0)).toEqual([1, 2, 3]);
 	});
 
 	it('parseCsv(a broken time-of-day stamp) throws bad-number at that cell', () => {
-		expect(() => parseCsv('time,U1\n12:00:00.000,1\n12:00:00.001,2\n12:00:0x,3\n', 'a.csv')).toThrow(/a.csv:4:1: bad-number/);
+		expect(() => parseCsv('time,U1\n12:00:00.000,1\n12:00:00.001,2\n12:00:0x,3\n', 'a.csv')).toThrow(
+			/a.csv:4:1: bad-number/,
+		);
 	});
 
 	it('parseCsv(a preamble that says the export is decimated) warns that not every sample is there', () => {
@@ -286,7 +322,8 @@ describe('parseCsv: scaling, quantities and phases', () => {
 	});
 
 	it('parseCsv(a scope-style preamble with interval, trigger and a units list) reads rate and time', () => {
-		const text = 'Record Length,4\nSample Interval,1.0E-05\nUnits,V,V\nTime,CH1,CH2\n-2.0E-05,0.125,-1.5\n-1.0E-05,0.25,-1.25\n0.0E+00,0.5,-1\n1.0E-05,1,-0.5\n';
+		const text =
+			'Record Length,4\nSample Interval,1.0E-05\nUnits,V,V\nTime,CH1,CH2\n-2.0E-05,0.125,-1.5\n-1.0E-05,0.25,-1.25\n0.0E+00,0.5,-1\n1.0E-05,1,-0.5\n';
 		const c = parseCsv(text, 'scope.csv');
 		expect(c.sampleRateHz).toBeCloseTo(100_000, 3);
 		expect(c.startS).toBeCloseTo(-2e-5, 15);
@@ -307,7 +344,12 @@ describe('parseCsv: scaling, quantities and phases', () => {
 		expect(values(c, 1)).toEqual([5, 10]); // 0.5 V / 0.1 V/A
 		expect(values(c, 2)).toEqual([25, 50]); // 0.25 V / 0.01 ohm
 		expect(values(c, 3)).toEqual([40, 80]); // 1 A x 200/5
-		expect(c.channels.map((ch) => [ch.unit, ch.quantity])).toEqual([['V', 'voltage'], ['A', 'current'], ['A', 'current'], ['A', 'current']]);
+		expect(c.channels.map((ch) => [ch.unit, ch.quantity])).toEqual([
+			['V', 'voltage'],
+			['A', 'current'],
+			['A', 'current'],
+			['A', 'current'],
+		]);
 	});
 
 	it('parseCsv(a current-named channel recorded in volts) keeps the unit and warns about the disagreement', () => {
@@ -319,9 +361,15 @@ describe('parseCsv: scaling, quantities and phases', () => {
 	it('parseCsv(phase names in the usual schemes) fills Channel.phase', () => {
 		const c = parseCsv('t;UL1;UL2;UL3;Ia;Ib;Ic;IN;V_R;U12\n0;1;2;3;4;5;6;7;8;9\n1;1;2;3;4;5;6;7;8;9\n', 'a.csv');
 		expect(c.channels.map((ch) => [ch.name, ch.quantity, ch.phase])).toEqual([
-			['UL1', 'voltage', 'L1'], ['UL2', 'voltage', 'L2'], ['UL3', 'voltage', 'L3'],
-			['Ia', 'current', 'A'], ['Ib', 'current', 'B'], ['Ic', 'current', 'C'], ['IN', 'current', 'N'],
-			['V_R', 'voltage', 'R'], ['U12', 'voltage', 'L1-L2'], // one form in every format (L1-L2, as COMTRADE and WAV give)
+			['UL1', 'voltage', 'L1'],
+			['UL2', 'voltage', 'L2'],
+			['UL3', 'voltage', 'L3'],
+			['Ia', 'current', 'A'],
+			['Ib', 'current', 'B'],
+			['Ic', 'current', 'C'],
+			['IN', 'current', 'N'],
+			['V_R', 'voltage', 'R'],
+			['U12', 'voltage', 'L1-L2'], // one form in every format (L1-L2, as COMTRADE and WAV give)
 		]);
 	});
 

@@ -7,7 +7,8 @@ import { looksLikeUnitsRow, readUnit, splitNameUnit } from '../../lib/io/csv/uni
 
 describe('splitNameUnit', () => {
 	it('splitNameUnit(cell) reads the four usual forms U1 (V), U1 [V], U1/V, U1 in V', () => {
-		for (const cell of ['U1 (V)', 'U1 [V]', 'U1/V', 'U1 in V', ' U1 (V) ']) expect(splitNameUnit(cell)).toEqual({ name: 'U1', unitText: 'V' });
+		for (const cell of ['U1 (V)', 'U1 [V]', 'U1/V', 'U1 in V', ' U1 (V) '])
+			expect(splitNameUnit(cell)).toEqual({ name: 'U1', unitText: 'V' });
 	});
 
 	it('splitNameUnit(cell) leaves names that only look like fractions or phases alone', () => {
@@ -56,7 +57,8 @@ describe('channel names', () => {
 
 describe('a stated electrical unit wins over a name that looks like a counter', () => {
 	// "N" is the neutral conductor (IEC 60445, from memory); "N (V)" is its voltage to earth, not a sample number
-	const rows = (k: number) => `${(230 * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * k) / 10_000)).toFixed(3)},${(0.5 * Math.sin((2 * Math.PI * 150 * k) / 10_000)).toFixed(4)},${(k / 10_000).toFixed(4)}`;
+	const rows = (k: number) =>
+		`${(230 * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * k) / 10_000)).toFixed(3)},${(0.5 * Math.sin((2 * Math.PI * 150 * k) / 10_000)).toFixed(4)},${(k / 10_000).toFixed(4)}`;
 	const text = ['L1 (V),N (V),t (s)', ...Array.from({ length: 400 }, (_, k) => rows(k))].join('\n');
 
 	it('parseCsv takes "N (V)" as a voltage channel and "t (s)" as the time base', () => {

@@ -14,9 +14,15 @@ function readColumn(cells: string[], comma: boolean): Float64Array {
 
 const printed = fc.oneof(
 	fc.double({ noNaN: true }).map((x) => String(x)),
-	fc.tuple(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.integer({ min: 0, max: 20 })).map(([x, k]) => x.toExponential(k)),
-	fc.tuple(fc.double({ min: -1e6, max: 1e6, noNaN: true }), fc.integer({ min: 0, max: 12 })).map(([x, k]) => x.toFixed(k)),
-	fc.tuple(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.integer({ min: 1, max: 21 })).map(([x, k]) => x.toPrecision(k)),
+	fc
+		.tuple(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.integer({ min: 0, max: 20 }))
+		.map(([x, k]) => x.toExponential(k)),
+	fc
+		.tuple(fc.double({ min: -1e6, max: 1e6, noNaN: true }), fc.integer({ min: 0, max: 12 }))
+		.map(([x, k]) => x.toFixed(k)),
+	fc
+		.tuple(fc.double({ noNaN: true, noDefaultInfinity: true }), fc.integer({ min: 1, max: 21 }))
+		.map(([x, k]) => x.toPrecision(k)),
 	// hand-built numerals: long significands (past 2^53), exponents near under- and overflow
 	fc
 		.tuple(
@@ -50,7 +56,17 @@ describe('CSV number scanner', () => {
 	});
 
 	it('parseCsv reads the edge numerals as parseFloat does: -0, 5e-324, 1.7976931348623157e308, 9007199254740993, .5, 1.', () => {
-		const cells = ['-0', '5e-324', '1.7976931348623157e308', '9007199254740993', '.5', '1.', '0.1', '1e23', '2.2250738585072011e-308'];
+		const cells = [
+			'-0',
+			'5e-324',
+			'1.7976931348623157e308',
+			'9007199254740993',
+			'.5',
+			'1.',
+			'0.1',
+			'1e23',
+			'2.2250738585072011e-308',
+		];
 		const got = readColumn(cells, false);
 		cells.forEach((c, i) => expect(Object.is(got[i], parseFloat(c)), c).toBe(true));
 		// values stated literally (ECMA-262 number values): 0.5, 1, the nearest double to 9007199254740993 is 2^53

@@ -54,7 +54,11 @@ describe('CsvStreamReader', () => {
 			throw new Error('no error');
 		} catch (e) {
 			expect(e).toBeInstanceOf(ImportError);
-			expect([(e as ImportError).code, (e as ImportError).line, (e as ImportError).column]).toEqual(['bad-number', 5003, 12]);
+			expect([(e as ImportError).code, (e as ImportError).line, (e as ImportError).column]).toEqual([
+				'bad-number',
+				5003,
+				12,
+			]);
 		}
 	});
 

@@ -6,7 +6,10 @@ import { durationS, openCaptures, parseComtrade, sampleCount } from '../../lib/i
 // PROVENANCE.md states; numbers are recomputed in this file from the raw .cfg/.dat text, by hand.
 const DIR = '../shared/data/feeder-sag-1999/';
 const present = existsSync(DIR + 'feeder-sag.cfg') && existsSync(DIR + 'feeder-sag.dat');
-if (!present) console.warn(`SKIPPED: the real COMTRADE capture ${DIR} is absent (a clone without ../shared); feeder-sag tests do not run.`);
+if (!present)
+	console.warn(
+		`SKIPPED: the real COMTRADE capture ${DIR} is absent (a clone without ../shared); feeder-sag tests do not run.`,
+	);
 
 describe.skipIf(!present)('parseComtrade on the real feeder-sag recording (PROVENANCE.md)', () => {
 	const cfgText = present ? readFileSync(DIR + 'feeder-sag.cfg', 'utf8') : '';
@@ -15,13 +18,26 @@ describe.skipIf(!present)('parseComtrade on the real feeder-sag recording (PROVE
 
 	// Independent reading of the files: analog line k of the .cfg is line 3 + k; fields 6 and 7 are a and b.
 	const cfgLines = cfgText.split(/\r?\n/);
-	const ab = cfgLines.slice(2, 8).map((l) => l.split(',')).map((f) => ({ name: f[1], unit: f[4], a: Number(f[5]), b: Number(f[6]), ps: f[12] }));
-	const rows = datText.trim().split(/\r?\n/).map((l) => l.split(',').map(Number));
+	const ab = cfgLines
+		.slice(2, 8)
+		.map((l) => l.split(','))
+		.map((f) => ({ name: f[1], unit: f[4], a: Number(f[5]), b: Number(f[6]), ps: f[12] }));
+	const rows = datText
+		.trim()
+		.split(/\r?\n/)
+		.map((l) => l.split(',').map(Number));
 
 	it('has 6 analog channels Ia, Ib, Ic (A) and Va, Vb, Vc (V), as PROVENANCE.md says', () => {
 		expect(capture.channels.map((c) => c.name)).toEqual(['Ia', 'Ib', 'Ic', 'Va', 'Vb', 'Vc']);
 		expect(capture.channels.map((c) => c.unit)).toEqual(['A', 'A', 'A', 'V', 'V', 'V']);
-		expect(capture.channels.map((c) => c.quantity)).toEqual(['current', 'current', 'current', 'voltage', 'voltage', 'voltage']);
+		expect(capture.channels.map((c) => c.quantity)).toEqual([
+			'current',
+			'current',
+			'current',
+			'voltage',
+			'voltage',
+			'voltage',
+		]);
 		expect(capture.channels.map((c) => c.phase)).toEqual(['A', 'B', 'C', 'A', 'B', 'C']);
 	});
 
@@ -43,7 +59,7 @@ describe.skipIf(!present)('parseComtrade on the real feeder-sag recording (PROVE
 		expect(capture.startTime).toBe('2012-07-11T08:44:21.051022');
 	});
 
-	it('spans (3584 − 1) / 7678.4833984375 Hz = 0.466629 s from first to last sample, as PROVENANCE.md\'s figures give', () => {
+	it("spans (3584 − 1) / 7678.4833984375 Hz = 0.466629 s from first to last sample, as PROVENANCE.md's figures give", () => {
 		// PROVENANCE.md: 3584 samples at 7678.4833984375 samples/s. First to last sample: 3583 intervals,
 		// 3583 / 7678.4833984375 = 0.4666286… s (by hand: 7678.4833984375 × 0.4666 = 3582.78, remainder
 		// 0.22 / 7678.48 = 0.0000286 s). The whole record (each sample standing for 1/fs) is 3584 / fs = 0.466759 s.
@@ -61,7 +77,9 @@ describe.skipIf(!present)('parseComtrade on the real feeder-sag recording (PROVE
 		// by hand: stamps run from -41663 to 424965 µs = 0.466628 s, within the 1 µs stamp resolution of the
 		// 0.4666286 s that 3583 intervals at the declared rate take
 		expect(rows[rows.length - 1][1] - rows[0][1]).toBe(466628);
-		expect(Math.abs((rows[rows.length - 1][1] - rows[0][1]) * 1e-6 - (sampleCount(capture) - 1) / capture.sampleRateHz)).toBeLessThanOrEqual(1e-6);
+		expect(
+			Math.abs((rows[rows.length - 1][1] - rows[0][1]) * 1e-6 - (sampleCount(capture) - 1) / capture.sampleRateHz),
+		).toBeLessThanOrEqual(1e-6);
 		expect(rows.every((r, k) => r[0] === k + 1)).toBe(true);
 		expect(capture.diagnostics.filter((d) => d.severity === 'warning')).toEqual([]);
 	});

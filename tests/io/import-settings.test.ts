@@ -9,7 +9,10 @@ import { ImportError } from '../../lib/io/import-error.js';
 import { comtradeCffBytes } from '../../sample-waves/writers/comtrade.js';
 import { makeChannels } from '../trend/signals.js';
 
-type WaveFileLike = { fromScratch(ch: number, rate: number, depth: string, s: number[] | number[][]): void; toBuffer(): Uint8Array };
+type WaveFileLike = {
+	fromScratch(ch: number, rate: number, depth: string, s: number[] | number[][]): void;
+	toBuffer(): Uint8Array;
+};
 const { WaveFile } = wavefile as unknown as { WaveFile: new () => WaveFileLike };
 
 function wav(depth: string, channels: number[][], rateHz = 8000): Uint8Array {
@@ -22,7 +25,9 @@ const codes = [1000, -2000, 3000, 16384];
 
 describe('import settings apply to every format', () => {
 	it('a WAV named .csv is read as WAV (said in a diagnostic) and its scale applies', () => {
-		const c = openCapture({ name: 'scope.csv', bytes: wav('16', [codes]) }, [], { settings: { channels: { ch1: { scale: 400, unit: 'V' } } } });
+		const c = openCapture({ name: 'scope.csv', bytes: wav('16', [codes]) }, [], {
+			settings: { channels: { ch1: { scale: 400, unit: 'V' } } },
+		});
 		expect(c.format).toBe('wav');
 		expect(c.diagnostics.some((d) => d.code === 'format-from-content')).toBe(true);
 		// 16-bit code c at 400 (scale) = c / 32768 · 400 V
@@ -35,7 +40,12 @@ describe('import settings apply to every format', () => {
 	it('a float WAV given scale, unit and quantity becomes volts and gives the dip it holds', () => {
 		// 230 V, 50 Hz with a 70 % dip for 100 ms from 0.5 s, stored as fractions of 400 V
 		const fs = 6400;
-		const [u] = makeChannels([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 0.6, rms: 161 }] }], { f0Hz: 50 }, fs, 1.5);
+		const [u] = makeChannels(
+			[{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 0.6, rms: 161 }] }],
+			{ f0Hz: 50 },
+			fs,
+			1.5,
+		);
 		const c = openCapture({ name: 'logger.wav', bytes: wav('32f', [Array.from(u, (v) => v / 400)], fs) }, [], {
 			settings: { channels: { ch1: { scale: 400, unit: 'V', quantity: 'voltage' } } },
 		});
@@ -49,11 +59,19 @@ describe('import settings apply to every format', () => {
 
 	it('COMTRADE takes a clamp setting: 100 mV/A turns 0.5 V into 5 A', () => {
 		const spec = {
-			station: 'Tallowmere Joinery', device: 'clamp', revYear: 1999 as const, lineFrequencyHz: 50, rates: [{ sampleRateHz: 1000, endSample: 3 }],
-			firstData: '01/02/2026,10:00:00.000000', trigger: '01/02/2026,10:00:00.000000', fileType: 'ASCII' as const,
+			station: 'Tallowmere Joinery',
+			device: 'clamp',
+			revYear: 1999 as const,
+			lineFrequencyHz: 50,
+			rates: [{ sampleRateHz: 1000, endSample: 3 }],
+			firstData: '01/02/2026,10:00:00.000000',
+			trigger: '01/02/2026,10:00:00.000000',
+			fileType: 'ASCII' as const,
 			analog: [{ name: 'Clamp out', unit: 'V', values: [0.5, -0.25, 0], a: 0.0001 }],
 		};
-		const c = openCapture({ name: 'clamp.cff', bytes: comtradeCffBytes(spec) }, [], { settings: { channels: { 'Clamp out': { clampMvPerA: 100 } } } });
+		const c = openCapture({ name: 'clamp.cff', bytes: comtradeCffBytes(spec) }, [], {
+			settings: { channels: { 'Clamp out': { clampMvPerA: 100 } } },
+		});
 		expect(c.format).toBe('comtrade');
 		expect(Array.from(c.channels[0].samples)).toEqual([5, -2.5, 0].map((v) => expect.closeTo(v, 9)));
 		expect([c.channels[0].unit, c.channels[0].quantity]).toEqual(['A', 'current']);
@@ -61,7 +79,9 @@ describe('import settings apply to every format', () => {
 	});
 
 	it('CSV reports the settings it applied in the same way', () => {
-		const c = openCapture({ name: 'a.csv', bytes: new TextEncoder().encode('t (s);P1\n0;1\n0.001;2\n') }, [], { settings: { channels: { P1: { scale: 10, quantity: 'voltage' } } } });
+		const c = openCapture({ name: 'a.csv', bytes: new TextEncoder().encode('t (s);P1\n0;1\n0.001;2\n') }, [], {
+			settings: { channels: { P1: { scale: 10, quantity: 'voltage' } } },
+		});
 		expect(c.format).toBe('csv');
 		expect(Array.from(c.channels[0].samples)).toEqual([10, 20]);
 		expect(c.diagnostics.find((d) => d.code === 'channel-from-user')?.message).toContain('P1');
@@ -74,7 +94,9 @@ describe('import settings apply to every format', () => {
 	});
 
 	it('a setting naming a channel the file does not have is an ImportError, never ignored', () => {
-		const r = openCaptures([{ name: 'a.wav', bytes: wav('16', [codes]) }], { settings: { channels: { U9: { scale: 2 } } } });
+		const r = openCaptures([{ name: 'a.wav', bytes: wav('16', [codes]) }], {
+			settings: { channels: { U9: { scale: 2 } } },
+		});
 		expect(r.captures).toEqual([]);
 		expect(r.errors[0]).toBeInstanceOf(ImportError);
 		expect(r.errors[0].code).toBe('bad-option');

@@ -4,23 +4,40 @@ import { describe, expect, it } from 'vitest';
 import { ImportError, openCapture, openCaptures, type InputFile } from '../../lib/index.js';
 import { comtradeCffBytes, type WriterSpec } from '../../sample-waves/writers/comtrade.js';
 
-const fx = (path: string, name = path.split('/').pop()!): InputFile => ({ name, bytes: new Uint8Array(readFileSync('tests/fixtures/' + path)) });
+const fx = (path: string, name = path.split('/').pop()!): InputFile => ({
+	name,
+	bytes: new Uint8Array(readFileSync('tests/fixtures/' + path)),
+});
 const enc = new TextEncoder();
-const { WaveFile } = wavefile as unknown as { WaveFile: new () => { fromScratch(ch: number, rate: number, depth: string, s: number[]): void; toBuffer(): Uint8Array } };
+const { WaveFile } = wavefile as unknown as {
+	WaveFile: new () => {
+		fromScratch(ch: number, rate: number, depth: string, s: number[]): void;
+		toBuffer(): Uint8Array;
+	};
+};
 function wavBytes(): Uint8Array {
 	const w = new WaveFile();
 	w.fromScratch(1, 4000, '16', [0, 16384, 0, -16384]);
 	return w.toBuffer();
 }
 const cffSpec: WriterSpec = {
-	station: 'Mill', device: 'r1', revYear: 2013, lineFrequencyHz: 50, rates: [{ sampleRateHz: 1000, endSample: 3 }],
-	firstData: '01/01/2026,00:00:00.000000', trigger: '01/01/2026,00:00:00.000000', fileType: 'ASCII',
+	station: 'Mill',
+	device: 'r1',
+	revYear: 2013,
+	lineFrequencyHz: 50,
+	rates: [{ sampleRateHz: 1000, endSample: 3 }],
+	firstData: '01/01/2026,00:00:00.000000',
+	trigger: '01/01/2026,00:00:00.000000',
+	fileType: 'ASCII',
 	analog: [{ name: 'IA', unit: 'A', values: [1, 2, 3] }],
 };
 
 describe('openCaptures', () => {
 	it('openCaptures pairs a .cfg with the .dat of the same base name in another case', () => {
-		const { captures, errors } = openCaptures([fx('comtrade/good-1999.cfg', 'rec/Good.CFG'), fx('comtrade/good-1999.dat', 'rec/good.dat')]);
+		const { captures, errors } = openCaptures([
+			fx('comtrade/good-1999.cfg', 'rec/Good.CFG'),
+			fx('comtrade/good-1999.dat', 'rec/good.dat'),
+		]);
 		expect(errors).toEqual([]);
 		expect(captures.map((c) => c.source)).toEqual(['rec/Good.CFG']);
 		expect(captures[0].channels.map((c) => c.name)).toEqual(['U1', 'I1']);
@@ -47,14 +64,25 @@ describe('openCaptures', () => {
 		];
 		const { captures, errors } = openCaptures(files);
 		expect(captures.map((c) => c.source)).toEqual(['good-1999.cfg', 'clamp.wav']);
-		expect(errors.map((e) => [e.source, e.code])).toEqual([['broken.wav', 'bad-wav'], ['err-dat-syntax.dat', 'dat-syntax']]);
+		expect(errors.map((e) => [e.source, e.code])).toEqual([
+			['broken.wav', 'bad-wav'],
+			['err-dat-syntax.dat', 'dat-syntax'],
+		]);
 		for (const e of errors) expect(e).toBeInstanceOf(ImportError);
 	});
 
 	it('openCaptures recognises a WAV and a CFF by their content whatever the extension', () => {
-		const { captures, errors } = openCaptures([{ name: 'rec.bin', bytes: wavBytes() }, { name: 'relay.rec', bytes: comtradeCffBytes(cffSpec) }, { name: 'relay.CFF', bytes: comtradeCffBytes(cffSpec) }]);
+		const { captures, errors } = openCaptures([
+			{ name: 'rec.bin', bytes: wavBytes() },
+			{ name: 'relay.rec', bytes: comtradeCffBytes(cffSpec) },
+			{ name: 'relay.CFF', bytes: comtradeCffBytes(cffSpec) },
+		]);
 		expect(errors).toEqual([]);
-		expect(captures.map((c) => [c.source, c.sampleRateHz, c.channels.length])).toEqual([['rec.bin', 4000, 1], ['relay.rec', 1000, 1], ['relay.CFF', 1000, 1]]);
+		expect(captures.map((c) => [c.source, c.sampleRateHz, c.channels.length])).toEqual([
+			['rec.bin', 4000, 1],
+			['relay.rec', 1000, 1],
+			['relay.CFF', 1000, 1],
+		]);
 	});
 
 	it('openCaptures reads .csv, .txt and .tsv with the CSV reader', () => {
@@ -64,22 +92,35 @@ describe('openCaptures', () => {
 			{ name: 'c.tsv', bytes: enc.encode('t (s)\tU2 (V)\n0\t1\n0.001\t2\n0.002\t3\n') },
 		]);
 		expect(errors).toEqual([]);
-		expect(captures.map((c) => [c.channels[0].name, c.channels[0].unit])).toEqual([['U1', 'V'], ['I1', 'A'], ['U2', 'V']]);
+		expect(captures.map((c) => [c.channels[0].name, c.channels[0].unit])).toEqual([
+			['U1', 'V'],
+			['I1', 'A'],
+			['U2', 'V'],
+		]);
 		for (const c of captures) expect(c.sampleRateHz).toBeCloseTo(1000, 6);
 	});
 
 	it('openCaptures refuses an empty file and an unknown binary file with typed errors', () => {
-		const { errors } = openCaptures([{ name: 'empty.csv', bytes: new Uint8Array(0) }, { name: 'photo.jpg', bytes: new Uint8Array([0xff, 0xd8, 0, 0, 1]) }]);
+		const { errors } = openCaptures([
+			{ name: 'empty.csv', bytes: new Uint8Array(0) },
+			{ name: 'photo.jpg', bytes: new Uint8Array([0xff, 0xd8, 0, 0, 1]) },
+		]);
 		expect(errors.map((e) => e.code)).toEqual(['empty-file', 'unsupported-format']);
 	});
 
 	it('openCaptures attaches a .hdr of the same base name to the COMTRADE capture metadata', () => {
-		const { captures } = openCaptures([fx('comtrade/good-1999.cfg'), fx('comtrade/good-1999.dat'), { name: 'good-1999.hdr', bytes: enc.encode('Incomer test, relay 3\n') }]);
+		const { captures } = openCaptures([
+			fx('comtrade/good-1999.cfg'),
+			fx('comtrade/good-1999.dat'),
+			{ name: 'good-1999.hdr', bytes: enc.encode('Incomer test, relay 3\n') },
+		]);
 		expect(captures[0].metadata['comtrade.hdr']).toBe('Incomer test, relay 3');
 	});
 
 	it('openCaptures passes per-format options on (COMTRADE secondary values)', () => {
-		const { captures } = openCaptures([fx('comtrade/good-1999.cfg'), fx('comtrade/good-1999.dat')], { comtrade: { values: 'secondary' } });
+		const { captures } = openCaptures([fx('comtrade/good-1999.cfg'), fx('comtrade/good-1999.dat')], {
+			comtrade: { values: 'secondary' },
+		});
 		// U1 raw 100 × 0.01 kV = 1 kV primary; VT 11000:110 -> 10 V secondary
 		expect(captures[0].channels[0].samples[0]).toBeCloseTo(10, 9);
 	});

@@ -51,7 +51,10 @@ describe('CsvSampleStream', () => {
 			pushInChunks((b) => s.push(b), csvText(rows), chunk);
 			const late = s.end();
 			expect(got.header!.sampleRateHz).toBeCloseTo(10_000, 6); // stamps 1e-4 s apart
-			expect(got.header!.channels.map((c) => [c.name, c.unit, c.quantity])).toEqual([['U1', 'V', 'voltage'], ['I1', 'A', 'current']]);
+			expect(got.header!.channels.map((c) => [c.name, c.unit, c.quantity])).toEqual([
+				['U1', 'V', 'voltage'],
+				['I1', 'A', 'current'],
+			]);
 			expect(got.samples[0].length).toBe(rows);
 			for (let k = 0; k < rows; k += 997) {
 				expect(got.samples[0][k]).toBe(u1(k));
@@ -64,7 +67,11 @@ describe('CsvSampleStream', () => {
 	it('a jump of 1e6 s after the first rows is one located time-gaps warning; the rate stays 10 kS/s', () => {
 		const { got, sink } = collector();
 		const s = new CsvSampleStream('jump.csv', {}, sink);
-		pushInChunks((b) => s.push(b), csvText(20_000, (k) => k / 10_000 + (k >= 10_000 ? 1e6 : 0)), 65_536);
+		pushInChunks(
+			(b) => s.push(b),
+			csvText(20_000, (k) => k / 10_000 + (k >= 10_000 ? 1e6 : 0)),
+			65_536,
+		);
 		const late = s.end();
 		expect(got.header!.sampleRateHz).toBeCloseTo(10_000, 6);
 		const gap = late.find((d) => d.code === 'time-gaps');
@@ -118,7 +125,12 @@ describe('ComtradeSampleStream', () => {
 	});
 	// quantisation step of each type: a = peak / (0.95 · full scale) as the writer sets it; ASCII prints
 	// integers to 99998, BINARY int16, BINARY32 int32, FLOAT32 single precision (~6e-8 relative)
-	const step: Record<WriterSpec['fileType'], number> = { ASCII: 325 / (0.95 * 99998), BINARY: 325 / (0.95 * 32767), BINARY32: 325 / (0.95 * 2147483647), FLOAT32: 325 * 1.2e-7 };
+	const step: Record<WriterSpec['fileType'], number> = {
+		ASCII: 325 / (0.95 * 99998),
+		BINARY: 325 / (0.95 * 32767),
+		BINARY32: 325 / (0.95 * 2147483647),
+		FLOAT32: 325 * 1.2e-7,
+	};
 
 	for (const type of ['ASCII', 'BINARY', 'BINARY32', 'FLOAT32'] as const) {
 		it(`${type}: the .dat pushed in 1000-byte chunks gives the written values within one quantisation step`, () => {

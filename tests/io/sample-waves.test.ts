@@ -14,7 +14,13 @@ interface Truth {
 	channelCount: number;
 	digitalCount: number;
 	fundamentalHz: number;
-	channels: { name: string; unit: string; quantity: string; envelope: { fromS: number; toS: number }[]; expected: { recordRms: number } }[];
+	channels: {
+		name: string;
+		unit: string;
+		quantity: string;
+		envelope: { fromS: number; toS: number }[];
+		expected: { recordRms: number };
+	}[];
 	power: { voltage: string; current: string; activePowerW: number; powerFactor: number }[];
 	threePhase: { channels: string[]; unbalanceNegativePct: number; window?: string }[];
 }
@@ -56,7 +62,9 @@ describe('sample-waves demo captures', () => {
 			expect(c.digital?.length ?? 0).toBe(f.digitalCount);
 			expect(c.sampleRateHz).toBeCloseTo(f.sampleRateHz, 6);
 			expect(c.startS).toBeCloseTo(f.startS, 9);
-			expect(c.channels.map((ch) => [ch.name, ch.unit, ch.quantity])).toEqual(f.channels.map((ch) => [ch.name, ch.unit, ch.quantity]));
+			expect(c.channels.map((ch) => [ch.name, ch.unit, ch.quantity])).toEqual(
+				f.channels.map((ch) => [ch.name, ch.unit, ch.quantity]),
+			);
 			for (const ch of c.channels) expect(ch.samples.length).toBe(f.samples);
 		});
 
@@ -89,8 +97,14 @@ describe('sample-waves demo captures', () => {
 			const dip = f.channels.flatMap((ch) => ch.envelope)[0];
 			for (const t of f.threePhase) {
 				// whole record, or for a record with a dip: the cycles before it, or the dip's own cycles
-				const [from, to] = !dip ? [0, f.samples] : t.window?.startsWith('during') ? [dip.fromS, dip.toS].map((s) => Math.round(s * f.sampleRateHz)) : [0, Math.round(dip.fromS * f.sampleRateHz)];
-				const ph = t.channels.map((n) => phasor(c.channels.find((ch) => ch.name === n)!.samples, f.fundamentalHz, f.sampleRateHz, from, to));
+				const [from, to] = !dip
+					? [0, f.samples]
+					: t.window?.startsWith('during')
+						? [dip.fromS, dip.toS].map((s) => Math.round(s * f.sampleRateHz))
+						: [0, Math.round(dip.fromS * f.sampleRateHz)];
+				const ph = t.channels.map((n) =>
+					phasor(c.channels.find((ch) => ch.name === n)!.samples, f.fundamentalHz, f.sampleRateHz, from, to),
+				);
 				const rot = (z: [number, number], deg: number): [number, number] => {
 					const r = (deg * Math.PI) / 180;
 					return [z[0] * Math.cos(r) - z[1] * Math.sin(r), z[0] * Math.sin(r) + z[1] * Math.cos(r)];

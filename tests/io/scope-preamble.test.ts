@@ -1,11 +1,22 @@
 import { describe, expect, it } from 'vitest';
 import { parseCsv } from '../../lib/io/csv/parse-csv.js';
 
-const body = (rows: number) => Array.from({ length: rows }, (_, k) => `${((k - rows / 2) * 1e-6).toExponential(6)},${(k % 7) * 0.03125 - 0.1},${(k % 5) * 0.015625}`).join('\n');
+const body = (rows: number) =>
+	Array.from(
+		{ length: rows },
+		(_, k) => `${((k - rows / 2) * 1e-6).toExponential(6)},${(k % 7) * 0.03125 - 0.1},${(k % 5) * 0.015625}`,
+	).join('\n');
 
 describe('parseCsv: scope preamble rows', () => {
 	it('parseCsv(Vertical Units per column, Probe Attenuation 100 and 100 mV/A) scales CH1 × 100 to a voltage and CH2 ÷ 0.1 V/A to a current', () => {
-		const text = ['Vertical Units,V,V', 'Vertical Scale,1,0.5', 'Probe Attenuation,100,100 mV/A', 'Sample Interval,1e-6', 'Time,CH1,CH2', body(64)].join('\n');
+		const text = [
+			'Vertical Units,V,V',
+			'Vertical Scale,1,0.5',
+			'Probe Attenuation,100,100 mV/A',
+			'Sample Interval,1e-6',
+			'Time,CH1,CH2',
+			body(64),
+		].join('\n');
 		const c = parseCsv(text, 'scope.csv');
 		const [u, i] = c.channels;
 		expect(u.quantity).toBe('voltage');
@@ -23,7 +34,9 @@ describe('parseCsv: scope preamble rows', () => {
 	});
 
 	it('parseCsv(one Vertical Units value and one Probe Attenuation x10) applies them to every channel', () => {
-		const text = ['Vertical Units,V', 'Probe Attenuation,x10', 'Sample Interval,1e-6', 'Time,CH1,CH2', body(64)].join('\n');
+		const text = ['Vertical Units,V', 'Probe Attenuation,x10', 'Sample Interval,1e-6', 'Time,CH1,CH2', body(64)].join(
+			'\n',
+		);
 		const c = parseCsv(text, 'scope.csv');
 		for (const ch of c.channels) expect(ch.quantity).toBe('voltage');
 		expect(c.channels[1].samples[3]).toBeCloseTo(10 * 3 * 0.015625, 9);

@@ -10,7 +10,8 @@ import { openCaptures } from '../../lib/io/open.js';
 
 function csv(header: string[], n: number, dt: number): string {
 	const rows = [...header, 'Time (s),U1 (V)'];
-	for (let k = 0; k < n; k++) rows.push(`${(k * dt).toFixed(6)},${(325 * Math.sin(2 * Math.PI * 50 * k * dt)).toFixed(3)}`);
+	for (let k = 0; k < n; k++)
+		rows.push(`${(k * dt).toFixed(6)},${(325 * Math.sin(2 * Math.PI * 50 * k * dt)).toFixed(3)}`);
 	return rows.join('\n') + '\n';
 }
 
@@ -23,7 +24,10 @@ describe('importer text rounded to its meaning', () => {
 	});
 
 	it('a COMTRADE channel scaling reads with 6 significant digits at most (the .cfg writes the factor to full float precision)', () => {
-		const files = ['cfg', 'dat'].map((e) => ({ name: `incomer-dip.${e}`, bytes: new Uint8Array(readFileSync(join(import.meta.dirname, '..', '..', 'sample-waves', `incomer-dip.${e}`))) }));
+		const files = ['cfg', 'dat'].map((e) => ({
+			name: `incomer-dip.${e}`,
+			bytes: new Uint8Array(readFileSync(join(import.meta.dirname, '..', '..', 'sample-waves', `incomer-dip.${e}`))),
+		}));
 		for (const ch of openCaptures(files).captures[0].channels) {
 			const factor = /^([\d.e+-]+)·x/.exec(ch.scaling!.description)![1];
 			expect(factor.replace(/^0\.0*|\./g, '').length).toBeLessThanOrEqual(6);

@@ -5,7 +5,13 @@ import { ImportError, parseWav } from '../../lib/index.js';
 
 // wavefile (npm, an independent writer) makes the files; expected values come from the written integer
 // codes and the full-scale rule x / 2^(bits−1) (common practice for PCM; float samples are ±1.0 at full scale).
-const { WaveFile } = wavefile as unknown as { WaveFile: new () => { fromScratch(ch: number, rate: number, depth: string, s: number[] | number[][]): void; toBuffer(): Uint8Array; setTag(t: string, v: string): void } };
+const { WaveFile } = wavefile as unknown as {
+	WaveFile: new () => {
+		fromScratch(ch: number, rate: number, depth: string, s: number[] | number[][]): void;
+		toBuffer(): Uint8Array;
+		setTag(t: string, v: string): void;
+	};
+};
 
 function write(depth: string, channels: number[][], rateHz = 8000, comment?: string): Uint8Array {
 	const w = new WaveFile();
@@ -25,18 +31,24 @@ function thrown(f: () => unknown): ImportError {
 }
 
 const N = 400;
-const signal = Array.from({ length: N }, (_, k) => 0.9 * Math.sin((2 * Math.PI * 50 * k) / 8000) + 0.05 * Math.sin((2 * Math.PI * 250 * k) / 8000));
+const signal = Array.from(
+	{ length: N },
+	(_, k) => 0.9 * Math.sin((2 * Math.PI * 50 * k) / 8000) + 0.05 * Math.sin((2 * Math.PI * 250 * k) / 8000),
+);
 
 describe('parseWav round trip with files written by wavefile', () => {
 	for (const bits of [16, 24, 32]) {
 		it(`parseWav(${bits}-bit PCM, 400 V full scale) returns the signal within half a quantisation step`, () => {
 			const full = 2 ** (bits - 1);
 			const codes = signal.map((x) => Math.round(x * full));
-			const c = parseWav(write(String(bits), [codes]), `s${bits}.wav`, { channels: [{ fullScale: 400, unit: 'V', name: 'U1' }] });
+			const c = parseWav(write(String(bits), [codes]), `s${bits}.wav`, {
+				channels: [{ fullScale: 400, unit: 'V', name: 'U1' }],
+			});
 			expect(c.sampleRateHz).toBe(8000);
 			expect(c.channels[0].samples.length).toBe(N);
 			const step = 400 / full;
-			for (let k = 0; k < N; k++) expect(Math.abs(c.channels[0].samples[k] - 400 * signal[k])).toBeLessThanOrEqual(step / 2 + 1e-12);
+			for (let k = 0; k < N; k++)
+				expect(Math.abs(c.channels[0].samples[k] - 400 * signal[k])).toBeLessThanOrEqual(step / 2 + 1e-12);
 			expect(c.channels[0].unit).toBe('V');
 			expect(c.channels[0].quantity).toBe('voltage');
 		});
@@ -45,7 +57,8 @@ describe('parseWav round trip with files written by wavefile', () => {
 	it('parseWav(32-bit float, 200 A full scale) returns the signal within float32 rounding', () => {
 		const c = parseWav(write('32f', [signal]), 'f.wav', { channels: [{ fullScale: 200, unit: 'A', name: 'I1' }] });
 		// float32 keeps 24 significant bits: relative error below 2^-24
-		for (let k = 0; k < N; k++) expect(Math.abs(c.channels[0].samples[k] - 200 * signal[k])).toBeLessThanOrEqual(200 * 2 ** -24);
+		for (let k = 0; k < N; k++)
+			expect(Math.abs(c.channels[0].samples[k] - 200 * signal[k])).toBeLessThanOrEqual(200 * 2 ** -24);
 		expect(c.channels[0].quantity).toBe('current');
 	});
 
@@ -54,7 +67,10 @@ describe('parseWav round trip with files written by wavefile', () => {
 		const b = [-1, -2, -3];
 		const d = [16384, 0, -16384];
 		const c = parseWav(write('16', [a, b, d]), 'three.wav', {
-			channels: [{ fullScale: 0.65, unit: 'kV', name: 'U L1' }, { fullScale: 100, unit: 'A', name: 'I1' }],
+			channels: [
+				{ fullScale: 0.65, unit: 'kV', name: 'U L1' },
+				{ fullScale: 100, unit: 'A', name: 'I1' },
+			],
 		});
 		expect(c.channels.map((x) => x.name)).toEqual(['U L1', 'I1', 'ch3']);
 		// 0.65 kV = 650 V at full scale: 1000/32768 × 650 V
@@ -77,13 +93,22 @@ describe('parseWav round trip with files written by wavefile', () => {
 	});
 
 	it('parseWav reads a calibration written in the INFO comment when no options are given', () => {
-		const c = parseWav(write('16', [[16384], [-16384]], 8000, 'clamp log\nsinecheck-calibration: 1=U1 V 650; 2=I1 A 200'), 'cal.wav');
-		expect(c.channels.map((x) => [x.name, x.unit, x.samples[0]])).toEqual([['U1', 'V', 325], ['I1', 'A', -100]]);
+		const c = parseWav(
+			write('16', [[16384], [-16384]], 8000, 'clamp log\nsinecheck-calibration: 1=U1 V 650; 2=I1 A 200'),
+			'cal.wav',
+		);
+		expect(c.channels.map((x) => [x.name, x.unit, x.samples[0]])).toEqual([
+			['U1', 'V', 325],
+			['I1', 'A', -100],
+		]);
 		expect(c.diagnostics.some((d) => d.code === 'wav-calibration-from-file')).toBe(true);
 	});
 
 	it('parseWav of a file cut inside the data chunk reads the whole frames and warns', () => {
-		const bytes = write('16', [[1, 2, 3, 4], [5, 6, 7, 8]]);
+		const bytes = write('16', [
+			[1, 2, 3, 4],
+			[5, 6, 7, 8],
+		]);
 		const c = parseWav(bytes.subarray(0, bytes.length - 3), 'cut.wav');
 		// 4 frames of 4 bytes; 3 bytes missing leaves 3 whole frames
 		expect(c.channels[0].samples.length).toBe(3);
@@ -105,7 +130,11 @@ describe('parseWav errors: bad-wav at line 0, column = byte offset + 1', () => {
 		expect(String.fromCharCode(...good.subarray(36, 40))).toBe('data');
 	});
 	const cases: [string, Uint8Array, number][] = [
-		['a text file named .wav (tests/fixtures/wav/csv-named-wav.wav)', new Uint8Array(readFileSync('tests/fixtures/wav/csv-named-wav.wav')), 1],
+		[
+			'a text file named .wav (tests/fixtures/wav/csv-named-wav.wav)',
+			new Uint8Array(readFileSync('tests/fixtures/wav/csv-named-wav.wav')),
+			1,
+		],
 		['no WAVE after RIFF', edit((_, b) => b.set([65, 86, 73, 32], 8)), 9],
 		['a compressed format code (2, ADPCM)', edit((v) => v.setUint16(20, 2, true)), 21],
 		['12 bits per sample', edit((v) => v.setUint16(34, 12, true)), 35],

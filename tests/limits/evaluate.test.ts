@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { EN50160_TABLE, evaluateLimits, IEC61000_2_2_TABLE, IEEE519_TABLE, LIMIT_TABLES, type LimitInput, type LimitTableId } from '../../lib/index.js';
+import {
+	EN50160_TABLE,
+	evaluateLimits,
+	IEC61000_2_2_TABLE,
+	IEEE519_TABLE,
+	LIMIT_TABLES,
+	type LimitInput,
+	type LimitTableId,
+} from '../../lib/index.js';
 
 // Expected limits written out here, independently of the tables under test, from the standards' tables
 // as given in docs/methods.md §4 (shared reference notes); each block says how the notes obtained them.
@@ -7,14 +15,49 @@ import { EN50160_TABLE, evaluateLimits, IEC61000_2_2_TABLE, IEEE519_TABLE, LIMIT
 // EN 50160:2010, Table 1 (LV), % of the fundamental; docs/methods.md §4.1 (read in a secondary source
 // reprinting the table, not in the standard itself).
 const EN50160: Record<number, number> = {
-	2: 2, 3: 5, 4: 1, 5: 6, 6: 0.5, 7: 5, 8: 0.5, 9: 1.5, 10: 0.5, 11: 3.5, 12: 0.5, 13: 3, 14: 0.5, 15: 0.5,
-	16: 0.5, 17: 2, 18: 0.5, 19: 1.5, 20: 0.5, 21: 0.5, 22: 0.5, 23: 1.5, 24: 0.5, 25: 1.5,
+	2: 2,
+	3: 5,
+	4: 1,
+	5: 6,
+	6: 0.5,
+	7: 5,
+	8: 0.5,
+	9: 1.5,
+	10: 0.5,
+	11: 3.5,
+	12: 0.5,
+	13: 3,
+	14: 0.5,
+	15: 0.5,
+	16: 0.5,
+	17: 2,
+	18: 0.5,
+	19: 1.5,
+	20: 0.5,
+	21: 0.5,
+	22: 0.5,
+	23: 1.5,
+	24: 0.5,
+	25: 1.5,
 };
 
 // IEC 61000-2-2:2002+A1+A2, Table 1 tabulated values and its three formulas for high orders;
 // docs/methods.md §4.2: from memory, not read in the standard.
 function iec61000_2_2(h: number): number | undefined {
-	const fixed: Record<number, number> = { 2: 2, 3: 5, 4: 1, 5: 6, 6: 0.5, 7: 5, 8: 0.5, 9: 1.5, 11: 3.5, 13: 3, 15: 0.4, 21: 0.3 };
+	const fixed: Record<number, number> = {
+		2: 2,
+		3: 5,
+		4: 1,
+		5: 6,
+		6: 0.5,
+		7: 5,
+		8: 0.5,
+		9: 1.5,
+		11: 3.5,
+		13: 3,
+		15: 0.4,
+		21: 0.3,
+	};
 	if (h in fixed) return fixed[h];
 	if (h % 2 === 0) return h >= 10 && h <= 50 ? 0.25 * (10 / h) + 0.25 : undefined;
 	if (h % 3 === 0) return h > 21 && h <= 45 ? 0.2 : undefined;
@@ -32,9 +75,11 @@ function spectrum(limits: Map<number, number>, fraction: number, order?: number,
 
 const EPS = 1e-6;
 
-describe('limit tables hold the standards\' values (docs/methods.md §4) with a source on every row', () => {
+describe("limit tables hold the standards' values (docs/methods.md §4) with a source on every row", () => {
 	it('EN 50160:2010 Table 1: orders 2…25, and 4.2.8 THD 8 % to order 40 (docs/methods.md §4.1, read in a secondary source)', () => {
-		expect(EN50160_TABLE.rows.map((r) => [r.order, r.limitPercent])).toEqual(Object.entries(EN50160).map(([h, v]) => [Number(h), v]));
+		expect(EN50160_TABLE.rows.map((r) => [r.order, r.limitPercent])).toEqual(
+			Object.entries(EN50160).map(([h, v]) => [Number(h), v]),
+		);
 		expect(EN50160_TABLE.total).toMatchObject({ name: 'THD', limitPercent: 8, maxOrder: 40 });
 	});
 
@@ -58,24 +103,53 @@ describe('limit tables hold the standards\' values (docs/methods.md §4) with a 
 			expect([...provenances, 'per row']).toContain(t.provenance);
 			expect(t.provenanceNote.length).toBeGreaterThan(10);
 		}
-		const rows = [...EN50160_TABLE.rows, EN50160_TABLE.total, ...IEC61000_2_2_TABLE.rows, IEC61000_2_2_TABLE.total, ...IEEE519_TABLE.voltage, ...IEEE519_TABLE.current];
+		const rows = [
+			...EN50160_TABLE.rows,
+			EN50160_TABLE.total,
+			...IEC61000_2_2_TABLE.rows,
+			IEC61000_2_2_TABLE.total,
+			...IEEE519_TABLE.voltage,
+			...IEEE519_TABLE.current,
+		];
 		for (const r of rows) {
-			expect(r.source).toMatch(/^(EN 50160:2010, (Table 1|4\.2\.8)|IEC 61000-2-2:2002\+A1:2017.*(Table 1|THD)|IEEE 519-2014(\/2022)?, Table [1-4])/);
+			expect(r.source).toMatch(
+				/^(EN 50160:2010, (Table 1|4\.2\.8)|IEC 61000-2-2:2002\+A1:2017.*(Table 1|THD)|IEEE 519-2014(\/2022)?, Table [1-4])/,
+			);
 			expect(provenances).toContain(r.provenance);
 			expect(r.provenanceNote.length).toBeGreaterThan(10);
 		}
 		// docs/methods.md §4.1 (read in a secondary source), §4.2 (from memory), §4.3 Tables 1–2 (read in secondary sources) and Tables 3–4 (from memory)
 		expect(EN50160_TABLE.rows.every((r) => r.provenance === 'read in a secondary source')).toBe(true);
 		expect(IEC61000_2_2_TABLE.rows.every((r) => r.provenance === 'from memory')).toBe(true);
-		for (const r of IEEE519_TABLE.current) expect(r.provenance).toBe(r.upToV <= 69_000 ? 'read in a secondary source' : 'from memory');
+		for (const r of IEEE519_TABLE.current)
+			expect(r.provenance).toBe(r.upToV <= 69_000 ? 'read in a secondary source' : 'from memory');
 	});
 
 	it('nothing printable carries our internal reference notes or bracketed tags', () => {
 		const printable: string[] = [];
-		for (const t of Object.values(LIMIT_TABLES)) printable.push(t.source, t.provenance, t.provenanceNote, t.name, t.assessment, ...t.notes);
-		for (const r of [...EN50160_TABLE.rows, ...IEC61000_2_2_TABLE.rows, ...IEEE519_TABLE.voltage, ...IEEE519_TABLE.current, ...IEEE519_TABLE.evenRules]) printable.push(r.provenance, r.provenanceNote);
-		for (const r of [...EN50160_TABLE.rows, ...IEC61000_2_2_TABLE.rows, ...IEEE519_TABLE.voltage, ...IEEE519_TABLE.current]) printable.push(r.source);
-		const e = evaluateLimits('ieee519', { percentOfIl: new Float64Array(51), busVoltageV: 480, iscIlRatio: 35, edition: '2014' });
+		for (const t of Object.values(LIMIT_TABLES))
+			printable.push(t.source, t.provenance, t.provenanceNote, t.name, t.assessment, ...t.notes);
+		for (const r of [
+			...EN50160_TABLE.rows,
+			...IEC61000_2_2_TABLE.rows,
+			...IEEE519_TABLE.voltage,
+			...IEEE519_TABLE.current,
+			...IEEE519_TABLE.evenRules,
+		])
+			printable.push(r.provenance, r.provenanceNote);
+		for (const r of [
+			...EN50160_TABLE.rows,
+			...IEC61000_2_2_TABLE.rows,
+			...IEEE519_TABLE.voltage,
+			...IEEE519_TABLE.current,
+		])
+			printable.push(r.source);
+		const e = evaluateLimits('ieee519', {
+			percentOfIl: new Float64Array(51),
+			busVoltageV: 480,
+			iscIlRatio: 35,
+			edition: '2014',
+		});
 		for (const c of [...e.checks, e.total]) printable.push(c.source, c.provenance, c.provenanceNote);
 		printable.push(e.selection);
 		for (const text of printable) expect(text).not.toMatch(/REFERENCE|\[READ|\[MEMORY|instrument maker/);
@@ -83,7 +157,10 @@ describe('limit tables hold the standards\' values (docs/methods.md §4) with a 
 });
 
 describe('evaluateLimits on spectra just under and just over each limit', () => {
-	for (const [id, table] of [['en50160', EN50160_TABLE], ['iec61000-2-2', IEC61000_2_2_TABLE]] as const) {
+	for (const [id, table] of [
+		['en50160', EN50160_TABLE],
+		['iec61000-2-2', IEC61000_2_2_TABLE],
+	] as const) {
 		const limits = new Map(table.rows.map((r) => [r.order, r.limitPercent]));
 		it(`${id}: every order just under its limit passes, just over fails alone`, () => {
 			for (const [h, l] of limits) {
@@ -124,15 +201,34 @@ describe('evaluateLimits on spectra just under and just over each limit', () => 
 
 	// IEEE 519-2014/2022 Table 1, docs/methods.md §4.3 (read in secondary summaries of the 2014 revision)
 	it('IEEE 519 voltage: the Table 1 row follows the bus voltage (≤1 kV 5/8, ≤69 kV 3/5, ≤161 kV 1.5/2.5, above 1/1.5)', () => {
-		const rows: [number, number, number][] = [[400, 5, 8], [1000, 5, 8], [11_000, 3, 5], [69_000, 3, 5], [132_000, 1.5, 2.5], [400_000, 1, 1.5]];
+		const rows: [number, number, number][] = [
+			[400, 5, 8],
+			[1000, 5, 8],
+			[11_000, 3, 5],
+			[69_000, 3, 5],
+			[132_000, 1.5, 2.5],
+			[400_000, 1, 1.5],
+		];
 		for (const [v, ind, thd] of rows) {
-			const e = evaluateLimits('ieee519', { percentOfFundamental: spectrum(new Map(), 0, 7, ind - EPS), thdPercent: thd - EPS, busVoltageV: v });
+			const e = evaluateLimits('ieee519', {
+				percentOfFundamental: spectrum(new Map(), 0, 7, ind - EPS),
+				thdPercent: thd - EPS,
+				busVoltageV: v,
+			});
 			expect(e.quantity).toBe('voltage');
 			expect(e.pass).toBe(true);
 			expect(e.checks.length).toBe(49); // orders 2…50
-			const over = evaluateLimits('ieee519', { percentOfFundamental: spectrum(new Map(), 0, 7, ind + EPS), thdPercent: thd - EPS, busVoltageV: v });
+			const over = evaluateLimits('ieee519', {
+				percentOfFundamental: spectrum(new Map(), 0, 7, ind + EPS),
+				thdPercent: thd - EPS,
+				busVoltageV: v,
+			});
 			expect(over.failedCount).toBe(1);
-			const thdOver = evaluateLimits('ieee519', { percentOfFundamental: spectrum(new Map(), 0), thdPercent: thd + EPS, busVoltageV: v });
+			const thdOver = evaluateLimits('ieee519', {
+				percentOfFundamental: spectrum(new Map(), 0),
+				thdPercent: thd + EPS,
+				busVoltageV: v,
+			});
 			expect(thdOver.total.pass).toBe(false);
 		}
 	});
@@ -208,12 +304,19 @@ describe('evaluateLimits on spectra just under and just over each limit', () => 
 describe('evaluateLimits reporting', () => {
 	it('every evaluation says a one-off capture is not a compliance measurement', () => {
 		for (const id of ['en50160', 'iec61000-2-2'] as LimitTableId[]) {
-			expect(evaluateLimits(id, { percentOfFundamental: new Float64Array(51) }).complianceNote).toMatch(/not a compliance measurement/);
+			expect(evaluateLimits(id, { percentOfFundamental: new Float64Array(51) }).complianceNote).toMatch(
+				/not a compliance measurement/,
+			);
 		}
 	});
 
 	it('names the table used and what part of it applied', () => {
-		const e = evaluateLimits('ieee519', { percentOfIl: new Float64Array(51), busVoltageV: 480, iscIlRatio: 35, edition: '2014' });
+		const e = evaluateLimits('ieee519', {
+			percentOfIl: new Float64Array(51),
+			busVoltageV: 480,
+			iscIlRatio: 35,
+			edition: '2014',
+		});
 		expect(e.tableId).toBe('ieee519');
 		expect(e.tableName).toMatch(/IEEE 519/);
 		expect(e.selection).toMatch(/20 ≤ I_SC\/I_L < 50/);
@@ -235,7 +338,9 @@ describe('evaluateLimits reporting', () => {
 	it('throws RangeError for an unknown table or missing IEEE 519 parameters', () => {
 		expect(() => evaluateLimits('nope' as LimitTableId, {})).toThrow(RangeError);
 		expect(() => evaluateLimits('ieee519', { percentOfFundamental: new Float64Array(51) })).toThrow(RangeError);
-		expect(() => evaluateLimits('ieee519', { percentOfIl: new Float64Array(51), busVoltageV: 480 })).toThrow(RangeError);
+		expect(() => evaluateLimits('ieee519', { percentOfIl: new Float64Array(51), busVoltageV: 480 })).toThrow(
+			RangeError,
+		);
 	});
 
 	it('accepts a table object as well as an id', () => {

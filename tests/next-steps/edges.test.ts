@@ -53,17 +53,35 @@ describe('next-step formulas at their edges', () => {
 
 describe('nextStepsSection on recordings that do not hold what a step starts from', () => {
 	const opts = { frequencyHz: 50, sampleRateHz: 10_000, cycles: 20 };
-	const cap = (channels: Capture['channels']): Capture => ({ source: 'x.csv', sampleRateHz: 10_000, startS: 0, channels, metadata: {}, diagnostics: [] });
+	const cap = (channels: Capture['channels']): Capture => ({
+		source: 'x.csv',
+		sampleRateHz: 10_000,
+		startS: 0,
+		channels,
+		metadata: {},
+		diagnostics: [],
+	});
 
 	it('one voltage channel: power factor, transformer, neutral and motor steps say they do not apply, the meter step still works', () => {
-		const r = analyseCapture(cap([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: harmonicSamples([{ order: 1, rms: 230 }], opts) }]), { site: { targetPowerFactor: 0.95 } });
+		const r = analyseCapture(
+			cap([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: harmonicSamples([{ order: 1, rms: 230 }], opts) }]),
+			{ site: { targetPowerFactor: 0.95 } },
+		);
 		const status = Object.fromEntries(r.nextSteps!.steps.map((s) => [s.step, s.status]));
-		expect(status).toEqual({ 'power-factor-correction': 'not-applicable', 'transformer-loading': 'not-applicable', 'neutral-conductor': 'not-applicable', 'motor-unbalance': 'not-applicable', 'meter-reading': 'needs-input' });
+		expect(status).toEqual({
+			'power-factor-correction': 'not-applicable',
+			'transformer-loading': 'not-applicable',
+			'neutral-conductor': 'not-applicable',
+			'motor-unbalance': 'not-applicable',
+			'meter-reading': 'needs-input',
+		});
 		for (const s of r.nextSteps!.steps) expect(s.finding.length).toBeGreaterThan(0);
 	});
 
 	it('a DC-only channel (no fundamental) gives no step a number: every step does not apply', () => {
-		const r = analyseCapture(cap([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: new Float64Array(2000).fill(12) }]));
+		const r = analyseCapture(
+			cap([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: new Float64Array(2000).fill(12) }]),
+		);
 		expect(r.nextSteps!.steps.every((s) => s.status === 'not-applicable' && s.result === null)).toBe(true);
 	});
 });

@@ -3,7 +3,13 @@
  * Expected values from closed forms (Fourier series of a square wave) and hand computations.
  */
 import { describe, expect, it } from 'vitest';
-import { averageRespondingRms, bandLimitedRms, crestFactorAvailable, meterReading, type MeterChannelFigures } from '../../lib/next-steps/meter.js';
+import {
+	averageRespondingRms,
+	bandLimitedRms,
+	crestFactorAvailable,
+	meterReading,
+	type MeterChannelFigures,
+} from '../../lib/next-steps/meter.js';
 import { NEXT_STEP_CAUTION } from '../../lib/next-steps/types.js';
 
 // Square wave of amplitude A: odd order h has RMS (4A/π)/(h√2); its true RMS is A (Fourier series, closed form).
@@ -13,7 +19,19 @@ const square = Array.from({ length: 50 }, (_, h) => (h % 2 === 1 ? (4 * A) / (Ma
 const squarePhase = square.map((x) => (x > 0 ? -90 : NaN));
 
 function channel(over: Partial<MeterChannelFigures> = {}): MeterChannelFigures {
-	return { channel: 'I1', unit: 'A', quantity: 'current', acRms: A, crestFactor: 1, fundamentalHz: 50, rmsByOrder: square, phaseDegByOrder: squarePhase, averageReading: 111.07, averageErrorPercent: 11.07, ...over };
+	return {
+		channel: 'I1',
+		unit: 'A',
+		quantity: 'current',
+		acRms: A,
+		crestFactor: 1,
+		fundamentalHz: 50,
+		rmsByOrder: square,
+		phaseDegByOrder: squarePhase,
+		averageReading: 111.07,
+		averageErrorPercent: 11.07,
+		...over,
+	};
 }
 
 describe('bandLimitedRms', () => {
@@ -44,16 +62,30 @@ describe('averageRespondingRms', () => {
 		expect(averageRespondingRms([0, 230, 0, 46], [0, -90, NaN, -90], 50, 100)).toBeCloseTo(230, 4);
 	});
 
-	it('averageRespondingRms of a square wave\'s partial sum to order 49 = (π/(2√2)) · (8/π²) Σ_{odd h ≤ 49} 1/h² · A (mean of the partial sum over the half cycle where it is positive, ∫ sin hθ = 2/h; closed form)', () => {
+	it("averageRespondingRms of a square wave's partial sum to order 49 = (π/(2√2)) · (8/π²) Σ_{odd h ≤ 49} 1/h² · A (mean of the partial sum over the half cycle where it is positive, ∫ sin hθ = 2/h; closed form)", () => {
 		let s = 0;
 		for (let h = 1; h <= 49; h += 2) s += 1 / (h * h);
-		expect(averageRespondingRms(square, squarePhase, 50, 1e6) / A).toBeCloseTo((Math.PI / (2 * Math.SQRT2)) * (8 / Math.PI ** 2) * s, 5);
+		expect(averageRespondingRms(square, squarePhase, 50, 1e6) / A).toBeCloseTo(
+			(Math.PI / (2 * Math.SQRT2)) * (8 / Math.PI ** 2) * s,
+			5,
+		);
 	});
 });
 
 describe('meterReading step', () => {
 	it('meterReading with an average-responding meter reports its in-band reading: 245.33 V for 230 V + 46 V 3rd in phase, 4.4 % high against √(230² + 46²) = 234.55 V', () => {
-		const v = { channel: 'U1', unit: 'V', quantity: 'voltage' as const, acRms: Math.hypot(230, 46), crestFactor: 1.3, fundamentalHz: 50, rmsByOrder: [0, 230, 0, 46], phaseDegByOrder: [0, -90, NaN, -90], averageReading: 245.33, averageErrorPercent: 4.6 };
+		const v = {
+			channel: 'U1',
+			unit: 'V',
+			quantity: 'voltage' as const,
+			acRms: Math.hypot(230, 46),
+			crestFactor: 1.3,
+			fundamentalHz: 50,
+			rmsByOrder: [0, 230, 0, 46],
+			phaseDegByOrder: [0, -90, NaN, -90],
+			averageReading: 245.33,
+			averageErrorPercent: 4.6,
+		};
 		const s = meterReading([v], { meterBandwidthHz: 1000, meterCrestFactor: 3, meterResponse: 'average' });
 		expect(s.status).toBe('result');
 		const r = s.result!.channels[0];
@@ -66,7 +98,9 @@ describe('meterReading step', () => {
 		const s = meterReading([channel()], { meterBandwidthHz: 350, meterCrestFactor: 3 });
 		expect(s.status).toBe('partial');
 		expect(s.needs.join(' ')).toMatch(/true-RMS or average-responding/);
-		expect(s.conclusions.filter((c) => c.startsWith('I1: a true-RMS') || c.startsWith('I1: an average-responding'))).toHaveLength(2);
+		expect(
+			s.conclusions.filter((c) => c.startsWith('I1: a true-RMS') || c.startsWith('I1: an average-responding')),
+		).toHaveLength(2);
 	});
 
 	it('meterReading of a square wave on a 350 Hz meter reads 2.55 % low and says so', () => {
@@ -83,7 +117,9 @@ describe('meterReading step', () => {
 		const unknown = meterReading([spiky], { meterCrestFactor: 3 });
 		expect(unknown.result!.channels[0].crestFactorWithin).toBeNull();
 		expect(unknown.needs.join(' ')).toMatch(/current range used/);
-		expect(meterReading([spiky], { meterCrestFactor: 3, meterRangeA: 200 }).result!.channels[0]).toMatchObject({ crestFactorWithin: true });
+		expect(meterReading([spiky], { meterCrestFactor: 3, meterRangeA: 200 }).result!.channels[0]).toMatchObject({
+			crestFactorWithin: true,
+		});
 		const tight = meterReading([spiky], { meterCrestFactor: 3, meterRangeA: 120 }).result!.channels[0];
 		expect(tight.crestFactorAvailable).toBeCloseTo(3.6, 10);
 		expect(tight.crestFactorWithin).toBe(false);

@@ -55,7 +55,9 @@ describe('neutralConductor step', () => {
 
 	it('neutralConductor carries its inputs (phase currents, third harmonic, neutral) and the caution', () => {
 		const s = neutralConductor(phases, { rmsA: 40, measured: false });
-		expect(s.inputs.map((i) => i.name)).toEqual(expect.arrayContaining(['I1 RMS current', 'I1 third harmonic', 'neutral RMS current']));
+		expect(s.inputs.map((i) => i.name)).toEqual(
+			expect.arrayContaining(['I1 RMS current', 'I1 third harmonic', 'neutral RMS current']),
+		);
 		expect(s.inputs.every((i) => i.from === 'recording')).toBe(true);
 		expect(s.caution).toBe(NEXT_STEP_CAUTION);
 	});

@@ -4,7 +4,14 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { detunedTuningOrder, powerFactorCorrection, reactivePowerToAdd, resonanceOrder, transformerShortCircuitKva, truePowerFactorAfter } from '../../lib/next-steps/pf-correction.js';
+import {
+	detunedTuningOrder,
+	powerFactorCorrection,
+	reactivePowerToAdd,
+	resonanceOrder,
+	transformerShortCircuitKva,
+	truePowerFactorAfter,
+} from '../../lib/next-steps/pf-correction.js';
 import { NEXT_STEP_CAUTION } from '../../lib/next-steps/types.js';
 
 describe('reactivePowerToAdd', () => {
@@ -19,18 +26,29 @@ describe('reactivePowerToAdd', () => {
 
 	it('reactivePowerToAdd is 0 whenever the displacement PF is at or above the target (property)', () => {
 		fc.assert(
-			fc.property(fc.double({ min: 0.1, max: 1, noNaN: true }), fc.double({ min: 0.1, max: 1, noNaN: true }), fc.double({ min: 0, max: 1e7, noNaN: true }), (a, b, p) => {
-				const [target, dpf] = a <= b ? [a, b] : [b, a];
-				expect(reactivePowerToAdd(p, dpf, target)).toBe(0);
-			}),
+			fc.property(
+				fc.double({ min: 0.1, max: 1, noNaN: true }),
+				fc.double({ min: 0.1, max: 1, noNaN: true }),
+				fc.double({ min: 0, max: 1e7, noNaN: true }),
+				(a, b, p) => {
+					const [target, dpf] = a <= b ? [a, b] : [b, a];
+					expect(reactivePowerToAdd(p, dpf, target)).toBe(0);
+				},
+			),
 		);
 	});
 
 	it('reactivePowerToAdd grows as the measured displacement PF falls below the target (property)', () => {
 		fc.assert(
-			fc.property(fc.double({ min: 0.2, max: 0.9, noNaN: true }), fc.double({ min: 0.01, max: 0.09, noNaN: true }), (dpf, step) => {
-				expect(reactivePowerToAdd(1e5, dpf, 0.95)).toBeGreaterThan(reactivePowerToAdd(1e5, Math.min(0.949, dpf + step), 0.95));
-			}),
+			fc.property(
+				fc.double({ min: 0.2, max: 0.9, noNaN: true }),
+				fc.double({ min: 0.01, max: 0.09, noNaN: true }),
+				(dpf, step) => {
+					expect(reactivePowerToAdd(1e5, dpf, 0.95)).toBeGreaterThan(
+						reactivePowerToAdd(1e5, Math.min(0.949, dpf + step), 0.95),
+					);
+				},
+			),
 		);
 	});
 
@@ -48,9 +66,14 @@ describe('resonance with the supply', () => {
 
 	it('resonanceOrder moves as √(1/Qc): k times the bank gives the order over √k (property)', () => {
 		fc.assert(
-			fc.property(fc.double({ min: 100, max: 1e6, noNaN: true }), fc.double({ min: 1, max: 1e4, noNaN: true }), fc.double({ min: 0.01, max: 100, noNaN: true }), (ssc, q, k) => {
-				expect(resonanceOrder(ssc, k * q) * Math.sqrt(k)).toBeCloseTo(resonanceOrder(ssc, q), 6);
-			}),
+			fc.property(
+				fc.double({ min: 100, max: 1e6, noNaN: true }),
+				fc.double({ min: 1, max: 1e4, noNaN: true }),
+				fc.double({ min: 0.01, max: 100, noNaN: true }),
+				(ssc, q, k) => {
+					expect(resonanceOrder(ssc, k * q) * Math.sqrt(k)).toBeCloseTo(resonanceOrder(ssc, q), 6);
+				},
+			),
 		);
 	});
 
@@ -73,7 +96,14 @@ describe('truePowerFactorAfter', () => {
 });
 
 describe('powerFactorCorrection step', () => {
-	const phase = (label: string, p1: number, dpf: number, pf: number) => ({ label, activeW: p1, fundamentalActiveW: p1, displacementPowerFactor: dpf, powerFactor: pf, character: 'inductive' as const });
+	const phase = (label: string, p1: number, dpf: number, pf: number) => ({
+		label,
+		activeW: p1,
+		fundamentalActiveW: p1,
+		displacementPowerFactor: dpf,
+		powerFactor: pf,
+		character: 'inductive' as const,
+	});
 	const fifth = [{ channel: 'I1', percentByOrder: [0, 100, 0, 0, 0, 20, 0, 10] }];
 
 	it('powerFactorCorrection without a target asks for it: status needs-input, no numbers, and carries its inputs and the caution', () => {
@@ -121,7 +151,11 @@ describe('powerFactorCorrection step', () => {
 	});
 
 	it('powerFactorCorrection with a transformer-limited supply states the assumption Ssc = S_T / z_T', () => {
-		const s = powerFactorCorrection([phase('U1 × I1', 100e3, 0.75, 0.74)], fifth, { targetPowerFactor: 0.95, transformerKva: 1000, transformerImpedancePercent: 6 });
+		const s = powerFactorCorrection([phase('U1 × I1', 100e3, 0.75, 0.74)], fifth, {
+			targetPowerFactor: 0.95,
+			transformerKva: 1000,
+			transformerImpedancePercent: 6,
+		});
 		expect(s.result!.shortCircuitFrom).toBe('transformer');
 		expect(s.result!.shortCircuitKva).toBeCloseTo(16666.67, 1);
 		expect(s.assumptions.join(' ')).toMatch(/transformer kVA ÷ per-unit impedance/);

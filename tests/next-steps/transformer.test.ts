@@ -4,7 +4,12 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { harmonicLossFactor, kRatedClass, maxLoadCurrentPu, transformerLoading } from '../../lib/next-steps/transformer.js';
+import {
+	harmonicLossFactor,
+	kRatedClass,
+	maxLoadCurrentPu,
+	transformerLoading,
+} from '../../lib/next-steps/transformer.js';
 import { NEXT_STEP_CAUTION } from '../../lib/next-steps/types.js';
 
 // A published K-factor worked example (public web page; spectrum I_h/I_1): 5th 0.20, 7th 0.14, 11th 0.091,
@@ -29,9 +34,14 @@ describe('harmonicLossFactor and maxLoadCurrentPu', () => {
 
 	it('maxLoadCurrentPu falls as F_HL rises (property)', () => {
 		fc.assert(
-			fc.property(fc.double({ min: 0.001, max: 1, noNaN: true }), fc.double({ min: 1, max: 50, noNaN: true }), fc.double({ min: 0.01, max: 20, noNaN: true }), (pec, fhl, more) => {
-				expect(maxLoadCurrentPu(pec, fhl + more)).toBeLessThan(maxLoadCurrentPu(pec, fhl));
-			}),
+			fc.property(
+				fc.double({ min: 0.001, max: 1, noNaN: true }),
+				fc.double({ min: 1, max: 50, noNaN: true }),
+				fc.double({ min: 0.01, max: 20, noNaN: true }),
+				(pec, fhl, more) => {
+					expect(maxLoadCurrentPu(pec, fhl + more)).toBeLessThan(maxLoadCurrentPu(pec, fhl));
+				},
+			),
 		);
 	});
 
@@ -47,7 +57,10 @@ describe('harmonicLossFactor and maxLoadCurrentPu', () => {
 describe('transformerLoading step', () => {
 	it('transformerLoading of the example spectrum with e/(1+e) = 0.091 gives factor K 1.14672 (BS 7821-4 form with n from 2, q 1.7, recomputed from the published page) and I_max √(1.10011/(1 + 8.3476 · 0.10011)) = 0.7748', () => {
 		const e = 0.091 / 0.909;
-		const s = transformerLoading([{ channel: 'I1', rmsByOrder: spectrum }], 25, { transformerEddyLossPu: e, transformerKva: 400 });
+		const s = transformerLoading([{ channel: 'I1', rmsByOrder: spectrum }], 25, {
+			transformerEddyLossPu: e,
+			transformerKva: 400,
+		});
 		expect(s.status).toBe('result');
 		expect(s.result!.factorK).toBeCloseTo(1.14672, 4);
 		expect(s.result!.kRatedClass).toBe(9);
@@ -67,7 +80,10 @@ describe('transformerLoading step', () => {
 
 	it('transformerLoading sets the recorded current against the rated current: 100 kVA at 230 V per phase is 100 000/(3 · 230) = 144.9 A; 140 A is 96.6 %, above the 77.5 % I_max of this spectrum (warned)', () => {
 		const e = 0.091 / 0.909;
-		const s = transformerLoading([{ channel: 'I1', rmsByOrder: spectrum, rmsA: 140, phaseVoltageV: 230 }], 25, { transformerEddyLossPu: e, transformerKva: 100 });
+		const s = transformerLoading([{ channel: 'I1', rmsByOrder: spectrum, rmsA: 140, phaseVoltageV: 230 }], 25, {
+			transformerEddyLossPu: e,
+			transformerKva: 100,
+		});
 		expect(s.result!.ratedCurrentA).toBeCloseTo(100_000 / 690, 6);
 		expect(s.result!.loadPu).toBeCloseTo((140 * 690) / 100_000, 6);
 		expect(s.warnings.join(' ')).toMatch(/above the 77 % a standard transformer carries/);
@@ -76,7 +92,14 @@ describe('transformerLoading step', () => {
 
 	it('transformerLoading picks the channel with the highest K-factor', () => {
 		const sine = [0, 10];
-		const s = transformerLoading([{ channel: 'I1', rmsByOrder: sine }, { channel: 'I2', rmsByOrder: spectrum }], 25, {});
+		const s = transformerLoading(
+			[
+				{ channel: 'I1', rmsByOrder: sine },
+				{ channel: 'I2', rmsByOrder: spectrum },
+			],
+			25,
+			{},
+		);
 		expect(s.result!.channel).toBe('I2');
 	});
 });

@@ -1,10 +1,17 @@
 import { describe, expect, it } from 'vitest';
-import { artificialNeutralPhasors, artificialNeutralVoltages, lineToLineSamples, thirdLineVoltage, threePhaseFromSamples } from '../../lib/polyphase/index.js';
+import {
+	artificialNeutralPhasors,
+	artificialNeutralVoltages,
+	lineToLineSamples,
+	thirdLineVoltage,
+	threePhaseFromSamples,
+} from '../../lib/polyphase/index.js';
 import { phasorAbs, phasorArgDeg, phasorFromPolarDeg, powerWindowRms } from '../../lib/power/index.js';
 import { sineSamples } from '../helpers/synth.js';
 
 const fs = 10_000;
-const sine = (rms: number, deg: number) => sineSamples({ amplitude: rms * Math.SQRT2, frequencyHz: 50, sampleRateHz: fs, cycles: 10.4, phaseDeg: deg });
+const sine = (rms: number, deg: number) =>
+	sineSamples({ amplitude: rms * Math.SQRT2, frequencyHz: 50, sampleRateHz: fs, cycles: 10.4, phaseDeg: deg });
 const window = { startIndex: 0, endIndex: 2000, cycles: 10 };
 
 describe('artificialNeutralVoltages', () => {
@@ -12,7 +19,11 @@ describe('artificialNeutralVoltages', () => {
 		const u = [sine(400, 30), sine(400, -90), sine(400, 150)];
 		const [v1] = artificialNeutralVoltages(u[0], u[1], u[2]);
 		expect(powerWindowRms(v1, window)).toBeCloseTo(400 / Math.sqrt(3), 6);
-		const p = artificialNeutralPhasors(phasorFromPolarDeg(400, 30), phasorFromPolarDeg(400, -90), phasorFromPolarDeg(400, 150));
+		const p = artificialNeutralPhasors(
+			phasorFromPolarDeg(400, 30),
+			phasorFromPolarDeg(400, -90),
+			phasorFromPolarDeg(400, 150),
+		);
 		expect(phasorAbs(p[0])).toBeCloseTo(400 / Math.sqrt(3), 10);
 		expect(phasorArgDeg(p[0])).toBeCloseTo(0, 10);
 	});

@@ -16,7 +16,9 @@ function readRecord(): { fs: number; ch: Record<string, Float64Array> } {
 		return { name: f[1], a: Number(f[5]), b: Number(f[6]) };
 	});
 	const fs = Number(cfg[2 + nA + 2].split(',')[0]);
-	const rows = readFileSync(`${dir}/feeder-sag.dat`, 'utf8').split(/\r?\n/).filter((l) => l.trim() !== '');
+	const rows = readFileSync(`${dir}/feeder-sag.dat`, 'utf8')
+		.split(/\r?\n/)
+		.filter((l) => l.trim() !== '');
 	const ch: Record<string, Float64Array> = {};
 	chans.forEach((c, k) => {
 		ch[c.name] = new Float64Array(rows.length);
@@ -33,17 +35,25 @@ function risingCrossing(x: Float64Array, from: number): number {
 
 describe.skipIf(!present)('three-phase analysis of the feeder-sag-1999 field record (pre-dip cycles)', () => {
 	const { fs, ch } = present ? readRecord() : { fs: 1, ch: {} as Record<string, Float64Array> };
-	const r = present ? threePhaseFromSamples({ voltages: [ch.Va, ch.Vb, ch.Vc], currents: [ch.Ia, ch.Ib, ch.Ic], wiring: '4-wire' }, fs, { maxCycles: 3, nominalHz: 60 }) : undefined;
+	const r = present
+		? threePhaseFromSamples(
+				{ voltages: [ch.Va, ch.Vb, ch.Vc], currents: [ch.Ia, ch.Ib, ch.Ic], wiring: '4-wire' },
+				fs,
+				{ maxCycles: 3, nominalHz: 60 },
+			)
+		: undefined;
 
 	it('finds the rotation that the order of the zero crossings shows (independent time-domain reading)', () => {
 		if (!r?.ok) throw new Error('analysis failed');
 		// period from the declared 60 Hz; each phase's first rising crossing after the first one of Va
 		const periodSamples = fs / 60;
 		const ta = risingCrossing(ch.Va, 0);
-		const delay = (x: Float64Array) => (((risingCrossing(x, Math.floor(ta)) - ta) % periodSamples) + periodSamples) % periodSamples / periodSamples;
+		const delay = (x: Float64Array) =>
+			((((risingCrossing(x, Math.floor(ta)) - ta) % periodSamples) + periodSamples) % periodSamples) / periodSamples;
 		const bThird = delay(ch.Vb);
 		// positive rotation: Vb crosses a third of a period after Va; negative: two thirds
-		const expected = Math.abs(bThird - 1 / 3) < 0.1 ? 'positive' : Math.abs(bThird - 2 / 3) < 0.1 ? 'negative' : 'undetermined';
+		const expected =
+			Math.abs(bThird - 1 / 3) < 0.1 ? 'positive' : Math.abs(bThird - 2 / 3) < 0.1 ? 'negative' : 'undetermined';
 		expect(expected).not.toBe('undetermined');
 		expect(r.rotation.rotation).toBe(expected);
 	});

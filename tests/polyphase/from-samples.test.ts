@@ -5,7 +5,8 @@ import { harmonicSamples, sineSamples } from '../helpers/synth.js';
 type T3 = [Float64Array, Float64Array, Float64Array];
 const fs = 10_000;
 const o = { frequencyHz: 50, sampleRateHz: fs, cycles: 10.4 };
-const sine = (rms: number, deg: number) => sineSamples({ amplitude: rms * Math.SQRT2, frequencyHz: 50, sampleRateHz: fs, cycles: 10.4, phaseDeg: deg });
+const sine = (rms: number, deg: number) =>
+	sineSamples({ amplitude: rms * Math.SQRT2, frequencyHz: 50, sampleRateHz: fs, cycles: 10.4, phaseDeg: deg });
 
 describe('threePhaseFromSamples', () => {
 	// docs/methods.md §5.4 set (computed by docs/check-vectors.py): phasor angles; the common sine/cosine reference does not change relations
@@ -37,7 +38,15 @@ describe('threePhaseFromSamples', () => {
 
 	it('computes a neutral of 3·I3 with 100 % triplen content for balanced loads drawing 3rd harmonic (closed form)', () => {
 		const v: T3 = [sine(230, 0), sine(230, -120), sine(230, 120)];
-		const i = [0, -120, 120].map((phi) => harmonicSamples([{ order: 1, rms: 10, phaseDeg: phi - 10 }, { order: 3, rms: 4, phaseDeg: 3 * phi }], o)) as T3;
+		const i = [0, -120, 120].map((phi) =>
+			harmonicSamples(
+				[
+					{ order: 1, rms: 10, phaseDeg: phi - 10 },
+					{ order: 3, rms: 4, phaseDeg: 3 * phi },
+				],
+				o,
+			),
+		) as T3;
 		const r = threePhaseFromSamples({ voltages: v, currents: i, wiring: '4-wire' }, fs);
 		if (!r.ok) throw new Error(r.message);
 		expect(r.neutral!.neutralRmsA).toBeCloseTo(12, 3);
@@ -49,11 +58,18 @@ describe('threePhaseFromSamples', () => {
 
 	it('accepts a measured neutral equal to ±(sum of line currents) and warns when it is 60° off', () => {
 		// the §5.4 currents sum to 3.4641 A at −120° (sine reference, hand sum of the three phasors)
-		for (const [deg, warn] of [[-120, false], [60, false], [180, true]] as const) {
+		for (const [deg, warn] of [
+			[-120, false],
+			[60, false],
+			[180, true],
+		] as const) {
 			const r = threePhaseFromSamples({ voltages, currents, neutralCurrent: sine(3.4641, deg), wiring: '4-wire' }, fs);
 			if (!r.ok) throw new Error(r.message);
 			expect(r.neutral!.source).toBe('measured');
-			expect(r.diagnostics.some((d) => d.code === 'neutral-mismatch'), `neutral at ${deg} deg`).toBe(warn);
+			expect(
+				r.diagnostics.some((d) => d.code === 'neutral-mismatch'),
+				`neutral at ${deg} deg`,
+			).toBe(warn);
 		}
 	});
 

@@ -14,7 +14,8 @@ import { harmonicSamples, sineSamples } from '../helpers/synth.js';
 import { setFromSineTones } from '../power/harmonic-set.js';
 
 const P = phasorFromPolarDeg;
-const balanced = () => [P(230, 0), P(230, -120), P(230, 120)] as [ReturnType<typeof P>, ReturnType<typeof P>, ReturnType<typeof P>];
+const balanced = () =>
+	[P(230, 0), P(230, -120), P(230, 120)] as [ReturnType<typeof P>, ReturnType<typeof P>, ReturnType<typeof P>];
 
 describe('line-to-line voltages', () => {
 	it('lineToLineSamples of two 230 V phases 120° apart has RMS 230·√3 (closed form)', () => {
@@ -57,7 +58,15 @@ describe('neutral current', () => {
 	const fs = 10_000;
 	const o = { frequencyHz: 50, sampleRateHz: fs, samples: 2001 };
 	// balanced 10 A fundamentals plus 3 A of 3rd harmonic per phase; the 3rd is in phase on all lines (3·120° = 360°)
-	const phases = [0, -120, 120].map((phi) => harmonicSamples([{ order: 1, rms: 10, phaseDeg: phi }, { order: 3, rms: 3, phaseDeg: 3 * phi + 25 }], o));
+	const phases = [0, -120, 120].map((phi) =>
+		harmonicSamples(
+			[
+				{ order: 1, rms: 10, phaseDeg: phi },
+				{ order: 3, rms: 3, phaseDeg: 3 * phi + 25 },
+			],
+			o,
+		),
+	);
 	const window = { startIndex: 0, endIndex: 2000, cycles: 10 };
 
 	it('sumPhaseCurrents of balanced phases with 3 A of 3rd harmonic leaves 9 A of 3rd in the neutral (3·I3, closed form)', () => {
@@ -66,7 +75,15 @@ describe('neutral current', () => {
 	});
 
 	it('neutralCurrentFigures: 9 A is 86.2 % of a √109 A phase current, 100 % triplen (closed form)', () => {
-		const sets = [0, -120, 120].map((phi) => setFromSineTones([{ order: 1, rms: 10, phaseDeg: phi }, { order: 3, rms: 3, phaseDeg: 3 * phi + 25 }], { maxOrder: 9 }));
+		const sets = [0, -120, 120].map((phi) =>
+			setFromSineTones(
+				[
+					{ order: 1, rms: 10, phaseDeg: phi },
+					{ order: 3, rms: 3, phaseDeg: 3 * phi + 25 },
+				],
+				{ maxOrder: 9 },
+			),
+		);
 		const nSet = sumHarmonicSets(sets[0], sets[1], sets[2]);
 		expect(nSet.orders[1].rms).toBeCloseTo(0, 9);
 		expect(nSet.orders[3].rms).toBeCloseTo(9, 9);
@@ -95,19 +112,30 @@ describe('neutral current', () => {
 
 describe('detectLineToLineVoltages', () => {
 	it('says a capture of U12/U23/U31 holds line-to-line voltages', () => {
-		const r = detectLineToLineVoltages([{ name: 'U12', rmsV: 401 }, { name: 'U23', rmsV: 399 }, { name: 'U31', rmsV: 402 }]);
+		const r = detectLineToLineVoltages([
+			{ name: 'U12', rmsV: 401 },
+			{ name: 'U23', rmsV: 399 },
+			{ name: 'U31', rmsV: 402 },
+		]);
 		expect(r.verdict).toBe('line-to-line');
 		expect(r.diagnostics.some((d) => d.code === 'voltages-line-to-line')).toBe(true);
 	});
 
 	it('warns when channels named as phases read 400 V (the line voltage of 230/400 V, IEC 60038 from memory)', () => {
-		const r = detectLineToLineVoltages([{ name: 'U1', rmsV: 400 }, { name: 'U2', rmsV: 398 }, { name: 'U3', rmsV: 402 }]);
+		const r = detectLineToLineVoltages([
+			{ name: 'U1', rmsV: 400 },
+			{ name: 'U2', rmsV: 398 },
+			{ name: 'U3', rmsV: 402 },
+		]);
 		expect(r.verdict).toBe('line-to-neutral');
 		expect(r.diagnostics.filter((d) => d.code === 'voltage-name-level-mismatch')).toHaveLength(3);
 	});
 
 	it('reads unnamed channels by level alone, and 220 V as ambiguous (127/220 vs 220/380)', () => {
-		const r = detectLineToLineVoltages([{ name: 'CH1', rmsV: 415 }, { name: 'CH2', rmsV: 220 }]);
+		const r = detectLineToLineVoltages([
+			{ name: 'CH1', rmsV: 415 },
+			{ name: 'CH2', rmsV: 220 },
+		]);
 		expect(r.channels.map((c) => c.reading)).toEqual(['line-to-line', 'unknown']);
 	});
 
@@ -125,7 +153,9 @@ describe('starDeltaHints', () => {
 		const ll = lineVoltagePhasors(...b);
 		const hints = starDeltaHints({ phaseVoltages: b, lineVoltages: [ll[0], ll[2], ll[1]] });
 		expect(hints.find((d) => d.code === 'line-voltage-agreement')!.severity).toBe('warning');
-		expect(starDeltaHints({ phaseVoltages: b, lineVoltages: ll }).find((d) => d.code === 'line-voltage-agreement')!.severity).toBe('info');
+		expect(
+			starDeltaHints({ phaseVoltages: b, lineVoltages: ll }).find((d) => d.code === 'line-voltage-agreement')!.severity,
+		).toBe('info');
 	});
 
 	it('line currents summing to zero suggest 3-wire; a residual in a declared 3-wire circuit is a warning, in a 4-wire one information', () => {

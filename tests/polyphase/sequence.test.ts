@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { currentUnbalance, lineMagnitudeUnbalance, lineVoltageUnbalance, phaseRotation, phasesFromSequence, symmetricalComponents, voltageUnbalance } from '../../lib/polyphase/index.js';
+import {
+	currentUnbalance,
+	lineMagnitudeUnbalance,
+	lineVoltageUnbalance,
+	phaseRotation,
+	phasesFromSequence,
+	symmetricalComponents,
+	voltageUnbalance,
+} from '../../lib/polyphase/index.js';
 import { phasorAbs, phasorFromPolarDeg, phasorSub } from '../../lib/power/index.js';
 
 const P = phasorFromPolarDeg;
@@ -45,7 +53,12 @@ describe('symmetricalComponents: constructed cases (closed form)', () => {
 		const c = P(241, 117);
 		const s = symmetricalComponents(a, b, c);
 		const [x, y, z] = phasesFromSequence(s.zero, s.positive, s.negative);
-		for (const [got, want] of [[x, a], [y, b], [z, c]]) expect(phasorAbs(phasorSub(got, want))).toBeLessThan(1e-9);
+		for (const [got, want] of [
+			[x, a],
+			[y, b],
+			[z, c],
+		])
+			expect(phasorAbs(phasorSub(got, want))).toBeLessThan(1e-9);
 	});
 });
 
@@ -73,8 +86,16 @@ describe('phase-voltage example of docs/methods.md §5.4/§7 [COMPUTED by refere
 
 	it('names every figure (code, name, definition, reference) so they cannot be confused', () => {
 		const codes = voltageUnbalance(va, vb, vc).figures.map((f) => f.code);
-		expect(codes).toEqual(['vuf-iec', 'zero-sequence-ratio', 'vuf-beta', 'lvur-nema', 'pvur-ieee', 'pvur-ieee-max-min']);
-		for (const f of voltageUnbalance(va, vb, vc).figures) expect(f.name.length * f.definition.length * f.reference.length).toBeGreaterThan(0);
+		expect(codes).toEqual([
+			'vuf-iec',
+			'zero-sequence-ratio',
+			'vuf-beta',
+			'lvur-nema',
+			'pvur-ieee',
+			'pvur-ieee-max-min',
+		]);
+		for (const f of voltageUnbalance(va, vb, vc).figures)
+			expect(f.name.length * f.definition.length * f.reference.length).toBeGreaterThan(0);
 	});
 
 	it('calls the rotation positive and clear (angle(Vb) − angle(Va) = −118°)', () => {

@@ -19,8 +19,20 @@ describe('channelRelationFromSamples (lib/signal whole cycles + lib/spectrum pha
 	it('gives per-order lags of a distorted pair (3rd harmonic of the current leads its voltage by 60°)', () => {
 		const fs = 12_800;
 		const o = { frequencyHz: 50, sampleRateHz: fs, cycles: 10.5 };
-		const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 3, rms: 6.9 }], o);
-		const i = harmonicSamples([{ order: 1, rms: 10, phaseDeg: -30 }, { order: 3, rms: 3, phaseDeg: 60 }], o);
+		const u = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 3, rms: 6.9 },
+			],
+			o,
+		);
+		const i = harmonicSamples(
+			[
+				{ order: 1, rms: 10, phaseDeg: -30 },
+				{ order: 3, rms: 3, phaseDeg: 60 },
+			],
+			o,
+		);
 		const r = channelRelationFromSamples(u, i, fs, 'U', 'I', { maxOrder: 5 });
 		if (!r.ok) throw new Error(r.message);
 		expect(r.harmonicLags[0].lagDeg).toBeCloseTo(30, 3);
@@ -36,8 +48,22 @@ describe('channelRelationFromSamples (lib/signal whole cycles + lib/spectrum pha
 describe('singlePhasePowerFromSamples', () => {
 	it('reproduces docs/methods.md §5.3 (computed by docs/check-vectors.py) from samples found by lib/signal (10.5 cycles recorded)', () => {
 		const o = { frequencyHz: 50, sampleRateHz: 12_800, cycles: 10.5 };
-		const v = harmonicSamples([{ order: 1, rms: 230 }, { order: 3, rms: 6.9 }, { order: 5, rms: 11.5 }], o);
-		const i = harmonicSamples([{ order: 1, rms: 10, phaseDeg: -30 }, { order: 3, rms: 3, phaseDeg: 60 }, { order: 5, rms: 2, phaseDeg: -45 }], o);
+		const v = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 3, rms: 6.9 },
+				{ order: 5, rms: 11.5 },
+			],
+			o,
+		);
+		const i = harmonicSamples(
+			[
+				{ order: 1, rms: 10, phaseDeg: -30 },
+				{ order: 3, rms: 3, phaseDeg: 60 },
+				{ order: 5, rms: 2, phaseDeg: -45 },
+			],
+			o,
+		);
 		const r = singlePhasePowerFromSamples(v, i, 12_800);
 		if (!r.ok) throw new Error(r.message);
 		// docs/methods.md §5.3, computed vector from the shared reference script; the last three are closed form:

@@ -12,7 +12,10 @@ export interface SineTone {
 	phaseDeg?: number;
 }
 
-export function setFromSineTones(tones: SineTone[], opts: { fundamentalHz?: number; maxOrder?: number; dc?: number } = {}): HarmonicSet {
+export function setFromSineTones(
+	tones: SineTone[],
+	opts: { fundamentalHz?: number; maxOrder?: number; dc?: number } = {},
+): HarmonicSet {
 	const maxOrder = opts.maxOrder ?? Math.max(1, ...tones.map((t) => t.order));
 	const orders = Array.from({ length: maxOrder + 1 }, (_, h) => ({ order: h, rms: 0, phaseDeg: NaN }));
 	if (opts.dc) orders[0] = { order: 0, rms: Math.abs(opts.dc), phaseDeg: opts.dc > 0 ? 0 : 180 };

@@ -3,7 +3,11 @@ import { describe, expect, it } from 'vitest';
 import type { Channel } from '../../lib/capture.js';
 import { inferPhaseFamily, pairPowerChannels, parsePhaseLabel, resolvePhaseToken } from '../../lib/power/index.js';
 
-const ch = (name: string, quantity: Channel['quantity'] = 'other', phase?: string) => ({ name, quantity, ...(phase ? { phase } : {}) });
+const ch = (name: string, quantity: Channel['quantity'] = 'other', phase?: string) => ({
+	name,
+	quantity,
+	...(phase ? { phase } : {}),
+});
 
 describe('parsePhaseLabel', () => {
 	it.each([
@@ -45,15 +49,26 @@ describe('resolvePhaseToken and inferPhaseFamily', () => {
 		expect(resolvePhaseToken('S', 'ABC')).toBeUndefined();
 	});
 	it('Y makes a capture R/Y/B; B alone is assumed A/B/C and says so', () => {
-		expect(inferPhaseFamily([{ kind: 'phase', tokens: ['Y'] }, { kind: 'phase', tokens: ['B'] }]).family).toBe('RYB');
-		expect(inferPhaseFamily([{ kind: 'phase', tokens: ['B'] }])).toEqual({ family: 'ABC', assumed: true, conflicting: [] });
+		expect(
+			inferPhaseFamily([
+				{ kind: 'phase', tokens: ['Y'] },
+				{ kind: 'phase', tokens: ['B'] },
+			]).family,
+		).toBe('RYB');
+		expect(inferPhaseFamily([{ kind: 'phase', tokens: ['B'] }])).toEqual({
+			family: 'ABC',
+			assumed: true,
+			conflicting: [],
+		});
 		expect(inferPhaseFamily([{ kind: 'phase', tokens: ['1'] }]).family).toBe('numeric');
 	});
 });
 
 describe('pairPowerChannels', () => {
 	it('pairs U1/U2/U3 with I1/I2/I3 by label and leaves nothing unpaired', () => {
-		const r = pairPowerChannels(['U1', 'U2', 'U3', 'I1', 'I2', 'I3'].map((n) => ch(n, n[0] === 'U' ? 'voltage' : 'current')));
+		const r = pairPowerChannels(
+			['U1', 'U2', 'U3', 'I1', 'I2', 'I3'].map((n) => ch(n, n[0] === 'U' ? 'voltage' : 'current')),
+		);
 		expect(r.pairs.map((p) => [p.label, p.voltage, p.current, p.origin])).toEqual([
 			['L1', 'U1', 'I1', 'auto'],
 			['L2', 'U2', 'I2', 'auto'],
@@ -81,7 +96,12 @@ describe('pairPowerChannels', () => {
 	});
 
 	it('lists line-to-line channels separately and reports unlabelled channels', () => {
-		const r = pairPowerChannels([ch('U12', 'voltage'), ch('U23', 'voltage'), ch('U31', 'voltage'), ch('CH4', 'current')]);
+		const r = pairPowerChannels([
+			ch('U12', 'voltage'),
+			ch('U23', 'voltage'),
+			ch('U31', 'voltage'),
+			ch('CH4', 'current'),
+		]);
 		expect(r.lineVoltages).toEqual([
 			{ name: 'U12', from: 1, to: 2 },
 			{ name: 'U23', from: 2, to: 3 },
@@ -100,7 +120,10 @@ describe('pairPowerChannels', () => {
 
 	it('applies a user override before the automatic matching (crossed clamps)', () => {
 		const chans = ['U1', 'U2', 'U3', 'I1', 'I2', 'I3'].map((n) => ch(n, n[0] === 'U' ? 'voltage' : 'current'));
-		const r = pairPowerChannels(chans, [{ voltage: 'U1', current: 'I2' }, { voltage: 'U2', current: 'I1' }]);
+		const r = pairPowerChannels(chans, [
+			{ voltage: 'U1', current: 'I2' },
+			{ voltage: 'U2', current: 'I1' },
+		]);
 		expect(r.pairs.map((p) => [p.phase, p.voltage, p.current, p.origin])).toEqual([
 			[1, 'U1', 'I2', 'override'],
 			[2, 'U2', 'I1', 'override'],
@@ -121,20 +144,23 @@ describe('pairPowerChannels', () => {
 
 	const cfg = '../shared/data/feeder-sag-1999/feeder-sag.cfg';
 	if (!existsSync(cfg)) console.warn(`skipping the field-recording pairing test: ${cfg} is absent`);
-	it.skipIf(!existsSync(cfg))('pairs the channel names of the real feeder-sag-1999 COMTRADE record (Ia..Vc) as A/B/C', () => {
-		// channel name and unit read straight from the .cfg analog lines (fields 2 and 5)
-		const lines = readFileSync(cfg, 'utf8').split(/\r?\n/);
-		const count = Number(/(\d+)A/.exec(lines[1])![1]);
-		const chans = lines.slice(2, 2 + count).map((l) => {
-			const f = l.split(',');
-			return ch(f[1], f[4] === 'V' ? 'voltage' : f[4] === 'A' ? 'current' : 'other');
-		});
-		const r = pairPowerChannels(chans);
-		expect(r.family).toBe('ABC');
-		expect(r.pairs.map((p) => [p.label, p.voltage, p.current])).toEqual([
-			['A', 'Va', 'Ia'],
-			['B', 'Vb', 'Ib'],
-			['C', 'Vc', 'Ic'],
-		]);
-	});
+	it.skipIf(!existsSync(cfg))(
+		'pairs the channel names of the real feeder-sag-1999 COMTRADE record (Ia..Vc) as A/B/C',
+		() => {
+			// channel name and unit read straight from the .cfg analog lines (fields 2 and 5)
+			const lines = readFileSync(cfg, 'utf8').split(/\r?\n/);
+			const count = Number(/(\d+)A/.exec(lines[1])![1]);
+			const chans = lines.slice(2, 2 + count).map((l) => {
+				const f = l.split(',');
+				return ch(f[1], f[4] === 'V' ? 'voltage' : f[4] === 'A' ? 'current' : 'other');
+			});
+			const r = pairPowerChannels(chans);
+			expect(r.family).toBe('ABC');
+			expect(r.pairs.map((p) => [p.label, p.voltage, p.current])).toEqual([
+				['A', 'Va', 'Ia'],
+				['B', 'Vb', 'Ib'],
+				['C', 'Vc', 'Ic'],
+			]);
+		},
+	);
 });

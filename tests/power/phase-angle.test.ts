@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { describePhaseLag, fundamentalLagDeg, harmonicLagsDeg, loadCharacterFromAngle, phaseLagDeg, RESISTIVE_BAND_DEG, wrapAngleDeg } from '../../lib/power/index.js';
+import {
+	describePhaseLag,
+	fundamentalLagDeg,
+	harmonicLagsDeg,
+	loadCharacterFromAngle,
+	phaseLagDeg,
+	RESISTIVE_BAND_DEG,
+	wrapAngleDeg,
+} from '../../lib/power/index.js';
 import { setFromSineTones } from './harmonic-set.js';
 
 describe('phaseLagDeg', () => {
@@ -26,8 +34,21 @@ describe('phaseLagDeg', () => {
 });
 
 describe('fundamentalLagDeg and harmonicLagsDeg', () => {
-	const u = setFromSineTones([{ order: 1, rms: 230 }, { order: 3, rms: 5, phaseDeg: 10 }], { maxOrder: 5 });
-	const i = setFromSineTones([{ order: 1, rms: 10, phaseDeg: -32 }, { order: 3, rms: 3, phaseDeg: 70 }, { order: 5, rms: 1 }], { maxOrder: 5 });
+	const u = setFromSineTones(
+		[
+			{ order: 1, rms: 230 },
+			{ order: 3, rms: 5, phaseDeg: 10 },
+		],
+		{ maxOrder: 5 },
+	);
+	const i = setFromSineTones(
+		[
+			{ order: 1, rms: 10, phaseDeg: -32 },
+			{ order: 3, rms: 3, phaseDeg: 70 },
+			{ order: 5, rms: 1 },
+		],
+		{ maxOrder: 5 },
+	);
 
 	it('fundamentalLagDeg(u, i) is the lag of the fundamental current (32°, closed form)', () => {
 		expect(fundamentalLagDeg(u, i)).toBeCloseTo(32, 12);

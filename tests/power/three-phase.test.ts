@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { ieee1459ThreePhaseFromComponents, phasorAbs, phasorFromPolarDeg, phasorSub, threePhasePowerFromHarmonics, type ComplexPhasor, type ThreePhaseInputPhase } from '../../lib/power/index.js';
+import {
+	ieee1459ThreePhaseFromComponents,
+	phasorAbs,
+	phasorFromPolarDeg,
+	phasorSub,
+	threePhasePowerFromHarmonics,
+	type ComplexPhasor,
+	type ThreePhaseInputPhase,
+} from '../../lib/power/index.js';
 import { setFromSineTones } from './harmonic-set.js';
 
 const P = phasorFromPolarDeg;
@@ -61,7 +69,11 @@ describe('ieee1459ThreePhaseFromComponents: three-phase example of docs/methods.
 describe('ieee1459ThreePhaseFromComponents: balanced closed form', () => {
 	// 230 V star, 10 A per phase lagging 36.87° (PF 0.8): P = 3·2300·0.8 = 5520 W, Q = 4140 var, Se = 6900 VA
 	const th = (Math.atan2(3, 4) * 180) / Math.PI;
-	const r = fundamentalOnly([P(230, 0), P(230, -120), P(230, 120)], [P(10, -th), P(10, -120 - th), P(10, 120 - th)], '4-wire');
+	const r = fundamentalOnly(
+		[P(230, 0), P(230, -120), P(230, 120)],
+		[P(10, -th), P(10, -120 - th), P(10, 120 - th)],
+		'4-wire',
+	);
 	it('gives Ve = V, Ie = I, Se = S1+ = 6900 VA, PFe = PF1+ = 0.8, S_U1 = 0', () => {
 		expect(r.effectiveVoltageV).toBeCloseTo(230, 9);
 		expect(r.effectiveCurrentA).toBeCloseTo(10, 9);
@@ -81,7 +93,10 @@ describe('threePhasePowerFromHarmonics', () => {
 		const phases = [0, -120, 120].map((phi) => ({
 			voltage: setFromSineTones([{ order: 1, rms: 230, phaseDeg: phi }], { maxOrder: 3 }),
 			// a balanced 3rd harmonic is in phase on all three lines (zero sequence): 3·phi ≡ 0
-			current: setFromSineTones([{ order: 1, rms: i1, phaseDeg: phi - 20 }, { order: 3, rms: i3, phaseDeg: 3 * phi + 15 }]),
+			current: setFromSineTones([
+				{ order: 1, rms: i1, phaseDeg: phi - 20 },
+				{ order: 3, rms: i3, phaseDeg: 3 * phi + 15 },
+			]),
 		})) as [ThreePhaseInputPhase, ThreePhaseInputPhase, ThreePhaseInputPhase];
 		const r = threePhasePowerFromHarmonics('4-wire', phases);
 		const ie = Math.sqrt((3 * (i1 * i1 + i3 * i3) + (3 * i3) ** 2) / 3);
@@ -91,14 +106,22 @@ describe('threePhasePowerFromHarmonics', () => {
 		expect(r.activePowerW).toBeCloseTo(3 * 2300 * Math.cos((20 * Math.PI) / 180), 6);
 		expect(r.effectivePowerFactor).toBeCloseTo(r.activePowerW / (3 * 230 * ie), 12);
 		expect(r.effectiveNonFundamentalApparentPowerVA ** 2).toBeCloseTo(
-			r.effectiveCurrentDistortionPowerVar ** 2 + r.effectiveVoltageDistortionPowerVar ** 2 + r.effectiveHarmonicApparentPowerVA ** 2,
+			r.effectiveCurrentDistortionPowerVar ** 2 +
+				r.effectiveVoltageDistortionPowerVar ** 2 +
+				r.effectiveHarmonicApparentPowerVA ** 2,
 			3,
 		);
 	});
 
 	it('throws RangeError when a set has no fundamental', () => {
 		const s = { fundamentalHz: 50, startS: 0, cycles: 10, orders: [{ order: 0, rms: 0, phaseDeg: NaN }] };
-		expect(() => threePhasePowerFromHarmonics('3-wire', [{ voltage: s, current: s }, { voltage: s, current: s }, { voltage: s, current: s }])).toThrow(RangeError);
+		expect(() =>
+			threePhasePowerFromHarmonics('3-wire', [
+				{ voltage: s, current: s },
+				{ voltage: s, current: s },
+				{ voltage: s, current: s },
+			]),
+		).toThrow(RangeError);
 	});
 });
 

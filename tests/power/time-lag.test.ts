@@ -27,15 +27,22 @@ describe('crossCorrelationLag', () => {
 	it('gives a negative lag for a leading channel and handles lags near ±180°', () => {
 		const ref = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 2600 });
 		const lead = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 2600, phaseDeg: 75 });
-		expect(crossCorrelationLag(ref, lead, fs, { startIndex: 200, endIndex: 2200, cycles: 10 }).lagDeg).toBeCloseTo(-75, 1);
+		expect(crossCorrelationLag(ref, lead, fs, { startIndex: 200, endIndex: 2200, cycles: 10 }).lagDeg).toBeCloseTo(
+			-75,
+			1,
+		);
 		const anti = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 2600, phaseDeg: -179.7 });
-		expect(crossCorrelationLag(ref, anti, fs, { startIndex: 200, endIndex: 2200, cycles: 10 }).lagDeg).toBeCloseTo(179.7, 1);
+		expect(crossCorrelationLag(ref, anti, fs, { startIndex: 200, endIndex: 2200, cycles: 10 }).lagDeg).toBeCloseTo(
+			179.7,
+			1,
+		);
 	});
 
 	it('of a distorted waveform and its time-shifted copy returns the shift (time-shift invariance: 0.9 ms)', () => {
 		// a shift of τ moves harmonic h by −h·360·f·τ degrees
 		const tauS = 0.0009;
-		const tones = (shiftS: number) => [1, 3, 5].map((h, k) => ({ order: h, rms: [230, 20, 12][k], phaseDeg: [0, 40, -70][k] - h * 360 * 50 * shiftS }));
+		const tones = (shiftS: number) =>
+			[1, 3, 5].map((h, k) => ({ order: h, rms: [230, 20, 12][k], phaseDeg: [0, 40, -70][k] - h * 360 * 50 * shiftS }));
 		const ref = harmonicSamples(tones(0), { frequencyHz: 50, sampleRateHz: fs, samples: 2600 });
 		const other = harmonicSamples(tones(tauS), { frequencyHz: 50, sampleRateHz: fs, samples: 2600 });
 		const r = crossCorrelationLag(ref, other, fs, { startIndex: 200, endIndex: 2200, cycles: 10 });
@@ -61,7 +68,10 @@ describe('crossCorrelationLag', () => {
 
 	it('returns NaN fields for a constant channel', () => {
 		const ref = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: fs, samples: 2600 });
-		expect(crossCorrelationLag(ref, new Float64Array(2600).fill(3), fs, { startIndex: 200, endIndex: 2200, cycles: 10 }).lagS).toBeNaN();
+		expect(
+			crossCorrelationLag(ref, new Float64Array(2600).fill(3), fs, { startIndex: 200, endIndex: 2200, cycles: 10 })
+				.lagS,
+		).toBeNaN();
 	});
 
 	it('gives the same lag after block-averaging a 1 MS/s record (20 000 samples per period): 20° within 0.05°', () => {
@@ -75,14 +85,18 @@ describe('crossCorrelationLag', () => {
 
 	it('throws RangeError for unequal lengths or a bad sample rate', () => {
 		const x = new Float64Array(500);
-		expect(() => crossCorrelationLag(x, new Float64Array(400), fs, { startIndex: 0, endIndex: 200, cycles: 1 })).toThrow(RangeError);
+		expect(() =>
+			crossCorrelationLag(x, new Float64Array(400), fs, { startIndex: 0, endIndex: 200, cycles: 1 }),
+		).toThrow(RangeError);
 		expect(() => crossCorrelationLag(x, x, 0, { startIndex: 0, endIndex: 200, cycles: 1 })).toThrow(RangeError);
 	});
 });
 
 describe('crossCorrelationLag edge cases', () => {
 	it('throws RangeError for empty arrays (no window fits) and returns NaN when a sample is NaN', () => {
-		expect(() => crossCorrelationLag(new Float64Array(0), new Float64Array(0), 10_000, { startIndex: 0, endIndex: 1, cycles: 1 })).toThrow(RangeError);
+		expect(() =>
+			crossCorrelationLag(new Float64Array(0), new Float64Array(0), 10_000, { startIndex: 0, endIndex: 1, cycles: 1 }),
+		).toThrow(RangeError);
 		const ref = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, samples: 2600 });
 		const other = ref.slice();
 		other[1000] = NaN;

@@ -12,7 +12,9 @@ import { analyseCapture } from '../../lib/report/analyse.js';
 import { reportToJson } from '../../lib/report/to-json.js';
 import { harmonicSamples, sineSamples, type Tone } from '../helpers/synth.js';
 
-const schema = JSON.parse(readFileSync(join(import.meta.dirname, '..', '..', 'lib', 'report', 'report.schema.json'), 'utf8'));
+const schema = JSON.parse(
+	readFileSync(join(import.meta.dirname, '..', '..', 'lib', 'report', 'report.schema.json'), 'utf8'),
+);
 const validate = new Ajv2020({ allErrors: true, strict: false }).compile(schema);
 
 const FS = 10_000;
@@ -22,7 +24,14 @@ function channel(name: string, unit: string, quantity: Quantity, samples: Float6
 }
 
 function capture(channels: Channel[], sampleRateHz = FS): Capture {
-	return { source: 'test.csv', sampleRateHz, startS: 0, channels, metadata: {}, diagnostics: [{ code: 'test-note', message: 'Made by the test.', severity: 'info' }] };
+	return {
+		source: 'test.csv',
+		sampleRateHz,
+		startS: 0,
+		channels,
+		metadata: {},
+		diagnostics: [{ code: 'test-note', message: 'Made by the test.', severity: 'info' }],
+	};
 }
 
 function tones(list: Tone[], cycles: number, frequencyHz = 50, offset?: number): Float64Array {
@@ -31,7 +40,15 @@ function tones(list: Tone[], cycles: number, frequencyHz = 50, offset?: number):
 
 describe('analyseCapture: one channel', () => {
 	// 230 V rms fundamental, 11.5 V rms 5th (5 %), 10 V DC.
-	const u = tones([{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }], 20.4, 50, 10);
+	const u = tones(
+		[
+			{ order: 1, rms: 230 },
+			{ order: 5, rms: 11.5 },
+		],
+		20.4,
+		50,
+		10,
+	);
 	const report = analyseCapture(capture([channel('U1', 'V', 'voltage', u)]));
 	const c = report.channels[0];
 
@@ -76,10 +93,18 @@ describe('analyseCapture: one channel', () => {
 
 describe('analyseCapture: windows and span', () => {
 	it('analyseCapture(capture) cuts 10-cycle harmonic windows at 50 Hz and 12-cycle ones at 60 Hz (IEC 61000-4-7 4.4.1, docs/methods.md 2.1, read in a secondary source)', () => {
-		const r50 = analyseCapture(capture([channel('U1', 'V', 'voltage', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 52 }))]));
+		const r50 = analyseCapture(
+			capture([
+				channel('U1', 'V', 'voltage', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 52 })),
+			]),
+		);
 		expect(r50.window.harmonicWindowCycles).toBe(10);
 		expect(r50.window.harmonicWindows).toBe(Math.floor(r50.cyclesAnalysed / 10));
-		const r60 = analyseCapture(capture([channel('U1', 'V', 'voltage', sineSamples({ amplitude: 170, frequencyHz: 60, sampleRateHz: FS, cycles: 52 }))]));
+		const r60 = analyseCapture(
+			capture([
+				channel('U1', 'V', 'voltage', sineSamples({ amplitude: 170, frequencyHz: 60, sampleRateHz: FS, cycles: 52 })),
+			]),
+		);
 		expect(r60.window.harmonicWindowCycles).toBe(12);
 		expect(r60.channels[0].harmonics[1].rms).toBeCloseTo(170 / Math.SQRT2, 6);
 	});
@@ -134,18 +159,24 @@ describe('analyseCapture: reference and relations', () => {
 	});
 
 	it('analyseCapture(capture, { refChannel }) measures phase against that channel', () => {
-		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u), channel('I1', 'A', 'current', i)]), { refChannel: 'I1' });
+		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u), channel('I1', 'A', 'current', i)]), {
+			refChannel: 'I1',
+		});
 		expect(r.referenceChannel).toBe('I1');
 		expect(r.pairs[0].other).toBe('U1');
 		expect(r.pairs[0].lagDeg).toBeCloseTo(20, 6);
 	});
 
 	it('analyseCapture(capture, { refChannel }) throws a RangeError naming the missing channel and the ones there are', () => {
-		expect(() => analyseCapture(capture([channel('U1', 'V', 'voltage', u)]), { refChannel: 'U9' })).toThrow(/"U9" not found; the channels are U1/);
+		expect(() => analyseCapture(capture([channel('U1', 'V', 'voltage', u)]), { refChannel: 'U9' })).toThrow(
+			/"U9" not found; the channels are U1/,
+		);
 	});
 
 	it('analyseCapture(capture, { pairs }) uses the pairing the user gives', () => {
-		const r = analyseCapture(capture([channel('Ua', 'V', 'voltage', u), channel('Ib', 'A', 'current', i)]), { pairs: [{ voltage: 'Ua', current: 'Ib' }] });
+		const r = analyseCapture(capture([channel('Ua', 'V', 'voltage', u), channel('Ib', 'A', 'current', i)]), {
+			pairs: [{ voltage: 'Ua', current: 'Ib' }],
+		});
 		expect(r.power.map((p) => [p.voltage, p.current, p.pairedBy])).toEqual([['Ua', 'Ib', 'user']]);
 	});
 
@@ -170,8 +201,20 @@ describe('analyseCapture: reference and relations', () => {
 
 describe('analyseCapture: limits', () => {
 	const cycles = 20;
-	const u = tones([{ order: 1, rms: 230 }, { order: 3, rms: 230 * 0.045 }], cycles);
-	const i = tones([{ order: 1, rms: 100, phaseDeg: -10 }, { order: 5, rms: 10 }], cycles);
+	const u = tones(
+		[
+			{ order: 1, rms: 230 },
+			{ order: 3, rms: 230 * 0.045 },
+		],
+		cycles,
+	);
+	const i = tones(
+		[
+			{ order: 1, rms: 100, phaseDeg: -10 },
+			{ order: 5, rms: 10 },
+		],
+		cycles,
+	);
 
 	it("analyseCapture(capture, { limits: 'iec61000-2-2' }) passes a 4.5 % 3rd against the 5 % level (IEC 61000-2-2 Table 1, docs/methods.md 4.2, from memory)", () => {
 		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u)]), { limits: 'iec61000-2-2' });
@@ -183,7 +226,11 @@ describe('analyseCapture: limits', () => {
 	});
 
 	it("analyseCapture(capture, { limits: 'ieee519', iscIl: 30 }) fails a 10 % 5th current against 7 % of I_L (IEEE 519 Table 2, 20 < ISC/IL < 50, docs/methods.md 4.3, read in a secondary source)", () => {
-		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u), channel('I1', 'A', 'current', i)]), { limits: 'ieee519', iscIl: 30, nominalV: 400 });
+		const r = analyseCapture(capture([channel('U1', 'V', 'voltage', u), channel('I1', 'A', 'current', i)]), {
+			limits: 'ieee519',
+			iscIl: 30,
+			nominalV: 400,
+		});
 		const h5 = r.limits!.rows.find((x) => x.channel === 'I1' && x.order === 5)!;
 		expect(h5.limit).toBe(7);
 		expect(h5.value).toBeCloseTo(10, 6); // I_L not given: the measured fundamental
@@ -193,7 +240,12 @@ describe('analyseCapture: limits', () => {
 	});
 
 	it("analyseCapture(capture, { limits: 'ieee519', iscIl: 30, ilA: 200 }) passes the same current as 5 % of I_L, TDD 5 % under 8 % (IEEE 519 Table 2, docs/methods.md 4.3, read in a secondary source)", () => {
-		const r = analyseCapture(capture([channel('I1', 'A', 'current', i)]), { limits: 'ieee519', iscIl: 30, ilA: 200, nominalV: 400 });
+		const r = analyseCapture(capture([channel('I1', 'A', 'current', i)]), {
+			limits: 'ieee519',
+			iscIl: 30,
+			ilA: 200,
+			nominalV: 400,
+		});
 		const h5 = r.limits!.rows.find((x) => x.order === 5)!;
 		expect(h5.value).toBeCloseTo(5, 6);
 		const tdd = r.limits!.rows.find((x) => x.figure === 'tdd')!;
@@ -204,9 +256,21 @@ describe('analyseCapture: limits', () => {
 	});
 
 	it("analyseCapture(capture, { ieee519Edition }) limits a 2nd-harmonic current to 50 % (2022) or 25 % (2014) of the 3rd-10th band's 7 % (IEEE 519 Table 2 note, docs/methods.md 4.3)", () => {
-		const i2 = tones([{ order: 1, rms: 100 }, { order: 2, rms: 2 }], cycles);
+		const i2 = tones(
+			[
+				{ order: 1, rms: 100 },
+				{ order: 2, rms: 2 },
+			],
+			cycles,
+		);
 		const limitOf = (edition: '2014' | '2022') =>
-			analyseCapture(capture([channel('I1', 'A', 'current', i2)]), { limits: 'ieee519', iscIl: 30, ilA: 100, nominalV: 400, ieee519Edition: edition }).limits!.rows.find((x) => x.order === 2)!;
+			analyseCapture(capture([channel('I1', 'A', 'current', i2)]), {
+				limits: 'ieee519',
+				iscIl: 30,
+				ilA: 100,
+				nominalV: 400,
+				ieee519Edition: edition,
+			}).limits!.rows.find((x) => x.order === 2)!;
 		expect(limitOf('2022').limit).toBeCloseTo(3.5, 9);
 		expect(limitOf('2022').pass).toBe(true);
 		expect(limitOf('2014').limit).toBeCloseTo(1.75, 9);
@@ -228,7 +292,18 @@ describe('analyseCapture: three-phase power and neutral', () => {
 		capture(
 			[0, 1, 2].flatMap((k) => [
 				channel(`L${k + 1}`, 'V', 'voltage', tones([{ order: 1, rms: 230, phaseDeg: -120 * k }], cycles)),
-				channel(`I${k + 1}`, 'A', 'current', tones([{ order: 1, rms: 10, phaseDeg: -120 * k - 30 }, { order: 3, rms: 3, phaseDeg: -360 * k }], cycles)),
+				channel(
+					`I${k + 1}`,
+					'A',
+					'current',
+					tones(
+						[
+							{ order: 1, rms: 10, phaseDeg: -120 * k - 30 },
+							{ order: 3, rms: 3, phaseDeg: -360 * k },
+						],
+						cycles,
+					),
+				),
 			]),
 		);
 	const r = analyseCapture(make());
@@ -243,7 +318,11 @@ describe('analyseCapture: three-phase power and neutral', () => {
 
 	it('analyseCapture(capture) gives P = 3·230·10·cos 30° and S_e = 3·V_e·I_e with I_e = √((ΣI² + I_N²)/3) (IEEE 1459-2010 4-wire, docs/methods.md 5.2, from memory)', () => {
 		const t = r.threePhasePower!;
-		expect(t.channels).toEqual([['L1', 'I1'], ['L2', 'I2'], ['L3', 'I3']]);
+		expect(t.channels).toEqual([
+			['L1', 'I1'],
+			['L2', 'I2'],
+			['L3', 'I3'],
+		]);
 		expect(t.figures.activePowerW).toBeCloseTo(3 * 230 * 10 * Math.cos(Math.PI / 6), 3);
 		const ie = Math.sqrt((3 * (100 + 9) + 81) / 3);
 		expect(t.figures.effectiveCurrentA).toBeCloseTo(ie, 4);
@@ -283,7 +362,13 @@ describe('analyseCapture: line-to-line voltages', () => {
 		const vb = tones([{ order: 1, rms: 220, phaseDeg: -118 }], cycles);
 		const vc = tones([{ order: 1, rms: 235, phaseDeg: 121 }], cycles);
 		const diff = (x: Float64Array, y: Float64Array) => x.map((v, k) => v - y[k]);
-		const r = analyseCapture(capture([channel('U12', 'V', 'voltage', diff(va, vb)), channel('U23', 'V', 'voltage', diff(vb, vc)), channel('U31', 'V', 'voltage', diff(vc, va))]));
+		const r = analyseCapture(
+			capture([
+				channel('U12', 'V', 'voltage', diff(va, vb)),
+				channel('U23', 'V', 'voltage', diff(vb, vc)),
+				channel('U31', 'V', 'voltage', diff(vc, va)),
+			]),
+		);
 		const t = r.threePhase!;
 		expect(t.connection).toBe('line-to-line');
 		expect(t.channels).toEqual(['U12', 'U23', 'U31']);
@@ -302,7 +387,11 @@ describe('analyseCapture: IEC 61000-4-7 groups', () => {
 		const x = new Float64Array(n);
 		for (let k = 0; k < n; k++) {
 			const t = k / FS;
-			x[k] = Math.SQRT2 * (230 * Math.sin(2 * Math.PI * 50 * t) + 10 * Math.sin(2 * Math.PI * 250 * t) + 3 * Math.sin(2 * Math.PI * 260 * t));
+			x[k] =
+				Math.SQRT2 *
+				(230 * Math.sin(2 * Math.PI * 50 * t) +
+					10 * Math.sin(2 * Math.PI * 250 * t) +
+					3 * Math.sin(2 * Math.PI * 260 * t));
 		}
 		const c = analyseCapture(capture([channel('U1', 'V', 'voltage', x)])).channels[0];
 		expect(c.groups!.harmonicGroupRms[5]).toBeCloseTo(Math.hypot(10, 3), 2); // G_g,5² = C²(250) + C²(260): bins k−5..k+5
@@ -317,7 +406,9 @@ describe('analyseCapture: digital channels', () => {
 	it('analyseCapture(capture) counts the changes of a status channel and times its active span from its normal state', () => {
 		const states = new Uint8Array(2000);
 		states.fill(1, 500, 740); // active (off the normal 0) from sample 500 for 240 samples
-		const c = capture([channel('U1', 'V', 'voltage', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 10 }))]);
+		const c = capture([
+			channel('U1', 'V', 'voltage', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 10 })),
+		]);
 		c.digital = [{ name: 'trip', normalState: 0, states }];
 		const d = analyseCapture(c).digital;
 		expect(d).toEqual([{ name: 'trip', normalState: 0, changes: 2, firstActiveS: 500 / FS, activeS: 240 / FS }]);

@@ -111,7 +111,10 @@ describe('CSV writers use the guard', () => {
 
 	it('trend csvHeader(channels) guards tab-, CR- and full-width-equals-prefixed channel names', () => {
 		for (const name of ['\t=1+1', '\r=1+1', '\uFF1D1+1']) {
-			const cells = Papa.parse<string[]>(csvHeader([{ name, unit: 'V', quantity: 'voltage' }], false).replace(/\n$/, ''), { newline: '\n' }).data[0];
+			const cells = Papa.parse<string[]>(
+				csvHeader([{ name, unit: 'V', quantity: 'voltage' }], false).replace(/\n$/, ''),
+				{ newline: '\n' },
+			).data[0];
 			expect(cells[7]).toBe(`'${name} rms (V)`);
 		}
 	});
@@ -145,7 +148,11 @@ describe('one guard for every CSV writer', () => {
 	}
 
 	it('no file in lib/ or src/ but csv-cell.ts carries its own formula-character pattern (a leading = + - @ class)', () => {
-		const own = sources('lib').concat(sources('src')).filter((p) => !p.endsWith(join('report', 'csv-cell.ts')) && /\[\^?=\+\\?-@|\^\[=\+/.test(readFileSync(p, 'utf8')));
+		const own = sources('lib')
+			.concat(sources('src'))
+			.filter(
+				(p) => !p.endsWith(join('report', 'csv-cell.ts')) && /\[\^?=\+\\?-@|\^\[=\+/.test(readFileSync(p, 'utf8')),
+			);
 		expect(own).toEqual([]);
 	});
 });

@@ -17,7 +17,14 @@ function capture(fs: number, durationS: number, modulation: Modulation, rmsV = 2
 		x.set(c, off);
 		off += c.length;
 	});
-	return { source: 'flicker.csv', sampleRateHz: fs, startS: 0, channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }], metadata: {}, diagnostics: [] };
+	return {
+		source: 'flicker.csv',
+		sampleRateHz: fs,
+		startS: 0,
+		channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }],
+		metadata: {},
+		diagnostics: [],
+	};
 }
 
 describe('analyseCapture: flicker', () => {
@@ -31,7 +38,9 @@ describe('analyseCapture: flicker', () => {
 	});
 
 	it('the CSV summary of a 30 s record: pinstMax ≈ 1 (8.8 Hz, 0.25 % reference), pstMax empty (no Pst under 10 minutes)', () => {
-		const csv = reportsToCsv([reportToJson(analyseCapture(capture(3200, 30, { shape: 'sine', frequencyHz: 8.8, deltaVOverV: 0.0025 })))]);
+		const csv = reportsToCsv([
+			reportToJson(analyseCapture(capture(3200, 30, { shape: 'sine', frequencyHz: 8.8, deltaVOverV: 0.0025 }))),
+		]);
 		const [, row] = csv.trim().split('\r\n');
 		const cells = row.split(',');
 		expect(cells[CSV_SUMMARY_COLUMNS.indexOf('pstMax')]).toBe('');
@@ -49,8 +58,16 @@ describe('analyseCapture: flicker', () => {
 	it('a 230 V -> 220 V step gives one change with dc = 10/230 = 4.35 %, over the IEC 61000-3-3 dc limit of 3.3 % (from memory)', () => {
 		const fs = 3200;
 		const x = new Float64Array(fs * 6);
-		for (let i = 0; i < x.length; i++) x[i] = (i < 3 * fs ? 230 : 220) * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * i) / fs);
-		const c: Capture = { source: 'step.csv', sampleRateHz: fs, startS: 0, channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }], metadata: {}, diagnostics: [] };
+		for (let i = 0; i < x.length; i++)
+			x[i] = (i < 3 * fs ? 230 : 220) * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * i) / fs);
+		const c: Capture = {
+			source: 'step.csv',
+			sampleRateHz: fs,
+			startS: 0,
+			channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }],
+			metadata: {},
+			diagnostics: [],
+		};
 		const r = analyseCapture(c, { limits: 'en50160', nominalV: 230 });
 		const f = r.flicker!.channels[0];
 		expect(f.changes.count).toBe(1);

@@ -15,7 +15,9 @@ import { VERDICT_THRESHOLDS } from '../../lib/report/thresholds.js';
 import { reportToJson } from '../../lib/report/to-json.js';
 import { harmonicSamples, sineSamples } from '../helpers/synth.js';
 
-const schema = JSON.parse(readFileSync(join(import.meta.dirname, '..', '..', 'lib', 'report', 'report.schema.json'), 'utf8'));
+const schema = JSON.parse(
+	readFileSync(join(import.meta.dirname, '..', '..', 'lib', 'report', 'report.schema.json'), 'utf8'),
+);
 const validate = new Ajv2020({ allErrors: true, strict: false }).compile(schema);
 const FS = 10_000;
 const K = Math.PI / (2 * Math.SQRT2); // sine form factor: the scale of a sine-calibrated average meter (common practice)
@@ -23,8 +25,20 @@ const K = Math.PI / (2 * Math.SQRT2); // sine form factor: the scale of a sine-c
 function capture(channels: Channel[], sampleRateHz = FS): Capture {
 	return { source: 'case.csv', sampleRateHz, startS: 0, channels, metadata: {}, diagnostics: [] };
 }
-const volts = (name: string, samples: Float64Array, phase?: Channel['phase']): Channel => ({ name, unit: 'V', quantity: 'voltage', samples, ...(phase ? { phase } : {}) });
-const amps = (name: string, samples: Float64Array, phase?: Channel['phase']): Channel => ({ name, unit: 'A', quantity: 'current', samples, ...(phase ? { phase } : {}) });
+const volts = (name: string, samples: Float64Array, phase?: Channel['phase']): Channel => ({
+	name,
+	unit: 'V',
+	quantity: 'voltage',
+	samples,
+	...(phase ? { phase } : {}),
+});
+const amps = (name: string, samples: Float64Array, phase?: Channel['phase']): Channel => ({
+	name,
+	unit: 'A',
+	quantity: 'current',
+	samples,
+	...(phase ? { phase } : {}),
+});
 
 /** Phase-angle control: the sine from `firingDeg` to the end of each half cycle, zero before. */
 function dimmer(peak: number, firingDeg: number, cycles: number, fs = FS): Float64Array {
@@ -45,7 +59,10 @@ describe('average-responding meter: one model, one number', () => {
 		const c = r.channels[1];
 		expect(c.averageResponding.coupling).toBe('ac');
 		// the sampled sine's own rectified mean, 200 points per cycle: mean|sin| = cot(π/200)/100 (closed form), 0.008 % under 2/π
-		expect(c.averageResponding.errorPercent).toBeCloseTo(100 * ((K * (1 / Math.tan(Math.PI / 200))) / 100 / Math.SQRT1_2 - 1), 6);
+		expect(c.averageResponding.errorPercent).toBeCloseTo(
+			100 * ((K * (1 / Math.tan(Math.PI / 200))) / 100 / Math.SQRT1_2 - 1),
+			6,
+		);
 		expect(c.averageResponding.trueRms).toBeCloseTo(10, 6);
 		expect(c.formFactor).toBeCloseTo(K, 3); // sampled sine, 200 points per cycle: within 0.01 %
 		expect(c.crestFactor).toBeCloseTo(Math.SQRT2, 4);
@@ -99,7 +116,14 @@ describe('average-responding meter: one model, one number', () => {
 describe('limits on the basis of the table’s standard', () => {
 	// 5th at 5.9 % plus an interharmonic at 255 Hz (bin 51 of a 10-cycle window, inside the 5th's subgroup) at 1.5 %:
 	// subgroup √(5.9² + 1.5²) = 6.09 % is over EN 50160's 6 % (EN 50160:2010 Table 1); the single bin 5.9 % is not.
-	const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 230 * 0.059 }, { order: 5.1, rms: 230 * 0.015 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
+	const u = harmonicSamples(
+		[
+			{ order: 1, rms: 230 },
+			{ order: 5, rms: 230 * 0.059 },
+			{ order: 5.1, rms: 230 * 0.015 },
+		],
+		{ frequencyHz: 50, sampleRateHz: FS, cycles: 20 },
+	);
 	it('EN 50160 judges the harmonic subgroup (IEC 61000-4-30 class A with IEC 61000-4-7): 6.09 % fails, and the basis is named', () => {
 		const r = analyseCapture(capture([volts('U1', u)]), { limits: 'en50160' });
 		const h5 = r.limits!.rows.find((x) => x.order === 5)!;
@@ -123,7 +147,8 @@ describe('limits on the basis of the table’s standard', () => {
 function shaped(fs: number, seconds: number, gain: (t: number) => number, rms = 230, phaseDeg = 0): Float64Array {
 	const n = Math.round(fs * seconds);
 	const out = new Float64Array(n);
-	for (let k = 0; k < n; k++) out[k] = gain(k / fs) * rms * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * k) / fs + (phaseDeg * Math.PI) / 180);
+	for (let k = 0; k < n; k++)
+		out[k] = gain(k / fs) * rms * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * k) / fs + (phaseDeg * Math.PI) / 180);
 	return out;
 }
 
@@ -147,7 +172,14 @@ describe('voltage events in the analysis report', () => {
 
 	it('an interruption of all three phases is one event, counted once in the residual-voltage × duration table (row 5 > u), with every phase in its detail', () => {
 		const g = (t: number) => (t >= 0.5 && t < 0.7 ? 0 : 1);
-		const r = analyseCapture(capture([volts('U1', shaped(FS, 2, g, 230, 0), 'L1'), volts('U2', shaped(FS, 2, g, 230, -120), 'L2'), volts('U3', shaped(FS, 2, g, 230, 120), 'L3')]), { declaredV: 230 });
+		const r = analyseCapture(
+			capture([
+				volts('U1', shaped(FS, 2, g, 230, 0), 'L1'),
+				volts('U2', shaped(FS, 2, g, 230, -120), 'L2'),
+				volts('U3', shaped(FS, 2, g, 230, 120), 'L3'),
+			]),
+			{ declaredV: 230 },
+		);
 		const ev = r.events!;
 		expect(ev.events).toHaveLength(1);
 		expect(ev.events[0].kind).toBe('interruption');
@@ -173,7 +205,7 @@ describe('long records judged per 10/12-cycle interval', () => {
 		expect(r.findings.find((f) => f.topic === 'load')!.text).toContain('whole record');
 		// whole-record meter error of the current: K·mean|i| = (10 + 1)/2 against √50.5 (closed form), times the sampled
 		// sine's rectified mean at 20 points per cycle, cot(π/20)/10 against 2/π (closed form); per interval only that factor
-		const sampled = (1 / Math.tan(Math.PI / 20) / 10) / (2 / Math.PI);
+		const sampled = 1 / Math.tan(Math.PI / 20) / 10 / (2 / Math.PI);
 		expect(r.channels[1].averageResponding.errorPercent).toBeCloseTo(100 * ((5.5 * sampled) / Math.sqrt(50.5) - 1), 1);
 		for (const id of ['meter-U1', 'meter-I1']) expect(r.findings.find((f) => f.id === id)!.level).toBe('ok');
 		expect(r.findings.find((f) => f.id === 'meter-I1')!.figure).toContain('whole record');
@@ -186,13 +218,25 @@ describe('long records judged per 10/12-cycle interval', () => {
 describe('load character in words the displacement supports', () => {
 	const u = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
 	it('a clean current 30° behind the voltage is inductive and lags by 30.0° (cos 30° = 0.866)', () => {
-		const p = analyseCapture(capture([volts('U1', u), amps('I1', sineSamples({ amplitude: 10, frequencyHz: 50, sampleRateHz: FS, cycles: 20, phaseDeg: -30 }))])).power[0];
+		const p = analyseCapture(
+			capture([
+				volts('U1', u),
+				amps('I1', sineSamples({ amplitude: 10, frequencyHz: 50, sampleRateHz: FS, cycles: 20, phaseDeg: -30 })),
+			]),
+		).power[0];
 		expect(p.character).toBe('inductive');
 		expect(p.relation).toBe('lags');
 		expect(p.loadSentence).toBe('inductive: current lags the voltage by 30.0°');
 	});
 	it('a rectifier current (80 % 3rd, 60 % 5th) whose fundamental leads by 3.6° (DPF 0.998) is near unity, not capacitive', () => {
-		const i = harmonicSamples([{ order: 1, rms: 10, phaseDeg: 3.6 }, { order: 3, rms: 8, phaseDeg: 180 }, { order: 5, rms: 6 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
+		const i = harmonicSamples(
+			[
+				{ order: 1, rms: 10, phaseDeg: 3.6 },
+				{ order: 3, rms: 8, phaseDeg: 180 },
+				{ order: 5, rms: 6 },
+			],
+			{ frequencyHz: 50, sampleRateHz: FS, cycles: 20 },
+		);
 		const r = analyseCapture(capture([volts('U1', u), amps('I1', i)]));
 		expect(r.power[0].displacementPowerFactor).toBeCloseTo(Math.cos((3.6 * Math.PI) / 180), 4);
 		expect(r.power[0].relation).toBe('near-unity');
@@ -211,16 +255,38 @@ describe('load character in words the displacement supports', () => {
 describe('user-facing text and shared thresholds', () => {
 	it('IEEE 519 notes give a rounded bus voltage, no option names and no provenance words; sources are standard + table', () => {
 		const u = shaped(FS, 0.4, () => 1, 230.04);
-		const r = analyseCapture(capture([volts('U1', u), amps('I1', shaped(FS, 0.4, () => 1, 10))]), { limits: 'ieee519' });
-		const text = [...r.limits!.notes, ...r.limits!.rows.map((x) => x.source), ...r.findings.map((f) => `${f.text} ${f.figure}`)].join('\n');
+		const r = analyseCapture(
+			capture([
+				volts('U1', u),
+				amps(
+					'I1',
+					shaped(FS, 0.4, () => 1, 10),
+				),
+			]),
+			{ limits: 'ieee519' },
+		);
+		const text = [
+			...r.limits!.notes,
+			...r.limits!.rows.map((x) => x.source),
+			...r.findings.map((f) => `${f.text} ${f.figure}`),
+		].join('\n');
 		expect(text).not.toMatch(/--[a-z]|from memory|need(s)? checking|read in a secondary source/);
 		expect(text).not.toMatch(/\d\.\d{5,}/);
 		expect(text).toContain('398 V');
 	});
 	it('the report carries every verdict threshold with its source, and the findings use them', () => {
-		const r = analyseCapture(capture([volts('U1', shaped(FS, 0.4, () => 1))]));
+		const r = analyseCapture(
+			capture([
+				volts(
+					'U1',
+					shaped(FS, 0.4, () => 1),
+				),
+			]),
+		);
 		expect(r.thresholds.map((t) => t.id).sort()).toEqual(Object.keys(VERDICT_THRESHOLDS).sort());
 		for (const t of r.thresholds) expect(t.source.length).toBeGreaterThan(10);
-		expect(r.findings.find((f) => f.id === 'meter-U1')!.text).toContain(`within ${VERDICT_THRESHOLDS.meterErrorPercent.value} %`);
+		expect(r.findings.find((f) => f.id === 'meter-U1')!.text).toContain(
+			`within ${VERDICT_THRESHOLDS.meterErrorPercent.value} %`,
+		);
 	});
 });

@@ -12,11 +12,25 @@ import { reportToJson } from '../../lib/report/to-json.js';
 import { fitSharedSine } from '../../lib/signal/sine-fit.js';
 import { harmonicSamples, type Tone } from '../helpers/synth.js';
 
-const schema = JSON.parse(readFileSync(join(import.meta.dirname, '..', '..', 'lib', 'report', 'report.schema.json'), 'utf8'));
+const schema = JSON.parse(
+	readFileSync(join(import.meta.dirname, '..', '..', 'lib', 'report', 'report.schema.json'), 'utf8'),
+);
 const validate = new Ajv2020({ allErrors: true, strict: false }).compile(schema);
 
-const channel = (name: string, unit: string, quantity: Quantity, samples: Float64Array): Channel => ({ name, unit, quantity, samples });
-const capture = (channels: Channel[], sampleRateHz: number): Capture => ({ source: 'scope.csv', sampleRateHz, startS: -0.01, channels, metadata: {}, diagnostics: [] });
+const channel = (name: string, unit: string, quantity: Quantity, samples: Float64Array): Channel => ({
+	name,
+	unit,
+	quantity,
+	samples,
+});
+const capture = (channels: Channel[], sampleRateHz: number): Capture => ({
+	source: 'scope.csv',
+	sampleRateHz,
+	startS: -0.01,
+	channels,
+	metadata: {},
+	diagnostics: [],
+});
 /** 8-bit scope: ±4 V in 256 codes at the input, then × ratio to V or A. */
 const scope = (x: Float64Array, ratio: number) => x.map((v) => (8 / 256) * Math.round(v / ratio / (8 / 256)) * ratio);
 
@@ -26,10 +40,19 @@ const LAG = 25;
 function scopeCapture(cycles: number, fs: number, quantise = true): Capture {
 	const n = Math.round((cycles * fs) / F);
 	const u: Tone[] = [{ order: 1, rms: 230, phaseDeg: 0 }];
-	const i: Tone[] = [{ order: 1, rms: 10, phaseDeg: -LAG }, { order: 3, rms: 3, phaseDeg: -3 * LAG - 30 }];
+	const i: Tone[] = [
+		{ order: 1, rms: 10, phaseDeg: -LAG },
+		{ order: 3, rms: 3, phaseDeg: -3 * LAG - 30 },
+	];
 	const uu = harmonicSamples(u, { frequencyHz: F, sampleRateHz: fs, samples: n });
 	const ii = harmonicSamples(i, { frequencyHz: F, sampleRateHz: fs, samples: n });
-	return capture([channel('U', 'V', 'voltage', quantise ? scope(uu, 100) : uu), channel('I', 'A', 'current', quantise ? scope(ii, 10) : ii)], fs);
+	return capture(
+		[
+			channel('U', 'V', 'voltage', quantise ? scope(uu, 100) : uu),
+			channel('I', 'A', 'current', quantise ? scope(ii, 10) : ii),
+		],
+		fs,
+	);
 }
 
 describe('analyseCapture on a one-cycle 8-bit scope capture at 1 MS/s', () => {
@@ -85,7 +108,16 @@ describe('analyseCapture short-record rules', () => {
 		// 8-bit voltage channel (q = 3.125 V, floor 0.90 V RMS) with a 0.5 V RMS 5th: under the floor
 		const fs = 1e6;
 		const n = Math.round(fs / F);
-		const uu = scope(harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 0.5 }], { frequencyHz: F, sampleRateHz: fs, samples: n }), 100);
+		const uu = scope(
+			harmonicSamples(
+				[
+					{ order: 1, rms: 230 },
+					{ order: 5, rms: 0.5 },
+				],
+				{ frequencyHz: F, sampleRateHz: fs, samples: n },
+			),
+			100,
+		);
 		const r = analyseCapture(capture([channel('U', 'V', 'voltage', uu)], fs));
 		const h5 = r.channels[0].harmonics[5];
 		expect(r.channels[0].resolution!.harmonicFloorRms).toBeCloseTo(3.125 / Math.sqrt(12), 9);
@@ -104,14 +136,20 @@ describe('fitted and whole-cycle paths agree where both apply', () => {
 			const whole = analyseCapture(cap);
 			expect(whole.shortRecord).toBeNull();
 			expect(whole.cyclesAnalysed).toBeGreaterThanOrEqual(2);
-			const fit = fitSharedSine(cap.channels.map((c) => c.samples), fs, { lowHz: 35, highHz: 78, maxOrder: 50 });
+			const fit = fitSharedSine(
+				cap.channels.map((c) => c.samples),
+				fs,
+				{ lowHz: 35, highHz: 78, maxOrder: 50 },
+			);
 			expect(fit.ok).toBe(true);
 			if (!fit.ok) return;
 			const rel = (a: number, b: number) => Math.abs(a / b - 1);
 			expect(rel(fit.frequencyHz, whole.frequencyHz)).toBeLessThan(1e-3);
 			expect(rel(fit.channels[0].amplitude[1] / Math.SQRT2, whole.channels[0].harmonics[1].rms)).toBeLessThan(1e-3);
 			expect(rel(fit.channels[1].amplitude[1] / Math.SQRT2, whole.channels[1].harmonics[1].rms)).toBeLessThan(1e-3);
-			expect(rel(100 * (fit.channels[1].amplitude[3] / fit.channels[1].amplitude[1]), whole.channels[1].thdPercent)).toBeLessThan(1e-3);
+			expect(
+				rel(100 * (fit.channels[1].amplitude[3] / fit.channels[1].amplitude[1]), whole.channels[1].thdPercent),
+			).toBeLessThan(1e-3);
 			const lagFit = ((fit.channels[0].phaseRad[1] - fit.channels[1].phaseRad[1]) * 180) / Math.PI;
 			expect(rel(lagFit, whole.pairs[0].lagDeg)).toBeLessThan(1e-3);
 		});

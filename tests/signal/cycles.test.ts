@@ -46,14 +46,25 @@ describe('findWholeCycles crossings', () => {
 	});
 
 	it('findWholeCycles ignores a DC offset of 40 % of the peak (the raw signal would cross 13 samples late)', () => {
-		const x = sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 10.5, phaseDeg: 30, offset: 0.4 });
+		const x = sineSamples({
+			amplitude: 1,
+			frequencyHz: 50,
+			sampleRateHz: 10_000,
+			cycles: 10.5,
+			phaseDeg: 30,
+			offset: 0.4,
+		});
 		const w = ok(findWholeCycles(x, 10_000));
 		expectCrossingsNear(w.crossings, expectedCrossings(50, 10_000, 30, x.length), 1e-6);
 	});
 
 	it('findWholeCycles follows the fundamental when 40 % 3rd and 30 % 5th harmonics make the raw signal cross zero three times a cycle', () => {
 		const x = harmonicSamples(
-			[{ order: 1, rms: 1, phaseDeg: 15 }, { order: 3, rms: 0.4, phaseDeg: 225 }, { order: 5, rms: 0.3, phaseDeg: 255 }],
+			[
+				{ order: 1, rms: 1, phaseDeg: 15 },
+				{ order: 3, rms: 0.4, phaseDeg: 225 },
+				{ order: 5, rms: 0.3, phaseDeg: 255 },
+			],
 			{ frequencyHz: 50, sampleRateHz: 10_000, cycles: 10.2 },
 		);
 		let rawRising = 0;
@@ -162,7 +173,10 @@ describe('findWholeCycles failures', () => {
 	});
 
 	it("findWholeCycles(2.2 cycles starting at 10°) fails with 'too-short': only one whole cycle between crossings", () => {
-		const r = findWholeCycles(sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 2.2, phaseDeg: 10 }), 10_000);
+		const r = findWholeCycles(
+			sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 2.2, phaseDeg: 10 }),
+			10_000,
+		);
 		expect(r.ok ? 'ok' : r.code).toBe('too-short');
 	});
 });

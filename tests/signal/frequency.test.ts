@@ -13,8 +13,19 @@ function frequencyOf(x: Float64Array, fs: number, nominalHz?: number): number {
 }
 
 /** n samples of a fundamental of `rms` plus tones, at f and fs. */
-function mains(f: number, fs: number, cycles: number, extra: { order: number; rms: number; phaseDeg?: number }[], offset = 0) {
-	return harmonicSamples([{ order: 1, rms: 1, phaseDeg: 23 }, ...extra], { frequencyHz: f, sampleRateHz: fs, cycles, offset });
+function mains(
+	f: number,
+	fs: number,
+	cycles: number,
+	extra: { order: number; rms: number; phaseDeg?: number }[],
+	offset = 0,
+) {
+	return harmonicSamples([{ order: 1, rms: 1, phaseDeg: 23 }, ...extra], {
+		frequencyHz: f,
+		sampleRateHz: fs,
+		cycles,
+		offset,
+	});
 }
 
 describe('estimateFrequency accuracy', () => {
@@ -36,14 +47,17 @@ describe('estimateFrequency accuracy', () => {
 		[59.87, 7_800],
 		[59.87, 12_800],
 		[60, 12_800],
-	])('estimateFrequency(%s Hz at %s S/s, 10 cycles, 1 percent white noise + 20 percent 5th harmonic) is within 10 mHz over 10 noise seeds', (f, fs) => {
-		for (let seed = 1; seed <= 10; seed++) {
-			const clean = mains(f, fs, 10, [{ order: 5, rms: 0.2, phaseDeg: 40 * seed }]);
-			// "1 % white noise": standard deviation 1 % of the fundamental's peak (√2 · 1)
-			const x = addSignals(clean, gaussianNoise(clean.length, 0.01 * Math.SQRT2, seed));
-			expect(Math.abs(frequencyOf(x, fs) - f)).toBeLessThan(10e-3);
-		}
-	});
+	])(
+		'estimateFrequency(%s Hz at %s S/s, 10 cycles, 1 percent white noise + 20 percent 5th harmonic) is within 10 mHz over 10 noise seeds',
+		(f, fs) => {
+			for (let seed = 1; seed <= 10; seed++) {
+				const clean = mains(f, fs, 10, [{ order: 5, rms: 0.2, phaseDeg: 40 * seed }]);
+				// "1 % white noise": standard deviation 1 % of the fundamental's peak (√2 · 1)
+				const x = addSignals(clean, gaussianNoise(clean.length, 0.01 * Math.SQRT2, seed));
+				expect(Math.abs(frequencyOf(x, fs) - f)).toBeLessThan(10e-3);
+			}
+		},
+	);
 
 	it.each([
 		[49.5, 10_000],
@@ -51,10 +65,23 @@ describe('estimateFrequency accuracy', () => {
 		[59.87, 7_800],
 		[59.87, 12_800],
 		[50.2, 12_800],
-	])('estimateFrequency(%s Hz at %s S/s with 30 percent DC offset and 30/30/20 percent 3rd/5th/7th harmonics) is within 1 mHz', (f, fs) => {
-		const x = mains(f, fs, 10, [{ order: 3, rms: 0.3, phaseDeg: 100 }, { order: 5, rms: 0.3, phaseDeg: -60 }, { order: 7, rms: 0.2 }], 0.3 * Math.SQRT2);
-		expect(Math.abs(frequencyOf(x, fs) - f)).toBeLessThan(1e-3);
-	});
+	])(
+		'estimateFrequency(%s Hz at %s S/s with 30 percent DC offset and 30/30/20 percent 3rd/5th/7th harmonics) is within 1 mHz',
+		(f, fs) => {
+			const x = mains(
+				f,
+				fs,
+				10,
+				[
+					{ order: 3, rms: 0.3, phaseDeg: 100 },
+					{ order: 5, rms: 0.3, phaseDeg: -60 },
+					{ order: 7, rms: 0.2 },
+				],
+				0.3 * Math.SQRT2,
+			);
+			expect(Math.abs(frequencyOf(x, fs) - f)).toBeLessThan(1e-3);
+		},
+	);
 
 	it('estimateFrequency(49.95 Hz sine, 10 kS/s, 10 s) = 49.950000 Hz (docs/methods.md §9 zero-crossing vector)', () => {
 		const x = sineSamples({ amplitude: 1, frequencyHz: 49.95, sampleRateHz: 10_000, samples: 100_000 });
@@ -67,7 +94,13 @@ describe('estimateFrequency accuracy', () => {
 	});
 
 	it('estimateFrequency(neutral current: 20 % fundamental under a 3rd harmonic) finds 50 Hz, not 150 Hz', () => {
-		const x = harmonicSamples([{ order: 1, rms: 0.2 }, { order: 3, rms: 1, phaseDeg: 30 }], { frequencyHz: 50, sampleRateHz: 10_000, cycles: 10 });
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 0.2 },
+				{ order: 3, rms: 1, phaseDeg: 30 },
+			],
+			{ frequencyHz: 50, sampleRateHz: 10_000, cycles: 10 },
+		);
 		expect(frequencyOf(x, 10_000)).toBeCloseTo(50, 6);
 		expect(frequencyOf(x, 10_000, 50)).toBeCloseTo(50, 6);
 	});
@@ -92,7 +125,10 @@ describe('estimateFrequency failures (a clear error, never a number)', () => {
 	});
 
 	it("estimateFrequency(1.5 cycles) fails with 'too-short'", () => {
-		const r = estimateFrequency(sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 1.5 }), 10_000);
+		const r = estimateFrequency(
+			sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 1.5 }),
+			10_000,
+		);
 		expect(r.ok).toBe(false);
 		if (!r.ok) {
 			expect(r.code).toBe('too-short');

@@ -44,7 +44,7 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 		expect(w.rms).toBeCloseTo(A / Math.SQRT2, 12);
 		expect(w.acRms).toBeCloseTo(A / Math.SQRT2, 12);
 		expect(w.mean).toBeCloseTo(0, 12);
-		const mavSampled = ((2 * A) / P) / Math.tan(Math.PI / P);
+		const mavSampled = (2 * A) / P / Math.tan(Math.PI / P);
 		expect(w.rectifiedMean).toBeCloseTo(mavSampled, 12);
 		// continuous: 2A/π = 0.63662·A (common practice); sampled sum differs by ≈ (π/P)²/3 = 8.2e-5
 		closeRel(w.rectifiedMean, (2 * A) / Math.PI, 1e-4);
@@ -54,7 +54,7 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 		expect(w.peakToPeak).toBeCloseTo(2 * A, 12);
 		expect(w.crestFactor).toBeCloseTo(Math.SQRT2, 10);
 		// sampled meter error: K·mavSampled/(A/√2) − 1 = (π/P)·cot(π/P) − 1
-		expect(w.averageResponding.errorPercent).toBeCloseTo(100 * ((Math.PI / P) / Math.tan(Math.PI / P) - 1), 9);
+		expect(w.averageResponding.errorPercent).toBeCloseTo(100 * (Math.PI / P / Math.tan(Math.PI / P) - 1), 9);
 		expect(Math.abs(w.averageResponding.errorPercent)).toBeLessThan(0.01);
 	});
 
@@ -102,7 +102,7 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 	it('half-wave rectified sine: mean → A/π, rms = A/2, CF = 2; rectified mean about the DC and both meter errors from closed form', () => {
 		const w = waveformFigures(shapeSamples('half-wave', opts), FS);
 		expect(w.rms).toBeCloseTo(A / 2, 12); // Σ sin² over a half period = P/4 exactly
-		expect(w.mean).toBeCloseTo((A / P) / Math.tan(Math.PI / P), 12); // cot sum; → A/π (docs/methods.md §1.2)
+		expect(w.mean).toBeCloseTo(A / P / Math.tan(Math.PI / P), 12); // cot sum; → A/π (docs/methods.md §1.2)
 		closeRel(w.mean, A / Math.PI, 1e-4);
 		expect(w.crestFactor).toBeCloseTo(2, 12); // docs/methods.md §1.2
 		// docs/methods.md §1.1 defines rectified mean = mean|x − DC|. With m = A/π, x − m > 0 on [α, π − α], α = asin(1/π);
@@ -113,7 +113,7 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 		closeRel(w.rectifiedMean, mav, 2e-4); // sampling at 200/cycle, kinks at two crossings of the mean
 		closeRel(w.formFactor, A / 2 / mav, 2e-4);
 		const acRms = A * Math.sqrt(1 / 4 - 1 / Math.PI ** 2); // √(rms² − mean²) = 0.38559·A (docs/methods.md §1.2)
-		const meanSampled = (A / P) / Math.tan(Math.PI / P);
+		const meanSampled = A / P / Math.tan(Math.PI / P);
 		expect(w.acRms).toBeCloseTo(Math.sqrt((A * A) / 4 - meanSampled ** 2), 12);
 		closeRel(w.acRms, acRms, 1e-4);
 		// against true RMS (docs/methods.md §1.2): K·MAV/(A/2) − 1 = −22.05 %
@@ -128,7 +128,7 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 		const w = waveformFigures(shapeSamples('full-wave', opts), FS);
 		expect(w.cycles).toBeGreaterThanOrEqual(19); // 10.3 × 2 fundamental (100 Hz) cycles recorded
 		expect(w.rms).toBeCloseTo(A / Math.SQRT2, 12);
-		expect(w.mean).toBeCloseTo(((2 * A) / P) / Math.tan(Math.PI / P), 12);
+		expect(w.mean).toBeCloseTo((2 * A) / P / Math.tan(Math.PI / P), 12);
 		closeRel(w.mean, (2 * A) / Math.PI, 1e-4);
 		expect(w.crestFactor).toBeCloseTo(Math.SQRT2, 10);
 		// m = 2A/π; x − m > 0 on [β, π − β], β = asin(2/π), over a half period of the 50 Hz sine:
@@ -137,7 +137,7 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 		const mav = ((2 * A) / Math.PI) * (2 * Math.cos(beta) - ((Math.PI - 2 * beta) * 2) / Math.PI);
 		closeRel(w.rectifiedMean, mav, 3e-4);
 		const acRms = A * Math.sqrt(1 / 2 - 4 / Math.PI ** 2); // 0.30776·A (docs/methods.md §1.2)
-		const meanSampled = ((2 * A) / P) / Math.tan(Math.PI / P);
+		const meanSampled = (2 * A) / P / Math.tan(Math.PI / P);
 		expect(w.acRms).toBeCloseTo(Math.sqrt((A * A) / 2 - meanSampled ** 2), 12);
 		// the sampled mean is low by (π/P)²/3 relative, which moves √(A²/2 − mean²) by about 4e-4 relative
 		closeRel(w.acRms, acRms, 6e-4);
@@ -148,7 +148,12 @@ describe('waveformFigures closed forms (A = 1, 50 Hz, 10 kS/s, 10.3 cycles recor
 
 	it('docs/methods.md §1.3 vector: 230 V + 4.6 V 3rd + 11.5 V 5th + 6.9 V 7th (RMS), 50 Hz, fs 10 240 Hz → rms 230.43659 V', () => {
 		const x = harmonicSamples(
-			[{ order: 1, rms: 230 }, { order: 3, rms: 4.6 }, { order: 5, rms: 11.5 }, { order: 7, rms: 6.9 }],
+			[
+				{ order: 1, rms: 230 },
+				{ order: 3, rms: 4.6 },
+				{ order: 5, rms: 11.5 },
+				{ order: 7, rms: 6.9 },
+			],
 			{ frequencyHz: 50, sampleRateHz: 10_240, cycles: 10 },
 		);
 		expect(waveformFigures(x, 10_240).rms).toBeCloseTo(230.43659, 4);
@@ -246,7 +251,16 @@ describe('waveformFigures properties (fast-check)', () => {
 		h7: fc.double({ min: 0, max: 0.2, noNaN: true }),
 		dc: fc.double({ min: -0.2, max: 0.2, noNaN: true }),
 	});
-	const make = (s: { f: number; fs: number; cycles: number; phaseDeg: number; h3: number; h5: number; h7: number; dc: number }) =>
+	const make = (s: {
+		f: number;
+		fs: number;
+		cycles: number;
+		phaseDeg: number;
+		h3: number;
+		h5: number;
+		h7: number;
+		dc: number;
+	}) =>
 		harmonicSamples(
 			[
 				{ order: 1, rms: 1, phaseDeg: s.phaseDeg },
@@ -262,7 +276,10 @@ describe('waveformFigures properties (fast-check)', () => {
 			fc.property(signal, fc.double({ min: 1e-3, max: 1e4, noNaN: true }), (s, k) => {
 				const x = make(s);
 				const a = waveformFigures(x, s.fs);
-				const b = waveformFigures(x.map((v) => k * v), s.fs);
+				const b = waveformFigures(
+					x.map((v) => k * v),
+					s.fs,
+				);
 				for (const key of ['rms', 'acRms', 'rectifiedMean', 'peak', 'peakNegative', 'peakToPeak'] as const) {
 					expect(Math.abs(b[key] - k * a[key])).toBeLessThanOrEqual(1e-9 * k * a.rms);
 				}
@@ -328,14 +345,24 @@ describe('waveformFigures properties (fast-check)', () => {
 
 	it('inverting a channel (k = −1) keeps rms, acRms and rectified mean, negates the mean and swaps the peaks', () => {
 		// 200 samples per cycle: whole-cycle figures equal plain sums over whole periods wherever the window starts
-		const x = harmonicSamples([{ order: 1, rms: 230 }, { order: 3, rms: 30, phaseDeg: 70 }, { order: 2, rms: 10 }], {
-			frequencyHz: 50,
-			sampleRateHz: 10_000,
-			cycles: 10.3,
-			offset: 4,
-		});
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 3, rms: 30, phaseDeg: 70 },
+				{ order: 2, rms: 10 },
+			],
+			{
+				frequencyHz: 50,
+				sampleRateHz: 10_000,
+				cycles: 10.3,
+				offset: 4,
+			},
+		);
 		const a = waveformFigures(x, 10_000);
-		const b = waveformFigures(x.map((v) => -v), 10_000);
+		const b = waveformFigures(
+			x.map((v) => -v),
+			10_000,
+		);
 		expect(b.rms).toBeCloseTo(a.rms, 8);
 		expect(b.acRms).toBeCloseTo(a.acRms, 8);
 		expect(b.rectifiedMean).toBeCloseTo(a.rectifiedMean, 8);
@@ -346,8 +373,14 @@ describe('waveformFigures properties (fast-check)', () => {
 	});
 
 	it('9.37 cycles of a sine give the same rms as 9 cycles within 0.05 % (a non-whole number of cycles)', () => {
-		const nine = waveformFigures(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 7_800, cycles: 9, phaseDeg: 17 }), 7_800);
-		const more = waveformFigures(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 7_800, cycles: 9.37, phaseDeg: 17 }), 7_800);
+		const nine = waveformFigures(
+			sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 7_800, cycles: 9, phaseDeg: 17 }),
+			7_800,
+		);
+		const more = waveformFigures(
+			sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 7_800, cycles: 9.37, phaseDeg: 17 }),
+			7_800,
+		);
 		closeRel(more.rms, nine.rms, 5e-4);
 		closeRel(more.rms, 325 / Math.SQRT2, 5e-4);
 	});

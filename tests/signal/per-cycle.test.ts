@@ -61,7 +61,13 @@ describe('perCycleFigures', () => {
 	});
 
 	it('perCycleFigures(window with no cycles) returns empty arrays and −1 for the worst cycles', () => {
-		const empty: CycleWindow = { startIndex: 0, endIndex: 0, cycles: 0, frequencyHz: NaN, crossings: new Float64Array([0]) };
+		const empty: CycleWindow = {
+			startIndex: 0,
+			endIndex: 0,
+			cycles: 0,
+			frequencyHz: NaN,
+			crossings: new Float64Array([0]),
+		};
 		const p = perCycleFigures(new Float64Array(10), empty);
 		expect(p.rms.length).toBe(0);
 		expect([p.worstRmsCycle, p.worstPeakCycle]).toEqual([-1, -1]);

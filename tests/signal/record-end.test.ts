@@ -38,15 +38,18 @@ describe('a record of exactly 10 cycles (window ending at index N)', () => {
 		[50, 10_000, 2000], // 200 samples per cycle
 		[50, 7_800, 1560], // 156 samples per cycle
 		[50, 7_680, 1536], // 153.6 samples per cycle: a cycle is not whole, 10 cycles are
-	])('findWholeCycles(10 cycles of %s Hz at %s S/s, N = %s, toRecordEnd) gives 10 cycles, crossings at k·fs/f', (f, fs, n) => {
-		const x = mains(f, fs, n);
-		const w = ok(findWholeCycles(x, fs, { toRecordEnd: true }));
-		expect(w.cycles).toBe(10);
-		// closed form: crossings at n = k·fs/f, k = 0 … 10, the last at N
-		for (let k = 0; k <= 10; k++) expect(Math.abs(w.crossings[k] - (k * fs) / f)).toBeLessThan(1e-6);
-		expect(w.endIndex).toBeCloseTo(n, 6);
-		expect(w.frequencyHz).toBeCloseTo(f, 6);
-	});
+	])(
+		'findWholeCycles(10 cycles of %s Hz at %s S/s, N = %s, toRecordEnd) gives 10 cycles, crossings at k·fs/f',
+		(f, fs, n) => {
+			const x = mains(f, fs, n);
+			const w = ok(findWholeCycles(x, fs, { toRecordEnd: true }));
+			expect(w.cycles).toBe(10);
+			// closed form: crossings at n = k·fs/f, k = 0 … 10, the last at N
+			for (let k = 0; k <= 10; k++) expect(Math.abs(w.crossings[k] - (k * fs) / f)).toBeLessThan(1e-6);
+			expect(w.endIndex).toBeCloseTo(n, 6);
+			expect(w.frequencyHz).toBeCloseTo(f, 6);
+		},
+	);
 
 	it('findWholeCycles without toRecordEnd stops at the last sample (N − 1): 9 cycles (the default until lib/power accepts N)', () => {
 		// closed form: crossings at 200k; 2000 > N − 1 = 1999
@@ -75,15 +78,18 @@ describe('a record of exactly 10 cycles (window ending at index N)', () => {
 		[50, 10_000, 2000],
 		[50, 7_800, 1560],
 		[50, 7_680, 1536],
-	])('waveformFigures(10 cycles of %s Hz at %s S/s) covers 10 cycles and gives the closed-form RMS √(U1²/2 + U5²/2)', (f, fs, n) => {
-		const figs = waveformFigures(mains(f, fs, n), fs);
-		expect(figs.span).toBe('whole-cycles');
-		expect(figs.cycles).toBe(10);
-		// whole samples per cycle: exact to rounding; 153.6 per cycle: the value at N is interpolated one period back
-		expect(Math.abs(figs.rms / RMS - 1)).toBeLessThan(fs === 7_680 ? 1e-6 : 1e-12);
-		expect(Math.abs(figs.mean)).toBeLessThan(1e-6 * RMS); // closed form: 0 (sines over whole periods)
-		expect(figs.warnings.some((d) => /cycle/i.test(d.message) && /few|only/i.test(d.message))).toBe(false);
-	});
+	])(
+		'waveformFigures(10 cycles of %s Hz at %s S/s) covers 10 cycles and gives the closed-form RMS √(U1²/2 + U5²/2)',
+		(f, fs, n) => {
+			const figs = waveformFigures(mains(f, fs, n), fs);
+			expect(figs.span).toBe('whole-cycles');
+			expect(figs.cycles).toBe(10);
+			// whole samples per cycle: exact to rounding; 153.6 per cycle: the value at N is interpolated one period back
+			expect(Math.abs(figs.rms / RMS - 1)).toBeLessThan(fs === 7_680 ? 1e-6 : 1e-12);
+			expect(Math.abs(figs.mean)).toBeLessThan(1e-6 * RMS); // closed form: 0 (sines over whole periods)
+			expect(figs.warnings.some((d) => /cycle/i.test(d.message) && /few|only/i.test(d.message))).toBe(false);
+		},
+	);
 
 	it('perCycleFigures over a window ending at N gives 10 cycles, each of the closed-form RMS', () => {
 		const x = mains(50, 10_000, 2000);
@@ -102,7 +108,11 @@ describe('a record of exactly 10 cycles (window ending at index N)', () => {
 		// closed form: rms_1 = U1/√2, 5th = 5 % of it
 		expect(h.set.orders[1].rms).toBeCloseTo(U1 / Math.SQRT2, 6);
 		expect(h.percentOfFundamental[5]).toBeCloseTo(5, 6);
-		const a = harmonicAnalysis(x, 10_000, { fundamentalHz: w.frequencyHz, startIndex: w.startIndex, endIndex: w.endIndex });
+		const a = harmonicAnalysis(x, 10_000, {
+			fundamentalHz: w.frequencyHz,
+			startIndex: w.startIndex,
+			endIndex: w.endIndex,
+		});
 		expect(a.windows.length).toBe(1);
 	});
 
@@ -114,7 +124,11 @@ describe('a record of exactly 10 cycles (window ending at index N)', () => {
 		// resampler accuracy < 2e-5 of the amplitude (sync-resample.ts): 5 % ± 0.0002 %
 		expect(Math.abs(h.percentOfFundamental[5] - 5)).toBeLessThan(2e-4);
 		expect(Math.abs(h.set.orders[1].rms / (U1 / Math.SQRT2) - 1)).toBeLessThan(2e-5);
-		const a = harmonicAnalysis(x, 10_000, { fundamentalHz: w.frequencyHz, startIndex: w.startIndex, endIndex: w.endIndex });
+		const a = harmonicAnalysis(x, 10_000, {
+			fundamentalHz: w.frequencyHz,
+			startIndex: w.startIndex,
+			endIndex: w.endIndex,
+		});
 		expect(a.windows.length).toBe(1);
 	});
 });

@@ -3,7 +3,13 @@ import { channelResolution } from '../../lib/signal/code-step.js';
 import { signalWarnings } from '../../lib/signal/warnings.js';
 
 /** An 8-bit scope channel: ±4 V in 256 codes (q = 31.25 mV), then × probe ratio. */
-function eightBit(n: number, fs: number, f: number, peakV: number, opts: { clipAtV?: number; probe?: number; startS?: number } = {}): Float64Array {
+function eightBit(
+	n: number,
+	fs: number,
+	f: number,
+	peakV: number,
+	opts: { clipAtV?: number; probe?: number; startS?: number } = {},
+): Float64Array {
 	const q = 8 / 256;
 	const x = new Float64Array(n);
 	for (let i = 0; i < n; i++) {
@@ -28,7 +34,10 @@ describe('channelResolution', () => {
 
 	it('channelResolution(a float record with noise) gives no code step', () => {
 		let s = 1;
-		const x = Float64Array.from({ length: 5000 }, (_, i) => Math.sin(i / 30) + ((s = (s * 16807) % 2147483647) / 2147483647 - 0.5) * 1e-3);
+		const x = Float64Array.from(
+			{ length: 5000 },
+			(_, i) => Math.sin(i / 30) + ((s = (s * 16807) % 2147483647) / 2147483647 - 0.5) * 1e-3,
+		);
 		expect(channelResolution(x)).toBeUndefined();
 	});
 });
@@ -57,7 +66,9 @@ describe('signalWarnings clipping rule', () => {
 	});
 
 	it('signalWarnings(float sine clipped at 90 % of its peak, 10 kS/s, 50 Hz known) raises clipping', () => {
-		const x = Float64Array.from({ length: 2000 }, (_, i) => Math.max(-292.7, Math.min(292.7, 325.27 * Math.sin((2 * Math.PI * 50 * i) / 10_000))));
+		const x = Float64Array.from({ length: 2000 }, (_, i) =>
+			Math.max(-292.7, Math.min(292.7, 325.27 * Math.sin((2 * Math.PI * 50 * i) / 10_000))),
+		);
 		const w = signalWarnings(x, 10_000, { frequencyHz: 50 });
 		expect(w.find((d) => d.code === 'clipping')).toBeDefined();
 	});

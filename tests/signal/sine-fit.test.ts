@@ -14,9 +14,16 @@ function rng(seed: number): () => number {
 }
 
 /** x[n] = dc + Σ A_h cos(h·2πf n/fs + φ_h): closed form. */
-function tones(n: number, fs: number, f: number, dc: number, parts: { order: number; amplitude: number; phaseRad: number }[]): Float64Array {
+function tones(
+	n: number,
+	fs: number,
+	f: number,
+	dc: number,
+	parts: { order: number; amplitude: number; phaseRad: number }[],
+): Float64Array {
 	const x = new Float64Array(n).fill(dc);
-	for (const p of parts) for (let i = 0; i < n; i++) x[i] += p.amplitude * Math.cos((p.order * 2 * Math.PI * f * i) / fs + p.phaseRad);
+	for (const p of parts)
+		for (let i = 0; i < n; i++) x[i] += p.amplitude * Math.cos((p.order * 2 * Math.PI * f * i) / fs + p.phaseRad);
 	return x;
 }
 
@@ -80,7 +87,11 @@ describe('fitSharedSine with harmonics, two channels and decimation', () => {
 		const lagDeg = 25;
 		// trigger on the voltage's rising zero crossing at the middle of the record (t = 0 at n/2)
 		const phaseU = -Math.PI / 2 - (2 * Math.PI * f * (n / 2)) / fs;
-		for (const [extra, label] of [[0, 'at the trigger'], [0.7, 'phase +0.7 rad'], [-1.9, 'phase −1.9 rad']] as const) {
+		for (const [extra, label] of [
+			[0, 'at the trigger'],
+			[0.7, 'phase +0.7 rad'],
+			[-1.9, 'phase −1.9 rad'],
+		] as const) {
 			const u = quantise(tones(n, fs, f, 0, [{ order: 1, amplitude: 3.2527, phaseRad: phaseU + extra }]));
 			const i = quantise(
 				tones(n, fs, f, 0, [

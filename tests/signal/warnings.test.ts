@@ -3,8 +3,20 @@ import { signalWarnings } from '../../lib/signal/index.js';
 import { shapeSamples, sineSamples } from '../helpers/synth.js';
 
 const codes = (d: { code: string }[]) => d.map((x) => x.code);
-const sine = (opts: { cycles: number; sampleRateHz?: number; frequencyHz?: number; offset?: number; amplitude?: number }) =>
-	sineSamples({ amplitude: opts.amplitude ?? 325, frequencyHz: opts.frequencyHz ?? 50, sampleRateHz: opts.sampleRateHz ?? 10_000, cycles: opts.cycles, offset: opts.offset });
+const sine = (opts: {
+	cycles: number;
+	sampleRateHz?: number;
+	frequencyHz?: number;
+	offset?: number;
+	amplitude?: number;
+}) =>
+	sineSamples({
+		amplitude: opts.amplitude ?? 325,
+		frequencyHz: opts.frequencyHz ?? 50,
+		sampleRateHz: opts.sampleRateHz ?? 10_000,
+		cycles: opts.cycles,
+		offset: opts.offset,
+	});
 
 describe('signalWarnings', () => {
 	it('signalWarnings(clean 10-cycle 50 Hz sine at 10 kS/s) raises nothing', () => {
@@ -29,24 +41,33 @@ describe('signalWarnings', () => {
 
 	it('signalWarnings without a measured frequency judges the sample rate by the nominal one', () => {
 		const d = signalWarnings(new Float64Array(100), 1000, { nominalHz: 60, maxOrder: 25 });
-		expect(d.find((x) => x.code === 'sample-rate-low-for-harmonics')?.message).toMatch(/highest order measurable is 8\b/); // ⌈1000/120⌉ − 1
+		expect(d.find((x) => x.code === 'sample-rate-low-for-harmonics')?.message).toMatch(
+			/highest order measurable is 8\b/,
+		); // ⌈1000/120⌉ − 1
 	});
 
 	it('signalWarnings Nyquist boundary: fs = 2·h·f1 exactly warns, just above does not', () => {
 		const x = sine({ cycles: 10, sampleRateHz: 5000 });
-		expect(codes(signalWarnings(x, 5000, { frequencyHz: 50, maxOrder: 50 }))).toContain('sample-rate-low-for-harmonics');
-		expect(codes(signalWarnings(x, 5000.001, { frequencyHz: 50, maxOrder: 50 }))).not.toContain('sample-rate-low-for-harmonics');
+		expect(codes(signalWarnings(x, 5000, { frequencyHz: 50, maxOrder: 50 }))).toContain(
+			'sample-rate-low-for-harmonics',
+		);
+		expect(codes(signalWarnings(x, 5000.001, { frequencyHz: 50, maxOrder: 50 }))).not.toContain(
+			'sample-rate-low-for-harmonics',
+		);
 	});
 
 	it("signalWarnings(1 kS/s, peakAccuracyPercent 0.1) raises 'sample-rate-low-for-accuracy': a sampled crest may read 1 − cos(π·50/1000) = 1.23 % low", () => {
-		const d = signalWarnings(sine({ cycles: 10, sampleRateHz: 1000 }), 1000, { frequencyHz: 50, peakAccuracyPercent: 0.1 });
+		const d = signalWarnings(sine({ cycles: 10, sampleRateHz: 1000 }), 1000, {
+			frequencyHz: 50,
+			peakAccuracyPercent: 0.1,
+		});
 		const w = d.find((x) => x.code === 'sample-rate-low-for-accuracy');
 		expect(w?.message).toContain(String(Number((100 * (1 - Math.cos(Math.PI / 20))).toPrecision(4))));
 		// the rate that meets 0.1 %: π·f / acos(1 − 0.001)
 		expect(w?.message).toContain(String(Number(((Math.PI * 50) / Math.acos(1 - 0.001)).toPrecision(4))));
-		expect(codes(signalWarnings(sine({ cycles: 10 }), 10_000, { frequencyHz: 50, peakAccuracyPercent: 0.1 }))).not.toContain(
-			'sample-rate-low-for-accuracy',
-		);
+		expect(
+			codes(signalWarnings(sine({ cycles: 10 }), 10_000, { frequencyHz: 50, peakAccuracyPercent: 0.1 })),
+		).not.toContain('sample-rate-low-for-accuracy');
 	});
 
 	it("signalWarnings(sine of 400 V peak clipped at ±325 V) raises 'clipping'", () => {
@@ -69,7 +90,9 @@ describe('signalWarnings', () => {
 		const acRms = 325 / Math.SQRT2;
 		const d = signalWarnings(sine({ cycles: 10, offset: 0.1 * acRms }), 10_000, { frequencyHz: 50 });
 		expect(d.find((x) => x.code === 'dc-offset')?.message).toContain('10 %');
-		expect(codes(signalWarnings(sine({ cycles: 10, offset: 0.01 * acRms }), 10_000, { frequencyHz: 50 }))).not.toContain('dc-offset');
+		expect(
+			codes(signalWarnings(sine({ cycles: 10, offset: 0.01 * acRms }), 10_000, { frequencyHz: 50 })),
+		).not.toContain('dc-offset');
 	});
 
 	it('signalWarnings(5.5 cycles of a pure sine) raises no dc-offset: the half cycle alone would fake a mean of A/(5.5π), 8.2 % of the AC RMS', () => {
@@ -87,10 +110,15 @@ describe('signalWarnings', () => {
 		[55, 60, false], // inside 51–69 Hz
 		[50, 60, true], // below 51 Hz for a 60 Hz system
 		[400, 400, false], // no IEC 61000-4-30 range for 400 Hz systems: not judged
-	])("signalWarnings(f %s Hz, nominal %s) 'frequency-out-of-range' = %s (IEC 61000-4-30 ranges 42.5–57.5 / 51–69 Hz)", (f, nominal, expected) => {
-		const x = sine({ cycles: 12, frequencyHz: f });
-		expect(codes(signalWarnings(x, 10_000, { frequencyHz: f, nominalHz: nominal })).includes('frequency-out-of-range')).toBe(expected);
-	});
+	])(
+		"signalWarnings(f %s Hz, nominal %s) 'frequency-out-of-range' = %s (IEC 61000-4-30 ranges 42.5–57.5 / 51–69 Hz)",
+		(f, nominal, expected) => {
+			const x = sine({ cycles: 12, frequencyHz: f });
+			expect(
+				codes(signalWarnings(x, 10_000, { frequencyHz: f, nominalHz: nominal })).includes('frequency-out-of-range'),
+			).toBe(expected);
+		},
+	);
 
 	it("signalWarnings(samples with NaN) raises 'non-finite-samples' with the first index", () => {
 		const x = sine({ cycles: 10 });

@@ -41,7 +41,13 @@ describe('averageMeterExplanation', () => {
 
 	it('fundamental + a·3rd at the crest: error (1 − a/3)/√(1 + a²) − 1 (closed form, a = 0.2: −8.48 %)', () => {
 		// sine reference: the 3rd at −180° sine phase → cosine phases −90° and −270°: relative 0° (peaks on the crest)
-		const x = harmonicSamples([{ order: 1, rms: 10 }, { order: 3, rms: 2, phaseDeg: 180 }], { frequencyHz: 50, sampleRateHz: 10_000, cycles: 10 });
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 10 },
+				{ order: 3, rms: 2, phaseDeg: 180 },
+			],
+			{ frequencyHz: 50, sampleRateHz: 10_000, cycles: 10 },
+		);
 		const e = averageMeterExplanation(harmonicWindow(x, 10_000, { fundamentalHz: 50 }).set, 'A');
 		const a = 0.2;
 		expect(e.readingErrorPercent).toBeCloseTo(100 * ((1 - a / 3) / Math.sqrt(1 + a * a) - 1), 3);
@@ -53,14 +59,24 @@ describe('averageMeterExplanation', () => {
 	});
 
 	it('fundamental + a·3rd opposing the crest: error (1 + a/3)/√(1 + a²) − 1 (closed form, +4.59 % at a = 0.2)', () => {
-		const x = harmonicSamples([{ order: 1, rms: 10 }, { order: 3, rms: 2, phaseDeg: 0 }], { frequencyHz: 50, sampleRateHz: 10_000, cycles: 10 });
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 10 },
+				{ order: 3, rms: 2, phaseDeg: 0 },
+			],
+			{ frequencyHz: 50, sampleRateHz: 10_000, cycles: 10 },
+		);
 		const e = averageMeterExplanation(harmonicWindow(x, 10_000, { fundamentalHz: 50 }).set);
 		expect(e.readingErrorPercent).toBeCloseTo(100 * ((1 + 0.2 / 3) / Math.sqrt(1.04) - 1), 3);
 		expect(e.reasons[0].shape).toBe('flattened');
 	});
 
 	it('a pure sine reads within 1 % with no reasons given', () => {
-		const set = harmonicWindow(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 10 }), 10_000, { fundamentalHz: 50 }).set;
+		const set = harmonicWindow(
+			sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 10_000, cycles: 10 }),
+			10_000,
+			{ fundamentalHz: 50 },
+		).set;
 		const e = averageMeterExplanation(set, 'V');
 		expect(Math.abs(e.readingErrorPercent)).toBeLessThan(1e-3);
 		expect(e.reasons).toEqual([]);
@@ -68,7 +84,15 @@ describe('averageMeterExplanation', () => {
 	});
 
 	it('without a fundamental gives NaN figures and says why', () => {
-		const e = averageMeterExplanation({ fundamentalHz: 50, startS: 0, cycles: 10, orders: [{ order: 0, rms: 1, phaseDeg: 0 }, { order: 1, rms: 0, phaseDeg: NaN }] });
+		const e = averageMeterExplanation({
+			fundamentalHz: 50,
+			startS: 0,
+			cycles: 10,
+			orders: [
+				{ order: 0, rms: 1, phaseDeg: 0 },
+				{ order: 1, rms: 0, phaseDeg: NaN },
+			],
+		});
 		expect(e.readingErrorPercent).toBeNaN();
 		expect(e.summary).toMatch(/No fundamental/);
 	});

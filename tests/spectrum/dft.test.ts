@@ -30,7 +30,13 @@ function naiveDft(re: Float64Array, im?: Float64Array): { re: Float64Array; im: 
 }
 
 /** max |X − Y| / max |Y| over all bins. */
-function relError(aRe: ArrayLike<number>, aIm: ArrayLike<number>, bRe: ArrayLike<number>, bIm: ArrayLike<number>, bins: number): number {
+function relError(
+	aRe: ArrayLike<number>,
+	aIm: ArrayLike<number>,
+	bRe: ArrayLike<number>,
+	bIm: ArrayLike<number>,
+	bins: number,
+): number {
 	let err = 0;
 	let scale = 0;
 	for (let k = 0; k < bins; k++) {
@@ -184,7 +190,9 @@ describe('dftPlan', () => {
 	});
 
 	it('forward rejects an input of the wrong length with RangeError', () => {
-		expect(() => dftPlan(16).forward(new Float64Array(15), new Float64Array(16), new Float64Array(16))).toThrow(RangeError);
+		expect(() => dftPlan(16).forward(new Float64Array(15), new Float64Array(16), new Float64Array(16))).toThrow(
+			RangeError,
+		);
 	});
 
 	it('dftReal of no samples returns empty arrays', () => {

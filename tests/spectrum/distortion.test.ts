@@ -1,10 +1,28 @@
 import { describe, expect, it } from 'vitest';
-import { factorK, percentOfIl, tddPercent, thdFPercent, thdRPercent, ulKFactor, type HarmonicSet } from '../../lib/index.js';
+import {
+	factorK,
+	percentOfIl,
+	tddPercent,
+	thdFPercent,
+	thdRPercent,
+	ulKFactor,
+	type HarmonicSet,
+} from '../../lib/index.js';
 
 // docs/methods.md §6 worked example (READ, public worked-example page): I_h/I_1 by order
 const WORKED = (() => {
 	const r = new Float64Array(26);
-	const pairs: [number, number][] = [[1, 1], [5, 0.2], [7, 0.14], [11, 0.091], [13, 0.077], [17, 0.058], [19, 0.056], [23, 0.043], [25, 0.04]];
+	const pairs: [number, number][] = [
+		[1, 1],
+		[5, 0.2],
+		[7, 0.14],
+		[11, 0.091],
+		[13, 0.077],
+		[17, 0.058],
+		[19, 0.056],
+		[23, 0.043],
+		[25, 0.04],
+	];
 	for (const [h, v] of pairs) r[h] = v;
 	return r;
 })();

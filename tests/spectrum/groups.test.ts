@@ -107,7 +107,13 @@ describe('iecHarmonicGroups via harmonicWindow', () => {
 		let share = 0;
 		for (let k = 45; k <= 55; k++) share += (k === 45 || k === 55 ? 0.5 : 1) / (Math.PI ** 2 * (alpha - k) ** 2);
 		expect(share).toBeCloseTo(0.95878, 5); // the hand sum above
-		const x = harmonicSamples([{ order: 1, rms: 230, phaseDeg: 17 }, { order: 5.05, rms: 4, phaseDeg: 63 }], { frequencyHz: 50, sampleRateHz: 10_000, samples: 2000 });
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 230, phaseDeg: 17 },
+				{ order: 5.05, rms: 4, phaseDeg: 63 },
+			],
+			{ frequencyHz: 50, sampleRateHz: 10_000, samples: 2000 },
+		);
 		const w = harmonicWindow(x, 10_000, { fundamentalHz: 50, maxOrder: 20 });
 		// the 50 Hz fundamental sits on bin 10 and leaks nothing into group 5 (D(integer ≠ 0) = 0)
 		const expected = 4 * Math.sqrt(share);

@@ -24,8 +24,20 @@ describe('harmonicAnalysis', () => {
 	it('aggregate RMS of each order is √(mean of the windows\u2019 squares) (IEC 61000-4-30 aggregation)', () => {
 		// 5th harmonic 10 V for two windows, 20 V for three: windows hold whole cycles, so each is pure
 		const fs = 10_000;
-		const quiet = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 10, phaseDeg: 30 }], { frequencyHz: 50, sampleRateHz: fs, cycles: 20 });
-		const loud = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 20, phaseDeg: 30 }], { frequencyHz: 50, sampleRateHz: fs, cycles: 30 });
+		const quiet = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 5, rms: 10, phaseDeg: 30 },
+			],
+			{ frequencyHz: 50, sampleRateHz: fs, cycles: 20 },
+		);
+		const loud = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 5, rms: 20, phaseDeg: 30 },
+			],
+			{ frequencyHz: 50, sampleRateHz: fs, cycles: 30 },
+		);
 		const x = new Float64Array(quiet.length + loud.length);
 		x.set(quiet, 0);
 		// loud starts at a whole number of cycles, so continuing its phase from 0 matches the quiet part
@@ -66,7 +78,13 @@ describe('harmonicAnalysis with resampled windows', () => {
 	it('five resampled windows at 7.8 kS/s, f1 = 50.13 Hz, each read a 5 % 5th as 5.0000 % and aggregate to it', () => {
 		const fs = 7_800;
 		const f1 = 50.13;
-		const x = harmonicSamples([{ order: 1, rms: 230, phaseDeg: 10 }, { order: 5, rms: 11.5, phaseDeg: 100 }], { frequencyHz: f1, sampleRateHz: fs, cycles: 51 });
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 230, phaseDeg: 10 },
+				{ order: 5, rms: 11.5, phaseDeg: 100 },
+			],
+			{ frequencyHz: f1, sampleRateHz: fs, cycles: 51 },
+		);
 		const r = harmonicAnalysis(x, fs, { fundamentalHz: f1, startIndex: 3.9 });
 		expect(r.windows.length).toBe(5);
 		for (const w of r.windows) {

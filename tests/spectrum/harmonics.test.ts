@@ -11,7 +11,11 @@ const N = 1024; // samples per cycle
 describe('harmonicWindow on closed-form shapes', () => {
 	it('square wave of peak A: odd orders only, DFT closed form 2A/(N·sin(πh/N))·√2 RMS, → 4A/(hπ) peak (textbook)', () => {
 		const a = 10;
-		const w = harmonicWindow(shapeSamples('square', { amplitude: a, frequencyHz: F1, sampleRateHz: FS, cycles: 10 }), FS, { fundamentalHz: F1 });
+		const w = harmonicWindow(
+			shapeSamples('square', { amplitude: a, frequencyHz: F1, sampleRateHz: FS, cycles: 10 }),
+			FS,
+			{ fundamentalHz: F1 },
+		);
 		expect(w.resampled).toBe(false);
 		for (let h = 1; h <= 50; h++) {
 			const rms = w.set.orders[h].rms;
@@ -23,7 +27,9 @@ describe('harmonicWindow on closed-form shapes', () => {
 			const exact = (Math.SQRT2 * 2 * a) / (N * Math.sin((Math.PI * h) / N));
 			expect(rms).toBeCloseTo(exact, 9);
 			// continuous Fourier series, 4A/(hπ) peak: equal within the sampling term x/sin x − 1 < x²/6 + x⁴/40, x = πh/N
-			expect(Math.abs(rms / ((4 * a) / (h * Math.PI) / Math.SQRT2) - 1)).toBeLessThan(((Math.PI * h) / N) ** 2 / 6 + ((Math.PI * h) / N) ** 4 / 40);
+			expect(Math.abs(rms / ((4 * a) / (h * Math.PI) / Math.SQRT2) - 1)).toBeLessThan(
+				((Math.PI * h) / N) ** 2 / 6 + ((Math.PI * h) / N) ** 4 / 40,
+			);
 			// phase of the closed form: −90° + 180°·h/N (sine reference, half-sample offset of the sampled edges)
 			expect(w.set.orders[h].phaseDeg).toBeCloseTo(-90 + (180 * h) / N, 7);
 		}
@@ -31,12 +37,18 @@ describe('harmonicWindow on closed-form shapes', () => {
 
 	it('sawtooth of peak A: every order, closed form √2·A/(N·sin(πh/N)) RMS → 2A/(hπ) peak, alternating sign (textbook)', () => {
 		const a = 1;
-		const w = harmonicWindow(shapeSamples('sawtooth', { amplitude: a, frequencyHz: F1, sampleRateHz: FS, cycles: 10 }), FS, { fundamentalHz: F1 });
+		const w = harmonicWindow(
+			shapeSamples('sawtooth', { amplitude: a, frequencyHz: F1, sampleRateHz: FS, cycles: 10 }),
+			FS,
+			{ fundamentalHz: F1 },
+		);
 		for (let h = 1; h <= 50; h++) {
 			// x[i] = 2A·i/N − 2A·[i ≥ N/2]: X_h = ±2A/(1 − e^{−j2πh/N}) (+ odd h, − even h), |X_h| = A/sin(πh/N)
 			const exact = (Math.SQRT2 * a) / (N * Math.sin((Math.PI * h) / N));
 			expect(w.set.orders[h].rms).toBeCloseTo(exact, 10);
-			expect(Math.abs(w.set.orders[h].rms / ((2 * a) / (h * Math.PI) / Math.SQRT2) - 1)).toBeLessThan(((Math.PI * h) / N) ** 2 / 6 + ((Math.PI * h) / N) ** 4 / 40);
+			expect(Math.abs(w.set.orders[h].rms / ((2 * a) / (h * Math.PI) / Math.SQRT2) - 1)).toBeLessThan(
+				((Math.PI * h) / N) ** 2 / 6 + ((Math.PI * h) / N) ** 4 / 40,
+			);
 			const phase = -90 + (180 * h) / N + (h % 2 === 0 ? 180 : 0);
 			expect(Math.cos(((w.set.orders[h].phaseDeg - phase) * Math.PI) / 180)).toBeCloseTo(1, 9);
 		}
@@ -44,7 +56,11 @@ describe('harmonicWindow on closed-form shapes', () => {
 
 	it('triangle of peak A: odd orders 8A/(h²π²) peak with alternating sign (textbook), within the aliasing bound', () => {
 		const a = 100;
-		const w = harmonicWindow(shapeSamples('triangle', { amplitude: a, frequencyHz: F1, sampleRateHz: FS, cycles: 10 }), FS, { fundamentalHz: F1 });
+		const w = harmonicWindow(
+			shapeSamples('triangle', { amplitude: a, frequencyHz: F1, sampleRateHz: FS, cycles: 10 }),
+			FS,
+			{ fundamentalHz: F1 },
+		);
 		for (let h = 1; h <= 49; h += 2) {
 			const peak = (8 * a) / (h * h * Math.PI * Math.PI);
 			// aliases of orders mN ± h fold onto h: |error| ≤ Σ_m 2·8A/(π²(mN − h)²) < 2·8A/π² · 1.65/(N − h)²
@@ -59,7 +75,11 @@ describe('harmonicWindow on closed-form shapes', () => {
 
 	it('half-wave rectified sine of peak A: DC A/π, fundamental A/2, even orders 2A/(π(h²−1)), odd ≥ 3 zero (textbook)', () => {
 		const a = 325;
-		const w = harmonicWindow(shapeSamples('half-wave', { amplitude: a, frequencyHz: F1, sampleRateHz: FS, cycles: 10 }), FS, { fundamentalHz: F1 });
+		const w = harmonicWindow(
+			shapeSamples('half-wave', { amplitude: a, frequencyHz: F1, sampleRateHz: FS, cycles: 10 }),
+			FS,
+			{ fundamentalHz: F1 },
+		);
 		// aliasing of a kinked wave: coefficients fall as 1/h², same bound form as the triangle
 		const alias = (h: number) => (2 * 2 * a * 1.65) / (Math.PI * (N - h) ** 2);
 		expect(Math.abs(w.set.orders[0].rms - a / Math.PI)).toBeLessThan(alias(0));
@@ -76,7 +96,11 @@ describe('harmonicWindow on closed-form shapes', () => {
 	it('THD of an ideal square wave to high order approaches √(π²/8 − 1) = 48.34 % (48.3 %, common practice)', () => {
 		// 4096 samples per cycle so that order 1000 is well inside the band
 		const fs = 50 * 4096;
-		const w = harmonicWindow(shapeSamples('square', { amplitude: 1, frequencyHz: F1, sampleRateHz: fs, cycles: 10 }), fs, { fundamentalHz: F1, maxOrder: 1000 });
+		const w = harmonicWindow(
+			shapeSamples('square', { amplitude: 1, frequencyHz: F1, sampleRateHz: fs, cycles: 10 }),
+			fs,
+			{ fundamentalHz: F1, maxOrder: 1000 },
+		);
 		const rms = w.set.orders.map((o) => o.rms);
 		let s = 0;
 		for (let h = 2; h <= 1000; h++) s += rms[h] * rms[h];
@@ -160,7 +184,7 @@ describe('harmonicWindow synchronised by resampling', () => {
 			expect(w.percentOfFundamental[29]).toBeCloseTo(0.3, 4);
 			expect(w.percentOfFundamental[7]).toBeLessThan(1e-4);
 			// relative phase: sine-reference phases p_h → cosine p_h − 90; φ_h − h·φ_1 = (−70 − 90) − 5·(20 − 90)
-			const rel5 = (((-160 + 350) % 360) + 540) % 360 - 180;
+			const rel5 = ((((-160 + 350) % 360) + 540) % 360) - 180;
 			expect(w.phaseRelDeg[5]).toBeCloseTo(rel5, 2);
 			// absolute phase at the window start t0 = start/fs: φ_1 = 20 − 90 + 360·f1·t0
 			const abs1 = 20 - 90 + (360 * f1 * start) / fs;
@@ -170,7 +194,13 @@ describe('harmonicWindow synchronised by resampling', () => {
 	}
 
 	it('whole-sample windows with a fractional start are phase-corrected by the shift theorem', () => {
-		const x = harmonicSamples([{ order: 1, rms: 1, phaseDeg: 0 }, { order: 3, rms: 0.2, phaseDeg: 0 }], { frequencyHz: 50, sampleRateHz: 10_000, cycles: 12 });
+		const x = harmonicSamples(
+			[
+				{ order: 1, rms: 1, phaseDeg: 0 },
+				{ order: 3, rms: 0.2, phaseDeg: 0 },
+			],
+			{ frequencyHz: 50, sampleRateHz: 10_000, cycles: 12 },
+		);
 		const start = 10.3;
 		const w = harmonicWindow(x, 10_000, { fundamentalHz: 50, startIndex: start });
 		expect(w.resampled).toBe(false);
@@ -212,10 +242,18 @@ describe('harmonicWindow invariants and edge cases', () => {
 	});
 
 	it('DC offset is order 0 with phase 0 (positive) or 180 (negative); a pure sine has NaN phase where its harmonics are 0', () => {
-		const pos = harmonicWindow(sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 10, offset: 0.5 }), 10_000, { fundamentalHz: 50 });
+		const pos = harmonicWindow(
+			sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 10, offset: 0.5 }),
+			10_000,
+			{ fundamentalHz: 50 },
+		);
 		expect(pos.set.orders[0].rms).toBeCloseTo(0.5, 12);
 		expect(pos.set.orders[0].phaseDeg).toBe(0);
-		const neg = harmonicWindow(sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 10, offset: -0.5 }), 10_000, { fundamentalHz: 50 });
+		const neg = harmonicWindow(
+			sineSamples({ amplitude: 1, frequencyHz: 50, sampleRateHz: 10_000, cycles: 10, offset: -0.5 }),
+			10_000,
+			{ fundamentalHz: 50 },
+		);
 		expect(neg.set.orders[0].phaseDeg).toBe(180);
 		expect(neg.set.orders[5].phaseDeg).toBeNaN();
 	});

@@ -10,7 +10,8 @@ function maxError(nu: number, start: number, len: number, m: number, passbandRat
 	const x = cosine(n, nu, 0.3);
 	const out = syncResample(x, start, len, new Float64Array(m), passbandRatio);
 	let err = 0;
-	for (let i = 0; i < m; i++) err = Math.max(err, Math.abs(out[i] - Math.cos(2 * Math.PI * nu * (start + (i * len) / m) + 0.3)));
+	for (let i = 0; i < m; i++)
+		err = Math.max(err, Math.abs(out[i] - Math.cos(2 * Math.PI * nu * (start + (i * len) / m) + 0.3)));
 	return err;
 }
 
@@ -24,7 +25,8 @@ describe('syncResample', () => {
 	for (const passband of [0.1, 0.255, 0.303, 0.39]) {
 		it(`with passbandRatio ${passband} (${syncResampleHalfTaps(passband)} taps a side) reproduces cosines up to ${passband}·fs to 2e-5`, () => {
 			let worst = 0;
-			for (let nu = 0.002; nu <= passband; nu += passband / 12) worst = Math.max(worst, maxError(nu, 700.81, 2001.17, 2048, passband));
+			for (let nu = 0.002; nu <= passband; nu += passband / 12)
+				worst = Math.max(worst, maxError(nu, 700.81, 2001.17, 2048, passband));
 			expect(worst).toBeLessThan(2e-5);
 		});
 	}
@@ -38,7 +40,7 @@ describe('syncResample', () => {
 	const A_DB = 110;
 	const kaiserHalfTaps = (passband: number) => Math.ceil(((A_DB - 7.95) / (14.36 * (1 - 2 * passband)) + 1) / 2);
 
-	it('syncResampleHalfTaps follows Kaiser\'s length rule: 8 taps a side for ν_p = 0.255, 17 for 0.39, 5 for 0', () => {
+	it("syncResampleHalfTaps follows Kaiser's length rule: 8 taps a side for ν_p = 0.255, 17 for 0.39, 5 for 0", () => {
 		// by hand, ν_p = 0.255 (order 51 of 50 Hz at 10 kS/s): Δf = 0.49, N = 102.05 / (14.36 · 0.49) = 102.05 / 7.0364
 		// = 14.50, so 15.50 → 16 taps, W = 8
 		expect(kaiserHalfTaps(0.255)).toBe(8);
@@ -52,7 +54,8 @@ describe('syncResample', () => {
 	});
 
 	it('syncResampleHalfTaps grows as the passband nears fs/2 and is held within its documented 4…32', () => {
-		for (const nu of [0, 0.1, 0.2, 0.255, 0.3, 0.35, 0.39, 0.42]) expect(syncResampleHalfTaps(nu)).toBe(Math.min(32, Math.max(4, kaiserHalfTaps(nu))));
+		for (const nu of [0, 0.1, 0.2, 0.255, 0.3, 0.35, 0.39, 0.42])
+			expect(syncResampleHalfTaps(nu)).toBe(Math.min(32, Math.max(4, kaiserHalfTaps(nu))));
 		expect(syncResampleHalfTaps(0.1)).toBeLessThan(syncResampleHalfTaps(0.3));
 		// ν_p = 0.49: Δf = 0.02, N = 102.05 / 0.2872 = 355: far over 32, so held at the cap
 		expect(kaiserHalfTaps(0.49)).toBeGreaterThan(32);
@@ -70,7 +73,8 @@ describe('syncResample', () => {
 		const x = cosine(len, 10 / len, 0.3);
 		const out = syncResample(x, 0, len, new Float64Array(2048));
 		let err = 0;
-		for (let i = 0; i < 2048; i++) err = Math.max(err, Math.abs(out[i] - Math.cos(2 * Math.PI * (10 / len) * ((i * len) / 2048) + 0.3)));
+		for (let i = 0; i < 2048; i++)
+			err = Math.max(err, Math.abs(out[i] - Math.cos(2 * Math.PI * (10 / len) * ((i * len) / 2048) + 0.3)));
 		expect(err).toBeLessThan(1e-4);
 	});
 

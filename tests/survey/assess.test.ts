@@ -6,13 +6,31 @@ const TEN_MIN = 600;
 const WEEK = 1008; // 7 days x 144 ten-minute intervals
 
 function interval(k: number, rmsV: number, extra: Partial<SurveyInterval> = {}): SurveyInterval {
-	return { startS: k * TEN_MIN, durationS: TEN_MIN, complete: true, flagged: false, rmsV: [rmsV], thdPercent: [3], ...extra };
+	return {
+		startS: k * TEN_MIN,
+		durationS: TEN_MIN,
+		complete: true,
+		flagged: false,
+		rmsV: [rmsV],
+		thdPercent: [3],
+		...extra,
+	};
 }
 
 function week(volts: (k: number) => number, extra: (k: number) => Partial<SurveyInterval> = () => ({})): SurveyInput {
 	const intervals = Array.from({ length: WEEK }, (_, k) => interval(k, volts(k), extra(k)));
 	const frequency = Array.from({ length: WEEK * 60 }, (_, k) => ({ startS: k * 10, frequencyHz: 50, flagged: false }));
-	return { channels: ['L1'], declaredV: 230, nominalHz: 50, spanStartS: 0, spanEndS: WEEK * TEN_MIN, clockAligned: true, intervals, frequency, events: [] };
+	return {
+		channels: ['L1'],
+		declaredV: 230,
+		nominalHz: 50,
+		spanStartS: 0,
+		spanEndS: WEEK * TEN_MIN,
+		clockAligned: true,
+		intervals,
+		frequency,
+		events: [],
+	};
 }
 
 const line = (r: ReturnType<typeof assessSurvey>, id: string) => r.lines.find((l) => l.id === id)!;
@@ -20,7 +38,10 @@ const line = (r: ReturnType<typeof assessSurvey>, id: string) => r.lines.find((l
 describe('assessSurvey, EN 50160:2010 4.2.2 supply voltage variations', () => {
 	it('40 of 1008 ten-minute means at 255 V: 96.03 % within 230 V ± 10 % meets the 95 % rule, fails the 100 % rule', () => {
 		// Hand computation: (1008 - 40) / 1008 = 96.0317 %; 255 V > 253 V = 1.1 x 230 V.
-		const r = assessSurvey(week((k) => (k < 40 ? 255 : 230)), 'en50160');
+		const r = assessSurvey(
+			week((k) => (k < 40 ? 255 : 230)),
+			'en50160',
+		);
 		expect(line(r, 'supply-voltage-95').value).toBeCloseTo((100 * 968) / 1008, 10);
 		expect(line(r, 'supply-voltage-95').verdict).toBe('meets');
 		expect(line(r, 'supply-voltage-100').verdict).toBe('does not meet');
@@ -29,7 +50,10 @@ describe('assessSurvey, EN 50160:2010 4.2.2 supply voltage variations', () => {
 
 	it('63 of 1008 means (every 16th) at 200 V: 93.75 % within ± 10 % does not meet 95 %, but all are inside +10 / -15 % (195.5 V)', () => {
 		// Hand computation: 945 / 1008 = 93.75 %; 200 V >= 0.85 x 230 V = 195.5 V.
-		const r = assessSurvey(week((k) => (k % 16 === 0 ? 200 : 230)), 'en50160');
+		const r = assessSurvey(
+			week((k) => (k % 16 === 0 ? 200 : 230)),
+			'en50160',
+		);
 		expect(line(r, 'supply-voltage-95').value).toBeCloseTo((100 * 945) / 1008, 10);
 		expect(line(r, 'supply-voltage-95').verdict).toBe('does not meet');
 		expect(line(r, 'supply-voltage-100').verdict).toBe('meets');
@@ -54,34 +78,64 @@ describe('assessSurvey, EN 50160:2010 4.2.2 supply voltage variations', () => {
 describe('assessSurvey, percentile rules', () => {
 	it('THD 95th percentile over a week: 51 of 1008 values at 9 % puts the 95th percentile at 9 % > 8 % (EN 50160:2010, 4.2.5)', () => {
 		// Nearest rank ceil(0.95 x 1008) = 958: the 958th smallest of 957 values of 3 % and 51 of 9 % is 9 %.
-		const r = assessSurvey(week(() => 230, (k) => ({ thdPercent: [k < 51 ? 9 : 3] })), 'en50160');
+		const r = assessSurvey(
+			week(
+				() => 230,
+				(k) => ({ thdPercent: [k < 51 ? 9 : 3] }),
+			),
+			'en50160',
+		);
 		expect(line(r, 'thd').value).toBe(9);
 		expect(line(r, 'thd').verdict).toBe('does not meet');
-		const r2 = assessSurvey(week(() => 230, (k) => ({ thdPercent: [k < 50 ? 9 : 3] })), 'en50160');
+		const r2 = assessSurvey(
+			week(
+				() => 230,
+				(k) => ({ thdPercent: [k < 50 ? 9 : 3] }),
+			),
+			'en50160',
+		);
 		expect(line(r2, 'thd').value).toBe(3); // 958 > 50 values of 9 %: the 958th smallest is 3 %
 		expect(line(r2, 'thd').verdict).toBe('meets');
 	});
 
 	it('the 5th harmonic is judged against EN 50160 Table 1 (6 %) and IEC 61000-2-2 Table 1 (6 %), per order', () => {
 		const h = (v5: number) => Array.from({ length: 51 }, (_, o) => (o === 5 ? v5 : o === 1 ? 100 : 0.1));
-		const r = assessSurvey(week(() => 230, (k) => ({ harmonicsPercent: [h(k < 100 ? 6.5 : 2)] })), 'en50160');
+		const r = assessSurvey(
+			week(
+				() => 230,
+				(k) => ({ harmonicsPercent: [h(k < 100 ? 6.5 : 2)] }),
+			),
+			'en50160',
+		);
 		const h5 = r.lines.find((l) => l.id === 'harmonic-5')!;
 		expect(h5.limit).toBe(6);
 		expect(h5.value).toBe(6.5);
 		expect(h5.verdict).toBe('does not meet');
 		expect(h5.source).toContain('EN 50160');
-		const r2 = assessSurvey(week(() => 230, (k) => ({ harmonicsPercent: [h(k < 100 ? 6.5 : 2)] })), 'iec61000-2-2');
+		const r2 = assessSurvey(
+			week(
+				() => 230,
+				(k) => ({ harmonicsPercent: [h(k < 100 ? 6.5 : 2)] }),
+			),
+			'iec61000-2-2',
+		);
 		expect(r2.lines.find((l) => l.id === 'harmonic-5')!.source).toContain('IEC 61000-2-2');
 	});
 
 	it('unbalance and Plt not recorded are "not measured", never a pass', () => {
-		const r = assessSurvey(week(() => 230), 'en50160');
+		const r = assessSurvey(
+			week(() => 230),
+			'en50160',
+		);
 		expect(line(r, 'unbalance').verdict).toBe('not measured');
 		expect(line(r, 'flicker-plt').verdict).toBe('not measured');
 	});
 
 	it('Plt 0.9 passes EN 50160 (Plt <= 1) and fails the IEC 61000-2-2 level (0.8, from memory)', () => {
-		const input = { ...week(() => 230), plt: Array.from({ length: 84 }, (_, k) => ({ startS: k * 7200, plt: [0.9], flagged: false })) };
+		const input = {
+			...week(() => 230),
+			plt: Array.from({ length: 84 }, (_, k) => ({ startS: k * 7200, plt: [0.9], flagged: false })),
+		};
 		expect(line(assessSurvey(input, 'en50160'), 'flicker-plt').verdict).toBe('meets');
 		expect(line(assessSurvey(input, 'iec61000-2-2'), 'flicker-plt').verdict).toBe('does not meet');
 	});
@@ -129,6 +183,11 @@ describe('assessSurvey, events and coverage', () => {
 		expect(findGaps(input)).toEqual([{ startS: 3600, endS: 7200 }]);
 		const short = { ...input, spanEndS: 86_400, intervals: input.intervals.slice(0, 100) };
 		expect(assessSurvey(short, 'en50160').weekNote).toContain('only');
-		expect(assessSurvey(week(() => 230), 'en50160').weekNote).not.toContain('only');
+		expect(
+			assessSurvey(
+				week(() => 230),
+				'en50160',
+			).weekNote,
+		).not.toContain('only');
 	});
 });

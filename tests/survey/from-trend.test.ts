@@ -8,7 +8,13 @@ const CHANNELS = [
 ];
 
 /** A `trend` document of `rows` ten-minute values starting at `firstS` (s from the file start), clock start `startTime`. */
-function doc(source: string, startTime: string | null, durationS: number, rows: { startS: number; durationS: number; v: number; complete: boolean }[], events: TrendDocument['events'] = []): TrendDocument {
+function doc(
+	source: string,
+	startTime: string | null,
+	durationS: number,
+	rows: { startS: number; durationS: number; v: number; complete: boolean }[],
+	events: TrendDocument['events'] = [],
+): TrendDocument {
 	return {
 		source,
 		startTime,
@@ -16,7 +22,15 @@ function doc(source: string, startTime: string | null, durationS: number, rows: 
 		nominalHz: 50,
 		durationS,
 		channels: CHANNELS,
-		aggregates: rows.map((r) => ({ interval: '10-min', startS: r.startS, durationS: r.durationS, complete: r.complete, flagged: false, rms: [r.v, 5], thdPercent: [2, 30] })),
+		aggregates: rows.map((r) => ({
+			interval: '10-min',
+			startS: r.startS,
+			durationS: r.durationS,
+			complete: r.complete,
+			flagged: false,
+			rms: [r.v, 5],
+			thdPercent: [2, 30],
+		})),
 		frequency: [{ startS: 0, durationS: 10, frequencyHz: 50, complete: true, flagged: false }],
 		events,
 	};
@@ -26,8 +40,14 @@ describe('surveyInputFromTrend', () => {
 	it('joins the two parts of a 10-minute interval cut by a file boundary: RMS of the parts weighted by duration', () => {
 		// 08:00-09:05 then 09:05-10:00: the 09:00-09:10 interval is 300 s at 230 V + 300 s at 240 V.
 		// Hand computation: sqrt((300 x 230^2 + 300 x 240^2) / 600) = sqrt(55250) = 235.0532 V.
-		const a = doc('a.cfg', '2026-05-04T08:00:00Z', 3900, [...Array.from({ length: 6 }, (_, k) => ({ startS: 600 * k, durationS: 600, v: 230, complete: true })), { startS: 3600, durationS: 300, v: 230, complete: false }]);
-		const b = doc('b.cfg', '2026-05-04T09:05:00Z', 3300, [{ startS: 0, durationS: 300, v: 240, complete: false }, ...Array.from({ length: 5 }, (_, k) => ({ startS: 300 + 600 * k, durationS: 600, v: 231, complete: true }))]);
+		const a = doc('a.cfg', '2026-05-04T08:00:00Z', 3900, [
+			...Array.from({ length: 6 }, (_, k) => ({ startS: 600 * k, durationS: 600, v: 230, complete: true })),
+			{ startS: 3600, durationS: 300, v: 230, complete: false },
+		]);
+		const b = doc('b.cfg', '2026-05-04T09:05:00Z', 3300, [
+			{ startS: 0, durationS: 300, v: 240, complete: false },
+			...Array.from({ length: 5 }, (_, k) => ({ startS: 300 + 600 * k, durationS: 600, v: 231, complete: true })),
+		]);
 		const { input, diagnostics } = surveyInputFromTrend([b, a]); // given out of order: sorted by start time
 		expect(diagnostics).toEqual([]);
 		expect(input.clockAligned).toBe(true);
@@ -41,8 +61,20 @@ describe('surveyInputFromTrend', () => {
 	});
 
 	it('an event cut by a file boundary is one event with the summed duration and the lower residual', () => {
-		const a = doc('a.cfg', '2026-05-04T08:00:00Z', 600, [], [{ kind: 'dip', startS: 590, durationS: 10, percentOfDeclared: 60, channels: ['L1'], ended: false }]);
-		const b = doc('b.cfg', '2026-05-04T08:10:00Z', 600, [], [{ kind: 'dip', startS: 0, durationS: 2.5, percentOfDeclared: 55, channels: ['L1'], ended: true }]);
+		const a = doc(
+			'a.cfg',
+			'2026-05-04T08:00:00Z',
+			600,
+			[],
+			[{ kind: 'dip', startS: 590, durationS: 10, percentOfDeclared: 60, channels: ['L1'], ended: false }],
+		);
+		const b = doc(
+			'b.cfg',
+			'2026-05-04T08:10:00Z',
+			600,
+			[],
+			[{ kind: 'dip', startS: 0, durationS: 2.5, percentOfDeclared: 55, channels: ['L1'], ended: true }],
+		);
 		const { input } = surveyInputFromTrend([a, b]);
 		expect(input.events).toHaveLength(1);
 		expect(input.events[0]).toMatchObject({ kind: 'dip', durationS: 12.5, percentOfDeclared: 55 });
@@ -71,7 +103,10 @@ describe('surveyInputFromTrend', () => {
 
 	it('files with different voltage channels are refused, naming the file', () => {
 		const a = doc('a.cfg', '2026-05-04T08:00:00Z', 600, []);
-		const b = { ...doc('b.cfg', '2026-05-04T08:10:00Z', 600, []), channels: [{ name: 'L2', quantity: 'voltage', unit: 'V' }] };
+		const b = {
+			...doc('b.cfg', '2026-05-04T08:10:00Z', 600, []),
+			channels: [{ name: 'L2', quantity: 'voltage', unit: 'V' }],
+		};
 		expect(() => surveyInputFromTrend([a, b])).toThrow(SurveyMergeError);
 		expect(() => surveyInputFromTrend([a, b])).toThrow(/L2/);
 	});

@@ -13,7 +13,12 @@ describe('percentileNearestRank', () => {
 	});
 
 	it('percentileNearestRank of 1..20 at 95 % is 19: rank ceil(0.95 * 20) = 19 (hand computation)', () => {
-		expect(percentileNearestRank(Array.from({ length: 20 }, (_, i) => i + 1), 95)).toBe(19);
+		expect(
+			percentileNearestRank(
+				Array.from({ length: 20 }, (_, i) => i + 1),
+				95,
+			),
+		).toBe(19);
 	});
 
 	it('percentileNearestRank skips NaN and gives NaN when nothing is finite', () => {

@@ -28,9 +28,19 @@ const VOLT_TOL = 0.002 * 230;
 
 describe('createTrendAnalyser: docs/methods.md §3.4 worked example, computed vector from the shared reference script (230 V -> 115 V for 5 cycles at a zero crossing)', () => {
 	const fs = 10_000;
-	const [x] = makeChannels([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.2, toS: 0.3, rms: 115 }] }], { f0Hz: 50 }, fs, 1);
+	const [x] = makeChannels(
+		[{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.2, toS: 0.3, rms: 115 }] }],
+		{ f0Hz: 50 },
+		fs,
+		1,
+	);
 	const halves: [number, number][] = [];
-	const r = run([x], { sampleRateHz: fs, declaredV: 230, nominalHz: 50, onHalfCycle: (_c, t, v) => halves.push([t, v]) });
+	const r = run([x], {
+		sampleRateHz: fs,
+		declaredV: 230,
+		nominalHz: 50,
+		onHalfCycle: (_c, t, v) => halves.push([t, v]),
+	});
 
 	it('Urms(1/2) reads 230, then sqrt((230² + 115²)/2) = 181.83 for the window 190-210 ms, then 115', () => {
 		const at = (t: number) => halves.find(([s]) => Math.abs(s - t) < 0.0005)?.[1];
@@ -119,10 +129,17 @@ describe('createTrendAnalyser: constructed events', () => {
 		const s = [{ fromS: 0.5, toS: 1.0, rms: 0.08 * 230 }];
 		const xs = threePhase([s, s, s], 1.6);
 		const five = run(xs, { sampleRateHz: 10_000, declaredV: 230, nominalHz: 50 });
-		const ten = run(xs, { sampleRateHz: 10_000, declaredV: 230, nominalHz: 50, thresholds: { interruptionPercent: 10 } });
+		const ten = run(xs, {
+			sampleRateHz: 10_000,
+			declaredV: 230,
+			nominalHz: 50,
+			thresholds: { interruptionPercent: 10 },
+		});
 		expect(five.events.map((e) => e.kind)).toEqual(['dip']);
 		expect(ten.events.map((e) => e.kind).sort()).toEqual(['dip', 'interruption']);
-		expect(Math.abs(ten.events.find((e) => e.kind === 'interruption')!.residualV! - 18.4)).toBeLessThanOrEqual(VOLT_TOL);
+		expect(Math.abs(ten.events.find((e) => e.kind === 'interruption')!.residualV! - 18.4)).toBeLessThanOrEqual(
+			VOLT_TOL,
+		);
 	});
 
 	it('an interruption of two phases out of three is a dip, not an interruption (all channels must be below)', () => {
@@ -133,14 +150,33 @@ describe('createTrendAnalyser: constructed events', () => {
 	});
 
 	it('hysteresis: a dip hovering between 90 % and 92 % does not end until every channel is at or above 92 %', () => {
-		const xs = makeChannels([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 0.7, rms: 0.85 * 230 }, { fromS: 0.7, toS: 1.1, rms: 0.91 * 230 }] }], { f0Hz: 50 }, 10_000, 1.6);
+		const xs = makeChannels(
+			[
+				{
+					rms: 230,
+					phaseDeg: 0,
+					steps: [
+						{ fromS: 0.5, toS: 0.7, rms: 0.85 * 230 },
+						{ fromS: 0.7, toS: 1.1, rms: 0.91 * 230 },
+					],
+				},
+			],
+			{ f0Hz: 50 },
+			10_000,
+			1.6,
+		);
 		const r = run(xs, { sampleRateHz: 10_000, declaredV: 230, nominalHz: 50 });
 		expect(r.events.length).toBe(1);
 		expect(Math.abs(r.events[0].durationS - 0.6)).toBeLessThanOrEqual(CYCLE_S); // ends at 1.1 s, not 0.7 s
 	});
 
 	it('an event still going at the end of the recording is reported with ended = false', () => {
-		const xs = makeChannels([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 9, rms: 100 }] }], { f0Hz: 50 }, 10_000, 1);
+		const xs = makeChannels(
+			[{ rms: 230, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 9, rms: 100 }] }],
+			{ f0Hz: 50 },
+			10_000,
+			1,
+		);
 		const r = run(xs, { sampleRateHz: 10_000, declaredV: 230, nominalHz: 50 });
 		expect(r.events.length).toBe(1);
 		expect(r.events[0].ended).toBe(false);
@@ -176,7 +212,12 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 	it('at the 10-min tick the 10/12-cycle series restarts at the first cycle after it; the 10-min value is the RMS of its 3000 windows', () => {
 		// 1 kS/s keeps the 10 min short to compute. Windows start at the first detected rising crossing (20 ms).
 		const fs = 1000;
-		const [x] = makeChannels([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 300, toS: 360, rms: 240 }] }], { f0Hz: 50 }, fs, 602);
+		const [x] = makeChannels(
+			[{ rms: 230, phaseDeg: 0, steps: [{ fromS: 300, toS: 360, rms: 240 }] }],
+			{ f0Hz: 50 },
+			fs,
+			602,
+		);
 		const r = run([x], { sampleRateHz: fs, declaredV: 230, nominalHz: 50, keep: { cycles10: true } }, 100_000);
 		expect(r.min10.length).toBe(2);
 		const [a, b] = r.min10;
@@ -299,7 +340,12 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 	});
 
 	it('the declared voltage is inferred as the nearest common nominal (120 V from 118 V), with an assumption diagnostic', () => {
-		const xs = makeChannels([{ rms: 118, phaseDeg: 0, steps: [{ fromS: 1.5, toS: 1.7, rms: 60 }] }], { f0Hz: 60 }, 7680, 2.5);
+		const xs = makeChannels(
+			[{ rms: 118, phaseDeg: 0, steps: [{ fromS: 1.5, toS: 1.7, rms: 60 }] }],
+			{ f0Hz: 60 },
+			7680,
+			2.5,
+		);
 		const r = run(xs, { sampleRateHz: 7680, nominalHz: 60 });
 		expect(r.declaredV).toBe(120);
 		expect(r.declaredVSource).toBe('inferred');
@@ -309,8 +355,21 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 	});
 
 	it('a current channel gets aggregates but takes no part in events', () => {
-		const [u, i] = makeChannels([{ rms: 230, phaseDeg: 0 }, { rms: 5, phaseDeg: -30, steps: [{ fromS: 0.4, toS: 0.6, rms: 0 }] }], { f0Hz: 50 }, 10_000, 1);
-		const a = createTrendAnalyser({ sampleRateHz: 10_000, nominalHz: 50, declaredV: 230, channels: [V3[0], { name: 'I1', quantity: 'current', unit: 'A' }] });
+		const [u, i] = makeChannels(
+			[
+				{ rms: 230, phaseDeg: 0 },
+				{ rms: 5, phaseDeg: -30, steps: [{ fromS: 0.4, toS: 0.6, rms: 0 }] },
+			],
+			{ f0Hz: 50 },
+			10_000,
+			1,
+		);
+		const a = createTrendAnalyser({
+			sampleRateHz: 10_000,
+			nominalHz: 50,
+			declaredV: 230,
+			channels: [V3[0], { name: 'I1', quantity: 'current', unit: 'A' }],
+		});
 		a.push([u, i]);
 		const r = a.finish();
 		expect(r.events).toEqual([]);
@@ -321,7 +380,14 @@ describe('createTrendAnalyser: aggregates and frequency', () => {
 describe('createTrendAnalyser: streaming', () => {
 	it('gives identical results whatever the chunk sizes (1, 7, 4096, 100 000 samples)', () => {
 		const t0 = 0.5057;
-		const xs = threePhase([[{ fromS: 1.2, toS: 1.5, rms: 260 }], [{ fromS: t0, toS: t0 + 0.06, rms: 161 }], [{ fromS: 2, toS: 2.3, rms: 0 }]], 3.2);
+		const xs = threePhase(
+			[
+				[{ fromS: 1.2, toS: 1.5, rms: 260 }],
+				[{ fromS: t0, toS: t0 + 0.06, rms: 161 }],
+				[{ fromS: 2, toS: 2.3, rms: 0 }],
+			],
+			3.2,
+		);
 		const opts = { sampleRateHz: 10_000, nominalHz: 50 as const };
 		const ref = run(xs, opts, 100_000);
 		expect(ref.events.length).toBeGreaterThanOrEqual(3);
@@ -331,7 +397,9 @@ describe('createTrendAnalyser: streaming', () => {
 	it('rejects bad parameters and ragged chunks with RangeError', () => {
 		expect(() => createTrendAnalyser({ sampleRateHz: 0, channels: V3 })).toThrow(RangeError);
 		expect(() => createTrendAnalyser({ sampleRateHz: 1000, channels: [] })).toThrow(RangeError);
-		expect(() => createTrendAnalyser({ sampleRateHz: 1000, channels: V3, thresholds: { dipPercent: 3 } })).toThrow(RangeError);
+		expect(() => createTrendAnalyser({ sampleRateHz: 1000, channels: V3, thresholds: { dipPercent: 3 } })).toThrow(
+			RangeError,
+		);
 		const a = createTrendAnalyser({ sampleRateHz: 1000, channels: V3.slice(0, 2) });
 		expect(() => a.push([new Float64Array(3), new Float64Array(4)])).toThrow(RangeError);
 		expect(() => a.push([new Float64Array(3)])).toThrow(RangeError);
@@ -387,7 +455,12 @@ describe('createTrendAnalyser: distorted, noisy supply', () => {
 
 describe('createTrendAnalyser: no declared voltage to be had', () => {
 	it('a recording far from every common nominal (3 kV) gets aggregates but no events, and a warning', () => {
-		const xs = makeChannels([{ rms: 3000, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 0.7, rms: 1000 }] }], { f0Hz: 50 }, 10_000, 1.5);
+		const xs = makeChannels(
+			[{ rms: 3000, phaseDeg: 0, steps: [{ fromS: 0.5, toS: 0.7, rms: 1000 }] }],
+			{ f0Hz: 50 },
+			10_000,
+			1.5,
+		);
 		const r = run(xs, { sampleRateHz: 10_000, nominalHz: 50 });
 		expect(r.declaredV).toBeNaN();
 		expect(r.declaredVSource).toBe('none');

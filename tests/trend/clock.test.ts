@@ -6,7 +6,10 @@ describe('clockTimeOf', () => {
 	it('clockTimeOf reads ISO 8601 with Z, with an offset, and without a zone (taken as written)', () => {
 		// 2026-05-04T08:44:21Z = 1777884261 s since 1970 (Date.UTC, an independent computation).
 		expect(clockTimeOf('2026-05-04T08:44:21.051Z')!.unixS).toBeCloseTo(Date.UTC(2026, 4, 4, 8, 44, 21, 51) / 1000, 6);
-		expect(clockTimeOf('2026-05-04T10:44:21.051+02:00')!.unixS).toBeCloseTo(Date.UTC(2026, 4, 4, 8, 44, 21, 51) / 1000, 6);
+		expect(clockTimeOf('2026-05-04T10:44:21.051+02:00')!.unixS).toBeCloseTo(
+			Date.UTC(2026, 4, 4, 8, 44, 21, 51) / 1000,
+			6,
+		);
 		expect(clockTimeOf('2026-05-04T08:44:21.051')).toMatchObject({ zone: 'as written' });
 		expect(clockTimeOf('2026-05-04T08:44:21.051')!.unixS).toBeCloseTo(Date.UTC(2026, 4, 4, 8, 44, 21, 51) / 1000, 6);
 		expect(clockTimeOf('2026-13-04T08:44:21')).toBeUndefined();
@@ -24,7 +27,15 @@ describe('createTrendAnalyser with clockStartS', () => {
 	it('a recording starting at 08:44:21.051 gives its first full 10-min interval at 08:50:00 (IEC 61000-4-30:2015, 4.5.3)', () => {
 		const fs = 3200;
 		const start = clockTimeOf('2026-05-04T08:44:21.051Z')!.unixS;
-		const a = createTrendAnalyser({ sampleRateHz: fs, channels: [{ name: 'L1', quantity: 'voltage', unit: 'V' }], declaredV: 230, nominalHz: 50, thd: false, clockStartS: start, keep: { cycles10: false, cycles150: false } });
+		const a = createTrendAnalyser({
+			sampleRateHz: fs,
+			channels: [{ name: 'L1', quantity: 'voltage', unit: 'V' }],
+			declaredV: 230,
+			nominalHz: 50,
+			thd: false,
+			clockStartS: start,
+			keep: { cycles10: false, cycles150: false },
+		});
 		const total = Math.round(1260 * fs); // 21 minutes: to 09:05:21.051
 		const block = new Float64Array(65536);
 		for (let off = 0; off < total; off += block.length) {

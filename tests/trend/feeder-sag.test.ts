@@ -23,7 +23,10 @@ function readRecording(): { names: string[]; fs: number; volts: Float64Array[]; 
 	const chans = cfg.slice(2, 2 + nAnalog).map((l) => l.split(','));
 	const lineHz = Number(cfg[2 + nAnalog]);
 	const fs = Number(cfg[2 + nAnalog + 2].split(',')[0]);
-	const rows = readFileSync(`${dir}/feeder-sag.dat`, 'utf8').trim().split(/\r?\n/).map((l) => l.split(',').map(Number));
+	const rows = readFileSync(`${dir}/feeder-sag.dat`, 'utf8')
+		.trim()
+		.split(/\r?\n/)
+		.map((l) => l.split(',').map(Number));
 	const picked = chans.filter((c) => c[4] === 'V');
 	return {
 		names: picked.map((c) => c[1]),
@@ -66,39 +69,42 @@ function halfCycleRmsByHand(x: Float64Array, fs: number, lineHz: number): [numbe
 }
 
 describe('analyseTrend on the field recording feeder-sag-1999', () => {
-	it.skipIf(!present)('finds one unbalanced dip on the two phases, start and residual as the hand computation (Udin 7.2 kV L-N)', () => {
-		const rec = readRecording();
-		expect(rec.names).toEqual(['Va', 'Vb', 'Vc']);
-		const capture: Capture = {
-			source: 'feeder-sag.cfg',
-			sampleRateHz: rec.fs,
-			startS: 0,
-			nominalFrequencyHz: rec.lineHz,
-			channels: rec.names.map((name, i) => ({ name, unit: 'V', quantity: 'voltage', samples: rec.volts[i] })),
-			metadata: {},
-			diagnostics: [],
-		};
-		const r = analyseTrend(capture, { declaredV: DECLARED_V });
+	it.skipIf(!present)(
+		'finds one unbalanced dip on the two phases, start and residual as the hand computation (Udin 7.2 kV L-N)',
+		() => {
+			const rec = readRecording();
+			expect(rec.names).toEqual(['Va', 'Vb', 'Vc']);
+			const capture: Capture = {
+				source: 'feeder-sag.cfg',
+				sampleRateHz: rec.fs,
+				startS: 0,
+				nominalFrequencyHz: rec.lineHz,
+				channels: rec.names.map((name, i) => ({ name, unit: 'V', quantity: 'voltage', samples: rec.volts[i] })),
+				metadata: {},
+				diagnostics: [],
+			};
+			const r = analyseTrend(capture, { declaredV: DECLARED_V });
 
-		const dipV = 0.9 * DECLARED_V;
-		const hand = rec.volts.map((x) => halfCycleRmsByHand(x, rec.fs, rec.lineHz));
-		const dipped = rec.names.filter((_, i) => hand[i].some(([, v]) => v < dipV));
-		const firstBelowS = Math.min(...hand.map((h) => h.find(([, v]) => v < dipV)?.[0] ?? Infinity));
-		const residualV = Math.min(...hand.flat().map(([, v]) => v));
-		const maximumV = Math.max(...hand.flat().map(([, v]) => v));
-		expect(dipped).toEqual(['Vb', 'Vc']); // sanity of the hand computation itself
-		expect(maximumV).toBeLessThan(1.1 * DECLARED_V); // so no swell is expected
+			const dipV = 0.9 * DECLARED_V;
+			const hand = rec.volts.map((x) => halfCycleRmsByHand(x, rec.fs, rec.lineHz));
+			const dipped = rec.names.filter((_, i) => hand[i].some(([, v]) => v < dipV));
+			const firstBelowS = Math.min(...hand.map((h) => h.find(([, v]) => v < dipV)?.[0] ?? Infinity));
+			const residualV = Math.min(...hand.flat().map(([, v]) => v));
+			const maximumV = Math.max(...hand.flat().map(([, v]) => v));
+			expect(dipped).toEqual(['Vb', 'Vc']); // sanity of the hand computation itself
+			expect(maximumV).toBeLessThan(1.1 * DECLARED_V); // so no swell is expected
 
-		expect(r.nominalHz).toBe(60);
-		expect(r.events.map((e) => e.kind)).toEqual(['dip']);
-		const d = r.events[0];
-		expect(d.channels).toEqual(dipped);
-		const halfCycleS = 0.5 / 60;
-		expect(Math.abs(d.startS - firstBelowS)).toBeLessThanOrEqual(halfCycleS);
-		expect(Math.abs(d.residualV! - residualV)).toBeLessThanOrEqual(0.002 * DECLARED_V); // IEC 61000-4-30 Class A ±0.2 % Udin (docs/methods.md §3.4, from memory)
-		expect(d.ended).toBe(false); // PROVENANCE.md: the dip lasts to the end of the record
-		// a 60 Hz interconnection runs within ±0.1 Hz of nominal in normal operation (common practice)
-		expect(r.frequency[0].frequencyHz).toBeGreaterThan(59.9);
-		expect(r.frequency[0].frequencyHz).toBeLessThan(60.1);
-	});
+			expect(r.nominalHz).toBe(60);
+			expect(r.events.map((e) => e.kind)).toEqual(['dip']);
+			const d = r.events[0];
+			expect(d.channels).toEqual(dipped);
+			const halfCycleS = 0.5 / 60;
+			expect(Math.abs(d.startS - firstBelowS)).toBeLessThanOrEqual(halfCycleS);
+			expect(Math.abs(d.residualV! - residualV)).toBeLessThanOrEqual(0.002 * DECLARED_V); // IEC 61000-4-30 Class A ±0.2 % Udin (docs/methods.md §3.4, from memory)
+			expect(d.ended).toBe(false); // PROVENANCE.md: the dip lasts to the end of the record
+			// a 60 Hz interconnection runs within ±0.1 Hz of nominal in normal operation (common practice)
+			expect(r.frequency[0].frequencyHz).toBeGreaterThan(59.9);
+			expect(r.frequency[0].frequencyHz).toBeLessThan(60.1);
+		},
+	);
 });

@@ -24,7 +24,10 @@ export class FloatWavWriter {
 		private readonly totalFrames: number,
 	) {
 		const n = channels.length;
-		const comment = Buffer.from(`sinecheck-calibration: ${channels.map((c, i) => `${i + 1}=${c.name} ${c.unit} 1`).join('; ')}\0`, 'latin1');
+		const comment = Buffer.from(
+			`sinecheck-calibration: ${channels.map((c, i) => `${i + 1}=${c.name} ${c.unit} 1`).join('; ')}\0`,
+			'latin1',
+		);
 		const icmt = Buffer.concat([Buffer.from('ICMT'), u32(comment.length), comment, Buffer.alloc(comment.length & 1)]);
 		const list = Buffer.concat([Buffer.from('LIST'), u32(4 + icmt.length), Buffer.from('INFO'), icmt]);
 		const fmt = Buffer.alloc(24);
@@ -37,7 +40,15 @@ export class FloatWavWriter {
 		fmt.writeUInt16LE(n * 4, 20);
 		fmt.writeUInt16LE(32, 22);
 		const dataBytes = totalFrames * n * 4;
-		const head = Buffer.concat([Buffer.from('RIFF'), u32(4 + fmt.length + list.length + 8 + dataBytes), Buffer.from('WAVE'), fmt, list, Buffer.from('data'), u32(dataBytes)]);
+		const head = Buffer.concat([
+			Buffer.from('RIFF'),
+			u32(4 + fmt.length + list.length + 8 + dataBytes),
+			Buffer.from('WAVE'),
+			fmt,
+			list,
+			Buffer.from('data'),
+			u32(dataBytes),
+		]);
 		this.fd = openSync(path, 'w');
 		writeSync(this.fd, head);
 		this.dataAt = head.length;
@@ -58,7 +69,8 @@ export class FloatWavWriter {
 	}
 
 	close(): void {
-		if (this.framesWritten !== this.totalFrames) throw new Error(`wrote ${this.framesWritten} frames, header says ${this.totalFrames}`);
+		if (this.framesWritten !== this.totalFrames)
+			throw new Error(`wrote ${this.framesWritten} frames, header says ${this.totalFrames}`);
 		closeSync(this.fd);
 	}
 }

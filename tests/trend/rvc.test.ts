@@ -9,14 +9,22 @@ const V3 = ['L1', 'L2', 'L3'].map((name) => ({ name, quantity: 'voltage' as cons
 
 function run(specs: ChannelSpec[], durationS: number, extra: Partial<TrendOptions> = {}): TrendResult {
 	const xs = makeChannels(specs, { f0Hz: 50 }, 10_000, durationS);
-	const a = createTrendAnalyser({ sampleRateHz: 10_000, nominalHz: 50, declaredV: 230, channels: V3.slice(0, xs.length), ...extra });
+	const a = createTrendAnalyser({
+		sampleRateHz: 10_000,
+		nominalHz: 50,
+		declaredV: 230,
+		channels: V3.slice(0, xs.length),
+		...extra,
+	});
 	a.push(xs);
 	return a.finish();
 }
 
 describe('rapid voltage changes (option rvc)', () => {
 	it('a step 230 V -> 220.8 V (−4 %) at a zero crossing with a 3 % threshold is one RVC at 2.00 s: ΔUmax = ΔUss = 9.2 V, transition within a cycle', () => {
-		const r = run([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 2, toS: 99, rms: 220.8 }] }], 4.5, { rvc: { thresholdPercent: 3 } });
+		const r = run([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 2, toS: 99, rms: 220.8 }] }], 4.5, {
+			rvc: { thresholdPercent: 3 },
+		});
 		expect(r.events.map((e) => e.kind)).toEqual(['rvc']);
 		const e = r.events[0];
 		// Urms(1/2) windows 1.99-2.01 (half old, half new: 225.45 V, −1.98 %) stays within 3 %; 2.00-2.02 reads 220.8 V (−4 %).
@@ -28,12 +36,18 @@ describe('rapid voltage changes (option rvc)', () => {
 	});
 
 	it('a change that crosses the dip threshold (230 V -> 200 V) is a dip, not an RVC', () => {
-		const r = run([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 2, toS: 99, rms: 200 }] }], 4.5, { rvc: { thresholdPercent: 3 } });
+		const r = run([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 2, toS: 99, rms: 200 }] }], 4.5, {
+			rvc: { thresholdPercent: 3 },
+		});
 		expect(r.events.map((e) => e.kind)).toEqual(['dip']);
 	});
 
 	it('a 2 % step stays under a 3 % threshold; without the option no RVC is looked for', () => {
-		expect(run([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 2, toS: 99, rms: 225.4 }] }], 4.5, { rvc: { thresholdPercent: 3 } }).events).toEqual([]);
+		expect(
+			run([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 2, toS: 99, rms: 225.4 }] }], 4.5, {
+				rvc: { thresholdPercent: 3 },
+			}).events,
+		).toEqual([]);
 		expect(run([{ rms: 230, phaseDeg: 0, steps: [{ fromS: 2, toS: 99, rms: 220.8 }] }], 4.5).events).toEqual([]);
 	});
 
@@ -57,6 +71,8 @@ describe('rapid voltage changes (option rvc)', () => {
 	});
 
 	it('rejects a hysteresis not below the threshold', () => {
-		expect(() => createTrendAnalyser({ sampleRateHz: 1000, channels: V3, rvc: { thresholdPercent: 3, hysteresisPercent: 3 } })).toThrow(RangeError);
+		expect(() =>
+			createTrendAnalyser({ sampleRateHz: 1000, channels: V3, rvc: { thresholdPercent: 3, hysteresisPercent: 3 } }),
+		).toThrow(RangeError);
 	});
 });

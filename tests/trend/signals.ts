@@ -24,7 +24,12 @@ export interface FrequencySpec {
 	rateHzPerS?: number;
 }
 
-export function makeChannels(specs: ChannelSpec[], freq: FrequencySpec, sampleRateHz: number, durationS: number): Float64Array[] {
+export function makeChannels(
+	specs: ChannelSpec[],
+	freq: FrequencySpec,
+	sampleRateHz: number,
+	durationS: number,
+): Float64Array[] {
 	const n = Math.round(durationS * sampleRateHz);
 	const k = freq.rateHzPerS ?? 0;
 	return specs.map((s) => {

@@ -22,7 +22,10 @@ const TYPES: Record<string, string> = {
 };
 
 /** Serves `dir` read-only on 127.0.0.1; `extra` maps URL paths to generated bodies. */
-export async function startStaticServer(dir: string, extra: Record<string, { type: string; body: string | Uint8Array }> = {}): Promise<{ url: string; close: () => Promise<void> }> {
+export async function startStaticServer(
+	dir: string,
+	extra: Record<string, { type: string; body: string | Uint8Array }> = {},
+): Promise<{ url: string; close: () => Promise<void> }> {
 	const root = resolve(dir);
 	const server: Server = createServer((req, res) => {
 		const path = decodeURIComponent((req.url ?? '/').split('?')[0]);
@@ -56,7 +59,9 @@ export async function startStaticServer(dir: string, extra: Record<string, { typ
  * Headless Chromium with a fresh profile directory (removed by `close`). playwright-core refuses a
  * `--user-data-dir` argument and takes the directory through launchPersistentContext instead.
  */
-export async function launchChromium(viewport = { width: 1400, height: 1000 }): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
+export async function launchChromium(
+	viewport = { width: 1400, height: 1000 },
+): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
 	const profile = mkdtempSync(join(tmpdir(), 'sinecheck-chromium-'));
 	const context = await chromium.launchPersistentContext(profile, {
 		executablePath: CHROMIUM_PATH,

@@ -25,12 +25,28 @@ function render<P extends Record<string, unknown>>(c: Parameters<typeof renderCo
 	cleanup.push(r.unmount);
 	return r.container;
 }
-const capture = (channels: Channel[]): Capture => ({ source: 'x.csv', sampleRateHz: FS, startS: 0, channels, metadata: {}, diagnostics: [] });
+const capture = (channels: Channel[]): Capture => ({
+	source: 'x.csv',
+	sampleRateHz: FS,
+	startS: 0,
+	channels,
+	metadata: {},
+	diagnostics: [],
+});
 
 describe('SpectrumChart', () => {
 	// 5th at 7 % is over the EN 50160 limit of 6 %; the 3rd at 3 % is under its 5 % (EN 50160:2010 Table 1; from memory)
-	const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 3, rms: 6.9 }, { order: 5, rms: 16.1 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
-	const report = analyseCapture(capture([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }]), { limits: 'en50160' });
+	const u = harmonicSamples(
+		[
+			{ order: 1, rms: 230 },
+			{ order: 3, rms: 6.9 },
+			{ order: 5, rms: 16.1 },
+		],
+		{ frequencyHz: 50, sampleRateHz: FS, cycles: 20 },
+	);
+	const report = analyseCapture(capture([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }]), {
+		limits: 'en50160',
+	});
 	const ch = report.channels[0];
 	const rows = report.limits!.rows.filter((r) => r.channel === 'U1');
 
@@ -82,7 +98,18 @@ describe('PhasorDiagram', () => {
 describe('ProblemList', () => {
 	it('ProblemList names the file, line and column, what was found and what was expected', () => {
 		const el = render(ProblemList, {
-			problems: [{ source: 'bad.csv', line: 4, column: 7, code: 'bad-number', text: 'abc', expected: 'a number', message: '', lineText: '0.002,abc' }],
+			problems: [
+				{
+					source: 'bad.csv',
+					line: 4,
+					column: 7,
+					code: 'bad-number',
+					text: 'abc',
+					expected: 'a number',
+					message: '',
+					lineText: '0.002,abc',
+				},
+			],
 		});
 		// the line as written, with a caret under column 7
 		expect(el.querySelector('pre.line')?.textContent).toBe('0.002,abc\n      ^ column 7');
@@ -96,7 +123,15 @@ describe('ProblemList', () => {
 describe('Findings', () => {
 	it('Findings shows each verdict with its number and a "show" button that reports where to go', async () => {
 		const onshow = vi.fn();
-		const v = { id: 'meter-I1', topic: 'meter' as const, level: 'attention' as const, channel: 'I1', text: 'I1 reads 12 % low', figure: 'it would show 8.8 A', target: { tab: 'waves' as const, channel: 'I1' } };
+		const v = {
+			id: 'meter-I1',
+			topic: 'meter' as const,
+			level: 'attention' as const,
+			channel: 'I1',
+			text: 'I1 reads 12 % low',
+			figure: 'it would show 8.8 A',
+			target: { tab: 'waves' as const, channel: 'I1' },
+		};
 		const el = render(Findings, { verdicts: [v], onshow });
 		expect(el.textContent).toContain('it would show 8.8 A');
 		expect(el.textContent).toContain('look at this'); // the level in words for screen readers, not only a colour
@@ -121,7 +156,14 @@ describe('FiguresTable', () => {
 describe('SafetyNote', () => {
 	it('SafetyNote states the CAT ratings, isolated/differential probes, the floating-earth warning and the compliance caveat', () => {
 		const el = render(SafetyNote, {});
-		for (const words of ['CAT II / CAT III / CAT IV', 'isolated channels', 'differential probes', "Never float a scope's earth", 'not a compliance measurement', 'local electrical-safety rules']) {
+		for (const words of [
+			'CAT II / CAT III / CAT IV',
+			'isolated channels',
+			'differential probes',
+			"Never float a scope's earth",
+			'not a compliance measurement',
+			'local electrical-safety rules',
+		]) {
 			expect(el.textContent).toContain(words);
 		}
 	});

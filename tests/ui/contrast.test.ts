@@ -16,7 +16,9 @@ const ROOT = resolve(__dirname, '../..');
 const AA_TEXT = 4.5;
 
 function luminance(hex: string): number {
-	const c = [1, 3, 5].map((k) => parseInt(hex.slice(k, k + 2), 16) / 255).map((v) => (v <= 0.03928 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4));
+	const c = [1, 3, 5]
+		.map((k) => parseInt(hex.slice(k, k + 2), 16) / 255)
+		.map((v) => (v <= 0.03928 ? v / 12.92 : ((v + 0.055) / 1.055) ** 2.4));
 	return 0.2126 * c[0] + 0.7152 * c[1] + 0.0722 * c[2];
 }
 function contrast(a: string, b: string): number {
@@ -25,7 +27,9 @@ function contrast(a: string, b: string): number {
 }
 
 const css = readFileSync(join(ROOT, 'src/ui/app.css'), 'utf8');
-const vars = Object.fromEntries([...css.matchAll(/--([a-z-]+):\s*(#[0-9a-f]{6})/gi)].map((m) => [m[1], m[2].toLowerCase()]));
+const vars = Object.fromEntries(
+	[...css.matchAll(/--([a-z-]+):\s*(#[0-9a-f]{6})/gi)].map((m) => [m[1], m[2].toLowerCase()]),
+);
 
 describe('contrast of the palette (WCAG 2.x, 4.5:1 for text)', () => {
 	it('contrast() gives 21:1 for black on white, 1:1 for a colour on itself, 4.54:1 for #767676 on white', () => {

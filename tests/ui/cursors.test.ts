@@ -14,7 +14,10 @@ describe('cursorReading', () => {
 		expect(r.deltaS).toBeCloseTo(0.005, 12);
 		expect(r.phaseDeg).toBeCloseTo(90, 9);
 		expect(r.values[0].a).toBeCloseTo(325.27 * Math.sin(2 * Math.PI * 50 * 0.001), 9);
-		expect(r.values[0].delta).toBeCloseTo(325.27 * (Math.sin(2 * Math.PI * 50 * 0.006) - Math.sin(2 * Math.PI * 50 * 0.001)), 9);
+		expect(r.values[0].delta).toBeCloseTo(
+			325.27 * (Math.sin(2 * Math.PI * 50 * 0.006) - Math.sin(2 * Math.PI * 50 * 0.001)),
+			9,
+		);
 	});
 	it('a time base starting before zero (the analysed stretch later in the file) shifts both times, not the difference', () => {
 		const r = cursorReading([u], { startS: -0.5, sampleRateHz: FS }, 0, 100, 50);

@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { buildMinMaxBlocks, decimateMinMax, indexAtOrAfter, makeDecimationBuffers, timeAt } from '../../src/ui/charts/decimate.js';
+import {
+	buildMinMaxBlocks,
+	decimateMinMax,
+	indexAtOrAfter,
+	makeDecimationBuffers,
+	timeAt,
+} from '../../src/ui/charts/decimate.js';
 import { sineSamples } from '../helpers/synth.js';
 
 const base = (fs: number) => ({ startS: 0, sampleRateHz: fs });
@@ -77,7 +83,9 @@ describe('decimateMinMax', () => {
 	});
 
 	it('decimateMinMax rejects zero columns with a RangeError', () => {
-		expect(() => decimateMinMax([new Float64Array(10)], base(1), 0, 10, 0, makeDecimationBuffers(1, 4))).toThrow(RangeError);
+		expect(() => decimateMinMax([new Float64Array(10)], base(1), 0, 10, 0, makeDecimationBuffers(1, 4))).toThrow(
+			RangeError,
+		);
 	});
 });
 

@@ -38,7 +38,8 @@ function fixtureCsv(): string {
 	const i = sineSamples({ amplitude: 14.14, frequencyHz: 50, sampleRateHz: fs, cycles: 25, phaseDeg: -30 });
 	const rows = ['t (ms);U1 (V);I1 (A)'];
 	// decimal comma and semicolons, as a European scope exports them
-	for (let k = 0; k < u.length; k++) rows.push(`${((1000 * k) / fs).toFixed(3)};${u[k].toFixed(3)};${i[k].toFixed(4)}`.replace(/\./g, ','));
+	for (let k = 0; k < u.length; k++)
+		rows.push(`${((1000 * k) / fs).toFixed(3)};${u[k].toFixed(3)};${i[k].toFixed(4)}`.replace(/\./g, ','));
 	return rows.join('\r\n') + '\r\n';
 }
 
@@ -67,14 +68,22 @@ function sameJson(a: unknown, b: unknown, at: string, out: string[]): void {
 		const ka = Object.keys(a as object).sort();
 		const kb = Object.keys(b as object).sort();
 		if (ka.join() !== kb.join()) out.push(`${at}: keys ${ka.join()} vs ${kb.join()}`);
-		else for (const k of ka) sameJson((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k], `${at}.${k}`, out);
+		else
+			for (const k of ka)
+				sameJson((a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k], `${at}.${k}`, out);
 		return;
 	}
 	if (a !== b) out.push(`${at}: ${JSON.stringify(a)} vs ${JSON.stringify(b)}`);
 }
 
 async function settled(page: Page): Promise<void> {
-	await page.waitForFunction(() => document.querySelector('[data-testid=app]')?.getAttribute('data-busy') === 'no' && !document.body.textContent?.includes('reading…'), null, { timeout: 60_000 });
+	await page.waitForFunction(
+		() =>
+			document.querySelector('[data-testid=app]')?.getAttribute('data-busy') === 'no' &&
+			!document.body.textContent?.includes('reading…'),
+		null,
+		{ timeout: 60_000 },
+	);
 }
 
 describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
@@ -156,11 +165,18 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 		await page.click('.pick >> text=incomer-dip.cfg');
 		await page.click('#tab-trends');
 		await page.waitForSelector('[data-testid=event-0]');
-		const files = ['incomer-dip.cfg', 'incomer-dip.dat'].map((name) => ({ name, bytes: new Uint8Array(readFileSync(join(ROOT, 'sample-waves', name))) }));
+		const files = ['incomer-dip.cfg', 'incomer-dip.dat'].map((name) => ({
+			name,
+			bytes: new Uint8Array(readFileSync(join(ROOT, 'sample-waves', name))),
+		}));
 		const trend = analyseTrend(openCaptures(files).captures[0]);
 		expect(await page.$$eval('[data-testid^=event-]', (els) => els.length)).toBe(trend.events.length);
-		const shownStart = parseShown((await page.textContent('[data-testid=event-0] td:nth-child(3)'))!.replace(' ms', ''));
-		expect(Math.abs(shownStart.value / 1000 - trend.events[0].startS)).toBeLessThanOrEqual(shownStart.step / 2000 + 1e-12);
+		const shownStart = parseShown(
+			(await page.textContent('[data-testid=event-0] td:nth-child(3)'))!.replace(' ms', ''),
+		);
+		expect(Math.abs(shownStart.value / 1000 - trend.events[0].startS)).toBeLessThanOrEqual(
+			shownStart.step / 2000 + 1e-12,
+		);
 		await page.locator('#panel').screenshot({ path: join(ARTIFACTS, 'ui-trends-incomer-dip.png') });
 		await page.click('[data-testid=event-0] button');
 		await page.waitForSelector('#tab-waves[aria-selected=true]');
@@ -171,14 +187,22 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 		const file = join(work, 'fixture.csv');
 		writeFileSync(file, fixtureCsv());
 		await page.setInputFiles('[data-testid=file-input]', file);
-		await page.waitForFunction(() => document.querySelector('[data-testid=capture-title]')?.textContent?.trim() === 'fixture.csv', null, { timeout: 30_000 });
+		await page.waitForFunction(
+			() => document.querySelector('[data-testid=capture-title]')?.textContent?.trim() === 'fixture.csv',
+			null,
+			{ timeout: 30_000 },
+		);
 		await settled(page);
 		// closed form: 30° at 50 Hz is 30/360 × 20 ms = 1.67 ms
 		expect((await page.textContent('[data-testid=lag-sentence]'))!.trim()).toBe('I1 lags U1 by 30.0°, 1.67 ms');
 		await page.screenshot({ path: join(ARTIFACTS, 'ui-fixture-waves.png') });
 
 		await page.selectOption('[data-testid=ref-select]', 'I1');
-		await page.waitForFunction(() => document.querySelector('[data-testid=lag-sentence]')?.textContent?.includes('leads I1'), null, { timeout: 30_000 });
+		await page.waitForFunction(
+			() => document.querySelector('[data-testid=lag-sentence]')?.textContent?.includes('leads I1'),
+			null,
+			{ timeout: 30_000 },
+		);
 		expect((await page.textContent('[data-testid=lag-sentence]'))!.trim()).toBe('U1 leads I1 by 30.0°, 1.67 ms');
 
 		await page.click('#tab-report');
@@ -191,7 +215,11 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 			console.warn('SKIPPED CLI comparison: dist/src/cli/main.js is not built (npm test builds it)');
 			return;
 		}
-		const cli = spawnSync(process.execPath, [CLI, 'analyse', '--json', '--quiet', '--ref', 'I1', '--limits', 'en50160', 'fixture.csv'], { cwd: work, encoding: 'utf8' });
+		const cli = spawnSync(
+			process.execPath,
+			[CLI, 'analyse', '--json', '--quiet', '--ref', 'I1', '--limits', 'en50160', 'fixture.csv'],
+			{ cwd: work, encoding: 'utf8' },
+		);
 		expect(cli.stdout.trim().length, cli.stderr).toBeGreaterThan(0);
 		// one file: one JSON document. Same keys, strings, nulls and array lengths; numbers equal to 1 part in
 		// 10^9, angles to 1e-6° (Chromium's and Node's V8 builds differ in the last bits of Math.sin/cos/atan2)
@@ -201,7 +229,7 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 		await page.click('#tab-waves');
 	});
 
-	it('shows a corrupt file\'s error in place with line and column, and the other captures stay open', async () => {
+	it("shows a corrupt file's error in place with line and column, and the other captures stay open", async () => {
 		const bad = join(work, 'broken.csv');
 		writeFileSync(bad, 't (s),U1 (V)\n0,1\n0.0001,2\n0.0002,12x\n0.0003,4\n0.0004,5\n');
 		await page.setInputFiles('[data-testid=file-input]', bad);
@@ -210,7 +238,10 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 		expect(text).toContain('broken.csv');
 		expect(text).toContain('line 4, column 8'); // "12x" starts at character 8 of "0.0002,12x"
 		await page.screenshot({ path: join(ARTIFACTS, 'ui-corrupt-file.png'), fullPage: true });
-		const ready = await page.$$eval('.pick', (els) => els.filter((e) => !e.textContent?.includes('could not be read')).length);
+		const ready = await page.$$eval(
+			'.pick',
+			(els) => els.filter((e) => !e.textContent?.includes('could not be read')).length,
+		);
 		expect(ready).toBeGreaterThan(1);
 	});
 
@@ -228,7 +259,9 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 	});
 
 	it('works offline: every request stayed on the local server (no CDN, no fonts) and no script error was raised', () => {
-		const foreign = requests.filter((u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'));
+		const foreign = requests.filter(
+			(u) => !u.startsWith(server.url) && !u.startsWith('data:') && !u.startsWith('blob:'),
+		);
 		expect(foreign).toEqual([]);
 		expect(pageErrors).toEqual([]);
 	});

@@ -21,7 +21,14 @@ const PDFTOTEXT = '/usr/bin/pdftotext';
 if (!hasChromium) console.warn('SKIPPED field-use browser tests: /usr/bin/chromium is absent');
 if (!existsSync(PDFTOTEXT)) console.warn('SKIPPED the PDF text check: /usr/bin/pdftotext (poppler-utils) is absent');
 
-const DEMOS = ['board-unbalance.csv', 'feeder-rectifiers.csv', 'generator-60hz.cfg', 'incomer-dip.cfg', 'pump-drive.csv', 'spindle-clamp.wav'];
+const DEMOS = [
+	'board-unbalance.csv',
+	'feeder-rectifiers.csv',
+	'generator-60hz.cfg',
+	'incomer-dip.cfg',
+	'pump-drive.csv',
+	'spindle-clamp.wav',
+];
 const AMPLITUDE_V = 325.27;
 const FREQUENCY_HZ = 50;
 const RATE_HZ = 10_000;
@@ -39,7 +46,13 @@ function sineCsv(badLine?: number): string {
 }
 
 async function settled(page: Page): Promise<void> {
-	await page.waitForFunction(() => document.querySelector('[data-testid=app]')?.getAttribute('data-busy') === 'no' && !document.body.textContent?.includes('reading…'), null, { timeout: 120_000 });
+	await page.waitForFunction(
+		() =>
+			document.querySelector('[data-testid=app]')?.getAttribute('data-busy') === 'no' &&
+			!document.body.textContent?.includes('reading…'),
+		null,
+		{ timeout: 120_000 },
+	);
 }
 
 /** Widest element sticking out of the viewport sideways (0 when nothing does). */
@@ -51,7 +64,10 @@ async function openDemo(page: Page, name: string): Promise<void> {
 	const phone = await page.evaluate(() => window.innerWidth < 900);
 	if (phone && (await page.$('.phone-pick select'))) await page.selectOption('.phone-pick select', { label: name });
 	else await page.click(`.pick >> text=${name}`);
-	await page.waitForFunction((n) => document.querySelector('[data-testid=capture-title]')?.textContent?.trim() === n, name);
+	await page.waitForFunction(
+		(n) => document.querySelector('[data-testid=capture-title]')?.textContent?.trim() === n,
+		name,
+	);
 	await page.evaluate(() => window.scrollTo(0, 0));
 }
 
@@ -85,7 +101,7 @@ describe.skipIf(!hasChromium)('the analyser for field use, in Chromium', () => {
 		return { browser, page };
 	}
 
-	it('desktop 1400 x 900: every demo has its one-line description and the views\' tabs inside the first screen; nothing scrolls sideways', async () => {
+	it("desktop 1400 x 900: every demo has its one-line description and the views' tabs inside the first screen; nothing scrolls sideways", async () => {
 		const { browser, page } = await session({ width: 1400, height: 900 });
 		try {
 			for (const name of DEMOS) {
@@ -136,16 +152,24 @@ describe.skipIf(!hasChromium)('the analyser for field use, in Chromium', () => {
 					expect(await overflowPx(page), `${name} ${tab}`).toBe(0);
 					const wide = await page.$$eval('#panel table', (tables) =>
 						tables
-							.filter((t) => t.getBoundingClientRect().right > window.innerWidth + 0.5 || t.getBoundingClientRect().left < -0.5)
+							.filter(
+								(t) =>
+									t.getBoundingClientRect().right > window.innerWidth + 0.5 || t.getBoundingClientRect().left < -0.5,
+							)
 							.filter((t) => {
 								// allowed only inside a box that scrolls sideways by itself and fits the screen
 								const box = t.closest('.scroll-x');
-								return !box || box.getBoundingClientRect().right > window.innerWidth + 0.5 || getComputedStyle(box).overflowX !== 'auto';
+								return (
+									!box ||
+									box.getBoundingClientRect().right > window.innerWidth + 0.5 ||
+									getComputedStyle(box).overflowX !== 'auto'
+								);
 							})
 							.map((t) => t.getAttribute('aria-label') ?? t.className),
 					);
 					expect(wide, `${name} ${tab}: tables wider than the screen outside a scroll box`).toEqual([]);
-					if (name === 'pump-drive.csv') await page.screenshot({ path: join(ARTIFACTS, `field-phone-${tab}.png`), fullPage: tab === 'waves' });
+					if (name === 'pump-drive.csv')
+						await page.screenshot({ path: join(ARTIFACTS, `field-phone-${tab}.png`), fullPage: tab === 'waves' });
 				}
 				await page.click('#tab-waves');
 			}
@@ -154,60 +178,79 @@ describe.skipIf(!hasChromium)('the analyser for field use, in Chromium', () => {
 		}
 	});
 
-	it.skipIf(!existsSync(PDFTOTEXT))('prints an A4 and a Letter portrait report whose text holds every channel\'s figures as shown on screen, with nothing wider than the page', async () => {
-		const { browser, page } = await session({ width: 1400, height: 900 });
-		try {
-			await openDemo(page, 'pump-drive.csv');
-			const keys = ['rms', 'peak', 'crestFactor', 'thdPercent', 'frequencyHz'];
-			const shown = await page.$$eval('[data-testid^=fig-]', (els) => els.map((e) => [e.getAttribute('data-testid')!, e.textContent!.trim()] as const));
-			const channels = [...new Set(shown.map(([id]) => id.split('-')[1]))];
-			expect(channels.length).toBe(6);
-			await page.click('#tab-report');
-			await page.emulateMedia({ media: 'print' });
-			// on paper no element is wider than its box (a clipped label or a cut table column would be)
-			const cut = await page.$$eval('.report *', (els) =>
-				els
-					.filter((e) => !e.classList.contains('visually-hidden') && e.scrollWidth > e.clientWidth + 1 && e.clientWidth > 0 && getComputedStyle(e).overflowX !== 'visible')
-					.map((e) => `${e.tagName}.${e.className}`),
-			);
-			expect(cut).toEqual([]);
-			for (const format of ['A4', 'Letter'] as const) {
-				const pdf = join(work, `report-${format}.pdf`);
-				await page.pdf({ path: pdf, format, printBackground: true, preferCSSPageSize: false });
-				const text = execFileSync(PDFTOTEXT, ['-layout', pdf, '-'], { encoding: 'utf8' });
-				const info = execFileSync('/usr/bin/pdfinfo', [pdf], { encoding: 'utf8' });
-				const pages = Number(/Pages:\s+(\d+)/.exec(info)?.[1]);
-				const [w, h] = (/Page size:\s+([\d.]+) x ([\d.]+)/.exec(info) ?? []).slice(1).map(Number);
-				expect(h, `${format} portrait`).toBeGreaterThan(w);
-				expect(pages, `${format} pages`).toBeGreaterThan(1);
-				const flat = text.replace(/\s+/g, ' ');
-				for (const ch of channels) {
-					for (const key of keys) {
-						const value = shown.find(([id]) => id === `fig-${ch}-${key}`)![1];
-						expect(flat, `${format}: ${ch} ${key} "${value}"`).toContain(value);
+	it.skipIf(!existsSync(PDFTOTEXT))(
+		"prints an A4 and a Letter portrait report whose text holds every channel's figures as shown on screen, with nothing wider than the page",
+		async () => {
+			const { browser, page } = await session({ width: 1400, height: 900 });
+			try {
+				await openDemo(page, 'pump-drive.csv');
+				const keys = ['rms', 'peak', 'crestFactor', 'thdPercent', 'frequencyHz'];
+				const shown = await page.$$eval('[data-testid^=fig-]', (els) =>
+					els.map((e) => [e.getAttribute('data-testid')!, e.textContent!.trim()] as const),
+				);
+				const channels = [...new Set(shown.map(([id]) => id.split('-')[1]))];
+				expect(channels.length).toBe(6);
+				await page.click('#tab-report');
+				await page.emulateMedia({ media: 'print' });
+				// on paper no element is wider than its box (a clipped label or a cut table column would be)
+				const cut = await page.$$eval('.report *', (els) =>
+					els
+						.filter(
+							(e) =>
+								!e.classList.contains('visually-hidden') &&
+								e.scrollWidth > e.clientWidth + 1 &&
+								e.clientWidth > 0 &&
+								getComputedStyle(e).overflowX !== 'visible',
+						)
+						.map((e) => `${e.tagName}.${e.className}`),
+				);
+				expect(cut).toEqual([]);
+				for (const format of ['A4', 'Letter'] as const) {
+					const pdf = join(work, `report-${format}.pdf`);
+					await page.pdf({ path: pdf, format, printBackground: true, preferCSSPageSize: false });
+					const text = execFileSync(PDFTOTEXT, ['-layout', pdf, '-'], { encoding: 'utf8' });
+					const info = execFileSync('/usr/bin/pdfinfo', [pdf], { encoding: 'utf8' });
+					const pages = Number(/Pages:\s+(\d+)/.exec(info)?.[1]);
+					const [w, h] = (/Page size:\s+([\d.]+) x ([\d.]+)/.exec(info) ?? []).slice(1).map(Number);
+					expect(h, `${format} portrait`).toBeGreaterThan(w);
+					expect(pages, `${format} pages`).toBeGreaterThan(1);
+					const flat = text.replace(/\s+/g, ' ');
+					for (const ch of channels) {
+						for (const key of keys) {
+							const value = shown.find(([id]) => id === `fig-${ch}-${key}`)![1];
+							expect(flat, `${format}: ${ch} ${key} "${value}"`).toContain(value);
+						}
 					}
+					if (format === 'A4') writeFileSync(join(ARTIFACTS, 'field-report-A4.txt'), text);
 				}
-				if (format === 'A4') writeFileSync(join(ARTIFACTS, 'field-report-A4.txt'), text);
+				await page.screenshot({ path: join(ARTIFACTS, 'field-report-print.png'), fullPage: true });
+				await page.emulateMedia({ media: 'screen' });
+			} finally {
+				await browser.close();
 			}
-			await page.screenshot({ path: join(ARTIFACTS, 'field-report-print.png'), fullPage: true });
-			await page.emulateMedia({ media: 'screen' });
-		} finally {
-			await browser.close();
-		}
-	});
+		},
+	);
 
 	it('wave plot: a legend entry hides its channel, "Later" moves the read-out, the wheel scrolls the page unless armed by a click or Ctrl', async () => {
 		const { browser, page } = await session({ width: 1400, height: 900 });
 		try {
 			await openDemo(page, 'pump-drive.csv');
 			const inkOf = (hex: string) =>
-				page.evaluate((rgb) => {
-					const c = document.querySelector('#wave-chart canvas') as HTMLCanvasElement;
-					const d = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
-					let n = 0;
-					for (let i = 0; i < d.length; i += 4) if (Math.abs(d[i] - rgb[0]) + Math.abs(d[i + 1] - rgb[1]) + Math.abs(d[i + 2] - rgb[2]) < 40 && d[i + 3] > 200) n++;
-					return n;
-				}, [1, 3, 5].map((k) => parseInt(hex.slice(k, k + 2), 16)));
+				page.evaluate(
+					(rgb) => {
+						const c = document.querySelector('#wave-chart canvas') as HTMLCanvasElement;
+						const d = c.getContext('2d')!.getImageData(0, 0, c.width, c.height).data;
+						let n = 0;
+						for (let i = 0; i < d.length; i += 4)
+							if (
+								Math.abs(d[i] - rgb[0]) + Math.abs(d[i + 1] - rgb[1]) + Math.abs(d[i + 2] - rgb[2]) < 40 &&
+								d[i + 3] > 200
+							)
+								n++;
+						return n;
+					},
+					[1, 3, 5].map((k) => parseInt(hex.slice(k, k + 2), 16)),
+				);
 			const u2 = await page.$eval('[data-testid="legend-U2"] line', (l) => l.getAttribute('stroke')!);
 			const before = await inkOf(u2);
 			await page.click('[data-testid="legend-U2"]');
@@ -249,21 +292,31 @@ describe.skipIf(!hasChromium)('the analyser for field use, in Chromium', () => {
 			const file = join(work, 'cursor-sine.csv');
 			writeFileSync(file, sineCsv());
 			await page.setInputFiles('[data-testid=file-input]', file);
-			await page.waitForFunction(() => document.querySelector('[data-testid=capture-title]')?.textContent?.trim() === 'cursor-sine.csv', null, { timeout: 60_000 });
+			await page.waitForFunction(
+				() => document.querySelector('[data-testid=capture-title]')?.textContent?.trim() === 'cursor-sine.csv',
+				null,
+				{ timeout: 60_000 },
+			);
 			await settled(page);
 			const plot = (await page.locator('#wave-chart .u-over').boundingBox())!;
 			await page.mouse.click(plot.x + plot.width * 0.23, plot.y + plot.height / 2);
 			await page.mouse.click(plot.x + plot.width * 0.61, plot.y + plot.height / 2);
 			await page.waitForSelector('[data-testid=cursor-table]');
-			const ms = async (id: string) => Number((await page.textContent(`[data-testid=${id}]`))!.replace(/[^\d.−-]/g, '').replace('−', '-'));
+			const ms = async (id: string) =>
+				Number((await page.textContent(`[data-testid=${id}]`))!.replace(/[^\d.−-]/g, '').replace('−', '-'));
 			const tA = (await ms('cursor-a-time')) / 1000;
 			const tB = (await ms('cursor-b-time')) / 1000;
 			const dt = (await ms('cursor-dt')) / 1000;
 			expect(Math.abs(dt - (tB - tA))).toBeLessThan(1e-9);
 			// the cursors sit on samples: whole multiples of 0.1 ms
 			expect(Math.abs(tA * RATE_HZ - Math.round(tA * RATE_HZ))).toBeLessThan(1e-6);
-			for (const [id, t] of [['cursor-a-U1', tA], ['cursor-b-U1', tB]] as const) {
-				const shown = Number((await page.textContent(`[data-testid=${id}]`))!.replace(/[^\d.−-]/g, '').replace('−', '-'));
+			for (const [id, t] of [
+				['cursor-a-U1', tA],
+				['cursor-b-U1', tB],
+			] as const) {
+				const shown = Number(
+					(await page.textContent(`[data-testid=${id}]`))!.replace(/[^\d.−-]/g, '').replace('−', '-'),
+				);
 				// closed form, within the file's 0.001 V and the 4 significant digits shown
 				const expected = AMPLITUDE_V * Math.sin(2 * Math.PI * FREQUENCY_HZ * t);
 				expect(Math.abs(shown - expected), id).toBeLessThanOrEqual(Math.max(0.05, Math.abs(expected) * 5e-4));
@@ -278,7 +331,7 @@ describe.skipIf(!hasChromium)('the analyser for field use, in Chromium', () => {
 		}
 	});
 
-	it('an unreadable cell: the error offers gaps in place (no File check tab named), then the cell is listed, marked, and the figures are the sine\'s', async () => {
+	it("an unreadable cell: the error offers gaps in place (no File check tab named), then the cell is listed, marked, and the figures are the sine's", async () => {
 		const { browser, page } = await session({ width: 1400, height: 900 });
 		try {
 			const file = join(work, 'overload.csv');
@@ -309,16 +362,26 @@ describe.skipIf(!hasChromium)('the analyser for field use, in Chromium', () => {
 			writeFileSync(file, sineCsv());
 			const open = async () => {
 				await page.setInputFiles('[data-testid=file-input]', file);
-				await page.waitForFunction(() => document.querySelector('[data-testid=capture-title]')?.textContent?.trim() === 'remember.csv', null, { timeout: 60_000 });
+				await page.waitForFunction(
+					() => document.querySelector('[data-testid=capture-title]')?.textContent?.trim() === 'remember.csv',
+					null,
+					{ timeout: 60_000 },
+				);
 				await settled(page);
 			};
 			await open();
 			await page.selectOption('[data-testid=ref-select]', 'I1');
-			await page.waitForFunction(() => document.querySelector('[data-testid=lag-sentence]')?.textContent?.includes('leads I1'), null, { timeout: 30_000 });
+			await page.waitForFunction(
+				() => document.querySelector('[data-testid=lag-sentence]')?.textContent?.includes('leads I1'),
+				null,
+				{ timeout: 30_000 },
+			);
 			await settled(page);
 			await openDemo(page, 'pump-drive.csv');
 			await open();
-			expect(await page.$$eval('.pick', (els) => els.filter((e) => e.textContent?.includes('remember.csv')).length)).toBe(1);
+			expect(
+				await page.$$eval('.pick', (els) => els.filter((e) => e.textContent?.includes('remember.csv')).length),
+			).toBe(1);
 			await page.reload();
 			await page.waitForSelector('[data-testid=capture-title]', { timeout: 60_000 });
 			await settled(page);

@@ -15,7 +15,9 @@ afterEach(() => {
 });
 
 describe('FitNote on the single-shot scope demo', () => {
-	const { captures } = openCaptures([{ name: 'moulder-drive-scope.csv', bytes: new Uint8Array(readFileSync('sample-waves/moulder-drive-scope.csv')) }]);
+	const { captures } = openCaptures([
+		{ name: 'moulder-drive-scope.csv', bytes: new Uint8Array(readFileSync('sample-waves/moulder-drive-scope.csv')) },
+	]);
 	const report = analyseCapture(captures[0]);
 
 	it('FitNote says the figures come from a fit of a short record and gives the lag (ground truth 25°) with its uncertainty', () => {

@@ -22,11 +22,27 @@ afterEach(() => {
 function modulated(fs: number, durationS: number): Capture {
 	const x = new Float64Array(fs * durationS);
 	let off = 0;
-	forEachChunk({ sampleRateHz: fs, mainsHz: 50, rmsV: 230, durationS, modulation: { shape: 'sine', frequencyHz: 8.8, deltaVOverV: 0.0025 } }, (c) => {
-		x.set(c, off);
-		off += c.length;
-	});
-	return { source: 'lamp.csv', sampleRateHz: fs, startS: 0, channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }], metadata: {}, diagnostics: [] };
+	forEachChunk(
+		{
+			sampleRateHz: fs,
+			mainsHz: 50,
+			rmsV: 230,
+			durationS,
+			modulation: { shape: 'sine', frequencyHz: 8.8, deltaVOverV: 0.0025 },
+		},
+		(c) => {
+			x.set(c, off);
+			off += c.length;
+		},
+	);
+	return {
+		source: 'lamp.csv',
+		sampleRateHz: fs,
+		startS: 0,
+		channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }],
+		metadata: {},
+		diagnostics: [],
+	};
 }
 
 describe('flickerVerdicts', () => {
@@ -40,8 +56,17 @@ describe('flickerVerdicts', () => {
 
 	it('a 4.35 % voltage step is worth a look (over the 3.3 % lasting-change guide)', () => {
 		const fs = 3200;
-		const x = new Float64Array(fs * 6).map((_, i) => (i < 3 * fs ? 230 : 220) * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * i) / fs));
-		const c: Capture = { source: 'step.csv', sampleRateHz: fs, startS: 0, channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }], metadata: {}, diagnostics: [] };
+		const x = new Float64Array(fs * 6).map(
+			(_, i) => (i < 3 * fs ? 230 : 220) * Math.SQRT2 * Math.sin((2 * Math.PI * 50 * i) / fs),
+		);
+		const c: Capture = {
+			source: 'step.csv',
+			sampleRateHz: fs,
+			startS: 0,
+			channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }],
+			metadata: {},
+			diagnostics: [],
+		};
 		const s = flickerVerdicts(analyseCapture(c, { nominalV: 230 })).find((v) => v.id === 'steps-L1')!;
 		expect(s.level).toBe('attention');
 		expect(s.figure).toMatch(/lasting change 4\.3 %/);
@@ -49,24 +74,50 @@ describe('flickerVerdicts', () => {
 });
 
 describe('FlickerTrend', () => {
-	const base: TrendFlicker = { channels: ['L1', 'L2'], lamp: '230V', pst: [], plt: [], pinstMax: [0.8, 0.3], pinst: { startS: [5, 6, 7], max: [[0.1, 0.8, 0.2], [0.1, 0.3, 0.2]] } };
+	const base: TrendFlicker = {
+		channels: ['L1', 'L2'],
+		lamp: '230V',
+		pst: [],
+		plt: [],
+		pinstMax: [0.8, 0.3],
+		pinst: {
+			startS: [5, 6, 7],
+			max: [
+				[0.1, 0.8, 0.2],
+				[0.1, 0.3, 0.2],
+			],
+		},
+	};
 
 	it('without a Pst says it needs 10 minutes and that the plot is not a Pst', () => {
 		const r = renderComponent(FlickerTrend, { flicker: base, colours: {} });
 		cleanup.push(r.unmount);
-		expect(r.container.querySelector('[data-testid="no-pst"]')!.textContent).toMatch(/needs a full 10 minutes.*not a Pst.*L1 0\.80, L2 0\.30/s);
+		expect(r.container.querySelector('[data-testid="no-pst"]')!.textContent).toMatch(
+			/needs a full 10 minutes.*not a Pst.*L1 0\.80, L2 0\.30/s,
+		);
 	});
 
 	it('a recording within the settling time says it is too short', () => {
-		const r = renderComponent(FlickerTrend, { flicker: { ...base, pinstMax: [NaN, NaN], pinst: { startS: [], max: [[], []] } }, colours: {} });
+		const r = renderComponent(FlickerTrend, {
+			flicker: { ...base, pinstMax: [NaN, NaN], pinst: { startS: [], max: [[], []] } },
+			colours: {},
+		});
 		cleanup.push(r.unmount);
 		expect(r.container.querySelector('[data-testid="flicker-too-short"]')).not.toBeNull();
 		expect(r.container.querySelector('[data-testid="no-pst"]')).toBeNull();
 	});
 
 	it('lists each Pst and Plt with the flag in words', () => {
-		const rows = Array.from({ length: 12 }, (_, k) => ({ startS: 600 * k, durationS: 600, values: [0.5, 1.2], flagged: k === 3 }));
-		const r = renderComponent(FlickerTrend, { flicker: { ...base, pst: rows, plt: [{ startS: 0, durationS: 7200, values: [0.5, 1.2], flagged: true }] }, colours: {} });
+		const rows = Array.from({ length: 12 }, (_, k) => ({
+			startS: 600 * k,
+			durationS: 600,
+			values: [0.5, 1.2],
+			flagged: k === 3,
+		}));
+		const r = renderComponent(FlickerTrend, {
+			flicker: { ...base, pst: rows, plt: [{ startS: 0, durationS: 7200, values: [0.5, 1.2], flagged: true }] },
+			colours: {},
+		});
 		cleanup.push(r.unmount);
 		const trs = r.container.querySelectorAll('tbody tr');
 		expect(trs).toHaveLength(13);

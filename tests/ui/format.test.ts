@@ -1,5 +1,13 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import { decimalsFor, formatDeg, formatDuration, formatFixed, formatPercent, formatQuantity, setDisplayLocale } from '../../src/ui/format.js';
+import {
+	decimalsFor,
+	formatDeg,
+	formatDuration,
+	formatFixed,
+	formatPercent,
+	formatQuantity,
+	setDisplayLocale,
+} from '../../src/ui/format.js';
 
 afterEach(() => setDisplayLocale('en-US'));
 

@@ -17,7 +17,13 @@ function recordingWorker(sent: ToWorker['type'][]): () => WorkerLike {
 			postMessage(msg: ToWorker) {
 				sent.push(msg.type);
 				const copy = structuredClone(msg);
-				setTimeout(() => handleMessage(copy, (reply: FromWorker) => w.onmessage?.({ data: structuredClone(reply) } as MessageEvent<FromWorker>)), 0);
+				setTimeout(
+					() =>
+						handleMessage(copy, (reply: FromWorker) =>
+							w.onmessage?.({ data: structuredClone(reply) } as MessageEvent<FromWorker>),
+						),
+					0,
+				);
 			},
 			terminate() {},
 		};
@@ -28,7 +34,13 @@ function recordingWorker(sent: ToWorker['type'][]): () => WorkerLike {
 // 230 V with a 5 % 5th harmonic (11.5 V, closed form from the synthesised tones); each table gives its own rows
 function csvText(): string {
 	const fs = 6400;
-	const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }], { frequencyHz: 50, sampleRateHz: fs, cycles: 20 });
+	const u = harmonicSamples(
+		[
+			{ order: 1, rms: 230 },
+			{ order: 5, rms: 11.5 },
+		],
+		{ frequencyHz: 50, sampleRateHz: fs, cycles: 20 },
+	);
 	return ['t (s),U1 (V)', ...Array.from(u, (v, k) => `${(k / fs).toFixed(7)},${v.toFixed(5)}`)].join('\n') + '\n';
 }
 

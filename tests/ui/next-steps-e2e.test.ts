@@ -17,7 +17,11 @@ const DIST = join(ROOT, 'dist-ui');
 if (!hasChromium) console.warn('SKIPPED browser tests: /usr/bin/chromium is absent (apt-get install -y chromium)');
 
 async function settled(page: Page): Promise<void> {
-	await page.waitForFunction(() => document.querySelector('[data-testid=app]')?.getAttribute('data-busy') === 'no', null, { timeout: 60_000 });
+	await page.waitForFunction(
+		() => document.querySelector('[data-testid=app]')?.getAttribute('data-busy') === 'no',
+		null,
+		{ timeout: 60_000 },
+	);
 }
 
 describe.skipIf(!hasChromium)('next steps in Chromium', () => {
@@ -56,14 +60,20 @@ describe.skipIf(!hasChromium)('next steps in Chromium', () => {
 		await page.press('[data-testid=site-transformerImpedancePercent]', 'Tab');
 		await settled(page);
 		const title = (await page.textContent('[data-testid=capture-title]'))!.trim();
-		const capture = openCaptures([{ name: title, bytes: new Uint8Array(readFileSync(join(ROOT, 'sample-waves', title))) }]).captures[0];
-		const pf = analyseCapture(capture, { site: { targetPowerFactor: 0.95, transformerKva: 250, transformerImpedancePercent: 4 } }).nextSteps!.steps[0];
+		const capture = openCaptures([
+			{ name: title, bytes: new Uint8Array(readFileSync(join(ROOT, 'sample-waves', title))) },
+		]).captures[0];
+		const pf = analyseCapture(capture, {
+			site: { targetPowerFactor: 0.95, transformerKva: 250, transformerImpedancePercent: 4 },
+		}).nextSteps!.steps[0];
 		const shown = (await page.textContent('[data-testid=step-power-factor-correction]'))!;
 		expect(pf.conclusions.length).toBeGreaterThan(0);
 		for (const c of pf.conclusions) expect(shown).toContain(c);
 		expect(shown).not.toMatch(/Needs:/);
 		expect(await page.textContent('[data-testid=next-steps]')).toContain(pf.caution);
 		mkdirSync(join(ROOT, 'test-artifacts'), { recursive: true });
-		await (await page.$('[data-testid=next-steps]'))!.screenshot({ path: join(ROOT, 'test-artifacts', 'ui-next-steps.png') });
+		await (await page.$('[data-testid=next-steps]'))!.screenshot({
+			path: join(ROOT, 'test-artifacts', 'ui-next-steps.png'),
+		});
 	}, 120_000);
 });

@@ -27,7 +27,18 @@ const capture: Capture = {
 	diagnostics: [],
 	channels: [
 		{ name: 'U1', unit: 'V', quantity: 'voltage', samples: harmonicSamples([{ order: 1, rms: 230 }], opts) },
-		{ name: 'I1', unit: 'A', quantity: 'current', samples: harmonicSamples([{ order: 1, rms: 10, phaseDeg: -36.8699 }, { order: 5, rms: 3 }], opts) },
+		{
+			name: 'I1',
+			unit: 'A',
+			quantity: 'current',
+			samples: harmonicSamples(
+				[
+					{ order: 1, rms: 10, phaseDeg: -36.8699 },
+					{ order: 5, rms: 3 },
+				],
+				opts,
+			),
+		},
 	],
 };
 
@@ -72,6 +83,8 @@ describe('NextSteps', () => {
 		expect(getByTestId(r.container, 'step-power-factor-correction').textContent).toMatch(/add 0\.78 kvar/);
 		// printed: the method with its source is on the page, not folded away
 		expect(r.container.querySelector('details')).toBeNull();
-		expect(getByTestId(r.container, 'step-power-factor-correction').textContent).toMatch(/Qc = P1 · \(tan φ1 − tan φ2\).*IEEE 1036/);
+		expect(getByTestId(r.container, 'step-power-factor-correction').textContent).toMatch(
+			/Qc = P1 · \(tan φ1 − tan φ2\).*IEEE 1036/,
+		);
 	});
 });

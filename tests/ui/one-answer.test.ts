@@ -27,13 +27,25 @@ function render<P extends Record<string, unknown>>(c: Parameters<typeof renderCo
 	cleanup.push(r.unmount);
 	return r.container;
 }
-const capture = (channels: Channel[], metadata: Record<string, string> = {}): Capture => ({ source: 'x.csv', sampleRateHz: FS, startS: 0, channels, metadata, diagnostics: [] });
+const capture = (channels: Channel[], metadata: Record<string, string> = {}): Capture => ({
+	source: 'x.csv',
+	sampleRateHz: FS,
+	startS: 0,
+	channels,
+	metadata,
+	diagnostics: [],
+});
 const u = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
 
 describe('one answer on the page', () => {
 	it('PhasorPanel words a current 4° ahead as "leads … by 0.22 ms" in the headline and the note alike, never a signed "-0.22 ms" (4/360 × 20 ms = 0.222 ms, closed form)', () => {
 		const i = sineSamples({ amplitude: 10, frequencyHz: 50, sampleRateHz: FS, cycles: 20, phaseDeg: 4 });
-		const report = analyseCapture(capture([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }, { name: 'I1', unit: 'A', quantity: 'current', samples: i }]));
+		const report = analyseCapture(
+			capture([
+				{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u },
+				{ name: 'I1', unit: 'A', quantity: 'current', samples: i },
+			]),
+		);
 		const el = render(PhasorPanel, { report, colours: {} });
 		expect(el.textContent).toContain('I1 leads U1 by 4.0°, 0.22 ms');
 		expect(el.textContent).toContain('I1 leads by 0.22 ms');
@@ -42,7 +54,12 @@ describe('one answer on the page', () => {
 
 	it('FiguresTable shows the AC-coupled error 0.0 % of a sine on a +0.8 A offset and, because DC moves it, the DC-coupled error too', () => {
 		const i = sineSamples({ amplitude: 10 * Math.SQRT2, offset: 0.8, frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
-		const report = analyseCapture(capture([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }, { name: 'I1', unit: 'A', quantity: 'current', samples: i }]));
+		const report = analyseCapture(
+			capture([
+				{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u },
+				{ name: 'I1', unit: 'A', quantity: 'current', samples: i },
+			]),
+		);
 		const el = render(FiguresTable, { channels: report.channels });
 		expect(el.querySelector('[data-testid="fig-I1-averageError"]')!.textContent).toBe('0.0 %');
 		expect(el.querySelector('[data-testid="fig-I1-dcError"]')).not.toBeNull();
@@ -52,10 +69,16 @@ describe('one answer on the page', () => {
 	it('the findings name the limit basis and the events of a record with a 100 ms dip to 50 %, in the display locale', () => {
 		const n = 2 * FS;
 		const dip = new Float64Array(n);
-		for (let k = 0; k < n; k++) dip[k] = (k >= 0.5 * FS && k < 0.6 * FS ? 0.5 : 1) * 325 * Math.sin((2 * Math.PI * 50 * k) / FS);
+		for (let k = 0; k < n; k++)
+			dip[k] = (k >= 0.5 * FS && k < 0.6 * FS ? 0.5 : 1) * 325 * Math.sin((2 * Math.PI * 50 * k) / FS);
 		setDisplayLocale('de-DE');
 		try {
-			const vs = verdictsFor(analyseCapture(capture([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: dip }]), { limits: 'en50160', declaredV: 230 }));
+			const vs = verdictsFor(
+				analyseCapture(capture([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: dip }]), {
+					limits: 'en50160',
+					declaredV: 230,
+				}),
+			);
 			expect(vs.find((v) => v.id === 'distortion-U1')!.text).toContain('harmonic subgroups');
 			const ev = vs.find((v) => v.id === 'events')!;
 			expect(ev.target.tab).toBe('trends');

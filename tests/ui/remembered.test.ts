@@ -7,7 +7,11 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import { fileIdentity, fnv1a32, SettingsMemory, SETTINGS_MAX } from '../../src/ui/state/remembered.js';
 
 const enc = (s: string) => new TextEncoder().encode(s);
-const source = (name: string, bytes: Uint8Array) => ({ name, size: bytes.length, slice: async (a: number, b: number) => bytes.subarray(a, b) });
+const source = (name: string, bytes: Uint8Array) => ({
+	name,
+	size: bytes.length,
+	slice: async (a: number, b: number) => bytes.subarray(a, b),
+});
 
 describe('fnv1a32', () => {
 	it('matches the FNV-1a 32-bit test vectors', () => {
@@ -36,7 +40,12 @@ describe('SettingsMemory', () => {
 	beforeEach(() => localStorage.clear());
 	it('gives back the settings kept for an identity, and keeps at most SETTINGS_MAX files (newest)', () => {
 		const m = new SettingsMemory();
-		m.set('a|1|0', { csv: { unreadableCells: 'gap' } }, { refChannel: 'I1', limits: 'en50160' }, new Date(Date.UTC(2025, 0, 1)));
+		m.set(
+			'a|1|0',
+			{ csv: { unreadableCells: 'gap' } },
+			{ refChannel: 'I1', limits: 'en50160' },
+			new Date(Date.UTC(2025, 0, 1)),
+		);
 		expect(m.get('a|1|0')?.overrides.csv?.unreadableCells).toBe('gap');
 		expect(m.get('a|1|0')?.analysis.refChannel).toBe('I1');
 		for (let i = 0; i < SETTINGS_MAX + 5; i++) m.set(`f${i}`, {}, {}, new Date(Date.UTC(2026, 0, 1, 0, 0, i + 10)));

@@ -7,7 +7,7 @@ describe('scaleFactor', () => {
 		expect(scaledUnit({ kind: 'clamp-mv-per-a', value: 10 })).toBe('A');
 	});
 
-	it('scaleFactor of a 0.01 Ω shunt is 100 A per V (Ohm\'s law I = U / R)', () => {
+	it("scaleFactor of a 0.01 Ω shunt is 100 A per V (Ohm's law I = U / R)", () => {
 		expect(scaleFactor({ kind: 'shunt-ohm', value: 0.01 })).toBeCloseTo(100, 12);
 	});
 

@@ -17,7 +17,13 @@ function inProcessWorker(counter: { made: number }, silent = false): () => Worke
 			postMessage(msg: ToWorker) {
 				if (silent) return;
 				const copy = structuredClone(msg);
-				setTimeout(() => handleMessage(copy, (reply: FromWorker) => w.onmessage?.({ data: structuredClone(reply) } as MessageEvent<FromWorker>)), 0);
+				setTimeout(
+					() =>
+						handleMessage(copy, (reply: FromWorker) =>
+							w.onmessage?.({ data: structuredClone(reply) } as MessageEvent<FromWorker>),
+						),
+					0,
+				);
 			},
 			terminate() {
 				silent = true;
@@ -49,7 +55,10 @@ describe('Session', () => {
 		const item = s.items.find((c) => c.key === key)!;
 		expect(item.status).toBe('ready');
 		expect(s.selectedKey).toBe(key);
-		const direct = analyseCapture(openCaptures([{ name: 'feeder.csv', bytes: new TextEncoder().encode(text) }]).captures[0], { limits: 'en50160' });
+		const direct = analyseCapture(
+			openCaptures([{ name: 'feeder.csv', bytes: new TextEncoder().encode(text) }]).captures[0],
+			{ limits: 'en50160' },
+		);
 		expect(item.report).toEqual(direct);
 		expect(item.capture?.channels.map((c) => c.name)).toEqual(['U1', 'I1']);
 		expect(item.extras?.cycleBoundariesS.length).toBe(direct.cyclesAnalysed + 1);
@@ -63,7 +72,14 @@ describe('Session', () => {
 		const item = s.items.find((c) => c.key === bad)!;
 		expect(item.status).toBe('error');
 		// "abc" starts at the 7th character of line 4 ("0.002,abc"): 1-based line and column per the ImportError contract
-		expect(item.problems[0]).toMatchObject({ source: 'bad.csv', line: 4, column: 7, code: 'bad-number', text: 'abc', lineText: '0.002,abc' });
+		expect(item.problems[0]).toMatchObject({
+			source: 'bad.csv',
+			line: 4,
+			column: 7,
+			code: 'bad-number',
+			text: 'abc',
+			lineText: '0.002,abc',
+		});
 		expect(s.items.filter((c) => c.status === 'ready')).toHaveLength(1);
 		s.dispose();
 	});

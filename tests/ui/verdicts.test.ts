@@ -58,16 +58,32 @@ describe('verdictsFor', () => {
 	});
 
 	it('verdictsFor a 5th harmonic of 7 % fails EN 50160 (limit 6 %, EN 50160:2010 Table 1; from memory) and names the order', () => {
-		const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 230 * 0.07 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
-		const v = verdictsFor(analyseCapture(capture([volts('U1', u)]), { limits: 'en50160' })).find((x) => x.id === 'distortion-U1');
+		const u = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 5, rms: 230 * 0.07 },
+			],
+			{ frequencyHz: 50, sampleRateHz: FS, cycles: 20 },
+		);
+		const v = verdictsFor(analyseCapture(capture([volts('U1', u)]), { limits: 'en50160' })).find(
+			(x) => x.id === 'distortion-U1',
+		);
 		expect(v?.level).toBe('fail');
 		expect(v?.figure).toContain('5th harmonic 7.00 % (limit 6.00 %)');
 		expect(v?.target).toEqual({ tab: 'harmonics', channel: 'U1' });
 	});
 
 	it('verdictsFor a 5th harmonic of 3 % passes EN 50160 (limit 6 %)', () => {
-		const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 230 * 0.03 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 20 });
-		const v = verdictsFor(analyseCapture(capture([volts('U1', u)]), { limits: 'en50160' })).find((x) => x.id === 'distortion-U1');
+		const u = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 5, rms: 230 * 0.03 },
+			],
+			{ frequencyHz: 50, sampleRateHz: FS, cycles: 20 },
+		);
+		const v = verdictsFor(analyseCapture(capture([volts('U1', u)]), { limits: 'en50160' })).find(
+			(x) => x.id === 'distortion-U1',
+		);
 		expect(v?.level).toBe('ok');
 		expect(v?.figure).toContain('5th harmonic at 3.00 % of 6.00 % allowed');
 	});
@@ -75,7 +91,13 @@ describe('verdictsFor', () => {
 	it('verdictsFor a low power factor with the current in phase says the shortfall comes from harmonics (PF = DPF × I1/I, IEEE 1459)', () => {
 		// in-phase current with a 100 % 3rd harmonic: DPF = 1, distortion factor 1/√2, so PF = 0.707
 		const u = sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 20.5 });
-		const i = harmonicSamples([{ order: 1, rms: 10 }, { order: 3, rms: 10 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 20.5 });
+		const i = harmonicSamples(
+			[
+				{ order: 1, rms: 10 },
+				{ order: 3, rms: 10 },
+			],
+			{ frequencyHz: 50, sampleRateHz: FS, cycles: 20.5 },
+		);
 		const v = verdictsFor(analyseCapture(capture([volts('U1', u), amps('I1', i)]))).find((x) => x.topic === 'load');
 		expect(v?.text).toContain('power factor 0.71 (below 0.9)');
 		expect(v?.text).toContain('comes from harmonic current');
@@ -85,7 +107,10 @@ describe('verdictsFor', () => {
 		capture([
 			volts('U1', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 20 })),
 			volts('U2', sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: FS, cycles: 20, phaseDeg: bDeg })),
-			volts('U3', sineSamples({ amplitude: 325 * cScale, frequencyHz: 50, sampleRateHz: FS, cycles: 20, phaseDeg: cDeg })),
+			volts(
+				'U3',
+				sineSamples({ amplitude: 325 * cScale, frequencyHz: 50, sampleRateHz: FS, cycles: 20, phaseDeg: cDeg }),
+			),
 		]);
 
 	it('verdictsFor a balanced a-b-c set (b 120° behind a) says the rotation is positive and the set balanced', () => {

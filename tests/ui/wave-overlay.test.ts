@@ -31,15 +31,26 @@ describe('overlayFor', () => {
 	const c = capture();
 	const report = analyseCapture(c);
 	const extras = { ...extrasFor(c, report, {}), trend: trendFor(c) };
-	const chans = c.channels.map((ch) => ({ name: ch.name, unit: ch.unit, scale: scaleKey(ch.quantity, ch.unit), colour: '#000' }));
+	const chans = c.channels.map((ch) => ({
+		name: ch.name,
+		unit: ch.unit,
+		scale: scaleKey(ch.quantity, ch.unit),
+		colour: '#000',
+	}));
 	const items = overlayFor(report, extras, chans, ['U1', 'I1'], 'I1', (i) => i / FS);
 
-	it('overlayFor draws the RMS and rectified-mean levels at the values of the report, on the channel\'s own scale', () => {
+	it("overlayFor draws the RMS and rectified-mean levels at the values of the report, on the channel's own scale", () => {
 		const levels = items.filter((x) => x.kind === 'level');
 		expect(levels).toHaveLength(4);
 		const u1 = report.channels.find((x) => x.name === 'U1')!;
-		expect(levels.find((x) => x.kind === 'level' && x.label.startsWith('U1 RMS'))).toMatchObject({ value: u1.rms, scale: 'V' });
-		expect(levels.find((x) => x.kind === 'level' && x.label.startsWith('U1 rectified'))).toMatchObject({ value: u1.rectifiedMean, scale: 'V' });
+		expect(levels.find((x) => x.kind === 'level' && x.label.startsWith('U1 RMS'))).toMatchObject({
+			value: u1.rms,
+			scale: 'V',
+		});
+		expect(levels.find((x) => x.kind === 'level' && x.label.startsWith('U1 rectified'))).toMatchObject({
+			value: u1.rectifiedMean,
+			scale: 'V',
+		});
 	});
 
 	it('overlayFor marks each peak at a sample whose value is the reported peak', () => {
@@ -76,8 +87,21 @@ describe('report groups (the UI takes them from the report)', () => {
 	it('analyseCapture gives IEC harmonic groups that equal the DFT component for a pure harmonic on the grid (all its power in bin k = c·h)', async () => {
 		const { harmonicSamples } = await import('../helpers/synth.js');
 		// 230 V fundamental + 11.5 V 5th: synchronised windows put each tone in one bin, so group = subgroup = component
-		const u = harmonicSamples([{ order: 1, rms: 230 }, { order: 5, rms: 11.5 }], { frequencyHz: 50, sampleRateHz: FS, cycles: 30 });
-		const c: Capture = { source: 'g.csv', sampleRateHz: FS, startS: 0, channels: [{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }], metadata: {}, diagnostics: [] };
+		const u = harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 5, rms: 11.5 },
+			],
+			{ frequencyHz: 50, sampleRateHz: FS, cycles: 30 },
+		);
+		const c: Capture = {
+			source: 'g.csv',
+			sampleRateHz: FS,
+			startS: 0,
+			channels: [{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }],
+			metadata: {},
+			diagnostics: [],
+		};
 		const report = analyseCapture(c);
 		const g = report.channels[0].groups!;
 		expect(g.harmonicGroupRms[5]).toBeCloseTo(11.5, 6);

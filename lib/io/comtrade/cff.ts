@@ -53,7 +53,13 @@ export function cffLayout(head: Uint8Array, source: string, totalBytes: number):
 		if (m) {
 			if (sections.length > 0) sections[sections.length - 1].end = pos;
 			const type = m[1].toUpperCase().replace(/\s+/g, ' ');
-			sections.push({ type, declaredBytes: m[2] !== undefined ? Number(m[2]) : undefined, headerLine: line, start: Math.min(eol + 1, text.length), end: totalBytes });
+			sections.push({
+				type,
+				declaredBytes: m[2] !== undefined ? Number(m[2]) : undefined,
+				headerLine: line,
+				start: Math.min(eol + 1, text.length),
+				end: totalBytes,
+			});
 			if (type.startsWith('DAT')) break; // the data section runs to its byte count or the end: no more headers
 		} else if (sections.length === 0 && lineText.trim() !== '') {
 			throw new ImportError(source, line, 1, 'cfg-syntax', lineText, 'the first section line `--- file type: CFG ---`');
@@ -63,20 +69,43 @@ export function cffLayout(head: Uint8Array, source: string, totalBytes: number):
 	}
 	const cfgSection = sections.find((s) => s.type === 'CFG');
 	const datSection = sections.find((s) => s.type.startsWith('DAT'));
-	if (!cfgSection) throw new ImportError(source, 1, 1, 'cfg-syntax', text.slice(0, 40), 'a `--- file type: CFG ---` section');
-	if (!datSection) throw new ImportError(source, line, 0, 'cfg-syntax', '', 'a `--- file type: DAT ASCII ---` or `--- file type: DAT BINARY: <bytes> ---` section');
+	if (!cfgSection)
+		throw new ImportError(source, 1, 1, 'cfg-syntax', text.slice(0, 40), 'a `--- file type: CFG ---` section');
+	if (!datSection)
+		throw new ImportError(
+			source,
+			line,
+			0,
+			'cfg-syntax',
+			'',
+			'a `--- file type: DAT ASCII ---` or `--- file type: DAT BINARY: <bytes> ---` section',
+		);
 
 	const cfgText = decodeText(head.subarray(cfgSection.start, cfgSection.end)).text;
 	const cfg = parseComtradeCfg(cfgText, source, cfgSection.headerLine);
 	const datKind = datSection.type.replace(/^DAT\s*/, '');
 	const binary = cfg.fileType !== 'ASCII';
 	if ((datKind === 'ASCII') === binary && datKind !== '') {
-		throw new ImportError(source, datSection.headerLine, 1, 'cfg-syntax', `--- file type: DAT ${datKind} ---`, `a DAT section of the type the CFG section gives on line ${cfg.fileTypeLine} (${cfg.fileType})`);
+		throw new ImportError(
+			source,
+			datSection.headerLine,
+			1,
+			'cfg-syntax',
+			`--- file type: DAT ${datKind} ---`,
+			`a DAT section of the type the CFG section gives on line ${cfg.fileTypeLine} (${cfg.fileType})`,
+		);
 	}
 	let end = totalBytes;
 	if (datSection.declaredBytes !== undefined) {
 		if (datSection.start + datSection.declaredBytes > totalBytes) {
-			throw new ImportError(source, 0, totalBytes + 1, 'dat-too-short', '', `${datSection.declaredBytes} data bytes as the DAT section line ${datSection.headerLine} says; the file has ${totalBytes - datSection.start}`);
+			throw new ImportError(
+				source,
+				0,
+				totalBytes + 1,
+				'dat-too-short',
+				'',
+				`${datSection.declaredBytes} data bytes as the DAT section line ${datSection.headerLine} says; the file has ${totalBytes - datSection.start}`,
+			);
 		}
 		end = datSection.start + datSection.declaredBytes;
 	}
@@ -91,13 +120,20 @@ export function cffLayout(head: Uint8Array, source: string, totalBytes: number):
  */
 export function parseComtradeCff(bytes: Uint8Array, source: string, options: ComtradeOptions = {}): Capture {
 	const { sections, cfg, dat } = cffLayout(bytes, source, bytes.length);
-	const capture = buildCapture(cfg, bytes.subarray(dat.start, dat.end), source, source, options, { line: dat.headerLine, byte: dat.start });
+	const capture = buildCapture(cfg, bytes.subarray(dat.start, dat.end), source, source, options, {
+		line: dat.headerLine,
+		byte: dat.start,
+	});
 	for (const s of sections) {
 		if (s.type === 'INF' || s.type === 'HDR') {
 			const t = decodeText(bytes.subarray(s.start, s.end)).text.trim();
 			if (t) capture.metadata[`comtrade.${s.type.toLowerCase()}`] = t;
 		}
 	}
-	capture.diagnostics.unshift({ code: 'comtrade-cff', severity: 'info', message: `Single-file COMTRADE (.cff) with sections ${sections.map((s) => s.type).join(', ')}.` });
+	capture.diagnostics.unshift({
+		code: 'comtrade-cff',
+		severity: 'info',
+		message: `Single-file COMTRADE (.cff) with sections ${sections.map((s) => s.type).join(', ')}.`,
+	});
 	return capture;
 }

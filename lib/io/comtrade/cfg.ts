@@ -83,14 +83,25 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 	const metadata: Record<string, string> = {};
 	let i = 0; // index of the next line to read
 	const lineNo = (k: number) => k + 1 + lineOffset;
-	const fail = (k: number, column: number, code: 'cfg-syntax' | 'cfg-count-mismatch', got: string, expected: string): never => {
+	const fail = (
+		k: number,
+		column: number,
+		code: 'cfg-syntax' | 'cfg-count-mismatch',
+		got: string,
+		expected: string,
+	): never => {
 		throw new ImportError(source, lineNo(k), column, code, got, expected);
 	};
 	const next = (what: string): Field[] => {
 		if (i >= lines.length) fail(i, 0, 'cfg-syntax', '', `${what} (the file ends at line ${lineNo(i - 1)})`);
 		return splitFields(lines[i++]);
 	};
-	const num = (f: Field | undefined, k: number, what: string, opt?: { int?: boolean; min?: number; blank?: number }): number => {
+	const num = (
+		f: Field | undefined,
+		k: number,
+		what: string,
+		opt?: { int?: boolean; min?: number; blank?: number },
+	): number => {
 		const t = f?.text ?? '';
 		if (t === '' && opt?.blank !== undefined) return opt.blank;
 		const v = strictNumber(t);
@@ -105,11 +116,22 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 	const revText = st[2]?.text ?? '';
 	let revYear = 1991;
 	if (revText === '') {
-		diagnostics.push({ code: 'comtrade-revision-assumed', severity: 'assumption', line: lineNo(0), message: 'The .cfg gives no revision year; read as a 1991 file.' });
+		diagnostics.push({
+			code: 'comtrade-revision-assumed',
+			severity: 'assumption',
+			line: lineNo(0),
+			message: 'The .cfg gives no revision year; read as a 1991 file.',
+		});
 	} else {
 		revYear = num(st[2], 0, 'a revision year (1991, 1999 or 2013)', { int: true, min: 1900 });
 		if (![1991, 1999, 2013].includes(revYear)) {
-			diagnostics.push({ code: 'comtrade-revision-unknown', severity: 'warning', line: lineNo(0), column: st[2].column, message: `Revision year ${revYear} is not one of 1991, 1999, 2013; read with the ${revYear > 2013 ? 2013 : 1999} layout.` });
+			diagnostics.push({
+				code: 'comtrade-revision-unknown',
+				severity: 'warning',
+				line: lineNo(0),
+				column: st[2].column,
+				message: `Revision year ${revYear} is not one of 1991, 1999, 2013; read with the ${revYear > 2013 ? 2013 : 1999} layout.`,
+			});
 		}
 	}
 	const station = st[0].text;
@@ -121,16 +143,36 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 	const total = num(ct[0], countLine, 'the total channel count (an integer)', { int: true, min: 0 });
 	const countField = (f: Field | undefined, suffix: 'A' | 'D'): number => {
 		const m = f ? new RegExp(`^(\\d+)\\s*${suffix}$`, 'i').exec(f.text) : null;
-		if (!m) fail(countLine, f?.column ?? lines[countLine].length + 1, 'cfg-syntax', f?.text ?? '', `a count followed by ${suffix}, e.g. 4${suffix}`);
+		if (!m)
+			fail(
+				countLine,
+				f?.column ?? lines[countLine].length + 1,
+				'cfg-syntax',
+				f?.text ?? '',
+				`a count followed by ${suffix}, e.g. 4${suffix}`,
+			);
 		return Number(m![1]);
 	};
 	const nA = countField(ct[1], 'A');
 	const nD = countField(ct[2], 'D');
-	if (nA + nD !== total) fail(countLine, ct[0].column, 'cfg-count-mismatch', lines[countLine], `total ${total} = analog + digital (${nA} + ${nD} = ${nA + nD})`);
+	if (nA + nD !== total)
+		fail(
+			countLine,
+			ct[0].column,
+			'cfg-count-mismatch',
+			lines[countLine],
+			`total ${total} = analog + digital (${nA} + ${nD} = ${nA + nD})`,
+		);
 
 	const channelLineCheck = (k: number, f: Field[], kind: 'analog' | 'digital', n: number, got: number) => {
 		if (f.length <= 2) {
-			fail(k, 1, 'cfg-count-mismatch', lines[k], `${n} ${kind} channel lines as line ${lineNo(countLine)} declares; only ${got} found before this line`);
+			fail(
+				k,
+				1,
+				'cfg-count-mismatch',
+				lines[k],
+				`${n} ${kind} channel lines as line ${lineNo(countLine)} declares; only ${got} found before this line`,
+			);
 		}
 	};
 
@@ -141,14 +183,27 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 		const k = i - 1;
 		channelLineCheck(k, f, 'analog', nA, c);
 		if (f.length < 10) {
-			fail(k, 1, f.length === 5 || f.length === 3 ? 'cfg-count-mismatch' : 'cfg-syntax', lines[k], f.length === 5 || f.length === 3
-				? `${nA} analog channel lines as line ${lineNo(countLine)} declares; this looks like a digital channel line`
-				: 'an analog channel line of 10 or 13 fields: An,ch_id,ph,ccbm,uu,a,b,skew,min,max,primary,secondary,PS');
+			fail(
+				k,
+				1,
+				f.length === 5 || f.length === 3 ? 'cfg-count-mismatch' : 'cfg-syntax',
+				lines[k],
+				f.length === 5 || f.length === 3
+					? `${nA} analog channel lines as line ${lineNo(countLine)} declares; this looks like a digital channel line`
+					: 'an analog channel line of 10 or 13 fields: An,ch_id,ph,ccbm,uu,a,b,skew,min,max,primary,secondary,PS',
+			);
 		}
 		const psText = (f[12]?.text ?? '').toUpperCase();
-		if (f.length >= 13 && psText !== 'P' && psText !== 'S' && psText !== '') fail(k, f[12].column, 'cfg-syntax', f[12].text, 'P or S (primary or secondary values)');
+		if (f.length >= 13 && psText !== 'P' && psText !== 'S' && psText !== '')
+			fail(k, f[12].column, 'cfg-syntax', f[12].text, 'P or S (primary or secondary values)');
 		if (f.length >= 13 && psText === '') {
-			diagnostics.push({ code: 'comtrade-ps-blank', severity: 'assumption', line: lineNo(k), column: f[12].column, message: `Channel ${f[1].text} leaves the P/S flag blank; its values are taken as recorded.` });
+			diagnostics.push({
+				code: 'comtrade-ps-blank',
+				severity: 'assumption',
+				line: lineNo(k),
+				column: f[12].column,
+				message: `Channel ${f[1].text} leaves the P/S flag blank; its values are taken as recorded.`,
+			});
 		}
 		analog.push({
 			index: num(f[0], k, 'the channel index (an integer)', { int: true }),
@@ -173,8 +228,16 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 		const f = trimTrailing(trimTrailing(raw, 5), 3);
 		const k = i - 1;
 		channelLineCheck(k, f, 'digital', nD, c);
-		if (f.length >= 10) fail(k, 1, 'cfg-count-mismatch', lines[k], `${nD} digital channel lines after ${nA} analog ones as line ${lineNo(countLine)} declares; this looks like an analog channel line`);
-		if (f.length !== 5 && f.length !== 3) fail(k, 1, 'cfg-syntax', lines[k], 'a digital channel line Dn,ch_id,ph,ccbm,y (or Dn,ch_id,y in 1991 files)');
+		if (f.length >= 10)
+			fail(
+				k,
+				1,
+				'cfg-count-mismatch',
+				lines[k],
+				`${nD} digital channel lines after ${nA} analog ones as line ${lineNo(countLine)} declares; this looks like an analog channel line`,
+			);
+		if (f.length !== 5 && f.length !== 3)
+			fail(k, 1, 'cfg-syntax', lines[k], 'a digital channel line Dn,ch_id,ph,ccbm,y (or Dn,ch_id,y in 1991 files)');
 		const yField = f[f.length - 1];
 		const y = yField.text === '' ? undefined : num(yField, k, 'the normal state 0 or 1', { int: true, min: 0 });
 		if (y !== undefined && y > 1) fail(k, yField.column, 'cfg-syntax', yField.text, 'the normal state 0 or 1');
@@ -190,7 +253,14 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 
 	// 5. lf
 	const lfFields = trimTrailing(next('the line frequency `lf`'), 1);
-	if (lfFields.length > 2) fail(i - 1, 1, 'cfg-count-mismatch', lines[i - 1], `the line frequency after ${nA} analog and ${nD} digital channel lines (line ${lineNo(countLine)}); this looks like one more channel line`);
+	if (lfFields.length > 2)
+		fail(
+			i - 1,
+			1,
+			'cfg-count-mismatch',
+			lines[i - 1],
+			`the line frequency after ${nA} analog and ${nD} digital channel lines (line ${lineNo(countLine)}); this looks like one more channel line`,
+		);
 	const lineFrequencyHz = num(lfFields[0], i - 1, 'the line frequency in Hz (a number)', { min: 0 });
 
 	// 6-7. nrates, then samp,endsamp per rate (nrates = 0 may be followed by `0,endsamp`)
@@ -204,7 +274,8 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 		if (f.length !== 2) fail(k, 1, 'cfg-syntax', lines[k], 'a sampling rate line `samp,endsamp`');
 		const sampleRateHz = num(f[0], k, 'a sample rate in Hz (a number >= 0)', { min: 0 });
 		const endSample = num(f[1], k, 'the last sample number at this rate (an integer >= 1)', { int: true, min: 1 });
-		if (rates.length > 0 && endSample <= rates[rates.length - 1].endSample) fail(k, f[1].column, 'cfg-syntax', f[1].text, `a last sample number above ${rates[rates.length - 1].endSample}`);
+		if (rates.length > 0 && endSample <= rates[rates.length - 1].endSample)
+			fail(k, f[1].column, 'cfg-syntax', f[1].text, `a last sample number above ${rates[rates.length - 1].endSample}`);
 		rates.push({ sampleRateHz, endSample, line: lineNo(k) });
 	}
 	if (nrates === 0 && i < lines.length) {
@@ -220,15 +291,31 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 		const f = trimTrailing(next(`the ${what} time stamp dd/mm/yyyy,hh:mm:ss.ssssss`), 2);
 		const k = i - 1;
 		if (f.length === 2 && f[0].text === '' && f[1].text === '') {
-			diagnostics.push({ code: 'comtrade-no-time-stamp', severity: 'warning', line: lineNo(k), message: `The ${what} time stamp is blank.` });
+			diagnostics.push({
+				code: 'comtrade-no-time-stamp',
+				severity: 'warning',
+				line: lineNo(k),
+				message: `The ${what} time stamp is blank.`,
+			});
 			return undefined;
 		}
 		if (f.length !== 2) fail(k, 1, 'cfg-syntax', lines[k], `the ${what} time stamp dd/mm/yyyy,hh:mm:ss.ssssss`);
 		const s = parseCfgStamp(f[0].text, f[1].text);
 		if (!s) {
-			diagnostics.push({ code: 'comtrade-bad-time-stamp', severity: 'warning', line: lineNo(k), column: 1, message: `The ${what} time stamp "${lines[k].trim()}" is not a valid date and time; it is ignored.` });
+			diagnostics.push({
+				code: 'comtrade-bad-time-stamp',
+				severity: 'warning',
+				line: lineNo(k),
+				column: 1,
+				message: `The ${what} time stamp "${lines[k].trim()}" is not a valid date and time; it is ignored.`,
+			});
 		} else if (s.monthFirst) {
-			diagnostics.push({ code: 'comtrade-1991-date', severity: 'assumption', line: lineNo(k), message: `The ${what} date has a two-digit year; read as the 1991 order mm/dd/yy (${s.iso.slice(0, 10)}).` });
+			diagnostics.push({
+				code: 'comtrade-1991-date',
+				severity: 'assumption',
+				line: lineNo(k),
+				message: `The ${what} date has a two-digit year; read as the 1991 order mm/dd/yy (${s.iso.slice(0, 10)}).`,
+			});
 		}
 		return s;
 	};
@@ -240,7 +327,13 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 	const fileTypeLine = lineNo(i - 1);
 	const ft = ftFields[0].text.toUpperCase();
 	if (ftFields.length !== 1 || !['ASCII', 'BINARY', 'BINARY32', 'FLOAT32'].includes(ft)) {
-		fail(i - 1, ftFields[0].column, 'cfg-syntax', lines[i - 1], 'the data file type ASCII, BINARY, BINARY32 or FLOAT32');
+		fail(
+			i - 1,
+			ftFields[0].column,
+			'cfg-syntax',
+			lines[i - 1],
+			'the data file type ASCII, BINARY, BINARY32 or FLOAT32',
+		);
 	}
 	// 11. timemult (1999 and later; absent in 1991 files)
 	let timeMult = 1;
@@ -249,10 +342,15 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 		if (f.length === 1) {
 			i++;
 			timeMult = num(f[0], i - 1, 'the time stamp multiplier timemult (a number > 0)', { min: 0 });
-			if (timeMult === 0) fail(i - 1, f[0].column, 'cfg-syntax', f[0].text, 'the time stamp multiplier timemult (a number > 0)');
+			if (timeMult === 0)
+				fail(i - 1, f[0].column, 'cfg-syntax', f[0].text, 'the time stamp multiplier timemult (a number > 0)');
 		}
 	} else if (revYear >= 1999) {
-		diagnostics.push({ code: 'comtrade-timemult-assumed', severity: 'assumption', message: 'The .cfg has no timemult line; time stamps are taken as written (timemult = 1).' });
+		diagnostics.push({
+			code: 'comtrade-timemult-assumed',
+			severity: 'assumption',
+			message: 'The .cfg has no timemult line; time stamps are taken as written (timemult = 1).',
+		});
 	}
 	// 12-13. (2013) time_code,local_code and tmq_code,leapsec: kept as metadata
 	if (i < lines.length && splitFields(lines[i]).length === 2) {
@@ -266,7 +364,12 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 		metadata['comtrade.leapsec'] = f[1].text;
 	}
 	if (i < lines.length) {
-		diagnostics.push({ code: 'comtrade-cfg-extra-lines', severity: 'warning', line: lineNo(i), message: `The .cfg has ${lines.length - i} line(s) after the last field it should have; they are ignored.` });
+		diagnostics.push({
+			code: 'comtrade-cfg-extra-lines',
+			severity: 'warning',
+			line: lineNo(i),
+			message: `The .cfg has ${lines.length - i} line(s) after the last field it should have; they are ignored.`,
+		});
 	}
 
 	Object.assign(metadata, {
@@ -283,7 +386,22 @@ export function parseComtradeCfg(text: string, source: string, lineOffset = 0): 
 		'comtrade.timemult': String(timeMult),
 	});
 	return {
-		station, device, revYear, analog, digital, lineFrequencyHz, rates, endSampleNoRate, firstData, trigger,
-		fileType: ft as ComtradeFileType, fileTypeLine, timeMult, linesUsed: i, lineEnd, metadata, diagnostics,
+		station,
+		device,
+		revYear,
+		analog,
+		digital,
+		lineFrequencyHz,
+		rates,
+		endSampleNoRate,
+		firstData,
+		trigger,
+		fileType: ft as ComtradeFileType,
+		fileTypeLine,
+		timeMult,
+		linesUsed: i,
+		lineEnd,
+		metadata,
+		diagnostics,
 	};
 }

@@ -8,7 +8,11 @@ import { ImportError } from '../import-error.js';
 import type { ComtradeConfig } from './cfg.js';
 import type { DatContent } from './dat.js';
 
-const COMMA = 44, LF = 10, CR = 13, SPACE = 32, TAB = 9;
+const COMMA = 44,
+	LF = 10,
+	CR = 13,
+	SPACE = 32,
+	TAB = 9;
 /** ASCII missing-value marker. Ref: docs/methods.md §8.2 (read in python-comtrade's test files). */
 const MISSING_ASCII = 99999;
 
@@ -33,13 +37,26 @@ function countLines(bytes: Uint8Array): number {
 	return lastNonBlankLine;
 }
 
-export function readAsciiDat(cfg: ComtradeConfig, bytes: Uint8Array, source: string, expected: number | undefined, lineOffset: number): DatContent {
+export function readAsciiDat(
+	cfg: ComtradeConfig,
+	bytes: Uint8Array,
+	source: string,
+	expected: number | undefined,
+	lineOffset: number,
+): DatContent {
 	const nA = cfg.analog.length;
 	const nD = cfg.digital.length;
 	const width = 2 + nA + nD;
 	const lineCount = countLines(bytes);
 	if (expected !== undefined && lineCount < expected) {
-		throw new ImportError(source, lineCount + 1 + lineOffset, 0, 'dat-too-short', '', `${expected} records as the .cfg says (rates ending at sample ${expected}); the file ends after ${lineCount}`);
+		throw new ImportError(
+			source,
+			lineCount + 1 + lineOffset,
+			0,
+			'dat-too-short',
+			'',
+			`${expected} records as the .cfg says (rates ending at sample ${expected}); the file ends after ${lineCount}`,
+		);
 	}
 	const n = expected ?? lineCount;
 	const raw = Array.from({ length: nA }, () => new Float64Array(n));
@@ -59,7 +76,14 @@ export function readAsciiDat(cfg: ComtradeConfig, bytes: Uint8Array, source: str
 	const fail = (column: number, text: string, expectedText: string): never => {
 		throw new ImportError(source, lineNo + lineOffset, column, 'dat-syntax', text, expectedText);
 	};
-	const fieldName = (f: number) => (f === 0 ? 'a sample number' : f === 1 ? 'a time stamp (an integer) or a blank field' : f < 2 + nA ? `a number for analog channel ${f - 1} (${cfg.analog[f - 2].name})` : `0 or 1 for digital channel ${f - 1 - nA} (${cfg.digital[f - 2 - nA].name})`);
+	const fieldName = (f: number) =>
+		f === 0
+			? 'a sample number'
+			: f === 1
+				? 'a time stamp (an integer) or a blank field'
+				: f < 2 + nA
+					? `a number for analog channel ${f - 1} (${cfg.analog[f - 2].name})`
+					: `0 or 1 for digital channel ${f - 1 - nA} (${cfg.digital[f - 2 - nA].name})`;
 
 	let previousNumber = 0;
 	let breaks = 0;
@@ -107,7 +131,13 @@ export function readAsciiDat(cfg: ComtradeConfig, bytes: Uint8Array, source: str
 			}
 			const blank = end === start;
 			if (!blank && digits <= 0) fail(start - lineStart + 1, latin1(bytes, start, end), fieldName(f));
-			const value = blank ? NaN : simple && digits <= 15 ? (neg ? -intValue : intValue) : Number(latin1(bytes, start, end));
+			const value = blank
+				? NaN
+				: simple && digits <= 15
+					? neg
+						? -intValue
+						: intValue
+					: Number(latin1(bytes, start, end));
 			if (f === 0) {
 				if (blank) fail(start - lineStart + 1, '', fieldName(0));
 				if (r > 0 && value !== previousNumber + 1 && breaks++ === 0) firstBreak = r + 1;
@@ -120,11 +150,17 @@ export function readAsciiDat(cfg: ComtradeConfig, bytes: Uint8Array, source: str
 					missing[f - 2]++;
 				} else raw[f - 2][r] = value;
 			} else {
-				if (blank || !simple || neg || digits !== 1 || intValue > 1) fail(start - lineStart + 1, latin1(bytes, start, end), fieldName(f));
+				if (blank || !simple || neg || digits !== 1 || intValue > 1)
+					fail(start - lineStart + 1, latin1(bytes, start, end), fieldName(f));
 				digital[f - 2 - nA][r] = intValue;
 			}
 			if (f < width - 1) {
-				if (atEnd) fail(p - lineStart + 1, lineText(), `${width} fields (sample number, time stamp, ${nA} analog, ${nD} digital), found ${f + 1}`);
+				if (atEnd)
+					fail(
+						p - lineStart + 1,
+						lineText(),
+						`${width} fields (sample number, time stamp, ${nA} analog, ${nD} digital), found ${f + 1}`,
+					);
 				p++; // the comma
 			}
 		}
@@ -132,13 +168,28 @@ export function readAsciiDat(cfg: ComtradeConfig, bytes: Uint8Array, source: str
 		if (p < len && bytes[p] === COMMA) {
 			let q = p + 1;
 			while (q < len && isBlank(bytes[q])) q++;
-			if (q < len && bytes[q] !== LF && bytes[q] !== CR) fail(p + 2 - lineStart, lineText(), `${width} fields (sample number, time stamp, ${nA} analog, ${nD} digital), found more`);
+			if (q < len && bytes[q] !== LF && bytes[q] !== CR)
+				fail(
+					p + 2 - lineStart,
+					lineText(),
+					`${width} fields (sample number, time stamp, ${nA} analog, ${nD} digital), found more`,
+				);
 			p = q;
 		}
 		if (p < len && bytes[p] === CR) p++;
 		if (p < len && bytes[p] === LF) p++;
 	}
-	return { raw, missing, stamps, digital, records: n, extraRecords: lineCount - n, trailingBytes: 0, sampleNumberBreaks: breaks, firstBreakRecord: firstBreak };
+	return {
+		raw,
+		missing,
+		stamps,
+		digital,
+		records: n,
+		extraRecords: lineCount - n,
+		trailingBytes: 0,
+		sampleNumberBreaks: breaks,
+		firstBreakRecord: firstBreak,
+	};
 }
 
 function latin1(bytes: Uint8Array, start: number, end: number): string {

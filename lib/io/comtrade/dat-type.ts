@@ -36,20 +36,40 @@ function looksLikeText(head: Uint8Array): boolean {
  * @param byteOffset  where the data starts in a larger file (CFF), for the error position
  * @throws ImportError 'dat-type-mismatch' naming the .dat and the .cfg line of the declared type
  */
-export function checkDatType(cfg: ComtradeConfig, head: Uint8Array, source: string, cfgSource: string, byteOffset = 0): void {
+export function checkDatType(
+	cfg: ComtradeConfig,
+	head: Uint8Array,
+	source: string,
+	cfgSource: string,
+	byteOffset = 0,
+): void {
 	const h = head.subarray(0, Math.min(head.length, HEAD_BYTES));
 	if (h.length === 0) return;
 	const declared = `the .cfg declares ${cfg.fileType} (${cfgSource} line ${cfg.fileTypeLine})`;
 	if (cfg.fileType === 'ASCII') {
 		const nul = h.indexOf(0);
 		if (nul >= 0) {
-			throw new ImportError(source, 0, byteOffset + nul + 1, 'dat-type-mismatch', hex(h, nul), `lines of comma-separated numbers, as ${declared}; this data holds NUL bytes, so it is binary: check the file type in the .cfg`);
+			throw new ImportError(
+				source,
+				0,
+				byteOffset + nul + 1,
+				'dat-type-mismatch',
+				hex(h, nul),
+				`lines of comma-separated numbers, as ${declared}; this data holds NUL bytes, so it is binary: check the file type in the .cfg`,
+			);
 		}
 		return;
 	}
 	if (looksLikeText(h)) {
 		const line = latin1Line(h);
-		throw new ImportError(source, 1, 0, 'dat-type-mismatch', line, `binary records of ${binaryRecordBytes(cfg)} bytes, as ${declared}; this data is text (lines of numbers and commas): check the file type in the .cfg (ASCII?)`);
+		throw new ImportError(
+			source,
+			1,
+			0,
+			'dat-type-mismatch',
+			line,
+			`binary records of ${binaryRecordBytes(cfg)} bytes, as ${declared}; this data is text (lines of numbers and commas): check the file type in the .cfg (ASCII?)`,
+		);
 	}
 }
 

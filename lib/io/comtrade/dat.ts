@@ -36,8 +36,16 @@ const MISSING_INT32 = -0x80000000;
  * @throws ImportError 'dat-too-short' (fewer records than the .cfg says), 'dat-syntax' (ASCII field that is
  *   not a number, wrong field count)
  */
-export function readComtradeDat(cfg: ComtradeConfig, bytes: Uint8Array, source: string, expected: number | undefined, offsets: { line?: number; byte?: number } = {}): DatContent {
-	return cfg.fileType === 'ASCII' ? readAsciiDat(cfg, bytes, source, expected, offsets.line ?? 0) : readBinary(cfg, bytes, source, expected, offsets.byte ?? 0);
+export function readComtradeDat(
+	cfg: ComtradeConfig,
+	bytes: Uint8Array,
+	source: string,
+	expected: number | undefined,
+	offsets: { line?: number; byte?: number } = {},
+): DatContent {
+	return cfg.fileType === 'ASCII'
+		? readAsciiDat(cfg, bytes, source, expected, offsets.line ?? 0)
+		: readBinary(cfg, bytes, source, expected, offsets.byte ?? 0);
 }
 
 function allocate(nA: number, nD: number, n: number): Pick<DatContent, 'raw' | 'digital' | 'stamps' | 'missing'> {
@@ -49,7 +57,13 @@ function allocate(nA: number, nD: number, n: number): Pick<DatContent, 'raw' | '
 	};
 }
 
-function readBinary(cfg: ComtradeConfig, bytes: Uint8Array, source: string, expected: number | undefined, byteOffset: number): DatContent {
+function readBinary(
+	cfg: ComtradeConfig,
+	bytes: Uint8Array,
+	source: string,
+	expected: number | undefined,
+	byteOffset: number,
+): DatContent {
 	const nA = cfg.analog.length;
 	const nD = cfg.digital.length;
 	const valueBytes = cfg.fileType === 'BINARY' ? 2 : 4;
@@ -57,7 +71,14 @@ function readBinary(cfg: ComtradeConfig, bytes: Uint8Array, source: string, expe
 	const recordBytes = 8 + nA * valueBytes + 2 * words;
 	const available = Math.floor(bytes.length / recordBytes);
 	if (expected !== undefined && available < expected) {
-		throw new ImportError(source, 0, byteOffset + bytes.length + 1, 'dat-too-short', '', `${expected} records of ${recordBytes} bytes (${expected * recordBytes} bytes) as the .cfg says; the data has ${bytes.length} bytes`);
+		throw new ImportError(
+			source,
+			0,
+			byteOffset + bytes.length + 1,
+			'dat-too-short',
+			'',
+			`${expected} records of ${recordBytes} bytes (${expected * recordBytes} bytes) as the .cfg says; the data has ${bytes.length} bytes`,
+		);
 	}
 	const n = expected ?? available;
 	const out = allocate(nA, nD, n);
@@ -109,7 +130,15 @@ function readBinary(cfg: ComtradeConfig, bytes: Uint8Array, source: string, expe
 	for (let c = 0; c < nD; c++) {
 		const states = out.digital[c];
 		const bit = c & 15;
-		for (let r = 0, p = statusAt + 2 * (c >> 4); r < n; r++, p += recordBytes) states[r] = (view.getUint16(p, true) >> bit) & 1;
+		for (let r = 0, p = statusAt + 2 * (c >> 4); r < n; r++, p += recordBytes)
+			states[r] = (view.getUint16(p, true) >> bit) & 1;
 	}
-	return { ...out, records: n, extraRecords: available - n, trailingBytes: bytes.length - available * recordBytes, sampleNumberBreaks: breaks, firstBreakRecord: firstBreak };
+	return {
+		...out,
+		records: n,
+		extraRecords: available - n,
+		trailingBytes: bytes.length - available * recordBytes,
+		sampleNumberBreaks: breaks,
+		firstBreakRecord: firstBreak,
+	};
 }

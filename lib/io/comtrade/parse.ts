@@ -38,19 +38,41 @@ export interface ComtradeDatOffsets {
  * @throws ImportError cfg-syntax, cfg-count-mismatch, dat-too-short, dat-syntax, time-not-increasing, no-data
  * @example parseComtrade(cfgText, datBytes, 'feeder.cfg').channels.map((c) => c.name) // ['Ia', ..., 'Vc']
  */
-export function parseComtrade(cfgText: string, dat: Uint8Array, source: string, options: ComtradeOptions = {}): Capture {
+export function parseComtrade(
+	cfgText: string,
+	dat: Uint8Array,
+	source: string,
+	options: ComtradeOptions = {},
+): Capture {
 	const datSource = options.datSource ?? source.replace(/\.cfg$/i, (m) => (m === '.CFG' ? '.DAT' : '.dat'));
 	const cfg = parseComtradeCfg(cfgText, source);
 	return buildCapture(cfg, dat, source, datSource, options, {});
 }
 
 /** Assemble the capture from a parsed .cfg and the data bytes (shared with the CFF reader). */
-export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: string, datSource: string, options: ComtradeOptions, offsets: ComtradeDatOffsets): Capture {
+export function buildCapture(
+	cfg: ComtradeConfig,
+	datBytes: Uint8Array,
+	source: string,
+	datSource: string,
+	options: ComtradeOptions,
+	offsets: ComtradeDatOffsets,
+): Capture {
 	const diagnostics: Diagnostic[] = [...cfg.diagnostics];
 	const want = options.values ?? 'primary';
-	if (want !== 'primary' && want !== 'secondary') throw new ImportError(source, 0, 0, 'bad-option', String(want), "values: 'primary' or 'secondary'");
-	diagnostics.push({ code: 'comtrade-format', severity: 'info', message: `COMTRADE ${cfg.revYear} ${cfg.fileType}, station "${cfg.station}", device "${cfg.device}": ${cfg.analog.length} analog and ${cfg.digital.length} digital channels.` });
-	if (cfg.lineEnd === 'LF') diagnostics.push({ code: 'comtrade-lf-line-ends', severity: 'info', message: 'The .cfg uses LF line ends where the standard asks for CRLF; read as usual.' });
+	if (want !== 'primary' && want !== 'secondary')
+		throw new ImportError(source, 0, 0, 'bad-option', String(want), "values: 'primary' or 'secondary'");
+	diagnostics.push({
+		code: 'comtrade-format',
+		severity: 'info',
+		message: `COMTRADE ${cfg.revYear} ${cfg.fileType}, station "${cfg.station}", device "${cfg.device}": ${cfg.analog.length} analog and ${cfg.digital.length} digital channels.`,
+	});
+	if (cfg.lineEnd === 'LF')
+		diagnostics.push({
+			code: 'comtrade-lf-line-ends',
+			severity: 'info',
+			message: 'The .cfg uses LF line ends where the standard asks for CRLF; read as usual.',
+		});
 
 	const lastRate = cfg.rates[cfg.rates.length - 1];
 	const expected = lastRate ? lastRate.endSample : cfg.endSampleNoRate || undefined;
@@ -58,23 +80,50 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 	const dat = readComtradeDat(cfg, datBytes, datSource, expected, offsets);
 	const n = dat.records;
 	if (n === 0) throw new ImportError(datSource, 1 + (offsets.line ?? 0), 0, 'no-data', '', 'at least one data record');
-	if (dat.extraRecords > 0) diagnostics.push({ code: 'comtrade-extra-records', severity: 'warning', message: `The data holds ${dat.extraRecords} record(s) past the ${n} the .cfg declares; they are ignored.` });
-	if (dat.trailingBytes > 0) diagnostics.push({ code: 'comtrade-trailing-bytes', severity: 'warning', message: `The data ends with ${dat.trailingBytes} byte(s) that do not make a whole record; they are ignored.` });
+	if (dat.extraRecords > 0)
+		diagnostics.push({
+			code: 'comtrade-extra-records',
+			severity: 'warning',
+			message: `The data holds ${dat.extraRecords} record(s) past the ${n} the .cfg declares; they are ignored.`,
+		});
+	if (dat.trailingBytes > 0)
+		diagnostics.push({
+			code: 'comtrade-trailing-bytes',
+			severity: 'warning',
+			message: `The data ends with ${dat.trailingBytes} byte(s) that do not make a whole record; they are ignored.`,
+		});
 
 	// Time stamps are in microseconds, or nanoseconds when a 2013 .cfg writes its stamps to 9 digits.
 	const stampUnitS = cfg.revYear >= 2013 && (cfg.firstData?.fracDigits ?? 0) > 6 ? 1e-9 : 1e-6;
 	const stampS = cfg.timeMult * stampUnitS;
 	let recordZeroS = 0;
 	if (cfg.firstData && cfg.trigger) recordZeroS = stampDifferenceS(cfg.firstData, cfg.trigger);
-	else diagnostics.push({ code: 'comtrade-no-trigger', severity: 'assumption', message: 'Without both the first-data and the trigger time stamps, times are counted from the first-data time.' });
+	else
+		diagnostics.push({
+			code: 'comtrade-no-trigger',
+			severity: 'assumption',
+			message: 'Without both the first-data and the trigger time stamps, times are counted from the first-data time.',
+		});
 	const firstStamp = Number.isFinite(dat.stamps[0]) ? dat.stamps[0] : 0;
 	const startS = recordZeroS + firstStamp * stampS;
-	if (firstStamp !== 0) diagnostics.push({ code: 'comtrade-first-stamp', severity: 'info', message: `The first record's time stamp is ${firstStamp} × ${cfg.timeMult} × ${stampUnitS === 1e-6 ? 'µs' : 'ns'}; the record starts ${fmt(startS)} s from the trigger.` });
+	if (firstStamp !== 0)
+		diagnostics.push({
+			code: 'comtrade-first-stamp',
+			severity: 'info',
+			message: `The first record's time stamp is ${firstStamp} × ${cfg.timeMult} × ${stampUnitS === 1e-6 ? 'µs' : 'ns'}; the record starts ${fmt(startS)} s from the trigger.`,
+		});
 
 	const { sampleRateHz, timeS } = timeBase(cfg, dat.stamps, n, startS, stampS, datSource, diagnostics);
 	if (dat.sampleNumberBreaks > 0) {
-		const where = cfg.fileType === 'ASCII' ? `record ${dat.firstBreakRecord} (line ${dat.firstBreakRecord + (offsets.line ?? 0)} of ${datSource})` : `record ${dat.firstBreakRecord} of ${datSource}`;
-		diagnostics.push({ code: 'comtrade-sample-number-break', severity: 'warning', message: `Sample numbers do not run on by one from ${where}, ${dat.sampleNumberBreaks} place(s) in all: records may be missing; times follow the ${timeS && !cfg.rates.length ? 'time stamps' : 'sample rate'}.` });
+		const where =
+			cfg.fileType === 'ASCII'
+				? `record ${dat.firstBreakRecord} (line ${dat.firstBreakRecord + (offsets.line ?? 0)} of ${datSource})`
+				: `record ${dat.firstBreakRecord} of ${datSource}`;
+		diagnostics.push({
+			code: 'comtrade-sample-number-break',
+			severity: 'warning',
+			message: `Sample numbers do not run on by one from ${where}, ${dat.sampleNumberBreaks} place(s) in all: records may be missing; times follow the ${timeS && !cfg.rates.length ? 'time stamps' : 'sample rate'}.`,
+		});
 	}
 	// With a rate as the time base, the record time stamps should tell the same span; say so when they do not.
 	const lastStamp = dat.stamps[n - 1];
@@ -82,7 +131,11 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 		const byStampsS = (lastStamp - dat.stamps[0]) * stampS;
 		const byRateS = (n - 1) / sampleRateHz;
 		if (Math.abs(byStampsS - byRateS) > 0.01 * byRateS + 2 * stampS) {
-			diagnostics.push({ code: 'comtrade-stamps-disagree', severity: 'warning', message: `The record time stamps span ${fmt(byStampsS)} s but ${n} samples at ${sampleRateHz} Hz span ${fmt(byRateS)} s; times follow the sample rate.` });
+			diagnostics.push({
+				code: 'comtrade-stamps-disagree',
+				severity: 'warning',
+				message: `The record time stamps span ${fmt(byStampsS)} s but ${n} samples at ${sampleRateHz} Hz span ${fmt(byRateS)} s; times follow the sample rate.`,
+			});
 		}
 	}
 
@@ -90,15 +143,35 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 	uniqueNames(channels, diagnostics);
 	if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want));
 	cfg.analog.forEach((a, c) => {
-		if (dat.missing[c] > 0) diagnostics.push({ code: 'comtrade-missing-values', severity: 'warning', line: a.line, message: `Channel ${channels[c].name}: ${dat.missing[c]} of ${n} values are marked missing in the data; they are NaN.` });
+		if (dat.missing[c] > 0)
+			diagnostics.push({
+				code: 'comtrade-missing-values',
+				severity: 'warning',
+				line: a.line,
+				message: `Channel ${channels[c].name}: ${dat.missing[c]} of ${n} values are marked missing in the data; they are NaN.`,
+			});
 	});
 	const skewed = cfg.analog.filter((a) => a.skewUs !== 0);
-	if (skewed.length > 0) diagnostics.push({ code: 'comtrade-skew-ignored', severity: 'info', message: `Channel skews (${skewed.map((a) => `${a.name} ${a.skewUs} µs`).join(', ')}) are reported, not corrected.` });
+	if (skewed.length > 0)
+		diagnostics.push({
+			code: 'comtrade-skew-ignored',
+			severity: 'info',
+			message: `Channel skews (${skewed.map((a) => `${a.name} ${a.skewUs} µs`).join(', ')}) are reported, not corrected.`,
+		});
 
-	const digital: DigitalChannel[] = cfg.digital.map((d, c) => ({ name: d.name || `D${d.index}`, normalState: d.normalState, states: dat.digital[c] }));
+	const digital: DigitalChannel[] = cfg.digital.map((d, c) => ({
+		name: d.name || `D${d.index}`,
+		normalState: d.normalState,
+		states: dat.digital[c],
+	}));
 	const metadata: Record<string, string> = { ...cfg.metadata };
 	for (const a of cfg.analog) if (a.circuit) metadata[`comtrade.ccbm.${a.name}`] = a.circuit;
-	if (cfg.firstData) diagnostics.push({ code: 'comtrade-local-time', severity: 'info', message: `Start time ${cfg.firstData.iso} is the recorder's local time as written in the .cfg${metadata['comtrade.time_code'] ? ` (time_code ${metadata['comtrade.time_code']})` : ''}.` });
+	if (cfg.firstData)
+		diagnostics.push({
+			code: 'comtrade-local-time',
+			severity: 'info',
+			message: `Start time ${cfg.firstData.iso} is the recorder's local time as written in the .cfg${metadata['comtrade.time_code'] ? ` (time_code ${metadata['comtrade.time_code']})` : ''}.`,
+		});
 
 	return {
 		source,
@@ -118,9 +191,18 @@ export function buildCapture(cfg: ComtradeConfig, datBytes: Uint8Array, source: 
 export function valuesNote(cfg: ComtradeConfig, want: 'primary' | 'secondary'): Diagnostic {
 	const unflagged = cfg.analog.filter((a) => a.ps === undefined).length;
 	if (cfg.analog.length > unflagged) {
-		return { code: 'comtrade-values', severity: 'info', message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}${unflagged > 0 ? `, except ${unflagged} channel(s) without a P/S flag, kept as recorded` : ''}; each channel's scaling says how.` };
+		return {
+			code: 'comtrade-values',
+			severity: 'info',
+			message: `Analog values are reported as ${want} values${want === 'primary' ? ' (network side; ask for secondary values to see what the recorder measured)' : ' (instrument side, as asked)'}${unflagged > 0 ? `, except ${unflagged} channel(s) without a P/S flag, kept as recorded` : ''}; each channel's scaling says how.`,
+		};
 	}
-	return { code: 'comtrade-values', severity: 'assumption', message: 'The .cfg gives no P/S flags: analog values are reported as recorded (a·x + b), not known to be primary or secondary.' };
+	return {
+		code: 'comtrade-values',
+		severity: 'assumption',
+		message:
+			'The .cfg gives no P/S flags: analog values are reported as recorded (a·x + b), not known to be primary or secondary.',
+	};
 }
 
 /** A scale factor as a person reads it: 6 significant digits, no float tail ("0.0122070" not 0.012207031250000001). */
@@ -133,12 +215,25 @@ function fmt(x: number): string {
 }
 
 /** Uniform rate when one rate (or equal rates) is declared; otherwise explicit times from rates or stamps. */
-function timeBase(cfg: ComtradeConfig, stamps: Float64Array, n: number, startS: number, stampS: number, datSource: string, diagnostics: Diagnostic[]): { sampleRateHz: number; timeS?: Float64Array } {
+function timeBase(
+	cfg: ComtradeConfig,
+	stamps: Float64Array,
+	n: number,
+	startS: number,
+	stampS: number,
+	datSource: string,
+	diagnostics: Diagnostic[],
+): { sampleRateHz: number; timeS?: Float64Array } {
 	const rates = cfg.rates.filter((r) => r.sampleRateHz > 0);
 	if (rates.length > 0 && rates.length === cfg.rates.length) {
 		const distinct = new Set(rates.map((r) => r.sampleRateHz));
 		if (distinct.size === 1) {
-			diagnostics.push({ code: 'comtrade-rate', severity: 'info', line: rates[0].line, message: `Sample rate ${rates[0].sampleRateHz} Hz from the .cfg; record time stamps are not used for timing.` });
+			diagnostics.push({
+				code: 'comtrade-rate',
+				severity: 'info',
+				line: rates[0].line,
+				message: `Sample rate ${rates[0].sampleRateHz} Hz from the .cfg; record time stamps are not used for timing.`,
+			});
 			return { sampleRateHz: rates[0].sampleRateHz };
 		}
 		// Several rates: keep every sample on its own time (no resampling) and report the mean rate.
@@ -151,25 +246,54 @@ function timeBase(cfg: ComtradeConfig, stamps: Float64Array, n: number, startS: 
 			timeS[k] = t;
 		}
 		const meanHz = n > 1 ? (n - 1) / (timeS[n - 1] - timeS[0]) : rates[0].sampleRateHz;
-		diagnostics.push({ code: 'comtrade-several-rates', severity: 'warning', line: rates[0].line, message: `The record uses ${rates.length} sampling rates (${rates.map((r) => `${r.sampleRateHz} Hz to sample ${r.endSample}`).join(', ')}); samples keep their own times, not resampled; mean rate ${fmt(meanHz)} Hz.` });
+		diagnostics.push({
+			code: 'comtrade-several-rates',
+			severity: 'warning',
+			line: rates[0].line,
+			message: `The record uses ${rates.length} sampling rates (${rates.map((r) => `${r.sampleRateHz} Hz to sample ${r.endSample}`).join(', ')}); samples keep their own times, not resampled; mean rate ${fmt(meanHz)} Hz.`,
+		});
 		return { sampleRateHz: meanHz, timeS };
 	}
 	// nrates = 0 (or samp = 0): the time stamps are the time base.
 	const timeS = new Float64Array(n);
 	const first = stamps[0];
 	for (let k = 0; k < n; k++) {
-		if (!Number.isFinite(stamps[k])) throw new ImportError(datSource, cfg.fileType === 'ASCII' ? k + 1 : 0, cfg.fileType === 'ASCII' ? 0 : 1, 'dat-syntax', '', `a time stamp on record ${k + 1}: the .cfg gives no sample rate, so time stamps are the time base`);
+		if (!Number.isFinite(stamps[k]))
+			throw new ImportError(
+				datSource,
+				cfg.fileType === 'ASCII' ? k + 1 : 0,
+				cfg.fileType === 'ASCII' ? 0 : 1,
+				'dat-syntax',
+				'',
+				`a time stamp on record ${k + 1}: the .cfg gives no sample rate, so time stamps are the time base`,
+			);
 		timeS[k] = startS + (stamps[k] - first) * stampS;
 		if (k > 0 && timeS[k] <= timeS[k - 1]) {
-			throw new ImportError(datSource, cfg.fileType === 'ASCII' ? k + 1 : 0, cfg.fileType === 'ASCII' ? 0 : 1, 'time-not-increasing', String(stamps[k]), `a time stamp above the previous one (${stamps[k - 1]}) on record ${k + 1}`);
+			throw new ImportError(
+				datSource,
+				cfg.fileType === 'ASCII' ? k + 1 : 0,
+				cfg.fileType === 'ASCII' ? 0 : 1,
+				'time-not-increasing',
+				String(stamps[k]),
+				`a time stamp above the previous one (${stamps[k - 1]}) on record ${k + 1}`,
+			);
 		}
 	}
 	const meanHz = n > 1 ? (n - 1) / (timeS[n - 1] - timeS[0]) : NaN;
-	diagnostics.push({ code: 'comtrade-time-stamps', severity: 'info', message: `No sample rate in the .cfg: the record time stamps (× ${cfg.timeMult}) are the time base; mean rate ${fmt(meanHz)} Hz.` });
+	diagnostics.push({
+		code: 'comtrade-time-stamps',
+		severity: 'info',
+		message: `No sample rate in the .cfg: the record time stamps (× ${cfg.timeMult}) are the time base; mean rate ${fmt(meanHz)} Hz.`,
+	});
 	return { sampleRateHz: meanHz, timeS };
 }
 
-export function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 'secondary', diagnostics: Diagnostic[]): Channel {
+export function scaleChannel(
+	a: CfgAnalog,
+	raw: Float64Array,
+	want: 'primary' | 'secondary',
+	diagnostics: Diagnostic[],
+): Channel {
 	const u = normaliseUnitText(a.unit);
 	let ratio = 1;
 	let which: string;
@@ -180,7 +304,12 @@ export function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 
 		which = `${want} values, as recorded`;
 	} else if (!ratioKnown) {
 		which = `${a.ps === 'P' ? 'primary' : 'secondary'} values as recorded: no usable ratio ${a.primary}/${a.secondary} to convert to ${want}`;
-		diagnostics.push({ code: 'comtrade-ratio-missing', severity: 'warning', line: a.line, message: `Channel ${a.name}: ${which}.` });
+		diagnostics.push({
+			code: 'comtrade-ratio-missing',
+			severity: 'warning',
+			line: a.line,
+			message: `Channel ${a.name}: ${which}.`,
+		});
 	} else {
 		ratio = a.ps === 'S' ? a.primary / a.secondary : a.secondary / a.primary;
 		which = `${want} values, converted with ratio ${a.primary}:${a.secondary}`;
@@ -194,20 +323,41 @@ export function scaleChannel(a: CfgAnalog, raw: Float64Array, want: 'primary' | 
 		const q = quantityFromName(a.name);
 		if (q) {
 			quantity = q;
-			diagnostics.push({ code: 'comtrade-quantity-from-name', severity: 'assumption', line: a.line, message: `Channel ${a.name} has no unit; taken as ${q} from its name.` });
+			diagnostics.push({
+				code: 'comtrade-quantity-from-name',
+				severity: 'assumption',
+				line: a.line,
+				message: `Channel ${a.name} has no unit; taken as ${q} from its name.`,
+			});
 		}
 	}
-	if (u.factor !== 1) diagnostics.push({ code: 'unit-normalised', severity: 'info', line: a.line, message: `Channel ${a.name}: ${a.unit} converted to ${u.unit} (×${u.factor}).` });
+	if (u.factor !== 1)
+		diagnostics.push({
+			code: 'unit-normalised',
+			severity: 'info',
+			line: a.line,
+			message: `Channel ${a.name}: ${a.unit} converted to ${u.unit} (×${u.factor}).`,
+		});
 	const channel: Channel = {
 		name: a.name || `A${a.index}`,
 		unit: u.unit,
 		quantity,
 		samples,
-		scaling: { factor, offset, description: `${short(a.a)}·x + ${short(a.b)} ${a.unit}; ${which}${u.factor !== 1 ? `; ×${u.factor} to ${u.unit}` : ''}` },
+		scaling: {
+			factor,
+			offset,
+			description: `${short(a.a)}·x + ${short(a.b)} ${a.unit}; ${which}${u.factor !== 1 ? `; ×${u.factor} to ${u.unit}` : ''}`,
+		},
 	};
 	const ph = channelPhase(a.name, a.phase);
 	if (ph) channel.phase = ph;
-	if (a.phase.trim() && !channelPhase('', a.phase)) diagnostics.push({ code: 'comtrade-phase-unread', severity: 'info', line: a.line, message: `Channel ${a.name}: phase field "${a.phase.trim()}" is not a phase label Sinecheck reads (L1, A, R, N, ...); ${ph ? `phase ${ph} taken from the name` : 'no phase set'}.` });
+	if (a.phase.trim() && !channelPhase('', a.phase))
+		diagnostics.push({
+			code: 'comtrade-phase-unread',
+			severity: 'info',
+			line: a.line,
+			message: `Channel ${a.name}: phase field "${a.phase.trim()}" is not a phase label Sinecheck reads (L1, A, R, N, ...); ${ph ? `phase ${ph} taken from the name` : 'no phase set'}.`,
+		});
 	return channel;
 }
 
@@ -218,7 +368,11 @@ export function uniqueNames(channels: Channel[], diagnostics: Diagnostic[]): voi
 		seen.set(c.name, k + 1);
 		if (k > 0) {
 			const renamed = `${c.name} (${k + 1})`;
-			diagnostics.push({ code: 'duplicate-channel-name', severity: 'assumption', message: `Two channels are named ${c.name}; the later one is called ${renamed}.` });
+			diagnostics.push({
+				code: 'duplicate-channel-name',
+				severity: 'assumption',
+				message: `Two channels are named ${c.name}; the later one is called ${renamed}.`,
+			});
 			c.name = renamed;
 		}
 	}

@@ -18,7 +18,8 @@ import { scaleChannel, uniqueNames, valuesNote, type ComtradeOptions } from './p
 /** The one sampling rate of a record (with its .cfg line), or undefined when it has several or none. */
 export function streamableRate(cfg: ComtradeConfig): { sampleRateHz: number; line: number } | undefined {
 	const rates = cfg.rates.filter((r) => r.sampleRateHz > 0);
-	if (rates.length === 0 || rates.length !== cfg.rates.length || new Set(rates.map((r) => r.sampleRateHz)).size !== 1) return undefined;
+	if (rates.length === 0 || rates.length !== cfg.rates.length || new Set(rates.map((r) => r.sampleRateHz)).size !== 1)
+		return undefined;
 	return { sampleRateHz: rates[0].sampleRateHz, line: rates[0].line };
 }
 
@@ -61,20 +62,47 @@ export class ComtradeSampleStream {
 		this.linesDone = offsets.line ?? 0;
 		this.byteBase = offsets.byte ?? 0;
 		const rate = streamableRate(cfg);
-		if (!rate) throw new ImportError(source, cfg.rates[0]?.line ?? 0, 0, 'unsupported-format', '', 'one sampling rate for streaming (read the record whole instead)');
+		if (!rate)
+			throw new ImportError(
+				source,
+				cfg.rates[0]?.line ?? 0,
+				0,
+				'unsupported-format',
+				'',
+				'one sampling rate for streaming (read the record whole instead)',
+			);
 		this.ascii = cfg.fileType === 'ASCII';
 		this.recordBytes = binaryRecordBytes(cfg);
 		this.expected = cfg.rates[cfg.rates.length - 1].endSample;
 		const want = options.values ?? 'primary';
 		const diagnostics: Diagnostic[] = [...cfg.diagnostics];
-		diagnostics.push({ code: 'comtrade-format', severity: 'info', message: `COMTRADE ${cfg.revYear} ${cfg.fileType}, station "${cfg.station}", device "${cfg.device}": ${cfg.analog.length} analog and ${cfg.digital.length} digital channels.` });
-		if (cfg.lineEnd === 'LF') diagnostics.push({ code: 'comtrade-lf-line-ends', severity: 'info', message: 'The .cfg uses LF line ends where the standard asks for CRLF; read as usual.' });
-		diagnostics.push({ code: 'comtrade-rate', severity: 'info', line: rate.line, message: `Sample rate ${rate.sampleRateHz} Hz from the .cfg; record time stamps are not used for timing.` });
+		diagnostics.push({
+			code: 'comtrade-format',
+			severity: 'info',
+			message: `COMTRADE ${cfg.revYear} ${cfg.fileType}, station "${cfg.station}", device "${cfg.device}": ${cfg.analog.length} analog and ${cfg.digital.length} digital channels.`,
+		});
+		if (cfg.lineEnd === 'LF')
+			diagnostics.push({
+				code: 'comtrade-lf-line-ends',
+				severity: 'info',
+				message: 'The .cfg uses LF line ends where the standard asks for CRLF; read as usual.',
+			});
+		diagnostics.push({
+			code: 'comtrade-rate',
+			severity: 'info',
+			line: rate.line,
+			message: `Sample rate ${rate.sampleRateHz} Hz from the .cfg; record time stamps are not used for timing.`,
+		});
 		const channels = cfg.analog.map((a) => scaleChannel(a, new Float64Array(0), want, diagnostics));
 		uniqueNames(channels, diagnostics);
 		if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want));
 		const skewed = cfg.analog.filter((a) => a.skewUs !== 0);
-		if (skewed.length > 0) diagnostics.push({ code: 'comtrade-skew-ignored', severity: 'info', message: `Channel skews (${skewed.map((a) => `${a.name} ${a.skewUs} µs`).join(', ')}) are reported, not corrected.` });
+		if (skewed.length > 0)
+			diagnostics.push({
+				code: 'comtrade-skew-ignored',
+				severity: 'info',
+				message: `Channel skews (${skewed.map((a) => `${a.name} ${a.skewUs} µs`).join(', ')}) are reported, not corrected.`,
+			});
 		this.factors = channels.map((c) => c.scaling!.factor);
 		this.offsets = channels.map((c) => c.scaling!.offset);
 		this.names = channels.map((c) => c.name);
@@ -82,7 +110,13 @@ export class ComtradeSampleStream {
 		if (channels.length === 0) throw new ImportError(source, 2, 0, 'no-data', '', 'at least one analog channel');
 		const header: SampleStreamHeader = {
 			sampleRateHz: rate.sampleRateHz,
-			channels: channels.map(({ name, unit, quantity, phase, scaling }) => ({ name, unit, quantity, ...(phase ? { phase } : {}), ...(scaling ? { scaling } : {}) })),
+			channels: channels.map(({ name, unit, quantity, phase, scaling }) => ({
+				name,
+				unit,
+				quantity,
+				...(phase ? { phase } : {}),
+				...(scaling ? { scaling } : {}),
+			})),
 			diagnostics,
 		};
 		if (cfg.lineFrequencyHz > 0) header.nominalFrequencyHz = cfg.lineFrequencyHz;
@@ -112,18 +146,61 @@ export class ComtradeSampleStream {
 			if (this.ascii) this.read(this.carry);
 			else if (this.records < this.expected) {
 				const total = this.bytesDone + this.carry.length;
-				throw new ImportError(this.datSource, 0, this.byteBase + total + 1, 'dat-too-short', '', `${this.expected} records of ${this.recordBytes} bytes (${this.expected * this.recordBytes} bytes) as the .cfg says; the data has ${total} bytes`);
-			} else notes.push({ code: 'comtrade-trailing-bytes', severity: 'warning', message: `The data ends with ${this.carry.length} byte(s) that do not make a whole record; they are ignored.` });
+				throw new ImportError(
+					this.datSource,
+					0,
+					this.byteBase + total + 1,
+					'dat-too-short',
+					'',
+					`${this.expected} records of ${this.recordBytes} bytes (${this.expected * this.recordBytes} bytes) as the .cfg says; the data has ${total} bytes`,
+				);
+			} else
+				notes.push({
+					code: 'comtrade-trailing-bytes',
+					severity: 'warning',
+					message: `The data ends with ${this.carry.length} byte(s) that do not make a whole record; they are ignored.`,
+				});
 		}
 		if (this.records < this.expected) {
-			if (this.ascii) throw new ImportError(this.datSource, this.linesDone + 1, 0, 'dat-too-short', '', `${this.expected} records as the .cfg says (rates ending at sample ${this.expected}); the file ends after ${this.linesDone}`);
-			throw new ImportError(this.datSource, 0, this.byteBase + this.bytesDone + 1, 'dat-too-short', '', `${this.expected} records of ${this.recordBytes} bytes (${this.expected * this.recordBytes} bytes) as the .cfg says; the data has ${this.bytesDone} bytes`);
+			if (this.ascii)
+				throw new ImportError(
+					this.datSource,
+					this.linesDone + 1,
+					0,
+					'dat-too-short',
+					'',
+					`${this.expected} records as the .cfg says (rates ending at sample ${this.expected}); the file ends after ${this.linesDone}`,
+				);
+			throw new ImportError(
+				this.datSource,
+				0,
+				this.byteBase + this.bytesDone + 1,
+				'dat-too-short',
+				'',
+				`${this.expected} records of ${this.recordBytes} bytes (${this.expected * this.recordBytes} bytes) as the .cfg says; the data has ${this.bytesDone} bytes`,
+			);
 		}
 		if (this.records === 0) throw new ImportError(this.datSource, 1, 0, 'no-data', '', 'at least one data record');
-		if (this.extra > 0) notes.push({ code: 'comtrade-extra-records', severity: 'warning', message: `The data holds ${this.extra} record(s) past the ${this.records} the .cfg declares; they are ignored.` });
-		if (this.breaks > 0) notes.push({ code: 'comtrade-sample-number-break', severity: 'warning', message: `Sample numbers do not run on by one from record ${this.firstBreak} of ${this.datSource}, ${this.breaks} place(s) in all: records may be missing; times follow the sample rate.` });
+		if (this.extra > 0)
+			notes.push({
+				code: 'comtrade-extra-records',
+				severity: 'warning',
+				message: `The data holds ${this.extra} record(s) past the ${this.records} the .cfg declares; they are ignored.`,
+			});
+		if (this.breaks > 0)
+			notes.push({
+				code: 'comtrade-sample-number-break',
+				severity: 'warning',
+				message: `Sample numbers do not run on by one from record ${this.firstBreak} of ${this.datSource}, ${this.breaks} place(s) in all: records may be missing; times follow the sample rate.`,
+			});
 		this.missing.forEach((m, c) => {
-			if (m > 0) notes.push({ code: 'comtrade-missing-values', severity: 'warning', line: this.cfg.analog[c].line, message: `Channel ${this.names[c]}: ${m} of ${this.records} values are marked missing in the data; they are NaN.` });
+			if (m > 0)
+				notes.push({
+					code: 'comtrade-missing-values',
+					severity: 'warning',
+					line: this.cfg.analog[c].line,
+					message: `Channel ${this.names[c]}: ${m} of ${this.records} values are marked missing in the data; they are NaN.`,
+				});
 		});
 		return notes;
 	}
@@ -136,7 +213,10 @@ export class ComtradeSampleStream {
 	/** Reads whole records, scales them and hands them on. */
 	private read(bytes: Uint8Array): void {
 		if (!this.checked) this.checkType(bytes);
-		const dat = readComtradeDat(this.cfg, bytes, this.datSource, undefined, { line: this.linesDone, byte: this.byteBase + this.bytesDone });
+		const dat = readComtradeDat(this.cfg, bytes, this.datSource, undefined, {
+			line: this.linesDone,
+			byte: this.byteBase + this.bytesDone,
+		});
 		this.linesDone += this.ascii ? dat.records : 0;
 		this.bytesDone += bytes.length;
 		const take = Math.max(0, Math.min(dat.records, this.expected - this.records));

@@ -11,21 +11,42 @@ import { secondsPerUnit } from './time-column.js';
 import { timeBaseFromColumn, type TimeBase } from './timebase.js';
 import type { CsvLayout, CsvOptions } from './types.js';
 
-export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: string, options: CsvOptions, extra: Diagnostic[]): Capture {
+export function assembleCapture(
+	layout: CsvLayout,
+	scanner: RowScanner,
+	source: string,
+	options: CsvOptions,
+	extra: Diagnostic[],
+): Capture {
 	const cols = scanner.result();
 	const n = scanner.rows;
 	const diagnostics: Diagnostic[] = [...extra, ...layout.diagnostics];
 	if (n === 0) throw new ImportError(source, layout.bodyLine, 0, 'no-data', '', 'at least one row of numbers');
 	if (scanner.blankLines > 0)
-		diagnostics.push({ code: 'blank-lines', severity: 'info', line: scanner.firstBlankLine, message: `${scanner.blankLines} blank line(s) among the data were skipped, the first at line ${scanner.firstBlankLine}.` });
+		diagnostics.push({
+			code: 'blank-lines',
+			severity: 'info',
+			line: scanner.firstBlankLine,
+			message: `${scanner.blankLines} blank line(s) among the data were skipped, the first at line ${scanner.firstBlankLine}.`,
+		});
 	if (scanner.nonFinite > 0)
-		diagnostics.push({ code: 'non-finite-values', severity: 'warning', line: scanner.firstNonFiniteLine, message: `${scanner.nonFinite} cell(s) hold NaN or Infinity, the first at line ${scanner.firstNonFiniteLine}; they are kept as such.` });
+		diagnostics.push({
+			code: 'non-finite-values',
+			severity: 'warning',
+			line: scanner.firstNonFiniteLine,
+			message: `${scanner.nonFinite} cell(s) hold NaN or Infinity, the first at line ${scanner.firstNonFiniteLine}; they are kept as such.`,
+		});
 
 	let tb: TimeBase;
 	const stated = layout.statedSampleRateHz;
 	if (layout.timeColumn !== null) {
 		const t = cols[layout.timeColumn];
-		const f = layout.timeUnit === 'index' ? 1 / stated! : layout.timeUnit === 'clock' ? 1 : secondsPerUnit(layout.timeUnit as 's');
+		const f =
+			layout.timeUnit === 'index'
+				? 1 / stated!
+				: layout.timeUnit === 'clock'
+					? 1
+					: secondsPerUnit(layout.timeUnit as 's');
 		if (f !== 1) for (let i = 0; i < n; i++) t[i] *= f;
 		if (layout.timeUnit === 'clock') {
 			// times from the first stamp; the stamp itself becomes the wall-clock start
@@ -48,13 +69,24 @@ export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: 
 			firstRepeatLine: scanner.firstRepeatLine,
 		});
 		if (!(tb.sampleRateHz > 0))
-			throw new ImportError(source, layout.bodyLine, layout.timeColumn + 1, 'no-time-base', '', 'at least two rows with different times, or a stated sample rate');
+			throw new ImportError(
+				source,
+				layout.bodyLine,
+				layout.timeColumn + 1,
+				'no-time-base',
+				'',
+				'at least two rows with different times, or a stated sample rate',
+			);
 	} else {
 		tb = { sampleRateHz: stated!, startS: 0, diagnostics: [] };
 	}
 	diagnostics.push(...tb.diagnostics);
 	if (layout.decimation && !diagnostics.some((d) => d.code === 'decimated'))
-		diagnostics.push({ code: 'decimated', severity: 'warning', message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.` });
+		diagnostics.push({
+			code: 'decimated',
+			severity: 'warning',
+			message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.`,
+		});
 
 	const plan = planCsvChannels(layout, options);
 	diagnostics.push(...plan.diagnostics);
@@ -66,8 +98,23 @@ export function assembleCapture(layout: CsvLayout, scanner: RowScanner, source: 
 		if (p.scaling) ch.scaling = p.scaling;
 		return ch;
 	});
-	if (channels.length === 0) throw new ImportError(source, layout.headerLine ?? layout.bodyLine, 0, 'no-data', '', 'at least one data column besides the time column');
-	const capture: Capture = { source, sampleRateHz: tb.sampleRateHz, startS: tb.startS, channels, metadata: layout.metadata, diagnostics };
+	if (channels.length === 0)
+		throw new ImportError(
+			source,
+			layout.headerLine ?? layout.bodyLine,
+			0,
+			'no-data',
+			'',
+			'at least one data column besides the time column',
+		);
+	const capture: Capture = {
+		source,
+		sampleRateHz: tb.sampleRateHz,
+		startS: tb.startS,
+		channels,
+		metadata: layout.metadata,
+		diagnostics,
+	};
 	if (tb.timeS) capture.timeS = tb.timeS;
 	if (layout.startTime) capture.startTime = layout.startTime;
 	if (layout.nominalFrequencyHz) capture.nominalFrequencyHz = layout.nominalFrequencyHz;
@@ -91,7 +138,10 @@ export interface CsvChannelPlan {
  * The channels of a detected layout (every column with the 'channel' role), unique names, and what was
  * said about them; needs no data, so a streaming reader knows its channels before the first row.
  */
-export function planCsvChannels(layout: CsvLayout, options: CsvOptions): { channels: CsvChannelPlan[]; diagnostics: Diagnostic[] } {
+export function planCsvChannels(
+	layout: CsvLayout,
+	options: CsvOptions,
+): { channels: CsvChannelPlan[]; diagnostics: Diagnostic[] } {
 	const diagnostics: Diagnostic[] = [];
 	const channels: CsvChannelPlan[] = [];
 	const seen = new Set<string>();
@@ -101,24 +151,48 @@ export function planCsvChannels(layout: CsvLayout, options: CsvOptions): { chann
 		diagnostics.push(...s.diagnostics);
 		let name = s.name;
 		for (let k = 2; seen.has(name); k++) name = `${s.name} (${k})`;
-		if (name !== s.name) diagnostics.push({ code: 'duplicate-name', severity: 'warning', column: col.index + 1, message: `Two columns are named "${s.name}"; column ${col.index + 1} was renamed "${name}".` });
+		if (name !== s.name)
+			diagnostics.push({
+				code: 'duplicate-name',
+				severity: 'warning',
+				column: col.index + 1,
+				message: `Two columns are named "${s.name}"; column ${col.index + 1} was renamed "${name}".`,
+			});
 		seen.add(name);
-		const p: CsvChannelPlan = { column: col.index, name, unit: s.unit, quantity: s.quantity, factor: s.factor, offset: s.offset };
+		const p: CsvChannelPlan = {
+			column: col.index,
+			name,
+			unit: s.unit,
+			quantity: s.quantity,
+			factor: s.factor,
+			offset: s.offset,
+		};
 		if (s.phase !== undefined) p.phase = s.phase;
 		if (s.description) p.scaling = { factor: s.factor, offset: s.offset, description: s.description };
 		channels.push(p);
 	}
 	const known = new Set(layout.columns.flatMap((col) => [col.name, col.header, `col${col.index + 1}`]));
 	for (const name of Object.keys(layout.preambleChannels))
-		if (!known.has(name)) diagnostics.push({ code: 'preamble-channel-unmatched', severity: 'warning', message: `The preamble gives settings for "${name}", which is not a column name; they were not applied.` });
+		if (!known.has(name))
+			diagnostics.push({
+				code: 'preamble-channel-unmatched',
+				severity: 'warning',
+				message: `The preamble gives settings for "${name}", which is not a column name; they were not applied.`,
+			});
 	for (const name of Object.keys(options.channels ?? {}))
-		if (!known.has(name)) diagnostics.push({ code: 'option-channel-unmatched', severity: 'warning', message: `Channel settings were given for "${name}", which is not a column name (names: ${layout.columns.map((col) => col.name).join(', ')}); they were not applied.` });
+		if (!known.has(name))
+			diagnostics.push({
+				code: 'option-channel-unmatched',
+				severity: 'warning',
+				message: `Channel settings were given for "${name}", which is not a column name (names: ${layout.columns.map((col) => col.name).join(', ')}); they were not applied.`,
+			});
 	return { channels, diagnostics };
 }
 
 /** Applies a channel's scaling to samples[0, n) in place. A pure power-of-ten division (mV, mA) divides, so 3.25 mA gives the double nearest 0.00325 A. */
 export function scaleCsvSamples(samples: Float64Array, n: number, p: Pick<CsvChannelPlan, 'factor' | 'offset'>): void {
 	const divisor = 1 / p.factor;
-	if (p.factor !== 1 && p.offset === 0 && Number.isInteger(divisor) && 1 / divisor === p.factor) for (let i = 0; i < n; i++) samples[i] /= divisor;
+	if (p.factor !== 1 && p.offset === 0 && Number.isInteger(divisor) && 1 / divisor === p.factor)
+		for (let i = 0; i < n; i++) samples[i] /= divisor;
 	else if (p.factor !== 1 || p.offset !== 0) for (let i = 0; i < n; i++) samples[i] = p.factor * samples[i] + p.offset;
 }

@@ -37,7 +37,8 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 	const s = channelSettings(col, layout, options);
 	const name = s.name ?? col.name;
 	const diagnostics: Diagnostic[] = [];
-	const say = (code: string, message: string, severity: Diagnostic['severity'] = 'info') => diagnostics.push({ code, message, severity, column: col.index + 1 });
+	const say = (code: string, message: string, severity: Diagnostic['severity'] = 'info') =>
+		diagnostics.push({ code, message, severity, column: col.index + 1 });
 	const unitText = s.unit ?? col.unitText;
 	const read = readUnit(unitText);
 	const steps: string[] = [];
@@ -48,7 +49,11 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 		offset = s.offset ?? 0;
 		steps.push(`raw x ${factor}${offset ? ` + ${offset}` : ''}`);
 	} else if (read?.kind === 'counts') {
-		say('raw-counts-unscaled', `Channel "${name}" holds raw counts and no scale was given; values are used as counts. Give the scale to convert them.`, 'warning');
+		say(
+			'raw-counts-unscaled',
+			`Channel "${name}" holds raw counts and no scale was given; values are used as counts. Give the scale to convert them.`,
+			'warning',
+		);
 	}
 	let unit = read && read.kind !== 'counts' ? read.unit : '';
 	let quantity: Quantity | null = s.quantity ?? null;
@@ -61,17 +66,33 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 		}
 		if (!quantity) {
 			quantity = read.kind;
-			if (s.clampMvPerA === undefined && s.shuntOhms === undefined) say('quantity-from-unit', `Channel "${name}" taken as a ${read.kind} from its unit ${unitText}.`);
+			if (s.clampMvPerA === undefined && s.shuntOhms === undefined)
+				say('quantity-from-unit', `Channel "${name}" taken as a ${read.kind} from its unit ${unitText}.`);
 		}
 	}
 	const fromName = quantityFromName(name);
-	if (quantity && fromName && fromName !== quantity && !s.quantity && s.clampMvPerA === undefined && s.shuntOhms === undefined)
-		say('name-unit-disagree', `Channel "${name}" reads as a ${fromName} by its name but is in ${unitText}; taken as a ${quantity}. If it is a clamp or shunt output, give a clamp ratio (mV/A) or shunt resistance.`, 'warning');
+	if (
+		quantity &&
+		fromName &&
+		fromName !== quantity &&
+		!s.quantity &&
+		s.clampMvPerA === undefined &&
+		s.shuntOhms === undefined
+	)
+		say(
+			'name-unit-disagree',
+			`Channel "${name}" reads as a ${fromName} by its name but is in ${unitText}; taken as a ${quantity}. If it is a clamp or shunt output, give a clamp ratio (mV/A) or shunt resistance.`,
+			'warning',
+		);
 	if (!quantity && fromName) {
 		quantity = fromName;
 		if (!unit || unit === '') {
 			unit = fromName === 'voltage' ? 'V' : 'A';
-			say('unit-assumed', `Channel "${name}" states no unit; taken as ${unit} because its name reads as a ${fromName}. Give the unit for ${name} to change this.`, 'assumption');
+			say(
+				'unit-assumed',
+				`Channel "${name}" states no unit; taken as ${unit} because its name reads as a ${fromName}. Give the unit for ${name} to change this.`,
+				'assumption',
+			);
 		} else say('quantity-from-name', `Channel "${name}" taken as a ${fromName} from its name.`);
 	}
 	const ratio = (r: number | undefined, what: string) => {
@@ -106,17 +127,31 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 	if (s.quantity) quantity = s.quantity;
 	if (!quantity) {
 		quantity = 'other';
-		say('quantity-unknown', `Channel "${name}" could not be told voltage or current from its unit ("${unitText}") or name; kept as 'other'. Give its quantity (voltage or current) to say which.`, 'assumption');
+		say(
+			'quantity-unknown',
+			`Channel "${name}" could not be told voltage or current from its unit ("${unitText}") or name; kept as 'other'. Give its quantity (voltage or current) to say which.`,
+			'assumption',
+		);
 	}
 	if (quantity === 'voltage' && unit === '') unit = 'V';
 	if (quantity === 'current' && unit === '') unit = 'A';
 	const given = { ...options.channels?.[`col${col.index + 1}`], ...options.channels?.[col.name] };
 	if (Object.keys(given).length > 0) {
-		const said = [...(given.name !== undefined ? [`named ${given.name}`] : []), ...settingsChain(given).steps].join(', ');
-		say('channel-from-user', `Channel "${name}": ${said} (set by the user); now in ${unit || 'no unit'}, measures ${quantity}.`);
+		const said = [...(given.name !== undefined ? [`named ${given.name}`] : []), ...settingsChain(given).steps].join(
+			', ',
+		);
+		say(
+			'channel-from-user',
+			`Channel "${name}": ${said} (set by the user); now in ${unit || 'no unit'}, measures ${quantity}.`,
+		);
 	}
 	const phase = channelPhase(name);
 	const mm = minMaxOf(name);
-	if (mm) say('min-max-column', `Channel "${name}" holds the ${mm.which}imum of "${mm.base}" per time step (a peak-detect export), not single samples.`, 'warning');
+	if (mm)
+		say(
+			'min-max-column',
+			`Channel "${name}" holds the ${mm.which}imum of "${mm.base}" per time step (a peak-detect export), not single samples.`,
+			'warning',
+		);
 	return { name, unit, quantity, phase, factor, offset, description: steps.join(', '), diagnostics };
 }

@@ -5,7 +5,8 @@
  * Zone suffixes are accepted and ignored: stamps in one file share one zone.
  */
 
-const CLOCK = /^(?:(?:(\d{4})[-/.](\d{1,2})[-/.](\d{1,2})|(\d{1,2})[./](\d{1,2})[./](\d{4}))[T ]+)?(\d{1,2}):(\d{2}):(\d{2})(?:[.,](\d{1,9}))?\s*(?:Z|[+-]\d{2}:?\d{2})?$/;
+const CLOCK =
+	/^(?:(?:(\d{4})[-/.](\d{1,2})[-/.](\d{1,2})|(\d{1,2})[./](\d{1,2})[./](\d{4}))[T ]+)?(\d{1,2}):(\d{2}):(\d{2})(?:[.,](\d{1,9}))?\s*(?:Z|[+-]\d{2}:?\d{2})?$/;
 
 /** True for a cell that is a time of day (optionally with a date). */
 export function isClockCell(cell: string): boolean {

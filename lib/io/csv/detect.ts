@@ -17,7 +17,14 @@ type Delimiter = CsvLayout['delimiter'];
 type Mark = CsvLayout['decimalMark'];
 
 const CANDIDATES: [Delimiter, Mark][] = [
-	[',', '.'], [';', '.'], [';', ','], ['\t', '.'], ['\t', ','], [' ', '.'], [' ', ','], [',', ','],
+	[',', '.'],
+	[';', '.'],
+	[';', ','],
+	['\t', '.'],
+	['\t', ','],
+	[' ', '.'],
+	[' ', ','],
+	[',', ','],
 ];
 const NAMES: Record<Delimiter, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', ' ': 'spaces' };
 const MAX_LINES = 2000;
@@ -35,16 +42,23 @@ const MAX_LINES = 2000;
  *         decimal mark set in the options cannot read (when the file reads as numbers without it)
  * @example detectCsvLayout('Time (ms);U1 (V)\r\n0,0;0,707\r\n0,1;-3,25\r\n').decimalMark // ','
  */
-export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFile = false, source = '<input>'): CsvLayout {
+export function detectCsvLayout(
+	head: string,
+	options: CsvOptions = {},
+	wholeFile = false,
+	source = '<input>',
+): CsvLayout {
 	checkOptions(options, source);
 	const diagnostics: Diagnostic[] = [];
 	const bom = head.charCodeAt(0) === 0xfeff;
 	const text = bom ? head.slice(1) : head;
-	if (text.trim() === '') throw new ImportError(source, 1, 0, 'empty-file', '', 'rows of numbers (the file holds no text)');
+	if (text.trim() === '')
+		throw new ImportError(source, 1, 0, 'empty-file', '', 'rows of numbers (the file holds no text)');
 	const crlf = count(text, '\r\n');
 	const lf = count(text, '\n') - crlf;
 	const cr = count(text, '\r') - crlf;
-	const lineBreak: CsvLayout['lineBreak'] = cr > 0 && lf === 0 && crlf === 0 ? '\r' : crlf > 0 && crlf >= lf ? '\r\n' : '\n';
+	const lineBreak: CsvLayout['lineBreak'] =
+		cr > 0 && lf === 0 && crlf === 0 ? '\r' : crlf > 0 && crlf >= lf ? '\r\n' : '\n';
 	const eol = lineBreak === '\r' ? '\r' : '\n';
 	let lines = text.split(eol, MAX_LINES + 1);
 	const complete = wholeFile && lines.length <= MAX_LINES;
@@ -52,7 +66,10 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 	if (lines.length > 0 && lines[lines.length - 1] === '' && text.endsWith(eol)) lines.pop();
 	lines = lines.map((l) => (l.endsWith('\r') ? l.slice(0, -1) : l));
 	if (bom) diagnostics.push(info('utf8-bom', 'The file starts with a UTF-8 byte order mark; it was skipped.'));
-	if (lineBreak !== '\n') diagnostics.push(info('line-break', `Lines end with ${lineBreak === '\r\n' ? 'CR LF (Windows)' : 'CR alone (old Mac)'}.`));
+	if (lineBreak !== '\n')
+		diagnostics.push(
+			info('line-break', `Lines end with ${lineBreak === '\r\n' ? 'CR LF (Windows)' : 'CR alone (old Mac)'}.`),
+		);
 
 	// Delimiter and decimal mark, scored together on the rows that are all numbers.
 	type Reading = { d: Delimiter; mark: Mark; k: number; rows: number; hits: number; header: number | null };
@@ -72,16 +89,31 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		// a decimal mark or delimiter that was set but does not fit: name the first cell it cannot read
 		if (options.decimalMark !== undefined || options.delimiter !== undefined) forcedMismatch(lines, options, source);
 		const lastIdx = lastNonBlank(lines);
-		throw new ImportError(source, lastIdx + 1, 0, 'no-data', lines[lastIdx] ?? '', 'rows of numbers separated by commas, semicolons, tabs or spaces');
+		throw new ImportError(
+			source,
+			lastIdx + 1,
+			0,
+			'no-data',
+			lines[lastIdx] ?? '',
+			'rows of numbers separated by commas, semicolons, tabs or spaces',
+		);
 	}
 	// Commas as column separators and as decimal commas can both fit (`20,412`): said as an assumption.
-	const rival = readings.find((r) => r !== best && r.rows === best!.rows && r.k !== best!.k && (r.d === ',') !== (best!.d === ',') && (r.mark === ',' || best!.mark === ','));
+	const rival = readings.find(
+		(r) =>
+			r !== best &&
+			r.rows === best!.rows &&
+			r.k !== best!.k &&
+			(r.d === ',') !== (best!.d === ',') &&
+			(r.mark === ',' || best!.mark === ','),
+	);
 	if (rival) {
 		const commaMark = best.mark === ',' && best.d !== ',';
 		const cols = (k: number) => `${k} column${k === 1 ? '' : 's'}`;
-		const why = best.header === best.k && rival.header !== rival.k
-			? `because the header has ${cols(best.k)}`
-			: `because nothing above the numbers tells the two readings apart (${cols(best.k)} taken rather than ${cols(rival.k)})`;
+		const why =
+			best.header === best.k && rival.header !== rival.k
+				? `because the header has ${cols(best.k)}`
+				: `because nothing above the numbers tells the two readings apart (${cols(best.k)} taken rather than ${cols(rival.k)})`;
 		diagnostics.push({
 			code: 'comma-ambiguous',
 			severity: 'assumption',
@@ -96,9 +128,23 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		const { cells } = trimTrailingEmpty(split(lines[i]));
 		return cells.length === columnCount && isDataRow(cells, (c) => isNumberCell(c, decimalMark));
 	};
-	diagnostics.push(info('delimiter', columnCount === 1 && !options.delimiter ? 'The rows hold one column (no column separator).' : `Columns are separated by ${NAMES[delimiter]}${options.delimiter ? ' (as set)' : ''}.`));
+	diagnostics.push(
+		info(
+			'delimiter',
+			columnCount === 1 && !options.delimiter
+				? 'The rows hold one column (no column separator).'
+				: `Columns are separated by ${NAMES[delimiter]}${options.delimiter ? ' (as set)' : ''}.`,
+		),
+	);
 	const sawComma = decimalMark === ',' && lines.some((l) => /\d,\d/.test(l));
-	diagnostics.push(info(decimalMark === ',' ? 'decimal-comma' : 'decimal-point', decimalMark === ',' ? `Numbers use a decimal comma (0,5 = one half)${sawComma ? '' : ' as set'}.` : 'Numbers use a decimal point.'));
+	diagnostics.push(
+		info(
+			decimalMark === ',' ? 'decimal-comma' : 'decimal-point',
+			decimalMark === ','
+				? `Numbers use a decimal comma (0,5 = one half)${sawComma ? '' : ' as set'}.`
+				: 'Numbers use a decimal point.',
+		),
+	);
 
 	// Header, units row and the first data row.
 	let headerIdx: number | null = null;
@@ -106,22 +152,41 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 	let bodyIdx: number;
 	if (typeof options.headerRow === 'number') {
 		if (!Number.isInteger(options.headerRow) || options.headerRow < 1 || options.headerRow > lines.length)
-			throw new ImportError(source, 0, 0, 'bad-option', String(options.headerRow), `a header line between 1 and ${lines.length}`);
+			throw new ImportError(
+				source,
+				0,
+				0,
+				'bad-option',
+				String(options.headerRow),
+				`a header line between 1 and ${lines.length}`,
+			);
 		headerIdx = options.headerRow - 1;
 		if (options.unitsRow === true) unitsIdx = headerIdx + 1;
 		const from = (unitsIdx ?? headerIdx) + 1;
 		bodyIdx = firstIndex(lines.length, from, numericRow);
-		if (options.unitsRow === undefined && bodyIdx === headerIdx + 2 && looksLikeUnitsRow(split(lines[headerIdx + 1]))) unitsIdx = headerIdx + 1;
+		if (options.unitsRow === undefined && bodyIdx === headerIdx + 2 && looksLikeUnitsRow(split(lines[headerIdx + 1])))
+			unitsIdx = headerIdx + 1;
 	} else {
-		bodyIdx = firstIndex(lines.length, 0, (i) => numericRow(i) && (i + 1 >= lines.length || numericRow(i + 1) || lines[i + 1].trim() === ''));
+		bodyIdx = firstIndex(
+			lines.length,
+			0,
+			(i) => numericRow(i) && (i + 1 >= lines.length || numericRow(i + 1) || lines[i + 1].trim() === ''),
+		);
 		if (bodyIdx < 0) bodyIdx = firstIndex(lines.length, 0, numericRow);
 		// Rows just above that are shaped like data (a number first, or right under a header) but hold a bad
 		// cell belong to the data, so the scanner reports them instead of the preamble swallowing them.
-		for (let above = previousNonBlank(lines, bodyIdx); above >= 0 && bodyIdx > 0; above = previousNonBlank(lines, bodyIdx)) {
+		for (
+			let above = previousNonBlank(lines, bodyIdx);
+			above >= 0 && bodyIdx > 0;
+			above = previousNonBlank(lines, bodyIdx)
+		) {
 			const cells = trimTrailingEmpty(split(lines[above])).cells;
 			if (cells.length === 0 || isTextRow(cells, columnCount, decimalMark)) break;
 			const numberFirst = isNumberCell(cells[0], decimalMark) || isClockCell(cells[0]) || isDateCell(cells[0]);
-			const underHeader = previousNonBlank(lines, above) >= 0 && isTextRow(split(lines[previousNonBlank(lines, above)]), columnCount, decimalMark) && cells.length === columnCount;
+			const underHeader =
+				previousNonBlank(lines, above) >= 0 &&
+				isTextRow(split(lines[previousNonBlank(lines, above)]), columnCount, decimalMark) &&
+				cells.length === columnCount;
 			if (!(numberFirst && cells.length >= columnCount - 1) && !underHeader) break;
 			bodyIdx = above;
 		}
@@ -131,7 +196,12 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 				headerIdx = above;
 				const above2 = previousNonBlank(lines, above);
 				const unitsLike = looksLikeUnitsRow(split(lines[above]));
-				if (options.unitsRow !== false && above2 >= 0 && (options.unitsRow === true || unitsLike) && isTextRow(split(lines[above2]), columnCount, decimalMark)) {
+				if (
+					options.unitsRow !== false &&
+					above2 >= 0 &&
+					(options.unitsRow === true || unitsLike) &&
+					isTextRow(split(lines[above2]), columnCount, decimalMark)
+				) {
 					unitsIdx = above;
 					headerIdx = above2;
 				}
@@ -144,14 +214,30 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		// preamble line, but said: the names may belong to the data under another delimiter
 		const above = previousNonBlank(lines, bodyIdx);
 		const cells = above >= 0 ? trimTrailingEmpty(split(lines[above])).cells : [];
-		if (cells.length > 1 && cells.length !== columnCount && !/[:=]/.test(lines[above]) && cells.every((c) => c.trim() !== '' && !isNumberCell(c, decimalMark) && /[A-Za-z]/.test(c)))
-			diagnostics.push({ code: 'header-like-preamble', severity: 'warning', line: above + 1, message: `Line ${above + 1} looks like a header of ${cells.length} names, but the data rows have ${columnCount} column(s); it was kept as a preamble line. Give the header line, the delimiter or the decimal mark if this is wrong.` });
+		if (
+			cells.length > 1 &&
+			cells.length !== columnCount &&
+			!/[:=]/.test(lines[above]) &&
+			cells.every((c) => c.trim() !== '' && !isNumberCell(c, decimalMark) && /[A-Za-z]/.test(c))
+		)
+			diagnostics.push({
+				code: 'header-like-preamble',
+				severity: 'warning',
+				line: above + 1,
+				message: `Line ${above + 1} looks like a header of ${cells.length} names, but the data rows have ${columnCount} column(s); it was kept as a preamble line. Give the header line, the delimiter or the decimal mark if this is wrong.`,
+			});
 	}
 	const preambleEnd = headerIdx ?? bodyIdx;
 	const facts = readPreamble(lines.slice(0, preambleEnd), 1, split, delimiter, decimalMark);
 	diagnostics.push(...facts.diagnostics);
 	if (Object.keys(facts.metadata).length > 0)
-		diagnostics.push(info('preamble', `Lines 1-${preambleEnd} are a preamble of ${Object.keys(facts.metadata).length} entries, kept as metadata.`, 1));
+		diagnostics.push(
+			info(
+				'preamble',
+				`Lines 1-${preambleEnd} are a preamble of ${Object.keys(facts.metadata).length} entries, kept as metadata.`,
+				1,
+			),
+		);
 
 	// Columns: names and units from the header (and units row), trailing empty columns.
 	// a header may be written as a comment: '# t, U1, U2'
@@ -170,7 +256,12 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 	if (headerIdx !== null && lines[headerIdx].includes('"')) quoted = true;
 	if (quoted) diagnostics.push(info('quoted-fields', 'Some fields are in double quotes; the quotes were removed.'));
 	if (trailingEmptyColumns > 0)
-		diagnostics.push(info('trailing-empty-columns', `Data rows end with ${trailingEmptyColumns} empty column(s) (a delimiter at line end); ignored.`));
+		diagnostics.push(
+			info(
+				'trailing-empty-columns',
+				`Data rows end with ${trailingEmptyColumns} empty column(s) (a delimiter at line end); ignored.`,
+			),
+		);
 	const columns: CsvColumnLayout[] = [];
 	for (let c = 0; c < columnCount; c++) {
 		const header = (headerCells[c] ?? '').trim();
@@ -179,19 +270,45 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 		columns.push({ index: c, header, name: nu.name, unitText, role: 'channel' });
 	}
 	if (headerIdx !== null) {
-		diagnostics.push(info('header', `Line ${headerIdx + 1} holds the channel names${unitsIdx !== null ? `, line ${unitsIdx + 1} their units` : ''}.`, headerIdx + 1));
+		diagnostics.push(
+			info(
+				'header',
+				`Line ${headerIdx + 1} holds the channel names${unitsIdx !== null ? `, line ${unitsIdx + 1} their units` : ''}.`,
+				headerIdx + 1,
+			),
+		);
 		const extra = trimTrailingEmpty(headerCells).cells.length - columnCount;
-		if (extra > 0) diagnostics.push({ code: 'header-longer', severity: 'warning', line: headerIdx + 1, message: `The header names ${extra} more column(s) than the data rows hold; those names were ignored.` });
+		if (extra > 0)
+			diagnostics.push({
+				code: 'header-longer',
+				severity: 'warning',
+				line: headerIdx + 1,
+				message: `The header names ${extra} more column(s) than the data rows hold; those names were ignored.`,
+			});
 	} else {
-		diagnostics.push({ code: 'no-header', severity: 'assumption', line: bodyIdx + 1, message: `No header line: columns are named col1..col${columnCount}.` });
+		diagnostics.push({
+			code: 'no-header',
+			severity: 'assumption',
+			line: bodyIdx + 1,
+			message: `No header line: columns are named col1..col${columnCount}.`,
+		});
 	}
 	const layout: CsvLayout = {
-		delimiter, decimalMark, lineBreak, bom, quoted,
+		delimiter,
+		decimalMark,
+		lineBreak,
+		bom,
+		quoted,
 		headerLine: headerIdx === null ? null : headerIdx + 1,
 		unitsLine: unitsIdx === null ? null : unitsIdx + 1,
 		bodyLine: bodyIdx + 1,
-		columnCount, trailingEmptyColumns, columns,
-		timeColumn: null, timeUnit: null, timeResolution: null, clockFields: 1,
+		columnCount,
+		trailingEmptyColumns,
+		columns,
+		timeColumn: null,
+		timeUnit: null,
+		timeResolution: null,
+		clockFields: 1,
 		metadata: facts.metadata,
 		statedSampleRateHz: options.sampleRateHz ?? facts.sampleRateHz,
 		startTime: facts.startTime,
@@ -210,7 +327,11 @@ export function detectCsvLayout(head: string, options: CsvOptions = {}, wholeFil
 }
 
 /** How the head reads with delimiter `d` and decimal mark `mark`: the usual width of all-number rows. */
-function readAs(lines: string[], d: Delimiter, mark: Mark): { d: Delimiter; mark: Mark; k: number; rows: number; hits: number; header: number | null } {
+function readAs(
+	lines: string[],
+	d: Delimiter,
+	mark: Mark,
+): { d: Delimiter; mark: Mark; k: number; rows: number; hits: number; header: number | null } {
 	const widths = new Map<number, number>();
 	const firstOf = new Map<number, number>();
 	lines.forEach((line, i) => {
@@ -232,13 +353,21 @@ function readAs(lines: string[], d: Delimiter, mark: Mark): { d: Delimiter; mark
 		const cells = trimTrailingEmpty(splitCells(lines[above].replace(/^\s*(#+|\/\/|%)\s*/, ''), d)).cells;
 		// a names line with commas in it is no evidence for a reading that does not split at commas
 		const commaInNames = d !== ',' && /[A-Za-z0-9)\]]\s*,\s*[A-Za-z([]/.test(lines[above]);
-		if (!commaInNames && cells.length > 0 && cells.every((c) => c.trim() === '' || (!isNumberCell(c, mark) && !isClockCell(c) && !isDateCell(c)))) header = cells.length;
+		if (
+			!commaInNames &&
+			cells.length > 0 &&
+			cells.every((c) => c.trim() === '' || (!isNumberCell(c, mark) && !isClockCell(c) && !isDateCell(c)))
+		)
+			header = cells.length;
 	}
 	return { d, mark, k, rows, hits, header };
 }
 
 /** Tie-break between two readings with as many rows of numbers. */
-function better(r: { k: number; hits: number; header: number | null }, best: { k: number; hits: number; header: number | null }): boolean {
+function better(
+	r: { k: number; hits: number; header: number | null },
+	best: { k: number; hits: number; header: number | null },
+): boolean {
 	const fits = r.header === r.k;
 	const bestFits = best.header === best.k;
 	if (fits !== bestFits) return fits;
@@ -271,9 +400,10 @@ function forcedMismatch(lines: string[], options: CsvOptions, source: string): v
 			if (!isNumberCell(cell, mark) && !isClockCell(cell) && !isDateCell(cell)) {
 				const lead = cell.length - cell.trimStart().length;
 				const column = (lines[i].includes('"') ? lines[i].indexOf(cell.trim(), at) : at + lead) + 1;
-				const expected = options.decimalMark !== undefined && free.mark !== mark
-					? `a number with a decimal ${mark === '.' ? 'point' : 'comma'} (the decimal mark was set to "${mark}")`
-					: `a number (the delimiter was set to ${NAMES[d]})`;
+				const expected =
+					options.decimalMark !== undefined && free.mark !== mark
+						? `a number with a decimal ${mark === '.' ? 'point' : 'comma'} (the decimal mark was set to "${mark}")`
+						: `a number (the delimiter was set to ${NAMES[d]})`;
 				throw new ImportError(source, i + 1, Math.max(1, column), 'bad-number', cell.trim(), expected);
 			}
 			at += cell.length + 1;
@@ -326,14 +456,17 @@ function checkOptions(o: CsvOptions, source: string): void {
 	const bad = (what: string, value: unknown, expected: string) => {
 		throw new ImportError(source, 0, 0, 'bad-option', `${what} = ${String(value)}`, expected);
 	};
-	if (o.sampleRateHz !== undefined && !(Number.isFinite(o.sampleRateHz) && o.sampleRateHz > 0)) bad('sampleRateHz', o.sampleRateHz, 'a sample rate in Hz above 0');
-	if (o.jitterTolerance !== undefined && !(o.jitterTolerance >= 0 && o.jitterTolerance < 1e6)) bad('jitterTolerance', o.jitterTolerance, 'a fraction of a sample interval, 0 or more');
+	if (o.sampleRateHz !== undefined && !(Number.isFinite(o.sampleRateHz) && o.sampleRateHz > 0))
+		bad('sampleRateHz', o.sampleRateHz, 'a sample rate in Hz above 0');
+	if (o.jitterTolerance !== undefined && !(o.jitterTolerance >= 0 && o.jitterTolerance < 1e6))
+		bad('jitterTolerance', o.jitterTolerance, 'a fraction of a sample interval, 0 or more');
 	for (const [name, ch] of Object.entries(o.channels ?? {})) {
 		for (const key of ['scale', 'offset', 'probeRatio', 'ctRatio', 'vtRatio', 'clampMvPerA', 'shuntOhms'] as const) {
 			const v = ch[key];
 			if (v === undefined) continue;
 			const positive = key !== 'offset' && key !== 'scale';
-			if (!Number.isFinite(v) || (positive && v <= 0) || (key === 'scale' && v === 0)) bad(`channels.${name}.${key}`, v, positive ? 'a finite number above 0' : 'a finite number (scale not 0)');
+			if (!Number.isFinite(v) || (positive && v <= 0) || (key === 'scale' && v === 0))
+				bad(`channels.${name}.${key}`, v, positive ? 'a finite number above 0' : 'a finite number (scale not 0)');
 		}
 	}
 }

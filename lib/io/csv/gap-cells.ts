@@ -83,9 +83,18 @@ export function scanWithGaps(scanner: RowScanner, buf: Uint8Array, start: number
 			const raw = new TextDecoder().decode(buf.subarray(lineStart, lineEnd));
 			const cr = raw.endsWith('\r');
 			const cells = cellsOf(cr ? raw.slice(0, -1) : raw, ctx.delimiter);
-			const bad = cells.map((c, k) => (!ctx.timeColumns.includes(k) && !readsAsNumber(c.text, ctx.decimalMark) ? k : -1)).filter((k) => k >= 0);
-			if (bad.length === 0 || cells.some((c, k) => ctx.timeColumns.includes(k) && !readsAsNumber(c.text, ctx.decimalMark))) throw e;
-			const patched = cells.map((c, k) => (bad.includes(k) ? 'NaN' : c.text)).join(ctx.delimiter) + (cr ? '\r' : '') + String.fromCharCode(ctx.eol);
+			const bad = cells
+				.map((c, k) => (!ctx.timeColumns.includes(k) && !readsAsNumber(c.text, ctx.decimalMark) ? k : -1))
+				.filter((k) => k >= 0);
+			if (
+				bad.length === 0 ||
+				cells.some((c, k) => ctx.timeColumns.includes(k) && !readsAsNumber(c.text, ctx.decimalMark))
+			)
+				throw e;
+			const patched =
+				cells.map((c, k) => (bad.includes(k) ? 'NaN' : c.text)).join(ctx.delimiter) +
+				(cr ? '\r' : '') +
+				String.fromCharCode(ctx.eol);
 			const before = { nonFinite: scanner.nonFinite, first: scanner.firstNonFiniteLine };
 			const row = scanner.rows;
 			scanner.failedLineStart = -1;
@@ -94,7 +103,14 @@ export function scanWithGaps(scanner: RowScanner, buf: Uint8Array, start: number
 			scanner.nonFinite -= bad.length;
 			if (scanner.nonFinite === before.nonFinite) scanner.firstNonFiniteLine = before.first;
 			for (const k of bad) {
-				if (ctx.count++ < GAP_CELLS_LISTED) ctx.gaps.push({ line: e.line, column: cells[k].column, tableColumn: k, row, text: cells[k].text.trim().slice(0, 40) });
+				if (ctx.count++ < GAP_CELLS_LISTED)
+					ctx.gaps.push({
+						line: e.line,
+						column: cells[k].column,
+						tableColumn: k,
+						row,
+						text: cells[k].text.trim().slice(0, 40),
+					});
 			}
 			p = lineEnd + 1;
 		}
@@ -103,7 +119,9 @@ export function scanWithGaps(scanner: RowScanner, buf: Uint8Array, start: number
 
 /** The diagnostic listing the gap cells (the first few by line and column). */
 export function gapDiagnostic(ctx: GapContext, nameOf: (tableColumn: number) => string): Diagnostic {
-	const first = ctx.gaps.slice(0, 5).map((g) => `line ${g.line}, column ${g.column} ("${g.text}", ${nameOf(g.tableColumn)})`);
+	const first = ctx.gaps
+		.slice(0, 5)
+		.map((g) => `line ${g.line}, column ${g.column} ("${g.text}", ${nameOf(g.tableColumn)})`);
 	const more = ctx.count > first.length ? ` and ${ctx.count - first.length} more` : '';
 	return {
 		code: 'unreadable-cells-as-gaps',

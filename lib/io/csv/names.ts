@@ -3,8 +3,10 @@
  * envelope. Voltage or current and the phase come from lib/channel-identity.ts, as in every importer.
  */
 
-const TIME_NAME = /^(t|time|times|zeit|temps|tiempo|tempo|timestamp|time ?stamp|elapsed|elapsed time|rel\.? ?time|relative time|x|sec|seconds|time ?\(.*\))$/i;
-const INDEX_NAME = /^(sample|samples|sample ?(no\.?|nr\.?|number|index|#)|index|idx|n|no\.?|nr\.?|#|point|pt|pts|record|rec)$/i;
+const TIME_NAME =
+	/^(t|time|times|zeit|temps|tiempo|tempo|timestamp|time ?stamp|elapsed|elapsed time|rel\.? ?time|relative time|x|sec|seconds|time ?\(.*\))$/i;
+const INDEX_NAME =
+	/^(sample|samples|sample ?(no\.?|nr\.?|number|index|#)|index|idx|n|no\.?|nr\.?|#|point|pt|pts|record|rec)$/i;
 
 /** True when the name denotes a time column. */
 export function isTimeName(name: string): boolean {

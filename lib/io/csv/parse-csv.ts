@@ -25,6 +25,7 @@ export function parseCsv(
 ): Capture {
 	const bytes = typeof input === 'string' ? new TextEncoder().encode(input) : input;
 	const reader = new CsvStreamReader(source, options, { totalBytes: bytes.length, onProgress });
-	for (let i = 0; i < bytes.length; i += CHUNK_BYTES) reader.push(bytes.subarray(i, Math.min(bytes.length, i + CHUNK_BYTES)));
+	for (let i = 0; i < bytes.length; i += CHUNK_BYTES)
+		reader.push(bytes.subarray(i, Math.min(bytes.length, i + CHUNK_BYTES)));
 	return reader.finish();
 }

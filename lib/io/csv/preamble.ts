@@ -30,16 +30,40 @@ export function readQuantity(text: string, decimalMark: '.' | ','): { value: num
 	return Number.isFinite(value) ? { value, unit: m[2].trim() } : null;
 }
 
-const RATE_UNIT: Record<string, number> = { hz: 1, khz: 1e3, mhz: 1e6, 's/s': 1, 'sa/s': 1, 'ks/s': 1e3, 'ksa/s': 1e3, 'ms/s': 1e6, 'msa/s': 1e6, sps: 1, ksps: 1e3, msps: 1e6, 'samples/s': 1 };
-const KEY_RATE = /^(sample|sampling|acquisition|scan)?[\s_-]*(rate|frequency|freq)$|^(fs|samplerate|sample_rate|srate)$/i;
-const KEY_INTERVAL = /^(sample|sampling)?[\s_-]*(interval|period|step|spacing)$|^(dt|delta[\s_-]?t|time[\s_-]?step|timestep|x[\s_-]?increment|xincrement|time[\s_-]?resolution|time[\s_-]?base|sample[\s_-]?time)$/i;
-const KEY_START = /^(start|start[\s_-]?time|starttime|start[\s_-]?date|trigger[\s_-]?time|date[\s_/-]?time|timestamp|recorded|record[\s_-]?start)$/i;
+const RATE_UNIT: Record<string, number> = {
+	hz: 1,
+	khz: 1e3,
+	mhz: 1e6,
+	's/s': 1,
+	'sa/s': 1,
+	'ks/s': 1e3,
+	'ksa/s': 1e3,
+	'ms/s': 1e6,
+	'msa/s': 1e6,
+	sps: 1,
+	ksps: 1e3,
+	msps: 1e6,
+	'samples/s': 1,
+};
+const KEY_RATE =
+	/^(sample|sampling|acquisition|scan)?[\s_-]*(rate|frequency|freq)$|^(fs|samplerate|sample_rate|srate)$/i;
+const KEY_INTERVAL =
+	/^(sample|sampling)?[\s_-]*(interval|period|step|spacing)$|^(dt|delta[\s_-]?t|time[\s_-]?step|timestep|x[\s_-]?increment|xincrement|time[\s_-]?resolution|time[\s_-]?base|sample[\s_-]?time)$/i;
+const KEY_START =
+	/^(start|start[\s_-]?time|starttime|start[\s_-]?date|trigger[\s_-]?time|date[\s_/-]?time|timestamp|recorded|record[\s_-]?start)$/i;
 const KEY_NOMINAL = /^(nominal|mains|line|system|network|grid)[\s_-]?(frequency|freq)$|^f[\s_-]?nom(inal)?$/i;
 const KEY_TIME_UNIT = /^(time|x|horizontal)[\s_-]?units?$/i;
-const KEY_CHANNEL = /^(?:(.+?)[\s_-]+)?(scale|gain|factor|multiplier|offset|unit|units|probe|probe[\s_-]?ratio|attenuation|ct[\s_-]?ratio|vt[\s_-]?ratio|pt[\s_-]?ratio|clamp|clamp[\s_-]?ratio|shunt)(?:[\s_-]+(.+))?$/i;
+const KEY_CHANNEL =
+	/^(?:(.+?)[\s_-]+)?(scale|gain|factor|multiplier|offset|unit|units|probe|probe[\s_-]?ratio|attenuation|ct[\s_-]?ratio|vt[\s_-]?ratio|pt[\s_-]?ratio|clamp|clamp[\s_-]?ratio|shunt)(?:[\s_-]+(.+))?$/i;
 
 /** Parses preamble lines (line numbers 1-based, first line = `firstLine`) split with `split`. */
-export function readPreamble(lines: string[], firstLine: number, split: (line: string) => string[], delimiter: string, decimalMark: '.' | ','): PreambleFacts {
+export function readPreamble(
+	lines: string[],
+	firstLine: number,
+	split: (line: string) => string[],
+	delimiter: string,
+	decimalMark: '.' | ',',
+): PreambleFacts {
 	const facts: PreambleFacts = { metadata: {}, channels: {}, all: {}, diagnostics: [] };
 	let date: string | undefined;
 	let time: string | undefined;
@@ -61,7 +85,10 @@ export function readPreamble(lines: string[], firstLine: number, split: (line: s
 			value = kv[2].trim();
 		} else if (cells.length >= 2 && cells[0] !== '') {
 			key = cells[0].replace(/\s*[:=]$/, '');
-			value = cells.slice(1).filter((c) => c !== '').join(' ');
+			value = cells
+				.slice(1)
+				.filter((c) => c !== '')
+				.join(' ');
 		} else {
 			facts.metadata[`line ${lineNo}`] = body;
 			return;
@@ -99,7 +126,10 @@ function readFact(facts: PreambleFacts, key: string, value: string, lineNo: numb
 		const u = readUnit(q.unit || 's');
 		if (u && u.kind === 'time') {
 			facts.sampleRateHz = 1 / (q.value * u.factor);
-			say('rate-in-preamble', `The preamble states a sample interval of ${q.value} ${q.unit || 's'} ("${key}"), i.e. ${Number(facts.sampleRateHz.toPrecision(9))} Hz.`);
+			say(
+				'rate-in-preamble',
+				`The preamble states a sample interval of ${q.value} ${q.unit || 's'} ("${key}"), i.e. ${Number(facts.sampleRateHz.toPrecision(9))} Hz.`,
+			);
 		}
 		return;
 	}
@@ -109,7 +139,8 @@ function readFact(facts: PreambleFacts, key: string, value: string, lineNo: numb
 	}
 	if (KEY_TIME_UNIT.test(k)) {
 		const u = readUnit(value);
-		if (u?.kind === 'time') facts.timeUnit = u.factor === 1 ? 's' : u.factor === 1e-3 ? 'ms' : u.factor === 1e-6 ? 'us' : 'ns';
+		if (u?.kind === 'time')
+			facts.timeUnit = u.factor === 1 ? 's' : u.factor === 1e-3 ? 'ms' : u.factor === 1e-6 ? 'us' : 'ns';
 		return;
 	}
 	if (/decimat|downsampl|reduction|every\s*n/i.test(k)) {
@@ -151,14 +182,29 @@ const SCOPE_PROBE = /^probe[\s_-]*(attenuation|ratio|factor|gain)?$|^attenuation
  * clamp and makes it a current); vertical scale and offset are screen settings, reported, not applied.
  * @returns true when the key was one of these (handled here)
  */
-function readScopeFact(facts: PreambleFacts, key: string, values: string[], lineNo: number, decimalMark: '.' | ','): boolean {
+function readScopeFact(
+	facts: PreambleFacts,
+	key: string,
+	values: string[],
+	lineNo: number,
+	decimalMark: '.' | ',',
+): boolean {
 	const k = key.trim();
-	const kind = SCOPE_UNIT.test(k) ? 'unit' : SCOPE_DISPLAY.test(k) ? 'display' : SCOPE_PROBE.test(k) ? 'probe' : undefined;
+	const kind = SCOPE_UNIT.test(k)
+		? 'unit'
+		: SCOPE_DISPLAY.test(k)
+			? 'display'
+			: SCOPE_PROBE.test(k)
+				? 'probe'
+				: undefined;
 	if (!kind) return false;
 	const cells = values.map((v) => v.trim()).filter((v) => v !== '');
-	const say = (message: string) => facts.diagnostics.push({ code: 'scope-preamble', message, severity: 'info', line: lineNo });
+	const say = (message: string) =>
+		facts.diagnostics.push({ code: 'scope-preamble', message, severity: 'info', line: lineNo });
 	if (kind === 'display') {
-		say(`The preamble's "${k}" (${cells.join(', ')}) is a screen setting; the values in the file are taken as written.`);
+		say(
+			`The preamble's "${k}" (${cells.join(', ')}) is a screen setting; the values in the file are taken as written.`,
+		);
 		return true;
 	}
 	cells.forEach((cell, j) => {
@@ -173,13 +219,17 @@ function readScopeFact(facts: PreambleFacts, key: string, values: string[], line
 		const q = readQuantity(cell.replace(/^x\s*|\s*x$/gi, ''), decimalMark);
 		if (q && /^m?v\/a$/i.test(q.unit)) {
 			target.clampMvPerA = /^v\/a$/i.test(q.unit) ? q.value * 1000 : q.value;
-			say(`The preamble states a clamp of ${target.clampMvPerA} mV/A for ${where} ("${k}"): the values are divided by it and the channel is a current in A.`);
+			say(
+				`The preamble states a clamp of ${target.clampMvPerA} mV/A for ${where} ("${k}"): the values are divided by it and the channel is a current in A.`,
+			);
 			return;
 		}
 		const ratio = readRatio(cell.replace(/\s*x$/i, ''), decimalMark);
 		if (ratio !== null && ratio > 0) {
 			target.probeRatio = ratio;
-			say(`The preamble states a probe attenuation of ${ratio} for ${where} ("${k}"): the values, read at the scope's input, are multiplied by ${ratio} and the channel is a voltage. If the scope already applied it, give probe ratio 1.`);
+			say(
+				`The preamble states a probe attenuation of ${ratio} for ${where} ("${k}"): the values, read at the scope's input, are multiplied by ${ratio} and the channel is a voltage. If the scope already applied it, give probe ratio 1.`,
+			);
 		}
 	});
 	return true;
@@ -201,7 +251,10 @@ function readRatio(value: string, decimalMark: '.' | ','): number | null {
 /** 'YYYY-MM-DD hh:mm:ss[.fff]', 'DD.MM.YYYY hh:mm:ss' or 'DD/MM/YYYY ...' -> ISO 8601 (local time), else undefined. */
 export function isoOf(text: string): string | undefined {
 	const t = text.trim();
-	let m = /^(\d{4})[-/.](\d{1,2})[-/.](\d{1,2})(?:[T\s]+(\d{1,2}):(\d{2})(?::(\d{2})([.,]\d+)?)?)?\s*(Z|[+-]\d{2}:?\d{2})?$/.exec(t);
+	let m =
+		/^(\d{4})[-/.](\d{1,2})[-/.](\d{1,2})(?:[T\s]+(\d{1,2}):(\d{2})(?::(\d{2})([.,]\d+)?)?)?\s*(Z|[+-]\d{2}:?\d{2})?$/.exec(
+			t,
+		);
 	if (!m) {
 		const d = /^(\d{1,2})[./](\d{1,2})[./](\d{4})(?:[T\s]+(\d{1,2}):(\d{2})(?::(\d{2})([.,]\d+)?)?)?$/.exec(t);
 		if (!d) return undefined;

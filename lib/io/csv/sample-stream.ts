@@ -96,11 +96,26 @@ export class CsvSampleStream {
 		if (!this.started) this.startStream();
 		const notes: Diagnostic[] = [...summary.diagnostics];
 		if (summary.blankLines > 0)
-			notes.push({ code: 'blank-lines', severity: 'info', line: summary.firstBlankLine, message: `${summary.blankLines} blank line(s) among the data were skipped, the first at line ${summary.firstBlankLine}.` });
+			notes.push({
+				code: 'blank-lines',
+				severity: 'info',
+				line: summary.firstBlankLine,
+				message: `${summary.blankLines} blank line(s) among the data were skipped, the first at line ${summary.firstBlankLine}.`,
+			});
 		if (summary.nonFinite > 0)
-			notes.push({ code: 'non-finite-values', severity: 'warning', line: summary.firstNonFiniteLine, message: `${summary.nonFinite} cell(s) hold NaN or Infinity, the first at line ${summary.firstNonFiniteLine}; they are kept as such.` });
+			notes.push({
+				code: 'non-finite-values',
+				severity: 'warning',
+				line: summary.firstNonFiniteLine,
+				message: `${summary.nonFinite} cell(s) hold NaN or Infinity, the first at line ${summary.firstNonFiniteLine}; they are kept as such.`,
+			});
 		if (summary.repeatedTimes > 0)
-			notes.push({ code: 'repeated-times', severity: 'warning', line: summary.firstRepeatLine, message: `${summary.repeatedTimes} row(s) repeat the previous time stamp, first at line ${summary.firstRepeatLine}; each row is taken as one sample.` });
+			notes.push({
+				code: 'repeated-times',
+				severity: 'warning',
+				line: summary.firstRepeatLine,
+				message: `${summary.repeatedTimes} row(s) repeat the previous time stamp, first at line ${summary.firstRepeatLine}; each row is taken as one sample.`,
+			});
 		if (this.check) notes.push(...this.check.finish(summary.blankLines === 0));
 		return notes;
 	}
@@ -110,15 +125,35 @@ export class CsvSampleStream {
 		const { channels, diagnostics } = planCsvChannels(layout, this.options);
 		const max = this.stream.maxChannels;
 		if (max !== undefined && channels.length > max) {
-			throw new ImportError(this.source, layout.headerLine ?? layout.bodyLine, 0, 'out-of-range', `${channels.length} data columns`, `at most ${max} channels in one recording (split the file into parts of fewer columns)`);
+			throw new ImportError(
+				this.source,
+				layout.headerLine ?? layout.bodyLine,
+				0,
+				'out-of-range',
+				`${channels.length} data columns`,
+				`at most ${max} channels in one recording (split the file into parts of fewer columns)`,
+			);
 		}
-		if (channels.length === 0) throw new ImportError(this.source, layout.headerLine ?? layout.bodyLine, 0, 'no-data', '', 'at least one data column besides the time column');
+		if (channels.length === 0)
+			throw new ImportError(
+				this.source,
+				layout.headerLine ?? layout.bodyLine,
+				0,
+				'no-data',
+				'',
+				'at least one data column besides the time column',
+			);
 		this.plan = channels;
 		this.planNotes = diagnostics;
 		this.out = channels.map(() => new Float64Array(0));
 		if (layout.timeColumn !== null) {
 			const stated = layout.statedSampleRateHz;
-			this.timeFactor = layout.timeUnit === 'index' ? 1 / stated! : layout.timeUnit === 'clock' ? 1 : secondsPerUnit(layout.timeUnit as 's');
+			this.timeFactor =
+				layout.timeUnit === 'index'
+					? 1 / stated!
+					: layout.timeUnit === 'clock'
+						? 1
+						: secondsPerUnit(layout.timeUnit as 's');
 		}
 	}
 
@@ -153,7 +188,8 @@ export class CsvSampleStream {
 		}
 		const take = Math.min(rows, PROBE_ROWS - this.probeRows);
 		const tc = this.detected!.timeColumn;
-		for (let k = 0; k < this.plan.length; k++) this.probe[k].set(cols[this.plan[k].column].subarray(0, take), this.probeRows);
+		for (let k = 0; k < this.plan.length; k++)
+			this.probe[k].set(cols[this.plan[k].column].subarray(0, take), this.probeRows);
 		if (tc !== null) this.probeT.set(cols[tc].subarray(0, take), this.probeRows);
 		this.probeRows += take;
 		return take;
@@ -176,19 +212,42 @@ export class CsvSampleStream {
 			});
 			rateHz = this.check.sampleRateHz;
 			diagnostics.push(...this.check.startDiagnostics);
-			if (!(rateHz > 0)) throw new ImportError(this.source, layout.bodyLine, layout.timeColumn + 1, 'no-time-base', '', 'at least two rows with different times, or a stated sample rate');
+			if (!(rateHz > 0))
+				throw new ImportError(
+					this.source,
+					layout.bodyLine,
+					layout.timeColumn + 1,
+					'no-time-base',
+					'',
+					'at least two rows with different times, or a stated sample rate',
+				);
 		}
-		if (layout.decimation && !diagnostics.some((d) => d.code === 'decimated')) diagnostics.push({ code: 'decimated', severity: 'warning', message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.` });
+		if (layout.decimation && !diagnostics.some((d) => d.code === 'decimated'))
+			diagnostics.push({
+				code: 'decimated',
+				severity: 'warning',
+				message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.`,
+			});
 		diagnostics.push(...this.planNotes);
 		const header: SampleStreamHeader = {
 			sampleRateHz: rateHz,
-			channels: this.plan.map((p) => ({ name: p.name, unit: p.unit, quantity: p.quantity, ...(p.phase !== undefined ? { phase: p.phase } : {}), ...(p.scaling ? { scaling: p.scaling } : {}) })),
+			channels: this.plan.map((p) => ({
+				name: p.name,
+				unit: p.unit,
+				quantity: p.quantity,
+				...(p.phase !== undefined ? { phase: p.phase } : {}),
+				...(p.scaling ? { scaling: p.scaling } : {}),
+			})),
 			diagnostics,
 		};
 		if (layout.nominalFrequencyHz) header.nominalFrequencyHz = layout.nominalFrequencyHz;
 		if (layout.startTime) header.startTime = layout.startTime;
 		this.sink.start(header);
-		if (n > 0) this.sink.samples(this.probe.map((p) => p.subarray(0, n)), n);
+		if (n > 0)
+			this.sink.samples(
+				this.probe.map((p) => p.subarray(0, n)),
+				n,
+			);
 		this.probe = [];
 	}
 }

@@ -54,7 +54,11 @@ export class RowScanner {
 	private readonly decBare: number;
 	private readonly decoder: InstanceType<typeof TextDecoder>;
 
-	constructor(private readonly layout: ScanLayout, private readonly source: string, encoding = 'utf-8') {
+	constructor(
+		private readonly layout: ScanLayout,
+		private readonly source: string,
+		encoding = 'utf-8',
+	) {
 		this.delim = layout.delimiter.charCodeAt(0);
 		this.eol = layout.lineBreak === '\r' ? 13 : 10;
 		this.decQuoted = layout.decimalMark.charCodeAt(0);
@@ -82,165 +86,185 @@ export class RowScanner {
 		let p = start;
 		let lineStart = p;
 		try {
-		while (p < end) {
-			lineStart = p;
-			let b = buf[p];
-			if (line < bodyLine) {
-				while (b !== eol) b = buf[++p];
-				p++;
-				line++;
-				continue;
-			}
-			while (b === 32 || b === 9) b = buf[++p];
-			if (b === delim || b === eol || b === 13) {
-				// a blank line, or one of delimiters only (';;;' rows that spreadsheets leave at the end)
-				let q = p;
-				while (buf[q] === delim || buf[q] === 32 || buf[q] === 9) q++;
-				if (eol !== 13 && buf[q] === 13 && buf[q + 1] === eol) q++;
-				if (buf[q] !== eol) q = -1;
-				if (q >= 0) {
-					if (this.blankLines++ === 0) this.firstBlankLine = line;
-					p = q + 1;
+			while (p < end) {
+				lineStart = p;
+				let b = buf[p];
+				if (line < bodyLine) {
+					while (b !== eol) b = buf[++p];
+					p++;
 					line++;
-					b = buf[p];
 					continue;
 				}
-			}
-			if (n === cap) {
-				this.rows = n;
-				this.grow();
-				cols = this.columns;
-				cap = cols[0].length;
-			}
-			for (let c = 0; c < K; c++) {
-				// p is at the first non-blank byte of field c
-				let quoted = false;
-				if (b === 34) {
-					quoted = true;
-					b = buf[++p];
-					while (b === 32) b = buf[++p];
-				}
-				const fieldStart = p;
-				let v: number;
-				if (c === clockCol) {
-					let e = p;
-					while (e < end && buf[e] !== delim && buf[e] !== eol && buf[e] !== 13 && buf[e] !== 34) e++;
-					if (this.layout.clockFields === 2 && c + 1 < K) {
-						// a date field, the delimiter (a run of blanks when that is the delimiter), then the time field
-						if (e < end && buf[e] === delim) e++;
-						while (space && (buf[e] === 32 || buf[e] === 9)) e++;
-						if (buf[e] === 34) e++;
-						while (e < end && buf[e] !== delim && buf[e] !== eol && buf[e] !== 13 && buf[e] !== 34) e++;
-					}
-					const text = String.fromCharCode(...buf.subarray(p, Math.min(e, p + 64))).split(this.layout.delimiter).join(' ').replace(/"/g, '');
-					v = this.clock.secondsOf(text);
-					if (Number.isNaN(v)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a time of day such as 12:00:00.000, like the rows above');
-					if (this.layout.clockFields === 2 && c + 1 < K) cols[c++][n] = v;
-					p = e;
-					b = buf[p];
-				} else {
-					let neg = false;
-					if (b === 45) {
-						neg = true;
-						b = buf[++p];
-					} else if (b === 43) b = buf[++p];
-					const numStart = p;
-					const dec = quoted ? decQ : decB;
-					let m = 0;
-					while (b >= 48 && b <= 57) {
-						m = m * 10 + (b - 48);
-						b = buf[++p];
-					}
-					let digits = p - numStart;
-					let frac = 0;
-					if (b === dec) {
-						const fracStart = ++p;
+				while (b === 32 || b === 9) b = buf[++p];
+				if (b === delim || b === eol || b === 13) {
+					// a blank line, or one of delimiters only (';;;' rows that spreadsheets leave at the end)
+					let q = p;
+					while (buf[q] === delim || buf[q] === 32 || buf[q] === 9) q++;
+					if (eol !== 13 && buf[q] === 13 && buf[q + 1] === eol) q++;
+					if (buf[q] !== eol) q = -1;
+					if (q >= 0) {
+						if (this.blankLines++ === 0) this.firstBlankLine = line;
+						p = q + 1;
+						line++;
 						b = buf[p];
+						continue;
+					}
+				}
+				if (n === cap) {
+					this.rows = n;
+					this.grow();
+					cols = this.columns;
+					cap = cols[0].length;
+				}
+				for (let c = 0; c < K; c++) {
+					// p is at the first non-blank byte of field c
+					let quoted = false;
+					if (b === 34) {
+						quoted = true;
+						b = buf[++p];
+						while (b === 32) b = buf[++p];
+					}
+					const fieldStart = p;
+					let v: number;
+					if (c === clockCol) {
+						let e = p;
+						while (e < end && buf[e] !== delim && buf[e] !== eol && buf[e] !== 13 && buf[e] !== 34) e++;
+						if (this.layout.clockFields === 2 && c + 1 < K) {
+							// a date field, the delimiter (a run of blanks when that is the delimiter), then the time field
+							if (e < end && buf[e] === delim) e++;
+							while (space && (buf[e] === 32 || buf[e] === 9)) e++;
+							if (buf[e] === 34) e++;
+							while (e < end && buf[e] !== delim && buf[e] !== eol && buf[e] !== 13 && buf[e] !== 34) e++;
+						}
+						const text = String.fromCharCode(...buf.subarray(p, Math.min(e, p + 64)))
+							.split(this.layout.delimiter)
+							.join(' ')
+							.replace(/"/g, '');
+						v = this.clock.secondsOf(text);
+						if (Number.isNaN(v))
+							this.fail(
+								buf,
+								lineStart,
+								fieldStart,
+								line,
+								'bad-number',
+								'a time of day such as 12:00:00.000, like the rows above',
+							);
+						if (this.layout.clockFields === 2 && c + 1 < K) cols[c++][n] = v;
+						p = e;
+						b = buf[p];
+					} else {
+						let neg = false;
+						if (b === 45) {
+							neg = true;
+							b = buf[++p];
+						} else if (b === 43) b = buf[++p];
+						const numStart = p;
+						const dec = quoted ? decQ : decB;
+						let m = 0;
 						while (b >= 48 && b <= 57) {
 							m = m * 10 + (b - 48);
 							b = buf[++p];
 						}
-						frac = p - fracStart;
-						digits += frac;
-					}
-					if (digits === 0) {
-						v = this.nonFiniteToken(buf, numStart, neg);
-						if (Number.isNaN(v) && !isNanToken(buf, numStart)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
-						p = numStart + (Number.isNaN(v) ? 3 : tokenLength(buf, numStart));
-						b = buf[p];
-						if (this.nonFinite++ === 0) this.firstNonFiniteLine = line;
-					} else {
-						let e = 0;
-						if (b === 101 || b === 69) {
-							b = buf[++p];
-							let eneg = false;
-							if (b === 45) {
-								eneg = true;
-								b = buf[++p];
-							} else if (b === 43) b = buf[++p];
-							if (!(b >= 48 && b <= 57)) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number (digits after the exponent mark)');
+						let digits = p - numStart;
+						let frac = 0;
+						if (b === dec) {
+							const fracStart = ++p;
+							b = buf[p];
 							while (b >= 48 && b <= 57) {
-								if (e < 100000) e = e * 10 + (b - 48);
+								m = m * 10 + (b - 48);
 								b = buf[++p];
 							}
-							if (eneg) e = -e;
+							frac = p - fracStart;
+							digits += frac;
 						}
-						const e10 = e - frac;
-						if (m <= MAX_EXACT && e10 >= -22 && e10 <= 22) v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
-						else v = slowNumber(buf, numStart, p, dec);
-						if (neg) v = -v;
+						if (digits === 0) {
+							v = this.nonFiniteToken(buf, numStart, neg);
+							if (Number.isNaN(v) && !isNanToken(buf, numStart))
+								this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
+							p = numStart + (Number.isNaN(v) ? 3 : tokenLength(buf, numStart));
+							b = buf[p];
+							if (this.nonFinite++ === 0) this.firstNonFiniteLine = line;
+						} else {
+							let e = 0;
+							if (b === 101 || b === 69) {
+								b = buf[++p];
+								let eneg = false;
+								if (b === 45) {
+									eneg = true;
+									b = buf[++p];
+								} else if (b === 43) b = buf[++p];
+								if (!(b >= 48 && b <= 57))
+									this.fail(
+										buf,
+										lineStart,
+										fieldStart,
+										line,
+										'bad-number',
+										'a number (digits after the exponent mark)',
+									);
+								while (b >= 48 && b <= 57) {
+									if (e < 100000) e = e * 10 + (b - 48);
+									b = buf[++p];
+								}
+								if (eneg) e = -e;
+							}
+							const e10 = e - frac;
+							if (m <= MAX_EXACT && e10 >= -22 && e10 <= 22) v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
+							else v = slowNumber(buf, numStart, p, dec);
+							if (neg) v = -v;
+						}
 					}
-				}
-				cols[c][n] = v;
-				// common case first: the delimiter right after an unquoted number
-				if (b === delim && !space && !quoted && c < K - 1) {
-					b = buf[++p];
+					cols[c][n] = v;
+					// common case first: the delimiter right after an unquoted number
+					if (b === delim && !space && !quoted && c < K - 1) {
+						b = buf[++p];
+						while (b === 32 || (b === 9 && delim !== 9)) b = buf[++p];
+						continue;
+					}
+					// after the number: blanks, closing quote, then the delimiter or the line end
+					const numEnd = p;
 					while (b === 32 || (b === 9 && delim !== 9)) b = buf[++p];
-					continue;
-				}
-				// after the number: blanks, closing quote, then the delimiter or the line end
-				const numEnd = p;
-				while (b === 32 || (b === 9 && delim !== 9)) b = buf[++p];
-				if (quoted) {
-					if (b !== 34) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number inside the quotes');
-					b = buf[++p];
-					while (b === 32 || (b === 9 && delim !== 9)) b = buf[++p];
-				}
-				if (b === 13 && buf[p + 1] === eol) b = buf[++p];
-				if (c < K - 1) {
-					if (b === eol) this.fail(buf, lineStart, p, line, 'short-row', `${K} fields, found ${c + 1}`);
-					if (space) {
-						if (p === numEnd && !quoted) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
-					} else {
-						if (b !== delim) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
+					if (quoted) {
+						if (b !== 34) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number inside the quotes');
 						b = buf[++p];
 						while (b === 32 || (b === 9 && delim !== 9)) b = buf[++p];
 					}
-				} else if (b !== eol) {
-					if (space) {
-						if (p === numEnd && !quoted) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
-						this.fail(buf, lineStart, p, line, 'long-row', `${K} fields`);
-					}
-					if (b !== delim) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
-					// empty fields at the end of the row are accepted (a delimiter at line end)
-					while (b === delim) {
-						b = buf[++p];
-						while (b === 32 || b === 9 || (b === 34 && buf[p + 1] === 34 && ++p)) b = buf[++p];
-						if (b === 13 && buf[p + 1] === eol) b = buf[++p];
-						if (b !== delim && b !== eol) this.fail(buf, lineStart, p, line, 'long-row', `${K} fields`);
+					if (b === 13 && buf[p + 1] === eol) b = buf[++p];
+					if (c < K - 1) {
+						if (b === eol) this.fail(buf, lineStart, p, line, 'short-row', `${K} fields, found ${c + 1}`);
+						if (space) {
+							if (p === numEnd && !quoted) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
+						} else {
+							if (b !== delim) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
+							b = buf[++p];
+							while (b === 32 || (b === 9 && delim !== 9)) b = buf[++p];
+						}
+					} else if (b !== eol) {
+						if (space) {
+							if (p === numEnd && !quoted) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
+							this.fail(buf, lineStart, p, line, 'long-row', `${K} fields`);
+						}
+						if (b !== delim) this.fail(buf, lineStart, fieldStart, line, 'bad-number', 'a number');
+						// empty fields at the end of the row are accepted (a delimiter at line end)
+						while (b === delim) {
+							b = buf[++p];
+							while (b === 32 || b === 9 || (b === 34 && buf[p + 1] === 34 && ++p)) b = buf[++p];
+							if (b === 13 && buf[p + 1] === eol) b = buf[++p];
+							if (b !== delim && b !== eol) this.fail(buf, lineStart, p, line, 'long-row', `${K} fields`);
+						}
 					}
 				}
+				if (tc >= 0) {
+					const t = cols[tc][n];
+					if (t > this.prevTime) this.prevTime = t;
+					else this.timeNotRising(buf, lineStart, line, t);
+				}
+				p++; // the line break
+				n++;
+				line++;
+				b = buf[p];
 			}
-			if (tc >= 0) {
-				const t = cols[tc][n];
-				if (t > this.prevTime) this.prevTime = t;
-				else this.timeNotRising(buf, lineStart, line, t);
-			}
-			p++; // the line break
-			n++;
-			line++;
-			b = buf[p];
-		}
 		} catch (e) {
 			// where the refused line starts, so a caller may read it again (gap-cells.ts)
 			this.rows = n;
@@ -268,7 +292,8 @@ export class RowScanner {
 
 	private timeNotRising(buf: Uint8Array, lineStart: number, line: number, t: number): void {
 		const at = fieldOffset(buf, lineStart, this.layout.timeColumn, this.delim, this.eol);
-		if (Number.isNaN(t)) this.fail(buf, lineStart, at, line, 'bad-number', 'a time value (NaN cannot order the samples)');
+		if (Number.isNaN(t))
+			this.fail(buf, lineStart, at, line, 'bad-number', 'a time value (NaN cannot order the samples)');
 		if (t === this.prevTime) {
 			if (this.repeatedTimes++ === 0) this.firstRepeatLine = line;
 			return;
@@ -285,7 +310,14 @@ export class RowScanner {
 	}
 
 	/** Throws the ImportError for the cell (or line end) at byte `at` of the line starting at `lineStart`. */
-	fail(buf: Uint8Array, lineStart: number, at: number, line: number, code: 'bad-number' | 'short-row' | 'long-row' | 'time-not-increasing', expected: string): never {
+	fail(
+		buf: Uint8Array,
+		lineStart: number,
+		at: number,
+		line: number,
+		code: 'bad-number' | 'short-row' | 'long-row' | 'time-not-increasing',
+		expected: string,
+	): never {
 		let lineEnd = lineStart;
 		while (lineEnd < buf.length && buf[lineEnd] !== this.eol) lineEnd++;
 		if (lineEnd > lineStart && buf[lineEnd - 1] === 13) lineEnd--;
@@ -293,18 +325,23 @@ export class RowScanner {
 		while (cellEnd < lineEnd && buf[cellEnd] !== this.delim) cellEnd++;
 		at = Math.min(at, lineEnd);
 		const column = this.decoder.decode(buf.subarray(lineStart, at)).length + 1;
-		const text = code === 'short-row' ? this.decoder.decode(buf.subarray(lineStart, lineEnd)) : this.decoder.decode(buf.subarray(at, Math.max(cellEnd, at))).trim();
+		const text =
+			code === 'short-row'
+				? this.decoder.decode(buf.subarray(lineStart, lineEnd))
+				: this.decoder.decode(buf.subarray(at, Math.max(cellEnd, at))).trim();
 		throw new ImportError(this.source, line, column, code, text, expected);
 	}
 }
 
 function isNanToken(buf: Uint8Array, at: number): boolean {
-	return tokenLength(buf, at) === 3 && (buf[at] | 32) === 110 && (buf[at + 1] | 32) === 97 && (buf[at + 2] | 32) === 110;
+	return (
+		tokenLength(buf, at) === 3 && (buf[at] | 32) === 110 && (buf[at + 1] | 32) === 97 && (buf[at + 2] | 32) === 110
+	);
 }
 
 function tokenLength(buf: Uint8Array, at: number): number {
 	let p = at;
-	while (p < buf.length && ((buf[p] | 32) >= 97 && (buf[p] | 32) <= 122)) p++;
+	while (p < buf.length && (buf[p] | 32) >= 97 && (buf[p] | 32) <= 122) p++;
 	return p - at;
 }
 

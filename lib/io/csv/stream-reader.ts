@@ -59,7 +59,10 @@ export class CsvStreamReader {
 		this.bytesDone += chunk.length;
 		// a plain Uint8Array view of a Node Buffer (a subclass): the scanner then sees one array type only,
 		// which keeps its element loads monomorphic
-		let bytes = Object.getPrototypeOf(chunk) === Uint8Array.prototype ? chunk : new Uint8Array(chunk.buffer, chunk.byteOffset, chunk.byteLength);
+		let bytes =
+			Object.getPrototypeOf(chunk) === Uint8Array.prototype
+				? chunk
+				: new Uint8Array(chunk.buffer, chunk.byteOffset, chunk.byteLength);
 		if (this.transcode) bytes = new TextEncoder().encode(this.transcode.decode(chunk, { stream: true }));
 		if (this.scanner) this.feed(bytes);
 		else {
@@ -74,11 +77,18 @@ export class CsvStreamReader {
 		if (this.stream.onRows) throw new Error('CsvStreamReader: row mode ends with end(), not finish()');
 		this.endInput();
 		const g = this.gapCtx;
-		if (g && g.count > 0) this.notes.push(gapDiagnostic(g, (k) => this.detected!.columns[k]?.name ?? `column ${k + 1}`));
+		if (g && g.count > 0)
+			this.notes.push(gapDiagnostic(g, (k) => this.detected!.columns[k]?.name ?? `column ${k + 1}`));
 		const capture = assembleCapture(this.detected!, this.scanner!, this.source, this.options, this.notes);
 		if (g && g.count > 0) {
 			const channelColumns = this.detected!.columns.filter((c) => c.role === 'channel').map((c) => c.index);
-			capture.gaps = g.gaps.map((x) => ({ channel: capture.channels[channelColumns.indexOf(x.tableColumn)]?.name ?? `column ${x.tableColumn + 1}`, sampleIndex: x.row, line: x.line, column: x.column, text: x.text }));
+			capture.gaps = g.gaps.map((x) => ({
+				channel: capture.channels[channelColumns.indexOf(x.tableColumn)]?.name ?? `column ${x.tableColumn + 1}`,
+				sampleIndex: x.row,
+				line: x.line,
+				column: x.column,
+				text: x.text,
+			}));
 		}
 		return capture;
 	}
@@ -88,7 +98,8 @@ export class CsvStreamReader {
 		if (!this.stream.onRows) throw new Error('CsvStreamReader: end() is for row mode (onRows)');
 		this.endInput();
 		const s = this.scanner!;
-		if (this.rowsDone === 0) throw new ImportError(this.source, this.detected!.bodyLine, 0, 'no-data', '', 'at least one row of numbers');
+		if (this.rowsDone === 0)
+			throw new ImportError(this.source, this.detected!.bodyLine, 0, 'no-data', '', 'at least one row of numbers');
 		return {
 			layout: this.detected!,
 			rows: this.rowsDone,
@@ -134,7 +145,8 @@ export class CsvStreamReader {
 		try {
 			this.start(false);
 		} catch (e) {
-			if (e instanceof ImportError && e.code === 'no-data' && this.headLen < HEAD_MAX_BYTES) this.detectAt = this.headLen * 2;
+			if (e instanceof ImportError && e.code === 'no-data' && this.headLen < HEAD_MAX_BYTES)
+				this.detectAt = this.headLen * 2;
 			else throw e;
 		}
 	}
@@ -163,14 +175,22 @@ export class CsvStreamReader {
 				continue;
 			}
 			if (comma > max || semi > max || tab > max)
-				throw new ImportError(this.source, line, 0, 'out-of-range', `more than ${max} fields`, `at most ${max} columns in one recording (split the file into parts of fewer columns)`);
+				throw new ImportError(
+					this.source,
+					line,
+					0,
+					'out-of-range',
+					`more than ${max} fields`,
+					`at most ${max} columns in one recording (split the file into parts of fewer columns)`,
+				);
 		}
 	}
 
 	private start(wholeFile: boolean): void {
 		if (wholeFile) this.checkWidth();
 		let head = this.head.subarray(0, this.headLen);
-		if (head.length === 0) throw new ImportError(this.source, 1, 0, 'empty-file', '', 'rows of numbers (the file is empty)');
+		if (head.length === 0)
+			throw new ImportError(this.source, 1, 0, 'empty-file', '', 'rows of numbers (the file is empty)');
 		if ((head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff)) {
 			this.transcode = new TextDecoder(head[0] === 0xff ? 'utf-16le' : 'utf-16be');
 			head = new TextEncoder().encode(this.transcode.decode(head, { stream: !wholeFile }));
@@ -192,7 +212,11 @@ export class CsvStreamReader {
 		} catch {
 			encoding = 'windows-1252';
 			text = new TextDecoder(encoding).decode(head.subarray(0, textEnd));
-			this.notes.push({ code: 'encoding', severity: 'assumption', message: 'The file is not valid UTF-8; its text was read as Windows-1252 (Latin-1).' });
+			this.notes.push({
+				code: 'encoding',
+				severity: 'assumption',
+				message: 'The file is not valid UTF-8; its text was read as Windows-1252 (Latin-1).',
+			});
 		}
 		const layout = detectCsvLayout(text, this.options, wholeFile, this.source);
 		this.detected = layout;
@@ -200,7 +224,11 @@ export class CsvStreamReader {
 		this.stream.onLayout?.(layout);
 		const total = this.stream.totalBytes;
 		// row mode: buffers for one chunk's rows (they grow to the most rows one chunk holds)
-		const capacityRows = this.stream.onRows ? 1024 : total && total > 0 ? (total / Math.max(4, layout.bytesPerRow)) * 1.1 + 1024 : 16384;
+		const capacityRows = this.stream.onRows
+			? 1024
+			: total && total > 0
+				? (total / Math.max(4, layout.bytesPerRow)) * 1.1 + 1024
+				: 16384;
 		this.scanner = new RowScanner(
 			{
 				delimiter: layout.delimiter,
@@ -209,7 +237,7 @@ export class CsvStreamReader {
 				columnCount: layout.columnCount,
 				bodyLine: layout.bodyLine,
 				timeColumn: layout.timeColumn ?? -1,
-				clockColumn: layout.timeUnit === 'clock' ? layout.timeColumn ?? -1 : -1,
+				clockColumn: layout.timeUnit === 'clock' ? (layout.timeColumn ?? -1) : -1,
 				clockFields: layout.clockFields,
 				capacityRows,
 			},
@@ -217,8 +245,20 @@ export class CsvStreamReader {
 			encoding,
 		);
 		if (this.options.unreadableCells === 'gap') {
-			const timeColumns = layout.timeColumn === null ? [] : layout.clockFields === 2 ? [layout.timeColumn, layout.timeColumn + 1] : [layout.timeColumn];
-			this.gapCtx = { delimiter: layout.delimiter, decimalMark: layout.decimalMark, eol: this.eol, timeColumns, gaps: [], count: 0 };
+			const timeColumns =
+				layout.timeColumn === null
+					? []
+					: layout.clockFields === 2
+						? [layout.timeColumn, layout.timeColumn + 1]
+						: [layout.timeColumn];
+			this.gapCtx = {
+				delimiter: layout.delimiter,
+				decimalMark: layout.decimalMark,
+				eol: this.eol,
+				timeColumns,
+				gaps: [],
+				count: 0,
+			};
 		}
 		// The BOM belongs to line 1 but is not part of its first field.
 		this.feed(head.subarray(bom ? 3 : 0));
@@ -278,7 +318,14 @@ function checkNotBinary(head: Uint8Array, source: string): void {
 			let zeros = 0;
 			for (let j = i & 1; j < Math.min(n, 256); j += 2) if (head[j] === 0) zeros++;
 			const utf16 = zeros * 2 >= Math.min(n, 256) - 2;
-			throw binaryError(source, head, i, utf16 ? 'UTF-8 text (this looks like UTF-16 text without a byte order mark: save it as UTF-8)' : 'a text file (found a NUL byte: this looks like a binary file)');
+			throw binaryError(
+				source,
+				head,
+				i,
+				utf16
+					? 'UTF-8 text (this looks like UTF-16 text without a byte order mark: save it as UTF-8)'
+					: 'a text file (found a NUL byte: this looks like a binary file)',
+			);
 		}
 		if ((b < 9 || (b > 13 && b < 32 && b !== 26) || b === 127) && ++control > Math.max(4, n / 100))
 			throw binaryError(source, head, i, 'a text file (found many control bytes: this looks like a binary file)');

@@ -38,7 +38,10 @@ export class StreamTimeCheck {
 	private readonly probeGaps: boolean;
 
 	/** @param probe  the first rows' times in s (non-decreasing, checked by the scanner) */
-	constructor(probe: Float64Array, private readonly facts: StreamTimeFacts) {
+	constructor(
+		probe: Float64Array,
+		private readonly facts: StreamTimeFacts,
+	) {
 		const n = probe.length;
 		const tb = timeBaseFromColumn(probe, { ...facts, rowsAreLines: true, repeatedTimes: 0, firstRepeatLine: 0 });
 		this.startDiagnostics = [...tb.diagnostics];
@@ -52,7 +55,11 @@ export class StreamTimeCheck {
 				message: `The samples are handed on as evenly spaced at ${round(rate)} Hz, the median step of the first ${n} rows; the time stamps are checked, not followed.`,
 			});
 		}
-		this.startDiagnostics.push({ code: 'rate-from-first-rows', severity: 'info', message: `The sample rate (${round(rate)} Hz) was taken from the first ${n} rows; every later time step is checked against it.` });
+		this.startDiagnostics.push({
+			code: 'rate-from-first-rows',
+			severity: 'info',
+			message: `The sample rate (${round(rate)} Hz) was taken from the first ${n} rows; every later time step is checked against it.`,
+		});
 		this.sampleRateHz = rate;
 		this.dt = 1 / rate;
 		this.slack = facts.jitterTolerance * this.dt + (facts.resolutionS ?? 0);
@@ -111,7 +118,11 @@ export class StreamTimeCheck {
 		if (this.seen > 1 && span > 0 && this.gaps === 0 && !this.probeGaps) {
 			const meanHz = (this.seen - 1) / span;
 			if (Math.abs(meanHz * this.dt - 1) > 1e-3)
-				out.push({ code: 'rate-mismatch', severity: 'warning', message: `Over the whole file the time stamps give ${round(meanHz)} Hz; the samples were taken at ${round(this.sampleRateHz)} Hz from the first rows, so times late in the file are off by up to ${round(Math.abs(span - (this.seen - 1) * this.dt))} s.` });
+				out.push({
+					code: 'rate-mismatch',
+					severity: 'warning',
+					message: `Over the whole file the time stamps give ${round(meanHz)} Hz; the samples were taken at ${round(this.sampleRateHz)} Hz from the first rows, so times late in the file are off by up to ${round(Math.abs(span - (this.seen - 1) * this.dt))} s.`,
+				});
 		}
 		return out;
 	}

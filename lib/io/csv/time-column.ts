@@ -13,7 +13,12 @@ import { readUnit } from './units.js';
 import { maxOf, minOf } from '../../signal/extremes.js';
 
 type TimeUnit = NonNullable<CsvLayout['timeUnit']>;
-const UNIT_OF_FACTOR: [number, TimeUnit][] = [[1, 's'], [1e-3, 'ms'], [1e-6, 'us'], [1e-9, 'ns']];
+const UNIT_OF_FACTOR: [number, TimeUnit][] = [
+	[1, 's'],
+	[1e-3, 'ms'],
+	[1e-6, 'us'],
+	[1e-9, 'ns'],
+];
 const FACTOR: Record<Exclude<TimeUnit, 'index' | 'clock'>, number> = { s: 1, ms: 1e-3, us: 1e-6, ns: 1e-9 };
 
 /** Seconds per unit of a time column ('index' has none: it needs the sample rate). */
@@ -22,14 +27,21 @@ export function secondsPerUnit(unit: Exclude<TimeUnit, 'index' | 'clock'>): numb
 }
 
 /** Sets layout.timeColumn, layout.timeUnit and the column roles; adds the diagnostics. */
-export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options: CsvOptions, preambleUnit: TimeUnit | undefined, source: string): void {
+export function chooseTimeColumn(
+	layout: CsvLayout,
+	preview: string[][],
+	options: CsvOptions,
+	preambleUnit: TimeUnit | undefined,
+	source: string,
+): void {
 	const say = (code: string, message: string, severity: 'info' | 'assumption' | 'warning' = 'info') =>
 		layout.diagnostics.push({ code, message, severity });
 	const cols = layout.columns;
 	let tc: number | null = null;
 	let role: 'time' | 'index' = 'time';
 	let how = '';
-	const split = preview.length > 0 && cols.length > 2 && isDateCell(preview[0][0] ?? '') && isClockCell(preview[0][1] ?? '');
+	const split =
+		preview.length > 0 && cols.length > 2 && isDateCell(preview[0][0] ?? '') && isClockCell(preview[0][1] ?? '');
 	if (preview.length > 0 && (split || isClockCell(preview[0][0] ?? '')) && options.timeColumn !== 'none') {
 		// time-of-day stamps can only be the time base (detection allows them at the start of a row only)
 		const clockAt = split ? 1 : 0;
@@ -41,13 +53,22 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 		const digits = Math.max(0, maxOf(preview.map((r) => clockFractionDigits(r[clockAt] ?? ''))));
 		layout.timeResolution = 10 ** -digits;
 		const first = preview[0].slice(0, clockAt + 1).join(' ');
-		const where = split ? `Columns "${cols[0].header || 'col1'}" and "${cols[1].header || 'col2'}" hold date and time of day` : `Column "${cols[0].header || 'col1'}" holds time-of-day stamps`;
+		const where = split
+			? `Columns "${cols[0].header || 'col1'}" and "${cols[1].header || 'col2'}" hold date and time of day`
+			: `Column "${cols[0].header || 'col1'}" holds time-of-day stamps`;
 		say('time-column', `${where} (first ${first}); times are counted from the first stamp.`);
 		return;
 	}
 	if (typeof options.timeColumn === 'number') {
 		if (!Number.isInteger(options.timeColumn) || options.timeColumn < 0 || options.timeColumn >= cols.length)
-			throw new ImportError(source, 0, 0, 'bad-option', `time column index ${options.timeColumn}`, `a time column index from 0 to ${cols.length - 1}, counting from 0 (the file has ${cols.length} column${cols.length === 1 ? '' : 's'})`);
+			throw new ImportError(
+				source,
+				0,
+				0,
+				'bad-option',
+				`time column index ${options.timeColumn}`,
+				`a time column index from 0 to ${cols.length - 1}, counting from 0 (the file has ${cols.length} column${cols.length === 1 ? '' : 's'})`,
+			);
 		tc = options.timeColumn;
 		role = options.timeUnit === 'index' || isIndexName(cols[tc].name) ? 'index' : 'time';
 		how = 'as set';
@@ -56,30 +77,65 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 			const u = readUnit(c.unitText);
 			// a stated electrical unit wins over a name: "N (V)" is the neutral's voltage, not a sample number
 			if (isElectricalUnit(c.unitText)) continue;
-			if (isTimeName(c.name) || u?.kind === 'time') { tc = c.index; role = 'time'; how = `named "${c.header}"`; break; }
-			if (isIndexName(c.name)) { tc = c.index; role = 'index'; how = `named "${c.header}"`; break; }
+			if (isTimeName(c.name) || u?.kind === 'time') {
+				tc = c.index;
+				role = 'time';
+				how = `named "${c.header}"`;
+				break;
+			}
+			if (isIndexName(c.name)) {
+				tc = c.index;
+				role = 'index';
+				how = `named "${c.header}"`;
+				break;
+			}
 		}
 		if (tc === null && cols[0].header === '' && risesEvenly(preview, layout.decimalMark)) {
 			tc = 0;
-			const ints = preview.every((r, i) => i === 0 || cellValue(r[0], layout.decimalMark) - cellValue(preview[i - 1][0], layout.decimalMark) === 1);
+			const ints = preview.every(
+				(r, i) =>
+					i === 0 || cellValue(r[0], layout.decimalMark) - cellValue(preview[i - 1][0], layout.decimalMark) === 1,
+			);
 			role = ints && Number.isInteger(cellValue(preview[0][0], layout.decimalMark)) ? 'index' : 'time';
 			how = 'because its values rise in equal steps';
-			say('time-column-guessed', `The first column was taken as the ${role === 'index' ? 'sample number' : 'time'} ${how}; give the time column to change this.`, 'assumption');
+			say(
+				'time-column-guessed',
+				`The first column was taken as the ${role === 'index' ? 'sample number' : 'time'} ${how}; give the time column to change this.`,
+				'assumption',
+			);
 		}
 	}
 	if (tc === null) {
 		layout.timeColumn = null;
 		layout.timeUnit = null;
 		if (layout.statedSampleRateHz === undefined || !(layout.statedSampleRateHz > 0))
-			throw new ImportError(source, layout.headerLine ?? layout.bodyLine, 0, 'no-time-base', '', 'a time column, a sample rate or interval in the preamble, or a given sample rate');
-		say('no-time-column', `No time column: samples are taken as evenly spaced at ${layout.statedSampleRateHz} Hz (${options.sampleRateHz ? 'as set' : 'from the preamble'}).`, 'assumption');
+			throw new ImportError(
+				source,
+				layout.headerLine ?? layout.bodyLine,
+				0,
+				'no-time-base',
+				'',
+				'a time column, a sample rate or interval in the preamble, or a given sample rate',
+			);
+		say(
+			'no-time-column',
+			`No time column: samples are taken as evenly spaced at ${layout.statedSampleRateHz} Hz (${options.sampleRateHz ? 'as set' : 'from the preamble'}).`,
+			'assumption',
+		);
 		if (options.timeUnit !== undefined)
-			say('time-unit-unused', `A time unit (${options.timeUnit}) was given, but the file has no time column; it was not used.`, 'warning');
+			say(
+				'time-unit-unused',
+				`A time unit (${options.timeUnit}) was given, but the file has no time column; it was not used.`,
+				'warning',
+			);
 		return;
 	}
 	cols[tc].role = role;
 	layout.timeColumn = tc;
-	layout.timeResolution = printedResolution(preview.map((r) => r[tc!] ?? ''), layout.decimalMark);
+	layout.timeResolution = printedResolution(
+		preview.map((r) => r[tc!] ?? ''),
+		layout.decimalMark,
+	);
 	const name = cols[tc].header || `col${tc + 1}`;
 	// for an error, the text as written: the header cell, else the column's first data cell
 	const written = cols[tc].header || (preview[0]?.[tc] ?? '');
@@ -87,19 +143,40 @@ export function chooseTimeColumn(layout: CsvLayout, preview: string[][], options
 		cols[tc].role = 'index';
 		layout.timeUnit = 'index';
 		if (layout.statedSampleRateHz === undefined || !(layout.statedSampleRateHz > 0))
-			throw new ImportError(source, cols[tc].header ? layout.headerLine! : layout.bodyLine, tc + 1, 'no-time-base', written, `a sample rate or interval in the preamble, or a given sample rate (column ${tc + 1} holds sample numbers, not times)`);
-		say('sample-index', `Column "${name}" holds sample numbers (${how}); times are number / ${layout.statedSampleRateHz} Hz.`);
+			throw new ImportError(
+				source,
+				cols[tc].header ? layout.headerLine! : layout.bodyLine,
+				tc + 1,
+				'no-time-base',
+				written,
+				`a sample rate or interval in the preamble, or a given sample rate (column ${tc + 1} holds sample numbers, not times)`,
+			);
+		say(
+			'sample-index',
+			`Column "${name}" holds sample numbers (${how}); times are number / ${layout.statedSampleRateHz} Hz.`,
+		);
 		return;
 	}
 	const headerUnit = readUnit(cols[tc].unitText);
 	let unit: TimeUnit | undefined;
 	let from = '';
-	if (options.timeUnit) { unit = options.timeUnit; from = 'as set'; }
-	else if (headerUnit?.kind === 'time') { unit = UNIT_OF_FACTOR.find(([f]) => f === headerUnit.factor)?.[1]; from = 'from the header'; }
-	else if (preambleUnit) { unit = preambleUnit; from = 'from the preamble'; }
+	if (options.timeUnit) {
+		unit = options.timeUnit;
+		from = 'as set';
+	} else if (headerUnit?.kind === 'time') {
+		unit = UNIT_OF_FACTOR.find(([f]) => f === headerUnit.factor)?.[1];
+		from = 'from the header';
+	} else if (preambleUnit) {
+		unit = preambleUnit;
+		from = 'from the preamble';
+	}
 	if (!unit) {
 		unit = guessUnit(preview, tc, layout.decimalMark, layout.statedSampleRateHz);
-		say('time-unit-assumed', `The time column "${name}" states no unit; ${unit} assumed from its step size${layout.statedSampleRateHz ? ' and the stated sample rate' : ''}. Give the time unit to change this.`, 'assumption');
+		say(
+			'time-unit-assumed',
+			`The time column "${name}" states no unit; ${unit} assumed from its step size${layout.statedSampleRateHz ? ' and the stated sample rate' : ''}. Give the time unit to change this.`,
+			'assumption',
+		);
 		from = 'assumed';
 	}
 	layout.timeUnit = unit;
@@ -130,12 +207,18 @@ function risesEvenly(preview: string[][], mark: '.' | ','): boolean {
 }
 
 /** Unit that makes the step a plausible mains-recording interval (200 Hz .. 100 MHz), or matches the stated rate. */
-function guessUnit(preview: string[][], tc: number, mark: '.' | ',', statedHz: number | undefined): Exclude<TimeUnit, 'index' | 'clock'> {
+function guessUnit(
+	preview: string[][],
+	tc: number,
+	mark: '.' | ',',
+	statedHz: number | undefined,
+): Exclude<TimeUnit, 'index' | 'clock'> {
 	const v = preview.map((r) => cellValue(r[tc], mark)).filter(Number.isFinite);
 	const step = v.length > 1 ? (v[v.length - 1] - v[0]) / (v.length - 1) : NaN;
 	if (!(step > 0)) return 's';
 	if (statedHz && statedHz > 0) {
-		for (const [f, u] of UNIT_OF_FACTOR) if (Math.abs(step * f * statedHz - 1) < 0.05 && u !== 'index') return u as Exclude<TimeUnit, 'index' | 'clock'>;
+		for (const [f, u] of UNIT_OF_FACTOR)
+			if (Math.abs(step * f * statedHz - 1) < 0.05 && u !== 'index') return u as Exclude<TimeUnit, 'index' | 'clock'>;
 	}
 	if (step < 5e-3) return 's';
 	if (step < 5) return 'ms';

@@ -61,9 +61,14 @@ export function timeBaseFromColumn(t: Float64Array, facts: TimeFacts): TimeBase 
 	}
 	if (facts.repeatedTimes > 0) {
 		const pairs = facts.repeatedTimes * 2 >= n - 1;
-		say(pairs ? 'min-max-rows' : 'repeated-times', pairs
-			? `Time stamps come in pairs (${facts.repeatedTimes} repeats): the export holds a min and a max row per time step (peak detect), not single samples.`
-			: `${facts.repeatedTimes} row(s) repeat the previous time stamp, first at line ${facts.firstRepeatLine}.`, 'warning', facts.firstRepeatLine);
+		say(
+			pairs ? 'min-max-rows' : 'repeated-times',
+			pairs
+				? `Time stamps come in pairs (${facts.repeatedTimes} repeats): the export holds a min and a max row per time step (peak detect), not single samples.`
+				: `${facts.repeatedTimes} row(s) repeat the previous time stamp, first at line ${facts.firstRepeatLine}.`,
+			'warning',
+			facts.firstRepeatLine,
+		);
 	}
 	// a step that is a whole number of printed digits within rounding error is taken as exactly that
 	// (1e-3 s rather than 1.0000000034e-3 s from summing clock readings)
@@ -87,27 +92,53 @@ export function timeBaseFromColumn(t: Float64Array, facts: TimeFacts): TimeBase 
 		const devFit = devStated <= tol ? devStated : gridDeviation(dtFit);
 		if (devStated <= tol || devFit <= tol) {
 			const fs = devStated <= tol ? stated! : 1 / dtFit;
-			say('uniform-time', `Time column "${facts.name}": ${n} samples evenly spaced at ${round(fs)} Hz${devStated <= tol ? ' (as the preamble/options state)' : ''}, every stamp within ${pct(Math.min(devStated, devFit))} of a sample interval of the grid${halfRes > 0 ? ' beyond the rounding of the printed digits' : ''} (tolerance ${pct(tol)}).`, 'info');
+			say(
+				'uniform-time',
+				`Time column "${facts.name}": ${n} samples evenly spaced at ${round(fs)} Hz${devStated <= tol ? ' (as the preamble/options state)' : ''}, every stamp within ${pct(Math.min(devStated, devFit))} of a sample interval of the grid${halfRes > 0 ? ' beyond the rounding of the printed digits' : ''} (tolerance ${pct(tol)}).`,
+				'info',
+			);
 			if (devStated > tol && stated) compareStated(stated, fs, say);
 			return { sampleRateHz: fs, startS: t[0], diagnostics };
 		}
-		say('irregular-time', `Time column "${facts.name}" is not evenly spaced: a stamp lies ${pct(gridDeviation(dtFit))} of a sample interval off the uniform grid (tolerance ${pct(tol)}); the time stamps are kept as they are, not resampled.`, 'warning');
+		say(
+			'irregular-time',
+			`Time column "${facts.name}" is not evenly spaced: a stamp lies ${pct(gridDeviation(dtFit))} of a sample interval off the uniform grid (tolerance ${pct(tol)}); the time stamps are kept as they are, not resampled.`,
+			'warning',
+		);
 	}
 	if (gaps > 0) {
-		say('time-gaps', `Time column "${facts.name}" has ${gaps} gap(s) longer than 1.5 sample intervals (${round(dtMed * 1e3)} ms); the first before line ${lineOf(firstGap) ?? `row ${firstGap + 1}`} at ${round(t[firstGap - 1])} s, the longest ${round(largestGap * 1e3)} ms. The time stamps are kept as they are, not resampled.`, 'warning', lineOf(firstGap));
+		say(
+			'time-gaps',
+			`Time column "${facts.name}" has ${gaps} gap(s) longer than 1.5 sample intervals (${round(dtMed * 1e3)} ms); the first before line ${lineOf(firstGap) ?? `row ${firstGap + 1}`} at ${round(t[firstGap - 1])} s, the longest ${round(largestGap * 1e3)} ms. The time stamps are kept as they are, not resampled.`,
+			'warning',
+			lineOf(firstGap),
+		);
 	}
 	const fs = (n - 1) / span;
 	if (stated) compareStated(stated, 1 / dtMed, say);
 	return { sampleRateHz: fs, startS: t[0], timeS: t, diagnostics };
 }
 
-function compareStated(stated: number, measured: number, say: (code: string, message: string, severity: Diagnostic['severity']) => void): void {
+function compareStated(
+	stated: number,
+	measured: number,
+	say: (code: string, message: string, severity: Diagnostic['severity']) => void,
+): void {
 	const r = stated / measured;
 	if (Math.abs(r - 1) < 0.01) return;
 	const k = Math.round(r);
 	if (k >= 2 && Math.abs(r - k) < 0.01 * k)
-		say('decimated', `The time steps are ${k} times the stated sample interval (${round(stated)} Hz stated, ${round(measured)} Hz in the data): the export was decimated (every ${k}th sample kept). The data's own rate is used.`, 'warning');
-	else say('rate-mismatch', `The stated sample rate (${round(stated)} Hz) disagrees with the time column (${round(measured)} Hz); the time column is used.`, 'warning');
+		say(
+			'decimated',
+			`The time steps are ${k} times the stated sample interval (${round(stated)} Hz stated, ${round(measured)} Hz in the data): the export was decimated (every ${k}th sample kept). The data's own rate is used.`,
+			'warning',
+		);
+	else
+		say(
+			'rate-mismatch',
+			`The stated sample rate (${round(stated)} Hz) disagrees with the time column (${round(measured)} Hz); the time column is used.`,
+			'warning',
+		);
 }
 
 function round(x: number): string {

@@ -18,7 +18,8 @@ export function splitNameUnit(cell: string): { name: string; unitText: string } 
 	m = /^(.*?\S)\s+in\s+(\S+)$/i.exec(c);
 	if (m && readUnit(m[2])?.kind !== 'other') return { name: m[1], unitText: m[2] };
 	m = /^(.*?\S)[\s_]+(mV|kV|V|mA|kA|A|s|ms|us|µs|ns)$/.exec(c);
-	if (m && !/^(phase|ph|line|l[123]|[abc])$/i.test(m[1].split(/[\s_]+/).pop() ?? '')) return { name: m[1], unitText: m[2] };
+	if (m && !/^(phase|ph|line|l[123]|[abc])$/i.test(m[1].split(/[\s_]+/).pop() ?? ''))
+		return { name: m[1], unitText: m[2] };
 	return { name: c, unitText: '' };
 }
 

@@ -35,7 +35,15 @@ const STANDARDS: Record<string, SurveyStandardId> = { en50160: 'en50160', 'iec61
 
 function isTrendDocument(x: unknown): x is TrendDocument {
 	const d = x as TrendDocument;
-	return typeof d === 'object' && d !== null && Array.isArray(d.aggregates) && Array.isArray(d.channels) && Array.isArray(d.events) && Array.isArray(d.frequency) && typeof d.durationS === 'number';
+	return (
+		typeof d === 'object' &&
+		d !== null &&
+		Array.isArray(d.aggregates) &&
+		Array.isArray(d.channels) &&
+		Array.isArray(d.events) &&
+		Array.isArray(d.frequency) &&
+		typeof d.durationS === 'number'
+	);
 }
 
 /** The trend documents in a JSON file: one document, an array of them, or JSON Lines. */
@@ -58,11 +66,19 @@ function documentsIn(path: string): TrendDocument[] {
 			});
 	}
 	const bad = values.findIndex((v) => !isTrendDocument(v));
-	if (bad >= 0) throw new UsageError(`${path}: document ${bad + 1} is not a trend document: expected the output of 'sinecheck trend --json'`);
+	if (bad >= 0)
+		throw new UsageError(
+			`${path}: document ${bad + 1} is not a trend document: expected the output of 'sinecheck trend --json'`,
+		);
 	return values as TrendDocument[];
 }
 
-function number(name: string, v: number | string | undefined, ok: (x: number) => boolean, what: string): number | undefined {
+function number(
+	name: string,
+	v: number | string | undefined,
+	ok: (x: number) => boolean,
+	what: string,
+): number | undefined {
 	if (v === undefined || v === '') return undefined;
 	const x = Number(String(v).replace(',', '.'));
 	if (!Number.isFinite(x) || !ok(x)) throw new UsageError(`--${name} ${v}: expected ${what}`);
@@ -76,11 +92,17 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 	let declaredV: number | undefined;
 	let nominalHz: number | undefined;
 	try {
-		if (paths.length === 0) throw new UsageError('survey: give the recording files or folders (or trend JSON files) of one recording');
+		if (paths.length === 0)
+			throw new UsageError('survey: give the recording files or folders (or trend JSON files) of one recording');
 		const s = STANDARDS[(options.standard ?? 'en50160').toLowerCase()];
 		if (!s) throw new UsageError(`--standard ${options.standard}: expected en50160 or iec61000-2-2`);
 		standard = s;
-		declaredV = number('nominal', options.nominal, (x) => x > 0, 'the declared supply voltage in V (line-to-neutral for line-to-neutral channels)');
+		declaredV = number(
+			'nominal',
+			options.nominal,
+			(x) => x > 0,
+			'the declared supply voltage in V (line-to-neutral for line-to-neutral channels)',
+		);
 		nominalHz = number('frequency', options.frequency, (x) => x === 50 || x === 60, '50 or 60 (Hz)');
 		if (options.json && options.csv) throw new UsageError('survey: give --json or --csv, not both');
 	} catch (e) {
@@ -100,7 +122,12 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 			for (const u of units) {
 				const file = u.files[0];
 				try {
-					const result = analyseFile(file, file, options.open ?? {}, { declaredV, nominalHz: nominalHz as 50 | 60 | undefined, harmonics: true, keep: { cycles10: false, cycles150: false, min10: true } });
+					const result = analyseFile(file, file, options.open ?? {}, {
+						declaredV,
+						nominalHz: nominalHz as 50 | 60 | undefined,
+						harmonics: true,
+						keep: { cycles10: false, cycles150: false, min10: true },
+					});
 					docs.push(trendJson(file, result) as TrendDocument);
 				} catch (e) {
 					failed++;
@@ -120,7 +147,10 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 		const { input, diagnostics } = surveyInputFromTrend(docs, declaredV);
 		const result = assessSurvey(input, standard);
 		const notes = diagnostics.map((d) => d.message);
-		if (options.json) out.write(`${surveyJson(result, { files: docs.map((d) => d.source), clockAligned: input.clockAligned, spanStartS: input.spanStartS, diagnostics })}\n`);
+		if (options.json)
+			out.write(
+				`${surveyJson(result, { files: docs.map((d) => d.source), clockAligned: input.clockAligned, spanStartS: input.spanStartS, diagnostics })}\n`,
+			);
 		else if (options.csv) {
 			out.write(surveyCsv(result));
 			for (const n of notes) err.write(`note: ${n}\n`);

@@ -4,7 +4,9 @@ import { maxOf } from '../../../lib/signal/index.js';
 import type { SurveyEventTable, SurveyLine, SurveyResult } from '../../../lib/survey/types.js';
 
 function clock(s: number, clockAligned: boolean): string {
-	return clockAligned ? new Date(Math.floor(s) * 1000).toISOString().slice(0, 19).replace('T', ' ') : `${s.toFixed(0)} s from the first sample`;
+	return clockAligned
+		? new Date(Math.floor(s) * 1000).toISOString().slice(0, 19).replace('T', ' ')
+		: `${s.toFixed(0)} s from the first sample`;
 }
 
 function span(s: number): string {
@@ -14,17 +16,27 @@ function span(s: number): string {
 	return `${s.toFixed(1)} s`;
 }
 
-const MARK: Record<SurveyLine['verdict'], string> = { meets: 'meets', 'does not meet': 'DOES NOT MEET', 'not measured': 'not measured' };
+const MARK: Record<SurveyLine['verdict'], string> = {
+	meets: 'meets',
+	'does not meet': 'DOES NOT MEET',
+	'not measured': 'not measured',
+};
 
 function pad(cells: string[][]): string[] {
 	const widths = cells[0].map((_, c) => maxOf(cells.map((r) => r[c].length)));
-	return cells.map((r) => r.map((v, c) => (c === r.length - 1 ? v : v.padEnd(widths[c]))).join('  ').trimEnd());
+	return cells.map((r) =>
+		r
+			.map((v, c) => (c === r.length - 1 ? v : v.padEnd(widths[c])))
+			.join('  ')
+			.trimEnd(),
+	);
 }
 
 function eventTable(t: SurveyEventTable, title: string): string[] {
 	const rows = [[title, ...t.columns], ...t.rows.map((r, i) => [r, ...t.counts[i].map(String)])];
 	const out = pad(rows);
-	if (t.outside > 0) out.push(`(${t.outside} outside the table: shorter than its first duration band or beyond its last)`);
+	if (t.outside > 0)
+		out.push(`(${t.outside} outside the table: shorter than its first duration band or beyond its last)`);
 	out.push(`source: ${t.source}`);
 	return out;
 }
@@ -44,10 +56,25 @@ function tableRows(lines: SurveyLine[]): string[][] {
 		const orders = `orders ${mine[0].id.slice(9)}-${mine[mine.length - 1].id.slice(9)}`;
 		const table = mine[0].source.replace(/,[^,]*,\s*h = \d+$/, '').replace(/, h = \d+.*$/, '');
 		if (failing.length > 0) out.push(...failing.map(row));
-		if (measured.length === 0 && failing.length === 0) out.push(['not measured', `Harmonic voltages, ${orders}`, ch ?? 'all', '95 % of 10-minute values ≤ each order\'s limit', 'no usable values', table]);
+		if (measured.length === 0 && failing.length === 0)
+			out.push([
+				'not measured',
+				`Harmonic voltages, ${orders}`,
+				ch ?? 'all',
+				"95 % of 10-minute values ≤ each order's limit",
+				'no usable values',
+				table,
+			]);
 		else if (failing.length === 0) {
 			const closest = measured.reduce((a, b) => (b.value / b.limit > a.value / a.limit ? b : a));
-			out.push(['meets', `Harmonic voltages, ${orders}`, ch ?? 'all', '95 % of 10-minute values ≤ each order\'s limit', `closest to its limit: h${closest.id.slice(9)} ${closest.value.toFixed(2)} % of ${closest.limit} %`, table]);
+			out.push([
+				'meets',
+				`Harmonic voltages, ${orders}`,
+				ch ?? 'all',
+				"95 % of 10-minute values ≤ each order's limit",
+				`closest to its limit: h${closest.id.slice(9)} ${closest.value.toFixed(2)} % of ${closest.limit} %`,
+				table,
+			]);
 		}
 	}
 	return out;
@@ -59,12 +86,21 @@ export function surveyTable(r: SurveyResult, spanStartS: number, clockAligned: b
 	const head = [
 		`Voltage-characteristics survey: ${r.standardName}`,
 		`Recording: ${clock(spanStartS, clockAligned)} for ${span(c.spanS)}; complete 10-minute intervals ${c.completeIntervals} of ${c.intervals} (${span(c.measuredS)} measured), ${c.flaggedIntervals} flagged by events and left out`,
-		...(c.gaps.length ? [`Gaps with no data: ${c.gaps.map((g) => `${clock(g.startS, clockAligned)} for ${span(g.endS - g.startS)}`).join('; ')}`] : []),
+		...(c.gaps.length
+			? [
+					`Gaps with no data: ${c.gaps.map((g) => `${clock(g.startS, clockAligned)} for ${span(g.endS - g.startS)}`).join('; ')}`,
+				]
+			: []),
 		r.weekNote,
 		'',
 	];
 	const lines = pad([['verdict', 'quantity', 'channel', 'rule', 'measured', 'source'], ...tableRows(r.lines)]);
-	const verdict = r.meets === null ? 'Nothing measured that the standard judges.' : r.meets ? 'Every measured characteristic meets its rule.' : `${r.lines.filter((l) => l.verdict === 'does not meet').length} characteristic(s) do not meet their rule.`;
+	const verdict =
+		r.meets === null
+			? 'Nothing measured that the standard judges.'
+			: r.meets
+				? 'Every measured characteristic meets its rule.'
+				: `${r.lines.filter((l) => l.verdict === 'does not meet').length} characteristic(s) do not meet their rule.`;
 	return [
 		...head,
 		...lines,
@@ -96,14 +132,94 @@ export function surveyJson(r: SurveyResult, extra: Record<string, unknown>): str
 export function surveyCsv(r: SurveyResult): string {
 	const num = (x: number) => (Number.isFinite(x) ? String(Number(x.toPrecision(6))) : '');
 	const row = (cells: string[]) => `${cells.map((c) => csvCell(c)).join(',')}\n`;
-	let out = row(['section', 'id', 'quantity', 'channel', 'rule', 'measured', 'value', 'limit', 'unit', 'verdict', 'used', 'excluded_flagged', 'excluded_partial', 'source']);
+	let out = row([
+		'section',
+		'id',
+		'quantity',
+		'channel',
+		'rule',
+		'measured',
+		'value',
+		'limit',
+		'unit',
+		'verdict',
+		'used',
+		'excluded_flagged',
+		'excluded_partial',
+		'source',
+	]);
 	for (const l of r.lines) {
-		out += row(['rule', l.id, l.quantity, l.channel ?? 'all', l.rule, l.measured, num(l.value), num(l.limit), l.unit, l.verdict, String(l.used), String(l.excludedFlagged), String(l.excludedPartial), l.source]);
+		out += row([
+			'rule',
+			l.id,
+			l.quantity,
+			l.channel ?? 'all',
+			l.rule,
+			l.measured,
+			num(l.value),
+			num(l.limit),
+			l.unit,
+			l.verdict,
+			String(l.used),
+			String(l.excludedFlagged),
+			String(l.excludedPartial),
+			l.source,
+		]);
 	}
 	for (const t of [r.dips, r.swells]) {
-		t.rows.forEach((band, i) => t.columns.forEach((dur, j) => (out += row([`${t.kind} table`, `${t.kind}-${i + 1}-${j + 1}`, band, 'all', dur, `${t.counts[i][j]} event(s)`, String(t.counts[i][j]), '', '', '', '', '', '', t.source]))));
+		t.rows.forEach((band, i) =>
+			t.columns.forEach(
+				(dur, j) =>
+					(out += row([
+						`${t.kind} table`,
+						`${t.kind}-${i + 1}-${j + 1}`,
+						band,
+						'all',
+						dur,
+						`${t.counts[i][j]} event(s)`,
+						String(t.counts[i][j]),
+						'',
+						'',
+						'',
+						'',
+						'',
+						'',
+						t.source,
+					])),
+			),
+		);
 	}
-	out += row(['interruptions', 'short', 'up to 3 min', 'all', '', `${r.interruptions.short} event(s)`, String(r.interruptions.short), '', '', '', '', '', '', r.interruptions.source]);
-	out += row(['interruptions', 'long', 'over 3 min', 'all', '', `${r.interruptions.long} event(s)`, String(r.interruptions.long), '', '', '', '', '', '', r.interruptions.source]);
+	out += row([
+		'interruptions',
+		'short',
+		'up to 3 min',
+		'all',
+		'',
+		`${r.interruptions.short} event(s)`,
+		String(r.interruptions.short),
+		'',
+		'',
+		'',
+		'',
+		'',
+		'',
+		r.interruptions.source,
+	]);
+	out += row([
+		'interruptions',
+		'long',
+		'over 3 min',
+		'all',
+		'',
+		`${r.interruptions.long} event(s)`,
+		String(r.interruptions.long),
+		'',
+		'',
+		'',
+		'',
+		'',
+		'',
+		r.interruptions.source,
+	]);
 	return out;
 }

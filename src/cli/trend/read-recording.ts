@@ -21,7 +21,14 @@ import { decodeText } from '../../../lib/io/index.js';
 import { CsvSampleStream, type SampleSink, type SampleStreamHeader } from '../../../lib/io/index.js';
 import { ImportError } from '../../../lib/io/index.js';
 import { hasImportSettings } from '../../../lib/io/index.js';
-import { csvOptionsWithSettings, DETECT_HEAD_BYTES, detectFileKind, openCapture, type InputFile, type OpenOptions } from '../../../lib/io/index.js';
+import {
+	csvOptionsWithSettings,
+	DETECT_HEAD_BYTES,
+	detectFileKind,
+	openCapture,
+	type InputFile,
+	type OpenOptions,
+} from '../../../lib/io/index.js';
 import { createTrendAnalyser, type TrendAnalyser } from '../../../lib/trend/index.js';
 import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/index.js';
 import { clockTimeOf } from '../../../lib/trend/index.js';
@@ -55,15 +62,38 @@ function head(path: string, bytes: number): Uint8Array {
 /** The assumption made when a start time states no zone (lib/trend/clock.ts takes it as written). */
 function clockNotes(startTime: string | undefined): Diagnostic[] {
 	const clock = clockTimeOf(startTime);
-	return clock?.zone === 'as written' ? [{ code: 'clock-zone-as-written', severity: 'assumption', message: `The start time ${startTime} states no time zone: it is taken as the recorder's clock, as written.` }] : [];
+	return clock?.zone === 'as written'
+		? [
+				{
+					code: 'clock-zone-as-written',
+					severity: 'assumption',
+					message: `The start time ${startTime} states no time zone: it is taken as the recorder's clock, as written.`,
+				},
+			]
+		: [];
 }
 
 /** A capture read whole (bounded by WHOLE_READ_MAX_BYTES) through the analyser, its rate checked first. */
-function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: AnalyseFileHooks, ratePlace: RatePlace): TrendResult {
+function analyseWhole(
+	capture: Capture,
+	settings: AnalyserSettings,
+	hooks: AnalyseFileHooks,
+	ratePlace: RatePlace,
+): TrendResult {
 	const onProgress = hooks.onProgress;
 	const limit = trendLimitProblem(capture.sampleRateHz, capture.channels.length);
-	if (limit) throw new ImportError(ratePlace.source, ratePlace.line, ratePlace.column, 'out-of-range', limit.got, limit.expected);
-	const nominal = settings.nominalHz ?? (capture.nominalFrequencyHz === 50 || capture.nominalFrequencyHz === 60 ? capture.nominalFrequencyHz : undefined);
+	if (limit)
+		throw new ImportError(
+			ratePlace.source,
+			ratePlace.line,
+			ratePlace.column,
+			'out-of-range',
+			limit.got,
+			limit.expected,
+		);
+	const nominal =
+		settings.nominalHz ??
+		(capture.nominalFrequencyHz === 50 || capture.nominalFrequencyHz === 60 ? capture.nominalFrequencyHz : undefined);
 	const a = createTrendAnalyser({
 		...settings,
 		clockStartS: settings.clockStartS ?? clockTimeOf(capture.startTime)?.unixS,
@@ -79,7 +109,13 @@ function analyseWhole(capture: Capture, settings: AnalyserSettings, hooks: Analy
 		onProgress?.(end / n);
 	}
 	const extra: Diagnostic[] = capture.timeS
-		? [{ code: 'time-base-treated-uniform', severity: 'warning', message: `The file has an explicit time base; trends treat it as uniform at its mean rate ${capture.sampleRateHz} Hz.` }]
+		? [
+				{
+					code: 'time-base-treated-uniform',
+					severity: 'warning',
+					message: `The file has an explicit time base; trends treat it as uniform at its mean rate ${capture.sampleRateHz} Hz.`,
+				},
+			]
 		: [];
 	return withImportNotes(a.finish(), [...capture.diagnostics, ...extra, ...clockNotes(capture.startTime)]);
 }
@@ -111,7 +147,11 @@ interface RatePlace {
  * The sink that creates the analyser once the header is known (after checking the bounds) and pushes
  * each block; `analyser()` and `header()` once the stream has started.
  */
-function trendSink(settings: AnalyserSettings, hooks: AnalyseFileHooks, place: (h: SampleStreamHeader) => RatePlace): SampleSink & { analyser(): TrendAnalyser; header(): SampleStreamHeader } {
+function trendSink(
+	settings: AnalyserSettings,
+	hooks: AnalyseFileHooks,
+	place: (h: SampleStreamHeader) => RatePlace,
+): SampleSink & { analyser(): TrendAnalyser; header(): SampleStreamHeader } {
 	let a: TrendAnalyser | undefined;
 	let head: SampleStreamHeader | undefined;
 	const views: Float64Array[] = [];
@@ -124,8 +164,16 @@ function trendSink(settings: AnalyserSettings, hooks: AnalyseFileHooks, place: (
 			}
 			head = h;
 			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
-			const nominal = settings.nominalHz ?? (h.nominalFrequencyHz === 50 || h.nominalFrequencyHz === 60 ? h.nominalFrequencyHz : undefined);
-			a = createTrendAnalyser({ ...settings, clockStartS: settings.clockStartS ?? clockTimeOf(h.startTime)?.unixS, nominalHz: nominal, sampleRateHz: h.sampleRateHz, channels: specs });
+			const nominal =
+				settings.nominalHz ??
+				(h.nominalFrequencyHz === 50 || h.nominalFrequencyHz === 60 ? h.nominalFrequencyHz : undefined);
+			a = createTrendAnalyser({
+				...settings,
+				clockStartS: settings.clockStartS ?? clockTimeOf(h.startTime)?.unixS,
+				nominalHz: nominal,
+				sampleRateHz: h.sampleRateHz,
+				channels: specs,
+			});
 			hooks.onChannels?.(specs);
 		},
 		samples(chunk, n) {
@@ -139,7 +187,13 @@ function trendSink(settings: AnalyserSettings, hooks: AnalyseFileHooks, place: (
 }
 
 /** Pushes bytes [from, to) of the file at `path` to `push` in 1 MiB chunks from one reused buffer. */
-function streamFile(path: string, push: (chunk: Uint8Array) => void, onBytes?: (done: number) => void, from = 0, to = Infinity): void {
+function streamFile(
+	path: string,
+	push: (chunk: Uint8Array) => void,
+	onBytes?: (done: number) => void,
+	from = 0,
+	to = Infinity,
+): void {
 	const fd = openSync(path, 'r');
 	try {
 		const buf = new Uint8Array(CHUNK_BYTES);
@@ -156,15 +210,28 @@ function streamFile(path: string, push: (chunk: Uint8Array) => void, onBytes?: (
 	}
 }
 
-function analyseCsv(path: string, source: string, size: number, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+function analyseCsv(
+	path: string,
+	source: string,
+	size: number,
+	open: OpenOptions,
+	settings: AnalyserSettings,
+	hooks: AnalyseFileHooks,
+): TrendResult {
 	// the rate comes from the time column's first rows, or the preamble / options
 	const ratePlace = (): RatePlace => {
 		const l = stream.layout;
 		if (!l) return { source, line: 0, column: 0 };
-		return l.timeColumn !== null ? { source, line: l.bodyLine, column: l.timeColumn + 1 } : { source, line: l.headerLine ?? l.bodyLine, column: 0 };
+		return l.timeColumn !== null
+			? { source, line: l.bodyLine, column: l.timeColumn + 1 }
+			: { source, line: l.headerLine ?? l.bodyLine, column: 0 };
 	};
 	const sink = trendSink(settings, hooks, ratePlace);
-	const stream: CsvSampleStream = new CsvSampleStream(source, csvOptionsWithSettings(open), sink, { totalBytes: size, maxChannels: TREND_MAX_CHANNELS, onProgress: (d, t) => hooks.onProgress?.(t > 0 ? d / t : 0) });
+	const stream: CsvSampleStream = new CsvSampleStream(source, csvOptionsWithSettings(open), sink, {
+		totalBytes: size,
+		maxChannels: TREND_MAX_CHANNELS,
+		onProgress: (d, t) => hooks.onProgress?.(t > 0 ? d / t : 0),
+	});
 	streamFile(path, (chunk) => stream.push(chunk));
 	const late = stream.end();
 	const h = sink.header();
@@ -178,7 +245,12 @@ function companionPaths(path: string): Map<string, string> {
 	const out = new Map<string, string>();
 	for (const f of readdirSync(dir)) {
 		const ext = extname(f).toLowerCase();
-		if (f !== basename(path) && basename(f, extname(f)).toLowerCase() === base && ['.dat', '.hdr', '.inf'].includes(ext)) out.set(ext, f);
+		if (
+			f !== basename(path) &&
+			basename(f, extname(f)).toLowerCase() === base &&
+			['.dat', '.hdr', '.inf'].includes(ext)
+		)
+			out.set(ext, f);
 	}
 	return out;
 }
@@ -186,27 +258,67 @@ function companionPaths(path: string): Map<string, string> {
 function readWhole(path: string, source: string): Uint8Array {
 	const size = statSync(path).size;
 	if (size > WHOLE_READ_MAX_BYTES) {
-		throw new ImportError(source, 0, 0, 'too-large', `${Math.round(size / 2 ** 20)} MB`, `at most ${WHOLE_READ_MAX_BYTES / 2 ** 20} MB for a COMTRADE record with several sampling rates or with time stamps only (read whole); a record with one sampling rate is streamed at any size`);
+		throw new ImportError(
+			source,
+			0,
+			0,
+			'too-large',
+			`${Math.round(size / 2 ** 20)} MB`,
+			`at most ${WHOLE_READ_MAX_BYTES / 2 ** 20} MB for a COMTRADE record with several sampling rates or with time stamps only (read whole); a record with one sampling rate is streamed at any size`,
+		);
 	}
 	return new Uint8Array(readFileSync(path));
 }
 
-function analyseComtrade(path: string, source: string, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+function analyseComtrade(
+	path: string,
+	source: string,
+	open: OpenOptions,
+	settings: AnalyserSettings,
+	hooks: AnalyseFileHooks,
+): TrendResult {
 	const cfgSize = statSync(path).size;
-	if (cfgSize > CFG_MAX_BYTES) throw new ImportError(source, 0, 0, 'too-large', `${Math.round(cfgSize / 2 ** 20)} MB`, `a .cfg of at most ${CFG_MAX_BYTES / 2 ** 20} MB (a few lines per channel)`);
+	if (cfgSize > CFG_MAX_BYTES)
+		throw new ImportError(
+			source,
+			0,
+			0,
+			'too-large',
+			`${Math.round(cfgSize / 2 ** 20)} MB`,
+			`a .cfg of at most ${CFG_MAX_BYTES / 2 ** 20} MB (a few lines per channel)`,
+		);
 	const cfgBytes = new Uint8Array(readFileSync(path));
 	const { text, encoding } = decodeText(cfgBytes);
 	const cfg = parseComtradeCfg(text, source);
 	const found = companionPaths(path);
 	const datName = found.get('.dat');
-	if (!datName) throw new ImportError(source, 0, 0, 'missing-companion-file', '', `the data file ${basename(source).replace(/\.cfg$/i, '.dat')} next to this .cfg`);
+	if (!datName)
+		throw new ImportError(
+			source,
+			0,
+			0,
+			'missing-companion-file',
+			'',
+			`the data file ${basename(source).replace(/\.cfg$/i, '.dat')} next to this .cfg`,
+		);
 	const datSource = besideName(source, datName);
 	const datPath = join(dirname(path), datName);
-	if (cfg.analog.length > TREND_MAX_CHANNELS) throw new ImportError(source, 2, 0, 'out-of-range', `${cfg.analog.length} analog channels`, `at most ${TREND_MAX_CHANNELS} channels in one recording`);
+	if (cfg.analog.length > TREND_MAX_CHANNELS)
+		throw new ImportError(
+			source,
+			2,
+			0,
+			'out-of-range',
+			`${cfg.analog.length} analog channels`,
+			`at most ${TREND_MAX_CHANNELS} channels in one recording`,
+		);
 	const rate = streamableRate(cfg);
 	if (!rate || hasImportSettings(open.settings)) {
 		// several rates, time stamps only, or import settings (lib/io applies them to the whole capture): read whole (bounded)
-		const companions: InputFile[] = [...found.values()].map((f) => ({ name: besideName(source, f), bytes: f === datName ? readWhole(datPath, datSource) : new Uint8Array(readFileSync(join(dirname(path), f))) }));
+		const companions: InputFile[] = [...found.values()].map((f) => ({
+			name: besideName(source, f),
+			bytes: f === datName ? readWhole(datPath, datSource) : new Uint8Array(readFileSync(join(dirname(path), f))),
+		}));
 		const capture = openCapture({ name: source, bytes: cfgBytes }, companions, open);
 		capture.source = source;
 		return analyseWhole(capture, settings, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
@@ -214,10 +326,19 @@ function analyseComtrade(path: string, source: string, open: OpenOptions, settin
 	const sink = trendSink(settings, hooks, () => ({ source, line: rate.line, column: 1 }));
 	const stream = new ComtradeSampleStream(cfg, source, datSource, open.comtrade ?? {}, sink);
 	const datSize = statSync(datPath).size;
-	streamFile(datPath, (chunk) => stream.push(chunk), (done) => hooks.onProgress?.(datSize > 0 ? done / datSize : 0));
+	streamFile(
+		datPath,
+		(chunk) => stream.push(chunk),
+		(done) => hooks.onProgress?.(datSize > 0 ? done / datSize : 0),
+	);
 	const late = stream.end();
 	const notes = [...sink.header().diagnostics, ...late, ...clockNotes(sink.header().startTime)];
-	if (encoding === 'latin1') notes.push({ code: 'comtrade-latin1', severity: 'assumption', message: `${source} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.` });
+	if (encoding === 'latin1')
+		notes.push({
+			code: 'comtrade-latin1',
+			severity: 'assumption',
+			message: `${source} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.`,
+		});
 	return withImportNotes(sink.analyser().finish(), notes);
 }
 
@@ -225,7 +346,14 @@ function analyseComtrade(path: string, source: string, open: OpenOptions, settin
 const CFF_HEAD_BYTES = 16 * 2 ** 20;
 
 /** A .cff: CFG (and INF, HDR) sections from the head, the DAT section streamed from its offset. */
-function analyseCff(path: string, source: string, size: number, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks): TrendResult {
+function analyseCff(
+	path: string,
+	source: string,
+	size: number,
+	open: OpenOptions,
+	settings: AnalyserSettings,
+	hooks: AnalyseFileHooks,
+): TrendResult {
 	const fd = openSync(path, 'r');
 	let head: Uint8Array;
 	try {
@@ -236,13 +364,40 @@ function analyseCff(path: string, source: string, size: number, open: OpenOption
 	}
 	const { cfg, dat } = cffLayout(head, source, size);
 	const rate = streamableRate(cfg);
-	if (!rate || hasImportSettings(open.settings)) return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), settings, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
-	if (cfg.analog.length > TREND_MAX_CHANNELS) throw new ImportError(source, 0, 0, 'out-of-range', `${cfg.analog.length} analog channels`, `at most ${TREND_MAX_CHANNELS} channels in one recording`);
+	if (!rate || hasImportSettings(open.settings))
+		return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), settings, hooks, {
+			source,
+			line: cfg.rates[0]?.line ?? 0,
+			column: 0,
+		});
+	if (cfg.analog.length > TREND_MAX_CHANNELS)
+		throw new ImportError(
+			source,
+			0,
+			0,
+			'out-of-range',
+			`${cfg.analog.length} analog channels`,
+			`at most ${TREND_MAX_CHANNELS} channels in one recording`,
+		);
 	const sink = trendSink(settings, hooks, () => ({ source, line: rate.line, column: 1 }));
-	const stream = new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, sink, { line: dat.headerLine, byte: dat.start });
-	streamFile(path, (chunk) => stream.push(chunk), (done) => hooks.onProgress?.(size > 0 ? done / size : 0), dat.start, dat.end);
+	const stream = new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, sink, {
+		line: dat.headerLine,
+		byte: dat.start,
+	});
+	streamFile(
+		path,
+		(chunk) => stream.push(chunk),
+		(done) => hooks.onProgress?.(size > 0 ? done / size : 0),
+		dat.start,
+		dat.end,
+	);
 	const late = stream.end();
-	return withImportNotes(sink.analyser().finish(), [{ code: 'comtrade-cff', severity: 'info', message: 'Single-file COMTRADE (.cff); its data section was streamed.' }, ...sink.header().diagnostics, ...late, ...clockNotes(sink.header().startTime)]);
+	return withImportNotes(sink.analyser().finish(), [
+		{ code: 'comtrade-cff', severity: 'info', message: 'Single-file COMTRADE (.cff); its data section was streamed.' },
+		...sink.header().diagnostics,
+		...late,
+		...clockNotes(sink.header().startTime),
+	]);
 }
 
 /**
@@ -251,7 +406,13 @@ function analyseCff(path: string, source: string, size: number, open: OpenOption
  * @param source  the name to show in messages and errors
  * @throws ImportError for anything the readers cannot take (file, line, column, what was expected)
  */
-export function analyseFile(path: string, source: string, open: OpenOptions, settings: AnalyserSettings, hooks: AnalyseFileHooks = {}): TrendResult {
+export function analyseFile(
+	path: string,
+	source: string,
+	open: OpenOptions,
+	settings: AnalyserSettings,
+	hooks: AnalyseFileHooks = {},
+): TrendResult {
 	const onProgress = hooks.onProgress;
 	const size = statSync(path).size;
 	const ext = extname(path).toLowerCase();
@@ -261,7 +422,15 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 		try {
 			const h = wav.header;
 			const limit = trendLimitProblem(wav.sampleRateHz, h.channels.length);
-			if (limit) throw new ImportError(source, 0, limit.what === 'sample-rate' ? 25 : 23, 'out-of-range', limit.got, limit.expected);
+			if (limit)
+				throw new ImportError(
+					source,
+					0,
+					limit.what === 'sample-rate' ? 25 : 23,
+					'out-of-range',
+					limit.got,
+					limit.expected,
+				);
 			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
 			const a = createTrendAnalyser({ ...settings, sampleRateHz: wav.sampleRateHz, channels: specs });
 			hooks.onChannels?.(specs);
@@ -282,8 +451,23 @@ export function analyseFile(path: string, source: string, open: OpenOptions, set
 	if (kind === 'comtrade-cff') return analyseCff(path, source, size, open, settings, hooks);
 	if (kind === 'comtrade-cfg') return analyseComtrade(path, source, open, settings, hooks);
 	if (kind === 'comtrade-part') {
-		throw new ImportError(source, 0, 0, 'unsupported-format', ext, 'the .cfg file of a COMTRADE record (its .dat is found beside it)');
+		throw new ImportError(
+			source,
+			0,
+			0,
+			'unsupported-format',
+			ext,
+			'the .cfg file of a COMTRADE record (its .dat is found beside it)',
+		);
 	}
-	if (kind === 'binary') throw new ImportError(source, 0, 0, 'unsupported-format', ext, 'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file');
+	if (kind === 'binary')
+		throw new ImportError(
+			source,
+			0,
+			0,
+			'unsupported-format',
+			ext,
+			'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file',
+		);
 	return analyseCsv(path, source, size, open, settings, hooks);
 }

@@ -71,18 +71,28 @@ const INTERVALS: Record<string, TrendInterval> = {
 	'10min': '10-min',
 };
 
-function num(option: string, value: number | string | undefined, check: (x: number) => boolean, what: string): number | undefined {
+function num(
+	option: string,
+	value: number | string | undefined,
+	check: (x: number) => boolean,
+	what: string,
+): number | undefined {
 	if (value === undefined || value === null || value === '') return undefined;
 	const x = typeof value === 'number' ? value : Number(String(value).replace(',', '.'));
 	if (!Number.isFinite(x) || !check(x)) throw new TrendUsageError(`--${option} ${value}: expected ${what}`);
 	return x;
 }
 
-function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSettings; interval: TrendInterval; flickerCsv: boolean } {
+function settingsFrom(options: TrendCommandOptions): {
+	settings: AnalyserSettings;
+	interval: TrendInterval;
+	flickerCsv: boolean;
+} {
 	const declaredV = num('nominal', options.nominal, (x) => x > 0, 'the declared voltage in V (a number above 0)');
 	const hz = num('frequency', options.frequency, (x) => x === 50 || x === 60, '50 or 60 (Hz)');
 	const thresholds: Partial<TrendThresholds> = {};
-	const pct = (o: string, v: number | string | undefined) => num(o, v, (x) => x >= 0 && x <= 1000, 'a percentage of the declared voltage');
+	const pct = (o: string, v: number | string | undefined) =>
+		num(o, v, (x) => x >= 0 && x <= 1000, 'a percentage of the declared voltage');
 	const dip = pct('dip-percent', options.dipPercent);
 	const swell = pct('swell-percent', options.swellPercent);
 	const intr = pct('interruption-percent', options.interruptionPercent);
@@ -91,12 +101,27 @@ function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSetting
 	if (swell !== undefined) thresholds.swellPercent = swell;
 	if (intr !== undefined) thresholds.interruptionPercent = intr;
 	if (hyst !== undefined) thresholds.hysteresisPercent = hyst;
-	const rvcPercent = num('rvc-percent', options.rvcPercent, (x) => x > 0 && x < 100, 'a rapid-voltage-change threshold in % of the declared voltage (e.g. 3)');
+	const rvcPercent = num(
+		'rvc-percent',
+		options.rvcPercent,
+		(x) => x > 0 && x < 100,
+		'a rapid-voltage-change threshold in % of the declared voltage (e.g. 3)',
+	);
 	const flickerCsv = options.interval === 'flicker';
 	const interval = flickerCsv ? '10-min' : INTERVALS[options.interval ?? '10/12-cycle'];
-	if (!interval) throw new TrendUsageError(`--interval ${options.interval}: expected one of ${[...Object.keys(INTERVALS), 'flicker'].join(', ')}`);
+	if (!interval)
+		throw new TrendUsageError(
+			`--interval ${options.interval}: expected one of ${[...Object.keys(INTERVALS), 'flicker'].join(', ')}`,
+		);
 	return {
-		settings: { declaredV, nominalHz: hz as 50 | 60 | undefined, thresholds, rvc: rvcPercent === undefined ? undefined : { thresholdPercent: rvcPercent }, thd: options.thd !== false, harmonics: options.harmonics === true && options.thd !== false },
+		settings: {
+			declaredV,
+			nominalHz: hz as 50 | 60 | undefined,
+			thresholds,
+			rvc: rvcPercent === undefined ? undefined : { thresholdPercent: rvcPercent },
+			thd: options.thd !== false,
+			harmonics: options.harmonics === true && options.thd !== false,
+		},
 		interval,
 		flickerCsv,
 	};
@@ -106,7 +131,12 @@ function settingsFrom(options: TrendCommandOptions): { settings: AnalyserSetting
  * Trends one file in a helper process: its pieces arrive as messages and go to `sink`. Resolves
  * undefined when the file was trended, or its error line (an import error, a crash, out of memory, time).
  */
-async function trendInHelper(helper: HelperProcess, job: TrendJob, sink: TrendSink, limitS: number): Promise<string | undefined> {
+async function trendInHelper(
+	helper: HelperProcess,
+	job: TrendJob,
+	sink: TrendSink,
+	limitS: number,
+): Promise<string | undefined> {
 	let line: string | undefined;
 	const stopped = await helper.run(
 		{ kind: 'trend', job },
@@ -152,8 +182,12 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 				failed++;
 				err.write(`${problemLine(p)}\n`);
 			}
-			if (units.length === 0 && problems.length === 0) throw new UsageError(`${path}: no recordings found in this folder (looked for .csv .tsv .txt .wav .cfg .cff)`);
-			if (skipped.length > 0) err.write(`${printable(`note: skipped ${skipped.length} file(s) in ${path} that are not recordings (e.g. ${skipped[0]})`)}\n`);
+			if (units.length === 0 && problems.length === 0)
+				throw new UsageError(`${path}: no recordings found in this folder (looked for .csv .tsv .txt .wav .cfg .cff)`);
+			if (skipped.length > 0)
+				err.write(
+					`${printable(`note: skipped ${skipped.length} file(s) in ${path} that are not recordings (e.g. ${skipped[0]})`)}\n`,
+				);
 			for (const u of units) {
 				recordings.push(u.files[0]);
 				unitFiles.set(u.files[0], u.files);
@@ -191,7 +225,16 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	try {
 		for (const file of recordings) {
 			recordingNow = file;
-			const job: TrendJob = { file, open: options.open ?? {}, settings, json: options.json === true, interval, flickerCsv, several, progress: tty };
+			const job: TrendJob = {
+				file,
+				open: options.open ?? {},
+				settings,
+				json: options.json === true,
+				interval,
+				flickerCsv,
+				several,
+				progress: tty,
+			};
 			let line: string | undefined;
 			try {
 				// Only regular files are read (a FIFO would block the reader forever, a device never ends).
@@ -216,6 +259,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	} finally {
 		helper?.close();
 	}
-	if (options.json && docs.length > 0) out.write(`${printableJson(JSON.stringify(several ? docs : docs[0], null, 1))}\n`);
+	if (options.json && docs.length > 0)
+		out.write(`${printableJson(JSON.stringify(several ? docs : docs[0], null, 1))}\n`);
 	return failed > 0 ? 2 : 0;
 }

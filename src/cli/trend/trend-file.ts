@@ -87,7 +87,8 @@ export function trendFile(job: TrendJob, sink: TrendSink): void {
 	);
 	flush();
 	// lib's messages name no CLI option (the UI shows them too): the option is added here
-	const hint = (d: { code: string }) => (d.code === 'events-not-detected' || d.code === 'declared-voltage-unknown' ? ' (--nominal <V>)' : '');
+	const hint = (d: { code: string }) =>
+		d.code === 'events-not-detected' || d.code === 'declared-voltage-unknown' ? ' (--nominal <V>)' : '';
 	const lines = result.diagnostics.map((d) => `${file}: ${d.severity}: ${d.message}${hint(d)}`);
 	// each all-phase interruption once, not also as the dip that contains it
 	result.events = eventsCountedOnce(result.events);

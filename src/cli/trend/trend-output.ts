@@ -88,30 +88,52 @@ export function trendJson(source: string, r: TrendResult): unknown {
 
 /** Flicker CSV header: interval ('Pst 10-min' or 'Plt 2-h'), times, flag, then `<name> flicker` per voltage channel. */
 export function flickerCsvHeader(f: TrendFlicker, withFile: boolean): string {
-	const cols = [...(withFile ? ['file'] : []), 'interval', 'start_s', 'duration_s', 'flagged', ...f.channels.map((c) => `${c} flicker`)];
+	const cols = [
+		...(withFile ? ['file'] : []),
+		'interval',
+		'start_s',
+		'duration_s',
+		'flagged',
+		...f.channels.map((c) => `${c} flicker`),
+	];
 	return `${cols.map(cell).join(',')}\n`;
 }
 
 /** Flicker CSV rows: every Pst, then every Plt. */
 export function flickerCsvRows(f: TrendFlicker, file?: string): string[] {
 	const rows = [...f.pst.map((r) => ['Pst 10-min', r] as const), ...f.plt.map((r) => ['Plt 2-h', r] as const)];
-	return rows.map(([kind, r]) => `${[...(file !== undefined ? [cell(file)] : []), kind, n(r.startS, 3), n(r.durationS, 3), r.flagged ? '1' : '0', ...r.values.map((v) => n(v, 3))].join(',')}\n`);
+	return rows.map(
+		([kind, r]) =>
+			`${[...(file !== undefined ? [cell(file)] : []), kind, n(r.startS, 3), n(r.durationS, 3), r.flagged ? '1' : '0', ...r.values.map((v) => n(v, 3))].join(',')}\n`,
+	);
 }
 
 /** One stderr line per file in CSV mode: the highest Pst per channel (or why there is none). */
 export function flickerLine(f: TrendFlicker): string {
 	if (f.pst.length === 0) {
 		const pinst = f.channels.flatMap((c, k) => (Number.isFinite(f.pinstMax[k]) ? [`${c} ${n(f.pinstMax[k], 2)}`] : []));
-		const why = pinst.length > 0 ? `highest instantaneous flicker ${pinst.join(', ')}; not a Pst` : 'the recording is too short for the flickermeter to settle';
+		const why =
+			pinst.length > 0
+				? `highest instantaneous flicker ${pinst.join(', ')}; not a Pst`
+				: 'the recording is too short for the flickermeter to settle';
 		return `flicker: no complete 10-minute interval, so no Pst (${why})${changesText(f)}`;
 	}
 	const worst = f.channels.map((c, k) => `${c} ${n(maxOf(f.pst.map((r) => r.values[k])), 2)}`);
-	const plt = f.plt.length > 0 ? `; highest Plt ${f.channels.map((c, k) => `${c} ${n(maxOf(f.plt.map((r) => r.values[k])), 2)}`).join(', ')}` : '';
+	const plt =
+		f.plt.length > 0
+			? `; highest Plt ${f.channels.map((c, k) => `${c} ${n(maxOf(f.plt.map((r) => r.values[k])), 2)}`).join(', ')}`
+			: '';
 	return `flicker (${f.lamp} lamp): highest Pst over ${f.pst.length} interval(s) ${worst.join(', ')}${plt}; --interval flicker lists them${changesText(f)}`;
 }
 
 /** '; voltage changes (IEC 61000-3-3): L1 2, largest dc 3.48 %, dmax 4.10 %, 0.00 s beyond 3.3 %' (empty when none). */
 function changesText(f: TrendFlicker): string {
-	const parts = (f.changes ?? []).flatMap((c, k) => (c.count > 0 ? [`${f.channels[k]} ${c.count}, largest dc ${n(c.dcMaxPercent, 2)} %, dmax ${n(c.dmaxPercent, 2)} %, ${n(c.tmaxS, 2)} s beyond 3.3 %`] : []));
+	const parts = (f.changes ?? []).flatMap((c, k) =>
+		c.count > 0
+			? [
+					`${f.channels[k]} ${c.count}, largest dc ${n(c.dcMaxPercent, 2)} %, dmax ${n(c.dmaxPercent, 2)} %, ${n(c.tmaxS, 2)} s beyond 3.3 %`,
+				]
+			: [],
+	);
 	return parts.length > 0 ? `; voltage changes (IEC 61000-3-3): ${parts.join('; ')}` : '';
 }

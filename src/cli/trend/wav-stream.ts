@@ -35,14 +35,36 @@ function ascii(b: Uint8Array, at: number): string {
  * lib/io applies them to a whole WAV capture, so the streamed values and diagnostics are the same.
  * @throws ImportError 'bad-wav' (line 0, column = byte offset + 1) as parseWav does; 'bad-option' from the settings
  */
-export function openWavStream(path: string, source: string, options: WavOptions = {}, frameBlock = 65_536, settings?: ImportSettings): WavStream {
+export function openWavStream(
+	path: string,
+	source: string,
+	options: WavOptions = {},
+	frameBlock = 65_536,
+	settings?: ImportSettings,
+): WavStream {
 	const fd = openSync(path, 'r');
 	try {
 		const size = fstatSync(fd).size;
 		const head = Buffer.alloc(Math.min(size, HEAD_BYTES));
 		readSync(fd, head, 0, head.length, 0);
-		if (head.length < 12 || detectFileKind('', head).kind !== 'wav') throw new ImportError(source, 0, 1, 'bad-wav', head.subarray(0, 4).toString('latin1'), "'RIFF' ... 'WAVE' at the start of a WAV file");
-		if (ascii(head, 0) === 'RIFX') throw new ImportError(source, 0, 1, 'bad-wav', 'RIFX', 'a little-endian RIFF file for streaming (big-endian RIFX is not streamed)');
+		if (head.length < 12 || detectFileKind('', head).kind !== 'wav')
+			throw new ImportError(
+				source,
+				0,
+				1,
+				'bad-wav',
+				head.subarray(0, 4).toString('latin1'),
+				"'RIFF' ... 'WAVE' at the start of a WAV file",
+			);
+		if (ascii(head, 0) === 'RIFX')
+			throw new ImportError(
+				source,
+				0,
+				1,
+				'bad-wav',
+				'RIFX',
+				'a little-endian RIFF file for streaming (big-endian RIFX is not streamed)',
+			);
 		// Walk the chunks up to 'data' in the head; chunks after the data (often LIST/INFO) are read from the tail.
 		let p = 12;
 		let fmt: { format: number; channels: number; rate: number; bits: number } | undefined;
@@ -55,7 +77,12 @@ export function openWavStream(path: string, source: string, options: WavOptions 
 				if (p + 8 + 16 > head.length) break;
 				const f = head.readUInt16LE(p + 8);
 				const sub = f === 0xfffe && len >= 40 && p + 8 + 26 <= head.length ? head.readUInt16LE(p + 8 + 24) : f;
-				fmt = { format: sub, channels: head.readUInt16LE(p + 10), rate: head.readUInt32LE(p + 12), bits: head.readUInt16LE(p + 22) };
+				fmt = {
+					format: sub,
+					channels: head.readUInt16LE(p + 10),
+					rate: head.readUInt32LE(p + 12),
+					bits: head.readUInt16LE(p + 22),
+				};
 			}
 			if (id === 'data') {
 				dataAt = p + 8;
@@ -67,7 +94,14 @@ export function openWavStream(path: string, source: string, options: WavOptions 
 		if (!fmt || dataAt < 0) {
 			// Let the whole-file reader name exactly what is wrong (it reads only the head here).
 			parseWav(new Uint8Array(head), source, options);
-			throw new ImportError(source, 0, Math.min(p, head.length) + 1, 'bad-wav', '', "'fmt ' and 'data' chunks within the first 64 KiB");
+			throw new ImportError(
+				source,
+				0,
+				Math.min(p, head.length) + 1,
+				'bad-wav',
+				'',
+				"'fmt ' and 'data' chunks within the first 64 KiB",
+			);
 		}
 		const blockBytes = (fmt.channels * fmt.bits) / 8;
 		const frames = Math.floor(dataSize / blockBytes);
@@ -87,12 +121,22 @@ export function openWavStream(path: string, source: string, options: WavOptions 
 		const dataHeader = Buffer.alloc(8);
 		dataHeader.write('data', 0, 'latin1');
 		dataHeader.writeUInt32LE(firstFrame.length, 4);
-		const mini = Buffer.concat([head.subarray(0, dataAt - 8), tail, dataHeader, firstFrame, Buffer.alloc(firstFrame.length & 1)]);
+		const mini = Buffer.concat([
+			head.subarray(0, dataAt - 8),
+			tail,
+			dataHeader,
+			firstFrame,
+			Buffer.alloc(firstFrame.length & 1),
+		]);
 		mini.writeUInt32LE(mini.length - 8, 4);
 		const read = parseWav(new Uint8Array(mini.buffer, mini.byteOffset, mini.length), source, options);
 		const header = settings ? applyImportSettings({ ...read, format: 'wav' }, settings) : read;
 		if (dataAt + head.readUInt32LE(dataAt - 4) > size) {
-			header.diagnostics.push({ code: 'wav-truncated', severity: 'warning', message: `The data chunk is shorter than its header says; the ${frames} whole sample frames present are read.` });
+			header.diagnostics.push({
+				code: 'wav-truncated',
+				severity: 'warning',
+				message: `The data chunk is shorter than its header says; the ${frames} whole sample frames present are read.`,
+			});
 		}
 		const factors = header.channels.map((c) => c.scaling?.factor ?? 1);
 		const offsets = header.channels.map((c) => c.scaling?.offset ?? 0);
@@ -132,7 +176,8 @@ export function openWavStream(path: string, source: string, options: WavOptions 
 					else if (bytesPerSample === 4) for (let k = 0, j = c; k < n; k++, j += nCh) o[k] = a * i32[j] + b;
 					else if (bytesPerSample === 1) for (let k = 0, j = c; k < n; k++, j += nCh) o[k] = a * buf[j] + b;
 					else {
-						for (let k = 0, j = 3 * c; k < n; k++, j += 3 * nCh) o[k] = a * ((buf[j] | (buf[j + 1] << 8) | (buf[j + 2] << 16)) << 8 >> 8) + b;
+						for (let k = 0, j = 3 * c; k < n; k++, j += 3 * nCh)
+							o[k] = a * (((buf[j] | (buf[j + 1] << 8) | (buf[j + 2] << 16)) << 8) >> 8) + b;
 					}
 				}
 				frame += n;

@@ -23,7 +23,11 @@ export const ROBUST_PERCENTILE = 1;
  * Axis range from the 1st to 99th percentile of the values not flagged, widened by `padShare` of its span
  * each side (at least 1 % of the level, so a flat line stays visible).
  */
-export function robustRange(values: readonly number[], flagged: readonly boolean[] = [], padShare = 0.15): { min: number; max: number } {
+export function robustRange(
+	values: readonly number[],
+	flagged: readonly boolean[] = [],
+	padShare = 0.15,
+): { min: number; max: number } {
 	const kept = values.filter((x, i) => !flagged[i] && Number.isFinite(x));
 	if (kept.length === 0) return { min: 0, max: 1 };
 	const lo = percentile(kept, ROBUST_PERCENTILE);
@@ -42,7 +46,8 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
 	const mag = 10 ** Math.floor(Math.log10(raw));
 	const step = [1, 2, 5, 10].map((m) => m * mag).find((s) => s >= raw) ?? 10 * mag;
 	const out: number[] = [];
-	for (let t = Math.ceil(lo / step - 1e-9) * step; t <= hi + step * 1e-9; t += step) out.push(Math.abs(t) < step * 1e-9 ? 0 : t);
+	for (let t = Math.ceil(lo / step - 1e-9) * step; t <= hi + step * 1e-9; t += step)
+		out.push(Math.abs(t) < step * 1e-9 ? 0 : t);
 	return out;
 }
 

@@ -27,7 +27,13 @@ export function wrapDeg(deg: number): number {
  * Reading of two cursors at sample indices iA and iB.
  * @example a 50 Hz sine, cursors 5 ms apart: phaseDeg 90
  */
-export function cursorReading(channels: readonly Float64Array[], base: TimeBase, iA: number, iB: number, frequencyHz: number): CursorReading {
+export function cursorReading(
+	channels: readonly Float64Array[],
+	base: TimeBase,
+	iA: number,
+	iB: number,
+	frequencyHz: number,
+): CursorReading {
 	const aS = timeAt(base, iA);
 	const bS = timeAt(base, iB);
 	const deltaS = bS - aS;

@@ -22,6 +22,13 @@ export function phasorEntries(report: AnalysisReport, colours: Record<string, st
 		.map((ch) => {
 			const pair = report.pairs.find((p) => p.other === ch.name);
 			const angleDeg = ch.name === report.referenceChannel ? 0 : pair ? -pair.lagDeg : NaN;
-			return { name: ch.name, unit: ch.unit, quantity: ch.quantity, rms: ch.harmonics[1]?.rms ?? NaN, angleDeg, colour: colours[ch.name] ?? '#333' };
+			return {
+				name: ch.name,
+				unit: ch.unit,
+				quantity: ch.quantity,
+				rms: ch.harmonics[1]?.rms ?? NaN,
+				angleDeg,
+				colour: colours[ch.name] ?? '#333',
+			};
 		});
 }

@@ -56,16 +56,56 @@ export function overlayFor(
 		const fig = report.channels.find((c) => c.name === name);
 		if (!ch || !fig) continue;
 		// positive side only: the negative half mirrors it and would double the lines over the waves
-		items.push({ kind: 'level', scale: ch.scale, value: fig.rms, colour: ch.colour, dash: [7, 4], label: `${name} RMS ${formatQuantity(fig.rms, ch.unit)}` });
-		items.push({ kind: 'level', scale: ch.scale, value: fig.rectifiedMean, colour: ch.colour, dash: [2, 3], label: `${name} rectified mean ${formatQuantity(fig.rectifiedMean, ch.unit)}` });
+		items.push({
+			kind: 'level',
+			scale: ch.scale,
+			value: fig.rms,
+			colour: ch.colour,
+			dash: [7, 4],
+			label: `${name} RMS ${formatQuantity(fig.rms, ch.unit)}`,
+		});
+		items.push({
+			kind: 'level',
+			scale: ch.scale,
+			value: fig.rectifiedMean,
+			colour: ch.colour,
+			dash: [2, 3],
+			label: `${name} rectified mean ${formatQuantity(fig.rectifiedMean, ch.unit)}`,
+		});
 		const p = extras.peakIndex[name];
-		if (p && p.max >= 0) items.push({ kind: 'peak', scale: ch.scale, tS: timeOfIndex(p.max), value: fig.peak, colour: ch.colour, label: `${name} peak ${formatQuantity(fig.peak, ch.unit)}`, below: false });
-		if (p && p.min >= 0) items.push({ kind: 'peak', scale: ch.scale, tS: timeOfIndex(p.min), value: fig.peakNegative, colour: ch.colour, label: `${name} peak ${formatQuantity(fig.peakNegative, ch.unit)}`, below: true });
+		if (p && p.max >= 0)
+			items.push({
+				kind: 'peak',
+				scale: ch.scale,
+				tS: timeOfIndex(p.max),
+				value: fig.peak,
+				colour: ch.colour,
+				label: `${name} peak ${formatQuantity(fig.peak, ch.unit)}`,
+				below: false,
+			});
+		if (p && p.min >= 0)
+			items.push({
+				kind: 'peak',
+				scale: ch.scale,
+				tS: timeOfIndex(p.min),
+				value: fig.peakNegative,
+				colour: ch.colour,
+				label: `${name} peak ${formatQuantity(fig.peakNegative, ch.unit)}`,
+				below: true,
+			});
 	}
 	for (const e of extras.trend?.result?.events ?? []) {
 		const depth = e.residualV ?? e.maximumV;
-		const pct = depth !== undefined && extras.trend?.result ? ` ${Math.round((100 * depth) / extras.trend.result.declaredV)} %` : '';
-		items.push({ kind: 'event', startS: e.startS, endS: e.startS + e.durationS, label: `${e.kind} ${e.channels.join(',')}${pct}` });
+		const pct =
+			depth !== undefined && extras.trend?.result
+				? ` ${Math.round((100 * depth) / extras.trend.result.declaredV)} %`
+				: '';
+		items.push({
+			kind: 'event',
+			startS: e.startS,
+			endS: e.startS + e.durationS,
+			label: `${e.kind} ${e.channels.join(',')}${pct}`,
+		});
 	}
 	const pair = compare ? report.pairs.find((p) => p.other === compare) : undefined;
 	const refCh = channels.find((c) => c.name === report.referenceChannel);
@@ -207,7 +247,10 @@ export function drawOverlay(u: uPlot, items: readonly OverlayItem[]): void {
 			ctx.lineTo(b - dir * 6 * pr, py + 4 * pr);
 			ctx.closePath();
 			ctx.fill();
-			const textX = Math.min(Math.max(Math.max(a, b) + 6 * pr, left + 4 * pr), left + width - ctx.measureText(it.text).width - 4 * pr);
+			const textX = Math.min(
+				Math.max(Math.max(a, b) + 6 * pr, left + 4 * pr),
+				left + width - ctx.measureText(it.text).width - 4 * pr,
+			);
 			ctx.textAlign = 'left';
 			ctx.fillStyle = 'rgba(255,255,255,0.85)';
 			const w = ctx.measureText(it.text).width;

@@ -2,7 +2,16 @@
  * The visible time range of a wave plot and the decimated data for it. Buffers are allocated once per
  * capture and reused on every zoom step. No DOM, no uPlot: the chart component and the bench drive it.
  */
-import { buildMinMaxBlocks, decimateMinMax, indexAtOrAfter, makeDecimationBuffers, timeAt, type DecimationBuffers, type MinMaxBlocks, type TimeBase } from './decimate.js';
+import {
+	buildMinMaxBlocks,
+	decimateMinMax,
+	indexAtOrAfter,
+	makeDecimationBuffers,
+	timeAt,
+	type DecimationBuffers,
+	type MinMaxBlocks,
+	type TimeBase,
+} from './decimate.js';
 
 /** Largest plot width in device pixels the buffers are sized for. */
 export const MAX_COLUMNS = 8192;
@@ -79,7 +88,8 @@ export class WaveView {
 	/** Sample index nearest to time tS. */
 	indexAt(tS: number): number {
 		const i = indexAtOrAfter(this.base, this.n, tS);
-		if (i > 0 && (i >= this.n || Math.abs(timeAt(this.base, i - 1) - tS) < Math.abs(timeAt(this.base, i) - tS))) return i - 1;
+		if (i > 0 && (i >= this.n || Math.abs(timeAt(this.base, i - 1) - tS) < Math.abs(timeAt(this.base, i) - tS)))
+			return i - 1;
 		return Math.min(i, this.n - 1);
 	}
 

@@ -61,7 +61,11 @@ export class AnalysisClient {
 		p.resolve(msg);
 	}
 
-	#request(build: (jobId: number) => ToWorker, transfer: Transferable[], onProgress?: (p: Progress) => void): Promise<FromWorker> {
+	#request(
+		build: (jobId: number) => ToWorker,
+		transfer: Transferable[],
+		onProgress?: (p: Progress) => void,
+	): Promise<FromWorker> {
 		const jobId = this.#nextJob++;
 		return new Promise<FromWorker>((resolve, reject) => {
 			this.#pending.set(jobId, { resolve, reject, onProgress });

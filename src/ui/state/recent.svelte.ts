@@ -31,9 +31,7 @@ export class RecentFiles {
 			const raw = storage()?.getItem(RECENT_STORAGE_KEY);
 			const parsed: unknown = raw ? JSON.parse(raw) : [];
 			if (!Array.isArray(parsed)) return [];
-			return parsed.filter(
-				(e): e is RecentEntry => typeof e?.name === 'string' && typeof e?.openedAt === 'string',
-			);
+			return parsed.filter((e): e is RecentEntry => typeof e?.name === 'string' && typeof e?.openedAt === 'string');
 		} catch {
 			return [];
 		}
@@ -43,7 +41,10 @@ export class RecentFiles {
 	// a time stamp turned into text at once, not reactive state
 	// eslint-disable-next-line svelte/prefer-svelte-reactivity
 	add(name: string, when: Date = new Date()): void {
-		const next = [{ name, openedAt: when.toISOString() }, ...this.entries.filter((e) => e.name !== name)].slice(0, RECENT_MAX);
+		const next = [{ name, openedAt: when.toISOString() }, ...this.entries.filter((e) => e.name !== name)].slice(
+			0,
+			RECENT_MAX,
+		);
 		this.entries = next;
 		try {
 			storage()?.setItem(RECENT_STORAGE_KEY, JSON.stringify(next));

@@ -36,7 +36,8 @@ export interface IdentitySource {
 /** "name|size|hash" of one file. */
 export async function fileIdentity(f: IdentitySource): Promise<string> {
 	const head = await f.slice(0, Math.min(f.size, SAMPLE_BYTES));
-	const tail = f.size > SAMPLE_BYTES ? await f.slice(Math.max(SAMPLE_BYTES, f.size - SAMPLE_BYTES), f.size) : new Uint8Array(0);
+	const tail =
+		f.size > SAMPLE_BYTES ? await f.slice(Math.max(SAMPLE_BYTES, f.size - SAMPLE_BYTES), f.size) : new Uint8Array(0);
 	const h = fnv1a32(tail, fnv1a32(head));
 	return `${f.name}|${f.size}|${h.toString(16).padStart(8, '0')}`;
 }
@@ -61,7 +62,9 @@ export class SettingsMemory {
 		try {
 			const raw = storage()?.getItem(SETTINGS_STORAGE_KEY);
 			const parsed: unknown = raw ? JSON.parse(raw) : {};
-			return parsed && typeof parsed === 'object' && !Array.isArray(parsed) ? (parsed as Record<string, RememberedSettings>) : {};
+			return parsed && typeof parsed === 'object' && !Array.isArray(parsed)
+				? (parsed as Record<string, RememberedSettings>)
+				: {};
 		} catch {
 			return {};
 		}
@@ -75,8 +78,14 @@ export class SettingsMemory {
 	set(identity: string, overrides: ImportOverrides, analysis: AnalysisOptions, when = new Date()): void {
 		const all = this.#all();
 		const { refChannel, iscIl, ilA, nominalV } = analysis;
-		all[identity] = { overrides, analysis: JSON.parse(JSON.stringify({ refChannel, iscIl, ilA, nominalV })), savedAt: when.toISOString() };
-		const kept = Object.entries(all).sort((a, b) => b[1].savedAt.localeCompare(a[1].savedAt)).slice(0, SETTINGS_MAX);
+		all[identity] = {
+			overrides,
+			analysis: JSON.parse(JSON.stringify({ refChannel, iscIl, ilA, nominalV })),
+			savedAt: when.toISOString(),
+		};
+		const kept = Object.entries(all)
+			.sort((a, b) => b[1].savedAt.localeCompare(a[1].savedAt))
+			.slice(0, SETTINGS_MAX);
 		try {
 			storage()?.setItem(SETTINGS_STORAGE_KEY, JSON.stringify(Object.fromEntries(kept)));
 		} catch {

@@ -67,7 +67,12 @@ export class Session {
 		try {
 			const parts = await Promise.all(
 				g.map(async (f) => {
-					if (f.blob) return fileIdentity({ name: f.name, size: f.blob.size, slice: async (a, b) => new Uint8Array(await f.blob!.slice(a, b).arrayBuffer()) });
+					if (f.blob)
+						return fileIdentity({
+							name: f.name,
+							size: f.blob.size,
+							slice: async (a, b) => new Uint8Array(await f.blob!.slice(a, b).arrayBuffer()),
+						});
 					const bytes = new Uint8Array(await f.read());
 					return fileIdentity({ name: f.name, size: bytes.length, slice: async (a, b) => bytes.subarray(a, b) });
 				}),
@@ -80,7 +85,12 @@ export class Session {
 
 	#remember(key: string): void {
 		const item = this.#get(key);
-		if (item?.identity && item.status === 'ready') this.#memory.set(item.identity, $state.snapshot(item.overrides) as ImportOverrides, $state.snapshot(item.analysis) as AnalysisOptions);
+		if (item?.identity && item.status === 'ready')
+			this.#memory.set(
+				item.identity,
+				$state.snapshot(item.overrides) as ImportOverrides,
+				$state.snapshot(item.analysis) as AnalysisOptions,
+			);
 	}
 
 	#replace(key: string, patch: Partial<LoadedCapture>): void {
@@ -142,10 +152,26 @@ export class Session {
 		this.notice = null;
 		this.progress = { stage: `Reading ${item.label}`, fraction: 0 };
 		try {
-			const files: FileBytes[] = await Promise.all(item.files.map(async (f) => (f.blob ? { name: f.name, blob: f.blob } : { name: f.name, bytes: await f.read() })));
-			const result = await this.#client.open(key, files, $state.snapshot(item.overrides) as ImportOverrides, $state.snapshot(item.analysis) as AnalysisOptions, (p) => (this.progress = p));
+			const files: FileBytes[] = await Promise.all(
+				item.files.map(async (f) =>
+					f.blob ? { name: f.name, blob: f.blob } : { name: f.name, bytes: await f.read() },
+				),
+			);
+			const result = await this.#client.open(
+				key,
+				files,
+				$state.snapshot(item.overrides) as ImportOverrides,
+				$state.snapshot(item.analysis) as AnalysisOptions,
+				(p) => (this.progress = p),
+			);
 			if (result.ok) {
-				this.#replace(key, { status: 'ready', capture: result.capture, report: result.report, extras: result.extras, problems: [] });
+				this.#replace(key, {
+					status: 'ready',
+					capture: result.capture,
+					report: result.report,
+					extras: result.extras,
+					problems: [],
+				});
 				this.#remember(key);
 			} else {
 				this.#replace(key, { status: 'error', problems: result.problems });
@@ -158,7 +184,17 @@ export class Session {
 				const message = e instanceof Error ? e.message : String(e);
 				this.#replace(key, {
 					status: 'error',
-					problems: [{ source: item.label, line: 0, column: 0, code: 'analysis-failed', text: '', expected: 'an analysable capture', message }],
+					problems: [
+						{
+							source: item.label,
+							line: 0,
+							column: 0,
+							code: 'analysis-failed',
+							text: '',
+							expected: 'an analysable capture',
+							message,
+						},
+					],
 				});
 			}
 		} finally {
@@ -190,7 +226,10 @@ export class Session {
 			this.#replace(key, { report: r.report, extras: r.extras });
 			this.#remember(key);
 		} catch (e) {
-			this.notice = e instanceof CancelledError ? 'Analysis stopped; the figures shown are from the previous settings.' : `Analysis failed: ${e instanceof Error ? e.message : String(e)}`;
+			this.notice =
+				e instanceof CancelledError
+					? 'Analysis stopped; the figures shown are from the previous settings.'
+					: `Analysis failed: ${e instanceof Error ? e.message : String(e)}`;
 			this.#replace(key, { analysis: item.analysis });
 		} finally {
 			this.progress = null;
@@ -202,7 +241,11 @@ export class Session {
 		this.limits = id;
 		this.items = this.items.map((c) => {
 			const analysis = { ...c.analysis, limits: id };
-			return { ...c, analysis, report: c.report ? applyLimits($state.snapshot(c.report) as AnalysisReport, analysis) : c.report };
+			return {
+				...c,
+				analysis,
+				report: c.report ? applyLimits($state.snapshot(c.report) as AnalysisReport, analysis) : c.report,
+			};
 		});
 	}
 
@@ -215,7 +258,8 @@ export class Session {
 	close(key: string): void {
 		this.#client.forget(key);
 		this.items = this.items.filter((c) => c.key !== key);
-		if (this.selectedKey === key) this.selectedKey = this.items.find((c) => c.status === 'ready')?.key ?? this.items[0]?.key ?? null;
+		if (this.selectedKey === key)
+			this.selectedKey = this.items.find((c) => c.status === 'ready')?.key ?? this.items[0]?.key ?? null;
 	}
 
 	/** Stops the running import or analysis; the session keeps everything already loaded. */

@@ -10,7 +10,8 @@ import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ensureBuiltCli, mainJs, root } from '../built-cli.js';
 
-const run = (...args: string[]) => spawnSync(process.execPath, [mainJs, 'survey', ...args], { cwd: root, encoding: 'utf8', timeout: 120_000 });
+const run = (...args: string[]) =>
+	spawnSync(process.execPath, [mainJs, 'survey', ...args], { cwd: root, encoding: 'utf8', timeout: 120_000 });
 let dir = '';
 
 beforeAll(async () => {
@@ -28,8 +29,22 @@ function hour(source: string, startTime: string, thd: (k: number) => number) {
 		nominalHz: 50,
 		durationS: 3600,
 		channels: [{ name: 'L1', quantity: 'voltage', unit: 'V' }],
-		aggregates: Array.from({ length: 6 }, (_, k) => ({ interval: '10-min', startS: 600 * k, durationS: 600, complete: true, flagged: false, rms: [230], thdPercent: [thd(k)] })),
-		frequency: Array.from({ length: 360 }, (_, k) => ({ startS: 10 * k, durationS: 10, frequencyHz: 50, complete: true, flagged: false })),
+		aggregates: Array.from({ length: 6 }, (_, k) => ({
+			interval: '10-min',
+			startS: 600 * k,
+			durationS: 600,
+			complete: true,
+			flagged: false,
+			rms: [230],
+			thdPercent: [thd(k)],
+		})),
+		frequency: Array.from({ length: 360 }, (_, k) => ({
+			startS: 10 * k,
+			durationS: 10,
+			frequencyHz: 50,
+			complete: true,
+			flagged: false,
+		})),
 		events: [],
 	};
 }
@@ -77,7 +92,9 @@ describe('sinecheck survey', () => {
 		const thd = rules.find((x) => x.id === 'thd')!;
 		expect(Number(thd.value)).toBe(9); // nearest rank ceil(0.95 x 6) = 6: the largest of 3, 3, 3, 3, 9, 9
 		expect(thd.verdict).toBe('does not meet');
-		expect(rows.filter((x) => x.section === 'dip table')).toHaveLength(json.dips.rows.length * json.dips.columns.length);
+		expect(rows.filter((x) => x.section === 'dip table')).toHaveLength(
+			json.dips.rows.length * json.dips.columns.length,
+		);
 	});
 
 	it('a JSON file that is not a trend document is refused with its name, exit 2, no stack trace', () => {

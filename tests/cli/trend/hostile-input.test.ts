@@ -18,7 +18,12 @@ beforeAll(ensureBuiltCli);
 
 /** Runs the CLI with a 256 MB heap and a 60 s limit; a hang shows as status null and signal SIGTERM. */
 function cli(...args: string[]): { status: number | null; signal: string | null; stdout: string; stderr: string } {
-	const r = spawnSync(process.execPath, ['--max-old-space-size=256', mainJs, ...args], { cwd: dir, encoding: 'utf8', timeout: 60_000, maxBuffer: 64 << 20 });
+	const r = spawnSync(process.execPath, ['--max-old-space-size=256', mainJs, ...args], {
+		cwd: dir,
+		encoding: 'utf8',
+		timeout: 60_000,
+		maxBuffer: 64 << 20,
+	});
 	return { status: r.status, signal: r.signal, stdout: r.stdout, stderr: r.stderr };
 }
 
@@ -36,7 +41,14 @@ function write(name: string, text: string): string {
 }
 
 describe('case 1: a CSV alternating +-1e308 (squares overflow)', () => {
-	const file = () => write('overflow.csv', ['t (s),U1 (V)', ...Array.from({ length: 10_000 }, (_, k) => `${(k / 1e4).toFixed(4)},${k % 2 === 0 ? '1e308' : '-1e308'}`)].join('\n'));
+	const file = () =>
+		write(
+			'overflow.csv',
+			[
+				't (s),U1 (V)',
+				...Array.from({ length: 10_000 }, (_, k) => `${(k / 1e4).toFixed(4)},${k % 2 === 0 ? '1e308' : '-1e308'}`),
+			].join('\n'),
+		);
 
 	it('analyse finishes and says which sample is too large (no endless loop)', () => {
 		const r = cli('analyse', file());
@@ -79,9 +91,25 @@ describe('case 2: a record of more than 125,000 cycles', () => {
 
 describe('case 3: trend on impossible time bases', () => {
 	it('a COMTRADE sample rate of 1e-300 Hz is an out-of-range error at the .cfg line of the rate', () => {
-		const cfg = ['Tallowmere Joinery,rec-1,1999', '1,1A,0D', '1,U1,L1,,V,1,0,0,-32767,32767,1,1,P', '50', '1', '1e-300,1000', '01/02/2026,10:00:00.000000', '01/02/2026,10:00:00.000000', 'ASCII', '1', ''].join('\r\n');
+		const cfg = [
+			'Tallowmere Joinery,rec-1,1999',
+			'1,1A,0D',
+			'1,U1,L1,,V,1,0,0,-32767,32767,1,1,P',
+			'50',
+			'1',
+			'1e-300,1000',
+			'01/02/2026,10:00:00.000000',
+			'01/02/2026,10:00:00.000000',
+			'ASCII',
+			'1',
+			'',
+		].join('\r\n');
 		write('slow.cfg', cfg);
-		write('slow.dat', Array.from({ length: 1000 }, (_, k) => `${k + 1},${k * 100},${Math.round(sine(k, 1e4, 300))}`).join('\r\n') + '\r\n');
+		write(
+			'slow.dat',
+			Array.from({ length: 1000 }, (_, k) => `${k + 1},${k * 100},${Math.round(sine(k, 1e4, 300))}`).join('\r\n') +
+				'\r\n',
+		);
 		const r = cli('trend', 'slow.cfg');
 		expect(r.signal).toBeNull();
 		expect(r.status).toBe(2);
@@ -95,12 +123,17 @@ describe('case 3: trend on impossible time bases', () => {
 		const r = cli('trend', 'squeezed.csv');
 		expect(r.signal).toBeNull();
 		expect(r.status).toBe(2);
-		expect(r.stderr).toMatch(/^sinecheck: squeezed\.csv:2:1: out-of-range: expected a sample rate from 288 Hz to 10000000 Hz.*got "1e\+300 Hz"/m);
+		expect(r.stderr).toMatch(
+			/^sinecheck: squeezed\.csv:2:1: out-of-range: expected a sample rate from 288 Hz to 10000000 Hz.*got "1e\+300 Hz"/m,
+		);
 		noStack(r.stderr);
 	});
 
 	it('time stamps that jump by 1e6 s: trend finishes, the gap is a warning at its line', () => {
-		const rows = Array.from({ length: 20_000 }, (_, k) => `${(k / 1e4 + (k >= 10_000 ? 1e6 : 0)).toFixed(4)},${sine(k, 1e4).toFixed(3)}`);
+		const rows = Array.from(
+			{ length: 20_000 },
+			(_, k) => `${(k / 1e4 + (k >= 10_000 ? 1e6 : 0)).toFixed(4)},${sine(k, 1e4).toFixed(3)}`,
+		);
 		write('jump.csv', ['t (s),U1 (V)', ...rows].join('\n'));
 		const r = cli('trend', 'jump.csv');
 		expect(r.signal).toBeNull();
@@ -134,7 +167,9 @@ describe('case 7: a COMTRADE .dat declared BINARY that is ASCII text', () => {
 			const r = cli(command, 'mixed.cfg');
 			expect(r.signal).toBeNull();
 			expect(r.status).toBe(2);
-			expect(r.stderr).toMatch(/^sinecheck: mixed\.dat:1: dat-type-mismatch: expected binary records .* the \.cfg declares BINARY \(mixed\.cfg line \d+\)/m);
+			expect(r.stderr).toMatch(
+				/^sinecheck: mixed\.dat:1: dat-type-mismatch: expected binary records .* the \.cfg declares BINARY \(mixed\.cfg line \d+\)/m,
+			);
 			noStack(r.stderr);
 		});
 	}
@@ -142,7 +177,10 @@ describe('case 7: a COMTRADE .dat declared BINARY that is ASCII text', () => {
 
 describe('case 10: a column headed "N (V)"', () => {
 	it('analyse takes it as the neutral voltage channel, not a sample number', () => {
-		const rows = Array.from({ length: 2000 }, (_, k) => `${sine(k, 1e4).toFixed(3)},${sine(3 * k, 1e4, 0.7).toFixed(4)},${(k / 1e4).toFixed(4)}`);
+		const rows = Array.from(
+			{ length: 2000 },
+			(_, k) => `${sine(k, 1e4).toFixed(3)},${sine(3 * k, 1e4, 0.7).toFixed(4)},${(k / 1e4).toFixed(4)}`,
+		);
 		write('neutral.csv', ['L1 (V),N (V),t (s)', ...rows].join('\n'));
 		const r = cli('analyse', 'neutral.csv');
 		expect(r.signal).toBeNull();

@@ -30,9 +30,20 @@ const xs = makeChannels(
 );
 const wavPath = join(dir, 'board.wav');
 {
-	const w = new FloatWavWriter(wavPath, [{ name: 'L1', unit: 'V' }, { name: 'L2', unit: 'V' }, { name: 'L3', unit: 'V' }, { name: 'I1', unit: 'A' }], FS, xs[0].length);
+	const w = new FloatWavWriter(
+		wavPath,
+		[
+			{ name: 'L1', unit: 'V' },
+			{ name: 'L2', unit: 'V' },
+			{ name: 'L3', unit: 'V' },
+			{ name: 'I1', unit: 'A' },
+		],
+		FS,
+		xs[0].length,
+	);
 	// in uneven blocks, as the bench does
-	for (let off = 0; off < xs[0].length; off += 7001) w.write(xs.map((x) => x.subarray(off, Math.min(x.length, off + 7001))));
+	for (let off = 0; off < xs[0].length; off += 7001)
+		w.write(xs.map((x) => x.subarray(off, Math.min(x.length, off + 7001))));
 	w.close();
 }
 
@@ -64,9 +75,27 @@ describe('trendCommand', () => {
 
 	it('trendCommand([wav], { json }) lists an interruption of all three phases once, not also as the dip that contains it', async () => {
 		const cut = [{ fromS: 0.5, toS: 0.7, rms: 0 }];
-		const ys = makeChannels([{ rms: 230, phaseDeg: 0, steps: cut }, { rms: 230, phaseDeg: -120, steps: cut }, { rms: 230, phaseDeg: 120, steps: cut }], { f0Hz: 50 }, FS, 2);
+		const ys = makeChannels(
+			[
+				{ rms: 230, phaseDeg: 0, steps: cut },
+				{ rms: 230, phaseDeg: -120, steps: cut },
+				{ rms: 230, phaseDeg: 120, steps: cut },
+			],
+			{ f0Hz: 50 },
+			FS,
+			2,
+		);
 		const path = join(dir, 'outage.wav');
-		const w = new FloatWavWriter(path, [{ name: 'L1', unit: 'V' }, { name: 'L2', unit: 'V' }, { name: 'L3', unit: 'V' }], FS, ys[0].length);
+		const w = new FloatWavWriter(
+			path,
+			[
+				{ name: 'L1', unit: 'V' },
+				{ name: 'L2', unit: 'V' },
+				{ name: 'L3', unit: 'V' },
+			],
+			FS,
+			ys[0].length,
+		);
 		w.write(ys);
 		w.close();
 		const out = sink();
@@ -82,7 +111,9 @@ describe('trendCommand', () => {
 		const code = await trendCommand([wavPath], { nominal: '230', stdout: out, stderr: err });
 		expect(code).toBe(0);
 		const lines = out.text().trim().split('\n');
-		expect(lines[0]).toBe('interval,start_s,duration_s,cycles,frequency_hz,complete,flagged,L1 rms (V),L1 THD (%),L2 rms (V),L2 THD (%),L3 rms (V),L3 THD (%),I1 rms (A),I1 THD (%)');
+		expect(lines[0]).toBe(
+			'interval,start_s,duration_s,cycles,frequency_hz,complete,flagged,L1 rms (V),L1 THD (%),L2 rms (V),L2 THD (%),L3 rms (V),L3 THD (%),I1 rms (A),I1 THD (%)',
+		);
 		expect(lines.length).toBeGreaterThanOrEqual(9);
 		for (const l of lines.slice(1)) {
 			const c = l.split(',');
@@ -155,13 +186,25 @@ describe('trendCommand', () => {
 	// and a binary file's offset (ImportError line 0, column = offset + 1) printed as `byte N`.
 	it('error lines: sinecheck: prefix, the path as given, line/column only when known, byte N for a binary offset', () => {
 		const got = ', got "x"';
-		expect(trendErrorLine(new ImportError('data/a.csv', 12, 7, 'bad-number', 'x', 'a number'), 'data/a.csv')).toBe(`sinecheck: data/a.csv:12:7: bad-number: expected a number${got}`);
-		expect(trendErrorLine(new ImportError('data/a.csv', 3, 0, 'no-data', '', 'rows of numbers'), 'data/a.csv')).toBe('sinecheck: data/a.csv:3: no-data: expected rows of numbers');
-		expect(trendErrorLine(new ImportError('data/a.cfg', 0, 0, 'missing-companion-file', '', 'the .dat'), 'data/a.cfg')).toBe('sinecheck: data/a.cfg: missing-companion-file: expected the .dat');
+		expect(trendErrorLine(new ImportError('data/a.csv', 12, 7, 'bad-number', 'x', 'a number'), 'data/a.csv')).toBe(
+			`sinecheck: data/a.csv:12:7: bad-number: expected a number${got}`,
+		);
+		expect(trendErrorLine(new ImportError('data/a.csv', 3, 0, 'no-data', '', 'rows of numbers'), 'data/a.csv')).toBe(
+			'sinecheck: data/a.csv:3: no-data: expected rows of numbers',
+		);
+		expect(
+			trendErrorLine(new ImportError('data/a.cfg', 0, 0, 'missing-companion-file', '', 'the .dat'), 'data/a.cfg'),
+		).toBe('sinecheck: data/a.cfg: missing-companion-file: expected the .dat');
 		// WAV / binary .dat: column 37 = byte offset 36
-		expect(trendErrorLine(new ImportError('rec/b.wav', 0, 37, 'bad-wav', '', "'data' chunk"), 'rec/b.wav')).toBe("sinecheck: rec/b.wav: byte 36: bad-wav: expected 'data' chunk");
-		expect(trendErrorLine(new RangeError('sample rate must be above 0'), 'rec/b.wav')).toBe('sinecheck: rec/b.wav: sample rate must be above 0');
-		expect(trendErrorLine(new Error('boom'), 'rec/b.wav')).toMatch(/^sinecheck: rec\/b\.wav: could not analyse: an internal check failed/);
+		expect(trendErrorLine(new ImportError('rec/b.wav', 0, 37, 'bad-wav', '', "'data' chunk"), 'rec/b.wav')).toBe(
+			"sinecheck: rec/b.wav: byte 36: bad-wav: expected 'data' chunk",
+		);
+		expect(trendErrorLine(new RangeError('sample rate must be above 0'), 'rec/b.wav')).toBe(
+			'sinecheck: rec/b.wav: sample rate must be above 0',
+		);
+		expect(trendErrorLine(new Error('boom'), 'rec/b.wav')).toMatch(
+			/^sinecheck: rec\/b\.wav: could not analyse: an internal check failed/,
+		);
 	});
 
 	it('a bad WAV in a sub-folder is named by the path as given (not its base name), with its byte offset', async () => {
@@ -169,7 +212,15 @@ describe('trendCommand', () => {
 		mkdirSync(sub, { recursive: true });
 		const p = join(sub, 'truncated.wav');
 		// RIFF/WAVE header and a 'fmt ' chunk that says 16 bytes but stops after 4: no 'data' chunk anywhere
-		writeFileSync(p, Buffer.concat([Buffer.from('RIFF'), Buffer.alloc(4), Buffer.from('WAVEfmt '), Buffer.from([16, 0, 0, 0, 1, 0, 1, 0])]));
+		writeFileSync(
+			p,
+			Buffer.concat([
+				Buffer.from('RIFF'),
+				Buffer.alloc(4),
+				Buffer.from('WAVEfmt '),
+				Buffer.from([16, 0, 0, 0, 1, 0, 1, 0]),
+			]),
+		);
 		const given = relative(process.cwd(), p);
 		const err = sink();
 		const code = await trendCommand([given], { stdout: sink(), stderr: err });
@@ -207,33 +258,45 @@ describe('trendCommand', () => {
 		mkdirSync(empty, { recursive: true });
 		const err2 = sink();
 		expect(await trendCommand([empty], { stdout: sink(), stderr: err2 })).toBe(2);
-		expect(err2.text()).toMatch(new RegExp(`^sinecheck: ${empty.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}: no recordings found`));
+		expect(err2.text()).toMatch(
+			new RegExp(`^sinecheck: ${empty.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}: no recordings found`),
+		);
 	});
 
 	const feeder = '../shared/data/feeder-sag-1999/feeder-sag.cfg';
-	if (!existsSync(feeder)) console.warn(`tests/cli/trend/trend-command.test.ts: ${feeder} is absent; the COMTRADE case is skipped.`);
-	it.skipIf(!existsSync(feeder))('trendCommand([cfg], { nominal: 7200 }) reads the COMTRADE field recording and reports the dip on Vb and Vc', async () => {
-		const out = sink();
-		const err = sink();
-		const code = await trendCommand([feeder], { json: true, nominal: 7200, stdout: out, stderr: err });
-		expect(code).toBe(0);
-		const doc = JSON.parse(out.text());
-		expect(doc.events.map((e: { kind: string }) => e.kind)).toEqual(['dip']);
-		expect(doc.events[0].channels).toEqual(['Vb', 'Vc']);
-	});
+	if (!existsSync(feeder))
+		console.warn(`tests/cli/trend/trend-command.test.ts: ${feeder} is absent; the COMTRADE case is skipped.`);
+	it.skipIf(!existsSync(feeder))(
+		'trendCommand([cfg], { nominal: 7200 }) reads the COMTRADE field recording and reports the dip on Vb and Vc',
+		async () => {
+			const out = sink();
+			const err = sink();
+			const code = await trendCommand([feeder], { json: true, nominal: 7200, stdout: out, stderr: err });
+			expect(code).toBe(0);
+			const doc = JSON.parse(out.text());
+			expect(doc.events.map((e: { kind: string }) => e.kind)).toEqual(['dip']);
+			expect(doc.events[0].channels).toEqual(['Vb', 'Vc']);
+		},
+	);
 
-	it.skipIf(!existsSync(feeder))('a COMTRADE .cfg whose .dat is cut short: the error names the .dat by the folder the user gave', async () => {
-		const sub = join(dir, 'cut');
-		mkdirSync(sub, { recursive: true });
-		copyFileSync(feeder, join(sub, 'feeder.cfg'));
-		// keep the first 10 of the 3584 records the .cfg announces (PROVENANCE.md): too short
-		const dat = readFileSync(feeder.replace(/\.cfg$/, '.dat'), 'utf8').split(/\r?\n/).slice(0, 10).join('\n');
-		writeFileSync(join(sub, 'feeder.dat'), dat + '\n');
-		const given = relative(process.cwd(), join(sub, 'feeder.cfg'));
-		const err = sink();
-		expect(await trendCommand([given], { stdout: sink(), stderr: err })).toBe(2);
-		const line = err.text().trim();
-		expect(line).toMatch(/^sinecheck: /);
-		expect(line).toContain(given.replace(/\.cfg$/, '.dat'));
-	});
+	it.skipIf(!existsSync(feeder))(
+		'a COMTRADE .cfg whose .dat is cut short: the error names the .dat by the folder the user gave',
+		async () => {
+			const sub = join(dir, 'cut');
+			mkdirSync(sub, { recursive: true });
+			copyFileSync(feeder, join(sub, 'feeder.cfg'));
+			// keep the first 10 of the 3584 records the .cfg announces (PROVENANCE.md): too short
+			const dat = readFileSync(feeder.replace(/\.cfg$/, '.dat'), 'utf8')
+				.split(/\r?\n/)
+				.slice(0, 10)
+				.join('\n');
+			writeFileSync(join(sub, 'feeder.dat'), dat + '\n');
+			const given = relative(process.cwd(), join(sub, 'feeder.cfg'));
+			const err = sink();
+			expect(await trendCommand([given], { stdout: sink(), stderr: err })).toBe(2);
+			const line = err.text().trim();
+			expect(line).toMatch(/^sinecheck: /);
+			expect(line).toContain(given.replace(/\.cfg$/, '.dat'));
+		},
+	);
 });
