@@ -57,18 +57,24 @@ function allocate(nA: number, nD: number, n: number): Pick<DatContent, 'raw' | '
 	};
 }
 
-function readBinary(
+/** A binary record: 4-byte sample number, 4-byte time stamp, the analog values, then 16 digital states per 2-byte word. */
+const RECORD_HEADER_BYTES = 8;
+const DIGITAL_WORD_BYTES = 2;
+const DIGITALS_PER_WORD = 16;
+
+/** Record layout of a binary .dat and the records to read; throws when the data is shorter than the .cfg says. */
+function binaryLayout(
 	cfg: ComtradeConfig,
 	bytes: Uint8Array,
 	source: string,
 	expected: number | undefined,
 	byteOffset: number,
-): DatContent {
+): { nA: number; nD: number; valueBytes: number; recordBytes: number; available: number; n: number } {
 	const nA = cfg.analog.length;
 	const nD = cfg.digital.length;
 	const valueBytes = cfg.fileType === 'BINARY' ? 2 : 4;
-	const words = Math.ceil(nD / 16);
-	const recordBytes = 8 + nA * valueBytes + 2 * words;
+	const words = Math.ceil(nD / DIGITALS_PER_WORD);
+	const recordBytes = RECORD_HEADER_BYTES + nA * valueBytes + DIGITAL_WORD_BYTES * words;
 	const available = Math.floor(bytes.length / recordBytes);
 	if (expected !== undefined && available < expected) {
 		throw new ImportError(
@@ -80,7 +86,17 @@ function readBinary(
 			`${expected} records of ${recordBytes} bytes (${expected * recordBytes} bytes) as the .cfg says; the data has ${bytes.length} bytes`,
 		);
 	}
-	const n = expected ?? available;
+	return { nA, nD, valueBytes, recordBytes, available, n: expected ?? available };
+}
+
+function readBinary(
+	cfg: ComtradeConfig,
+	bytes: Uint8Array,
+	source: string,
+	expected: number | undefined,
+	byteOffset: number,
+): DatContent {
+	const { nA, nD, valueBytes, recordBytes, available, n } = binaryLayout(cfg, bytes, source, expected, byteOffset);
 	const out = allocate(nA, nD, n);
 	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	const type = cfg.fileType;

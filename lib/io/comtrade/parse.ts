@@ -7,7 +7,7 @@
 import type { Capture, Channel, Diagnostic, DigitalChannel } from '../../capture.js';
 import { ImportError } from '../import-error.js';
 import { type CfgAnalog, type ComtradeConfig, parseComtradeCfg } from './cfg.js';
-import { readComtradeDat } from './dat.js';
+import { type DatContent, readComtradeDat } from './dat.js';
 import { checkDatType } from './dat-type.js';
 import { stampDifferenceS } from './stamp.js';
 import { channelPhase, normaliseUnitText, quantityFromName } from '../../channel-identity.js';
@@ -49,6 +49,137 @@ export function parseComtrade(
 	return buildCapture(cfg, dat, source, datSource, options, {});
 }
 
+/** The data read and checked against the .cfg: its record count, extra records and trailing bytes said. */
+function readData(
+	cfg: ComtradeConfig,
+	datBytes: Uint8Array,
+	source: string,
+	datSource: string,
+	offsets: ComtradeDatOffsets,
+	diagnostics: Diagnostic[],
+): DatContent {
+	const lastRate = cfg.rates[cfg.rates.length - 1];
+	const expected = lastRate ? lastRate.endSample : cfg.endSampleNoRate || undefined;
+	checkDatType(cfg, datBytes, datSource, source, offsets.byte ?? 0);
+	const dat = readComtradeDat(cfg, datBytes, datSource, expected, offsets);
+	const n = dat.records;
+	if (n === 0) throw new ImportError(datSource, 1 + (offsets.line ?? 0), 0, 'no-data', '', 'at least one data record');
+	if (dat.extraRecords > 0)
+		diagnostics.push({
+			code: 'comtrade-extra-records',
+			severity: 'warning',
+			message: `The data holds ${dat.extraRecords} record(s) past the ${n} the .cfg declares; they are ignored.`,
+		});
+	if (dat.trailingBytes > 0)
+		diagnostics.push({
+			code: 'comtrade-trailing-bytes',
+			severity: 'warning',
+			message: `The data ends with ${dat.trailingBytes} byte(s) that do not make a whole record; they are ignored.`,
+		});
+	return dat;
+}
+
+/** Time stamp units: microseconds, or nanoseconds when a 2013 .cfg writes its stamps to more than 6 digits. */
+const STAMP_UNIT_US_S = 1e-6;
+const STAMP_UNIT_NS_S = 1e-9;
+const MICROSECOND_DIGITS = 6;
+
+/** Start of the record relative to the trigger, and one time stamp step in seconds. */
+function recordStart(
+	cfg: ComtradeConfig,
+	dat: DatContent,
+	diagnostics: Diagnostic[],
+): { startS: number; stampS: number } {
+	const stampUnitS =
+		cfg.revYear >= 2013 && (cfg.firstData?.fracDigits ?? 0) > MICROSECOND_DIGITS ? STAMP_UNIT_NS_S : STAMP_UNIT_US_S;
+	const stampS = cfg.timeMult * stampUnitS;
+	let recordZeroS = 0;
+	if (cfg.firstData && cfg.trigger) recordZeroS = stampDifferenceS(cfg.firstData, cfg.trigger);
+	else
+		diagnostics.push({
+			code: 'comtrade-no-trigger',
+			severity: 'assumption',
+			message: 'Without both the first-data and the trigger time stamps, times are counted from the first-data time.',
+		});
+	const firstStamp = Number.isFinite(dat.stamps[0]) ? dat.stamps[0] : 0;
+	const startS = recordZeroS + firstStamp * stampS;
+	if (firstStamp !== 0)
+		diagnostics.push({
+			code: 'comtrade-first-stamp',
+			severity: 'info',
+			message: `The first record's time stamp is ${firstStamp} × ${cfg.timeMult} × ${stampUnitS === STAMP_UNIT_US_S ? 'µs' : 'ns'}; the record starts ${fmt(startS)} s from the trigger.`,
+		});
+	return { startS, stampS };
+}
+
+/** Rate and stamps may disagree by 1 % of the span plus two stamp steps before it is said (our choice). */
+const STAMP_SPAN_TOLERANCE = 0.01;
+
+/** Broken sample numbers, and record time stamps that tell another span than the rate. */
+function timeNotes(
+	cfg: ComtradeConfig,
+	dat: DatContent,
+	time: { sampleRateHz: number; timeS?: Float64Array; stampS: number },
+	where: { datSource: string; lineOffset: number },
+	diagnostics: Diagnostic[],
+): void {
+	const { sampleRateHz, timeS, stampS } = time;
+	const n = dat.records;
+	if (dat.sampleNumberBreaks > 0) {
+		const at =
+			cfg.fileType === 'ASCII'
+				? `record ${dat.firstBreakRecord} (line ${dat.firstBreakRecord + where.lineOffset} of ${where.datSource})`
+				: `record ${dat.firstBreakRecord} of ${where.datSource}`;
+		diagnostics.push({
+			code: 'comtrade-sample-number-break',
+			severity: 'warning',
+			message: `Sample numbers do not run on by one from ${at}, ${dat.sampleNumberBreaks} place(s) in all: records may be missing; times follow the ${timeS && !cfg.rates.length ? 'time stamps' : 'sample rate'}.`,
+		});
+	}
+	// With a rate as the time base, the record time stamps should tell the same span; say so when they do not.
+	const lastStamp = dat.stamps[n - 1];
+	if (cfg.rates.length > 0 && !timeS && n > 1 && Number.isFinite(lastStamp) && Number.isFinite(dat.stamps[0])) {
+		const byStampsS = (lastStamp - dat.stamps[0]) * stampS;
+		const byRateS = (n - 1) / sampleRateHz;
+		if (Math.abs(byStampsS - byRateS) > STAMP_SPAN_TOLERANCE * byRateS + 2 * stampS) {
+			diagnostics.push({
+				code: 'comtrade-stamps-disagree',
+				severity: 'warning',
+				message: `The record time stamps span ${fmt(byStampsS)} s but ${n} samples at ${sampleRateHz} Hz span ${fmt(byRateS)} s; times follow the sample rate.`,
+			});
+		}
+	}
+}
+
+/** The analog channels scaled, named uniquely, with their missing values and skews said. */
+function analogChannels(
+	cfg: ComtradeConfig,
+	dat: DatContent,
+	want: 'primary' | 'secondary',
+	diagnostics: Diagnostic[],
+): Channel[] {
+	const channels = cfg.analog.map((a, c) => scaleChannel(a, dat.raw[c], want, diagnostics));
+	uniqueNames(channels, diagnostics);
+	if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want));
+	cfg.analog.forEach((a, c) => {
+		if (dat.missing[c] > 0)
+			diagnostics.push({
+				code: 'comtrade-missing-values',
+				severity: 'warning',
+				line: a.line,
+				message: `Channel ${channels[c].name}: ${dat.missing[c]} of ${dat.records} values are marked missing in the data; they are NaN.`,
+			});
+	});
+	const skewed = cfg.analog.filter((a) => a.skewUs !== 0);
+	if (skewed.length > 0)
+		diagnostics.push({
+			code: 'comtrade-skew-ignored',
+			severity: 'info',
+			message: `Channel skews (${skewed.map((a) => `${a.name} ${a.skewUs} µs`).join(', ')}) are reported, not corrected.`,
+		});
+	return channels;
+}
+
 /** Assemble the capture from a parsed .cfg and the data bytes (shared with the CFF reader). */
 export function buildCapture(
 	cfg: ComtradeConfig,
@@ -73,92 +204,11 @@ export function buildCapture(
 			severity: 'info',
 			message: 'The .cfg uses LF line ends where the standard asks for CRLF; read as usual.',
 		});
-
-	const lastRate = cfg.rates[cfg.rates.length - 1];
-	const expected = lastRate ? lastRate.endSample : cfg.endSampleNoRate || undefined;
-	checkDatType(cfg, datBytes, datSource, source, offsets.byte ?? 0);
-	const dat = readComtradeDat(cfg, datBytes, datSource, expected, offsets);
-	const n = dat.records;
-	if (n === 0) throw new ImportError(datSource, 1 + (offsets.line ?? 0), 0, 'no-data', '', 'at least one data record');
-	if (dat.extraRecords > 0)
-		diagnostics.push({
-			code: 'comtrade-extra-records',
-			severity: 'warning',
-			message: `The data holds ${dat.extraRecords} record(s) past the ${n} the .cfg declares; they are ignored.`,
-		});
-	if (dat.trailingBytes > 0)
-		diagnostics.push({
-			code: 'comtrade-trailing-bytes',
-			severity: 'warning',
-			message: `The data ends with ${dat.trailingBytes} byte(s) that do not make a whole record; they are ignored.`,
-		});
-
-	// Time stamps are in microseconds, or nanoseconds when a 2013 .cfg writes its stamps to 9 digits.
-	const stampUnitS = cfg.revYear >= 2013 && (cfg.firstData?.fracDigits ?? 0) > 6 ? 1e-9 : 1e-6;
-	const stampS = cfg.timeMult * stampUnitS;
-	let recordZeroS = 0;
-	if (cfg.firstData && cfg.trigger) recordZeroS = stampDifferenceS(cfg.firstData, cfg.trigger);
-	else
-		diagnostics.push({
-			code: 'comtrade-no-trigger',
-			severity: 'assumption',
-			message: 'Without both the first-data and the trigger time stamps, times are counted from the first-data time.',
-		});
-	const firstStamp = Number.isFinite(dat.stamps[0]) ? dat.stamps[0] : 0;
-	const startS = recordZeroS + firstStamp * stampS;
-	if (firstStamp !== 0)
-		diagnostics.push({
-			code: 'comtrade-first-stamp',
-			severity: 'info',
-			message: `The first record's time stamp is ${firstStamp} × ${cfg.timeMult} × ${stampUnitS === 1e-6 ? 'µs' : 'ns'}; the record starts ${fmt(startS)} s from the trigger.`,
-		});
-
-	const { sampleRateHz, timeS } = timeBase(cfg, dat.stamps, n, startS, stampS, datSource, diagnostics);
-	if (dat.sampleNumberBreaks > 0) {
-		const where =
-			cfg.fileType === 'ASCII'
-				? `record ${dat.firstBreakRecord} (line ${dat.firstBreakRecord + (offsets.line ?? 0)} of ${datSource})`
-				: `record ${dat.firstBreakRecord} of ${datSource}`;
-		diagnostics.push({
-			code: 'comtrade-sample-number-break',
-			severity: 'warning',
-			message: `Sample numbers do not run on by one from ${where}, ${dat.sampleNumberBreaks} place(s) in all: records may be missing; times follow the ${timeS && !cfg.rates.length ? 'time stamps' : 'sample rate'}.`,
-		});
-	}
-	// With a rate as the time base, the record time stamps should tell the same span; say so when they do not.
-	const lastStamp = dat.stamps[n - 1];
-	if (cfg.rates.length > 0 && !timeS && n > 1 && Number.isFinite(lastStamp) && Number.isFinite(dat.stamps[0])) {
-		const byStampsS = (lastStamp - dat.stamps[0]) * stampS;
-		const byRateS = (n - 1) / sampleRateHz;
-		if (Math.abs(byStampsS - byRateS) > 0.01 * byRateS + 2 * stampS) {
-			diagnostics.push({
-				code: 'comtrade-stamps-disagree',
-				severity: 'warning',
-				message: `The record time stamps span ${fmt(byStampsS)} s but ${n} samples at ${sampleRateHz} Hz span ${fmt(byRateS)} s; times follow the sample rate.`,
-			});
-		}
-	}
-
-	const channels = cfg.analog.map((a, c) => scaleChannel(a, dat.raw[c], want, diagnostics));
-	uniqueNames(channels, diagnostics);
-	if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want));
-	cfg.analog.forEach((a, c) => {
-		if (dat.missing[c] > 0)
-			diagnostics.push({
-				code: 'comtrade-missing-values',
-				severity: 'warning',
-				line: a.line,
-				message: `Channel ${channels[c].name}: ${dat.missing[c]} of ${n} values are marked missing in the data; they are NaN.`,
-			});
-	});
-	const skewed = cfg.analog.filter((a) => a.skewUs !== 0);
-	if (skewed.length > 0)
-		diagnostics.push({
-			code: 'comtrade-skew-ignored',
-			severity: 'info',
-			message: `Channel skews (${skewed.map((a) => `${a.name} ${a.skewUs} µs`).join(', ')}) are reported, not corrected.`,
-		});
-
+	const dat = readData(cfg, datBytes, source, datSource, offsets, diagnostics);
+	const { startS, stampS } = recordStart(cfg, dat, diagnostics);
+	const { sampleRateHz, timeS } = timeBase(cfg, dat.stamps, dat.records, startS, stampS, datSource, diagnostics);
+	timeNotes(cfg, dat, { sampleRateHz, timeS, stampS }, { datSource, lineOffset: offsets.line ?? 0 }, diagnostics);
+	const channels = analogChannels(cfg, dat, want, diagnostics);
 	const digital: DigitalChannel[] = cfg.digital.map((d, c) => ({
 		name: d.name || `D${d.index}`,
 		normalState: d.normalState,
@@ -172,7 +222,6 @@ export function buildCapture(
 			severity: 'info',
 			message: `Start time ${cfg.firstData.iso} is the recorder's local time as written in the .cfg${metadata['comtrade.time_code'] ? ` (time_code ${metadata['comtrade.time_code']})` : ''}.`,
 		});
-
 	return {
 		source,
 		sampleRateHz,
