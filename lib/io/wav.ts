@@ -111,23 +111,10 @@ function calibrationFromComment(comment: string | null): (WavChannelCalibration 
 	return out.length > 0 ? out : undefined;
 }
 
-/**
- * Read a WAV file.
- *
- * value = fullScale · x / 2^(bits−1) for integer samples (8-bit: (x − 128)/128), fullScale · x for float samples.
- *
- * @param bytes  the whole file
- * @param source  the file name, for errors and the capture
- * @param options  per-channel calibration; without one (here or in the file) a channel stays normalised
- *   (−1 … 1, unit '', quantity 'other') and an 'assumption' diagnostic says so
- * @throws ImportError 'bad-wav' (line 0, column = byte offset + 1), 'bad-option'
- * @example parseWav(bytes, 'clamp.wav', { channels: [{ fullScale: 650, unit: 'V', name: 'U1' }] }).channels[0].unit // 'V'
- */
-export function parseWav(bytes: Uint8Array, source: string, options: WavOptions = {}): Capture {
-	const { dataBytes, truncatedBy, isFloat } = checkRiff(bytes, source);
-	let wav: WaveFileLike;
+/** The decoder's view of the file; its own errors become 'bad-wav'. */
+function decodeWav(bytes: Uint8Array, source: string): WaveFileLike {
 	try {
-		wav = new WaveFile(bytes);
+		return new WaveFile(bytes);
 	} catch (e) {
 		throw new ImportError(
 			source,
@@ -138,22 +125,16 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 			'a WAV file the decoder can read',
 		);
 	}
-	const { numChannels, sampleRate, bitsPerSample } = wav.fmt;
-	const diagnostics: Diagnostic[] = [
-		{
-			code: 'wav-format',
-			severity: 'info',
-			message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples.`,
-		},
-	];
-	const blockBytes = (numChannels * bitsPerSample) / 8;
-	const frames = Math.floor(dataBytes / blockBytes);
-	if (truncatedBy > 0)
-		diagnostics.push({
-			code: 'wav-truncated',
-			severity: 'warning',
-			message: `The data chunk is ${truncatedBy} bytes shorter than its header says; the ${frames} whole sample frames present are read.`,
-		});
+}
+
+/** The calibration to use: the options' (checked against the channel count), else the file's INFO comment. */
+function chooseCalibration(
+	wav: WaveFileLike,
+	options: WavOptions,
+	source: string,
+	diagnostics: Diagnostic[],
+): (WavChannelCalibration | undefined)[] {
+	const { numChannels } = wav.fmt;
 	const optionCal = options.channels;
 	if (optionCal && optionCal.length > numChannels) {
 		throw new ImportError(
@@ -172,54 +153,126 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 			severity: 'info',
 			message: "Channel calibration taken from the file's INFO comment (sinecheck-calibration).",
 		});
-	const calibration = optionCal ?? fileCal ?? [];
+	return optionCal ?? fileCal ?? [];
+}
 
+/** Unsigned 8-bit PCM is centred on 128; wider integers are signed, full scale 2^(bits−1). Ref: RIFF WAVE (common practice). */
+const PCM8_CENTRE = 128;
+
+/** How interleaved codes become full-scale fractions: value = scaleIn · (x − shift). */
+function codeScale(isFloat: boolean, bitsPerSample: number): { scaleIn: number; shift: number } {
+	const pcm8 = !isFloat && bitsPerSample === 8;
+	return {
+		scaleIn: isFloat ? 1 : pcm8 ? 1 / PCM8_CENTRE : 1 / 2 ** (bitsPerSample - 1),
+		shift: pcm8 ? PCM8_CENTRE : 0,
+	};
+}
+
+/** Channel `c` taken out of the interleaved frames and scaled by its calibration (or left normalised). */
+function wavChannel(
+	interleaved: Float64Array,
+	c: number,
+	frames: number,
+	numChannels: number,
+	code: { scaleIn: number; shift: number },
+	cal: WavChannelCalibration | undefined,
+	source: string,
+): Channel {
+	if (cal && !(Number.isFinite(cal.fullScale) && cal.fullScale !== 0)) {
+		throw new ImportError(
+			source,
+			0,
+			0,
+			'bad-option',
+			String(cal.fullScale),
+			`a non-zero full-scale value for channel ${c + 1}`,
+		);
+	}
+	const u = normaliseUnitText(cal?.unit ?? '');
+	const name = cal?.name ?? `ch${c + 1}`;
+	const factor = cal ? cal.fullScale * u.factor * code.scaleIn : code.scaleIn;
+	const offset = -code.shift * factor;
+	const samples = new Float64Array(frames);
+	for (let k = 0, j = c; k < frames; k++, j += numChannels) samples[k] = factor * interleaved[j] + offset;
+	const quantity =
+		cal?.quantity ?? (u.quantity !== 'other' ? u.quantity : cal ? (quantityFromName(name) ?? 'other') : 'other');
+	const ch: Channel = {
+		name,
+		unit: u.unit,
+		quantity,
+		samples,
+		scaling: {
+			factor,
+			offset,
+			description: cal
+				? `${cal.fullScale} ${cal.unit ?? ''} at full scale`
+				: 'normalised to full scale (no calibration)',
+		},
+	};
+	const ph = cal ? channelPhase(name, cal.phase) : undefined;
+	if (ph) ch.phase = ph;
+	return ch;
+}
+
+/** The file's format and the INFO tags worth keeping. */
+function wavMetadata(wav: WaveFileLike): Record<string, string> {
+	const metadata: Record<string, string> = {
+		'wav.channels': String(wav.fmt.numChannels),
+		'wav.sampleRateHz': String(wav.fmt.sampleRate),
+		'wav.bitDepth': wav.bitDepth,
+	};
+	for (const tag of ['INAM', 'ICMT', 'ICRD', 'ISFT']) {
+		const v = safeTag(wav, tag);
+		if (v) metadata[`wav.${tag}`] = v;
+	}
+	return metadata;
+}
+
+/**
+ * Read a WAV file.
+ *
+ * value = fullScale · x / 2^(bits−1) for integer samples (8-bit: (x − 128)/128), fullScale · x for float samples.
+ *
+ * @param bytes  the whole file
+ * @param source  the file name, for errors and the capture
+ * @param options  per-channel calibration; without one (here or in the file) a channel stays normalised
+ *   (−1 … 1, unit '', quantity 'other') and an 'assumption' diagnostic says so
+ * @throws ImportError 'bad-wav' (line 0, column = byte offset + 1), 'bad-option'
+ * @example parseWav(bytes, 'clamp.wav', { channels: [{ fullScale: 650, unit: 'V', name: 'U1' }] }).channels[0].unit // 'V'
+ */
+export function parseWav(bytes: Uint8Array, source: string, options: WavOptions = {}): Capture {
+	const { dataBytes, truncatedBy, isFloat } = checkRiff(bytes, source);
+	const wav = decodeWav(bytes, source);
+	const { numChannels, sampleRate, bitsPerSample } = wav.fmt;
+	const diagnostics: Diagnostic[] = [
+		{
+			code: 'wav-format',
+			severity: 'info',
+			message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples.`,
+		},
+	];
+	const blockBytes = (numChannels * bitsPerSample) / 8;
+	const frames = Math.floor(dataBytes / blockBytes);
+	if (truncatedBy > 0)
+		diagnostics.push({
+			code: 'wav-truncated',
+			severity: 'warning',
+			message: `The data chunk is ${truncatedBy} bytes shorter than its header says; the ${frames} whole sample frames present are read.`,
+		});
+	const calibration = chooseCalibration(wav, options, source, diagnostics);
 	const interleaved = wav.getSamples(true);
-	const scaleIn = isFloat ? 1 : bitsPerSample === 8 ? 1 / 128 : 1 / 2 ** (bitsPerSample - 1);
-	const shift = !isFloat && bitsPerSample === 8 ? 128 : 0;
+	const code = codeScale(isFloat, bitsPerSample);
 	const channels: Channel[] = [];
 	const uncalibrated: string[] = [];
 	for (let c = 0; c < numChannels; c++) {
 		const cal = calibration[c];
-		if (cal && !(Number.isFinite(cal.fullScale) && cal.fullScale !== 0)) {
-			throw new ImportError(
-				source,
-				0,
-				0,
-				'bad-option',
-				String(cal.fullScale),
-				`a non-zero full-scale value for channel ${c + 1}`,
-			);
-		}
-		const u = normaliseUnitText(cal?.unit ?? '');
-		const name = cal?.name ?? `ch${c + 1}`;
-		const factor = cal ? cal.fullScale * u.factor * scaleIn : scaleIn;
-		const offset = -shift * factor;
-		const samples = new Float64Array(frames);
-		for (let k = 0, j = c; k < frames; k++, j += numChannels) samples[k] = factor * interleaved[j] + offset;
-		const quantity =
-			cal?.quantity ?? (u.quantity !== 'other' ? u.quantity : cal ? (quantityFromName(name) ?? 'other') : 'other');
-		const ch: Channel = {
-			name,
-			unit: u.unit,
-			quantity,
-			samples,
-			scaling: {
-				factor,
-				offset,
-				description: cal
-					? `${cal.fullScale} ${cal.unit ?? ''} at full scale`
-					: 'normalised to full scale (no calibration)',
-			},
-		};
-		const ph = cal ? channelPhase(name, cal.phase) : undefined;
-		if (ph) ch.phase = ph;
-		if (!cal) uncalibrated.push(name);
+		const ch = wavChannel(interleaved, c, frames, numChannels, code, cal, source);
+		if (!cal) uncalibrated.push(ch.name);
 		else
 			diagnostics.push({
 				code: 'wav-calibration',
 				severity: 'info',
-				message: `Channel ${c + 1} (${name}): full scale = ${cal.fullScale} ${cal.unit ?? ''}.`,
+				message: `Channel ${c + 1} (${ch.name}): full scale = ${cal.fullScale} ${cal.unit ?? ''}.`,
 			});
 		channels.push(ch);
 	}
@@ -230,16 +283,7 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 			message: `No calibration for ${uncalibrated.join(', ')}: samples are left as fractions of full scale (−1 … 1), unit '' and quantity 'other'. Give volts or amps at full scale to get real values.`,
 		});
 	}
-	const metadata: Record<string, string> = {
-		'wav.channels': String(numChannels),
-		'wav.sampleRateHz': String(sampleRate),
-		'wav.bitDepth': wav.bitDepth,
-	};
-	for (const tag of ['INAM', 'ICMT', 'ICRD', 'ISFT']) {
-		const v = safeTag(wav, tag);
-		if (v) metadata[`wav.${tag}`] = v;
-	}
-	return { source, sampleRateHz: sampleRate, startS: 0, channels, metadata, diagnostics };
+	return { source, sampleRateHz: sampleRate, startS: 0, channels, metadata: wavMetadata(wav), diagnostics };
 }
 
 function safeTag(wav: WaveFileLike, tag: string): string | null {
