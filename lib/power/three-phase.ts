@@ -3,7 +3,7 @@
  * power and its decomposition, positive-sequence powers, fundamental unbalance power.
  */
 import type { HarmonicSet } from '../spectrum/types.js';
-import { symmetricalComponents } from '../phasor/sequence.js';
+import { symmetricalComponents, type SequenceComponents } from '../phasor/sequence.js';
 import {
 	complexPower,
 	phasorAbs,
@@ -108,25 +108,9 @@ export interface ThreePhasePower {
 	vectorApparentPowerVA: number;
 }
 
-/**
- * IEEE 1459-2010 three-phase quantities from RMS values, fundamental phasors and per-phase P.
- *
- * 4-wire (ρ = ξ = 1): I_e = √((I1² + I2² + I3² + I_n²)/3);  V_e = √((3·ΣV_x² + ΣV_xy²)/18)
- * 3-wire:             I_e = √((I1² + I2² + I3²)/3);          V_e = √(ΣV_xy²/9)
- * S_e = 3·V_e·I_e; S_e1 from the fundamentals; S_eN² = S_e² − S_e1²; D_eI = 3V_e1I_eH; D_eV = 3V_eHI_e1;
- * S_eH = 3V_eHI_eH; S1+ = 3·V1+·I1+; S_U1 = √(S_e1² − S1+²); PF_e = P/S_e.
- * The positive sequence is taken in the measured rotation (phases 2 and 3 swapped when the labels run in
- * negative rotation; see `sequenceOrder`).
- *
- * Ref: IEEE Std 1459-2010, 3.2 (three-phase, non-sinusoidal and unbalanced) (from memory; formulas as in
- * docs/methods.md §5.2).
- * @returns the quantities; ratios NaN when their denominator is 0
- * @example ieee1459ThreePhaseFromComponents(c).effectivePowerFactor // 0.82552 for docs/methods.md §5.4
- */
-export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): ThreePhasePower {
-	const sq = (x: number) => x * x;
-	const sum = (a: Three<number>) => a[0] + a[1] + a[2];
-	const perPhase = [0, 1, 2].map((k) =>
+/** Each phase on its own (IEEE 1459 single-phase), θ1 from its fundamental phasors. */
+function singlePhaseParts(c: ThreePhaseComponents): Three<SinglePhasePower> {
+	return [0, 1, 2].map((k) =>
 		ieee1459FromComponents({
 			voltageRmsV: c.voltageRmsV[k],
 			currentRmsA: c.currentRmsA[k],
@@ -136,6 +120,22 @@ export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): Three
 			activePowerW: c.activePowerW[k],
 		}),
 	) as Three<SinglePhasePower>;
+}
+
+/**
+ * Effective voltage and current (total, fundamental, non-fundamental), IEEE 1459-2010 3.2:
+ * 4-wire V_e = √((3·ΣV_x² + ΣV_xy²)/18), I_e = √((ΣI_x² + I_n²)/3); 3-wire V_e = √(ΣV_xy²/9), I_e = √(ΣI_x²/3).
+ */
+function effectiveValues(c: ThreePhaseComponents): {
+	Ve: number;
+	Ie: number;
+	Ve1: number;
+	Ie1: number;
+	VeH: number;
+	IeH: number;
+} {
+	const sq = (x: number) => x * x;
+	const sum = (a: Three<number>) => a[0] + a[1] + a[2];
 	const v1Mag = c.v1.map(phasorAbs) as Three<number>;
 	const i1Mag = c.i1.map(phasorAbs) as Three<number>;
 	const v1Line = [phasorSub(c.v1[0], c.v1[1]), phasorSub(c.v1[1], c.v1[2]), phasorSub(c.v1[2], c.v1[0])].map(
@@ -154,17 +154,46 @@ export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): Three
 	const Ie = ie(c.currentRmsA, c.neutralCurrentRmsA);
 	const Ve1 = ve(v1Mag, v1Line);
 	const Ie1 = ie(i1Mag, in1);
-	const VeH = sqrtPos(Ve * Ve - Ve1 * Ve1);
-	const IeH = sqrtPos(Ie * Ie - Ie1 * Ie1);
-	const Se = 3 * Ve * Ie;
-	const Se1 = 3 * Ve1 * Ie1;
-	const P = sum(c.activePowerW);
+	return { Ve, Ie, Ve1, Ie1, VeH: sqrtPos(Ve * Ve - Ve1 * Ve1), IeH: sqrtPos(Ie * Ie - Ie1 * Ie1) };
+}
+
+/** Sequence components in the measured rotation: phases 2 and 3 swapped when the labels run negative. */
+function positiveSequenceInRotation(c: ThreePhaseComponents): {
+	swap: boolean;
+	vSeq: SequenceComponents;
+	iSeq: SequenceComponents;
+} {
 	const asLabelled = symmetricalComponents(c.v1[0], c.v1[1], c.v1[2]);
 	const swap = asLabelled.negativeRms > asLabelled.positiveRms;
 	const vSeq = swap ? symmetricalComponents(c.v1[0], c.v1[2], c.v1[1]) : asLabelled;
 	const iSeq = swap
 		? symmetricalComponents(c.i1[0], c.i1[2], c.i1[1])
 		: symmetricalComponents(c.i1[0], c.i1[1], c.i1[2]);
+	return { swap, vSeq, iSeq };
+}
+
+/**
+ * IEEE 1459-2010 three-phase quantities from RMS values, fundamental phasors and per-phase P.
+ *
+ * 4-wire (ρ = ξ = 1): I_e = √((I1² + I2² + I3² + I_n²)/3);  V_e = √((3·ΣV_x² + ΣV_xy²)/18)
+ * 3-wire:             I_e = √((I1² + I2² + I3²)/3);          V_e = √(ΣV_xy²/9)
+ * S_e = 3·V_e·I_e; S_e1 from the fundamentals; S_eN² = S_e² − S_e1²; D_eI = 3V_e1I_eH; D_eV = 3V_eHI_e1;
+ * S_eH = 3V_eHI_eH; S1+ = 3·V1+·I1+; S_U1 = √(S_e1² − S1+²); PF_e = P/S_e.
+ * The positive sequence is taken in the measured rotation (phases 2 and 3 swapped when the labels run in
+ * negative rotation; see `sequenceOrder`).
+ *
+ * Ref: IEEE Std 1459-2010, 3.2 (three-phase, non-sinusoidal and unbalanced) (from memory; formulas as in
+ * docs/methods.md §5.2).
+ * @returns the quantities; ratios NaN when their denominator is 0
+ * @example ieee1459ThreePhaseFromComponents(c).effectivePowerFactor // 0.82552 for docs/methods.md §5.4
+ */
+export function ieee1459ThreePhaseFromComponents(c: ThreePhaseComponents): ThreePhasePower {
+	const perPhase = singlePhaseParts(c);
+	const { Ve, Ie, Ve1, Ie1, VeH, IeH } = effectiveValues(c);
+	const Se = 3 * Ve * Ie;
+	const Se1 = 3 * Ve1 * Ie1;
+	const P = c.activePowerW[0] + c.activePowerW[1] + c.activePowerW[2];
+	const { swap, vSeq, iSeq } = positiveSequenceInRotation(c);
 	const s1p = complexPower(vSeq.positive, iSeq.positive);
 	const S1p = 3 * phasorAbs(s1p);
 	const q1 =
