@@ -182,18 +182,19 @@ function shortCircuitOf(site: SiteInputs): { kva: number | undefined; from: 'sup
 	return { kva: undefined, from: null };
 }
 
-function correctionResult(
+type ShortCircuit = { kva: number | undefined; from: 'supply' | 'transformer' | null };
+type PhaseNeed = PfCorrectionResult['perPhase'][number];
+
+/** A true PF after correction more than this below the target is worth saying (0.01: two-decimal rounding, our choice). */
+const TRUE_PF_SHORTFALL = 0.01;
+
+/** kvar to add per phase (none for a leading phase) and the sentence for each. */
+function perPhaseNeeds(
 	phases: PhasePowerFigures[],
-	currents: CurrentSpectrum[],
 	target: number,
-	ssc: { kva: number | undefined; from: 'supply' | 'transformer' | null },
-) {
-	const conclusions: string[] = [];
-	const assumptions = [
-		'P1 and the displacement power factor are those of the recording; size the bank on the maximum demand, not on one recording.',
-		`An order counts as present in the current at ${PRESENT_ORDER_PERCENT} % of the fundamental or more; a resonance within ${RESONANCE_NEAR_FRACTION * 100} % of such an order counts as near it.`,
-	];
-	const warnings: string[] = [];
+	conclusions: string[],
+	warnings: string[],
+): PhaseNeed[] {
 	const perPhase = phases.map((p) => {
 		const p1 = Number.isFinite(p.fundamentalActiveW) ? p.fundamentalActiveW : p.activeW;
 		const q = p.character === 'capacitive' ? 0 : reactivePowerToAdd(p1, p.displacementPowerFactor, target);
@@ -209,7 +210,6 @@ function correctionResult(
 			reactiveToAddVar: q,
 		};
 	});
-	const total = perPhase.reduce((s, p) => s + p.reactiveToAddVar, 0);
 	phases.forEach((ph, k) => {
 		const p = perPhase[k];
 		const dpf = fmt(p.displacementPowerFactor, 3);
@@ -226,34 +226,42 @@ function correctionResult(
 				`${p.label}: no capacitors needed (displacement PF ${dpf}${ph.character === 'capacitive' ? ', leading' : ''}; target ${fmt(target, 2)}).`,
 			);
 	});
-	if (phases.length > 1 && total > 0) conclusions.push(`All phases recorded: ${fmt(total / 1000, 2)} kvar.`);
-	// Ssc is a three-phase figure: the resonance is worked out for the three-phase bank.
-	const bankVar = (total * 3) / Math.min(3, phases.length);
-	if (phases.length < 3)
-		assumptions.push(
-			`Only ${phases.length} phase(s) recorded: the resonance is worked out for a balanced three-phase bank of ${fmt(bankVar / 1000, 2)} kvar (${3 / phases.length} × the recorded phases) on a three-phase supply; on a single-phase supply use its own short-circuit power and the kvar as recorded.`,
-		);
-	const present = ordersPresent(currents);
+	return perPhase;
+}
+
+/** Resonance order of the whole bank with the supply, and the orders present in the current near it. */
+function resonanceNotes(
+	ssc: ShortCircuit,
+	total: number,
+	bankVar: number,
+	present: number[],
+	out: { conclusions: string[]; assumptions: string[]; warnings: string[] },
+): { h: number; near: number[] } {
 	const h = ssc.kva === undefined || !(total > 0) ? NaN : resonanceOrder(ssc.kva, bankVar / 1000);
 	if (ssc.from === 'transformer')
-		assumptions.push(
+		out.assumptions.push(
 			'Short-circuit power taken as transformer kVA ÷ per-unit impedance (the network upstream neglected): the true Ssc is lower, and so is the resonance order.',
 		);
 	const near = present.filter((n) => Math.abs(h - n) <= RESONANCE_NEAR_FRACTION * n);
 	if (Number.isFinite(h)) {
-		conclusions.push(
+		out.conclusions.push(
 			`With the whole bank in, it would resonate with the supply near harmonic order ${fmt(h, 1)}; with fewer steps switched in, the order rises.`,
 		);
 		if (near.length > 0)
-			warnings.push(
+			out.warnings.push(
 				`The resonance falls near order ${near.join(', ')}, present in the recorded current: a plain (undetuned) bank risks amplifying it. Consider a detuned bank.`,
 			);
 		const above = present.filter((n) => n >= h * (1 - RESONANCE_NEAR_FRACTION));
 		if (near.length === 0 && above.length > 0)
-			warnings.push(
+			out.warnings.push(
 				`Orders ${above.slice(0, 6).join(', ')} present in the current lie above the resonance: a partly switched bank can resonate with them.`,
 			);
 	}
+	return { h, near };
+}
+
+/** The usual detuning reactors and whether each tunes safely below the lowest order present. */
+function detunedOptions(present: number[], conclusions: string[]): PfCorrectionResult['detuned'] {
 	const lowest = present[0] ?? NaN;
 	const detuned = DETUNING_REACTOR_PERCENT.map((p) => ({
 		reactorPercent: p,
@@ -267,6 +275,15 @@ function correctionResult(
 		conclusions.push(
 			`Detuned reactors tuned safely below the lowest order present (${lowest}): ${fit.length ? fit.join(', ') : 'none of 5.67, 7, 14 %'}.`,
 		);
+	return detuned;
+}
+
+/** True PF after correction per phase, and whether the shortfall is harmonic (DPF meets the target, PF does not). */
+function afterCorrection(
+	phases: PhasePowerFigures[],
+	target: number,
+	conclusions: string[],
+): { after: number[]; harmonic: boolean } {
 	const after = phases.map((p) =>
 		p.character === 'capacitive' ? NaN : truePowerFactorAfter(p.powerFactor, p.displacementPowerFactor, target),
 	);
@@ -275,10 +292,33 @@ function correctionResult(
 		conclusions.push(
 			'The displacement power factor already meets the target but the true power factor does not: the shortfall is harmonic current, and capacitors will not fix it (harmonic filters or lower-distortion equipment do).',
 		);
-	else if (after.some((x) => x < target - 0.01))
+	else if (after.some((x) => x < target - TRUE_PF_SHORTFALL))
 		conclusions.push(
 			`With the harmonic current as recorded the true PF after correction would be about ${after.map((x) => fmt(x, 2)).join(', ')}: capacitors fix only the displacement part.`,
 		);
+	return { after, harmonic };
+}
+
+function correctionResult(phases: PhasePowerFigures[], currents: CurrentSpectrum[], target: number, ssc: ShortCircuit) {
+	const conclusions: string[] = [];
+	const assumptions = [
+		'P1 and the displacement power factor are those of the recording; size the bank on the maximum demand, not on one recording.',
+		`An order counts as present in the current at ${PRESENT_ORDER_PERCENT} % of the fundamental or more; a resonance within ${RESONANCE_NEAR_FRACTION * 100} % of such an order counts as near it.`,
+	];
+	const warnings: string[] = [];
+	const perPhase = perPhaseNeeds(phases, target, conclusions, warnings);
+	const total = perPhase.reduce((s, p) => s + p.reactiveToAddVar, 0);
+	if (phases.length > 1 && total > 0) conclusions.push(`All phases recorded: ${fmt(total / 1000, 2)} kvar.`);
+	// Ssc is a three-phase figure: the resonance is worked out for the three-phase bank.
+	const bankVar = (total * 3) / Math.min(3, phases.length);
+	if (phases.length < 3)
+		assumptions.push(
+			`Only ${phases.length} phase(s) recorded: the resonance is worked out for a balanced three-phase bank of ${fmt(bankVar / 1000, 2)} kvar (${3 / phases.length} × the recorded phases) on a three-phase supply; on a single-phase supply use its own short-circuit power and the kvar as recorded.`,
+		);
+	const present = ordersPresent(currents);
+	const { h, near } = resonanceNotes(ssc, total, bankVar, present, { conclusions, assumptions, warnings });
+	const detuned = detunedOptions(present, conclusions);
+	const { after, harmonic } = afterCorrection(phases, target, conclusions);
 	const result: PfCorrectionResult = {
 		perPhase,
 		totalReactiveToAddVar: total,

@@ -68,6 +68,40 @@ const METHOD = [
 	'Factor K = √(1 + e/(1+e) · (I_1/I)² · Σ_{n≥2} n^q (I_n/I_1)²), e = P_EC-R, q = 1.7; derate to 1/K (BS 7821-4 / HD 538.3 S1, from memory).',
 ];
 
+/** What the figures mean for the worst channel: its class, the load a standard transformer carries, the load recorded. */
+function loadingSentences(
+	w: { channel: string; rmsA?: number; phaseVoltageV?: number },
+	r: TransformerResult,
+	site: SiteInputs,
+	several: boolean,
+): { conclusions: string[]; warnings: string[] } {
+	const conclusions = [
+		`Harmonic loss factor F_HL (= K-factor) ${fmt(r.harmonicLossFactor, 2)} on ${w.channel}${several ? ' (the highest of the current channels)' : ''}.`,
+	];
+	conclusions.push(
+		r.kRatedClass === 1
+			? 'A standard (K-1) transformer carries this current spectrum without a K-rating.'
+			: Number.isFinite(r.kRatedClass)
+				? `If a K-rated transformer is chosen, K-${r.kRatedClass} or above covers this load.`
+				: 'The K-factor is above the K-50 class: ask the maker.',
+	);
+	if (Number.isFinite(r.maxLoadCurrentPu))
+		conclusions.push(
+			`A standard transformer may carry at most ${fmt(r.maxLoadCurrentPu * 100, 0)} % of its rated current with this spectrum${Number.isFinite(r.maxLoadKva) ? ` (${fmt(r.maxLoadKva, 0)} kVA of ${fmt(site.transformerKva!, 0)} kVA)` : ''}; BS 7821 factor K ${fmt(r.factorK, 3)} derates it to ${fmt(100 / r.factorK, 0)} %.`,
+		);
+	const warnings: string[] = [];
+	if (Number.isFinite(r.loadPu)) {
+		conclusions.push(
+			`${w.channel} carries ${fmt(w.rmsA!, 1)} A, ${fmt(r.loadPu * 100, 0)} % of the rated ${fmt(r.ratedCurrentA, 0)} A per phase at ${fmt(w.phaseVoltageV!, 0)} V (if this recording is the transformer's whole load).`,
+		);
+		if (r.loadPu > r.maxLoadCurrentPu)
+			warnings.push(
+				`${w.channel} at ${fmt(r.loadPu * 100, 0)} % of rated current is above the ${fmt(r.maxLoadCurrentPu * 100, 0)} % a standard transformer carries with this spectrum.`,
+			);
+	}
+	return { conclusions, warnings };
+}
+
 /**
  * The transformer step for the current channel with the highest K-factor.
  * @throws RangeError when no channel has a K-factor (no harmonics)
@@ -111,30 +145,7 @@ export function transformerLoading(
 		ratedCurrentA: ratedA,
 		loadPu,
 	};
-	const conclusions = [
-		`Harmonic loss factor F_HL (= K-factor) ${fmt(fhl, 2)} on ${worst.channel}${scored.length > 1 ? ' (the highest of the current channels)' : ''}.`,
-	];
-	conclusions.push(
-		result.kRatedClass === 1
-			? 'A standard (K-1) transformer carries this current spectrum without a K-rating.'
-			: Number.isFinite(result.kRatedClass)
-				? `If a K-rated transformer is chosen, K-${result.kRatedClass} or above covers this load.`
-				: 'The K-factor is above the K-50 class: ask the maker.',
-	);
-	if (Number.isFinite(imax))
-		conclusions.push(
-			`A standard transformer may carry at most ${fmt(imax * 100, 0)} % of its rated current with this spectrum${Number.isFinite(result.maxLoadKva) ? ` (${fmt(result.maxLoadKva, 0)} kVA of ${fmt(site.transformerKva!, 0)} kVA)` : ''}; BS 7821 factor K ${fmt(fk, 3)} derates it to ${fmt(100 / fk, 0)} %.`,
-		);
-	const warnings: string[] = [];
-	if (Number.isFinite(loadPu)) {
-		conclusions.push(
-			`${worst.channel} carries ${fmt(worst.rmsA!, 1)} A, ${fmt(loadPu * 100, 0)} % of the rated ${fmt(ratedA, 0)} A per phase at ${fmt(worst.phaseVoltageV!, 0)} V (if this recording is the transformer's whole load).`,
-		);
-		if (loadPu > imax)
-			warnings.push(
-				`${worst.channel} at ${fmt(loadPu * 100, 0)} % of rated current is above the ${fmt(imax * 100, 0)} % a standard transformer carries with this spectrum.`,
-			);
-	}
+	const { conclusions, warnings } = loadingSentences(worst, result, site, scored.length > 1);
 	return {
 		step: 'transformer-loading',
 		title: TITLE,
