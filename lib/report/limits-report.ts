@@ -51,6 +51,66 @@ function percents(c: ReportChannel, singleBins: boolean): number[] {
 	return rms.map((x) => (rms[1] > 0 ? (100 * x) / rms[1] : NaN));
 }
 
+/** With no voltage channel, the IEEE 519 row is that of a 400 V low-voltage bus (IEC 60038 nominal, common practice). */
+const ASSUMED_LOW_VOLTAGE_BUS_V = 400;
+
+/** IEEE 519 Table 1's bus voltage: the nominal given, else √3 × the highest voltage RMS measured (said in the notes). */
+function ieee519BusVoltage(
+	id: string,
+	measured: ReportChannel[],
+	options: AnalysisOptions,
+	notes: string[],
+): number | undefined {
+	let busVoltageV = options.nominalV;
+	if (id === 'ieee519' && busVoltageV === undefined) {
+		const vmax = Math.max(
+			0,
+			maxOf(
+				measured
+					.filter((c) => c.quantity === 'voltage')
+					.map((c) => c.rms)
+					.filter(Number.isFinite),
+			),
+		);
+		busVoltageV = vmax > 0 ? Math.round(Math.sqrt(3) * vmax) : ASSUMED_LOW_VOLTAGE_BUS_V;
+		notes.push(
+			`Bus voltage for the IEEE 519 row taken as ${busVoltageV} V (${vmax > 0 ? '√3 × the highest measured voltage' : 'no voltage channel: a low-voltage bus assumed'}); set the nominal voltage to choose the row.`,
+		);
+	}
+	return busVoltageV;
+}
+
+/** A current channel against IEEE 519 Tables 2–4: needs I_SC/I_L; I_L is the fundamental when not given (said). */
+function ieee519CurrentEvaluation(
+	c: ReportChannel,
+	options: AnalysisOptions,
+	singleBins: boolean,
+	busVoltageV: number | undefined,
+	notes: string[],
+): LimitEvaluation | undefined {
+	if (options.iscIl === undefined) {
+		notes.push(
+			`${c.name}: IEEE 519 current limits need the ratio of short-circuit current to maximum demand current (I_SC/I_L) at the point of common coupling; not evaluated.`,
+		);
+		return undefined;
+	}
+	const rms = rmsByOrder(c, singleBins);
+	const i1 = rms[1];
+	const ilA = options.ilA ?? i1;
+	if (options.ilA === undefined)
+		notes.push(
+			`${c.name}: I_L taken as the measured fundamental ${i1.toPrecision(4)} A (give the maximum demand current to use it instead); TDD then equals THD.`,
+		);
+	const percentOfIl = rms.map((x) => (100 * x) / ilA);
+	return evaluateLimits('ieee519', {
+		quantity: 'current',
+		percentOfIl,
+		busVoltageV,
+		iscIlRatio: options.iscIl,
+		edition: options.ieee519Edition ?? '2022',
+	});
+}
+
 /**
  * Evaluates every voltage channel (and, for IEEE 519, every current channel) of a report.
  *
@@ -72,22 +132,7 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 	const measured = report.channels.filter((c) => c.harmonics.length > 1);
 	for (const c of report.channels)
 		if (c.harmonics.length <= 1) notes.push(`${c.name}: no harmonics (no fundamental found); not evaluated.`);
-	let busVoltageV = options.nominalV;
-	if (id === 'ieee519' && busVoltageV === undefined) {
-		const vmax = Math.max(
-			0,
-			maxOf(
-				measured
-					.filter((c) => c.quantity === 'voltage')
-					.map((c) => c.rms)
-					.filter(Number.isFinite),
-			),
-		);
-		busVoltageV = vmax > 0 ? Math.round(Math.sqrt(3) * vmax) : 400;
-		notes.push(
-			`Bus voltage for the IEEE 519 row taken as ${busVoltageV} V (${vmax > 0 ? '√3 × the highest measured voltage' : 'no voltage channel: a low-voltage bus assumed'}); set the nominal voltage to choose the row.`,
-		);
-	}
+	const busVoltageV = ieee519BusVoltage(id, measured, options, notes);
 	let firstEvaluation: LimitEvaluation | undefined;
 	const add = (name: string, e: LimitEvaluation) => {
 		firstEvaluation ??= e;
@@ -110,30 +155,8 @@ export function limitsReport(report: AnalysisReport, options: AnalysisOptions): 
 				),
 			);
 		} else if (c.quantity === 'current' && id === 'ieee519') {
-			if (options.iscIl === undefined) {
-				notes.push(
-					`${c.name}: IEEE 519 current limits need the ratio of short-circuit current to maximum demand current (I_SC/I_L) at the point of common coupling; not evaluated.`,
-				);
-				continue;
-			}
-			const rms = rmsByOrder(c, singleBins);
-			const i1 = rms[1];
-			const ilA = options.ilA ?? i1;
-			if (options.ilA === undefined)
-				notes.push(
-					`${c.name}: I_L taken as the measured fundamental ${i1.toPrecision(4)} A (give the maximum demand current to use it instead); TDD then equals THD.`,
-				);
-			const percentOfIl = rms.map((x) => (100 * x) / ilA);
-			add(
-				c.name,
-				evaluateLimits(id, {
-					quantity: 'current',
-					percentOfIl,
-					busVoltageV,
-					iscIlRatio: options.iscIl,
-					edition: options.ieee519Edition ?? '2022',
-				}),
-			);
+			const e = ieee519CurrentEvaluation(c, options, singleBins, busVoltageV, notes);
+			if (e) add(c.name, e);
 		} else {
 			notes.push(`${c.name}: ${table.name} sets no limits for a ${c.quantity} channel; not evaluated.`);
 		}

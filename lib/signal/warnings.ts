@@ -50,24 +50,47 @@ export const DC_OFFSET_WARNING_RATIO = 0.05;
  * @example signalWarnings(sine 230 V 50 Hz at 1 kS/s for 0.1 s, 1000, { frequencyHz: 50, maxOrder: 40 })
  *   // [{ code: 'few-cycles', … }, { code: 'sample-rate-low-for-harmonics', message: '… highest order measurable is 9.' }]
  */
-export function signalWarnings(
-	samples: Float64Array,
-	sampleRateHz: number,
-	info: { frequencyHz?: number; cycles?: number; maxOrder?: number; nominalHz?: number; peakAccuracyPercent?: number },
-): Diagnostic[] {
+export function signalWarnings(samples: Float64Array, sampleRateHz: number, info: WarningInfo): Diagnostic[] {
 	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
 		throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
 	const out: Diagnostic[] = [];
-	const warn = (code: string, message: string) => out.push({ code, message, severity: 'warning' });
+	const warn: Warn = (code, message) => out.push({ code, message, severity: 'warning' });
 	const n = samples.length;
 	const f =
 		info.frequencyHz !== undefined && info.frequencyHz > 0 && Number.isFinite(info.frequencyHz)
 			? info.frequencyHz
 			: undefined;
+	const allFinite = nonFiniteWarning(samples, warn);
+	if (f !== undefined && n > 0) fewCyclesWarning(n, sampleRateHz, f, info.cycles, warn);
+	// The rate checks need only a fundamental to scale by: the nominal one will do when none was measured.
+	const f1 = f ?? (info.nominalHz !== undefined && info.nominalHz > 0 ? info.nominalHz : undefined);
+	if (f1 !== undefined) sampleRateWarnings(sampleRateHz, f1, info, warn);
+	if (allFinite && n > 0) {
+		const clip = clippingWarning(samples, f === undefined ? undefined : sampleRateHz / f);
+		if (clip) warn('clipping', clip);
+		const dc = dcOffsetWarning(samples, f === undefined ? undefined : sampleRateHz / f);
+		if (dc) warn('dc-offset', dc);
+	}
+	if (f !== undefined) frequencyRangeWarning(f, info.nominalHz, warn);
+	return out;
+}
 
+/** What signalWarnings knows of the record besides its samples (see its parameters). */
+export interface WarningInfo {
+	frequencyHz?: number;
+	cycles?: number;
+	maxOrder?: number;
+	nominalHz?: number;
+	peakAccuracyPercent?: number;
+}
+
+type Warn = (code: string, message: string) => void;
+
+/** 'non-finite-samples'; returns true when every sample is finite. */
+function nonFiniteWarning(samples: Float64Array, warn: Warn): boolean {
 	let bad = -1;
 	let badCount = 0;
-	for (let i = 0; i < n; i++) {
+	for (let i = 0; i < samples.length; i++) {
 		if (!Number.isFinite(samples[i])) {
 			if (bad < 0) bad = i;
 			badCount++;
@@ -79,21 +102,28 @@ export function signalWarnings(
 			`${badCount} sample(s) are not numbers (first at index ${bad}, value ${samples[bad]}); figures that include them are NaN.`,
 		);
 	}
+	return bad < 0;
+}
 
-	if (f !== undefined && n > 0) {
-		const recordCycles = (n * f) / sampleRateHz;
-		if (recordCycles < MIN_RECOMMENDED_CYCLES - 1e-3) {
-			const analysed = info.cycles !== undefined ? `, ${info.cycles} whole cycle(s) analysed` : '';
-			warn(
-				'few-cycles',
-				`The record holds only ${fmt(recordCycles)} cycles (${fmt((1000 * n) / sampleRateHz)} ms at ${fmt(f)} Hz${analysed}); ` +
-					`IEC 61000-4-30 basic values use 10 cycles at 50 Hz or 12 at 60 Hz, so these figures may vary more between captures.`,
-			);
-		}
+/** Slack on the cycle count, so a record of exactly 10 cycles (up to rounding) is not warned about. */
+const CYCLE_COUNT_SLACK = 1e-3;
+
+/** 'few-cycles': fewer than MIN_RECOMMENDED_CYCLES cycles of f in the record. */
+function fewCyclesWarning(n: number, sampleRateHz: number, f: number, cycles: number | undefined, warn: Warn): void {
+	const recordCycles = (n * f) / sampleRateHz;
+	if (recordCycles < MIN_RECOMMENDED_CYCLES - CYCLE_COUNT_SLACK) {
+		const analysed = cycles !== undefined ? `, ${cycles} whole cycle(s) analysed` : '';
+		warn(
+			'few-cycles',
+			`The record holds only ${fmt(recordCycles)} cycles (${fmt((1000 * n) / sampleRateHz)} ms at ${fmt(f)} Hz${analysed}); ` +
+				`IEC 61000-4-30 basic values use 10 cycles at 50 Hz or 12 at 60 Hz, so these figures may vary more between captures.`,
+		);
 	}
-	// The rate checks need only a fundamental to scale by: the nominal one will do when none was measured.
-	const f1 = f ?? (info.nominalHz !== undefined && info.nominalHz > 0 ? info.nominalHz : undefined);
-	if (f1 !== undefined && info.maxOrder !== undefined && info.maxOrder >= 1 && sampleRateHz <= 2 * info.maxOrder * f1) {
+}
+
+/** 'sample-rate-low-for-harmonics' (Nyquist) and 'sample-rate-low-for-accuracy' (sampled peak of a sine). */
+function sampleRateWarnings(sampleRateHz: number, f1: number, info: WarningInfo, warn: Warn): void {
+	if (info.maxOrder !== undefined && info.maxOrder >= 1 && sampleRateHz <= 2 * info.maxOrder * f1) {
 		const highest = Math.ceil(sampleRateHz / (2 * f1)) - 1;
 		warn(
 			'sample-rate-low-for-harmonics',
@@ -101,7 +131,7 @@ export function signalWarnings(
 				`it must exceed ${fmt(2 * info.maxOrder * f1)} Hz (Nyquist); the highest order measurable is ${highest}.`,
 		);
 	}
-	if (f1 !== undefined && info.peakAccuracyPercent !== undefined && info.peakAccuracyPercent > 0) {
+	if (info.peakAccuracyPercent !== undefined && info.peakAccuracyPercent > 0) {
 		const f = f1;
 		const worstPercent = 100 * (1 - Math.cos((Math.PI * f) / sampleRateHz));
 		if (worstPercent > info.peakAccuracyPercent) {
@@ -113,31 +143,26 @@ export function signalWarnings(
 			);
 		}
 	}
-	if (bad < 0 && n > 0) {
-		const clip = clippingWarning(samples, f === undefined ? undefined : sampleRateHz / f);
-		if (clip) warn('clipping', clip);
-		const dc = dcOffsetWarning(samples, f === undefined ? undefined : sampleRateHz / f);
-		if (dc) warn('dc-offset', dc);
+}
+
+/** 'frequency-out-of-range': f outside the IEC 61000-4-30 range of the nominal frequency (of both without one). */
+function frequencyRangeWarning(f: number, nominalHz: number | undefined, warn: Warn): void {
+	const range =
+		nominalHz === 50
+			? [MAINS_FREQUENCY_RANGES_HZ[50]]
+			: nominalHz === 60
+				? [MAINS_FREQUENCY_RANGES_HZ[60]]
+				: nominalHz === undefined
+					? [MAINS_FREQUENCY_RANGES_HZ[50], MAINS_FREQUENCY_RANGES_HZ[60]]
+					: [];
+	if (range.length > 0 && !range.some((r) => f >= r.lowHz && f <= r.highHz)) {
+		const which = range.map((r) => `${r.lowHz}–${r.highHz} Hz`).join(' or ');
+		warn(
+			'frequency-out-of-range',
+			`Frequency ${fmt(f)} Hz is outside the mains measurement range ${which} (IEC 61000-4-30): check the sample rate ` +
+				`stated in the file, or this is not a ${nominalHz ?? '50/60'} Hz mains signal.`,
+		);
 	}
-	if (f !== undefined) {
-		const range =
-			info.nominalHz === 50
-				? [MAINS_FREQUENCY_RANGES_HZ[50]]
-				: info.nominalHz === 60
-					? [MAINS_FREQUENCY_RANGES_HZ[60]]
-					: info.nominalHz === undefined
-						? [MAINS_FREQUENCY_RANGES_HZ[50], MAINS_FREQUENCY_RANGES_HZ[60]]
-						: [];
-		if (range.length > 0 && !range.some((r) => f >= r.lowHz && f <= r.highHz)) {
-			const which = range.map((r) => `${r.lowHz}–${r.highHz} Hz`).join(' or ');
-			warn(
-				'frequency-out-of-range',
-				`Frequency ${fmt(f)} Hz is outside the mains measurement range ${which} (IEC 61000-4-30): check the sample rate ` +
-					`stated in the file, or this is not a ${info.nominalHz ?? '50/60'} Hz mains signal.`,
-			);
-		}
-	}
-	return out;
 }
 
 function clippingWarning(samples: Float64Array, periodSamples: number | undefined): string | undefined {
