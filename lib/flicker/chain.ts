@@ -88,51 +88,21 @@ export class FlickerChain {
 	run(x: Float64Array, from: number, to: number, counts: Uint32Array, out: ChainStretch): void {
 		const c = this.c,
 			s = this.state;
-		const aA = c[0],
-			hb0 = c[1],
-			hb1 = c[2],
-			ha1 = c[3];
-		const p0 = c[4],
-			p1 = c[5],
-			p2 = c[6],
-			p3 = c[7],
-			p4 = c[8];
-		const q0 = c[9],
-			q1 = c[10],
-			q2 = c[11],
-			q3 = c[12],
-			q4 = c[13];
-		const r0 = c[14],
-			r1 = c[15],
-			r2 = c[16],
-			r3 = c[17],
-			r4 = c[18];
-		const u0 = c[19],
-			u1 = c[20],
-			u2 = c[21],
-			u3 = c[22],
-			u4 = c[23];
-		const v0 = c[24],
-			v1 = c[25],
-			v2 = c[26],
-			v3 = c[27],
-			v4 = c[28];
-		const aS = c[29],
-			scale = c[30];
-		let ms = s[ADAPTOR],
-			h1 = s[HP];
-		let pa = s[LP],
-			pb = s[LP + 1],
-			qa = s[LP + 2],
-			qb = s[LP + 3],
-			ra = s[LP + 4],
-			rb = s[LP + 5];
-		let ua = s[W],
-			ub = s[W + 1],
-			va = s[W + 2],
-			vb = s[W + 3];
-		let sm = s[SMOOTH],
-			u = s[LAST_U];
+		// Coefficients and states into locals, one row per filter section (the order of the constructor):
+		// the loop below then touches no array but its input and the Pinst classes.
+		// prettier-ignore
+		const aA = c[0], hb0 = c[1], hb1 = c[2], ha1 = c[3],
+			p0 = c[4], p1 = c[5], p2 = c[6], p3 = c[7], p4 = c[8],
+			q0 = c[9], q1 = c[10], q2 = c[11], q3 = c[12], q4 = c[13],
+			r0 = c[14], r1 = c[15], r2 = c[16], r3 = c[17], r4 = c[18],
+			u0 = c[19], u1 = c[20], u2 = c[21], u3 = c[22], u4 = c[23],
+			v0 = c[24], v1 = c[25], v2 = c[26], v3 = c[27], v4 = c[28],
+			aS = c[29], scale = c[30];
+		// prettier-ignore
+		let ms = s[ADAPTOR], h1 = s[HP],
+			pa = s[LP], pb = s[LP + 1], qa = s[LP + 2], qb = s[LP + 3], ra = s[LP + 4], rb = s[LP + 5],
+			ua = s[W], ub = s[W + 1], va = s[W + 2], vb = s[W + 3],
+			sm = s[SMOOTH], u = s[LAST_U];
 		let max = out.max,
 			sum = out.sum,
 			bad = 0;
@@ -166,22 +136,14 @@ export class FlickerChain {
 			if (pinst > max) max = pinst;
 			sum += pinst;
 		}
-		s[ADAPTOR] = ms;
-		s[HP] = h1;
-		s[LP] = pa;
-		s[LP + 1] = pb;
-		s[LP + 2] = qa;
-		s[LP + 3] = qb;
-		s[LP + 4] = ra;
-		s[LP + 5] = rb;
-		s[W] = ua;
-		s[W + 1] = ub;
-		s[W + 2] = va;
-		s[W + 3] = vb;
-		s[SMOOTH] = sm;
-		s[LAST_U] = u;
+		this.store(ms, h1, pa, pb, qa, qb, ra, rb, ua, ub, va, vb, sm, u);
 		out.max = max;
 		out.sum = sum;
 		out.nonFinite += bad;
+	}
+
+	/** Keeps the filter states for the next stretch (the order of the locals in `run`). */
+	private store(...states: number[]): void {
+		this.state.set(states);
 	}
 }
