@@ -16,3 +16,4 @@ export {
 	type FlickerLimitTableId,
 	type FlickerMeasured,
 } from './flicker.js';
+export * from './en50160-events.js';

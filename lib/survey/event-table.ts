@@ -1,29 +1,46 @@
 /**
  * Dips and swells counted once each in a residual-voltage (maximum-voltage) x duration table, and
  * interruptions by duration, in the classification of EN 50160:2010 (Tables 5 and 6; from memory,
- * docs/methods.md §4.1), which follows IEC TR 61000-2-8 and UNIPEDE practice.
+ * docs/methods.md §4.1), which follows IEC TR 61000-2-8: the one classification in
+ * lib/limits/en50160-events.ts, read with the table's 10 ms first edge and without the interruption row.
  */
+import {
+	DIP_DURATION_EDGES_MS,
+	DIP_RESIDUAL_EDGES_PERCENT,
+	en50160EventCell,
+	SHORT_INTERRUPTION_MAX_S,
+	SWELL_DURATION_EDGES_MS,
+	SWELL_LEVEL_EDGES_PERCENT,
+	type EventTableReading,
+} from '../limits/en50160-events.js';
 import type { SurveyEvent, SurveyEventTable } from './types.js';
 
-/** Duration band edges of the dip table, ms: 10-200, 200-500, 500-1000, 1000-5000, 5000-60000 (upper edge inclusive). */
-export const DIP_DURATION_EDGES_MS = [10, 200, 500, 1000, 5000, 60_000] as const;
-/** Residual-voltage bands of the dip table, % of the declared voltage: 90 > u ≥ 80, ..., 40 > u ≥ 5. */
-export const DIP_RESIDUAL_EDGES_PERCENT = [90, 80, 70, 40, 5] as const;
-/** Duration band edges of the swell table, ms: 10-500, 500-5000, 5000-60000. */
-export const SWELL_DURATION_EDGES_MS = [10, 500, 5000, 60_000] as const;
-/** Interruptions up to 3 minutes are short, longer ones long (EN 50160:2010, 3.x definitions; from memory). */
-export const SHORT_INTERRUPTION_MAX_S = 180;
+// The band edges live with the one classification in lib/limits; re-exported for the survey's callers.
+export { DIP_DURATION_EDGES_MS, DIP_RESIDUAL_EDGES_PERCENT, SHORT_INTERRUPTION_MAX_S, SWELL_DURATION_EDGES_MS };
 
-function durationColumn(durationS: number, edgesMs: readonly number[]): number {
-	const ms = durationS * 1000;
-	if (ms < edgesMs[0]) return -1;
-	for (let c = 1; c < edgesMs.length; c++) if (ms <= edgesMs[c]) return c - 1;
-	return -1;
-}
+/** Table 5 and 6 as the survey reads them: interruptions counted on their own, the 10 ms first edge kept. */
+const READING: EventTableReading = { interruptionRow: false, shortInFirstColumn: false };
 
 function durationLabels(edgesMs: readonly number[]): string[] {
 	const fmt = (ms: number) => (ms < 1000 ? `${ms} ms` : `${ms / 1000} s`);
 	return edgesMs.slice(1).map((hi, i) => `${i === 0 ? '' : '> '}${fmt(edgesMs[i])} to ${fmt(hi)}`);
+}
+
+function countCells(
+	events: readonly SurveyEvent[],
+	kind: 'dip' | 'swell',
+	rows: string[],
+	columns: string[],
+): { counts: number[][]; outside: number } {
+	const counts = rows.map(() => columns.map(() => 0));
+	let outside = 0;
+	for (const e of events) {
+		if (e.kind !== kind) continue;
+		const cell = en50160EventCell(e, READING);
+		if (cell) counts[cell.row][cell.column]++;
+		else outside++;
+	}
+	return { counts, outside };
 }
 
 /** Dip table: rows by residual voltage (% of Udin), columns by duration; interruptions are not dips here. */
@@ -31,32 +48,16 @@ export function dipTable(events: readonly SurveyEvent[]): SurveyEventTable {
 	const r = DIP_RESIDUAL_EDGES_PERCENT;
 	const rows = r.slice(1).map((lo, i) => `${r[i]} % > u ≥ ${lo} %`);
 	const columns = durationLabels(DIP_DURATION_EDGES_MS);
-	const counts = rows.map(() => columns.map(() => 0));
-	let outside = 0;
-	for (const e of events) {
-		if (e.kind !== 'dip') continue;
-		const col = durationColumn(e.durationS, DIP_DURATION_EDGES_MS);
-		const row = r.slice(1).findIndex((lo, i) => e.percentOfDeclared < r[i] && e.percentOfDeclared >= lo);
-		if (row < 0 || col < 0) outside++;
-		else counts[row][col]++;
-	}
+	const { counts, outside } = countCells(events, 'dip', rows, columns);
 	return { kind: 'dip', rows, columns, counts, outside, source: 'EN 50160:2010, Table 5 (classification of dips)' };
 }
 
 /** Swell table: rows u ≥ 120 % and 120 % > u > 110 %, columns by duration. */
 export function swellTable(events: readonly SurveyEvent[]): SurveyEventTable {
-	const rows = ['u ≥ 120 %', '120 % > u > 110 %'];
+	const [high, low] = SWELL_LEVEL_EDGES_PERCENT;
+	const rows = [`u ≥ ${high} %`, `${high} % > u > ${low} %`];
 	const columns = durationLabels(SWELL_DURATION_EDGES_MS);
-	const counts = rows.map(() => columns.map(() => 0));
-	let outside = 0;
-	for (const e of events) {
-		if (e.kind !== 'swell') continue;
-		const col = durationColumn(e.durationS, SWELL_DURATION_EDGES_MS);
-		const u = e.percentOfDeclared;
-		const row = u >= 120 ? 0 : u > 110 ? 1 : -1;
-		if (row < 0 || col < 0) outside++;
-		else counts[row][col]++;
-	}
+	const { counts, outside } = countCells(events, 'swell', rows, columns);
 	return { kind: 'swell', rows, columns, counts, outside, source: 'EN 50160:2010, Table 6 (classification of swells)' };
 }
 

@@ -140,7 +140,7 @@ function eventBlock(r: ReportJson): string[] {
 		const outside = tab.outside ?? 0;
 		if (cells.length > 0 || outside > 0)
 			out.push(
-				`    ${tab.source}: ${[...cells.map((c) => `${c.row} %, ${c.col}: ${c.n}`), ...(outside > 0 ? [`over 1 min: ${outside}`] : [])].join('; ')}`,
+				`    ${tab.source}: ${[...cells.map((c) => `${c.row} %, ${c.col}: ${c.n}`), ...(outside > 0 ? [`outside the table: ${outside}`] : [])].join('; ')}`,
 			);
 	}
 	return out;
