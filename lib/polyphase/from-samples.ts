@@ -65,6 +65,9 @@ export interface ThreePhaseAnalysis {
 
 /**
  * Three-phase analysis of a set of channels from samples.
+ * Not a second route to the report's figures alone: it also checks a measured neutral against the sum of the
+ * line currents, gives the star/delta hints and takes 3-wire sets, which the report (lib/report/relations.ts,
+ * extras.ts) does not yet do; tests reach those checks here.
  * The window is the whole cycles of the phase-1 voltage; all channels are analysed on it (same phase
  * reference). Neutral: the measured channel when given, else the sum of the line currents (4-wire only).
  * @returns the analysis, or a failure when the phase-1 voltage has no whole cycles
@@ -93,8 +96,6 @@ export function threePhaseFromSamples(
 	if (!r.ok) return r;
 	const w = r.window;
 	const vSets = r.sets.slice(0, 3) as Three<HarmonicSet>;
-	const iSets = currents ? (r.sets.slice(3, 6) as Three<HarmonicSet>) : undefined;
-	const nSet = neutral ? r.sets[r.sets.length - 1] : undefined;
 	const v1 = vSets.map((s) => phasorFromHarmonic(s.orders[1])) as Three<ComplexPhasor>;
 	const ll = lineVoltagePhasors(v1[0], v1[1], v1[2]);
 	const lineVoltageRmsV = [0, 1, 2].map((k) =>
@@ -112,52 +113,78 @@ export function threePhaseFromSamples(
 		sqrt3: sqrt3Check(v1, ll),
 		diagnostics,
 	};
-	if (currents && iSets) {
-		const i1 = iSets.map((s) => phasorFromHarmonic(s.orders[1])) as Three<ComplexPhasor>;
-		out.currentSets = iSets;
-		out.currentSequence = symmetricalComponents(i1[0], i1[1], i1[2]);
-		out.currentUnbalance = currentUnbalance(i1[0], i1[1], i1[2]);
-		const iRms = currents.map((c) => powerWindowRms(c, w)) as Three<number>;
-		const neutralRmsA = neutral ? powerWindowRms(neutral, w) : 0;
-		out.power = threePhasePowerFromHarmonics(
-			wiring,
-			[0, 1, 2].map((k) => ({
-				voltage: vSets[k],
-				current: iSets[k],
-				totals: {
-					voltageRmsV: powerWindowRms(input.voltages[k], w),
-					currentRmsA: iRms[k],
-					activePowerW: activePowerFromSamplesW(input.voltages[k], currents[k], w),
-				},
-			})) as Three<ThreePhaseInputPhase>,
-			{
-				lineVoltageRmsV,
-				neutralCurrentRmsA: neutralRmsA,
-				...(input.neutralCurrent && nSet ? { neutralCurrent: nSet } : {}),
-			},
-		);
-		if (neutral && nSet)
-			out.neutral = neutralCurrentFigures(input.neutralCurrent ? 'measured' : 'computed', neutralRmsA, iRms, nSet);
-		if (input.neutralCurrent && nSet) {
-			// a measured neutral should match the sum of the line currents (fundamental phasors, same window);
-			// either clamp orientation is accepted, since the neutral's reference direction varies between setups
-			const sum = phasorFromHarmonic(sumHarmonicSets(iSets[0], iSets[1], iSets[2]).orders[1]);
-			const meas = phasorFromHarmonic(nSet.orders[1]);
-			const diff = Math.min(phasorAbs(phasorSub(meas, sum)), phasorAbs(phasorAdd(meas, sum)));
-			const ref = maxOf(iSets.map((s) => s.orders[1].rms));
-			if (ref > 0 && diff / ref > NEUTRAL_MISMATCH_RATIO) {
-				diagnostics.push({
-					code: 'neutral-mismatch',
-					severity: 'warning',
-					message: `measured neutral fundamental (${phasorAbs(meas).toFixed(2)} A) differs from the sum of the line currents (${phasorAbs(sum).toFixed(2)} A) by ${diff.toFixed(2)} A, more than ${100 * NEUTRAL_MISMATCH_RATIO} % of the largest line current: a clamp on the wrong conductor, a ratio, or current returning through earth.`,
-				});
-			}
-		}
-		diagnostics.push(
-			...starDeltaHints({ phaseVoltages: v1, lineCurrents: i1, ...(input.wiring ? { wiring: input.wiring } : {}) }),
-		);
-	} else {
-		diagnostics.push(...starDeltaHints({ phaseVoltages: v1 }));
-	}
+	if (currents) addCurrentFigures(out, { input, currents, neutral, sets: r.sets, wiring, v1, lineVoltageRmsV });
+	else diagnostics.push(...starDeltaHints({ phaseVoltages: v1 }));
 	return out;
+}
+
+/** What the current figures are computed from: the inputs and the sets of the shared window. */
+interface CurrentInputs {
+	input: ThreePhaseSamples;
+	currents: Three<Float64Array>;
+	/** The measured neutral, or the sum of the line currents (4-wire), or none. */
+	neutral: Float64Array | undefined;
+	/** Sets of the voltages, the currents and (last) the neutral, on the shared window. */
+	sets: HarmonicSet[];
+	wiring: PowerWiring;
+	v1: Three<ComplexPhasor>;
+	lineVoltageRmsV: Three<number>;
+}
+
+/** Current sets, sequence and unbalance, IEEE 1459 power, the neutral, and the checks on them, into `out`. */
+function addCurrentFigures(out: ThreePhaseAnalysis, c: CurrentInputs): void {
+	const { input, currents, neutral, wiring } = c;
+	const w = out.window;
+	const vSets = out.voltageSets;
+	const iSets = c.sets.slice(3, 6) as Three<HarmonicSet>;
+	const nSet = neutral ? c.sets[c.sets.length - 1] : undefined;
+	const i1 = iSets.map((s) => phasorFromHarmonic(s.orders[1])) as Three<ComplexPhasor>;
+	out.currentSets = iSets;
+	out.currentSequence = symmetricalComponents(i1[0], i1[1], i1[2]);
+	out.currentUnbalance = currentUnbalance(i1[0], i1[1], i1[2]);
+	const iRms = currents.map((x) => powerWindowRms(x, w)) as Three<number>;
+	const neutralRmsA = neutral ? powerWindowRms(neutral, w) : 0;
+	out.power = threePhasePowerFromHarmonics(
+		wiring,
+		[0, 1, 2].map((k) => ({
+			voltage: vSets[k],
+			current: iSets[k],
+			totals: {
+				voltageRmsV: powerWindowRms(input.voltages[k], w),
+				currentRmsA: iRms[k],
+				activePowerW: activePowerFromSamplesW(input.voltages[k], currents[k], w),
+			},
+		})) as Three<ThreePhaseInputPhase>,
+		{
+			lineVoltageRmsV: c.lineVoltageRmsV,
+			neutralCurrentRmsA: neutralRmsA,
+			...(input.neutralCurrent && nSet ? { neutralCurrent: nSet } : {}),
+		},
+	);
+	if (neutral && nSet)
+		out.neutral = neutralCurrentFigures(input.neutralCurrent ? 'measured' : 'computed', neutralRmsA, iRms, nSet);
+	if (input.neutralCurrent && nSet) {
+		const mismatch = neutralMismatch(iSets, nSet);
+		if (mismatch) out.diagnostics.push(mismatch);
+	}
+	out.diagnostics.push(
+		...starDeltaHints({ phaseVoltages: c.v1, lineCurrents: i1, ...(input.wiring ? { wiring: input.wiring } : {}) }),
+	);
+}
+
+/**
+ * A measured neutral should match the sum of the line currents (fundamental phasors, same window); either
+ * clamp orientation is accepted, since the neutral's reference direction varies between setups.
+ */
+function neutralMismatch(iSets: Three<HarmonicSet>, nSet: HarmonicSet): Diagnostic | undefined {
+	const sum = phasorFromHarmonic(sumHarmonicSets(iSets[0], iSets[1], iSets[2]).orders[1]);
+	const meas = phasorFromHarmonic(nSet.orders[1]);
+	const diff = Math.min(phasorAbs(phasorSub(meas, sum)), phasorAbs(phasorAdd(meas, sum)));
+	const ref = maxOf(iSets.map((s) => s.orders[1].rms));
+	if (!(ref > 0 && diff / ref > NEUTRAL_MISMATCH_RATIO)) return undefined;
+	return {
+		code: 'neutral-mismatch',
+		severity: 'warning',
+		message: `measured neutral fundamental (${phasorAbs(meas).toFixed(2)} A) differs from the sum of the line currents (${phasorAbs(sum).toFixed(2)} A) by ${diff.toFixed(2)} A, more than ${100 * NEUTRAL_MISMATCH_RATIO} % of the largest line current: a clamp on the wrong conductor, a ratio, or current returning through earth.`,
+	};
 }
