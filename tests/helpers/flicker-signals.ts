@@ -7,6 +7,8 @@
  * `cpm` times per minute (rectangular: period 120/cpm s, 50 % duty), so ΔV/V is the peak-to-peak relative
  * change of the envelope (Ref: IEC 61000-4-15:2010, 6 and Tables 1-2, from memory).
  */
+import type { Capture } from '../../lib/capture.js';
+import { captureOf } from './capture.js';
 
 export type Modulation =
 	| { shape: 'none' }
@@ -70,4 +72,24 @@ export function forEachChunk(spec: FlickerSignalSpec, each: (chunk: Float64Array
 		}
 		each(out);
 	}
+}
+
+/** A one-channel capture (L1, V) of the signal at 50 Hz mains: the whole record collected from the chunks. */
+export function flickerCapture(
+	sampleRateHz: number,
+	durationS: number,
+	modulation: Modulation,
+	opts: { rmsV?: number; source?: string } = {},
+): Capture {
+	const x = new Float64Array(Math.round(sampleRateHz * durationS));
+	let off = 0;
+	forEachChunk({ sampleRateHz, mainsHz: 50, rmsV: opts.rmsV ?? 230, durationS, modulation }, (c) => {
+		x.set(c, off);
+		off += c.length;
+	});
+	return captureOf(
+		[{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }],
+		sampleRateHz,
+		opts.source ?? 'flicker.csv',
+	);
 }

@@ -1,12 +1,13 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { ImportError, parseComtrade, parseComtradeCff } from '../../lib/index.js';
+import { parseComtrade, parseComtradeCff } from '../../lib/index.js';
 import {
 	comtradeCffBytes,
 	comtradeCfgText,
 	comtradeDatBytes,
 	type WriterSpec,
 } from '../../sample-waves/writers/comtrade.js';
+import { importErrorOf } from '../helpers/import-error.js';
 
 const FIX = 'tests/fixtures/comtrade/';
 const text = (name: string) => readFileSync(FIX + name, 'utf8');
@@ -14,15 +15,7 @@ const bytes = (name: string) => new Uint8Array(readFileSync(FIX + name));
 const enc = (s: string) => new TextEncoder().encode(s);
 const open = (base: string, opts = {}) => parseComtrade(text(base + '.cfg'), bytes(base + '.dat'), base + '.cfg', opts);
 
-function thrown(f: () => unknown): ImportError {
-	try {
-		f();
-	} catch (e) {
-		expect(e).toBeInstanceOf(ImportError);
-		return e as ImportError;
-	}
-	throw new Error('expected an ImportError');
-}
+const thrown = importErrorOf;
 
 describe('parseComtrade on a hand-written 1999 ASCII record (tests/fixtures/comtrade/good-1999)', () => {
 	// Expected values worked by hand from the fixture text: value = a·x + b, then the PS conversion

@@ -1,7 +1,8 @@
 import { readFileSync } from 'node:fs';
 import wavefile from 'wavefile';
 import { describe, expect, it } from 'vitest';
-import { ImportError, parseWav } from '../../lib/index.js';
+import { parseWav } from '../../lib/index.js';
+import { importErrorOf } from '../helpers/import-error.js';
 
 // wavefile (npm, an independent writer) makes the files; expected values come from the written integer
 // codes and the full-scale rule x / 2^(bits−1) (common practice for PCM; float samples are ±1.0 at full scale).
@@ -20,15 +21,7 @@ function write(depth: string, channels: number[][], rateHz = 8000, comment?: str
 	return w.toBuffer();
 }
 
-function thrown(f: () => unknown): ImportError {
-	try {
-		f();
-	} catch (e) {
-		expect(e).toBeInstanceOf(ImportError);
-		return e as ImportError;
-	}
-	throw new Error('expected an ImportError');
-}
+const thrown = importErrorOf;
 
 const N = 400;
 const signal = Array.from(

@@ -8,23 +8,10 @@ import type { Capture } from '../../lib/capture.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { CSV_SUMMARY_COLUMNS, reportsToCsv } from '../../lib/report/csv-summary.js';
 import { reportToJson } from '../../lib/report/to-json.js';
-import { forEachChunk, type Modulation } from '../helpers/flicker-signals.js';
+import { flickerCapture, type Modulation } from '../helpers/flicker-signals.js';
 
 function capture(fs: number, durationS: number, modulation: Modulation, rmsV = 230): Capture {
-	const x = new Float64Array(Math.round(fs * durationS));
-	let off = 0;
-	forEachChunk({ sampleRateHz: fs, mainsHz: 50, rmsV, durationS, modulation }, (c) => {
-		x.set(c, off);
-		off += c.length;
-	});
-	return {
-		source: 'flicker.csv',
-		sampleRateHz: fs,
-		startS: 0,
-		channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }],
-		metadata: {},
-		diagnostics: [],
-	};
+	return flickerCapture(fs, durationS, modulation, { rmsV });
 }
 
 describe('analyseCapture: flicker', () => {

@@ -10,7 +10,7 @@ import { analyseCapture } from '../../lib/report/analyse.js';
 import type { TrendFlicker } from '../../lib/trend/flicker-tracker.js';
 import { flickerVerdicts } from '../../src/ui/flicker-verdicts.js';
 import FlickerTrend from '../../src/ui/components/FlickerTrend.svelte';
-import { forEachChunk } from '../helpers/flicker-signals.js';
+import { flickerCapture } from '../helpers/flicker-signals.js';
 import { renderComponent } from './dom.js';
 
 let cleanup: (() => void)[] = [];
@@ -20,29 +20,8 @@ afterEach(() => {
 });
 
 function modulated(fs: number, durationS: number): Capture {
-	const x = new Float64Array(fs * durationS);
-	let off = 0;
-	forEachChunk(
-		{
-			sampleRateHz: fs,
-			mainsHz: 50,
-			rmsV: 230,
-			durationS,
-			modulation: { shape: 'sine', frequencyHz: 8.8, deltaVOverV: 0.0025 },
-		},
-		(c) => {
-			x.set(c, off);
-			off += c.length;
-		},
-	);
-	return {
-		source: 'lamp.csv',
-		sampleRateHz: fs,
-		startS: 0,
-		channels: [{ name: 'L1', unit: 'V', quantity: 'voltage', samples: x }],
-		metadata: {},
-		diagnostics: [],
-	};
+	const modulation = { shape: 'sine', frequencyHz: 8.8, deltaVOverV: 0.0025 } as const;
+	return flickerCapture(fs, durationS, modulation, { source: 'lamp.csv' });
 }
 
 describe('flickerVerdicts', () => {
