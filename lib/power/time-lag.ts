@@ -20,6 +20,96 @@ export interface ChannelTimeLag {
 	correlationCoefficient: number;
 }
 
+/** Weighted means over the window, the weighted mean-removed reference, and each channel's weighted energy. */
+function weightedMoments(
+	ref: Float64Array,
+	other: Float64Array,
+	f0: number,
+	weights: Float64Array,
+): { meanX: number; meanY: number; wx: Float64Array; rxx: number; ryy: number } {
+	const m = weights.length;
+	let meanX = 0;
+	let meanY = 0;
+	for (let j = 0; j < m; j++) {
+		meanX += weights[j] * ref[f0 + j];
+		meanY += weights[j] * other[f0 + j];
+	}
+	// weighted, mean-removed reference once; then each lag is one dot product over typed arrays
+	const wx = new Float64Array(m);
+	let rxx = 0;
+	let ryy = 0;
+	for (let j = 0; j < m; j++) {
+		const x = ref[f0 + j] - meanX;
+		wx[j] = weights[j] * x;
+		rxx += wx[j] * x;
+		const y = other[f0 + j] - meanY;
+		ryy += weights[j] * y * y;
+	}
+	return { meanX, meanY, wx, rxx, ryy };
+}
+
+/**
+ * R(k) for integer lags |k| ≤ reach, each computed once. Beyond the record's ends `other` is continued
+ * periodically from the window of `length` samples (whole cycles, so the continuation is the wave itself):
+ * nothing is dropped when the record holds little more than the window.
+ */
+function correlator(
+	other: Float64Array,
+	f0: number,
+	mo: { meanY: number; wx: Float64Array },
+	length: number,
+	reach: number,
+): (k: number) => number {
+	const { meanY, wx } = mo;
+	const m = wx.length;
+	const r = new Float64Array(2 * reach + 1).fill(NaN);
+	const n = other.length;
+	const at = (p: number): number => {
+		const q = p < 0 ? p + length : p > n - 1 ? p - length : p;
+		const i0 = Math.floor(q);
+		const t = q - i0;
+		return t === 0 ? other[i0] : other[i0] * (1 - t) + other[Math.min(n - 1, i0 + 1)] * t;
+	};
+	return (k: number): number => {
+		if (Number.isNaN(r[k + reach])) {
+			let acc = 0;
+			const base = f0 + k;
+			if (base >= 0 && base + m - 1 <= n - 1) for (let j = 0; j < m; j++) acc += wx[j] * (other[base + j] - meanY);
+			else for (let j = 0; j < m; j++) acc += wx[j] * (at(base + j) - meanY);
+			r[k + reach] = acc;
+		}
+		return r[k + reach];
+	};
+}
+
+/** Coarse steps per period of the first search: P/64 samples is 5.6° of the fundamental (our choice). */
+const COARSE_STEPS_PER_PERIOD = 64;
+
+/**
+ * The lag of the correlation peak in samples, wrapped to (−P/2, P/2], refined by the cosine fit, and the
+ * fitted peak height. Coarse-to-fine: lags every P/64 samples, then every sample around the best; mains
+ * correlations are smooth at that scale unless harmonics above about the 30th dominate.
+ */
+function refinedPeak(corr: (k: number) => number, half: number, periodSamples: number): { tau: number; peak: number } {
+	const step = Math.max(1, Math.floor(periodSamples / COARSE_STEPS_PER_PERIOD));
+	let kc = -half;
+	for (let k = -half; k <= half; k += step) if (corr(k) > corr(kc)) kc = k;
+	let k0 = kc;
+	for (let k = Math.max(-half, kc - step); k <= Math.min(half, kc + step); k++) if (corr(k) > corr(k0)) k0 = k;
+	const w = (2 * Math.PI) / periodSamples;
+	const rm = corr(k0 - 1);
+	const r0 = corr(k0);
+	const rp = corr(k0 + 1);
+	const delta = Math.atan((rp - rm) / (2 * r0 * Math.sin(w))) / w;
+	const d = Number.isFinite(delta) && Math.abs(delta) <= 1 ? delta : 0;
+	// peak height of the fitted cosine, so a scaled shifted copy scores 1 even between samples
+	const peak = r0 / Math.cos(w * d);
+	let tau = k0 + d;
+	if (tau <= -periodSamples / 2) tau += periodSamples;
+	else if (tau > periodSamples / 2) tau -= periodSamples;
+	return { tau, peak };
+}
+
 /**
  * Time lag of `other` behind `ref` from their cross-correlation over a whole-cycle window.
  *
@@ -77,65 +167,11 @@ export function crossCorrelationLag(
 	if (cycles < 1) return nan;
 
 	const { firstIndex: f0, weights } = powerWindowWeights(s, e);
-	const m = weights.length;
-	let meanX = 0;
-	let meanY = 0;
-	for (let j = 0; j < m; j++) {
-		meanX += weights[j] * ref[f0 + j];
-		meanY += weights[j] * other[f0 + j];
-	}
-	// weighted, mean-removed reference once; then each lag is one dot product over typed arrays
-	const wx = new Float64Array(m);
-	let rxx = 0;
-	let ryy = 0;
-	for (let j = 0; j < m; j++) {
-		const x = ref[f0 + j] - meanX;
-		wx[j] = weights[j] * x;
-		rxx += wx[j] * x;
-		const y = other[f0 + j] - meanY;
-		ryy += weights[j] * y * y;
-	}
-	const r = new Float64Array(2 * reach + 1).fill(NaN);
-	// Beyond the record's ends `other` is continued periodically from the window (whole cycles, so the
-	// continuation is the wave itself): nothing is dropped when the record holds little more than the window.
-	const n = other.length;
-	const length = e - s;
-	const at = (p: number): number => {
-		const q = p < 0 ? p + length : p > n - 1 ? p - length : p;
-		const i0 = Math.floor(q);
-		const t = q - i0;
-		return t === 0 ? other[i0] : other[i0] * (1 - t) + other[Math.min(n - 1, i0 + 1)] * t;
-	};
-	const corr = (k: number): number => {
-		if (Number.isNaN(r[k + reach])) {
-			let acc = 0;
-			const base = f0 + k;
-			if (base >= 0 && base + m - 1 <= n - 1) for (let j = 0; j < m; j++) acc += wx[j] * (other[base + j] - meanY);
-			else for (let j = 0; j < m; j++) acc += wx[j] * (at(base + j) - meanY);
-			r[k + reach] = acc;
-		}
-		return r[k + reach];
-	};
+	const mo = weightedMoments(ref, other, f0, weights);
+	const { meanX, meanY, rxx, ryy } = mo;
+	const corr = correlator(other, f0, mo, e - s, reach);
 	if (!(rxx > 1e-20 * meanX * meanX && ryy > 1e-20 * meanY * meanY && rxx > 0 && ryy > 0)) return nan;
-
-	// coarse-to-fine: lags every P/64 samples (5.6° of the fundamental), then every sample around the best.
-	// Mains correlations are smooth at that scale unless harmonics above about the 30th dominate.
-	const step = Math.max(1, Math.floor(periodSamples / 64));
-	let kc = -half;
-	for (let k = -half; k <= half; k += step) if (corr(k) > corr(kc)) kc = k;
-	let k0 = kc;
-	for (let k = Math.max(-half, kc - step); k <= Math.min(half, kc + step); k++) if (corr(k) > corr(k0)) k0 = k;
-	const w = (2 * Math.PI) / periodSamples;
-	const rm = corr(k0 - 1);
-	const r0 = corr(k0);
-	const rp = corr(k0 + 1);
-	const delta = Math.atan((rp - rm) / (2 * r0 * Math.sin(w))) / w;
-	const d = Number.isFinite(delta) && Math.abs(delta) <= 1 ? delta : 0;
-	// peak height of the fitted cosine, so a scaled shifted copy scores 1 even between samples
-	const peak = r0 / Math.cos(w * d);
-	let tau = k0 + d;
-	if (tau <= -periodSamples / 2) tau += periodSamples;
-	else if (tau > periodSamples / 2) tau -= periodSamples;
+	const { tau, peak } = refinedPeak(corr, half, periodSamples);
 	if (!Number.isFinite(tau)) return nan;
 	return {
 		lagS: tau / sampleRateHz,
