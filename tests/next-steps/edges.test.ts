@@ -11,6 +11,7 @@ import { reactivePowerToAdd, resonanceOrder, truePowerFactorAfter } from '../../
 import { harmonicLossFactor, maxLoadCurrentPu } from '../../lib/next-steps/transformer.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { harmonicSamples } from '../helpers/synth.js';
+import { captureOf } from '../helpers/capture.js';
 
 describe('next-step formulas at their edges', () => {
 	it('reactivePowerToAdd of a NaN or zero power factor, or a negative power, is NaN', () => {
@@ -53,14 +54,7 @@ describe('next-step formulas at their edges', () => {
 
 describe('nextStepsSection on recordings that do not hold what a step starts from', () => {
 	const opts = { frequencyHz: 50, sampleRateHz: 10_000, cycles: 20 };
-	const cap = (channels: Capture['channels']): Capture => ({
-		source: 'x.csv',
-		sampleRateHz: 10_000,
-		startS: 0,
-		channels,
-		metadata: {},
-		diagnostics: [],
-	});
+	const cap = (channels: Capture['channels']): Capture => captureOf(channels, 10_000, 'x.csv');
 
 	it('one voltage channel: power factor, transformer, neutral and motor steps say they do not apply, the meter step still works', () => {
 		const r = analyseCapture(

@@ -7,16 +7,10 @@ import { describe, expect, it } from 'vitest';
 import type { Capture } from '../../lib/capture.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { harmonicSamples } from '../helpers/synth.js';
+import { captureOf } from '../helpers/capture.js';
 
 function oneChannel(samples: Float64Array, sampleRateHz: number): Capture {
-	return {
-		source: 'ten-cycles.csv',
-		sampleRateHz,
-		startS: 0,
-		channels: [{ name: 'U1', unit: 'V', quantity: 'voltage', samples }],
-		metadata: {},
-		diagnostics: [],
-	};
+	return captureOf([{ name: 'U1', unit: 'V', quantity: 'voltage', samples }], sampleRateHz, 'ten-cycles.csv');
 }
 
 describe('analyseCapture on a record of exactly 10 cycles', () => {

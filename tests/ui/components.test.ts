@@ -12,6 +12,7 @@ import FiguresTable from '../../src/ui/components/FiguresTable.svelte';
 import SafetyNote from '../../src/ui/components/SafetyNote.svelte';
 import { harmonicSamples } from '../helpers/synth.js';
 import { renderComponent } from './dom.js';
+import { captureOf } from '../helpers/capture.js';
 
 setDisplayLocale('en-US');
 const FS = 10_000;
@@ -25,14 +26,7 @@ function render<P extends Record<string, unknown>>(c: Parameters<typeof renderCo
 	cleanup.push(r.unmount);
 	return r.container;
 }
-const capture = (channels: Channel[]): Capture => ({
-	source: 'x.csv',
-	sampleRateHz: FS,
-	startS: 0,
-	channels,
-	metadata: {},
-	diagnostics: [],
-});
+const capture = (channels: Channel[]): Capture => captureOf(channels, FS, 'x.csv');
 
 describe('SpectrumChart', () => {
 	// 5th at 7 % is over the EN 50160 limit of 6 %; the 3rd at 3 % is under its 5 % (EN 50160:2010 Table 1; from memory)

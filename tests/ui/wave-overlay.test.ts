@@ -5,6 +5,7 @@ import { overlayFor, scaleKey } from '../../src/ui/charts/wave-overlay.js';
 import { extrasFor, trendFor } from '../../src/ui/worker-core.js';
 import { setDisplayLocale } from '../../src/ui/format.js';
 import { sineSamples } from '../helpers/synth.js';
+import { captureOf } from '../helpers/capture.js';
 
 setDisplayLocale('en-US');
 const FS = 10_000;
@@ -14,17 +15,14 @@ function capture(): Capture {
 	// a 50 % dip for 5 cycles in the middle of the record (a scenario of our own)
 	for (let i = 1000; i < 2000; i++) u[i] *= 0.5;
 	const i1 = sineSamples({ amplitude: 10, frequencyHz: 50, sampleRateHz: FS, cycles: 30, phaseDeg: -45 });
-	return {
-		source: 'dip.csv',
-		sampleRateHz: FS,
-		startS: 0,
-		channels: [
+	return captureOf(
+		[
 			{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u },
 			{ name: 'I1', unit: 'A', quantity: 'current', samples: i1 },
 		],
-		metadata: {},
-		diagnostics: [],
-	};
+		FS,
+		'dip.csv',
+	);
 }
 
 describe('overlayFor', () => {
@@ -94,14 +92,7 @@ describe('report groups (the UI takes them from the report)', () => {
 			],
 			{ frequencyHz: 50, sampleRateHz: FS, cycles: 30 },
 		);
-		const c: Capture = {
-			source: 'g.csv',
-			sampleRateHz: FS,
-			startS: 0,
-			channels: [{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }],
-			metadata: {},
-			diagnostics: [],
-		};
+		const c = captureOf([{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }], FS, 'g.csv');
 		const report = analyseCapture(c);
 		const g = report.channels[0].groups!;
 		expect(g.harmonicGroupRms[5]).toBeCloseTo(11.5, 6);
