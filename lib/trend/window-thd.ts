@@ -52,7 +52,7 @@ export class WindowThd {
 	private readonly spectrum = new Float64Array(2 * M);
 	private raw = new Float64Array(M + 64);
 
-	constructor(private readonly cycles: number) {
+	constructor(readonly cycles: number) {
 		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2)
 			throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
 	}
