@@ -10,17 +10,17 @@
  * - the bare reader: the same file through the same streaming reader (lib/io's CsvSampleStream or
  *   ComtradeSampleStream, 1 MiB chunks, as the CLI reads it) into a sum of squares, in this process;
  * - the bare kernel: a sum of squares over 144 million samples already in memory (~0.6 ns/sample).
- * And, from binary COMTRADE in this process, the analyser without flicker, and without flicker and THD,
- * to show where the time goes. Real-time factors are by CPU time (user + system of the CLI and its
+ * And, from binary COMTRADE, the built analyser in a bare Node process: whole, without flicker, and without
+ * flicker and THD, to show where the time goes. Real-time factors are by CPU time (user + system of the CLI and its
  * helper process): on a shared machine wall time also counts waiting for a core; the load average is printed.
  * SINECHECK_BENCH_SCALE=0.1 scales the durations down for a quick look (the targets are for scale 1).
  */
 import { spawn } from 'node:child_process';
 import { closeSync, mkdtempSync, openSync, readFileSync, readSync, rmSync, statSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { ComtradeSampleStream, CsvSampleStream, parseComtradeCfg, type SampleSink } from '../../lib/io/index.js';
-import { analyseFile } from '../../src/cli/trend/read-recording.js';
 import { ensureBuiltCli, mainJs } from '../cli/built-cli.js';
 import { printTable } from './measure.js';
 import { BENCH_FS, writeComtrade, writeCsv } from './trend-files.js';
@@ -39,24 +39,6 @@ interface Run {
 	wallS: number;
 	cpuS: number;
 	peakMB: number;
-}
-
-/** `node dist/src/cli/main.js trend <file>` under GNU time: wall, CPU (with the helper process) and peak RSS. */
-function cliTrend(file: string): Promise<Run> {
-	const report = join(dir, 'time.txt');
-	const t0 = performance.now();
-	const child = spawn('/usr/bin/time', ['-f', '%M %U %S', '-o', report, process.execPath, mainJs, 'trend', file], {
-		stdio: ['ignore', 'ignore', 'pipe'],
-	});
-	let stderr = '';
-	child.stderr.on('data', (d) => (stderr += String(d)));
-	return new Promise((resolve, reject) => {
-		child.on('close', (status) => {
-			if (status !== 0) return reject(new Error(`trend exited with ${status}: ${stderr.slice(0, 400)}`));
-			const [kb, user, sys] = readFileSync(report, 'utf8').trim().split('\n').pop()!.split(' ').map(Number);
-			resolve({ wallS: (performance.now() - t0) / 1000, cpuS: user + sys, peakMB: kb / 1024 });
-		});
-	});
 }
 
 /** A sink that only sums the squares of what the reader hands on. */
@@ -113,16 +95,37 @@ function bareKernel(samples: number): { wallS: number; cpuS: number; sum: number
 	return { wallS: (performance.now() - t0) / 1000, cpuS: cpuS() - c0, sum };
 }
 
-/** The analyser in this process on `cfg` with `settings` (rows handed on, none kept), CPU s. */
-function inProcess(cfg: string, settings: { flicker?: boolean; thd?: boolean }): number {
-	const c0 = cpuS();
-	analyseFile(
-		cfg,
-		cfg,
-		{},
-		{ ...settings, keep: { cycles10: false, cycles150: false, min10: false }, onRow: () => {} },
-	);
-	return cpuS() - c0;
+/** Runs `node args` under GNU time: wall, CPU (with any helper process) and peak RSS. */
+function timed(args: string[]): Promise<Run> {
+	const report = join(dir, 'time.txt');
+	const t0 = performance.now();
+	const child = spawn('/usr/bin/time', ['-f', '%M %U %S', '-o', report, process.execPath, ...args], {
+		stdio: ['ignore', 'ignore', 'pipe'],
+	});
+	let stderr = '';
+	child.stderr.on('data', (d) => (stderr += String(d)));
+	return new Promise((resolve, reject) => {
+		child.on('close', (status) => {
+			if (status !== 0) return reject(new Error(`node ${args[0]} exited with ${status}: ${stderr.slice(0, 400)}`));
+			const [kb, user, sys] = readFileSync(report, 'utf8').trim().split('\n').pop()!.split(' ').map(Number);
+			resolve({ wallS: (performance.now() - t0) / 1000, cpuS: user + sys, peakMB: kb / 1024 });
+		});
+	});
+}
+
+/** `sinecheck trend <file>`, the built CLI. */
+function cliTrend(file: string): Promise<Run> {
+	return timed([mainJs, 'trend', file]);
+}
+
+/**
+ * The built analyser (dist/, the CLI's code) in a bare Node process on `cfg` with `settings`, rows handed
+ * on and none kept: the parts of the analyser's time.
+ */
+function builtAnalyser(cfg: string, settings: { flicker?: boolean; thd?: boolean }): Promise<Run> {
+	const reader = pathToFileURL(join(dirname(mainJs), 'trend', 'read-recording.js')).href;
+	const script = `import { analyseFile } from ${JSON.stringify(reader)}; analyseFile(process.argv[1], 'bench.cfg', {}, { ...${JSON.stringify(settings)}, keep: { cycles10: false, cycles150: false, min10: false }, onRow: () => {} });`;
+	return timed(['--input-type=module', '-e', script, cfg]);
 }
 
 async function main(): Promise<void> {
@@ -191,11 +194,11 @@ async function main(): Promise<void> {
 		'',
 	]);
 	const parts = [
-		['analyser in process, COMTRADE, all', inProcess(hour.cfg, {})],
-		['  without flicker', inProcess(hour.cfg, { flicker: false })],
-		['  without flicker and THD', inProcess(hour.cfg, { flicker: false, thd: false })],
+		['built analyser, COMTRADE, all', await builtAnalyser(hour.cfg, {})],
+		['  without flicker', await builtAnalyser(hour.cfg, { flicker: false })],
+		['  without flicker and THD', await builtAnalyser(hour.cfg, { flicker: false, thd: false })],
 	] as const;
-	for (const [name, s] of parts) rows.push([name, '', s, nsPer(s), rt(s), '', '']);
+	for (const [name, r] of parts) rows.push([name, r.wallS, r.cpuS, nsPer(r.cpuS), rt(r.cpuS), rt(r.wallS), r.peakMB]);
 	console.log(`\n${hourS} s x ${CHANNELS} channels @ ${BENCH_FS} S/s = ${(samples / 1e6).toFixed(0)} million samples`);
 	printTable(
 		['pass', 'wall s', 'cpu s', 'ns/sample (cpu)', 'x real time (cpu)', 'x real time (wall)', 'peak RSS MB'],
