@@ -27,31 +27,31 @@ export function createHalfPeriodRms(
 	const maxGap = Math.ceil(1.5 * half);
 	// Window edges are the interpolated crossing instants (in samples); the mean square divides the sum of
 	// the samples between them by that length, so a sample sitting at zero cannot shift the value.
-	let n = 0,
-		edge = 0,
-		count = 0,
-		sumSq = 0,
-		prev = 0,
-		seenCrossing = false;
-	const emit = (end: number) => {
-		const len = end - edge;
-		if (len > 0) onValue(edge / sampleRateHz, Math.sqrt(sumSq / len));
-	};
+	// The state lives in a Float64Array (n, edge, count, sumSq, prev, seenCrossing as 0/1), copied into
+	// locals around each block: the optimiser then keeps every local an unboxed double (a closure's own
+	// variables, or object fields that start as small integers, cost a heap number per sample).
+	const st = new Float64Array(6);
 	return {
 		push(samples: Float64Array): void {
+			let n = st[0],
+				edge = st[1],
+				count = st[2],
+				sumSq = st[3],
+				prev = st[4],
+				seenCrossing = st[5] !== 0;
 			for (let i = 0; i < samples.length; i++, n++) {
 				const v = samples[i];
-				if (!Number.isFinite(v)) continue;
+				if (!(v - v === 0)) continue; // not finite
 				const crossed = (prev < 0 && v >= 0) || (prev >= 0 && v < 0);
 				if (crossed && (count >= minGap || !seenCrossing)) {
 					const at = n - 1 + prev / (prev - v);
-					if (seenCrossing) emit(at);
+					if (seenCrossing && at - edge > 0) onValue(edge / sampleRateHz, Math.sqrt(sumSq / (at - edge)));
 					seenCrossing = true;
 					edge = at;
 					count = 0;
 					sumSq = 0;
 				} else if (seenCrossing && count >= maxGap) {
-					emit(n);
+					if (n - edge > 0) onValue(edge / sampleRateHz, Math.sqrt(sumSq / (n - edge)));
 					edge = n;
 					count = 0;
 					sumSq = 0;
@@ -60,6 +60,12 @@ export function createHalfPeriodRms(
 				count++;
 				sumSq += v * v;
 			}
+			st[0] = n;
+			st[1] = edge;
+			st[2] = count;
+			st[3] = sumSq;
+			st[4] = prev;
+			st[5] = seenCrossing ? 1 : 0;
 		},
 	};
 }

@@ -51,10 +51,30 @@ export class WindowThd {
 	private readonly input = new Float64Array(M);
 	private readonly spectrum = new Float64Array(2 * M);
 	private raw = new Float64Array(M + 64);
+	/** Per output point: the first tap's index into the copied window and its weights' row; same for every channel of a window. */
+	private readonly tapAt = new Int32Array(M);
+	private readonly tapPhase = new Int32Array(M);
+	private placedStartT = NaN;
+	private placedEndT = NaN;
 
-	constructor(private readonly cycles: number) {
+	constructor(readonly cycles: number) {
 		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2)
 			throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
+	}
+
+	/** Where each of the M points of the window startT..endT falls (computed once for all channels of a window). */
+	private place(startT: number, endT: number): void {
+		if (startT === this.placedStartT && endT === this.placedEndT) return;
+		const step = (endT - startT) / M;
+		const t0 = startT - (Math.floor(startT) - 3) - 3;
+		for (let m = 0; m < M; m++) {
+			const t = t0 + m * step;
+			const i = Math.floor(t);
+			this.tapAt[m] = i;
+			this.tapPhase[m] = Math.round((t - i) * PHASES) * TAPS;
+		}
+		this.placedStartT = startT;
+		this.placedEndT = endT;
 	}
 
 	/**
@@ -75,20 +95,20 @@ export class WindowThd {
 		harmonicsOut?: Float64Array,
 		fundamentalOut?: Float64Array,
 	): number {
-		const tab = weightTable();
 		// Copy the window (with the taps' margin) out of the ring once, so the tap loop needs no masking.
 		const first = Math.floor(startT) - 3;
 		const count = Math.floor(endT) + 5 - first;
 		if (this.raw.length < count) this.raw = new Float64Array(count);
 		const w = this.raw;
 		for (let j = 0; j < count; j++) w[j] = ring[(first + j) & mask];
+		this.place(startT, endT);
+		const tab = weightTable();
+		const at = this.tapAt;
+		const phase = this.tapPhase;
 		const x = this.input;
-		const step = (endT - startT) / M;
-		const t0 = startT - first - 3;
 		for (let m = 0; m < M; m++) {
-			const t = t0 + m * step;
-			const i = Math.floor(t);
-			const p = Math.round((t - i) * PHASES) * TAPS;
+			const i = at[m];
+			const p = phase[m];
 			x[m] =
 				tab[p] * w[i] +
 				tab[p + 1] * w[i + 1] +

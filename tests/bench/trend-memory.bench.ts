@@ -11,103 +11,14 @@
  * The files are written once to a temporary folder and deleted at the end (about 2.4 GB of disk).
  */
 import { spawn } from 'node:child_process';
-import {
-	closeSync,
-	existsSync,
-	mkdtempSync,
-	openSync,
-	readFileSync,
-	rmSync,
-	statSync,
-	writeFileSync,
-	writeSync,
-} from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { ensureBuiltCli, mainJs } from '../cli/built-cli.js';
 import { printTable } from './measure.js';
+import { writeComtrade, writeCsv } from './trend-files.js';
 
-const FS = 10_000;
-const PER_CYCLE = 200; // 50 Hz at 10 kS/s
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-trend-memory-'));
-
-/** Writes a CSV of `channels` sine channels (three-phase 230 V voltages, then 12 A currents) until `bytes`. */
-function writeCsv(path: string, channels: number, bytes: number): number {
-	const names = Array.from({ length: channels }, (_, c) => (c < 3 ? `U${c + 1} (V)` : `I${c - 2} (A)`));
-	// the channel values of each of the 200 samples of one cycle, printed once (the signal is periodic)
-	const tails = Array.from({ length: PER_CYCLE }, (_, k) =>
-		names
-			.map((_, c) => {
-				const peak = c < 3 ? 230 * Math.SQRT2 : 12 * Math.SQRT2;
-				return (peak * Math.sin((2 * Math.PI * k) / PER_CYCLE - (2 * Math.PI * (c % 3)) / 3)).toFixed(c < 3 ? 2 : 3);
-			})
-			.join(','),
-	);
-	const fd = openSync(path, 'w');
-	const buf = Buffer.allocUnsafe(8 << 20);
-	let used = buf.write(`t (s),${names.join(',')}\n`, 0, 'latin1');
-	let written = 0;
-	for (let k = 0; written + used < bytes; k++) {
-		const line = `${Math.floor(k / FS)}.${String(k % FS).padStart(4, '0')},${tails[k % PER_CYCLE]}\n`;
-		if (used + line.length > buf.length) {
-			writeSync(fd, buf, 0, used);
-			written += used;
-			used = 0;
-		}
-		used += buf.write(line, used, 'latin1');
-	}
-	writeSync(fd, buf, 0, used);
-	closeSync(fd);
-	return statSync(path).size;
-}
-
-/**
- * Writes a COMTRADE 1999 BINARY record of 4 channels (three 230 V phases, one 12 A current; int16 with
- * a = peak / 30000) at 10 kS/s until the .dat reaches `bytes`; returns the .dat size.
- */
-function writeComtrade(base: string, bytes: number): number {
-	const recordBytes = 8 + 4 * 2;
-	const records = Math.floor(bytes / recordBytes);
-	const peaks = [230 * Math.SQRT2, 230 * Math.SQRT2, 230 * Math.SQRT2, 12 * Math.SQRT2];
-	const a = peaks.map((p) => p / 30_000);
-	const cfg = [
-		'Tallowmere Joinery,bench-rec,1999',
-		'4,4A,0D',
-		...['U1', 'U2', 'U3', 'I1'].map(
-			(n, c) => `${c + 1},${n},L${(c % 3) + 1},,${c < 3 ? 'V' : 'A'},${a[c]},0,0,-32767,32767,1,1,P`,
-		),
-		'50',
-		'1',
-		`${FS},${records}`,
-		'01/02/2026,10:00:00.000000',
-		'01/02/2026,10:00:00.000000',
-		'BINARY',
-		'100', // timemult: stamps count 100 µs steps, so a uint32 stamp lasts 4.9 days at 10 kS/s
-		'',
-	].join('\r\n');
-	writeFileSync(`${base}.cfg`, cfg);
-	// one cycle of records (200 at 50 Hz), sample numbers and time stamps patched per block
-	const block = Buffer.alloc(PER_CYCLE * 2000 * recordBytes);
-	const perBlock = block.length / recordBytes;
-	for (let r = 0; r < perBlock; r++) {
-		for (let c = 0; c < 4; c++)
-			block.writeInt16LE(
-				Math.round(30_000 * Math.sin((2 * Math.PI * r) / PER_CYCLE - (2 * Math.PI * (c % 3)) / 3)),
-				r * recordBytes + 8 + 2 * c,
-			);
-	}
-	const fd = openSync(`${base}.dat`, 'w');
-	for (let done = 0; done < records; done += perBlock) {
-		const m = Math.min(perBlock, records - done);
-		for (let r = 0; r < m; r++) {
-			block.writeUInt32LE(done + r + 1, r * recordBytes);
-			block.writeUInt32LE(done + r, r * recordBytes + 4);
-		}
-		writeSync(fd, block, 0, m * recordBytes);
-	}
-	closeSync(fd);
-	return statSync(`${base}.dat`).size;
-}
 
 interface Run {
 	peakMB: number;
@@ -174,7 +85,7 @@ async function main(): Promise<void> {
 		for (const c of cases) {
 			const path = join(dir, `${c.channels}ch-${c.bytes}.csv`);
 			const g0 = performance.now();
-			const size = writeCsv(path, c.channels, c.bytes);
+			const size = writeCsv(path, c.channels, { bytes: c.bytes });
 			console.log(
 				`${c.name}: wrote ${(size / 1e6).toFixed(0)} MB in ${((performance.now() - g0) / 1000).toFixed(1)} s`,
 			);
@@ -197,7 +108,7 @@ async function main(): Promise<void> {
 		{
 			// COMTRADE streams too: a BINARY .dat of 400 MB (5.8 hours at 10 kS/s)
 			const base = join(dir, 'rec');
-			const size = writeComtrade(base, 400e6 * scale);
+			const size = writeComtrade(base, Math.floor((400e6 * scale) / 16)); // 16-byte records
 			const floor = await measure(['-e', FLOOR, `${base}.dat`]);
 			const trend = await measure([mainJs, 'trend', `${base}.cfg`]);
 			rows.push([

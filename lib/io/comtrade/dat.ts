@@ -42,18 +42,34 @@ export function readComtradeDat(
 	source: string,
 	expected: number | undefined,
 	offsets: { line?: number; byte?: number } = {},
+	reuse?: DatColumns,
 ): DatContent {
 	return cfg.fileType === 'ASCII'
 		? readAsciiDat(cfg, bytes, source, expected, offsets.line ?? 0)
-		: readBinary(cfg, bytes, source, expected, offsets.byte ?? 0);
+		: readBinary(cfg, bytes, source, expected, offsets.byte ?? 0, reuse);
 }
 
-function allocate(nA: number, nD: number, n: number): Pick<DatContent, 'raw' | 'digital' | 'stamps' | 'missing'> {
+/**
+ * Columns a streaming reader hands back to `readComtradeDat` to be filled again (BINARY types): the next
+ * block's values go into them when they are long enough, so no fresh memory is touched per block. The
+ * result's columns may then be longer than `records`.
+ */
+export type DatColumns = Pick<DatContent, 'raw' | 'digital' | 'stamps'>;
+
+function allocate(
+	nA: number,
+	nD: number,
+	n: number,
+	reuse?: DatColumns,
+): Pick<DatContent, 'raw' | 'digital' | 'stamps' | 'missing'> {
+	const missing = new Array<number>(nA).fill(0);
+	if (reuse && reuse.stamps.length >= n && reuse.raw.length === nA && reuse.digital.length === nD)
+		return { raw: reuse.raw, digital: reuse.digital, stamps: reuse.stamps, missing };
 	return {
 		raw: Array.from({ length: nA }, () => new Float64Array(n)),
 		digital: Array.from({ length: nD }, () => new Uint8Array(n)),
 		stamps: new Float64Array(n),
-		missing: new Array<number>(nA).fill(0),
+		missing,
 	};
 }
 
@@ -95,60 +111,16 @@ function readBinary(
 	source: string,
 	expected: number | undefined,
 	byteOffset: number,
+	reuse?: DatColumns,
 ): DatContent {
 	const { nA, nD, valueBytes, recordBytes, available, n } = binaryLayout(cfg, bytes, source, expected, byteOffset);
-	const out = allocate(nA, nD, n);
+	const out = allocate(nA, nD, n, reuse);
 	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-	const type = cfg.fileType;
-	let breaks = 0;
-	let firstBreak = 0;
-	for (let r = 0; r < n; r++) {
-		const ts = view.getUint32(r * recordBytes + 4, true);
-		out.stamps[r] = ts === 0xffffffff ? NaN : ts;
-		if (r > 0 && view.getUint32(r * recordBytes, true) !== view.getUint32((r - 1) * recordBytes, true) + 1) {
-			if (breaks++ === 0) firstBreak = r + 1;
-		}
-	}
-	// One pass per channel and type: keeps the inner loop free of branches on the file type.
-	for (let c = 0; c < nA; c++) {
-		const col = out.raw[c];
-		let miss = 0;
-		let p = 8 + c * valueBytes;
-		if (type === 'BINARY') {
-			for (let r = 0; r < n; r++, p += recordBytes) {
-				const v = view.getInt16(p, true);
-				if (v === MISSING_INT16) {
-					col[r] = NaN;
-					miss++;
-				} else col[r] = v;
-			}
-		} else if (type === 'BINARY32') {
-			for (let r = 0; r < n; r++, p += recordBytes) {
-				const v = view.getInt32(p, true);
-				if (v === MISSING_INT32) {
-					col[r] = NaN;
-					miss++;
-				} else col[r] = v;
-			}
-		} else {
-			for (let r = 0; r < n; r++, p += recordBytes) {
-				const v = view.getFloat32(p, true);
-				if (Number.isFinite(v)) col[r] = v;
-				else {
-					col[r] = NaN;
-					miss++;
-				}
-			}
-		}
-		out.missing[c] = miss;
-	}
-	const statusAt = 8 + nA * valueBytes;
-	for (let c = 0; c < nD; c++) {
-		const states = out.digital[c];
-		const bit = c & 15;
-		for (let r = 0, p = statusAt + 2 * (c >> 4); r < n; r++, p += recordBytes)
-			states[r] = (view.getUint16(p, true) >> bit) & 1;
-	}
+	const { breaks, firstBreak } = readStamps(view, out.stamps, n, recordBytes);
+	for (let c = 0; c < nA; c++)
+		out.missing[c] = readColumn(view, out.raw[c], n, RECORD_HEADER_BYTES + c * valueBytes, recordBytes, cfg.fileType);
+	const statusAt = RECORD_HEADER_BYTES + nA * valueBytes;
+	for (let c = 0; c < nD; c++) readDigital(view, out.digital[c], n, statusAt + DIGITAL_WORD_BYTES * Math.floor(c / DIGITALS_PER_WORD), c % DIGITALS_PER_WORD, recordBytes);
 	return {
 		...out,
 		records: n,
@@ -157,4 +129,72 @@ function readBinary(
 		sampleNumberBreaks: breaks,
 		firstBreakRecord: firstBreak,
 	};
+}
+
+/**
+ * Time stamps of `n` records into `stamps` (NaN for the 0xFFFFFFFF 'missing' mark) and the records whose
+ * sample number does not run on by one. Its own function (as is readColumn) so that each hot loop is
+ * optimised whole, not entered half-way with the code after it still unseen.
+ */
+function readStamps(
+	view: DataView,
+	stamps: Float64Array,
+	n: number,
+	recordBytes: number,
+): { breaks: number; firstBreak: number } {
+	let breaks = 0;
+	let firstBreak = 0;
+	for (let r = 0; r < n; r++) {
+		const ts = view.getUint32(r * recordBytes + 4, true);
+		stamps[r] = ts === 0xffffffff ? NaN : ts;
+		if (r > 0 && view.getUint32(r * recordBytes, true) !== view.getUint32((r - 1) * recordBytes, true) + 1) {
+			if (breaks++ === 0) firstBreak = r + 1;
+		}
+	}
+	return { breaks, firstBreak };
+}
+
+/** One analog channel of `n` records from byte `p` on into `col` (NaN where marked missing); returns the missing count. */
+function readColumn(
+	view: DataView,
+	col: Float64Array,
+	n: number,
+	p: number,
+	recordBytes: number,
+	type: ComtradeConfig['fileType'],
+): number {
+	let miss = 0;
+	// One loop per type: keeps the inner loop free of branches on the file type.
+	if (type === 'BINARY') {
+		for (let r = 0; r < n; r++, p += recordBytes) {
+			const v = view.getInt16(p, true);
+			if (v === MISSING_INT16) {
+				col[r] = NaN;
+				miss++;
+			} else col[r] = v;
+		}
+	} else if (type === 'BINARY32') {
+		for (let r = 0; r < n; r++, p += recordBytes) {
+			const v = view.getInt32(p, true);
+			if (v === MISSING_INT32) {
+				col[r] = NaN;
+				miss++;
+			} else col[r] = v;
+		}
+	} else {
+		for (let r = 0; r < n; r++, p += recordBytes) {
+			const v = view.getFloat32(p, true);
+			if (Number.isFinite(v)) col[r] = v;
+			else {
+				col[r] = NaN;
+				miss++;
+			}
+		}
+	}
+	return miss;
+}
+
+/** One digital channel's states (bit `bit` of the status word at byte `p` of each record) into `states`. */
+function readDigital(view: DataView, states: Uint8Array, n: number, p: number, bit: number, recordBytes: number): void {
+	for (let r = 0; r < n; r++, p += recordBytes) states[r] = (view.getUint16(p, true) >> bit) & 1;
 }

@@ -11,7 +11,7 @@ import type { Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';
 import type { SampleSink, SampleStreamHeader } from '../csv/sample-stream.js';
 import type { ComtradeConfig } from './cfg.js';
-import { readComtradeDat } from './dat.js';
+import { readComtradeDat, type DatColumns } from './dat.js';
 import { binaryRecordBytes, checkDatType } from './dat-type.js';
 import { scaleChannel, uniqueNames, valuesNote, type ComtradeOptions } from './parse.js';
 
@@ -44,6 +44,8 @@ export class ComtradeSampleStream {
 	private readonly missing: number[];
 	private breaks = 0;
 	private firstBreak = 0;
+	/** The last block's columns, filled again by the next (BINARY types): no fresh memory per block. */
+	private columns: DatColumns | undefined;
 
 	/**
 	 * @param cfg  the parsed .cfg (parseComtradeCfg) of a record with one sampling rate
@@ -213,10 +215,15 @@ export class ComtradeSampleStream {
 	/** Reads whole records, scales them and hands them on. */
 	private read(bytes: Uint8Array): void {
 		if (!this.checked) this.checkType(bytes);
-		const dat = readComtradeDat(this.cfg, bytes, this.datSource, undefined, {
-			line: this.linesDone,
-			byte: this.byteBase + this.bytesDone,
-		});
+		const dat = readComtradeDat(
+			this.cfg,
+			bytes,
+			this.datSource,
+			undefined,
+			{ line: this.linesDone, byte: this.byteBase + this.bytesDone },
+			this.columns,
+		);
+		if (!this.ascii) this.columns = dat;
 		this.linesDone += this.ascii ? dat.records : 0;
 		this.bytesDone += bytes.length;
 		const take = Math.max(0, Math.min(dat.records, this.expected - this.records));
@@ -225,15 +232,17 @@ export class ComtradeSampleStream {
 		this.breaks += dat.sampleNumberBreaks;
 		if (take === 0) return;
 		for (let c = 0; c < dat.raw.length; c++) {
-			const x = dat.raw[c];
-			const a = this.factors[c];
-			const b = this.offsets[c];
-			for (let k = 0; k < take; k++) x[k] = a * x[k] + b;
+			scaleInPlace(dat.raw[c], take, this.factors[c], this.offsets[c]);
 			this.missing[c] += dat.missing[c];
 		}
 		this.records += take;
 		this.sink.samples(dat.raw, take);
 	}
+}
+
+/** x[k] = a·x[k] + b for k < n: its own function, so the per-sample loop is optimised whole. */
+function scaleInPlace(x: Float64Array, n: number, a: number, b: number): void {
+	for (let k = 0; k < n; k++) x[k] = a * x[k] + b;
 }
 
 /** Index just past the last line break (LF, or a lone CR), 0 when there is none. */

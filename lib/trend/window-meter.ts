@@ -1,0 +1,138 @@
+/**
+ * Measures one 10/12-cycle window on every channel, straight from the channels' ring buffers: RMS over
+ * exactly the crossing times startT..endT (the two edge samples count by the part of them inside the
+ * window), THD (window-thd.ts, or lib/spectrum's exact resampler with thdMethod 'sinc'), optionally each
+ * harmonic order, and with exactly three voltage channels the unbalance of their fundamentals.
+ *
+ * Ref: IEC 61000-4-30:2015, 4.4 (10/12-cycle value), 5.7.2 (unbalance), IEC 61000-4-7:2002 (harmonic
+ * subgroups) (from memory); docs/methods.md §2.2, §3.2, §7.
+ */
+import { harmonicWindow, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
+import { TREND_MAX_ORDER, WindowThd } from './window-thd.js';
+import { windowUnbalancePercent } from './window-unbalance.js';
+import type { TrendOptions, TrendRow } from './types.js';
+import type { WindowSpan } from './window-clock.js';
+
+/** Samples beyond each end of a window kept for the resampling kernels (8-point Lagrange, 24-tap sinc). */
+export const WINDOW_PAD = 16;
+
+export interface WindowMeterOptions {
+	sampleRateHz: number;
+	/** One ring buffer per channel (power-of-two length; sample j at j & (length − 1)). */
+	rings: Float64Array[];
+	/** Channel indices of the voltage channels, in order. */
+	voltage: number[];
+	thd?: TrendOptions['thd'];
+	thdMethod?: TrendOptions['thdMethod'];
+	harmonics?: TrendOptions['harmonics'];
+}
+
+export class WindowMeter {
+	readonly wantThd: boolean;
+	/** Channel windows whose RMS was not finite, and where the first was. */
+	nonFiniteWindows = 0;
+	firstNonFinite = { channel: 0, startS: 0 };
+	private readonly sinc: boolean;
+	private readonly scratch: Float64Array | undefined;
+	private readonly harmScratch: Float64Array | undefined;
+	/** Fundamental bins (re, im) of the three voltage channels, for the unbalance; and each channel's slot. */
+	private readonly phasors: Float64Array | undefined;
+	private readonly phasorSlot: Int32Array;
+	private fastThd: WindowThd | undefined;
+	private readonly mask: number;
+
+	/** @throws RangeError for an unknown thdMethod */
+	constructor(private readonly o: WindowMeterOptions) {
+		const method = o.thdMethod ?? 'lagrange';
+		if (method !== 'lagrange' && method !== 'sinc')
+			throw new RangeError(`thdMethod must be 'lagrange' or 'sinc', got ${method}`);
+		const ringLen = o.rings[0].length;
+		this.mask = ringLen - 1;
+		this.wantThd = o.thd ?? true;
+		this.sinc = this.wantThd && method === 'sinc';
+		const lagrange = this.wantThd && method === 'lagrange';
+		this.scratch = this.sinc ? new Float64Array(ringLen) : undefined;
+		this.harmScratch = lagrange && o.harmonics === true ? new Float64Array(TREND_MAX_ORDER + 1) : undefined;
+		// Unbalance per window from the fundamentals of exactly three voltage channels (IEC 61000-4-30:2015,
+		// 5.7.2; from memory): u2 = |U2| / |U1| in the channels' order, the smaller over the larger sequence.
+		this.phasors = lagrange && o.voltage.length === 3 ? new Float64Array(6) : undefined;
+		this.phasorSlot = new Int32Array(o.rings.length).fill(-1);
+		if (this.phasors) o.voltage.forEach((c, k) => (this.phasorSlot[c] = k));
+	}
+
+	/** The row of window `w` (`samples` pushed so far) of `cycles` cycles, unflagged. */
+	measure(w: WindowSpan, cycles: number, samples: number): TrendRow {
+		const nCh = this.o.rings.length;
+		const fs = this.o.sampleRateHz;
+		const lengthT = w.endT - w.startT;
+		const rms: number[] = new Array(nCh);
+		const thd: number[] = new Array(nCh);
+		const harm: number[][] | undefined = this.harmScratch ? [] : undefined;
+		for (let c = 0; c < nCh; c++) {
+			rms[c] = this.rms(c, w.startT, w.endT);
+			if (!Number.isFinite(rms[c]) && this.nonFiniteWindows++ === 0)
+				this.firstNonFinite = { channel: c, startS: w.startT / fs };
+			thd[c] = this.sinc ? this.sincThd(c, w, cycles, samples) : this.wantThd ? this.fastThdOf(c, w, cycles) : NaN;
+			if (harm) harm.push(Array.from(this.harmScratch!));
+		}
+		const row: TrendRow = {
+			interval: '10/12-cycle',
+			startS: w.startT / fs,
+			durationS: lengthT / fs,
+			cycles,
+			frequencyHz: (cycles * fs) / lengthT,
+			complete: true,
+			flagged: false,
+			rms,
+			thdPercent: thd,
+		};
+		if (harm) row.harmonicsPercent = harm;
+		if (this.phasors) row.unbalancePercent = windowUnbalancePercent(this.phasors);
+		return row;
+	}
+
+	/** RMS of channel `c` over exactly startT..endT: sample j stands for [j − ½, j + ½). */
+	private rms(c: number, startT: number, endT: number): number {
+		const ring = this.o.rings[c];
+		const mask = this.mask;
+		// The two edge samples count by the part inside the window, so the window is exactly startT..endT on
+		// every channel, not only on the reference (whose edge samples are near zero anyway).
+		const ja = Math.round(startT);
+		const jb = Math.round(endT);
+		const va = ring[ja & mask];
+		const vb = ring[jb & mask];
+		let s = (ja + 0.5 - startT) * va * va + (endT - jb + 0.5) * vb * vb;
+		for (let j = ja + 1; j < jb; j++) {
+			const v = ring[j & mask];
+			s += v * v;
+		}
+		return Math.sqrt(s / (endT - startT));
+	}
+
+	private fastThdOf(c: number, w: WindowSpan, cycles: number): number {
+		if (!this.fastThd || this.fastThd.cycles !== cycles) this.fastThd = new WindowThd(cycles);
+		const k = this.phasorSlot[c];
+		return this.fastThd.thdPercent(
+			this.o.rings[c],
+			this.mask,
+			w.startT,
+			w.endT,
+			this.o.sampleRateHz,
+			this.harmScratch,
+			k >= 0 ? this.phasors!.subarray(2 * k, 2 * k + 2) : undefined,
+		);
+	}
+
+	private sincThd(c: number, w: WindowSpan, cycles: number, samples: number): number {
+		const fs = this.o.sampleRateHz;
+		const ring = this.o.rings[c];
+		const s0 = Math.max(0, samples - ring.length + 1, Math.floor(w.startT) - WINDOW_PAD);
+		const e0 = Math.min(samples, Math.ceil(w.endT) + WINDOW_PAD);
+		const x = this.scratch!.subarray(0, e0 - s0);
+		for (let j = s0; j < e0; j++) x[j - s0] = ring[j & this.mask];
+		const f1 = (cycles * fs) / (w.endT - w.startT);
+		if (!(f1 < fs / 2)) return NaN;
+		return harmonicWindow(x, fs, { fundamentalHz: f1, startIndex: w.startT - s0, cycles, maxOrder: MAX_HARMONIC_ORDER })
+			.thd.thdS50Percent;
+	}
+}
