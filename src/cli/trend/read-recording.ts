@@ -145,12 +145,13 @@ interface PartTarget {
 function trendSink(
 	target: PartTarget,
 	place: (h: SampleStreamHeader) => RatePlace,
+	channelsPlace?: () => RatePlace,
 ): SampleSink & { header(): SampleStreamHeader } {
 	let head: SampleStreamHeader | undefined;
 	const views: Float64Array[] = [];
 	return {
 		start(h) {
-			target.begin(h, place(h));
+			target.begin(h, place(h), channelsPlace?.());
 			head = h;
 		},
 		samples(chunk, n) {
@@ -202,7 +203,12 @@ function analyseCsv(
 			? { source, line: l.bodyLine, column: l.timeColumn + 1 }
 			: { source, line: l.headerLine ?? l.bodyLine, column: 0 };
 	};
-	const sink = trendSink(target, ratePlace);
+	// the channels come from the header line
+	const sink = trendSink(target, ratePlace, () => ({
+		source,
+		line: stream.layout?.headerLine ?? stream.layout?.bodyLine ?? 0,
+		column: 0,
+	}));
 	const stream: CsvSampleStream = new CsvSampleStream(source, csvOptionsWithSettings(open), sink, {
 		totalBytes: size,
 		maxChannels: TREND_MAX_CHANNELS,
