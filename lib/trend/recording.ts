@@ -103,6 +103,143 @@ function checkPart(first: RecordingPartHeader, h: RecordingPartHeader): void {
 		);
 }
 
+type LiveSegment = Segment & { analyser: TrendAnalyser };
+
+class Recording implements RecordingAnalyser {
+	private readonly placement: 'clock' | 'sequence';
+	private readonly givenClock: number | undefined;
+	private readonly trendOpts: Omit<RecordingOptions, 'placement' | 'clockStartS'>;
+	private first: RecordingPartHeader | undefined;
+	private recClock: number | undefined;
+	private readonly segments: Segment[] = [];
+	private seg: LiveSegment | undefined;
+	private dropLeft = 0;
+	private part: RecordingPart | undefined;
+	private overlap: RecordingOverlap | undefined;
+	private readonly parts: RecordingPart[] = [];
+	private readonly gaps: RecordingGap[] = [];
+	private readonly overlaps: RecordingOverlap[] = [];
+	private readonly notes: Diagnostic[] = [];
+
+	constructor(opts: RecordingOptions) {
+		const { placement, clockStartS, ...trendOpts } = opts;
+		this.placement = placement;
+		this.givenClock = clockStartS;
+		this.trendOpts = trendOpts;
+	}
+
+	get started(): boolean {
+		return this.first !== undefined;
+	}
+
+	/** A new analyser from `offsetS` (s from the recording's first sample), on the clock at `clockS`. */
+	private startSegment(offsetS: number, clockS: number | undefined, h: RecordingPartHeader): void {
+		const o = this.trendOpts;
+		const before = this.segments[0]?.result;
+		const knownV = before && before.declaredVSource !== 'none' ? before.declaredV : undefined;
+		const onRow = o.onRow;
+		const onHalf = o.onHalfCycle;
+		const analyser = createTrendAnalyser({
+			...o,
+			sampleRateHz: h.sampleRateHz,
+			channels: h.channels,
+			clockStartS: clockS,
+			declaredV: o.declaredV ?? knownV,
+			nominalHz: o.nominalHz ?? (before?.nominalHz as 50 | 60 | undefined) ?? h.nominalHz,
+			onRow: onRow && offsetS !== 0 ? (row) => onRow({ ...row, startS: row.startS + offsetS }) : onRow,
+			onHalfCycle: onHalf && offsetS !== 0 ? (c, t, v) => onHalf(c, t + offsetS, v) : onHalf,
+		});
+		this.seg = { analyser, offsetS, samples: 0, result: undefined };
+	}
+
+	private closeSegment(): void {
+		if (!this.seg) return;
+		this.seg.result = this.seg.analyser.finish();
+		this.segments.push(this.seg);
+		this.seg = undefined;
+	}
+
+	/** Where the part goes relative to the samples before it: a gap (> 0), an overlap (< 0) or 0. */
+	private placePart(h: RecordingPartHeader): number {
+		if (this.placement !== 'clock' || this.recClock === undefined || h.clockStartS === undefined) {
+			if (this.placement === 'clock')
+				this.notes.push({
+					code: 'recording-part-unplaced',
+					severity: 'assumption',
+					message: `${h.source} states no start time: it is taken to follow the file before it directly.`,
+				});
+			return 0;
+		}
+		const rate = this.first!.sampleRateHz;
+		const expected = this.recClock + this.seg!.offsetS + this.seg!.samples / rate;
+		const delta = h.clockStartS - expected;
+		return Math.abs(delta) <= Math.max(CONTIGUOUS_TOLERANCE_S, 1 / rate) ? 0 : delta;
+	}
+
+	beginPart(h: RecordingPartHeader): void {
+		if (!(h.sampleRateHz > 0) || !Number.isFinite(h.sampleRateHz))
+			throw new RangeError(`sample rate must be a positive number, got ${h.sampleRateHz}`);
+		if (this.first) checkPart(this.first, h);
+		this.dropLeft = 0;
+		this.overlap = undefined;
+		if (!this.first) {
+			this.first = h;
+			this.recClock =
+				this.placement === 'clock' ? (h.clockStartS ?? this.givenClock) : (this.givenClock ?? h.clockStartS);
+			this.startSegment(0, this.recClock, h);
+			this.part = { source: h.source, startS: 0, samples: 0 };
+			this.parts.push(this.part);
+			return;
+		}
+		const delta = this.placePart(h);
+		const endS = this.seg!.offsetS + this.seg!.samples / h.sampleRateHz;
+		this.part = { source: h.source, startS: endS + delta, samples: 0 };
+		if (delta > 0) {
+			this.gaps.push({
+				startS: endS,
+				durationS: delta,
+				after: this.parts[this.parts.length - 1].source,
+				before: h.source,
+			});
+			this.closeSegment();
+			this.startSegment(endS + delta, h.clockStartS, h);
+		} else if (delta < 0) {
+			this.dropLeft = Math.round(-delta * h.sampleRateHz);
+			this.overlap = { source: h.source, startS: endS + delta, durationS: -delta, droppedSamples: 0 };
+			this.overlaps.push(this.overlap);
+		}
+		this.parts.push(this.part);
+	}
+
+	push(chunk: Float64Array[]): void {
+		const seg = this.seg;
+		if (!seg || !this.part) throw new Error('push before beginPart');
+		const n = chunk[0]?.length ?? 0;
+		this.part.samples += n;
+		let from = 0;
+		if (this.dropLeft > 0) {
+			from = Math.min(n, this.dropLeft);
+			this.dropLeft -= from;
+			this.overlap!.droppedSamples += from;
+		}
+		if (from >= n) return;
+		seg.analyser.push(from === 0 ? chunk : chunk.map((x) => x.subarray(from)));
+		seg.samples += n - from;
+	}
+
+	finish(): RecordingResult {
+		if (!this.first) throw new Error('no part of the recording was begun');
+		this.closeSegment();
+		return mergeSegments(this.segments, {
+			parts: this.parts,
+			gaps: this.gaps,
+			overlaps: this.overlaps,
+			notes: this.notes,
+			clockStartS: this.recClock,
+		});
+	}
+}
+
 /**
  * Creates the analyser of a recording over many files.
  * @example
@@ -112,115 +249,5 @@ function checkPart(first: RecordingPartHeader, h: RecordingPartHeader): void {
  * const result = r.finish(); // one recording, 2 h; result.gaps: [] when h09 starts where h08 ends
  */
 export function createRecordingAnalyser(opts: RecordingOptions): RecordingAnalyser {
-	const { placement, clockStartS: givenClock, ...trendOpts } = opts;
-	let first: RecordingPartHeader | undefined;
-	let recClock: number | undefined;
-	const segments: Segment[] = [];
-	let seg: (Segment & { analyser: TrendAnalyser }) | undefined;
-	let dropLeft = 0;
-	let part: RecordingPart | undefined;
-	let overlap: RecordingOverlap | undefined;
-	const parts: RecordingPart[] = [];
-	const gaps: RecordingGap[] = [];
-	const overlaps: RecordingOverlap[] = [];
-	const notes: Diagnostic[] = [];
-
-	function startSegment(offsetS: number, clockS: number | undefined, h: RecordingPartHeader): void {
-		const before = segments[0]?.result;
-		const knownV = before && before.declaredVSource !== 'none' ? before.declaredV : undefined;
-		const onRow = trendOpts.onRow;
-		const onHalf = trendOpts.onHalfCycle;
-		const analyser = createTrendAnalyser({
-			...trendOpts,
-			sampleRateHz: h.sampleRateHz,
-			channels: h.channels,
-			clockStartS: clockS,
-			declaredV: trendOpts.declaredV ?? knownV,
-			nominalHz: trendOpts.nominalHz ?? (before?.nominalHz as 50 | 60 | undefined) ?? h.nominalHz,
-			onRow: onRow && offsetS !== 0 ? (row) => onRow({ ...row, startS: row.startS + offsetS }) : onRow,
-			onHalfCycle: onHalf && offsetS !== 0 ? (c, t, v) => onHalf(c, t + offsetS, v) : onHalf,
-		});
-		seg = { analyser, offsetS, samples: 0, result: undefined };
-	}
-
-	function closeSegment(): void {
-		if (!seg) return;
-		seg.result = seg.analyser.finish();
-		segments.push(seg);
-		seg = undefined;
-	}
-
-	/** Where the part goes relative to the samples before it: a gap (> 0), an overlap (< 0) or 0. */
-	function placePart(h: RecordingPartHeader): number {
-		if (placement !== 'clock' || recClock === undefined || h.clockStartS === undefined) {
-			if (placement === 'clock')
-				notes.push({
-					code: 'recording-part-unplaced',
-					severity: 'assumption',
-					message: `${h.source} states no start time: it is taken to follow the file before it directly.`,
-				});
-			return 0;
-		}
-		const expected = recClock + seg!.offsetS + seg!.samples / first!.sampleRateHz;
-		const delta = h.clockStartS - expected;
-		const tol = Math.max(CONTIGUOUS_TOLERANCE_S, 1 / first!.sampleRateHz);
-		return Math.abs(delta) <= tol ? 0 : delta;
-	}
-
-	function begin(h: RecordingPartHeader): void {
-		if (first) checkPart(first, h);
-		if (!first) {
-			first = h;
-			recClock = placement === 'clock' ? (h.clockStartS ?? givenClock) : (givenClock ?? h.clockStartS);
-			startSegment(0, recClock, h);
-			part = { source: h.source, startS: 0, samples: 0 };
-			parts.push(part);
-			return;
-		}
-		const delta = placePart(h);
-		const endS = seg!.offsetS + seg!.samples / h.sampleRateHz;
-		part = { source: h.source, startS: endS + delta, samples: 0 };
-		if (delta > 0) {
-			gaps.push({ startS: endS, durationS: delta, after: parts[parts.length - 1].source, before: h.source });
-			closeSegment();
-			startSegment(endS + delta, h.clockStartS, h);
-		} else if (delta < 0) {
-			dropLeft = Math.round(-delta * h.sampleRateHz);
-			overlap = { source: h.source, startS: endS + delta, durationS: -delta, droppedSamples: 0 };
-			overlaps.push(overlap);
-		}
-		parts.push(part);
-	}
-
-	return {
-		beginPart(h) {
-			if (!(h.sampleRateHz > 0) || !Number.isFinite(h.sampleRateHz))
-				throw new RangeError(`sample rate must be a positive number, got ${h.sampleRateHz}`);
-			dropLeft = 0;
-			overlap = undefined;
-			begin(h);
-		},
-		push(chunk) {
-			if (!seg || !part) throw new Error('push before beginPart');
-			const n = chunk[0]?.length ?? 0;
-			part.samples += n;
-			let from = 0;
-			if (dropLeft > 0) {
-				from = Math.min(n, dropLeft);
-				dropLeft -= from;
-				overlap!.droppedSamples += from;
-			}
-			if (from >= n) return;
-			seg.analyser.push(from === 0 ? chunk : chunk.map((x) => x.subarray(from)));
-			seg.samples += n - from;
-		},
-		get started() {
-			return first !== undefined;
-		},
-		finish() {
-			if (!first) throw new Error('no part of the recording was begun');
-			closeSegment();
-			return mergeSegments(segments, { parts, gaps, overlaps, notes, clockStartS: recClock });
-		},
-	};
+	return new Recording(opts);
 }
