@@ -570,10 +570,13 @@ function partTarget(recording: RecordingAnalyser, source: string, hooks: Analyse
 	};
 }
 
-/** Import notes of several files: each (code, message) once; a file's warnings name the file. */
+/**
+ * Import notes of several files: a warning once per (code, message), naming its file; any other note
+ * (what was detected or assumed, the same in every file of a recording) once per code, from the first file.
+ */
 function addNotes(all: Diagnostic[], seen: Set<string>, notes: Diagnostic[], source: string, several: boolean): void {
 	for (const d of notes) {
-		const key = `${d.code}\u0000${d.message}`;
+		const key = d.severity === 'warning' ? `${d.code}\u0000${d.message}` : d.code;
 		if (seen.has(key)) continue;
 		seen.add(key);
 		all.push(several && d.severity === 'warning' ? { ...d, message: `${source}: ${d.message}` } : d);
