@@ -10,7 +10,7 @@
  * L2 dips to 161 V (70 %) for 0.7 s from 11.9 s (across the file boundary at 12.3 s), L1 swells to
  * 264.5 V (115 %) for 0.3 s from 17.0 s.
  */
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -220,6 +220,28 @@ describe('trend --one-recording: a recording cut into files is one recording', (
 		);
 		expect(r.doc.parts).toHaveLength(1);
 		expect(basic(r.doc).length).toBeGreaterThan(50);
+	});
+
+	it('a file stamped 70 years later is a gap, not a hang; a file wholly inside another is dropped whole; both reported', async () => {
+		const folder = join(dir, 'far');
+		mkdirSync(folder, { recursive: true });
+		writeCsv(join(folder, 'a.csv'), 0, 12 * FS);
+		writeCsv(join(folder, 'inside.csv'), 2 * FS, 4 * FS);
+		writeCsv(join(folder, 'b.csv'), 12 * FS, N);
+		writeFileSync(
+			join(folder, 'b.csv'),
+			readFileSync(join(folder, 'b.csv'), 'utf8').replace(/2026-05-04/g, '2096-05-04'),
+		);
+		const r = await trendOf(folder);
+		expect(r.code).toBe(0);
+		// 2026-05-04 to 2096-05-04: 70 years with 18 leap days (2028, 2032 ... 2096; hand count); b.csv starts 12 s in, where a.csv ends
+		const years70S = (70 * 365 + 18) * 86_400;
+		expect(r.doc.gaps).toHaveLength(1);
+		expect(r.doc.gaps[0].startS).toBeCloseTo(12, 6);
+		expect(r.doc.gaps[0].durationS).toBeCloseTo(years70S, 0);
+		expect(r.doc.overlaps).toHaveLength(1);
+		expect(r.doc.overlaps[0].droppedSamples).toBe(2 * FS);
+		expect(r.err).toMatch(/inside\.csv starts 10\.000 s before the file before it ends/);
 	});
 
 	it('survey of the 7-file folder equals the survey of the 1-file folder (the files analysed as one recording)', async () => {
