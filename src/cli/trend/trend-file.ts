@@ -93,7 +93,10 @@ export function trendFile(job: TrendJob, sink: TrendSink): void {
 	);
 	flush();
 	// one file: its error is the job's; of several, each failed file is a line and the rest still counts
-	if (!read || (parts.length === 1 && failures.length > 0)) throw failures[0].error;
+	if (!read || (parts.length === 1 && failures.length > 0)) {
+		for (const f of failures.slice(1)) sink.failed(errorLine(f.error, f.source));
+		throw failures[0]?.error ?? new Error(`${file}: no samples could be read`);
+	}
 	for (const f of failures) sink.failed(errorLine(f.error, f.source));
 	const result: TrendResult = read;
 	// lib's messages name no CLI option (the UI shows them too): the option is added here
