@@ -123,6 +123,48 @@ describe('trend --one-recording over COMTRADE records: 150/180-cycle, 10-min and
 		expect(one.flicker!.pst[0].values[0]).toBeLessThan(0.05);
 	});
 
+	it('a record at another sample rate is refused with not-same-recording at its .cfg rate line; the first still counts', async () => {
+		const folder = join(dir, 'rates');
+		mkdirSync(folder, { recursive: true });
+		writeRecord(join(folder, 'a'), 0, 2 * FS);
+		const spec: WriterSpec = {
+			station: 'Tallowmere Joinery',
+			device: 'incomer logger',
+			revYear: 2013,
+			lineFrequencyHz: 50,
+			rates: [{ sampleRateHz: 2 * FS, endSample: 4 * FS }],
+			firstData: stamp(2 * FS),
+			trigger: stamp(2 * FS),
+			fileType: 'FLOAT32',
+			analog: ['L1', 'L2', 'L3'].map((name, c) => ({
+				name,
+				phase: name,
+				unit: 'V',
+				values: xs[c].subarray(0, 4 * FS),
+			})),
+		};
+		const cfg = comtradeCfgText(spec);
+		writeFileSync(join(folder, 'b.cfg'), cfg);
+		writeFileSync(join(folder, 'b.dat'), comtradeDatBytes(spec));
+		// the line of the .cfg that states the rate: `<rate>,<last sample>` (IEEE C37.111, from memory)
+		const rateLine = cfg.split(/\r?\n/).findIndex((l) => l.startsWith(`${2 * FS},`)) + 1;
+		const out = textSink();
+		const err = textSink();
+		const code = await trendCommand([folder], {
+			json: true,
+			nominal: 230,
+			oneRecording: true,
+			stdout: out,
+			stderr: err,
+		});
+		expect(code).toBe(2);
+		expect(rateLine).toBeGreaterThan(0);
+		expect(err.text()).toMatch(
+			new RegExp(`b\\.cfg:${rateLine}:1: not-same-recording: expected the sample rate of .*a\\.cfg, ${FS} Hz`),
+		);
+		expect(JSON.parse(out.text()).parts).toHaveLength(1);
+	});
+
 	for (const [name, cuts] of [
 		['two', [300.1]],
 		['seven', [60, 150.5, 230, 300.1, 400, 520.7]],
