@@ -23,6 +23,7 @@ export type ImportErrorCode =
 	| 'out-of-range'
 	| 'missing-companion-file'
 	| 'too-large'
+	| 'not-same-recording'
 	| 'internal-error';
 
 export class ImportError extends Error {

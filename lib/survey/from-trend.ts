@@ -41,6 +41,9 @@ export interface TrendDocument {
 		ended: boolean;
 	}[];
 	plt?: { startS: number; plt: (number | null)[]; flagged: boolean }[];
+	/** A recording of several files analysed as one: its files, and the gaps between them (times as above). */
+	parts?: { source: string; startS: number; samples: number }[];
+	gaps?: { startS: number; durationS: number; after: string; before: string }[];
 }
 
 export class SurveyMergeError extends Error {
@@ -148,12 +151,18 @@ function intervalsOf(p: Placed): SurveyInterval[] {
 		}));
 }
 
+/**
+ * The documents' intervals in order. Two partial parts of one clock interval are joined only where one
+ * document ends and the next begins (a file boundary); inside one document two parts of an interval lie
+ * on either side of a gap, and stay apart.
+ */
 function mergeIntervals(lists: SurveyInterval[][], clockAligned: boolean): SurveyInterval[] {
 	const out: SurveyInterval[] = [];
 	for (const list of lists) {
-		for (const iv of list) {
+		for (const [k, iv] of list.entries()) {
 			const last = out[out.length - 1];
 			const sameSlot =
+				k === 0 &&
 				clockAligned &&
 				last &&
 				!last.complete &&
@@ -238,6 +247,13 @@ export function surveyInputFromTrend(
 				message: `${placed[k].doc.source} starts ${(-gap).toFixed(1)} s before ${placed[k - 1].doc.source} ends: the overlapping intervals are counted once, from the earlier file.`,
 			});
 	}
+	for (const p of placed)
+		for (const g of p.doc.gaps ?? [])
+			diagnostics.push({
+				code: 'survey-gap',
+				severity: 'warning',
+				message: `No data for ${g.durationS.toFixed(1)} s between ${g.after} and ${g.before}.`,
+			});
 	const lists = placed.map(intervalsOf);
 	let covered = -Infinity;
 	const deduped = lists.map((list) => {

@@ -14,3 +14,12 @@ export {
 	type TrendLimitProblem,
 } from './limits.js';
 export { clockTimeOf } from './clock.js';
+export {
+	createRecordingAnalyser,
+	CONTIGUOUS_TOLERANCE_S,
+	RecordingMismatch,
+	type RecordingAnalyser,
+	type RecordingOptions,
+	type RecordingPartHeader,
+} from './recording.js';
+export type { RecordingGap, RecordingOverlap, RecordingPart, RecordingResult } from './recording-types.js';

@@ -159,6 +159,10 @@ cli
 	})
 	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
 	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine)')
+	.option(
+		'--one-recording',
+		'The files and folders given are one recording cut into many files: read in start-time order as one, gaps and overlaps between the files reported',
+	)
 	.action(async (given: string[], options: Record<string, unknown>) => {
 		const files = withAfterDashes(given, options);
 		const settings = settingsFromOptions({
@@ -182,6 +186,7 @@ cli
 			hysteresisPercent: options.hysteresisPercent as number | string | undefined,
 			thd: options.thd !== false,
 			harmonics: options.harmonics === true,
+			oneRecording: options.oneRecording === true,
 			open,
 			timeLimitS: limits.timeLimitS,
 			memoryLimitMiB: limits.heapMiB,

@@ -37,6 +37,24 @@ function doc(
 }
 
 describe('surveyInputFromTrend', () => {
+	it('inside one document (files read as one recording) the two parts of an interval on either side of a gap stay apart, and the gap is reported', () => {
+		// 09:00:00-09:04:00 at 230 V, a 0.5 s gap, 09:04:00.5-09:10:00 at 240 V: two partial intervals, not one.
+		const one: TrendDocument = {
+			...doc('week/', '2026-05-04T09:00:00Z', 600, [
+				{ startS: 0, durationS: 240, v: 230, complete: false },
+				{ startS: 240.5, durationS: 359.5, v: 240, complete: false },
+			]),
+			gaps: [{ startS: 240, durationS: 0.5, after: 'week/a.cfg', before: 'week/b.cfg' }],
+		};
+		const { input, diagnostics } = surveyInputFromTrend([one]);
+		expect(input.intervals.map((i) => [i.durationS, i.rmsV[0], i.complete])).toEqual([
+			[240, 230, false],
+			[359.5, 240, false],
+		]);
+		expect(diagnostics.map((d) => d.code)).toEqual(['survey-gap']);
+		expect(diagnostics[0].message).toContain('0.5 s between week/a.cfg and week/b.cfg');
+	});
+
 	it('joins the two parts of a 10-minute interval cut by a file boundary: RMS of the parts weighted by duration', () => {
 		// 08:00-09:05 then 09:05-10:00: the 09:00-09:10 interval is 300 s at 230 V + 300 s at 240 V.
 		// Hand computation: sqrt((300 x 230^2 + 300 x 240^2) / 600) = sqrt(55250) = 235.0532 V.

@@ -11,6 +11,7 @@
 import type { Channel, Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';
 import { planCsvChannels, scaleCsvSamples, type CsvChannelPlan } from './assemble.js';
+import { isoOf } from './preamble.js';
 import { StreamTimeCheck } from './stream-time.js';
 import { CsvStreamReader } from './stream-reader.js';
 import { secondsPerUnit } from './time-column.js';
@@ -242,6 +243,12 @@ export class CsvSampleStream {
 		};
 		if (layout.nominalFrequencyHz) header.nominalFrequencyHz = layout.nominalFrequencyHz;
 		if (layout.startTime) header.startTime = layout.startTime;
+		else if (layout.timeUnit === 'clock') {
+			// date/time stamps: the first one is the wall-clock start (as parseCsv takes it, assemble.ts)
+			const first = (layout.preview[0] ?? []).slice(0, layout.clockFields).join(' ');
+			const iso = isoOf(first.replace(/^"|"$/g, ''));
+			if (iso) header.startTime = iso;
+		}
 		this.sink.start(header);
 		if (n > 0)
 			this.sink.samples(

@@ -14,7 +14,7 @@ import type { SurveyStandardId } from '../../../lib/survey/types.js';
 import { collectUnits } from '../collect-files.js';
 import { ERROR_PREFIX, errorLine } from '../error-line.js';
 import { UsageError } from '../usage-error.js';
-import { analyseFile } from '../trend/read-recording.js';
+import { analyseRecording, type RecordingFile } from '../trend/read-recording.js';
 import { trendJson } from '../trend/trend-output.js';
 import { surveyCsv, surveyJson, surveyTable } from './survey-output.js';
 
@@ -110,34 +110,31 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 		return 2;
 	}
 	const docs: TrendDocument[] = [];
+	const files: RecordingFile[] = [];
 	let failed = 0;
 	for (const path of paths) {
 		try {
 			const isJson = ['.json', '.jsonl'].includes(extname(path).toLowerCase()) && statSync(path).isFile();
-			if (isJson) {
-				docs.push(...documentsIn(path));
-				continue;
-			}
-			const { units } = collectUnits([path]);
-			for (const u of units) {
-				const file = u.files[0];
-				try {
-					const result = analyseFile(file, file, options.open ?? {}, {
-						declaredV,
-						nominalHz: nominalHz as 50 | 60 | undefined,
-						harmonics: true,
-						keep: { cycles10: false, cycles150: false, min10: true },
-					});
-					docs.push(trendJson(file, result) as TrendDocument);
-				} catch (e) {
-					failed++;
-					err.write(`${errorLine(e, file)}\n`);
-				}
-			}
+			if (isJson) docs.push(...documentsIn(path));
+			else for (const u of collectUnits([path]).units) files.push({ path: u.files[0], source: u.files[0] });
 		} catch (e) {
 			failed++;
 			err.write(`${errorLine(e, path)}\n`);
 		}
+	}
+	if (files.length > 0) {
+		// every recording file given is one recording: one analyser, fed in start-time order
+		const { result, failures } = analyseRecording(files, options.open ?? {}, {
+			declaredV,
+			nominalHz: nominalHz as 50 | 60 | undefined,
+			harmonics: true,
+			keep: { cycles10: false, cycles150: false, min10: true },
+		});
+		for (const f of failures) {
+			failed++;
+			err.write(`${errorLine(f.error, f.source)}\n`);
+		}
+		if (result) docs.push(trendJson(files.length === 1 ? files[0].source : paths.join(', '), result) as TrendDocument);
 	}
 	if (docs.length === 0) {
 		err.write(`${ERROR_PREFIX}survey: no recording could be read\n`);
@@ -149,7 +146,7 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 		const notes = diagnostics.map((d) => d.message);
 		if (options.json)
 			out.write(
-				`${surveyJson(result, { files: docs.map((d) => d.source), clockAligned: input.clockAligned, spanStartS: input.spanStartS, diagnostics })}\n`,
+				`${surveyJson(result, { files: docs.flatMap((d) => d.parts?.map((p) => p.source) ?? [d.source]), clockAligned: input.clockAligned, spanStartS: input.spanStartS, diagnostics })}\n`,
 			);
 		else if (options.csv) {
 			out.write(surveyCsv(result));

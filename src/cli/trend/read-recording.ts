@@ -1,6 +1,11 @@
 /**
- * Feeds one recording file through a trend analyser, streaming every format from disk in fixed-size
- * blocks, so memory stays flat in the length of the recording and in its channel count:
+ * Feeds one recording, one file or many, through ONE trend analyser (lib/trend's recording analyser),
+ * streaming every format from disk in fixed-size blocks, so memory stays flat in the length of the
+ * recording and in its channel count. The files of a recording are ordered by their stated start times
+ * (read first from each file's head) and fed one after another: the analyser's state runs on across a
+ * file boundary; a gap or overlap between files is found from the start times and reported; a file with
+ * another sample rate or other channels is refused with a located 'not-same-recording' error, and a file
+ * that fails part-way keeps the samples read before the error (the rest is a gap). Formats:
  * - WAV: the data chunk is read in blocks (wav-stream.ts);
  * - CSV/TXT/TSV: lib/io's CsvSampleStream takes the text in 1 MiB chunks and hands on each chunk's rows;
  *   no column is held whole;
@@ -29,7 +34,8 @@ import {
 	type InputFile,
 	type OpenOptions,
 } from '../../../lib/io/index.js';
-import { createTrendAnalyser, type TrendAnalyser } from '../../../lib/trend/index.js';
+import { createRecordingAnalyser, RecordingMismatch, type RecordingAnalyser } from '../../../lib/trend/index.js';
+import type { RecordingResult } from '../../../lib/trend/index.js';
 import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/index.js';
 import { clockTimeOf } from '../../../lib/trend/index.js';
 import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
@@ -73,40 +79,19 @@ function clockNotes(startTime: string | undefined): Diagnostic[] {
 		: [];
 }
 
-/** A capture read whole (bounded by WHOLE_READ_MAX_BYTES) through the analyser, its rate checked first. */
+/** A capture read whole (bounded by WHOLE_READ_MAX_BYTES) into the recording, its rate checked first. */
 function analyseWhole(
 	capture: Capture,
-	settings: AnalyserSettings,
+	target: PartTarget,
 	hooks: AnalyseFileHooks,
 	ratePlace: RatePlace,
-): TrendResult {
-	const onProgress = hooks.onProgress;
-	const limit = trendLimitProblem(capture.sampleRateHz, capture.channels.length);
-	if (limit)
-		throw new ImportError(
-			ratePlace.source,
-			ratePlace.line,
-			ratePlace.column,
-			'out-of-range',
-			limit.got,
-			limit.expected,
-		);
-	const nominal =
-		settings.nominalHz ??
-		(capture.nominalFrequencyHz === 50 || capture.nominalFrequencyHz === 60 ? capture.nominalFrequencyHz : undefined);
-	const a = createTrendAnalyser({
-		...settings,
-		clockStartS: settings.clockStartS ?? clockTimeOf(capture.startTime)?.unixS,
-		nominalHz: nominal,
-		sampleRateHz: capture.sampleRateHz,
-		channels: capture.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
-	});
-	hooks.onChannels?.(capture.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })));
+): Diagnostic[] {
+	target.begin(capture, ratePlace);
 	const n = capture.channels[0]?.samples.length ?? 0;
 	for (let off = 0; off < n; off += BLOCK_FRAMES) {
 		const end = Math.min(n, off + BLOCK_FRAMES);
-		a.push(capture.channels.map((c) => c.samples.subarray(off, end)));
-		onProgress?.(end / n);
+		target.push(capture.channels.map((c) => c.samples.subarray(off, end)));
+		hooks.onProgress?.(end / n);
 	}
 	const extra: Diagnostic[] = capture.timeS
 		? [
@@ -117,12 +102,7 @@ function analyseWhole(
 				},
 			]
 		: [];
-	return withImportNotes(a.finish(), [...capture.diagnostics, ...extra, ...clockNotes(capture.startTime)]);
-}
-
-function withImportNotes(result: TrendResult, notes: Diagnostic[]): TrendResult {
-	result.diagnostics = [...notes, ...result.diagnostics];
-	return result;
+	return [...capture.diagnostics, ...extra, ...clockNotes(capture.startTime)];
 }
 
 /** `name` with its file name replaced by `file`, keeping the folder part exactly as it was written. */
@@ -143,45 +123,42 @@ interface RatePlace {
 	column: number;
 }
 
-/**
- * The sink that creates the analyser once the header is known (after checking the bounds) and pushes
- * each block; `analyser()` and `header()` once the stream has started.
- */
+/** What a file says about itself before its first sample. */
+interface PartHead {
+	sampleRateHz: number;
+	channels: readonly { name: string; quantity: TrendChannelSpec['quantity']; unit: string }[];
+	startTime?: string;
+	nominalFrequencyHz?: number;
+}
+
+/** Where one file's samples go: the recording, after the file's rate and channels are checked. */
+interface PartTarget {
+	/**
+	 * Checks lib/trend's bounds and that the file fits the recording (same rate and channels), each as an
+	 * ImportError at `ratePlace` (the channels at `channelsPlace`, default: the rate's line, column 0).
+	 */
+	begin(h: PartHead, ratePlace: RatePlace, channelsPlace?: RatePlace): void;
+	push(views: Float64Array[]): void;
+}
+
+/** The sink that begins the part once the header is known (after the checks) and pushes each block. */
 function trendSink(
-	settings: AnalyserSettings,
-	hooks: AnalyseFileHooks,
+	target: PartTarget,
 	place: (h: SampleStreamHeader) => RatePlace,
-): SampleSink & { analyser(): TrendAnalyser; header(): SampleStreamHeader } {
-	let a: TrendAnalyser | undefined;
+	channelsPlace?: () => RatePlace,
+): SampleSink & { header(): SampleStreamHeader } {
 	let head: SampleStreamHeader | undefined;
 	const views: Float64Array[] = [];
 	return {
 		start(h) {
-			const limit = trendLimitProblem(h.sampleRateHz, h.channels.length);
-			if (limit) {
-				const at = limit.what === 'sample-rate' ? place(h) : { ...place(h), column: 0 };
-				throw new ImportError(at.source, at.line, at.column, 'out-of-range', limit.got, limit.expected);
-			}
+			target.begin(h, place(h), channelsPlace?.());
 			head = h;
-			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
-			const nominal =
-				settings.nominalHz ??
-				(h.nominalFrequencyHz === 50 || h.nominalFrequencyHz === 60 ? h.nominalFrequencyHz : undefined);
-			a = createTrendAnalyser({
-				...settings,
-				clockStartS: settings.clockStartS ?? clockTimeOf(h.startTime)?.unixS,
-				nominalHz: nominal,
-				sampleRateHz: h.sampleRateHz,
-				channels: specs,
-			});
-			hooks.onChannels?.(specs);
 		},
 		samples(chunk, n) {
 			for (let c = 0; c < chunk.length; c++) views[c] = chunk[c].length === n ? chunk[c] : chunk[c].subarray(0, n);
 			views.length = chunk.length;
-			a!.push(views);
+			target.push(views);
 		},
-		analyser: () => a!,
 		header: () => head!,
 	};
 }
@@ -215,9 +192,9 @@ function analyseCsv(
 	source: string,
 	size: number,
 	open: OpenOptions,
-	settings: AnalyserSettings,
+	target: PartTarget,
 	hooks: AnalyseFileHooks,
-): TrendResult {
+): Diagnostic[] {
 	// the rate comes from the time column's first rows, or the preamble / options
 	const ratePlace = (): RatePlace => {
 		const l = stream.layout;
@@ -226,7 +203,12 @@ function analyseCsv(
 			? { source, line: l.bodyLine, column: l.timeColumn + 1 }
 			: { source, line: l.headerLine ?? l.bodyLine, column: 0 };
 	};
-	const sink = trendSink(settings, hooks, ratePlace);
+	// the channels come from the header line
+	const sink = trendSink(target, ratePlace, () => ({
+		source,
+		line: stream.layout?.headerLine ?? stream.layout?.bodyLine ?? 0,
+		column: 0,
+	}));
 	const stream: CsvSampleStream = new CsvSampleStream(source, csvOptionsWithSettings(open), sink, {
 		totalBytes: size,
 		maxChannels: TREND_MAX_CHANNELS,
@@ -235,7 +217,7 @@ function analyseCsv(
 	streamFile(path, (chunk) => stream.push(chunk));
 	const late = stream.end();
 	const h = sink.header();
-	return withImportNotes(sink.analyser().finish(), [...h.diagnostics, ...late, ...clockNotes(h.startTime)]);
+	return [...h.diagnostics, ...late, ...clockNotes(h.startTime)];
 }
 
 /** The .dat (and .hdr/.inf) beside a .cfg: same base name, any case. */
@@ -274,9 +256,9 @@ function analyseComtrade(
 	path: string,
 	source: string,
 	open: OpenOptions,
-	settings: AnalyserSettings,
+	target: PartTarget,
 	hooks: AnalyseFileHooks,
-): TrendResult {
+): Diagnostic[] {
 	const cfgSize = statSync(path).size;
 	if (cfgSize > CFG_MAX_BYTES)
 		throw new ImportError(
@@ -321,9 +303,9 @@ function analyseComtrade(
 		}));
 		const capture = openCapture({ name: source, bytes: cfgBytes }, companions, open);
 		capture.source = source;
-		return analyseWhole(capture, settings, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
+		return analyseWhole(capture, target, hooks, { source, line: cfg.rates[0]?.line ?? 0, column: 0 });
 	}
-	const sink = trendSink(settings, hooks, () => ({ source, line: rate.line, column: 1 }));
+	const sink = trendSink(target, () => ({ source, line: rate.line, column: 1 }));
 	const stream = new ComtradeSampleStream(cfg, source, datSource, open.comtrade ?? {}, sink);
 	const datSize = statSync(datPath).size;
 	streamFile(
@@ -339,7 +321,7 @@ function analyseComtrade(
 			severity: 'assumption',
 			message: `${source} is not valid UTF-8; read as Latin-1 (Windows-1252), as older recorders write.`,
 		});
-	return withImportNotes(sink.analyser().finish(), notes);
+	return notes;
 }
 
 /** Bytes of a .cff read to find its CFG section and the DAT section's header line. */
@@ -351,9 +333,9 @@ function analyseCff(
 	source: string,
 	size: number,
 	open: OpenOptions,
-	settings: AnalyserSettings,
+	target: PartTarget,
 	hooks: AnalyseFileHooks,
-): TrendResult {
+): Diagnostic[] {
 	const fd = openSync(path, 'r');
 	let head: Uint8Array;
 	try {
@@ -365,7 +347,7 @@ function analyseCff(
 	const { cfg, dat } = cffLayout(head, source, size);
 	const rate = streamableRate(cfg);
 	if (!rate || hasImportSettings(open.settings))
-		return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), settings, hooks, {
+		return analyseWhole(openCapture({ name: source, bytes: readWhole(path, source) }, [], open), target, hooks, {
 			source,
 			line: cfg.rates[0]?.line ?? 0,
 			column: 0,
@@ -379,7 +361,7 @@ function analyseCff(
 			`${cfg.analog.length} analog channels`,
 			`at most ${TREND_MAX_CHANNELS} channels in one recording`,
 		);
-	const sink = trendSink(settings, hooks, () => ({ source, line: rate.line, column: 1 }));
+	const sink = trendSink(target, () => ({ source, line: rate.line, column: 1 }));
 	const stream = new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, sink, {
 		line: dat.headerLine,
 		byte: dat.start,
@@ -392,64 +374,64 @@ function analyseCff(
 		dat.end,
 	);
 	const late = stream.end();
-	return withImportNotes(sink.analyser().finish(), [
+	return [
 		{ code: 'comtrade-cff', severity: 'info', message: 'Single-file COMTRADE (.cff); its data section was streamed.' },
 		...sink.header().diagnostics,
 		...late,
 		...clockNotes(sink.header().startTime),
-	]);
+	];
 }
 
-/**
- * Analyses one file.
- * @param path  the file on disk
- * @param source  the name to show in messages and errors
- * @throws ImportError for anything the readers cannot take (file, line, column, what was expected)
- */
-export function analyseFile(
+/** One WAV file streamed into the recording (the WAV header states no start time). */
+function readWav(
 	path: string,
 	source: string,
 	open: OpenOptions,
-	settings: AnalyserSettings,
-	hooks: AnalyseFileHooks = {},
-): TrendResult {
-	const onProgress = hooks.onProgress;
+	target: PartTarget,
+	hooks: AnalyseFileHooks,
+): Diagnostic[] {
+	const wav = openWavStream(path, source, open.wav, BLOCK_FRAMES, open.settings);
+	try {
+		const h = wav.header;
+		// bytes 24-27 of the fmt chunk hold the rate, 22-23 the channel count
+		target.begin(
+			{ sampleRateHz: wav.sampleRateHz, channels: h.channels },
+			{ source, line: 0, column: 25 },
+			{
+				source,
+				line: 0,
+				column: 23,
+			},
+		);
+		const bufs = h.channels.map(() => new Float64Array(BLOCK_FRAMES));
+		let done = 0;
+		for (;;) {
+			const n = wav.read(bufs);
+			if (n === 0) break;
+			target.push(bufs.map((b) => b.subarray(0, n)));
+			done += n;
+			hooks.onProgress?.(done / Math.max(1, wav.frames));
+		}
+		return h.diagnostics;
+	} finally {
+		wav.close();
+	}
+}
+
+/** One file of a recording into `target`, by its kind; returns what the reader detected or assumed. */
+function readPart(
+	path: string,
+	source: string,
+	open: OpenOptions,
+	target: PartTarget,
+	hooks: AnalyseFileHooks,
+): Diagnostic[] {
 	const size = statSync(path).size;
 	const ext = extname(path).toLowerCase();
 	const { kind } = detectFileKind(path, head(path, DETECT_HEAD_BYTES));
-	if (kind === 'wav') {
-		const wav = openWavStream(path, source, open.wav, BLOCK_FRAMES, open.settings);
-		try {
-			const h = wav.header;
-			const limit = trendLimitProblem(wav.sampleRateHz, h.channels.length);
-			if (limit)
-				throw new ImportError(
-					source,
-					0,
-					limit.what === 'sample-rate' ? 25 : 23,
-					'out-of-range',
-					limit.got,
-					limit.expected,
-				);
-			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
-			const a = createTrendAnalyser({ ...settings, sampleRateHz: wav.sampleRateHz, channels: specs });
-			hooks.onChannels?.(specs);
-			const bufs = h.channels.map(() => new Float64Array(BLOCK_FRAMES));
-			let done = 0;
-			for (;;) {
-				const n = wav.read(bufs);
-				if (n === 0) break;
-				a.push(bufs.map((b) => b.subarray(0, n)));
-				done += n;
-				onProgress?.(done / Math.max(1, wav.frames));
-			}
-			return withImportNotes(a.finish(), h.diagnostics);
-		} finally {
-			wav.close();
-		}
-	}
-	if (kind === 'comtrade-cff') return analyseCff(path, source, size, open, settings, hooks);
-	if (kind === 'comtrade-cfg') return analyseComtrade(path, source, open, settings, hooks);
+	if (kind === 'wav') return readWav(path, source, open, target, hooks);
+	if (kind === 'comtrade-cff') return analyseCff(path, source, size, open, target, hooks);
+	if (kind === 'comtrade-cfg') return analyseComtrade(path, source, open, target, hooks);
 	if (kind === 'comtrade-part') {
 		throw new ImportError(
 			source,
@@ -469,5 +451,194 @@ export function analyseFile(
 			ext,
 			'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file',
 		);
-	return analyseCsv(path, source, size, open, settings, hooks);
+	return analyseCsv(path, source, size, open, target, hooks);
+}
+
+/** Stops a CSV stream once its header is known (startOf). */
+class HeaderFound extends Error {}
+
+/**
+ * The start time a file states (ISO text), read from its head only: the .cfg (or the .cff's CFG section),
+ * or a CSV's preamble or first date/time stamp. Undefined for WAV and for files that state none.
+ * @throws ImportError when the head cannot be read (the file then fails as it would in the full pass)
+ */
+function startOf(path: string, source: string, open: OpenOptions): string | undefined {
+	const size = statSync(path).size;
+	const { kind } = detectFileKind(path, head(path, DETECT_HEAD_BYTES));
+	if (kind === 'wav' || kind === 'binary' || kind === 'comtrade-part') return undefined;
+	if (kind === 'comtrade-cfg') {
+		if (size > CFG_MAX_BYTES) return undefined;
+		return parseComtradeCfg(decodeText(new Uint8Array(readFileSync(path))).text, source).firstData?.iso;
+	}
+	if (kind === 'comtrade-cff')
+		return cffLayout(head(path, Math.min(size, CFF_HEAD_BYTES)), source, size).cfg.firstData?.iso;
+	let found: SampleStreamHeader | undefined;
+	const stream = new CsvSampleStream(source, csvOptionsWithSettings(open), {
+		start(h) {
+			found = h;
+			throw new HeaderFound();
+		},
+		samples() {},
+	});
+	try {
+		streamFile(path, (chunk) => stream.push(chunk));
+		stream.end();
+	} catch (e) {
+		if (!(e instanceof HeaderFound)) throw e;
+	}
+	return found?.startTime;
+}
+
+/** One file of a recording: its path on disk and its name in messages. */
+export interface RecordingFile {
+	path: string;
+	source: string;
+}
+
+/** A file of the recording that could not be read (or not to its end). */
+export interface RecordingFailure {
+	source: string;
+	error: unknown;
+}
+
+/**
+ * The files in recording order: by stated start time when every file states one, else as given (and
+ * that is reported). A file whose head cannot be read is a failure and left out.
+ */
+function orderFiles(
+	files: RecordingFile[],
+	open: OpenOptions,
+	failures: RecordingFailure[],
+	notes: Diagnostic[],
+): { ordered: RecordingFile[]; placement: 'clock' | 'sequence' } {
+	if (files.length < 2) return { ordered: files, placement: 'clock' };
+	const withStart: { f: RecordingFile; t: number | undefined }[] = [];
+	for (const f of files) {
+		try {
+			withStart.push({ f, t: clockTimeOf(startOf(f.path, f.source, open))?.unixS });
+		} catch (error) {
+			failures.push({ source: f.source, error });
+		}
+	}
+	const unstated = withStart.filter((x) => x.t === undefined);
+	if (unstated.length === 0) {
+		withStart.sort((a, b) => a.t! - b.t!);
+		return { ordered: withStart.map((x) => x.f), placement: 'clock' };
+	}
+	notes.push({
+		code: 'recording-order-as-given',
+		severity: 'assumption',
+		message: `${unstated.length} of ${withStart.length} files state no start time (the first: ${unstated[0].f.source}): the files are taken as one recording without gaps, one after another in the order given.`,
+	});
+	return { ordered: withStart.map((x) => x.f), placement: 'sequence' };
+}
+
+/** The target of one file: the bounds, then the recording's own checks, as located ImportErrors. */
+function partTarget(recording: RecordingAnalyser, source: string, hooks: AnalyseFileHooks): PartTarget {
+	return {
+		begin(h, ratePlace, channelsPlace = { ...ratePlace, column: 0 }) {
+			const limit = trendLimitProblem(h.sampleRateHz, h.channels.length);
+			const at = (what: string) => (what === 'sample-rate' ? ratePlace : channelsPlace);
+			if (limit)
+				throw new ImportError(
+					at(limit.what).source,
+					at(limit.what).line,
+					at(limit.what).column,
+					'out-of-range',
+					limit.got,
+					limit.expected,
+				);
+			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
+			const first = !recording.started;
+			const nominal = h.nominalFrequencyHz === 50 || h.nominalFrequencyHz === 60 ? h.nominalFrequencyHz : undefined;
+			try {
+				recording.beginPart({
+					source,
+					sampleRateHz: h.sampleRateHz,
+					channels: specs,
+					clockStartS: clockTimeOf(h.startTime)?.unixS,
+					nominalHz: nominal,
+				});
+			} catch (e) {
+				if (!(e instanceof RecordingMismatch)) throw e;
+				const p = at(e.what);
+				throw new ImportError(p.source, p.line, p.column, 'not-same-recording', e.got, e.expected);
+			}
+			if (first) hooks.onChannels?.(specs);
+		},
+		push: (views) => recording.push(views),
+	};
+}
+
+/**
+ * Import notes of several files: a warning once per (code, message), naming its file; any other note
+ * (what was detected or assumed, the same in every file of a recording) once per code, from the first file.
+ */
+function addNotes(all: Diagnostic[], seen: Set<string>, notes: Diagnostic[], source: string, several: boolean): void {
+	for (const d of notes) {
+		const key = d.severity === 'warning' ? `${d.code}\u0000${d.message}` : d.code;
+		if (seen.has(key)) continue;
+		seen.add(key);
+		all.push(several && d.severity === 'warning' ? { ...d, message: `${source}: ${d.message}` } : d);
+	}
+}
+
+/**
+ * Analyses one recording made of `files` (one or many) through one trend analyser; see the module comment.
+ * @returns the result (undefined when no file could be read) and the files that failed, each with its
+ *   error (an ImportError located in that file, or any error of its reading); a file that failed part-way
+ *   keeps the samples read before the error
+ */
+export function analyseRecording(
+	files: RecordingFile[],
+	open: OpenOptions,
+	settings: AnalyserSettings,
+	hooks: AnalyseFileHooks = {},
+): { result: RecordingResult | undefined; failures: RecordingFailure[] } {
+	const failures: RecordingFailure[] = [];
+	const notes: Diagnostic[] = [];
+	const { ordered, placement } = orderFiles(files, open, failures, notes);
+	const recording = createRecordingAnalyser({ ...settings, placement });
+	const sizes = ordered.map((f) => statSync(f.path).size);
+	const total = sizes.reduce((a, b) => a + b, 0);
+	const seen = new Set<string>();
+	let done = 0;
+	ordered.forEach((f, k) => {
+		const onProgress =
+			hooks.onProgress && ((x: number) => hooks.onProgress!(total > 0 ? (done + x * sizes[k]) / total : x));
+		try {
+			addNotes(
+				notes,
+				seen,
+				readPart(f.path, f.source, open, partTarget(recording, f.source, hooks), { ...hooks, onProgress }),
+				f.source,
+				ordered.length > 1,
+			);
+		} catch (error) {
+			failures.push({ source: f.source, error });
+		}
+		done += sizes[k];
+	});
+	if (!recording.started) return { result: undefined, failures };
+	const result = recording.finish();
+	result.diagnostics = [...notes, ...result.diagnostics];
+	return { result, failures };
+}
+
+/**
+ * Analyses one file (a recording of one file).
+ * @param path  the file on disk
+ * @param source  the name to show in messages and errors
+ * @throws ImportError for anything the readers cannot take (file, line, column, what was expected)
+ */
+export function analyseFile(
+	path: string,
+	source: string,
+	open: OpenOptions,
+	settings: AnalyserSettings,
+	hooks: AnalyseFileHooks = {},
+): TrendResult {
+	const { result, failures } = analyseRecording([{ path, source }], open, settings, hooks);
+	if (failures.length > 0) throw failures[0].error;
+	return result!;
 }

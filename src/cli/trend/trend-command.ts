@@ -43,6 +43,11 @@ export interface TrendCommandOptions {
 	timeLimitS?: number;
 	/** Heap one file may use, MiB (default: up to half the machine); only in a helper process. */
 	memoryLimitMiB?: number;
+	/**
+	 * The files and folders given are ONE recording split over many files: ordered by start time, fed
+	 * through one analyser (state carried across the files), gaps and overlaps reported.
+	 */
+	oneRecording?: boolean;
 	/** Trend in this process, without the time and memory limits of a helper process. */
 	inProcess?: boolean;
 	/** Output streams (tests); default process.stdout / process.stderr. */
@@ -148,6 +153,7 @@ async function trendInHelper(
 			else if (m.t === 'progress') sink.progress(m.fraction);
 			else if (m.t === 'notes') sink.notes(m.lines);
 			else if (m.t === 'doc') sink.doc(m.doc);
+			else if (m.t === 'failed') sink.failed(m.line);
 			else if (m.t === 'error') line = m.line;
 			return m.t === 'done' || m.t === 'error';
 		},
@@ -174,6 +180,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	// does not exist is an error line of its own, and the others still run.
 	const recordings: string[] = [];
 	const unitFiles = new Map<string, string[]>();
+	const partsOf = new Map<string, string[]>();
 	let failed = 0;
 	for (const path of files) {
 		try {
@@ -197,6 +204,16 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 			err.write(`${trendErrorLine(e, path)}\n`);
 		}
 	}
+	if (options.oneRecording && recordings.length > 1) {
+		// one recording: its name is the paths given; every file of it is checked and read in one job
+		const label = files.join(', ');
+		unitFiles.set(
+			label,
+			recordings.flatMap((r) => unitFiles.get(r) ?? [r]),
+		);
+		partsOf.set(label, [...recordings]);
+		recordings.splice(0, recordings.length, label);
+	}
 	const several = recordings.length > 1;
 	const docs: unknown[] = [];
 	let headerFor = '';
@@ -219,6 +236,11 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 			for (const l of lines) err.write(`${printable(l)}\n`);
 		},
 		doc: (d) => void docs.push(d),
+		failed: (line) => {
+			if (tty) err.write('\r\x1b[K');
+			failed++;
+			err.write(`${printable(line)}\n`);
+		},
 	};
 	const useHelper = options.inProcess !== true && helperAvailable();
 	const helper = useHelper ? new HelperProcess(options.memoryLimitMiB ?? defaultHeapMiB(1)) : undefined;
@@ -227,6 +249,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 			recordingNow = file;
 			const job: TrendJob = {
 				file,
+				parts: partsOf.get(file),
 				open: options.open ?? {},
 				settings,
 				json: options.json === true,

@@ -6,11 +6,15 @@
 import { eventsCountedOnce } from '../../../lib/report/index.js';
 import type { OpenOptions } from '../../../lib/io/open.js';
 import type { TrendChannelSpec, TrendInterval, TrendResult } from '../../../lib/trend/types.js';
-import { analyseFile, type AnalyserSettings } from './read-recording.js';
+import { analyseRecording, type AnalyserSettings } from './read-recording.js';
+import { errorLine } from '../error-line.js';
 import { csvRow, eventLine, flickerCsvHeader, flickerCsvRows, flickerLine, trendJson } from './trend-output.js';
 
 export interface TrendJob {
+	/** The recording's name in output and messages (its file, or the paths given for one recording of many files). */
 	file: string;
+	/** The files of one recording split over many files (read-recording.ts orders and joins them); default [file]. */
+	parts?: string[];
 	open: OpenOptions;
 	/** Analyser settings without callbacks (thresholds, declared voltage, THD...). */
 	settings: AnalyserSettings;
@@ -35,6 +39,8 @@ export interface TrendSink {
 	notes(lines: string[]): void;
 	/** The JSON document of the file (with `json`). */
 	doc(d: unknown): void;
+	/** The error line of one file of a recording of several files that could not be read (or not to its end). */
+	failed(line: string): void;
 }
 
 const ROWS_PER_WRITE = 256;
@@ -61,9 +67,9 @@ export function trendFile(job: TrendJob, sink: TrendSink): void {
 				sink.progress(f);
 			}
 		: undefined;
-	const result: TrendResult = analyseFile(
-		file,
-		file,
+	const parts = job.parts ?? [file];
+	const { result: read, failures } = analyseRecording(
+		parts.map((f) => ({ path: f, source: f })),
 		job.open,
 		{
 			...job.settings,
@@ -86,6 +92,13 @@ export function trendFile(job: TrendJob, sink: TrendSink): void {
 		},
 	);
 	flush();
+	// one file: its error is the job's; of several, each failed file is a line and the rest still counts
+	if (!read || (parts.length === 1 && failures.length > 0)) {
+		for (const f of failures.slice(1)) sink.failed(errorLine(f.error, f.source));
+		throw failures[0]?.error ?? new Error(`${file}: no samples could be read`);
+	}
+	for (const f of failures) sink.failed(errorLine(f.error, f.source));
+	const result: TrendResult = read;
 	// lib's messages name no CLI option (the UI shows them too): the option is added here
 	const hint = (d: { code: string }) =>
 		d.code === 'events-not-detected' || d.code === 'declared-voltage-unknown' ? ' (--nominal <V>)' : '';
@@ -114,6 +127,7 @@ export type TrendMessage =
 	| { t: 'progress'; fraction: number }
 	| { t: 'notes'; lines: string[] }
 	| { t: 'doc'; doc: unknown }
+	| { t: 'failed'; line: string }
 	| { t: 'done' }
 	| { t: 'error'; line: string };
 
@@ -126,5 +140,6 @@ export function messageSink(send: (m: TrendMessage) => void): TrendSink {
 		progress: (fraction) => send({ t: 'progress', fraction }),
 		notes: (lines) => send({ t: 'notes', lines }),
 		doc: (doc) => send({ t: 'doc', doc }),
+		failed: (line) => send({ t: 'failed', line }),
 	};
 }

@@ -2,6 +2,7 @@
 import { csvCell } from '../../../lib/report/index.js';
 import type { TrendChannelSpec, TrendEvent, TrendResult, TrendRow } from '../../../lib/trend/types.js';
 import type { TrendFlicker } from '../../../lib/trend/flicker-tracker.js';
+import type { RecordingResult } from '../../../lib/trend/recording-types.js';
 import { maxOf } from '../../../lib/signal/index.js';
 
 /** CSV cell: the shared formula guard and RFC 4180 quoting (lib/report/csv-cell.ts). */
@@ -62,10 +63,12 @@ export function eventLine(e: TrendEvent, declaredV: number): string {
  *   recorder's clock as written; null when the file states none), clockStartS, referenceChannel, thresholds,
  *   channels: [{name, quantity, unit}], aggregates: [TrendRow...] (10/12-cycle, then 150/180-cycle,
  *   then 10-min; rms/thdPercent in channel order), frequency: [10 s rows], events: [{ kind, channels,
- *   startS, durationS, residualV | maximumV, percentOfDeclared, ended }], diagnostics }.
- * Times in s from the first sample. NaN becomes null.
+ *   startS, durationS, residualV | maximumV, percentOfDeclared, ended }], diagnostics }; for a recording
+ *   read through read-recording.ts also parts: [{ source, startS, samples }], gaps: [{ startS, durationS,
+ *   after, before }], overlaps: [{ source, startS, durationS, droppedSamples }].
+ * Times in s from the first sample (of the first file). NaN becomes null.
  */
-export function trendJson(source: string, r: TrendResult): unknown {
+export function trendJson(source: string, r: TrendResult | RecordingResult): unknown {
 	return {
 		source,
 		declaredV: r.declaredV,
@@ -83,6 +86,7 @@ export function trendJson(source: string, r: TrendResult): unknown {
 		events: r.events,
 		flicker: r.flicker ?? null,
 		diagnostics: r.diagnostics,
+		...('parts' in r ? { parts: r.parts, gaps: r.gaps, overlaps: r.overlaps } : {}),
 	};
 }
 
