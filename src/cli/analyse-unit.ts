@@ -3,11 +3,11 @@
  * in-process; the result is plain data (structured-clone safe).
  */
 import { isImportError, type ImportError } from '../../lib/io/index.js';
-import { gapFreeSpan, openCaptures } from '../../lib/io/index.js';
+import { detectFileKind, DETECT_HEAD_BYTES, gapFreeSpan, openCaptures, openCsvChunks } from '../../lib/io/index.js';
 import { analyseCapture } from '../../lib/report/index.js';
 import { reportToJson, type ReportJson } from '../../lib/report/index.js';
 import { problemFrom, problemLine, type FileProblem } from './error-line.js';
-import { ANALYSE_MAX_FILE_BYTES, readRegularFile, tooLargeWords } from './file-checks.js';
+import { ANALYSE_MAX_FILE_BYTES, openRegularFileChunks, readRegularFile, tooLargeWords } from './file-checks.js';
 import { UsageError } from './usage-error.js';
 import type { CommandSettings } from './options.js';
 import { importOptionsFrom } from './import-settings.js';
@@ -45,25 +45,52 @@ function problemOf(e: unknown, fallbackFile: string, settings: CommandSettings):
 	return isImportError(e) ? timeColumnProblem(e, p, settings) : p;
 }
 
-/** Reads the unit's files, imports and analyses them. Never throws: every failure becomes a problem. */
-export function analyseUnit(files: string[], settings: CommandSettings): UnitResult {
-	const result: UnitResult = { files, reports: [], problems: [] };
+type Opened = ReturnType<typeof openCaptures>;
+
+/**
+ * A unit of one CSV file: read in pieces through one reused buffer (never held whole); null when the file
+ * is not a CSV (it is then read whole, as every other format).
+ * @throws UsageError when the file cannot be read
+ */
+function openSingleCsv(name: string, settings: CommandSettings): Opened | null {
+	const file = openRegularFileChunks(name, DETECT_HEAD_BYTES);
+	try {
+		const kind = detectFileKind(name, file.head);
+		if (kind.kind !== 'csv' || file.size === 0) return null;
+		const options = importOptionsFrom(settings.import);
+		try {
+			return {
+				captures: [openCsvChunks(name, file.size, (push) => file.eachChunk(push), options, kind.byName)],
+				errors: [],
+			};
+		} catch (e) {
+			if (isImportError(e)) return { captures: [], errors: [e] };
+			throw e;
+		}
+	} finally {
+		file.close();
+	}
+}
+
+/** Reads the unit's files whole and opens them (COMTRADE pairs, WAV, several files). */
+function openWhole(files: string[], settings: CommandSettings): Opened {
 	const inputs: { name: string; bytes: Uint8Array }[] = [];
 	let total = 0;
 	for (const name of files) {
-		try {
-			const bytes = readRegularFile(name, ANALYSE_MAX_FILE_BYTES, files[0]);
-			total += bytes.length;
-			if (total > ANALYSE_MAX_FILE_BYTES) throw new UsageError(tooLargeWords(total, ANALYSE_MAX_FILE_BYTES, files[0]));
-			inputs.push({ name, bytes });
-		} catch (e) {
-			result.problems.push(problemOf(e, name, settings));
-			return result;
-		}
+		const bytes = readRegularFile(name, ANALYSE_MAX_FILE_BYTES, files[0]);
+		total += bytes.length;
+		if (total > ANALYSE_MAX_FILE_BYTES) throw new UsageError(tooLargeWords(total, ANALYSE_MAX_FILE_BYTES, files[0]));
+		inputs.push({ name, bytes });
 	}
-	let opened: ReturnType<typeof openCaptures>;
+	return openCaptures(inputs, importOptionsFrom(settings.import));
+}
+
+/** Reads the unit's files, imports and analyses them. Never throws: every failure becomes a problem. */
+export function analyseUnit(files: string[], settings: CommandSettings): UnitResult {
+	const result: UnitResult = { files, reports: [], problems: [] };
+	let opened: Opened;
 	try {
-		opened = openCaptures(inputs, importOptionsFrom(settings.import));
+		opened = (files.length === 1 ? openSingleCsv(files[0], settings) : null) ?? openWhole(files, settings);
 	} catch (e) {
 		result.problems.push(problemOf(e, files[0], settings));
 		return result;
