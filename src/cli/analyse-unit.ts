@@ -4,6 +4,7 @@
  */
 import { isImportError, type ImportError } from '../../lib/io/index.js';
 import { detectFileKind, DETECT_HEAD_BYTES, gapFreeSpan, openCaptures, openCsvChunks } from '../../lib/io/index.js';
+import type { InputFile } from '../../lib/io/index.js';
 import { analyseCapture } from '../../lib/report/index.js';
 import { reportToJson, type ReportJson } from '../../lib/report/index.js';
 import { problemFrom, problemLine, type FileProblem } from './error-line.js';
@@ -72,28 +73,43 @@ function openSingleCsv(name: string, settings: CommandSettings): Opened | null {
 	}
 }
 
-/** Reads the unit's files whole and opens them (COMTRADE pairs, WAV, several files). */
-function openWhole(files: string[], settings: CommandSettings): Opened {
-	const inputs: { name: string; bytes: Uint8Array }[] = [];
+/** Reads the unit's files whole (COMTRADE pairs, WAV, several files); a file that cannot be read becomes the problem, under its own name. */
+function readWhole(files: string[], settings: CommandSettings, result: UnitResult): InputFile[] | null {
+	const inputs: InputFile[] = [];
 	let total = 0;
 	for (const name of files) {
-		const bytes = readRegularFile(name, ANALYSE_MAX_FILE_BYTES, files[0]);
-		total += bytes.length;
-		if (total > ANALYSE_MAX_FILE_BYTES) throw new UsageError(tooLargeWords(total, ANALYSE_MAX_FILE_BYTES, files[0]));
-		inputs.push({ name, bytes });
+		try {
+			const bytes = readRegularFile(name, ANALYSE_MAX_FILE_BYTES, files[0]);
+			total += bytes.length;
+			if (total > ANALYSE_MAX_FILE_BYTES) throw new UsageError(tooLargeWords(total, ANALYSE_MAX_FILE_BYTES, files[0]));
+			inputs.push({ name, bytes });
+		} catch (e) {
+			result.problems.push(problemOf(e, name, settings));
+			return null;
+		}
 	}
-	return openCaptures(inputs, importOptionsFrom(settings.import));
+	return inputs;
 }
 
 /** Reads the unit's files, imports and analyses them. Never throws: every failure becomes a problem. */
 export function analyseUnit(files: string[], settings: CommandSettings): UnitResult {
 	const result: UnitResult = { files, reports: [], problems: [] };
-	let opened: Opened;
+	let opened: Opened | null = null;
 	try {
-		opened = (files.length === 1 ? openSingleCsv(files[0], settings) : null) ?? openWhole(files, settings);
+		if (files.length === 1) opened = openSingleCsv(files[0], settings);
 	} catch (e) {
 		result.problems.push(problemOf(e, files[0], settings));
 		return result;
+	}
+	if (!opened) {
+		const inputs = readWhole(files, settings, result);
+		if (!inputs) return result;
+		try {
+			opened = openCaptures(inputs, importOptionsFrom(settings.import));
+		} catch (e) {
+			result.problems.push(problemOf(e, files[0], settings));
+			return result;
+		}
 	}
 	for (const e of opened.errors) result.problems.push(problemOf(e, files[0], settings));
 	for (const capture of opened.captures) {
