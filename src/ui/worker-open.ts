@@ -39,62 +39,19 @@ async function isCsv(f: FileBytes): Promise<boolean> {
 	return detectFileKind(f.name, head).kind === 'csv';
 }
 
-/**
- * The pieces of a Blob in order, each valid until the next is asked for. Through a BYOB reader into one
- * reused buffer where the browser's Blob stream is a byte stream (no fresh memory per piece: first touch of
- * fresh memory is the dearest part of reading a big file); else fresh slices of READ_SLICE_BYTES.
- */
-async function* blobPieces(blob: Blob): AsyncGenerator<Uint8Array> {
-	let reader: ReadableStreamBYOBReader | null = null;
-	try {
-		reader = blob.stream().getReader({ mode: 'byob' });
-	} catch {
-		reader = null; // not a byte stream here: slices below
-	}
-	if (!reader) {
-		for (let at = 0; at < blob.size; at += READ_SLICE_BYTES)
-			yield new Uint8Array(await blob.slice(at, Math.min(blob.size, at + READ_SLICE_BYTES)).arrayBuffer());
-		return;
-	}
-	let buf = new ArrayBuffer(Math.min(READ_SLICE_BYTES, Math.max(1, blob.size)));
-	for (let done = false; !done;) {
-		let filled = 0;
-		while (filled < buf.byteLength) {
-			const r = await reader.read(new Uint8Array(buf, filled, buf.byteLength - filled));
-			if (r.done) {
-				done = true;
-				if (r.value) buf = r.value.buffer as ArrayBuffer;
-				break;
-			}
-			buf = r.value.buffer as ArrayBuffer;
-			filled += r.value.byteLength;
-		}
-		if (filled > 0) yield new Uint8Array(buf, 0, filled);
-	}
-}
-
-/** The pieces of a picked file (a Blob) or of bytes in hand. */
-async function* piecesOf(f: FileBytes): AsyncGenerator<Uint8Array> {
-	if (f.blob) {
-		yield* blobPieces(f.blob);
-		return;
-	}
-	const total = f.bytes!.byteLength;
-	for (let at = 0; at < total; at += READ_SLICE_BYTES)
-		yield new Uint8Array(f.bytes!, at, Math.min(total, at + READ_SLICE_BYTES) - at);
-}
-
-/** Streams one CSV through the reader from its blob or bytes, reporting progress per piece. */
+/** Streams one CSV through the reader from its blob or bytes, reporting progress per slice. */
 async function streamCsv(f: FileBytes, overrides: ImportOverrides, progress: ReadProgress): Promise<Capture> {
 	const total = f.blob ? f.blob.size : f.bytes!.byteLength;
 	const reader = new CsvStreamReader(f.name, csvOptionsWithSettings(overrides), { totalBytes: total });
 	const t0 = performance.now();
 	let last = -1;
-	let end = 0;
-	for await (const chunk of piecesOf(f)) {
+	for (let at = 0; at < total; at += READ_SLICE_BYTES) {
+		const end = Math.min(total, at + READ_SLICE_BYTES);
+		const chunk = f.blob
+			? new Uint8Array(await f.blob.slice(at, end).arrayBuffer())
+			: new Uint8Array(f.bytes!, at, end - at);
 		reader.push(chunk);
-		end += chunk.length;
-		const fraction = total > 0 ? end / total : 1;
+		const fraction = end / total;
 		if (fraction - last >= 0.01 || end === total) {
 			last = fraction;
 			progress(fraction, etaFrom(end, total, (performance.now() - t0) / 1000));
