@@ -6,6 +6,7 @@ export * from './comtrade/index.js';
 export {
 	openCaptures,
 	openCapture,
+	openCsvChunks,
 	detectFileKind,
 	csvOptionsWithSettings,
 	DETECT_HEAD_BYTES,

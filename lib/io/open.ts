@@ -8,7 +8,7 @@ import type { Capture } from '../capture.js';
 import { type ComtradeOptions, parseComtrade } from './comtrade/parse.js';
 import { parseComtradeCff } from './comtrade/cff.js';
 import { decodeText } from './comtrade/text.js';
-import { type CsvOptions, parseCsv } from './csv/index.js';
+import { type CsvOptions, CsvStreamReader, parseCsv } from './csv/index.js';
 import { ImportError, isImportError } from './import-error.js';
 import { applyImportSettings, hasImportSettings, type ImportSettings } from './import-settings.js';
 import { parseWav, type WavOptions } from './wav.js';
@@ -180,24 +180,63 @@ function readByKind(file: InputFile, companions: InputFile[], options: OpenOptio
 			'a .csv/.txt/.tsv table, a .wav file, a COMTRADE .cfg with its .dat, or a .cff file',
 		);
 	}
-	const capture: Capture = {
-		...parseCsv(file.bytes, file.name, csvOptionsWithSettings(options), options.onProgress),
-		format: 'csv',
-	};
+	return csvCapture(parseCsv(file.bytes, file.name, csvOptionsWithSettings(options), options.onProgress), byName);
+}
+
+/** A capture the CSV reader made, marked as such (and said to be read by content when the name does not tell). */
+function csvCapture(read: Capture, byName: boolean): Capture {
+	const capture: Capture = { ...read, format: 'csv' };
 	if (byName) return capture;
 	capture.diagnostics.unshift({
 		code: 'format-from-content',
 		severity: 'assumption',
-		message: `The name ${file.name} does not say the format; the text was read as a delimited table.`,
+		message: `The name ${capture.source} does not say the format; the text was read as a delimited table.`,
 	});
 	return capture;
 }
 
-function wrap(file: InputFile, e: unknown): ImportError {
+/**
+ * Opens one CSV file fed in chunks, so the file is never held whole (a 300 MB file read whole costs its
+ * size in fresh memory): the very capture openCapture gives for the same bytes. Call it when
+ * detectFileKind(name, head).kind is 'csv'.
+ *
+ * @param feed  pushes the file's bytes in order; a chunk may be one reused buffer (nothing keeps it)
+ * @throws ImportError for anything the reader refuses; an error thrown by `feed` itself passes through
+ * @example openCsvChunks('scope.csv', size, (push) => { for (const c of chunks) push(c); }, {}, true)
+ */
+export function openCsvChunks(
+	name: string,
+	totalBytes: number,
+	feed: (push: (chunk: Uint8Array) => void) => void,
+	options: OpenOptions = {},
+	byName = true,
+): Capture {
+	if (totalBytes === 0) throw new ImportError(name, 0, 0, 'empty-file', '', 'a file with data in it');
+	const reader = new CsvStreamReader(name, csvOptionsWithSettings(options), {
+		totalBytes,
+		onProgress: options.onProgress,
+	});
+	const push = (chunk: Uint8Array) => {
+		try {
+			reader.push(chunk);
+		} catch (e) {
+			throw wrap(name, e);
+		}
+	};
+	feed(push);
+	try {
+		const capture = csvCapture(reader.finish(), byName);
+		return options.settings ? applyImportSettings(capture, options.settings) : capture;
+	} catch (e) {
+		throw wrap(name, e);
+	}
+}
+
+function wrap(name: string, e: unknown): ImportError {
 	if (isImportError(e)) return e;
 	// A reader failing any other way is a bug; the user still gets a typed error for that one file.
 	return new ImportError(
-		file.name,
+		name,
 		0,
 		0,
 		'internal-error',
@@ -225,7 +264,7 @@ export function openCaptures(
 		try {
 			captures.push(readOne(file, files, options));
 		} catch (e) {
-			errors.push(wrap(file, e));
+			errors.push(wrap(file.name, e));
 		}
 	}
 	return { captures, errors };
@@ -239,6 +278,6 @@ export function openCapture(file: InputFile, companions: InputFile[] = [], optio
 	try {
 		return readOne(file, [file, ...companions], options);
 	} catch (e) {
-		throw wrap(file, e);
+		throw wrap(file.name, e);
 	}
 }

@@ -3,11 +3,12 @@
  * in-process; the result is plain data (structured-clone safe).
  */
 import { isImportError, type ImportError } from '../../lib/io/index.js';
-import { gapFreeSpan, openCaptures } from '../../lib/io/index.js';
+import { detectFileKind, DETECT_HEAD_BYTES, gapFreeSpan, openCaptures, openCsvChunks } from '../../lib/io/index.js';
+import type { InputFile } from '../../lib/io/index.js';
 import { analyseCapture } from '../../lib/report/index.js';
 import { reportToJson, type ReportJson } from '../../lib/report/index.js';
 import { problemFrom, problemLine, type FileProblem } from './error-line.js';
-import { ANALYSE_MAX_FILE_BYTES, readRegularFile, tooLargeWords } from './file-checks.js';
+import { ANALYSE_MAX_FILE_BYTES, openRegularFileChunks, readRegularFile, tooLargeWords } from './file-checks.js';
 import { UsageError } from './usage-error.js';
 import type { CommandSettings } from './options.js';
 import { importOptionsFrom } from './import-settings.js';
@@ -45,10 +46,36 @@ function problemOf(e: unknown, fallbackFile: string, settings: CommandSettings):
 	return isImportError(e) ? timeColumnProblem(e, p, settings) : p;
 }
 
-/** Reads the unit's files, imports and analyses them. Never throws: every failure becomes a problem. */
-export function analyseUnit(files: string[], settings: CommandSettings): UnitResult {
-	const result: UnitResult = { files, reports: [], problems: [] };
-	const inputs: { name: string; bytes: Uint8Array }[] = [];
+type Opened = ReturnType<typeof openCaptures>;
+
+/**
+ * A unit of one CSV file: read in pieces through one reused buffer (never held whole); null when the file
+ * is not a CSV (it is then read whole, as every other format).
+ * @throws UsageError when the file cannot be read
+ */
+function openSingleCsv(name: string, settings: CommandSettings): Opened | null {
+	const file = openRegularFileChunks(name, DETECT_HEAD_BYTES);
+	try {
+		const kind = detectFileKind(name, file.head);
+		if (kind.kind !== 'csv' || file.size === 0) return null;
+		const options = importOptionsFrom(settings.import);
+		try {
+			return {
+				captures: [openCsvChunks(name, file.size, (push) => file.eachChunk(push), options, kind.byName)],
+				errors: [],
+			};
+		} catch (e) {
+			if (isImportError(e)) return { captures: [], errors: [e] };
+			throw e;
+		}
+	} finally {
+		file.close();
+	}
+}
+
+/** Reads the unit's files whole (COMTRADE pairs, WAV, several files); a file that cannot be read becomes the problem, under its own name. */
+function readWhole(files: string[], settings: CommandSettings, result: UnitResult): InputFile[] | null {
+	const inputs: InputFile[] = [];
 	let total = 0;
 	for (const name of files) {
 		try {
@@ -58,15 +85,31 @@ export function analyseUnit(files: string[], settings: CommandSettings): UnitRes
 			inputs.push({ name, bytes });
 		} catch (e) {
 			result.problems.push(problemOf(e, name, settings));
-			return result;
+			return null;
 		}
 	}
-	let opened: ReturnType<typeof openCaptures>;
+	return inputs;
+}
+
+/** Reads the unit's files, imports and analyses them. Never throws: every failure becomes a problem. */
+export function analyseUnit(files: string[], settings: CommandSettings): UnitResult {
+	const result: UnitResult = { files, reports: [], problems: [] };
+	let opened: Opened | null = null;
 	try {
-		opened = openCaptures(inputs, importOptionsFrom(settings.import));
+		if (files.length === 1) opened = openSingleCsv(files[0], settings);
 	} catch (e) {
 		result.problems.push(problemOf(e, files[0], settings));
 		return result;
+	}
+	if (!opened) {
+		const inputs = readWhole(files, settings, result);
+		if (!inputs) return result;
+		try {
+			opened = openCaptures(inputs, importOptionsFrom(settings.import));
+		} catch (e) {
+			result.problems.push(problemOf(e, files[0], settings));
+			return result;
+		}
 	}
 	for (const e of opened.errors) result.problems.push(problemOf(e, files[0], settings));
 	for (const capture of opened.captures) {

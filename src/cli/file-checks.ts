@@ -85,6 +85,66 @@ export function tooLargeWords(sizeBytes: number, limitBytes: number, file: strin
  * @throws UsageError with a message in user words (no such file, permission denied, a named pipe, too large)
  */
 export function readRegularFile(path: string, maxBytes = ANALYSE_MAX_FILE_BYTES, shownAs = path): Uint8Array {
+	const { fd, size } = openRegularFile(path, maxBytes, shownAs);
+	try {
+		const bytes = Buffer.allocUnsafe(size);
+		const got = readFully(fd, bytes, 0, size, 0);
+		return new Uint8Array(bytes.buffer, bytes.byteOffset, got);
+	} finally {
+		closeSync(fd);
+	}
+}
+
+/** Bytes read per piece by RegularFileChunks: one reused buffer, so the file's size in fresh memory is never paid. */
+export const READ_CHUNK_BYTES = 1 << 20;
+
+/** A regular file opened for reading in pieces (after readRegularFile's checks); close() when done. */
+export interface RegularFileChunks {
+	size: number;
+	/** The first bytes of the file (up to `headBytes`). */
+	head: Uint8Array;
+	/** Reads the whole file in order, handing each piece to `push` (valid until push returns). */
+	eachChunk(push: (chunk: Uint8Array) => void): void;
+	close(): void;
+}
+
+/**
+ * Opens a regular file to be read in pieces, with readRegularFile's checks (regular file, size at most
+ * `maxBytes`) made before a byte is read.
+ * @throws UsageError with a message in user words
+ */
+export function openRegularFileChunks(
+	path: string,
+	headBytes: number,
+	maxBytes = ANALYSE_MAX_FILE_BYTES,
+	shownAs = path,
+): RegularFileChunks {
+	const { fd, size } = openRegularFile(path, maxBytes, shownAs);
+	try {
+		const head = new Uint8Array(Math.min(headBytes, size));
+		const got = readFully(fd, head, 0, head.length, 0);
+		return {
+			size,
+			head: head.subarray(0, got),
+			eachChunk(push) {
+				const buf = new Uint8Array(Math.min(READ_CHUNK_BYTES, Math.max(1, size)));
+				for (let at = 0; at < size;) {
+					const n = readFully(fd, buf, 0, Math.min(buf.length, size - at), at);
+					if (n === 0) break;
+					push(buf.subarray(0, n));
+					at += n;
+				}
+			},
+			close: () => closeSync(fd),
+		};
+	} catch (e) {
+		closeSync(fd);
+		throw e;
+	}
+}
+
+/** Opens without blocking and checks on the descriptor: a regular file of at most `maxBytes`. */
+function openRegularFile(path: string, maxBytes: number, shownAs: string): { fd: number; size: number } {
 	let fd: number;
 	try {
 		fd = openSync(path, constants.O_RDONLY | constants.O_NONBLOCK);
@@ -95,18 +155,29 @@ export function readRegularFile(path: string, maxBytes = ANALYSE_MAX_FILE_BYTES,
 		const st = fstatSync(fd);
 		if (!st.isFile()) throw new UsageError(`${kindWords(st)}, not a regular file: only regular files are read`);
 		if (st.size > maxBytes) throw new UsageError(tooLargeWords(st.size, maxBytes, shownAs));
-		const bytes = Buffer.allocUnsafe(st.size);
-		let got = 0;
-		while (got < st.size) {
-			const n = readSync(fd, bytes, got, st.size - got, got);
+		return { fd, size: st.size };
+	} catch (e) {
+		closeSync(fd);
+		throw asUsageError(e);
+	}
+}
+
+/** Reads `length` bytes at file offset `position` into buf[offset..] (fewer at the end of the file). */
+function readFully(fd: number, buf: Uint8Array, offset: number, length: number, position: number): number {
+	let got = 0;
+	try {
+		while (got < length) {
+			const n = readSync(fd, buf, offset + got, length - got, position + got);
 			if (n === 0) break;
 			got += n;
 		}
-		return new Uint8Array(bytes.buffer, bytes.byteOffset, got);
 	} catch (e) {
-		if (e instanceof UsageError) throw e;
-		throw new UsageError(`cannot read the file: ${fsErrorWords((e as NodeJS.ErrnoException).code)}`);
-	} finally {
-		closeSync(fd);
+		throw asUsageError(e);
 	}
+	return got;
+}
+
+function asUsageError(e: unknown): UsageError {
+	if (e instanceof UsageError) return e;
+	return new UsageError(`cannot read the file: ${fsErrorWords((e as NodeJS.ErrnoException).code)}`);
 }

@@ -3,6 +3,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { parseCsv } from '../../lib/io/csv/index.js';
+import { decimalValue, NO_DIGITS, NO_EXPONENT_DIGITS, readDecimal } from '../../lib/io/csv/decimal.js';
 
 /** Reads `cells` as column U1 of a file with an index-like time column; returns the samples. */
 function readColumn(cells: string[], comma: boolean): Float64Array {
@@ -79,5 +80,66 @@ describe('CSV number scanner', () => {
 		const w = c.diagnostics.find((d) => d.code === 'non-finite-values');
 		expect(w?.severity).toBe('warning');
 		expect(w?.line).toBe(2);
+	});
+});
+
+// Hand-built decimal numerals: optional sign, up to 25 integer and 25 fraction digits (past 2^53 and the
+// exact powers of ten), an optional exponent in either case with an optional '+', near under- and overflow.
+const numeral = fc
+	.tuple(
+		fc.constantFrom('', '-', '+'),
+		fc.string({ unit: fc.constantFrom(...'0123456789'), maxLength: 25 }),
+		fc.option(fc.string({ unit: fc.constantFrom(...'0123456789'), maxLength: 25 })),
+		fc.option(fc.tuple(fc.constantFrom('e', 'E'), fc.constantFrom('', '+', '-'), fc.nat({ max: 400 }))),
+	)
+	.filter(([, a, b]) => a.length + (b ?? '').length > 0)
+	.map(([s, a, b, e]) => `${s}${a}${b === null ? '' : `.${b}`}${e === null ? '' : `${e[0]}${e[1]}${e[2]}`}`);
+
+describe('readDecimal, the byte-level number reader', () => {
+	const bytesOf = (s: string) => new TextEncoder().encode(s);
+
+	it('readDecimal(bytes of a numeral) gives Number(numeral) bit for bit and ends after it (ECMA-262 StringToNumber)', () => {
+		fc.assert(
+			fc.property(numeral, fc.constantFrom(',', ';', '\n', '\r\n', ' '), (s, after) => {
+				const end = readDecimal(bytesOf(s + after), 0, 0x2e);
+				expect(end, s).toBe(s.length);
+				expect(Object.is(decimalValue[0], Number(s)), `${s} -> ${decimalValue[0]}`).toBe(true);
+				expect(Object.is(decimalValue[0], parseFloat(s)), s).toBe(true);
+			}),
+			{ numRuns: 3000 },
+		);
+	});
+
+	it('readDecimal(bytes with a decimal comma) gives Number(the point form) bit for bit', () => {
+		fc.assert(
+			fc.property(numeral, (s) => {
+				const end = readDecimal(bytesOf(s.replace('.', ',') + ';'), 0, 0x2c);
+				expect(end, s).toBe(s.length);
+				expect(Object.is(decimalValue[0], Number(s)), `${s} -> ${decimalValue[0]}`).toBe(true);
+			}),
+			{ numRuns: 3000 },
+		);
+	});
+
+	it('readDecimal says NO_DIGITS for words and bare marks, NO_EXPONENT_DIGITS for an exponent mark alone', () => {
+		for (const s of ['NaN', 'inf', '-', '+', '.', '-.', 'e5', ''])
+			expect(readDecimal(bytesOf(s + ','), 0, 0x2e), s).toBe(NO_DIGITS);
+		for (const s of ['1e', '2E+', '-3.5e-']) expect(readDecimal(bytesOf(s + ','), 0, 0x2e), s).toBe(NO_EXPONENT_DIGITS);
+	});
+
+	it('parseCsv reads the same cells alike on the plain-row path and, quoted, on the general path', () => {
+		fc.assert(
+			fc.property(fc.array(numeral, { minLength: 2, maxLength: 30 }), (cells) => {
+				const plain = cells.map((c, i) => `${i},${c}`).join('\n');
+				const quoted = cells.map((c, i) => `${i},"${c}"`).join('\n');
+				const a = parseCsv(`t (s),U1 (V)\n${plain}\n`, 'p.csv').channels[0].samples;
+				const b = parseCsv(`t (s),U1 (V)\n${quoted}\n`, 'q.csv').channels[0].samples;
+				cells.forEach((c, i) => {
+					expect(Object.is(a[i], Number(c)), `${c} -> ${a[i]}`).toBe(true);
+					expect(Object.is(b[i], Number(c)), `"${c}" -> ${b[i]}`).toBe(true);
+				});
+			}),
+			{ numRuns: 200 },
+		);
 	});
 });

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import wavefile from 'wavefile';
 import { describe, expect, it } from 'vitest';
-import { ImportError, openCapture, openCaptures, type InputFile } from '../../lib/index.js';
+import { ImportError, openCapture, openCaptures, openCsvChunks, type InputFile } from '../../lib/index.js';
 import { comtradeCffBytes, type WriterSpec } from '../../sample-waves/writers/comtrade.js';
 
 const fx = (path: string, name = path.split('/').pop()!): InputFile => ({
@@ -135,5 +135,59 @@ describe('openCapture', () => {
 		} catch (e) {
 			expect((e as ImportError).code).toBe('missing-companion-file');
 		}
+	});
+});
+
+describe('openCsvChunks: one CSV fed in pieces', () => {
+	// 3 cycles of 50 Hz at 1 kS/s, mV in the file: each sample must equal Number(cell) / 1000 as openCapture reads it
+	const rows = Array.from(
+		{ length: 60 },
+		(_, i) =>
+			`${(i / 1000).toFixed(3).replace('.', ',')};${(325e3 * Math.sin((2 * Math.PI * 50 * i) / 1000)).toFixed(1).replace('.', ',')}`,
+	);
+	const text = `Zeit (s);U1 (mV)\n${rows.join('\n')}\n`;
+	const bytes = enc.encode(text);
+	const inPieces = (sizes: number[]) => (push: (c: Uint8Array) => void) => {
+		const buf = new Uint8Array(64); // one reused buffer, as the CLI feeds it
+		for (let at = 0, k = 0; at < bytes.length; k++) {
+			const n = Math.min(sizes[k % sizes.length], buf.length, bytes.length - at);
+			buf.set(bytes.subarray(at, at + n));
+			push(buf.subarray(0, n));
+			at += n;
+		}
+	};
+
+	it('openCsvChunks(file in 1..64-byte pieces through one reused buffer) gives the capture openCapture gives for the whole bytes', () => {
+		const whole = openCapture({ name: 'board.dat.txt', bytes }, [], {
+			settings: { channels: { U1: { probeRatio: 10 } } },
+		});
+		for (const sizes of [[1], [7, 64, 3], [64]]) {
+			const c = openCsvChunks('board.dat.txt', bytes.length, inPieces(sizes), {
+				settings: { channels: { U1: { probeRatio: 10 } } },
+			});
+			expect(c.format).toBe('csv');
+			expect(c.sampleRateHz).toBe(whole.sampleRateHz);
+			expect(Array.from(c.channels[0].samples)).toEqual(Array.from(whole.channels[0].samples));
+			expect(c.diagnostics.map((d) => d.code)).toEqual(whole.diagnostics.map((d) => d.code));
+		}
+		// the values themselves: Number(cell with a point) mV to V (/1000), probe x10: Number(cell) / 100 within rounding
+		const cell = Number(rows[7].split(';')[1].replace(',', '.'));
+		expect(Math.abs(whole.channels[0].samples[7] - cell / 100)).toBeLessThanOrEqual(1e-15 * Math.abs(cell));
+	});
+
+	it('openCsvChunks(a file with a bad cell) throws the ImportError openCapture throws: same line, column and code', () => {
+		const bad = enc.encode('t (s),U1 (V)\n0,1\n0.001,2x\n');
+		const expectedError = (() => {
+			try {
+				openCapture({ name: 'bad.csv', bytes: bad });
+			} catch (e) {
+				return e as ImportError;
+			}
+		})()!;
+		expect(expectedError).toBeInstanceOf(ImportError);
+		expect(() => openCsvChunks('bad.csv', bad.length, (push) => push(bad))).toThrowError(
+			expect.objectContaining({ line: 3, column: expectedError.column, code: 'bad-number' }),
+		);
+		expect(expectedError.line).toBe(3);
 	});
 });

@@ -11,6 +11,17 @@ import { secondsPerUnit } from './time-column.js';
 import { timeBaseFromColumn, type TimeBase } from './timebase.js';
 import type { CsvLayout, CsvOptions } from './types.js';
 
+/**
+ * The default jitter tolerance: a stamp within 10 % of a sample interval of the uniform grid counts as on it
+ * (a project choice, well above the rounding of printed stamps and well below a missing sample).
+ */
+export const DEFAULT_JITTER_TOLERANCE = 0.1;
+
+/**
+ * The capture from the scanned columns: the time base, channels scaled to V and A, and every diagnostic
+ * (layout, scanner counts, time base, channels).
+ * @throws ImportError 'no-data' (no rows, or no data column) and 'no-time-base'
+ */
 export function assembleCapture(
 	layout: CsvLayout,
 	scanner: RowScanner,
@@ -20,66 +31,12 @@ export function assembleCapture(
 ): Capture {
 	const cols = scanner.result();
 	const n = scanner.rows;
-	const diagnostics: Diagnostic[] = [...extra, ...layout.diagnostics];
 	if (n === 0) throw new ImportError(source, layout.bodyLine, 0, 'no-data', '', 'at least one row of numbers');
-	if (scanner.blankLines > 0)
-		diagnostics.push({
-			code: 'blank-lines',
-			severity: 'info',
-			line: scanner.firstBlankLine,
-			message: `${scanner.blankLines} blank line(s) among the data were skipped, the first at line ${scanner.firstBlankLine}.`,
-		});
-	if (scanner.nonFinite > 0)
-		diagnostics.push({
-			code: 'non-finite-values',
-			severity: 'warning',
-			line: scanner.firstNonFiniteLine,
-			message: `${scanner.nonFinite} cell(s) hold NaN or Infinity, the first at line ${scanner.firstNonFiniteLine}; they are kept as such.`,
-		});
-
-	let tb: TimeBase;
-	const stated = layout.statedSampleRateHz;
-	if (layout.timeColumn !== null) {
-		const t = cols[layout.timeColumn];
-		const f =
-			layout.timeUnit === 'index'
-				? 1 / stated!
-				: layout.timeUnit === 'clock'
-					? 1
-					: secondsPerUnit(layout.timeUnit as 's');
-		if (f !== 1) for (let i = 0; i < n; i++) t[i] *= f;
-		if (layout.timeUnit === 'clock') {
-			// times from the first stamp; the stamp itself becomes the wall-clock start
-			const t0 = t[0];
-			for (let i = 0; i < n; i++) t[i] -= t0;
-			const first = (layout.preview[0] ?? []).slice(0, layout.clockFields).join(' ');
-			const iso = isoOf(first.replace(/^"|"$/g, ''));
-			if (iso && !layout.startTime) layout.startTime = iso;
-			layout.metadata['first time stamp'] ??= first;
-		}
-		const col = layout.columns[layout.timeColumn];
-		tb = timeBaseFromColumn(t, {
-			name: col.header || col.name,
-			bodyLine: layout.bodyLine,
-			rowsAreLines: scanner.blankLines === 0,
-			jitterTolerance: options.jitterTolerance ?? 0.1,
-			resolutionS: layout.timeResolution === null ? undefined : layout.timeResolution * f,
-			statedSampleRateHz: stated,
-			repeatedTimes: scanner.repeatedTimes,
-			firstRepeatLine: scanner.firstRepeatLine,
-		});
-		if (!(tb.sampleRateHz > 0))
-			throw new ImportError(
-				source,
-				layout.bodyLine,
-				layout.timeColumn + 1,
-				'no-time-base',
-				'',
-				'at least two rows with different times, or a stated sample rate',
-			);
-	} else {
-		tb = { sampleRateHz: stated!, startS: 0, diagnostics: [] };
-	}
+	const diagnostics: Diagnostic[] = [...extra, ...layout.diagnostics, ...scannerNotes(scanner)];
+	const tb =
+		layout.timeColumn !== null
+			? timeBaseOfColumn(layout, cols[layout.timeColumn], scanner, source, options)
+			: { sampleRateHz: layout.statedSampleRateHz!, startS: 0, diagnostics: [] };
 	diagnostics.push(...tb.diagnostics);
 	if (layout.decimation && !diagnostics.some((d) => d.code === 'decimated'))
 		diagnostics.push({
@@ -87,7 +44,6 @@ export function assembleCapture(
 			severity: 'warning',
 			message: `The preamble says the export was decimated ("${layout.decimation.text}"): it does not hold every recorded sample.`,
 		});
-
 	const plan = planCsvChannels(layout, options);
 	diagnostics.push(...plan.diagnostics);
 	const channels: Channel[] = plan.channels.map((p) => {
@@ -119,6 +75,79 @@ export function assembleCapture(
 	if (layout.startTime) capture.startTime = layout.startTime;
 	if (layout.nominalFrequencyHz) capture.nominalFrequencyHz = layout.nominalFrequencyHz;
 	return capture;
+}
+
+/** What the scanner skipped or kept as it was: blank lines, NaN and Infinity cells. */
+function scannerNotes(scanner: RowScanner): Diagnostic[] {
+	const notes: Diagnostic[] = [];
+	if (scanner.blankLines > 0)
+		notes.push({
+			code: 'blank-lines',
+			severity: 'info',
+			line: scanner.firstBlankLine,
+			message: `${scanner.blankLines} blank line(s) among the data were skipped, the first at line ${scanner.firstBlankLine}.`,
+		});
+	if (scanner.nonFinite > 0)
+		notes.push({
+			code: 'non-finite-values',
+			severity: 'warning',
+			line: scanner.firstNonFiniteLine,
+			message: `${scanner.nonFinite} cell(s) hold NaN or Infinity, the first at line ${scanner.firstNonFiniteLine}; they are kept as such.`,
+		});
+	return notes;
+}
+
+/**
+ * The time column in s (in place: unit factor, clock stamps counted from the first, which becomes the start
+ * time), then its time base.
+ * @throws ImportError 'no-time-base' when it gives no rate
+ */
+function timeBaseOfColumn(
+	layout: CsvLayout,
+	t: Float64Array,
+	scanner: RowScanner,
+	source: string,
+	options: CsvOptions,
+): TimeBase {
+	const n = scanner.rows;
+	const stated = layout.statedSampleRateHz;
+	const f =
+		layout.timeUnit === 'index'
+			? 1 / stated!
+			: layout.timeUnit === 'clock'
+				? 1
+				: secondsPerUnit(layout.timeUnit as 's');
+	if (f !== 1) for (let i = 0; i < n; i++) t[i] *= f;
+	if (layout.timeUnit === 'clock') {
+		// times from the first stamp; the stamp itself becomes the wall-clock start
+		const t0 = t[0];
+		for (let i = 0; i < n; i++) t[i] -= t0;
+		const first = (layout.preview[0] ?? []).slice(0, layout.clockFields).join(' ');
+		const iso = isoOf(first.replace(/^"|"$/g, ''));
+		if (iso && !layout.startTime) layout.startTime = iso;
+		layout.metadata['first time stamp'] ??= first;
+	}
+	const col = layout.columns[layout.timeColumn!];
+	const tb = timeBaseFromColumn(t, {
+		name: col.header || col.name,
+		bodyLine: layout.bodyLine,
+		rowsAreLines: scanner.blankLines === 0,
+		jitterTolerance: options.jitterTolerance ?? DEFAULT_JITTER_TOLERANCE,
+		resolutionS: layout.timeResolution === null ? undefined : layout.timeResolution * f,
+		statedSampleRateHz: stated,
+		repeatedTimes: scanner.repeatedTimes,
+		firstRepeatLine: scanner.firstRepeatLine,
+	});
+	if (!(tb.sampleRateHz > 0))
+		throw new ImportError(
+			source,
+			layout.bodyLine,
+			layout.timeColumn! + 1,
+			'no-time-base',
+			'',
+			'at least two rows with different times, or a stated sample rate',
+		);
+	return tb;
 }
 
 /** One channel of a CSV: its column, what it is and the scaling value = factor · raw + offset. */

@@ -9,6 +9,9 @@ import { settingsChain } from '../import-settings.js';
 import { minMaxOf } from './names.js';
 import type { CsvChannelOptions, CsvColumnLayout, CsvLayout, CsvOptions } from './types.js';
 
+/** Millivolts per volt: a clamp's mV/A rating as a V-to-A factor is MV_PER_V / rating. */
+const MV_PER_V = 1000;
+
 export interface ChannelSetup {
 	name: string;
 	unit: string;
@@ -33,125 +36,168 @@ export function channelSettings(col: CsvColumnLayout, layout: CsvLayout, options
 	};
 }
 
+/** A channel being set up: what is known so far, the scaling steps taken and what was said. */
+interface Draft {
+	name: string;
+	unitText: string;
+	unit: string;
+	quantity: Quantity | null;
+	factor: number;
+	offset: number;
+	steps: string[];
+	say: (code: string, message: string, severity?: Diagnostic['severity']) => void;
+}
+
+/**
+ * A data column as a channel: unit and quantity from the settings, the unit and the name (in that order),
+ * then the measuring chain (probe, VT, CT, clamp, shunt); every step said.
+ * @example setUpChannel(col, layout, {}) // header "I1 (mA)": factor 0.001, unit 'A', quantity 'current'
+ */
 export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: CsvOptions): ChannelSetup {
 	const s = channelSettings(col, layout, options);
-	const name = s.name ?? col.name;
 	const diagnostics: Diagnostic[] = [];
-	const say = (code: string, message: string, severity: Diagnostic['severity'] = 'info') =>
-		diagnostics.push({ code, message, severity, column: col.index + 1 });
-	const unitText = s.unit ?? col.unitText;
-	const read = readUnit(unitText);
-	const steps: string[] = [];
-	let factor = 1;
-	let offset = 0;
+	const w: Draft = {
+		name: s.name ?? col.name,
+		unitText: s.unit ?? col.unitText,
+		unit: '',
+		quantity: s.quantity ?? null,
+		factor: 1,
+		offset: 0,
+		steps: [],
+		say: (code, message, severity = 'info') => diagnostics.push({ code, message, severity, column: col.index + 1 }),
+	};
+	const read = readUnit(w.unitText);
+	userScale(w, s, read);
+	w.unit = read && read.kind !== 'counts' ? read.unit : '';
+	if (read && (read.kind === 'voltage' || read.kind === 'current')) electricalUnit(w, s, read);
+	quantityByName(w, s);
+	measuringChain(w, s);
+	settleQuantity(w, s);
+	userSettingsNote(w, col, options);
+	const { name, unit, factor, offset } = w;
+	const phase = channelPhase(name);
+	const mm = minMaxOf(name);
+	if (mm)
+		w.say(
+			'min-max-column',
+			`Channel "${name}" holds the ${mm.which}imum of "${mm.base}" per time step (a peak-detect export), not single samples.`,
+			'warning',
+		);
+	const quantity = w.quantity as Quantity;
+	return { name, unit, quantity, phase, factor, offset, description: w.steps.join(', '), diagnostics };
+}
+
+type UnitRead = ReturnType<typeof readUnit>;
+
+/** A scale or offset given: applied first; raw counts without one are said to stay counts. */
+function userScale(w: Draft, s: CsvChannelOptions, read: UnitRead): void {
 	if (s.scale !== undefined || s.offset !== undefined) {
-		factor = s.scale ?? 1;
-		offset = s.offset ?? 0;
-		steps.push(`raw x ${factor}${offset ? ` + ${offset}` : ''}`);
+		w.factor = s.scale ?? 1;
+		w.offset = s.offset ?? 0;
+		w.steps.push(`raw x ${w.factor}${w.offset ? ` + ${w.offset}` : ''}`);
 	} else if (read?.kind === 'counts') {
-		say(
+		w.say(
 			'raw-counts-unscaled',
-			`Channel "${name}" holds raw counts and no scale was given; values are used as counts. Give the scale to convert them.`,
+			`Channel "${w.name}" holds raw counts and no scale was given; values are used as counts. Give the scale to convert them.`,
 			'warning',
 		);
 	}
-	let unit = read && read.kind !== 'counts' ? read.unit : '';
-	let quantity: Quantity | null = s.quantity ?? null;
-	if (read && (read.kind === 'voltage' || read.kind === 'current')) {
-		if (read.factor !== 1) {
-			factor *= read.factor;
-			offset *= read.factor;
-			steps.push(`${unitText} to ${read.unit}`);
-			say('unit-normalised', `Channel "${name}" is in ${unitText}; converted to ${read.unit}.`);
-		}
-		if (!quantity) {
-			quantity = read.kind;
-			if (s.clampMvPerA === undefined && s.shuntOhms === undefined)
-				say('quantity-from-unit', `Channel "${name}" taken as a ${read.kind} from its unit ${unitText}.`);
-		}
+}
+
+/** A voltage or current unit: its prefix converted (mV to V), and the quantity from it unless set. */
+function electricalUnit(w: Draft, s: CsvChannelOptions, read: NonNullable<UnitRead>): void {
+	if (read.factor !== 1) {
+		w.factor *= read.factor;
+		w.offset *= read.factor;
+		w.steps.push(`${w.unitText} to ${read.unit}`);
+		w.say('unit-normalised', `Channel "${w.name}" is in ${w.unitText}; converted to ${read.unit}.`);
 	}
-	const fromName = quantityFromName(name);
-	if (
-		quantity &&
-		fromName &&
-		fromName !== quantity &&
-		!s.quantity &&
-		s.clampMvPerA === undefined &&
-		s.shuntOhms === undefined
-	)
-		say(
+	if (w.quantity) return;
+	w.quantity = read.kind as Quantity;
+	if (s.clampMvPerA === undefined && s.shuntOhms === undefined)
+		w.say('quantity-from-unit', `Channel "${w.name}" taken as a ${read.kind} from its unit ${w.unitText}.`);
+}
+
+/** The name's quantity: a disagreement with the unit is warned; without a quantity yet, the name gives it (and the unit when none). */
+function quantityByName(w: Draft, s: CsvChannelOptions): void {
+	const fromName = quantityFromName(w.name);
+	const noChain = s.clampMvPerA === undefined && s.shuntOhms === undefined;
+	if (w.quantity && fromName && fromName !== w.quantity && !s.quantity && noChain)
+		w.say(
 			'name-unit-disagree',
-			`Channel "${name}" reads as a ${fromName} by its name but is in ${unitText}; taken as a ${quantity}. If it is a clamp or shunt output, give a clamp ratio (mV/A) or shunt resistance.`,
+			`Channel "${w.name}" reads as a ${fromName} by its name but is in ${w.unitText}; taken as a ${w.quantity}. If it is a clamp or shunt output, give a clamp ratio (mV/A) or shunt resistance.`,
 			'warning',
 		);
-	if (!quantity && fromName) {
-		quantity = fromName;
-		if (!unit || unit === '') {
-			unit = fromName === 'voltage' ? 'V' : 'A';
-			say(
-				'unit-assumed',
-				`Channel "${name}" states no unit; taken as ${unit} because its name reads as a ${fromName}. Give the unit for ${name} to change this.`,
-				'assumption',
-			);
-		} else say('quantity-from-name', `Channel "${name}" taken as a ${fromName} from its name.`);
+	if (w.quantity || !fromName) return;
+	w.quantity = fromName;
+	if (w.unit !== '') {
+		w.say('quantity-from-name', `Channel "${w.name}" taken as a ${fromName} from its name.`);
+		return;
 	}
+	w.unit = fromName === 'voltage' ? 'V' : 'A';
+	w.say(
+		'unit-assumed',
+		`Channel "${w.name}" states no unit; taken as ${w.unit} because its name reads as a ${fromName}. Give the unit for ${w.name} to change this.`,
+		'assumption',
+	);
+}
+
+/**
+ * Probe, VT and CT ratios, clamp (mV/A) and shunt (ohm) multiply the values; a clamp or shunt makes a
+ * current, a voltage probe or VT a voltage, a CT a current.
+ */
+function measuringChain(w: Draft, s: CsvChannelOptions): void {
 	const ratio = (r: number | undefined, what: string) => {
 		if (r === undefined || r === 1) return;
-		factor *= r;
-		offset *= r;
-		steps.push(`${what} ${r}`);
+		w.factor *= r;
+		w.offset *= r;
+		w.steps.push(`${what} ${r}`);
 	};
 	ratio(s.probeRatio, 'probe ratio x');
 	ratio(s.vtRatio, 'VT ratio');
 	ratio(s.ctRatio, 'CT ratio');
 	if (s.clampMvPerA !== undefined) {
-		ratio(1000 / s.clampMvPerA, `clamp ${s.clampMvPerA} mV/A: x`);
-		unit = 'A';
-		quantity = 'current';
+		ratio(MV_PER_V / s.clampMvPerA, `clamp ${s.clampMvPerA} mV/A: x`);
+		w.unit = 'A';
+		w.quantity = 'current';
 	}
 	if (s.shuntOhms !== undefined) {
 		ratio(1 / s.shuntOhms, `shunt ${s.shuntOhms} ohm: x`);
-		unit = 'A';
-		quantity = 'current';
+		w.unit = 'A';
+		w.quantity = 'current';
 	}
-	// a voltage probe or VT ratio makes a voltage, a CT a current (a clamp or shunt did so above)
-	if (s.clampMvPerA === undefined && s.shuntOhms === undefined) {
-		if ((s.probeRatio !== undefined || s.vtRatio !== undefined) && s.ctRatio === undefined && quantity !== 'current') {
-			quantity = 'voltage';
-			unit = 'V';
-		} else if (s.ctRatio !== undefined && quantity !== 'voltage') {
-			quantity = 'current';
-			unit = 'A';
-		}
+	if (s.clampMvPerA !== undefined || s.shuntOhms !== undefined) return;
+	if ((s.probeRatio !== undefined || s.vtRatio !== undefined) && s.ctRatio === undefined && w.quantity !== 'current') {
+		w.quantity = 'voltage';
+		w.unit = 'V';
+	} else if (s.ctRatio !== undefined && w.quantity !== 'voltage') {
+		w.quantity = 'current';
+		w.unit = 'A';
 	}
-	if (s.quantity) quantity = s.quantity;
-	if (!quantity) {
-		quantity = 'other';
-		say(
+}
+
+/** A quantity set by the user wins; none found is 'other' (an assumption); V or A when the unit is still empty. */
+function settleQuantity(w: Draft, s: CsvChannelOptions): void {
+	if (s.quantity) w.quantity = s.quantity;
+	if (!w.quantity) {
+		w.quantity = 'other';
+		w.say(
 			'quantity-unknown',
-			`Channel "${name}" could not be told voltage or current from its unit ("${unitText}") or name; kept as 'other'. Give its quantity (voltage or current) to say which.`,
+			`Channel "${w.name}" could not be told voltage or current from its unit ("${w.unitText}") or name; kept as 'other'. Give its quantity (voltage or current) to say which.`,
 			'assumption',
 		);
 	}
-	if (quantity === 'voltage' && unit === '') unit = 'V';
-	if (quantity === 'current' && unit === '') unit = 'A';
+	if (w.quantity === 'voltage' && w.unit === '') w.unit = 'V';
+	if (w.quantity === 'current' && w.unit === '') w.unit = 'A';
+}
+
+/** What the user set for this channel, said once with the result. */
+function userSettingsNote(w: Draft, col: CsvColumnLayout, options: CsvOptions): void {
 	const given = { ...options.channels?.[`col${col.index + 1}`], ...options.channels?.[col.name] };
-	if (Object.keys(given).length > 0) {
-		const said = [...(given.name !== undefined ? [`named ${given.name}`] : []), ...settingsChain(given).steps].join(
-			', ',
-		);
-		say(
-			'channel-from-user',
-			`Channel "${name}": ${said} (set by the user); now in ${unit || 'no unit'}, measures ${quantity}.`,
-		);
-	}
-	const phase = channelPhase(name);
-	const mm = minMaxOf(name);
-	if (mm)
-		say(
-			'min-max-column',
-			`Channel "${name}" holds the ${mm.which}imum of "${mm.base}" per time step (a peak-detect export), not single samples.`,
-			'warning',
-		);
-	return { name, unit, quantity, phase, factor, offset, description: steps.join(', '), diagnostics };
+	if (Object.keys(given).length === 0) return;
+	const said = [...(given.name !== undefined ? [`named ${given.name}`] : []), ...settingsChain(given).steps].join(', ');
+	w.say(
+		'channel-from-user',
+		`Channel "${w.name}": ${said} (set by the user); now in ${w.unit || 'no unit'}, measures ${w.quantity}.`,
+	);
 }

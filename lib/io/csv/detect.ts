@@ -27,7 +27,10 @@ const CANDIDATES: [Delimiter, Mark][] = [
 	[',', ','],
 ];
 const NAMES: Record<Delimiter, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab', ' ': 'spaces' };
+/** Lines of the head examined (enough for any preamble and a good sample of rows; bounds the work on a long head). */
 const MAX_LINES = 2000;
+/** Data rows kept in the layout's preview (for the time column and clock-stamp guesses downstream). */
+const PREVIEW_KEPT_ROWS = 20;
 
 /**
  * Detects the layout of a CSV file from its head (the first few tens of kB, as text).
@@ -54,25 +57,87 @@ export function detectCsvLayout(
 	const text = bom ? head.slice(1) : head;
 	if (text.trim() === '')
 		throw new ImportError(source, 1, 0, 'empty-file', '', 'rows of numbers (the file holds no text)');
+	const { lines, lineBreak } = headLines(text, wholeFile);
+	if (bom) diagnostics.push(info('utf8-bom', 'The file starts with a UTF-8 byte order mark; it was skipped.'));
+	if (lineBreak !== '\n')
+		diagnostics.push(
+			info('line-break', `Lines end with ${lineBreak === '\r\n' ? 'CR LF (Windows)' : 'CR alone (old Mac)'}.`),
+		);
+	const { d: delimiter, mark: decimalMark, k: columnCount } = chooseReading(lines, options, source, diagnostics);
+	const split = (line: string) => splitCells(line, delimiter);
+	const rows = findRows(lines, { delimiter, decimalMark, columnCount }, options, source, diagnostics);
+	const { headerIdx, unitsIdx, bodyIdx } = rows;
+	const preambleEnd = headerIdx ?? bodyIdx;
+	const facts = readPreamble(lines.slice(0, preambleEnd), 1, split, delimiter, decimalMark);
+	diagnostics.push(...facts.diagnostics);
+	if (Object.keys(facts.metadata).length > 0)
+		diagnostics.push(
+			info(
+				'preamble',
+				`Lines 1-${preambleEnd} are a preamble of ${Object.keys(facts.metadata).length} entries, kept as metadata.`,
+				1,
+			),
+		);
+	const body = bodyHead(lines, rows, split, diagnostics);
+	const columns = columnsOf(lines, rows, columnCount, split, diagnostics);
+	const layout: CsvLayout = {
+		delimiter,
+		decimalMark,
+		lineBreak,
+		bom,
+		quoted: body.quoted,
+		headerLine: headerIdx === null ? null : headerIdx + 1,
+		unitsLine: unitsIdx === null ? null : unitsIdx + 1,
+		bodyLine: bodyIdx + 1,
+		columnCount,
+		trailingEmptyColumns: body.trailingEmptyColumns,
+		columns,
+		timeColumn: null,
+		timeUnit: null,
+		timeResolution: null,
+		clockFields: 1,
+		metadata: facts.metadata,
+		statedSampleRateHz: options.sampleRateHz ?? facts.sampleRateHz,
+		startTime: facts.startTime,
+		nominalFrequencyHz: facts.nominalFrequencyHz,
+		preambleChannels: facts.channels,
+		preambleAll: facts.all,
+		decimation: facts.decimation,
+		preview: body.preview.slice(0, PREVIEW_KEPT_ROWS),
+		bytesPerRow: bytesPerRow(lines, bodyIdx, lineBreak.length),
+		diagnostics,
+	};
+	// guesses from the rows that read cleanly; a broken row is the scanner's to report
+	const clean = body.preview.filter(
+		(r) => r.length === columnCount && isDataRow(r, (c) => isNumberCell(c, decimalMark)),
+	);
+	chooseTimeColumn(layout, clean, options, facts.timeUnit, source);
+	return layout;
+}
+
+/** The head's line break (the most common of CR LF, LF, CR alone) and its complete lines (at most MAX_LINES). */
+function headLines(text: string, wholeFile: boolean): { lines: string[]; lineBreak: CsvLayout['lineBreak'] } {
 	const crlf = count(text, '\r\n');
 	const lf = count(text, '\n') - crlf;
 	const cr = count(text, '\r') - crlf;
 	const lineBreak: CsvLayout['lineBreak'] =
 		cr > 0 && lf === 0 && crlf === 0 ? '\r' : crlf > 0 && crlf >= lf ? '\r\n' : '\n';
 	const eol = lineBreak === '\r' ? '\r' : '\n';
-	let lines = text.split(eol, MAX_LINES + 1);
+	const lines = text.split(eol, MAX_LINES + 1);
 	const complete = wholeFile && lines.length <= MAX_LINES;
 	if (lines.length > MAX_LINES || (!complete && !text.endsWith(eol) && lines.length > 1)) lines.pop();
 	if (lines.length > 0 && lines[lines.length - 1] === '' && text.endsWith(eol)) lines.pop();
-	lines = lines.map((l) => (l.endsWith('\r') ? l.slice(0, -1) : l));
-	if (bom) diagnostics.push(info('utf8-bom', 'The file starts with a UTF-8 byte order mark; it was skipped.'));
-	if (lineBreak !== '\n')
-		diagnostics.push(
-			info('line-break', `Lines end with ${lineBreak === '\r\n' ? 'CR LF (Windows)' : 'CR alone (old Mac)'}.`),
-		);
+	return { lines: lines.map((l) => (l.endsWith('\r') ? l.slice(0, -1) : l)), lineBreak };
+}
 
-	// Delimiter and decimal mark, scored together on the rows that are all numbers.
-	type Reading = { d: Delimiter; mark: Mark; k: number; rows: number; hits: number; header: number | null };
+type Reading = ReturnType<typeof readAs>;
+
+/**
+ * Delimiter and decimal mark, scored together on the rows that are all numbers: most rows of numbers; then
+ * a header with as many names as the data has columns; then the wider reading; then the delimiter the text
+ * lines above use. Says what it chose (and a comma reading that could go either way).
+ */
+function chooseReading(lines: string[], options: CsvOptions, source: string, diagnostics: Diagnostic[]): Reading {
 	const readings: Reading[] = [];
 	let best: Reading | null = null;
 	for (const [d, mark] of CANDIDATES) {
@@ -81,8 +146,6 @@ export function detectCsvLayout(
 		const r = readAs(lines, d, mark);
 		if (r.rows === 0) continue;
 		readings.push(r);
-		// most rows of numbers; then a header with as many names as the data has columns; then the wider
-		// reading; then the delimiter the text lines above use
 		if (!best || r.rows > best.rows || (r.rows === best.rows && better(r, best))) best = r;
 	}
 	if (!best) {
@@ -98,36 +161,9 @@ export function detectCsvLayout(
 			'rows of numbers separated by commas, semicolons, tabs or spaces',
 		);
 	}
-	// Commas as column separators and as decimal commas can both fit (`20,412`): said as an assumption.
-	const rival = readings.find(
-		(r) =>
-			r !== best &&
-			r.rows === best!.rows &&
-			r.k !== best!.k &&
-			(r.d === ',') !== (best!.d === ',') &&
-			(r.mark === ',' || best!.mark === ','),
-	);
-	if (rival) {
-		const commaMark = best.mark === ',' && best.d !== ',';
-		const cols = (k: number) => `${k} column${k === 1 ? '' : 's'}`;
-		const why =
-			best.header === best.k && rival.header !== rival.k
-				? `because the header has ${cols(best.k)}`
-				: `because nothing above the numbers tells the two readings apart (${cols(best.k)} taken rather than ${cols(rival.k)})`;
-		diagnostics.push({
-			code: 'comma-ambiguous',
-			severity: 'assumption',
-			message: commaMark
-				? `Decimal comma assumed ${why}; override with the delimiter and decimal mark settings.`
-				: `Commas taken as column separators ${why}, not as decimal commas; override with the delimiter and decimal mark settings.`,
-		});
-	}
+	const rival = commaRival(readings, best);
+	if (rival) diagnostics.push(commaAmbiguity(best, rival));
 	const { d: delimiter, mark: decimalMark, k: columnCount } = best;
-	const split = (line: string) => splitCells(line, delimiter);
-	const numericRow = (i: number) => {
-		const { cells } = trimTrailingEmpty(split(lines[i]));
-		return cells.length === columnCount && isDataRow(cells, (c) => isNumberCell(c, decimalMark));
-	};
 	diagnostics.push(
 		info(
 			'delimiter',
@@ -145,113 +181,204 @@ export function detectCsvLayout(
 				: 'Numbers use a decimal point.',
 		),
 	);
+	return best;
+}
 
-	// Header, units row and the first data row.
-	let headerIdx: number | null = null;
-	let unitsIdx: number | null = null;
-	let bodyIdx: number;
-	if (typeof options.headerRow === 'number') {
-		if (!Number.isInteger(options.headerRow) || options.headerRow < 1 || options.headerRow > lines.length)
-			throw new ImportError(
-				source,
-				0,
-				0,
-				'bad-option',
-				String(options.headerRow),
-				`a header line between 1 and ${lines.length}`,
-			);
-		headerIdx = options.headerRow - 1;
-		if (options.unitsRow === true) unitsIdx = headerIdx + 1;
-		const from = (unitsIdx ?? headerIdx) + 1;
-		bodyIdx = firstIndex(lines.length, from, numericRow);
-		if (options.unitsRow === undefined && bodyIdx === headerIdx + 2 && looksLikeUnitsRow(split(lines[headerIdx + 1])))
-			unitsIdx = headerIdx + 1;
-	} else {
-		bodyIdx = firstIndex(
-			lines.length,
-			0,
-			(i) => numericRow(i) && (i + 1 >= lines.length || numericRow(i + 1) || lines[i + 1].trim() === ''),
-		);
-		if (bodyIdx < 0) bodyIdx = firstIndex(lines.length, 0, numericRow);
-		// Rows just above that are shaped like data (a number first, or right under a header) but hold a bad
-		// cell belong to the data, so the scanner reports them instead of the preamble swallowing them.
-		for (
-			let above = previousNonBlank(lines, bodyIdx);
-			above >= 0 && bodyIdx > 0;
-			above = previousNonBlank(lines, bodyIdx)
-		) {
-			const cells = trimTrailingEmpty(split(lines[above])).cells;
-			if (cells.length === 0 || isTextRow(cells, columnCount, decimalMark)) break;
-			const numberFirst = isNumberCell(cells[0], decimalMark) || isClockCell(cells[0]) || isDateCell(cells[0]);
-			const underHeader =
-				previousNonBlank(lines, above) >= 0 &&
-				isTextRow(split(lines[previousNonBlank(lines, above)]), columnCount, decimalMark) &&
-				cells.length === columnCount;
-			if (!(numberFirst && cells.length >= columnCount - 1) && !underHeader) break;
-			bodyIdx = above;
-		}
-		if (options.headerRow !== 'none') {
-			const above = previousNonBlank(lines, bodyIdx);
-			if (above >= 0 && isTextRow(split(lines[above]), columnCount, decimalMark)) {
-				headerIdx = above;
-				const above2 = previousNonBlank(lines, above);
-				const unitsLike = looksLikeUnitsRow(split(lines[above]));
-				if (
-					options.unitsRow !== false &&
-					above2 >= 0 &&
-					(options.unitsRow === true || unitsLike) &&
-					isTextRow(split(lines[above2]), columnCount, decimalMark)
-				) {
-					unitsIdx = above;
-					headerIdx = above2;
-				}
-			}
-		}
-	}
-	if (bodyIdx < 0) throw new ImportError(source, lines.length, 0, 'no-data', '', 'rows of numbers below the header');
-	if (headerIdx === null && options.headerRow === undefined) {
-		// a line of names right above the numbers that does not match their column count is kept as a
-		// preamble line, but said: the names may belong to the data under another delimiter
-		const above = previousNonBlank(lines, bodyIdx);
-		const cells = above >= 0 ? trimTrailingEmpty(split(lines[above])).cells : [];
-		if (
-			cells.length > 1 &&
-			cells.length !== columnCount &&
-			!/[:=]/.test(lines[above]) &&
-			cells.every((c) => c.trim() !== '' && !isNumberCell(c, decimalMark) && /[A-Za-z]/.test(c))
-		)
-			diagnostics.push({
-				code: 'header-like-preamble',
-				severity: 'warning',
-				line: above + 1,
-				message: `Line ${above + 1} looks like a header of ${cells.length} names, but the data rows have ${columnCount} column(s); it was kept as a preamble line. Give the header line, the delimiter or the decimal mark if this is wrong.`,
-			});
-	}
-	const preambleEnd = headerIdx ?? bodyIdx;
-	const facts = readPreamble(lines.slice(0, preambleEnd), 1, split, delimiter, decimalMark);
-	diagnostics.push(...facts.diagnostics);
-	if (Object.keys(facts.metadata).length > 0)
-		diagnostics.push(
-			info(
-				'preamble',
-				`Lines 1-${preambleEnd} are a preamble of ${Object.keys(facts.metadata).length} entries, kept as metadata.`,
-				1,
-			),
-		);
+/** Commas as column separators and as decimal commas can both fit (`20,412`): the other reading, if so. */
+function commaRival(readings: Reading[], best: Reading): Reading | undefined {
+	return readings.find(
+		(r) =>
+			r !== best &&
+			r.rows === best.rows &&
+			r.k !== best.k &&
+			(r.d === ',') !== (best.d === ',') &&
+			(r.mark === ',' || best.mark === ','),
+	);
+}
 
-	// Columns: names and units from the header (and units row), trailing empty columns.
-	// a header may be written as a comment: '# t, U1, U2'
-	const headerCells = headerIdx === null ? [] : split(lines[headerIdx].replace(/^\s*(#+|\/\/|%)\s*/, ''));
-	const unitCells = unitsIdx === null ? [] : split(lines[unitsIdx]);
+/** The assumption between two comma readings that fit alike, and why the chosen one won. */
+function commaAmbiguity(best: Reading, rival: Reading): Diagnostic {
+	const commaMark = best.mark === ',' && best.d !== ',';
+	const cols = (k: number) => `${k} column${k === 1 ? '' : 's'}`;
+	const why =
+		best.header === best.k && rival.header !== rival.k
+			? `because the header has ${cols(best.k)}`
+			: `because nothing above the numbers tells the two readings apart (${cols(best.k)} taken rather than ${cols(rival.k)})`;
+	return {
+		code: 'comma-ambiguous',
+		severity: 'assumption',
+		message: commaMark
+			? `Decimal comma assumed ${why}; override with the delimiter and decimal mark settings.`
+			: `Commas taken as column separators ${why}, not as decimal commas; override with the delimiter and decimal mark settings.`,
+	};
+}
+
+interface ChosenReading {
+	delimiter: Delimiter;
+	decimalMark: Mark;
+	columnCount: number;
+}
+
+/** 0-based line indices of the header, the units row (null when absent) and the first data row. */
+interface TableRows {
+	headerIdx: number | null;
+	unitsIdx: number | null;
+	bodyIdx: number;
+}
+
+/** Header, units row and the first data row, as set in the options or found. */
+function findRows(
+	lines: string[],
+	reading: ChosenReading,
+	options: CsvOptions,
+	source: string,
+	diagnostics: Diagnostic[],
+): TableRows {
+	const rows =
+		typeof options.headerRow === 'number'
+			? rowsUnderSetHeader(lines, reading, options.headerRow, options, source)
+			: rowsFound(lines, reading, options);
+	if (rows.bodyIdx < 0)
+		throw new ImportError(source, lines.length, 0, 'no-data', '', 'rows of numbers below the header');
+	if (rows.headerIdx === null && options.headerRow === undefined) {
+		const d = headerLikePreamble(lines, rows.bodyIdx, reading);
+		if (d) diagnostics.push(d);
+	}
+	return rows;
+}
+
+/** True when line i is a row of `columnCount` numbers (a clock stamp first allowed). */
+function isNumericLine(lines: string[], i: number, { delimiter, decimalMark, columnCount }: ChosenReading): boolean {
+	const { cells } = trimTrailingEmpty(splitCells(lines[i], delimiter));
+	return cells.length === columnCount && isDataRow(cells, (c) => isNumberCell(c, decimalMark));
+}
+
+/** The rows when the header line is set (1-based `headerRow`): data from the first numeric line under it. */
+function rowsUnderSetHeader(
+	lines: string[],
+	reading: ChosenReading,
+	headerRow: number,
+	options: CsvOptions,
+	source: string,
+): TableRows {
+	if (!Number.isInteger(headerRow) || headerRow < 1 || headerRow > lines.length)
+		throw new ImportError(source, 0, 0, 'bad-option', String(headerRow), `a header line between 1 and ${lines.length}`);
+	const headerIdx = headerRow - 1;
+	let unitsIdx: number | null = options.unitsRow === true ? headerIdx + 1 : null;
+	const from = (unitsIdx ?? headerIdx) + 1;
+	const bodyIdx = firstIndex(lines.length, from, (i) => isNumericLine(lines, i, reading));
+	if (
+		options.unitsRow === undefined &&
+		bodyIdx === headerIdx + 2 &&
+		looksLikeUnitsRow(splitCells(lines[headerIdx + 1], reading.delimiter))
+	)
+		unitsIdx = headerIdx + 1;
+	return { headerIdx, unitsIdx, bodyIdx };
+}
+
+/** The rows found: the first numeric line followed by another (or a blank), the data-shaped lines above it, then the header and units rows. */
+function rowsFound(lines: string[], reading: ChosenReading, options: CsvOptions): TableRows {
+	const numericRow = (i: number) => isNumericLine(lines, i, reading);
+	let bodyIdx = firstIndex(
+		lines.length,
+		0,
+		(i) => numericRow(i) && (i + 1 >= lines.length || numericRow(i + 1) || lines[i + 1].trim() === ''),
+	);
+	if (bodyIdx < 0) bodyIdx = firstIndex(lines.length, 0, numericRow);
+	bodyIdx = withBrokenRowsAbove(lines, bodyIdx, reading);
+	if (options.headerRow === 'none') return { headerIdx: null, unitsIdx: null, bodyIdx };
+	return { ...headerAbove(lines, bodyIdx, reading, options), bodyIdx };
+}
+
+/**
+ * Rows just above the data that are shaped like data (a number first, or right under a header) but hold a
+ * bad cell belong to the data, so the scanner reports them instead of the preamble swallowing them.
+ */
+function withBrokenRowsAbove(lines: string[], bodyIdx: number, reading: ChosenReading): number {
+	const { delimiter, decimalMark, columnCount } = reading;
+	const split = (line: string) => splitCells(line, delimiter);
+	for (
+		let above = previousNonBlank(lines, bodyIdx);
+		above >= 0 && bodyIdx > 0;
+		above = previousNonBlank(lines, bodyIdx)
+	) {
+		const cells = trimTrailingEmpty(split(lines[above])).cells;
+		if (cells.length === 0 || isTextRow(cells, columnCount, decimalMark)) break;
+		const numberFirst = isNumberCell(cells[0], decimalMark) || isClockCell(cells[0]) || isDateCell(cells[0]);
+		const underHeader =
+			previousNonBlank(lines, above) >= 0 &&
+			isTextRow(split(lines[previousNonBlank(lines, above)]), columnCount, decimalMark) &&
+			cells.length === columnCount;
+		if (!(numberFirst && cells.length >= columnCount - 1) && !underHeader) break;
+		bodyIdx = above;
+	}
+	return bodyIdx;
+}
+
+/** The text row right above the data as the header, and the one above that as the header when the first looks like units. */
+function headerAbove(
+	lines: string[],
+	bodyIdx: number,
+	{ delimiter, decimalMark, columnCount }: ChosenReading,
+	options: CsvOptions,
+): Omit<TableRows, 'bodyIdx'> {
+	const split = (line: string) => splitCells(line, delimiter);
+	const above = previousNonBlank(lines, bodyIdx);
+	if (above < 0 || !isTextRow(split(lines[above]), columnCount, decimalMark))
+		return { headerIdx: null, unitsIdx: null };
+	const above2 = previousNonBlank(lines, above);
+	const unitsLike = looksLikeUnitsRow(split(lines[above]));
+	if (
+		options.unitsRow !== false &&
+		above2 >= 0 &&
+		(options.unitsRow === true || unitsLike) &&
+		isTextRow(split(lines[above2]), columnCount, decimalMark)
+	)
+		return { headerIdx: above2, unitsIdx: above };
+	return { headerIdx: above, unitsIdx: null };
+}
+
+/**
+ * A line of names right above the numbers that does not match their column count is kept as a preamble
+ * line, but said: the names may belong to the data under another delimiter.
+ */
+function headerLikePreamble(
+	lines: string[],
+	bodyIdx: number,
+	{ delimiter, decimalMark, columnCount }: ChosenReading,
+): Diagnostic | null {
+	const above = previousNonBlank(lines, bodyIdx);
+	const cells = above >= 0 ? trimTrailingEmpty(splitCells(lines[above], delimiter)).cells : [];
+	if (
+		cells.length > 1 &&
+		cells.length !== columnCount &&
+		!/[:=]/.test(lines[above]) &&
+		cells.every((c) => c.trim() !== '' && !isNumberCell(c, decimalMark) && /[A-Za-z]/.test(c))
+	)
+		return {
+			code: 'header-like-preamble',
+			severity: 'warning',
+			line: above + 1,
+			message: `Line ${above + 1} looks like a header of ${cells.length} names, but the data rows have ${columnCount} column(s); it was kept as a preamble line. Give the header line, the delimiter or the decimal mark if this is wrong.`,
+		};
+	return null;
+}
+
+/** The data rows of the head: quoting, trailing empty columns and the trimmed cells (a preview). */
+function bodyHead(
+	lines: string[],
+	{ headerIdx, bodyIdx }: TableRows,
+	split: (line: string) => string[],
+	diagnostics: Diagnostic[],
+): { quoted: boolean; trailingEmptyColumns: number; preview: string[][] } {
 	let trailingEmptyColumns = 0;
 	let quoted = false;
 	const preview: string[][] = [];
 	for (let i = bodyIdx; i < lines.length; i++) {
 		if (lines[i].includes('"')) quoted = true;
-		const cells = split(lines[i]);
-		const t = trimTrailingEmpty(cells);
+		const t = trimTrailingEmpty(split(lines[i]));
 		trailingEmptyColumns = Math.max(trailingEmptyColumns, t.dropped);
-		if (preview.length < 2000 && t.cells.length > 0) preview.push(t.cells.map((c) => c.trim()));
+		if (preview.length < MAX_LINES && t.cells.length > 0) preview.push(t.cells.map((c) => c.trim()));
 	}
 	if (headerIdx !== null && lines[headerIdx].includes('"')) quoted = true;
 	if (quoted) diagnostics.push(info('quoted-fields', 'Some fields are in double quotes; the quotes were removed.'));
@@ -262,6 +389,20 @@ export function detectCsvLayout(
 				`Data rows end with ${trailingEmptyColumns} empty column(s) (a delimiter at line end); ignored.`,
 			),
 		);
+	return { quoted, trailingEmptyColumns, preview };
+}
+
+/** Column names and units from the header (and units row); says where they came from. */
+function columnsOf(
+	lines: string[],
+	{ headerIdx, unitsIdx, bodyIdx }: TableRows,
+	columnCount: number,
+	split: (line: string) => string[],
+	diagnostics: Diagnostic[],
+): CsvColumnLayout[] {
+	// a header may be written as a comment: '# t, U1, U2'
+	const headerCells = headerIdx === null ? [] : split(lines[headerIdx].replace(/^\s*(#+|\/\/|%)\s*/, ''));
+	const unitCells = unitsIdx === null ? [] : split(lines[unitsIdx]);
 	const columns: CsvColumnLayout[] = [];
 	for (let c = 0; c < columnCount; c++) {
 		const header = (headerCells[c] ?? '').trim();
@@ -269,61 +410,31 @@ export function detectCsvLayout(
 		const unitText = (unitCells[c] ?? '').trim().replace(/^[([{]\s*|\s*[)\]}]$/g, '') || nu.unitText;
 		columns.push({ index: c, header, name: nu.name, unitText, role: 'channel' });
 	}
-	if (headerIdx !== null) {
-		diagnostics.push(
-			info(
-				'header',
-				`Line ${headerIdx + 1} holds the channel names${unitsIdx !== null ? `, line ${unitsIdx + 1} their units` : ''}.`,
-				headerIdx + 1,
-			),
-		);
-		const extra = trimTrailingEmpty(headerCells).cells.length - columnCount;
-		if (extra > 0)
-			diagnostics.push({
-				code: 'header-longer',
-				severity: 'warning',
-				line: headerIdx + 1,
-				message: `The header names ${extra} more column(s) than the data rows hold; those names were ignored.`,
-			});
-	} else {
+	if (headerIdx === null) {
 		diagnostics.push({
 			code: 'no-header',
 			severity: 'assumption',
 			line: bodyIdx + 1,
 			message: `No header line: columns are named col1..col${columnCount}.`,
 		});
+		return columns;
 	}
-	const layout: CsvLayout = {
-		delimiter,
-		decimalMark,
-		lineBreak,
-		bom,
-		quoted,
-		headerLine: headerIdx === null ? null : headerIdx + 1,
-		unitsLine: unitsIdx === null ? null : unitsIdx + 1,
-		bodyLine: bodyIdx + 1,
-		columnCount,
-		trailingEmptyColumns,
-		columns,
-		timeColumn: null,
-		timeUnit: null,
-		timeResolution: null,
-		clockFields: 1,
-		metadata: facts.metadata,
-		statedSampleRateHz: options.sampleRateHz ?? facts.sampleRateHz,
-		startTime: facts.startTime,
-		nominalFrequencyHz: facts.nominalFrequencyHz,
-		preambleChannels: facts.channels,
-		preambleAll: facts.all,
-		decimation: facts.decimation,
-		preview: preview.slice(0, 20),
-		bytesPerRow: bytesPerRow(lines, bodyIdx, lineBreak.length),
-		diagnostics,
-	};
-	// guesses from the rows that read cleanly; a broken row is the scanner's to report
-	const clean = preview.filter((r) => r.length === columnCount && isDataRow(r, (c) => isNumberCell(c, decimalMark)));
-	chooseTimeColumn(layout, clean, options, facts.timeUnit, source);
-	return layout;
+	diagnostics.push(
+		info(
+			'header',
+			`Line ${headerIdx + 1} holds the channel names${unitsIdx !== null ? `, line ${unitsIdx + 1} their units` : ''}.`,
+			headerIdx + 1,
+		),
+	);
+	const extra = trimTrailingEmpty(headerCells).cells.length - columnCount;
+	if (extra > 0)
+		diagnostics.push({
+			code: 'header-longer',
+			severity: 'warning',
+			line: headerIdx + 1,
+			message: `The header names ${extra} more column(s) than the data rows hold; those names were ignored.`,
+		});
+	return columns;
 }
 
 /** How the head reads with delimiter `d` and decimal mark `mark`: the usual width of all-number rows. */

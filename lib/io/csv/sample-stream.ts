@@ -10,7 +10,7 @@
  */
 import type { Channel, Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';
-import { planCsvChannels, scaleCsvSamples, type CsvChannelPlan } from './assemble.js';
+import { DEFAULT_JITTER_TOLERANCE, planCsvChannels, scaleCsvSamples, type CsvChannelPlan } from './assemble.js';
 import { isoOf } from './preamble.js';
 import { StreamTimeCheck } from './stream-time.js';
 import { CsvStreamReader } from './stream-reader.js';
@@ -207,7 +207,7 @@ export class CsvSampleStream {
 			this.check = new StreamTimeCheck(this.probeT.subarray(0, n), {
 				name: col.header || col.name,
 				bodyLine: layout.bodyLine,
-				jitterTolerance: this.options.jitterTolerance ?? 0.1,
+				jitterTolerance: this.options.jitterTolerance ?? DEFAULT_JITTER_TOLERANCE,
 				resolutionS: layout.timeResolution === null ? undefined : layout.timeResolution * this.timeFactor,
 				statedSampleRateHz: layout.statedSampleRateHz,
 			});

@@ -43,33 +43,9 @@ export function timeBaseFromColumn(t: Float64Array, facts: TimeFacts): TimeBase 
 		if (!(fs > 0)) return { sampleRateHz: NaN, startS: t[0] ?? 0, diagnostics };
 		return { sampleRateHz: fs, startS: t[0] ?? 0, diagnostics };
 	}
-	// Median step over (up to) 4096 evenly spread steps, ignoring repeats (min/max row pairs).
-	const probe: number[] = [];
-	const stride = Math.max(1, Math.floor((n - 1) / 4096));
-	for (let i = 1; i < n; i += stride) if (t[i] > t[i - 1]) probe.push(t[i] - t[i - 1]);
-	probe.sort((a, b) => a - b);
-	const dtMed = probe[probe.length >> 1];
-	let gaps = 0;
-	let firstGap = -1;
-	let largestGap = 0;
-	for (let i = 1; i < n; i++) {
-		const step = t[i] - t[i - 1];
-		if (step > 1.5 * dtMed) {
-			if (gaps++ === 0) firstGap = i;
-			if (step > largestGap) largestGap = step;
-		}
-	}
-	if (facts.repeatedTimes > 0) {
-		const pairs = facts.repeatedTimes * 2 >= n - 1;
-		say(
-			pairs ? 'min-max-rows' : 'repeated-times',
-			pairs
-				? `Time stamps come in pairs (${facts.repeatedTimes} repeats): the export holds a min and a max row per time step (peak detect), not single samples.`
-				: `${facts.repeatedTimes} row(s) repeat the previous time stamp, first at line ${facts.firstRepeatLine}.`,
-			'warning',
-			facts.firstRepeatLine,
-		);
-	}
+	const dtMed = medianStep(t);
+	const { gaps, firstGap, largestGap } = gapsOf(t, dtMed);
+	if (facts.repeatedTimes > 0) diagnostics.push(repeatNote(facts.repeatedTimes, facts.firstRepeatLine, n));
 	// a step that is a whole number of printed digits within rounding error is taken as exactly that
 	// (1e-3 s rather than 1.0000000034e-3 s from summing clock readings)
 	const res = facts.resolutionS ?? 0;
@@ -109,7 +85,7 @@ export function timeBaseFromColumn(t: Float64Array, facts: TimeFacts): TimeBase 
 	if (gaps > 0) {
 		say(
 			'time-gaps',
-			`Time column "${facts.name}" has ${gaps} gap(s) longer than 1.5 sample intervals (${round(dtMed * 1e3)} ms); the first before line ${lineOf(firstGap) ?? `row ${firstGap + 1}`} at ${round(t[firstGap - 1])} s, the longest ${round(largestGap * 1e3)} ms. The time stamps are kept as they are, not resampled.`,
+			`Time column "${facts.name}" has ${gaps} gap(s) longer than ${GAP_STEPS} sample intervals (${round(dtMed * 1e3)} ms); the first before line ${lineOf(firstGap) ?? `row ${firstGap + 1}`} at ${round(t[firstGap - 1])} s, the longest ${round(largestGap * 1e3)} ms. The time stamps are kept as they are, not resampled.`,
 			'warning',
 			lineOf(firstGap),
 		);
@@ -117,6 +93,49 @@ export function timeBaseFromColumn(t: Float64Array, facts: TimeFacts): TimeBase 
 	const fs = (n - 1) / span;
 	if (stated) compareStated(stated, 1 / dtMed, say);
 	return { sampleRateHz: fs, startS: t[0], timeS: t, diagnostics };
+}
+
+/** Steps probed for the median step (evenly spread; enough for a stable median, bounded work). */
+const MEDIAN_PROBE_STEPS = 4096;
+/** A step longer than this many median steps is a gap (a missing sample makes 2). */
+const GAP_STEPS = 1.5;
+
+/** Median step over (up to) MEDIAN_PROBE_STEPS evenly spread steps, ignoring repeats (min/max row pairs). */
+function medianStep(t: Float64Array): number {
+	const n = t.length;
+	const probe: number[] = [];
+	const stride = Math.max(1, Math.floor((n - 1) / MEDIAN_PROBE_STEPS));
+	for (let i = 1; i < n; i += stride) if (t[i] > t[i - 1]) probe.push(t[i] - t[i - 1]);
+	probe.sort((a, b) => a - b);
+	return probe[probe.length >> 1];
+}
+
+/** Steps longer than GAP_STEPS median steps: how many, the row after the first, the longest. */
+function gapsOf(t: Float64Array, dtMed: number): { gaps: number; firstGap: number; largestGap: number } {
+	let gaps = 0;
+	let firstGap = -1;
+	let largestGap = 0;
+	for (let i = 1; i < t.length; i++) {
+		const step = t[i] - t[i - 1];
+		if (step > GAP_STEPS * dtMed) {
+			if (gaps++ === 0) firstGap = i;
+			if (step > largestGap) largestGap = step;
+		}
+	}
+	return { gaps, firstGap, largestGap };
+}
+
+/** Rows repeating the previous stamp: min/max row pairs when about every other row repeats, else a count. */
+function repeatNote(repeatedTimes: number, firstRepeatLine: number, n: number): Diagnostic {
+	const pairs = repeatedTimes * 2 >= n - 1;
+	return {
+		code: pairs ? 'min-max-rows' : 'repeated-times',
+		message: pairs
+			? `Time stamps come in pairs (${repeatedTimes} repeats): the export holds a min and a max row per time step (peak detect), not single samples.`
+			: `${repeatedTimes} row(s) repeat the previous time stamp, first at line ${firstRepeatLine}.`,
+		severity: 'warning',
+		line: firstRepeatLine,
+	};
 }
 
 function compareStated(
