@@ -5,7 +5,7 @@
  * COMTRADE capture after reading. Every applied setting becomes a diagnostic and goes on the channel's
  * scaling; a setting naming a channel the capture does not have is an error, never ignored.
  */
-import type { Capture, Channel, Diagnostic, Quantity } from '../capture.js';
+import { scaleRange, type Capture, type Channel, type Diagnostic, type Quantity } from '../capture.js';
 import { normaliseUnitText } from '../channel-identity.js';
 import type { CsvChannelOptions } from './csv/types.js';
 import { ImportError } from './import-error.js';
@@ -119,7 +119,8 @@ function applyToChannel(c: Channel, s: ChannelSettings, diagnostics: Diagnostic[
 		offset: before.offset * chain.factor + chain.offset,
 		description: [before.description, what].filter(Boolean).join('; '),
 	};
-	return { ...c, samples, unit, quantity, scaling };
+	const range = c.range ? { range: scaleRange(c.range, chain.factor, chain.offset) } : {};
+	return { ...c, samples, unit, quantity, scaling, ...range };
 }
 
 /**

@@ -6,7 +6,7 @@
  * Ref: Microsoft/IBM RIFF WAVE format, `fmt ` and `data` chunks (common practice; from memory).
  */
 import * as wavefileModule from 'wavefile';
-import type { Capture, Channel, Diagnostic, Quantity } from '../capture.js';
+import { scaleRange, type Capture, type Channel, type Diagnostic, type Quantity } from '../capture.js';
 import { ImportError } from './import-error.js';
 import { channelPhase, normaliseUnitText, quantityFromName } from '../channel-identity.js';
 
@@ -143,7 +143,7 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 		{
 			code: 'wav-format',
 			severity: 'info',
-			message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples.`,
+			message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples${isFloat ? '' : "; full scale is each channel's range, so flat runs at it are taken as clipping"}.`,
 		},
 	];
 	const blockBytes = (numChannels * bitsPerSample) / 8;
@@ -212,6 +212,12 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 					: 'normalised to full scale (no calibration)',
 			},
 		};
+		// an integer converter cannot give a value beyond its codes: full scale is the channel's range
+		if (!isFloat) {
+			const top = 2 ** (bitsPerSample - 1);
+			const raw = bitsPerSample === 8 ? { min: 0, max: 255 } : { min: -top, max: top - 1 };
+			ch.range = scaleRange({ ...raw, source: `the ${bitsPerSample}-bit WAV's full scale` }, factor, offset);
+		}
 		const ph = cal ? channelPhase(name, cal.phase) : undefined;
 		if (ph) ch.phase = ph;
 		if (!cal) uncalibrated.push(name);

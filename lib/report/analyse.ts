@@ -129,13 +129,13 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	);
 
 	const wholeRecord: ReportChannel[] = capture.channels.map((c, i) => {
-		const figs = waveformFigures(
-			c.samples,
-			fs,
-			window && span === 'whole-cycles'
+		const figs = waveformFigures(c.samples, fs, {
+			...(window && span === 'whole-cycles'
 				? { span, window, nominalHz, maxOrder }
-				: { span: 'whole-record', frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder },
-		);
+				: { span: 'whole-record' as const, frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder }),
+			range: c.range,
+			startS: capture.startS,
+		});
 		const own =
 			i === ref.index && window
 				? { ok: true as const, frequencyHz: window.frequencyHz }
@@ -210,7 +210,12 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	});
 	const channels = wholeRecord.map((c, i) =>
 		markBelowResolution(
-			fitted ? fittedChannel(c, capture.channels[i].samples, fs, fitted, i, nominalHz, maxOrder) : c,
+			fitted
+				? fittedChannel(c, capture.channels[i].samples, fs, fitted, i, nominalHz, maxOrder, {
+						range: capture.channels[i].range,
+						startS: capture.startS,
+					})
+				: c,
 			resolutions[i],
 		),
 	);

@@ -96,6 +96,7 @@ export function assembleCapture(
 		const ch: Channel = { name: p.name, unit: p.unit, quantity: p.quantity, samples };
 		if (p.phase !== undefined) ch.phase = p.phase;
 		if (p.scaling) ch.scaling = p.scaling;
+		if (p.range) ch.range = p.range;
 		return ch;
 	});
 	if (channels.length === 0)
@@ -132,6 +133,7 @@ export interface CsvChannelPlan {
 	factor: number;
 	offset: number;
 	scaling?: Channel['scaling'];
+	range?: Channel['range'];
 }
 
 /**
@@ -169,6 +171,7 @@ export function planCsvChannels(
 		};
 		if (s.phase !== undefined) p.phase = s.phase;
 		if (s.description) p.scaling = { factor: s.factor, offset: s.offset, description: s.description };
+		if (s.range) p.range = s.range;
 		channels.push(p);
 	}
 	const known = new Set(layout.columns.flatMap((col) => [col.name, col.header, `col${col.index + 1}`]));
