@@ -95,13 +95,14 @@ export function fittedChannel(
 }
 
 /**
- * Marks every harmonic (order ≥ 1) under the channel's rounding floor as below resolution. The figures stay
- * (THD, K-factor, limits and the next steps sum them as measured); every front end shows the words
- * "below resolution" in their place.
+ * Marks every harmonic (order ≥ 1) under the channel's rounding floor as below resolution, with the floor
+ * as its upper bound. The figures stay in memory (THD, K-factor, limits and the next steps sum them as
+ * measured); the JSON gives null in their place and every front end shows the words "below resolution".
  */
 export function markBelowResolution(channel: ReportChannel, resolution: ChannelResolution | undefined): ReportChannel {
 	if (!resolution) return { ...channel, resolution: null };
 	const floor = resolution.harmonicFloorRms;
+	const fundamental = channel.harmonics[1]?.rms ?? NaN;
 	return {
 		...channel,
 		resolution: {
@@ -111,6 +112,15 @@ export function markBelowResolution(channel: ReportChannel, resolution: ChannelR
 			noiseRms: resolution.noiseRms,
 			harmonicFloorRms: floor,
 		},
-		harmonics: channel.harmonics.map((h) => (h.order >= 1 && h.rms < floor ? { ...h, belowResolution: true } : h)),
+		harmonics: channel.harmonics.map((h) =>
+			h.order >= 1 && h.rms < floor
+				? {
+						...h,
+						belowResolution: true,
+						rmsUpperBound: floor,
+						percentOfFundamentalUpperBound: fundamental > 0 ? (100 * floor) / fundamental : NaN,
+					}
+				: h,
+		),
 	};
 }

@@ -89,8 +89,15 @@ export interface ReportHarmonic {
 	percentOfFundamental: number;
 	/** Absolute phase, degrees, cosine reference, relative to the start of the analysis window; NaN when rms is 0. */
 	phaseDeg: number;
-	/** True when the order's RMS is under the channel's rounding floor (`ReportResolution`): front ends show "below resolution" instead of the number. */
+	/**
+	 * True when the order's RMS is under the channel's rounding floor (`ReportResolution`): front ends show
+	 * "below resolution" instead of the number. In memory the figures stay (THD, K-factor, limits and the
+	 * next steps sum them); in JSON `rms`, `percentOfFundamental` and `phaseDeg` are null (see `reportToJson`).
+	 */
 	belowResolution?: boolean;
+	/** With `belowResolution`: the floor, an upper bound on the order's RMS (channel unit) and as % of the fundamental. */
+	rmsUpperBound?: number;
+	percentOfFundamentalUpperBound?: number;
 }
 
 /** A channel's code step and what it implies (absent when its values show no common step). */
