@@ -67,6 +67,14 @@ export function settingsChain(s: ChannelSettings): {
 		ratio(1 / s.shuntOhms, `shunt ${s.shuntOhms} ohm:`);
 		[unit, quantity] = ['A', 'current'];
 	}
+	// a voltage probe or VT ratio makes a voltage, a CT a current (a clamp or shunt did so above), as in the CSV reader
+	if (s.clampMvPerA === undefined && s.shuntOhms === undefined) {
+		if ((s.probeRatio !== undefined || s.vtRatio !== undefined) && s.ctRatio === undefined) {
+			[unit, quantity] = ['V', 'voltage'];
+		} else if (s.ctRatio !== undefined && s.probeRatio === undefined && s.vtRatio === undefined) {
+			[unit, quantity] = ['A', 'current'];
+		}
+	}
 	if (s.quantity !== undefined) {
 		quantity = s.quantity;
 		steps.push(`measures ${s.quantity}`);
