@@ -22,6 +22,7 @@ import { chooseReference } from './reference.js';
 import { channelResolution } from '../signal/code-step.js';
 import { fittedPairs, fittedPower, fitShortRecord, FITTED_NOTE } from './short-record.js';
 import { fittedChannel, fittedPeriods, markBelowResolution } from './short-record-channel.js';
+import { fittedThreePhase } from './short-record-three-phase.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
 import { channelSpectrum, planWindows, type ChannelSpectrum } from './spectra.js';
 import { REPORT_SCHEMA_VERSION, type AnalysisOptions, type AnalysisReport, type ReportChannel } from './types.js';
@@ -306,6 +307,11 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		const fp = fittedPower(capture, fitted, options.pairs);
 		report.power = fp.power;
 		assumptions.push(...fp.assumptions);
+		const three = fittedThreePhase(capture, ref.index, fitted, options.pairs);
+		report.threePhaseSets = three.sets;
+		report.threePhase = three.sets[0] ?? null;
+		report.neutral = three.neutral;
+		assumptions.push(...three.assumptions);
 	} else if (options.pairs && options.pairs.length > 0) {
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}

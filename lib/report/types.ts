@@ -327,6 +327,12 @@ export interface ReportThreePhase {
 	sequence: { zero: number; positive: number; negative: number };
 	/** Angles of the symmetrical components, degrees (extra detail). */
 	sequenceDeg: { zero: number; positive: number; negative: number };
+	/**
+	 * On a short record: one standard deviation of each sequence component's magnitude (an upper bound from
+	 * the fitted fundamentals' amplitude and phase deviations, channel unit) and of the unbalance, and the
+	 * 'from a fit' note.
+	 */
+	fit?: { sequenceUncertainty: number; unbalanceUncertaintyPercent: number; note: string };
 }
 
 export interface ReportLimitRow {
