@@ -34,7 +34,8 @@ function componentStd(amps: number[], ampStd: number[], phaseStd: number[]): num
 
 /**
  * The three-phase sets of a short record with the fit's uncertainty on U1, U2, U0 and the unbalance
- * (first-order: σ_u = 100·√((σ₂/U₁)² + (U₂·σ₁/U₁²)²)), and the neutral current from the fitted harmonics.
+ * (first-order: σ_u = 100·√((σ₂/U₁)² + (U₂·σ₁/U₁²)²), U₁ the dominant sequence, U₂ the other), and the
+ * neutral current from the fitted harmonics.
  */
 export function fittedThreePhase(
 	capture: Capture,
@@ -54,7 +55,11 @@ export function fittedThreePhase(
 			ampStd,
 			fitted.map((c) => c.phaseStdRad[1]),
 		);
-		const [u1, u2] = [set.sequence.positive, set.sequence.negative];
+		// unbalance is taken in the measured rotation: the minor sequence over the dominant one
+		const [u1, u2] = [
+			Math.max(set.sequence.positive, set.sequence.negative),
+			Math.min(set.sequence.positive, set.sequence.negative),
+		];
 		return {
 			...set,
 			fit: {

@@ -106,6 +106,9 @@ describe('analyseCapture: three-phase figures of a short record from the fit', (
 			const i = r.threePhaseSets.find((s) => s.quantity === 'current')!;
 			expect(i.rotation).toBe('negative');
 			expect(i.sequence.zero).toBeCloseTo(0, 3);
+			// balanced currents: unbalance 0 with an uncertainty as small as the fit's (taken against the dominant sequence)
+			expect(i.unbalancePercent).toBeCloseTo(0, 3);
+			expect(i.fit!.unbalanceUncertaintyPercent).toBeLessThan(0.01);
 			expect(r.neutral?.source).toBe('computed');
 			expect(r.neutral!.neutralRmsA).toBeCloseTo(6, 3);
 			expect(r.neutral!.fundamentalRmsA).toBeCloseTo(0, 3);
