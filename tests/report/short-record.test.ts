@@ -157,6 +157,19 @@ describe('analyseCapture short-record rules', () => {
 	});
 });
 
+describe('limits on a short record', () => {
+	it('applyLimits names the fitted harmonics as the basis, not the 10/12-cycle subgroups the record cannot have', () => {
+		// EN 50160 judges on IEC 61000-4-30 class A subgroups of 10/12-cycle windows (from memory): a one-cycle
+		// record has none, so the report must not claim them
+		const r = analyseCapture(scopeCapture(1.004, 1e6), { limits: 'en50160' });
+		expect(r.limits?.basis.kind).toBe('short-record-fit');
+		expect(r.limits?.basis.text).not.toMatch(/subgroups of 10\/12-cycle windows/);
+		expect(validate(reportToJson(r))).toBe(true);
+		const distortion = r.findings.find((f) => f.topic === 'distortion' && f.channel === 'U');
+		expect(distortion?.text).toMatch(/fitted over a short record/);
+	});
+});
+
 describe('fitted and whole-cycle paths agree where both apply', () => {
 	for (const cycles of [2, 2.5, 3]) {
 		it(`fitSharedSine over ${cycles} cycles agrees with analyseCapture's whole-cycle figures within 0.1 % (f, V1, I1, THD_I, lag)`, () => {
