@@ -6,7 +6,14 @@
  * Ref: Microsoft/IBM RIFF WAVE format, `fmt ` and `data` chunks (common practice; from memory).
  */
 import * as wavefileModule from 'wavefile';
-import { scaleRange, type Capture, type Channel, type Diagnostic, type Quantity } from '../capture.js';
+import {
+	scaleRange,
+	type Capture,
+	type Channel,
+	type ChannelRange,
+	type Diagnostic,
+	type Quantity,
+} from '../capture.js';
 import { ImportError } from './import-error.js';
 import { channelPhase, normaliseUnitText, quantityFromName } from '../channel-identity.js';
 
@@ -212,12 +219,7 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 					: 'normalised to full scale (no calibration)',
 			},
 		};
-		// an integer converter cannot give a value beyond its codes: full scale is the channel's range
-		if (!isFloat) {
-			const top = 2 ** (bitsPerSample - 1);
-			const raw = bitsPerSample === 8 ? { min: 0, max: 255 } : { min: -top, max: top - 1 };
-			ch.range = scaleRange({ ...raw, source: `the ${bitsPerSample}-bit WAV's full scale` }, factor, offset);
-		}
+		if (!isFloat) ch.range = fullScaleRange(bitsPerSample, factor, offset);
 		const ph = cal ? channelPhase(name, cal.phase) : undefined;
 		if (ph) ch.phase = ph;
 		if (!cal) uncalibrated.push(name);
@@ -246,6 +248,13 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 		if (v) metadata[`wav.${tag}`] = v;
 	}
 	return { source, sampleRateHz: sampleRate, startS: 0, channels, metadata, diagnostics };
+}
+
+/** An integer converter cannot give a value beyond its codes: full scale is the channel's range (8-bit codes 0 … 255 around 128). */
+function fullScaleRange(bits: number, factor: number, offset: number): ChannelRange {
+	const top = 2 ** (bits - 1);
+	const raw = bits === 8 ? { min: 0, max: 255 } : { min: -top, max: top - 1 };
+	return scaleRange({ ...raw, source: `the ${bits}-bit WAV's full scale` }, factor, offset);
 }
 
 function safeTag(wav: WaveFileLike, tag: string): string | null {

@@ -16,6 +16,18 @@ export const MIN_RECOMMENDED_CYCLES = 10;
 /** DC offsets above this fraction of the AC RMS get a 'dc-offset' warning (common practice: a few %). */
 export const DC_OFFSET_WARNING_RATIO = 0.05;
 
+/** What `signalWarnings` knows about a record besides its samples (see its parameters). */
+export interface SignalWarningInfo {
+	frequencyHz?: number;
+	cycles?: number;
+	maxOrder?: number;
+	nominalHz?: number;
+	peakAccuracyPercent?: number;
+	/** The range the file states for the channel, and the record's start time for the clipping sentence. */
+	range?: ChannelRange;
+	startS?: number;
+}
+
 /**
  * The warnings a careful engineer raises about a record before trusting its figures. Each is a
  * `Diagnostic` with severity 'warning', a kebab-case code and a sentence with the numbers in it:
@@ -54,20 +66,7 @@ export const DC_OFFSET_WARNING_RATIO = 0.05;
  * @example signalWarnings(sine 230 V 50 Hz at 1 kS/s for 0.1 s, 1000, { frequencyHz: 50, maxOrder: 40 })
  *   // [{ code: 'few-cycles', … }, { code: 'sample-rate-low-for-harmonics', message: '… highest order measurable is 9.' }]
  */
-export function signalWarnings(
-	samples: Float64Array,
-	sampleRateHz: number,
-	info: {
-		frequencyHz?: number;
-		cycles?: number;
-		maxOrder?: number;
-		nominalHz?: number;
-		peakAccuracyPercent?: number;
-		/** The range the file states for the channel, and the record's start time for the clipping sentence. */
-		range?: ChannelRange;
-		startS?: number;
-	},
-): Diagnostic[] {
+export function signalWarnings(samples: Float64Array, sampleRateHz: number, info: SignalWarningInfo): Diagnostic[] {
 	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
 		throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
 	const out: Diagnostic[] = [];

@@ -3,7 +3,7 @@
  * unit, SI unit, quantity, phase, and the scaling value = factor * raw + offset that turns the numbers
  * in the file into V or A. Every step taken is said in a Diagnostic.
  */
-import { scaleRange, type ChannelPhase, type ChannelRange, type Diagnostic, type Quantity } from '../../capture.js';
+import type { ChannelPhase, Diagnostic, Quantity } from '../../capture.js';
 import { channelPhase, quantityFromName, readUnit } from '../../channel-identity.js';
 import { settingsChain } from '../import-settings.js';
 import { minMaxOf } from './names.js';
@@ -18,8 +18,6 @@ export interface ChannelSetup {
 	offset: number;
 	/** Empty when the numbers are used as written. */
 	description: string;
-	/** The stated range, scaled like the values (absent when the file states none). */
-	range?: ChannelRange;
 	diagnostics: Diagnostic[];
 }
 
@@ -155,16 +153,5 @@ export function setUpChannel(col: CsvColumnLayout, layout: CsvLayout, options: C
 			`Channel "${name}" holds the ${mm.which}imum of "${mm.base}" per time step (a peak-detect export), not single samples.`,
 			'warning',
 		);
-	const range = s.range ? scaleRange(s.range, factor, offset) : undefined;
-	return {
-		name,
-		unit,
-		quantity,
-		phase,
-		factor,
-		offset,
-		description: steps.join(', '),
-		...(range ? { range } : {}),
-		diagnostics,
-	};
+	return { name, unit, quantity, phase, factor, offset, description: steps.join(', '), diagnostics };
 }
