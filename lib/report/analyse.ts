@@ -311,6 +311,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		report.threePhaseSets = three.sets;
 		report.threePhase = three.sets[0] ?? null;
 		report.neutral = three.neutral;
+		report.threePhasePower = three.power;
 		assumptions.push(...three.assumptions);
 	} else if (options.pairs && options.pairs.length > 0) {
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');

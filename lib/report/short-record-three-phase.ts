@@ -1,6 +1,6 @@
 /**
- * Three-phase figures of a short record: the sets (rotation, sequence components, unbalance) and the
- * neutral current from the phasors of the shared-frequency fit, each marked as fitted with its uncertainty.
+ * Three-phase figures of a short record: the sets (rotation, sequence components, unbalance), the
+ * neutral current and the IEEE 1459 three-phase power from the shared-frequency fit, each marked as fitted with its uncertainty.
  * The sets are found and computed by the same code as on whole cycles (`threePhaseSets`, which takes the
  * sequence components from lib/phasor); only the phasors and the uncertainties come from here.
  */
@@ -10,7 +10,8 @@ import { neutralCurrentFigures } from '../polyphase/neutral.js';
 import type { HarmonicSet } from '../spectrum/types.js';
 import { FITTED_NOTE, type ShortRecordResult } from './short-record.js';
 import { pairChannels, threePhaseSets } from './relations.js';
-import type { ReportNeutral, ReportThreePhase } from './types.js';
+import { threePhasePowerFromHarmonics, type ThreePhaseInputPhase } from '../power/three-phase.js';
+import type { ReportNeutral, ReportThreePhase, ReportThreePhasePower } from './types.js';
 
 /**
  * Each channel's fitted fundamental as an RMS phasor, turned so that the reference's lies at 0° (the same
@@ -42,7 +43,12 @@ export function fittedThreePhase(
 	refIndex: number,
 	r: ShortRecordResult,
 	overrides: Parameters<typeof pairChannels>[1],
-): { sets: ReportThreePhase[]; neutral: ReportNeutral | null; assumptions: string[] } {
+): {
+	sets: ReportThreePhase[];
+	neutral: ReportNeutral | null;
+	power: ReportThreePhasePower | null;
+	assumptions: string[];
+} {
 	const pairing = pairChannels(capture.channels, overrides);
 	const three = threePhaseSets(capture.channels, pairing.pairing, fittedFundamentals(r, refIndex));
 	const sets = three.sets.map((set, k): ReportThreePhase => {
@@ -77,7 +83,39 @@ export function fittedThreePhase(
 		neutral = fittedNeutral(capture, r, three.members[currentSet], measured);
 	}
 	// the pairing's own assumptions are said once, by the power step
-	return { sets, neutral, assumptions: three.assumptions };
+	return { sets, neutral, power: fittedThreePhasePower(capture, r, pairing.pairs), assumptions: three.assumptions };
+}
+
+/**
+ * IEEE 1459 three-phase figures of three V/I pairs labelled phases 1, 2, 3, from the fitted harmonic sets
+ * (orders up to the highest the record resolves; line voltages and neutral summed per order from them).
+ */
+function fittedThreePhasePower(
+	capture: Capture,
+	r: ShortRecordResult,
+	pairs: { voltage: number; current: number; phase: number | null }[],
+): ReportThreePhasePower | null {
+	const byPhase = [1, 2, 3].map((ph) => pairs.find((p) => p.phase === ph));
+	if (byPhase.some((p) => p === undefined)) return null;
+	const fitted = (i: number): HarmonicSet => ({
+		...r.sets[i],
+		orders: r.sets[i].orders.filter((o) => o.order <= r.fit.highestOrder),
+	});
+	const phases = byPhase.map((p) => ({ voltage: fitted(p!.voltage), current: fitted(p!.current) })) as [
+		ThreePhaseInputPhase,
+		ThreePhaseInputPhase,
+		ThreePhaseInputPhase,
+	];
+	const q = threePhasePowerFromHarmonics('4-wire', phases);
+	const figures: Record<string, number> = {};
+	for (const [k, x] of Object.entries(q)) if (typeof x === 'number') figures[k] = x;
+	return {
+		channels: byPhase.map((p) => [capture.channels[p!.voltage].name, capture.channels[p!.current].name]),
+		wiring: q.wiring,
+		sequenceOrder: q.sequenceOrder,
+		figures,
+		note: FITTED_NOTE,
+	};
 }
 
 /** RMS of a fitted set: √(Σ rms_h²) over its orders (dc included). */

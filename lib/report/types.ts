@@ -232,6 +232,8 @@ export interface ReportThreePhasePower {
 	sequenceOrder: string;
 	/** Every scalar IEEE 1459 three-phase figure, names with unit suffixes (effectiveApparentPowerVA, ...). */
 	figures: Record<string, number>;
+	/** On a short record: 'from a fit of a short record' (the figures come from the fitted harmonic sets). */
+	note?: string;
 }
 
 /** Neutral current of a three-phase current set: lib/polyphase's figures plus which channel measured it. */

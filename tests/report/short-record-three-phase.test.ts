@@ -7,10 +7,19 @@
  * rotation 'negative'. Currents: a balanced 10 A set in the same rotation with a 2 A 3rd in every phase,
  * whose 3rds add in the neutral (3 × 2 A = 6 A) while the fundamentals cancel.
  */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import Ajv2020 from 'ajv/dist/2020.js';
 import { describe, expect, it } from 'vitest';
+import { reportToJson } from '../../lib/report/to-json.js';
 import type { Capture, Channel, ChannelPhase, Quantity } from '../../lib/capture.js';
 import { analyseCapture } from '../../lib/report/analyse.js';
 import { gaussianNoise } from '../helpers/synth.js';
+
+const schema = JSON.parse(
+	readFileSync(join(import.meta.dirname, '..', '..', 'lib', 'report', 'report.schema.json'), 'utf8'),
+);
+const validate = new Ajv2020({ allErrors: true, strict: false }).compile(schema);
 
 const F = 50.2;
 const FS = 10_000;
@@ -113,6 +122,16 @@ describe('analyseCapture: three-phase figures of a short record from the fit', (
 			expect(r.neutral!.neutralRmsA).toBeCloseTo(6, 3);
 			expect(r.neutral!.fundamentalRmsA).toBeCloseTo(0, 3);
 			expect(r.neutral!.triplenRmsA).toBeCloseTo(6, 3);
+			// IEEE 1459 total active power: Σ_j |V_j|·|I_j|·cos(angle V_j − angle I_j) of the fundamentals (the
+			// voltages hold no 3rd, so the current's 3rd carries no power; closed form)
+			let p = 0;
+			for (let j = 0; j < 3; j++) {
+				const v = phaseOf(j, V0, V1, V2);
+				p += v.mag * 10 * Math.cos(rad(v.deg - (-30 + 120 * j)));
+			}
+			expect(r.threePhasePower?.note).toBe('from a fit of a short record');
+			expect(r.threePhasePower!.figures.activePowerW / p).toBeCloseTo(1, 5);
+			expect(validate(reportToJson(r)), JSON.stringify(validate.errors)).toBe(true);
 		});
 	}
 
