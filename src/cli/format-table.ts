@@ -245,16 +245,16 @@ export function formatReport(r: ReportJson): string[] {
 		const f = r.threePhasePower.figures;
 		out.push(
 			'',
-			`  three-phase power (IEEE 1459, ${r.threePhasePower.wiring}): P ${formatNumber(f.activePowerW)} W, S_e ${formatNumber(f.effectiveApparentPowerVA)} VA, ` +
+			`  three-phase power (IEEE 1459, ${r.threePhasePower.wiring}${r.threePhasePower.note ? `, ${r.threePhasePower.note}` : ''}): P ${formatNumber(f.activePowerW)} W, S_e ${formatNumber(f.effectiveApparentPowerVA)} VA, ` +
 				`PF_e ${fixed(f.effectivePowerFactor, 3)}; positive sequence P1+ ${formatNumber(f.positiveSequenceActivePowerW)} W, Q1+ ${formatNumber(f.positiveSequenceReactivePowerVar)} var, PF1+ ${fixed(f.positiveSequencePowerFactor, 3)}`,
 		);
 	}
-	if (r.neutral) out.push('', `  neutral: ${r.neutral.sentence}`);
+	if (r.neutral) out.push('', `  neutral${r.shortRecord ? ` (${r.shortRecord.note})` : ''}: ${r.neutral.sentence}`);
 	for (const t of r.threePhaseSets) {
 		const kind = t.connection === 'line-to-line' ? 'line-to-line voltages' : `${t.quantity}s`;
 		out.push(
 			'',
-			`  three-phase ${kind} ${t.channels.join(', ')}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`,
+			`  three-phase ${kind} ${t.channels.join(', ')}${t.fit ? ` (${t.fit.note}; ± in the block above)` : ''}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`,
 		);
 		out.push(
 			t.quantity === 'voltage'
