@@ -42,6 +42,27 @@ export interface Channel {
 	samples: Float64Array;
 	/** How raw values became `samples` (value = factor * raw + offset), for the report. Omitted if none. */
 	scaling?: { factor: number; offset: number; description: string };
+	/**
+	 * The range the file states for the channel (a scope's vertical range, a COMTRADE channel's min and max,
+	 * an integer WAV's full scale), in `unit` after all scaling; flat runs at its limits are clipping.
+	 * Omitted when the file states none.
+	 */
+	range?: ChannelRange;
+}
+
+/** A channel's stated range: the lowest and highest values its converter or recorder can give, in the channel's unit. */
+export interface ChannelRange {
+	min: number;
+	max: number;
+	/** Where it was stated, in words ('the preamble's "Vertical Range"', 'the .cfg's min and max', ...). */
+	source: string;
+}
+
+/** The range after value = factor · raw + offset (a negative factor swaps the limits). */
+export function scaleRange(range: ChannelRange, factor: number, offset: number): ChannelRange {
+	const a = factor * range.min + offset;
+	const b = factor * range.max + offset;
+	return { min: Math.min(a, b), max: Math.max(a, b), source: range.source };
 }
 
 /** A binary status channel (COMTRADE digital), kept as it was recorded. */

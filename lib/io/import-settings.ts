@@ -5,7 +5,7 @@
  * COMTRADE capture after reading. Every applied setting becomes a diagnostic and goes on the channel's
  * scaling; a setting naming a channel the capture does not have is an error, never ignored.
  */
-import type { Capture, Channel, Diagnostic, Quantity } from '../capture.js';
+import { scaleRange, type Capture, type Channel, type Diagnostic, type Quantity } from '../capture.js';
 import { normaliseUnitText } from '../channel-identity.js';
 import type { CsvChannelOptions } from './csv/types.js';
 import { ImportError } from './import-error.js';
@@ -67,6 +67,14 @@ export function settingsChain(s: ChannelSettings): {
 		ratio(1 / s.shuntOhms, `shunt ${s.shuntOhms} ohm:`);
 		[unit, quantity] = ['A', 'current'];
 	}
+	// a voltage probe or VT ratio makes a voltage, a CT a current (a clamp or shunt did so above), as in the CSV reader
+	if (s.clampMvPerA === undefined && s.shuntOhms === undefined) {
+		if ((s.probeRatio !== undefined || s.vtRatio !== undefined) && s.ctRatio === undefined) {
+			[unit, quantity] = ['V', 'voltage'];
+		} else if (s.ctRatio !== undefined && s.probeRatio === undefined && s.vtRatio === undefined) {
+			[unit, quantity] = ['A', 'current'];
+		}
+	}
 	if (s.quantity !== undefined) {
 		quantity = s.quantity;
 		steps.push(`measures ${s.quantity}`);
@@ -119,7 +127,8 @@ function applyToChannel(c: Channel, s: ChannelSettings, diagnostics: Diagnostic[
 		offset: before.offset * chain.factor + chain.offset,
 		description: [before.description, what].filter(Boolean).join('; '),
 	};
-	return { ...c, samples, unit, quantity, scaling };
+	const range = c.range ? { range: scaleRange(c.range, chain.factor, chain.offset) } : {};
+	return { ...c, samples, unit, quantity, scaling, ...range };
 }
 
 /**

@@ -6,7 +6,14 @@
  * Ref: Microsoft/IBM RIFF WAVE format, `fmt ` and `data` chunks (common practice; from memory).
  */
 import * as wavefileModule from 'wavefile';
-import type { Capture, Channel, Diagnostic, Quantity } from '../capture.js';
+import {
+	scaleRange,
+	type Capture,
+	type Channel,
+	type ChannelRange,
+	type Diagnostic,
+	type Quantity,
+} from '../capture.js';
 import { ImportError } from './import-error.js';
 import { channelPhase, normaliseUnitText, quantityFromName } from '../channel-identity.js';
 
@@ -248,7 +255,7 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 		{
 			code: 'wav-format',
 			severity: 'info',
-			message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples.`,
+			message: `WAV: ${numChannels} channel(s), ${sampleRate} Hz, ${bitsPerSample}-bit ${isFloat ? 'float' : 'integer'} samples${isFloat ? '' : "; full scale is each channel's range, so flat runs at it are taken as clipping"}.`,
 		},
 	];
 	const blockBytes = (numChannels * bitsPerSample) / 8;
@@ -267,6 +274,7 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 	for (let c = 0; c < numChannels; c++) {
 		const cal = calibration[c];
 		const ch = wavChannel(interleaved, c, frames, numChannels, code, cal, source);
+		if (!isFloat && ch.scaling) ch.range = fullScaleRange(bitsPerSample, ch.scaling.factor, ch.scaling.offset);
 		if (!cal) uncalibrated.push(ch.name);
 		else
 			diagnostics.push({
@@ -284,6 +292,13 @@ export function parseWav(bytes: Uint8Array, source: string, options: WavOptions 
 		});
 	}
 	return { source, sampleRateHz: sampleRate, startS: 0, channels, metadata: wavMetadata(wav), diagnostics };
+}
+
+/** An integer converter cannot give a value beyond its codes: full scale is the channel's range (8-bit codes 0 … 255 around 128). */
+function fullScaleRange(bits: number, factor: number, offset: number): ChannelRange {
+	const top = 2 ** (bits - 1);
+	const raw = bits === 8 ? { min: 0, max: 255 } : { min: -top, max: top - 1 };
+	return scaleRange({ ...raw, source: `the ${bits}-bit WAV's full scale` }, factor, offset);
 }
 
 function safeTag(wav: WaveFileLike, tag: string): string | null {

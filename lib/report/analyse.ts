@@ -22,6 +22,7 @@ import { chooseReference } from './reference.js';
 import { channelResolution } from '../signal/code-step.js';
 import { fittedPairs, fittedPower, fitShortRecord, FITTED_NOTE } from './short-record.js';
 import { fittedChannel, fittedPeriods, markBelowResolution } from './short-record-channel.js';
+import { fittedThreePhase } from './short-record-three-phase.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
 import { channelSpectrum, planWindows, type ChannelSpectrum } from './spectra.js';
 import { REPORT_SCHEMA_VERSION, type AnalysisOptions, type AnalysisReport, type ReportChannel } from './types.js';
@@ -129,13 +130,13 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	);
 
 	const wholeRecord: ReportChannel[] = capture.channels.map((c, i) => {
-		const figs = waveformFigures(
-			c.samples,
-			fs,
-			window && span === 'whole-cycles'
+		const figs = waveformFigures(c.samples, fs, {
+			...(window && span === 'whole-cycles'
 				? { span, window, nominalHz, maxOrder }
-				: { span: 'whole-record', frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder },
-		);
+				: { span: 'whole-record' as const, frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder }),
+			range: c.range,
+			startS: capture.startS,
+		});
 		const own =
 			i === ref.index && window
 				? { ok: true as const, frequencyHz: window.frequencyHz }
@@ -210,7 +211,12 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	});
 	const channels = wholeRecord.map((c, i) =>
 		markBelowResolution(
-			fitted ? fittedChannel(c, capture.channels[i].samples, fs, fitted, i, nominalHz, maxOrder) : c,
+			fitted
+				? fittedChannel(c, capture.channels[i].samples, fs, fitted, i, nominalHz, maxOrder, {
+						range: capture.channels[i].range,
+						startS: capture.startS,
+					})
+				: c,
 			resolutions[i],
 		),
 	);
@@ -301,6 +307,12 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		const fp = fittedPower(capture, fitted, options.pairs);
 		report.power = fp.power;
 		assumptions.push(...fp.assumptions);
+		const three = fittedThreePhase(capture, ref.index, fitted, options.pairs);
+		report.threePhaseSets = three.sets;
+		report.threePhase = three.sets[0] ?? null;
+		report.neutral = three.neutral;
+		report.threePhasePower = three.power;
+		assumptions.push(...three.assumptions);
 	} else if (options.pairs && options.pairs.length > 0) {
 		warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}

@@ -60,7 +60,7 @@ function distortion(report: AnalysisReport, ch: ReportChannel, w: NumberWords): 
 	const table = `the ${LIMIT_TABLE_NAMES[limits.table]} limits`;
 	const what = (r: (typeof rows)[number]) =>
 		r.figure === 'harmonic' ? `${ordinal(r.order)} harmonic` : r.figure.toUpperCase();
-	const on = ` (on ${limits.basis.kind === 'single-bins' ? 'single DFT bins' : 'harmonic subgroups'})`;
+	const on = ` (on ${limits.basis.kind === 'single-bins' ? 'single DFT bins' : limits.basis.kind === 'short-record-fit' ? 'harmonics fitted over a short record' : 'harmonic subgroups'})`;
 	const over = rows.filter((r) => !r.pass).sort((a, b) => a.margin - b.margin);
 	if (over.length === 0) {
 		const share = (r: (typeof rows)[number]) => (r.limit > 0 ? r.value / r.limit : -Infinity);

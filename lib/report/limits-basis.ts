@@ -14,7 +14,7 @@ import type { ReportLimitTableId } from './types.js';
 export type ReportHarmonicBasis = 'standard' | 'single-bins';
 
 export interface ReportLimitBasis {
-	kind: 'harmonic-subgroups' | 'single-bins';
+	kind: 'harmonic-subgroups' | 'single-bins' | 'short-record-fit';
 	/** The basis in words, with the standard that sets it. */
 	text: string;
 }
@@ -39,3 +39,12 @@ export function limitBasis(table: ReportLimitTableId, basis: ReportHarmonicBasis
 		};
 	return BASIS[table];
 }
+
+/**
+ * The basis on a short record (under two whole cycles): the fitted harmonics, with neither 10/12-cycle
+ * windows nor subgroups to judge on; said so, since the tables' standards assume them.
+ */
+export const SHORT_RECORD_BASIS: ReportLimitBasis = {
+	kind: 'short-record-fit',
+	text: "harmonics fitted over a short record (no 10/12-cycle windows or subgroups as the table's standard assumes: an indication only)",
+};

@@ -6,7 +6,7 @@ import { evaluateLimits, LIMIT_TABLES } from '../limits/evaluate.js';
 import { evaluateFlickerLimits, type FlickerLimitTableId, type FlickerMeasured } from '../limits/flicker.js';
 import type { LimitEvaluation } from '../limits/types.js';
 import { reportFindings } from './findings.js';
-import { limitBasis } from './limits-basis.js';
+import { limitBasis, SHORT_RECORD_BASIS } from './limits-basis.js';
 import type { ReportFlicker, ReportFlickerChannel } from './flicker-report.js';
 import type {
 	AnalysisOptions,
@@ -125,7 +125,7 @@ function ieee519CurrentEvaluation(
 export function limitsReport(report: AnalysisReport, options: AnalysisOptions): ReportLimits {
 	const id = options.limits!;
 	const table = LIMIT_TABLES[id];
-	const basis = limitBasis(id, options.harmonicBasis ?? 'standard');
+	const basis = report.shortRecord ? SHORT_RECORD_BASIS : limitBasis(id, options.harmonicBasis ?? 'standard');
 	const singleBins = basis.kind === 'single-bins';
 	const notes: string[] = [];
 	const rows: ReportLimitRow[] = [];

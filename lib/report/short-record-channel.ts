@@ -4,6 +4,7 @@
  * record, harmonics under the channel's rounding floor marked as below resolution.
  */
 import { meterModel, shapeFigures } from './meter.js';
+import type { ChannelRange } from '../capture.js';
 import type { CycleWindow } from '../signal/cycles.js';
 import type { ChannelResolution } from '../signal/code-step.js';
 import { waveformFigures } from '../signal/levels.js';
@@ -26,6 +27,7 @@ export function fittedPeriods(n: number, sampleRateHz: number, frequencyHz: numb
  * periods (mean, RMS, rectified mean, form factor, meter error need whole periods); under one period the
  * mean and RMS come from the fit (dc and Σ A_h²/2) and rectified mean, form and crest factor and the meter
  * error are withheld (NaN). Harmonics 0…maxOrder, THD_F/THD_R and K-factor to the highest fitted order.
+ * @param stated  the channel's stated range and the record's start time, for the clipping warning
  */
 export function fittedChannel(
 	base: ReportChannel,
@@ -35,17 +37,18 @@ export function fittedChannel(
 	index: number,
 	nominalHz: number | undefined,
 	maxOrder: number,
+	stated: { range?: ChannelRange; startS: number } = { startS: 0 },
 ): ReportChannel {
 	const set = r.sets[index];
 	const fitted = r.fit.channels[index];
 	const window = fittedPeriods(samples.length, sampleRateHz, r.fit.frequencyHz);
-	const figs = waveformFigures(
-		samples,
-		sampleRateHz,
-		window
-			? { span: 'whole-cycles', window, nominalHz, maxOrder }
-			: { span: 'whole-record', frequencyHz: r.fit.frequencyHz, nominalHz, maxOrder },
-	);
+	const figs = waveformFigures(samples, sampleRateHz, {
+		...(window
+			? { span: 'whole-cycles' as const, window, nominalHz, maxOrder }
+			: { span: 'whole-record' as const, frequencyHz: r.fit.frequencyHz, nominalHz, maxOrder }),
+		range: stated.range,
+		startS: stated.startS,
+	});
 	const rmsByOrder = set.orders.map((o) => (Number.isNaN(o.rms) ? 0 : o.rms));
 	const thdOrder = Math.min(maxOrder, 50, r.fit.highestOrder);
 	const h1 = set.orders[1].rms;
@@ -92,13 +95,14 @@ export function fittedChannel(
 }
 
 /**
- * Marks every harmonic (order ≥ 1) under the channel's rounding floor as below resolution. The figures stay
- * (THD, K-factor, limits and the next steps sum them as measured); every front end shows the words
- * "below resolution" in their place.
+ * Marks every harmonic (order ≥ 1) under the channel's rounding floor as below resolution, with the floor
+ * as its upper bound. The figures stay in memory (THD, K-factor, limits and the next steps sum them as
+ * measured); the JSON gives null in their place and every front end shows the words "below resolution".
  */
 export function markBelowResolution(channel: ReportChannel, resolution: ChannelResolution | undefined): ReportChannel {
 	if (!resolution) return { ...channel, resolution: null };
 	const floor = resolution.harmonicFloorRms;
+	const fundamental = channel.harmonics[1]?.rms ?? NaN;
 	return {
 		...channel,
 		resolution: {
@@ -108,6 +112,15 @@ export function markBelowResolution(channel: ReportChannel, resolution: ChannelR
 			noiseRms: resolution.noiseRms,
 			harmonicFloorRms: floor,
 		},
-		harmonics: channel.harmonics.map((h) => (h.order >= 1 && h.rms < floor ? { ...h, belowResolution: true } : h)),
+		harmonics: channel.harmonics.map((h) =>
+			h.order >= 1 && h.rms < floor
+				? {
+						...h,
+						belowResolution: true,
+						rmsUpperBound: floor,
+						percentOfFundamentalUpperBound: fundamental > 0 ? (100 * floor) / fundamental : NaN,
+					}
+				: h,
+		),
 	};
 }

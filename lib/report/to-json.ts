@@ -22,7 +22,8 @@ export type ReportJsonValue = null | boolean | number | string | ReportJsonValue
 
 /**
  * Plain-object copy of an analysis report for JSON: every non-finite number (NaN, ±Infinity) becomes
- * `null`, typed arrays become arrays, `undefined` fields are dropped. The input is not mutated.
+ * `null`, typed arrays become arrays, `undefined` fields are dropped; a harmonic below the channel's
+ * resolution carries null instead of figures, and its upper bound. The input is not mutated.
  *
  * Why null: JSON has no NaN; `null` is what `JSON.stringify` writes for it anyway, and the schema
  * declares each figure as `number | null` so a reader knows "the data could not give this".
@@ -30,7 +31,17 @@ export type ReportJsonValue = null | boolean | number | string | ReportJsonValue
  * @example reportToJson(analyseCapture(capture)).channels[0].rms // 230.43 (V), or null
  */
 export function reportToJson(report: AnalysisReport): ReportJson {
-	return reportValueToJson(report) as unknown as ReportJson;
+	const json = reportValueToJson(report) as unknown as ReportJson;
+	for (const c of json.channels) c.harmonics = c.harmonics.map(unmeasuredBelowResolution);
+	return json;
+}
+
+/**
+ * A harmonic under the channel's rounding floor is not a measurement: its RMS, percentage and phase become
+ * null and `rmsUpperBound` / `percentOfFundamentalUpperBound` (the floor) say how large it can be at most.
+ */
+function unmeasuredBelowResolution(h: ReportJson['channels'][number]['harmonics'][number]) {
+	return h.belowResolution === true ? { ...h, rms: null, percentOfFundamental: null, phaseDeg: null } : h;
 }
 
 /** Recursive worker of `reportToJson`, exported for the other plain objects a front end serialises. */

@@ -89,8 +89,15 @@ export interface ReportHarmonic {
 	percentOfFundamental: number;
 	/** Absolute phase, degrees, cosine reference, relative to the start of the analysis window; NaN when rms is 0. */
 	phaseDeg: number;
-	/** True when the order's RMS is under the channel's rounding floor (`ReportResolution`): front ends show "below resolution" instead of the number. */
+	/**
+	 * True when the order's RMS is under the channel's rounding floor (`ReportResolution`): front ends show
+	 * "below resolution" instead of the number. In memory the figures stay (THD, K-factor, limits and the
+	 * next steps sum them); in JSON `rms`, `percentOfFundamental` and `phaseDeg` are null (see `reportToJson`).
+	 */
 	belowResolution?: boolean;
+	/** With `belowResolution`: the floor, an upper bound on the order's RMS (channel unit) and as % of the fundamental. */
+	rmsUpperBound?: number;
+	percentOfFundamentalUpperBound?: number;
 }
 
 /** A channel's code step and what it implies (absent when its values show no common step). */
@@ -225,6 +232,8 @@ export interface ReportThreePhasePower {
 	sequenceOrder: string;
 	/** Every scalar IEEE 1459 three-phase figure, names with unit suffixes (effectiveApparentPowerVA, ...). */
 	figures: Record<string, number>;
+	/** On a short record: 'from a fit of a short record' (the figures come from the fitted harmonic sets). */
+	note?: string;
 }
 
 /** Neutral current of a three-phase current set: lib/polyphase's figures plus which channel measured it. */
@@ -320,6 +329,12 @@ export interface ReportThreePhase {
 	sequence: { zero: number; positive: number; negative: number };
 	/** Angles of the symmetrical components, degrees (extra detail). */
 	sequenceDeg: { zero: number; positive: number; negative: number };
+	/**
+	 * On a short record: one standard deviation of each sequence component's magnitude (an upper bound from
+	 * the fitted fundamentals' amplitude and phase deviations, channel unit) and of the unbalance, and the
+	 * 'from a fit' note.
+	 */
+	fit?: { sequenceUncertainty: number; unbalanceUncertaintyPercent: number; note: string };
 }
 
 export interface ReportLimitRow {

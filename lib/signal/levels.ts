@@ -1,4 +1,4 @@
-import type { Diagnostic } from '../capture.js';
+import type { ChannelRange, Diagnostic } from '../capture.js';
 import { findWholeCycles, type CycleWindow } from './cycles.js';
 import { signalWarnings } from './warnings.js';
 import { extremaIn, windowIntegral, type InnerSum } from './window-integral.js';
@@ -117,6 +117,9 @@ export function waveformFigures(
 		nominalHz?: number;
 		maxOrder?: number;
 		peakAccuracyPercent?: number;
+		/** The range the file states and the first sample's time, for the clipping warning (see `signalWarnings`). */
+		range?: ChannelRange;
+		startS?: number;
 	} = {},
 ): WaveformFigures {
 	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
@@ -171,6 +174,8 @@ export function waveformFigures(
 			nominalHz: opts.nominalHz,
 			maxOrder: opts.maxOrder,
 			peakAccuracyPercent: opts.peakAccuracyPercent,
+			range: opts.range,
+			startS: opts.startS,
 		}),
 	);
 	const span = cycleWindow ? 'whole-cycles' : 'whole-record';

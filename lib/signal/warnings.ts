@@ -1,6 +1,7 @@
-import type { Diagnostic } from '../capture.js';
+import type { ChannelRange, Diagnostic } from '../capture.js';
 import { fmt } from './format.js';
 import { runShowsSlopeBreak } from './clip-check.js';
+import { rangeClippingMessage } from './clip-range.js';
 import { windowIntegral } from './window-integral.js';
 
 /** IEC 61000-4-30 power-frequency measurement ranges, Hz (docs/methods.md §3.3; from memory). */
@@ -29,7 +30,8 @@ export const DC_OFFSET_WARNING_RATIO = 0.05;
  *   amplitude would show at this quantisation step and rate, and met by the wave at a slope break (the
  *   flanks, continued smoothly, would pass the run's level: `clip-check.ts`), so the slow crest of an
  *   8-bit record at a high rate is not taken for a clip (a square wave or a stepped inverter output can
- *   trigger it too: judge from the plot);
+ *   trigger it too: judge from the plot); when `info.range` (the range the file states) is given, only
+ *   flat runs at its limits are clipping, quoted with their count, samples and place (`clip-range.ts`);
  * - 'dc-offset': |mean| above 5 % of the AC RMS (over whole periods from the first sample when the
  *   frequency is known, else the whole record);
  * - 'frequency-out-of-range': f1 outside 42.5–57.5 Hz (50 Hz systems) or 51–69 Hz (60 Hz systems), the
@@ -46,6 +48,8 @@ export const DC_OFFSET_WARNING_RATIO = 0.05;
  * @param info.maxOrder  highest harmonic order the user asked for
  * @param info.nominalHz  nominal system frequency (50 or 60 select the range; others skip the range check)
  * @param info.peakAccuracyPercent  accuracy wanted on peak values, %
+ * @param info.range  the range the file states for the channel (clipping is then judged at its limits only)
+ * @param info.startS  time of the first sample, s (places the first clipped run; default 0)
  * @returns warnings, possibly none
  * @example signalWarnings(sine 230 V 50 Hz at 1 kS/s for 0.1 s, 1000, { frequencyHz: 50, maxOrder: 40 })
  *   // [{ code: 'few-cycles', … }, { code: 'sample-rate-low-for-harmonics', message: '… highest order measurable is 9.' }]
@@ -66,7 +70,9 @@ export function signalWarnings(samples: Float64Array, sampleRateHz: number, info
 	const f1 = f ?? (info.nominalHz !== undefined && info.nominalHz > 0 ? info.nominalHz : undefined);
 	if (f1 !== undefined) sampleRateWarnings(sampleRateHz, f1, info, warn);
 	if (allFinite && n > 0) {
-		const clip = clippingWarning(samples, f === undefined ? undefined : sampleRateHz / f);
+		const clip = info.range
+			? rangeClippingMessage(samples, info.range, sampleRateHz, info.startS ?? 0)
+			: clippingWarning(samples, f === undefined ? undefined : sampleRateHz / f);
 		if (clip) warn('clipping', clip);
 		const dc = dcOffsetWarning(samples, f === undefined ? undefined : sampleRateHz / f);
 		if (dc) warn('dc-offset', dc);
@@ -82,7 +88,13 @@ export interface WarningInfo {
 	maxOrder?: number;
 	nominalHz?: number;
 	peakAccuracyPercent?: number;
+	/** The range the file states for the channel, and the record's start time for the clipping sentence. */
+	range?: ChannelRange;
+	startS?: number;
 }
+
+/** The name the scope-capture work gave this shape; the same interface. */
+export type SignalWarningInfo = WarningInfo;
 
 type Warn = (code: string, message: string) => void;
 

@@ -35,6 +35,14 @@ export function fitLines(r: ReportJson): string[] {
 			`    ${p.other} ${p.lagDeg >= 0 ? 'lags' : 'leads'} ${p.ref} by ${withUncertainty(Math.abs(p.lagDeg), p.fit.lagDegUncertainty, 'deg')} (${withUncertainty(Math.abs(p.lagS) * 1000, (p.fit.lagSUncertainty ?? NaN) * 1000, 'ms')})`,
 		);
 	}
+	for (const t of r.threePhaseSets) {
+		if (!t.fit) continue;
+		const sd = t.fit.sequenceUncertainty;
+		const unit = t.quantity === 'voltage' ? 'V' : 'A';
+		out.push(
+			`    ${t.channels.join(', ')}: positive ${withUncertainty(t.sequence.positive, sd, unit)}, negative ${withUncertainty(t.sequence.negative, sd, unit)}, zero ${withUncertainty(t.sequence.zero, sd, unit)}; unbalance ${withUncertainty(t.unbalancePercent, t.fit.unbalanceUncertaintyPercent, '%')}; rotation ${t.rotation ?? 'not clear'}`,
+		);
+	}
 	for (const p of r.power) {
 		if (!p.fit) continue;
 		out.push(

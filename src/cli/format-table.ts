@@ -151,8 +151,10 @@ export function formatReport(r: ReportJson): string[] {
 	const out: string[] = [];
 	out.push(r.file);
 	const ref = r.referenceChannel ?? 'n/a';
+	// a short record: every fitted figure below says so; its uncertainties are in the block 'from a fit of a short record'
+	const fitted = r.shortRecord ? ` (${r.shortRecord.note}; ± in the block below)` : '';
 	out.push(
-		`  ${fixed(r.frequencyHz, 3)} Hz on ${ref}; ${r.cyclesAnalysed} whole cycles analysed ` +
+		`  ${fixed(r.frequencyHz, 3)} Hz${r.shortRecord ? ' (fitted)' : ''} on ${ref}; ${r.cyclesAnalysed} whole cycles analysed ` +
 			`(${fixed(r.window.startS, 4)}-${fixed(r.window.endS, 4)} s of ${formatNumber(r.durationS)} s) at ${formatNumber(r.sampleRateHz)} samples/s`,
 	);
 	if ((r.findings ?? []).length > 0) {
@@ -172,7 +174,9 @@ export function formatReport(r: ReportJson): string[] {
 			`  figures over the whole analysed span${iv ? ` (whole record; per-interval rows: ${iv.count} intervals of ${iv.intervalCycles} cycles)` : ''}:`,
 			...table(rows),
 		);
-		out.push('', '  largest harmonics:');
+		if (r.shortRecord)
+			out.push(`  frequency, fundamental RMS, THD and K-factor above are ${r.shortRecord.note} (± in the block below)`);
+		out.push('', `  largest harmonics${fitted}:`);
 		for (const c of r.channels) out.push(`    ${c.name}: ${topHarmonics(c, 5)}`);
 		// Only channels whose cycles differ by more than 2 %: on a steady wave the "worst" cycle is rounding.
 		const worst = r.channels.filter((c) => {
@@ -209,7 +213,7 @@ export function formatReport(r: ReportJson): string[] {
 		}
 	}
 	if (r.pairs.length > 0) {
-		out.push('', '  phase against the reference:');
+		out.push('', `  phase against the reference${fitted}:`);
 		for (const p of r.pairs) {
 			if (p.lagDeg === null) {
 				out.push(`    ${p.other} vs ${p.ref}: no common fundamental`);
@@ -221,7 +225,7 @@ export function formatReport(r: ReportJson): string[] {
 		}
 	}
 	if (r.power.length > 0) {
-		out.push('', '  power (IEEE 1459):');
+		out.push('', `  power (IEEE 1459)${fitted}:`);
 		const rows = [['pair', 'P W', 'S VA', 'Q1 var', 'PF', 'DPF']];
 		for (const p of r.power) {
 			rows.push([
@@ -241,16 +245,16 @@ export function formatReport(r: ReportJson): string[] {
 		const f = r.threePhasePower.figures;
 		out.push(
 			'',
-			`  three-phase power (IEEE 1459, ${r.threePhasePower.wiring}): P ${formatNumber(f.activePowerW)} W, S_e ${formatNumber(f.effectiveApparentPowerVA)} VA, ` +
+			`  three-phase power (IEEE 1459, ${r.threePhasePower.wiring}${r.threePhasePower.note ? `, ${r.threePhasePower.note}` : ''}): P ${formatNumber(f.activePowerW)} W, S_e ${formatNumber(f.effectiveApparentPowerVA)} VA, ` +
 				`PF_e ${fixed(f.effectivePowerFactor, 3)}; positive sequence P1+ ${formatNumber(f.positiveSequenceActivePowerW)} W, Q1+ ${formatNumber(f.positiveSequenceReactivePowerVar)} var, PF1+ ${fixed(f.positiveSequencePowerFactor, 3)}`,
 		);
 	}
-	if (r.neutral) out.push('', `  neutral: ${r.neutral.sentence}`);
+	if (r.neutral) out.push('', `  neutral${r.shortRecord ? ` (${r.shortRecord.note})` : ''}: ${r.neutral.sentence}`);
 	for (const t of r.threePhaseSets) {
 		const kind = t.connection === 'line-to-line' ? 'line-to-line voltages' : `${t.quantity}s`;
 		out.push(
 			'',
-			`  three-phase ${kind} ${t.channels.join(', ')}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`,
+			`  three-phase ${kind} ${t.channels.join(', ')}${t.fit ? ` (${t.fit.note}; ± in the block above)` : ''}: ${t.rotationSentence ?? `${t.rotation ?? 'unknown'} rotation`}`,
 		);
 		out.push(
 			t.quantity === 'voltage'

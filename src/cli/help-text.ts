@@ -19,7 +19,7 @@ export const ANALYSE_EXAMPLES: string[] = [
 	'# load currents against IEEE 519 with ISC/IL = 35 and maximum demand current 120 A',
 	'sinecheck analyse drive.cfg --limits ieee519 --isc-il 35 --il 120 --nominal 400',
 	'# raw probe voltages: x100 probe on U1, clamp giving 10 mV per A on I1, file without a time column at 10 kS/s',
-	'sinecheck analyse scope.csv --scale U1=100 --scale I1=100 --unit I1=A --rate 10000',
+	'sinecheck analyse scope.csv --probe U1=x100 --clamp I1=10 --rate 10000',
 	'# phase of every channel against I1, on 12-cycle windows of a 60 Hz supply',
 	'sinecheck analyse motor.csv --ref I1 --window 12 --nominal-hz 60',
 	'# pair U2 with I3 for power when the labels do not say so',

@@ -1,5 +1,5 @@
 /**
- * The command line's import options as lib/io's reader options: --rate, --scale, --unit and --quantity
+ * The command line's import options as lib/io's reader options: --rate, --scale, --probe, --clamp, --unit and --quantity
  * become lib/io's import settings, which lib/io/open.ts applies to every format (CSV while it reads,
  * WAV and COMTRADE afterwards), each step reported as a diagnostic; the CSV layout options go to the CSV
  * reader, --secondary to the COMTRADE reader. A setting naming a channel the file does not have is an
@@ -12,10 +12,14 @@ import type { ImportSettings } from './options.js';
 /** Reader options for the command line's settings. */
 export function importOptionsFrom(s: ImportSettings): OpenOptions {
 	const channels: Record<string, ChannelSettings> = {};
-	const names = new Set([...Object.keys(s.scale), ...Object.keys(s.unit), ...Object.keys(s.quantity)]);
+	const probe = s.probe ?? {};
+	const clamp = s.clamp ?? {};
+	const names = new Set([s.scale, s.unit, s.quantity, probe, clamp].flatMap((m) => Object.keys(m)));
 	for (const name of names) {
 		const o: ChannelSettings = {};
 		if (s.scale[name] !== undefined) o.scale = s.scale[name];
+		if (probe[name] !== undefined) o.probeRatio = probe[name];
+		if (clamp[name] !== undefined) o.clampMvPerA = clamp[name];
 		if (s.unit[name] !== undefined) o.unit = s.unit[name];
 		if (s.quantity[name] !== undefined) o.quantity = s.quantity[name];
 		channels[name] = o;

@@ -62,6 +62,16 @@ cli
 		'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable',
 		{ type: [String] },
 	)
+	.option(
+		'--probe <channel=ratio>',
+		"A voltage probe's attenuation on a channel (x10, x100): multiplies it and makes it a voltage; repeatable",
+		{ type: [String] },
+	)
+	.option(
+		'--clamp <channel=mV/A>',
+		"A current clamp's output on a channel in mV per A: divides by it and makes it a current in A; repeatable",
+		{ type: [String] },
+	)
 	.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
 	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', {
 		type: [String],
@@ -153,6 +163,16 @@ cli
 		'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable',
 		{ type: [String] },
 	)
+	.option(
+		'--probe <channel=ratio>',
+		"A voltage probe's attenuation on a channel (x10, x100): multiplies it and makes it a voltage; repeatable",
+		{ type: [String] },
+	)
+	.option(
+		'--clamp <channel=mV/A>',
+		"A current clamp's output on a channel in mV per A: divides by it and makes it a current in A; repeatable",
+		{ type: [String] },
+	)
 	.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
 	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', {
 		type: [String],
@@ -168,6 +188,8 @@ cli
 		const settings = settingsFromOptions({
 			rate: options.rate,
 			scale: options.scale,
+			probe: options.probe,
+			clamp: options.clamp,
 			unit: options.unit,
 			quantity: options.quantity,
 		}).import;

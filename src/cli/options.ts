@@ -16,6 +16,10 @@ export interface ImportSettings {
 	unit: Record<string, string>;
 	/** channel name -> quantity. */
 	quantity: Record<string, 'voltage' | 'current' | 'other'>;
+	/** channel name -> voltage probe attenuation (x100 probe: 100); makes the channel a voltage. */
+	probe?: Record<string, number>;
+	/** channel name -> current clamp sensitivity, mV per A; makes the channel a current in A. */
+	clamp?: Record<string, number>;
 	/** CSV layout overrides (every detection of the CSV reader can be overridden). */
 	delimiter?: ',' | ';' | '\t' | ' ';
 	decimalMark?: '.' | ',';
@@ -65,12 +69,14 @@ function positiveNumber(option: string, value: unknown, what: string): number | 
 	return x;
 }
 
+const EXAMPLE_VALUE: Record<string, string> = { scale: '100', unit: 'V', probe: 'x100', clamp: '100' };
+
 function assignments(option: string, value: unknown, what: string): [string, string][] {
 	return list(value).map((text) => {
 		const at = text.lastIndexOf('=');
 		if (at <= 0 || at === text.length - 1)
 			throw new UsageError(
-				`--${option} ${text}: expected <channel>=<${what}>, e.g. --${option} U1=${option === 'scale' ? '100' : option === 'unit' ? 'V' : 'voltage'}`,
+				`--${option} ${text}: expected <channel>=<${what}>, e.g. --${option} U1=${EXAMPLE_VALUE[option] ?? 'voltage'}`,
 			);
 		return [text.slice(0, at).trim(), text.slice(at + 1).trim()];
 	});
@@ -138,6 +144,20 @@ export function settingsFromOptions(raw: RawOptions): CommandSettings {
 		settings.scale[channel] = f;
 	}
 	for (const [channel, unit] of assignments('unit', raw.unit, 'unit')) settings.unit[channel] = unit;
+	for (const [channel, text] of assignments('probe', raw.probe, 'ratio')) {
+		// 'x100', '100', '100:1' (common ways to write a probe's attenuation)
+		const m = /^x?\s*([0-9.,eE+-]+)\s*(?::\s*1)?$/i.exec(text);
+		const f = m ? Number(m[1].replace(',', '.')) : NaN;
+		if (!(Number.isFinite(f) && f > 0))
+			throw new UsageError(`--probe ${channel}=${text}: expected the probe's attenuation, e.g. x100, 100 or 100:1`);
+		(settings.probe ??= {})[channel] = f;
+	}
+	for (const [channel, text] of assignments('clamp', raw.clamp, 'mV per A')) {
+		const f = Number(text.replace(/\s*mv\/a$/i, '').replace(',', '.'));
+		if (!(Number.isFinite(f) && f > 0))
+			throw new UsageError(`--clamp ${channel}=${text}: expected the clamp's output in mV per A, e.g. 100`);
+		(settings.clamp ??= {})[channel] = f;
+	}
 	const delimiter = last('delimiter', raw.delimiter);
 	if (delimiter !== undefined) {
 		if (!(delimiter in DELIMITERS))

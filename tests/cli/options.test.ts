@@ -55,6 +55,12 @@ describe('settingsFromOptions', () => {
 		});
 	});
 
+	it('settingsFromOptions(raw) reads --probe as x100, 100 or 100:1 and --clamp in mV per A', () => {
+		const s = settingsFromOptions({ probe: ['CH1=x100', 'CH3=10:1', 'CH4=100'], clamp: ['CH2=100 mV/A'] });
+		expect(s.import.probe).toEqual({ CH1: 100, CH3: 10, CH4: 100 });
+		expect(s.import.clamp).toEqual({ CH2: 100 });
+	});
+
 	it('settingsFromOptions(raw) maps the CSV layout and COMTRADE overrides', () => {
 		const s = settingsFromOptions({
 			delimiter: 'semicolon',
@@ -84,6 +90,9 @@ describe('settingsFromOptions', () => {
 		[{ scale: ['U1'] }, /--scale U1: expected <channel>=<factor>/],
 		[{ scale: ['U1=x'] }, /--scale U1=x: expected a non-zero number/],
 		[{ quantity: ['U1=power'] }, /expected voltage, current or other/],
+		[{ probe: ['U1=ten'] }, /--probe U1=ten: expected the probe's attenuation/],
+		[{ probe: ['U1'] }, /--probe U1: expected <channel>=<ratio>, e.g. --probe U1=x100/],
+		[{ clamp: ['I1=0'] }, /--clamp I1=0: expected the clamp's output in mV per A/],
 		[{ window: 2.5 }, /--window 2.5: expected a whole number/],
 		[{ nominalHz: 55 }, /expected 50 or 60/],
 		[{ limits: 'en50160', iscIl: 20 }, /apply to --limits ieee519 only/],

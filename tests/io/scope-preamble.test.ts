@@ -41,4 +41,29 @@ describe('parseCsv: scope preamble rows', () => {
 		for (const ch of c.channels) expect(ch.quantity).toBe('voltage');
 		expect(c.channels[1].samples[3]).toBeCloseTo(10 * 3 * 0.015625, 9);
 	});
+
+	it('parseCsv(Vertical Range per column as ±4 and -2..2 V, probe x100 and 100 mV/A) scales each range with its channel', () => {
+		const text = [
+			'Vertical Range,±4,-2..2 V',
+			'Probe Attenuation,100,100 mV/A',
+			'Sample Interval,1e-6',
+			'Time,CH1,CH2',
+			body(64),
+		].join('\n');
+		const c = parseCsv(text, 'scope.csv');
+		// ±4 V at the input × 100 = ±400 V; −2 … 2 V ÷ 0.1 V/A = −20 … 20 A
+		expect(c.channels[0].range).toMatchObject({ min: -400, max: 400 });
+		expect(c.channels[1].range?.min).toBeCloseTo(-20, 12);
+		expect(c.channels[1].range?.max).toBeCloseTo(20, 12);
+		expect(c.diagnostics.map((d) => d.message).join('\n')).toMatch(/range of -4 … 4 for column 2/);
+	});
+
+	it('parseCsv(an unreadable Vertical Range) says so and sets no range', () => {
+		const text = ['Vertical Range,wide', 'Sample Interval,1e-6', 'Time,CH1', body(64).replace(/,[^,]*$/gm, '')].join(
+			'\n',
+		);
+		const c = parseCsv(text, 'scope.csv');
+		expect(c.channels[0].range).toBeUndefined();
+		expect(c.diagnostics.find((d) => d.code === 'range-unreadable')?.message).toMatch(/"wide"/);
+	});
 });

@@ -122,9 +122,51 @@ describe('analyseCapture short-record rules', () => {
 		const h5 = r.channels[0].harmonics[5];
 		expect(r.channels[0].resolution!.harmonicFloorRms).toBeCloseTo(3.125 / Math.sqrt(12), 9);
 		expect(h5.belowResolution).toBe(true);
-		expect(reportToJson(r).channels[0].harmonics[5].belowResolution).toBe(true);
 		// the fundamental stands far above the floor and is not marked
 		expect(r.channels[0].harmonics[1].belowResolution).toBeUndefined();
+	});
+
+	it('reportToJson gives a below-resolution harmonic no number as if measured: null figures, the floor q/√12 as upper bound', () => {
+		// same 8-bit channel: q = 0.03125 V × 100 = 3.125 V after the x100 probe, floor q/√12 (uniform rounding, common practice)
+		const fs = 1e6;
+		const n = Math.round(fs / F);
+		const uu = scope(
+			harmonicSamples(
+				[
+					{ order: 1, rms: 230 },
+					{ order: 5, rms: 0.5 },
+				],
+				{ frequencyHz: F, sampleRateHz: fs, samples: n },
+			),
+			100,
+		);
+		const json = reportToJson(analyseCapture(capture([channel('U', 'V', 'voltage', uu)], fs)));
+		expect(validate(json)).toBe(true);
+		const h5 = json.channels[0].harmonics[5];
+		expect(h5.belowResolution).toBe(true);
+		expect(h5.rms).toBeNull();
+		expect(h5.percentOfFundamental).toBeNull();
+		expect(h5.phaseDeg).toBeNull();
+		expect(h5.rmsUpperBound).toBeCloseTo(3.125 / Math.sqrt(12), 9);
+		// as % of the 230 V fundamental: 0.902/230 = 0.392 %
+		expect(h5.percentOfFundamentalUpperBound).toBeCloseTo((100 * 3.125) / Math.sqrt(12) / 230, 2);
+		// a measured order keeps its figure and carries no bound
+		const h1 = json.channels[0].harmonics[1];
+		expect(h1.rms).toBeCloseTo(230, 0);
+		expect(h1.rmsUpperBound).toBeUndefined();
+	});
+});
+
+describe('limits on a short record', () => {
+	it('applyLimits names the fitted harmonics as the basis, not the 10/12-cycle subgroups the record cannot have', () => {
+		// EN 50160 judges on IEC 61000-4-30 class A subgroups of 10/12-cycle windows (from memory): a one-cycle
+		// record has none, so the report must not claim them
+		const r = analyseCapture(scopeCapture(1.004, 1e6), { limits: 'en50160' });
+		expect(r.limits?.basis.kind).toBe('short-record-fit');
+		expect(r.limits?.basis.text).not.toMatch(/subgroups of 10\/12-cycle windows/);
+		expect(validate(reportToJson(r))).toBe(true);
+		const distortion = r.findings.find((f) => f.topic === 'distortion' && f.channel === 'U');
+		expect(distortion?.text).toMatch(/fitted over a short record/);
 	});
 });
 

@@ -22,6 +22,9 @@ export interface CfgAnalog {
 	skewUs: number;
 	primary: number;
 	secondary: number;
+	/** The channel's range in raw data values (the min and max fields); NaN when blank. */
+	min: number;
+	max: number;
 	/** 'P' or 'S' when the file says which; undefined for 1991 files. */
 	ps?: 'P' | 'S';
 	line: number;
@@ -195,6 +198,9 @@ function readAnalogLines(c: CfgCursor, counts: ChannelCounts): CfgAnalog[] {
 			a: c.num(f[5], k, 'the multiplier a (a number)'),
 			b: c.num(f[6], k, 'the offset b (a number)', { blank: 0 }),
 			skewUs: c.num(f[7], k, 'the skew in microseconds (a number)', { blank: 0 }),
+			// min and max are read leniently: a channel without a usable range is judged by the wave's shape
+			min: strictNumber(f[8].text),
+			max: strictNumber(f[9].text),
 			primary: f.length >= 13 ? c.num(f[10], k, 'the primary ratio factor (a number)', { blank: NaN }) : NaN,
 			secondary: f.length >= 13 ? c.num(f[11], k, 'the secondary ratio factor (a number)', { blank: NaN }) : NaN,
 			ps: f.length >= 13 && psText !== '' ? (psText as 'P' | 'S') : undefined,

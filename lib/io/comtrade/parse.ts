@@ -4,7 +4,7 @@
  * relative to the trigger, digital channels kept as they were recorded.
  * Ref: IEEE C37.111-1999/2013 = IEC 60255-24:2013 (from memory; layout as in docs/methods.md §8).
  */
-import type { Capture, Channel, Diagnostic, DigitalChannel } from '../../capture.js';
+import { scaleRange, type Capture, type Channel, type Diagnostic, type DigitalChannel } from '../../capture.js';
 import { ImportError } from '../import-error.js';
 import { type CfgAnalog, type ComtradeConfig, parseComtradeCfg } from './cfg.js';
 import { type DatContent, readComtradeDat } from './dat.js';
@@ -160,7 +160,7 @@ function analogChannels(
 ): Channel[] {
 	const channels = cfg.analog.map((a, c) => scaleChannel(a, dat.raw[c], want, diagnostics));
 	uniqueNames(channels, diagnostics);
-	if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want));
+	if (cfg.analog.length > 0) diagnostics.push(valuesNote(cfg, want), rangeNote(channels));
 	cfg.analog.forEach((a, c) => {
 		if (dat.missing[c] > 0)
 			diagnostics.push({
@@ -233,6 +233,19 @@ export function buildCapture(
 		...(digital.length > 0 ? { digital } : {}),
 		metadata,
 		diagnostics,
+	};
+}
+
+/** Which channels have a range from the .cfg's min and max (clipping is judged at its limits) and which not. */
+function rangeNote(channels: Channel[]): Diagnostic {
+	const without = channels.filter((c) => !c.range).map((c) => c.name);
+	return {
+		code: 'comtrade-range',
+		severity: 'info',
+		message:
+			without.length === channels.length
+				? "No channel has a usable range in the .cfg's min and max fields: clipping is judged from the wave's shape."
+				: `Channel ranges from the .cfg's min and max fields: flat runs at their limits are taken as clipping${without.length > 0 ? ` (no usable range for ${without.join(', ')})` : ''}.`,
 	};
 }
 
@@ -398,6 +411,8 @@ export function scaleChannel(
 			description: `${short(a.a)}·x + ${short(a.b)} ${a.unit}; ${which}${u.factor !== 1 ? `; ×${u.factor} to ${u.unit}` : ''}`,
 		},
 	};
+	if (a.max > a.min)
+		channel.range = scaleRange({ min: a.min, max: a.max, source: "the .cfg's min and max" }, factor, offset);
 	const ph = channelPhase(a.name, a.phase);
 	if (ph) channel.phase = ph;
 	if (a.phase.trim() && !channelPhase('', a.phase))

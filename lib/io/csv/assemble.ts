@@ -2,9 +2,9 @@
  * Scanned columns + layout -> Capture: the time base, channels in V and A with their scaling applied,
  * and every detection, assumption and warning as a Diagnostic.
  */
-import type { Capture, Channel, ChannelPhase, Diagnostic } from '../../capture.js';
+import { scaleRange, type Capture, type Channel, type ChannelPhase, type Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';
-import { setUpChannel } from './channel-setup.js';
+import { channelSettings, setUpChannel } from './channel-setup.js';
 import type { RowScanner } from './scan-rows.js';
 import { isoOf } from './preamble.js';
 import { secondsPerUnit } from './time-column.js';
@@ -52,6 +52,7 @@ export function assembleCapture(
 		const ch: Channel = { name: p.name, unit: p.unit, quantity: p.quantity, samples };
 		if (p.phase !== undefined) ch.phase = p.phase;
 		if (p.scaling) ch.scaling = p.scaling;
+		if (p.range) ch.range = p.range;
 		return ch;
 	});
 	if (channels.length === 0)
@@ -161,6 +162,7 @@ export interface CsvChannelPlan {
 	factor: number;
 	offset: number;
 	scaling?: Channel['scaling'];
+	range?: Channel['range'];
 }
 
 /**
@@ -198,6 +200,9 @@ export function planCsvChannels(
 		};
 		if (s.phase !== undefined) p.phase = s.phase;
 		if (s.description) p.scaling = { factor: s.factor, offset: s.offset, description: s.description };
+		// a range the file states (scope preamble) is in the values as written: scaled like them
+		const stated = channelSettings(col, layout, options).range;
+		if (stated) p.range = scaleRange(stated, s.factor, s.offset);
 		channels.push(p);
 	}
 	const known = new Set(layout.columns.flatMap((col) => [col.name, col.header, `col${col.index + 1}`]));

@@ -173,6 +173,7 @@ function readFact(facts: PreambleFacts, key: string, value: string, lineNo: numb
 const SCOPE_UNIT = /^vertical[\s_-]*units?$/i;
 const SCOPE_DISPLAY = /^vertical[\s_-]*(scale|sensitivity|offset|position)$/i;
 const SCOPE_PROBE = /^probe[\s_-]*(attenuation|ratio|factor|gain)?$|^attenuation$/i;
+const SCOPE_RANGE = /^(vertical|input|adc|channel)?[\s_-]*(range|full[\s_-]*scale)$/i;
 
 /**
  * Scope-style preamble rows: `Vertical Units`, `Vertical Scale`/`Offset`, `Probe Attenuation`, with one
@@ -196,8 +197,11 @@ function readScopeFact(
 			? 'display'
 			: SCOPE_PROBE.test(k)
 				? 'probe'
-				: undefined;
+				: SCOPE_RANGE.test(k)
+					? 'range'
+					: undefined;
 	if (!kind) return false;
+	if (kind === 'range') return readRangeFact(facts, k, values, lineNo, decimalMark);
 	const cells = values.map((v) => v.trim()).filter((v) => v !== '');
 	const say = (message: string) =>
 		facts.diagnostics.push({ code: 'scope-preamble', message, severity: 'info', line: lineNo });
@@ -233,6 +237,56 @@ function readScopeFact(
 		}
 	});
 	return true;
+}
+
+/**
+ * A `Vertical Range` / `Input Range` / `Full Scale` row: one range for every channel or one per data column,
+ * each as `±4`, `+/-4`, `-4..4` or `-4 to 4` (a unit after the numbers is allowed), in the values as written
+ * (before a probe or clamp). A cell read no way is reported and not used.
+ */
+function readRangeFact(
+	facts: PreambleFacts,
+	key: string,
+	values: string[],
+	lineNo: number,
+	decimalMark: '.' | ',',
+): boolean {
+	const cells = values.map((v) => v.trim()).filter((v) => v !== '');
+	cells.forEach((cell, j) => {
+		const target: CsvChannelOptions = cells.length === 1 ? facts.all : (facts.channels[`col${j + 2}`] ??= {});
+		const where = cells.length === 1 ? 'every channel' : `column ${j + 2}`;
+		const range = readRange(cell, decimalMark);
+		const say = (code: string, message: string, severity: Diagnostic['severity']) =>
+			facts.diagnostics.push({ code, message, severity, line: lineNo });
+		if (!range) {
+			say(
+				'range-unreadable',
+				`The preamble's "${key}" for ${where} ("${cell}") is not a range like ±4 or -4..4; it is not used, so clipping is judged from the wave's shape.`,
+				'warning',
+			);
+			return;
+		}
+		target.range = { ...range, source: `the preamble's "${key}"` };
+		say(
+			'range-in-preamble',
+			`The preamble states a range of ${range.min} … ${range.max} for ${where} ("${key}"), in the values as written: flat runs at its limits are taken as clipping.`,
+			'info',
+		);
+	});
+	return true;
+}
+
+function readRange(cell: string, decimalMark: '.' | ','): { min: number; max: number } | null {
+	const pm = /^(?:±|\+\/-|\+-)\s*(.+)$/.exec(cell);
+	if (pm) {
+		const q = readQuantity(pm[1], decimalMark);
+		return q && q.value > 0 ? { min: -q.value, max: q.value } : null;
+	}
+	const two = /^(.+?)\s*(?:\.\.|…|\bto\b|~)\s*(.+)$/i.exec(cell);
+	if (!two) return null;
+	const a = readQuantity(two[1], decimalMark);
+	const b = readQuantity(two[2], decimalMark);
+	return a && b && b.value > a.value ? { min: a.value, max: b.value } : null;
 }
 
 /** '200/5', '200:5', 'x10', '10:1', '0,5' -> a number; null when unreadable. */

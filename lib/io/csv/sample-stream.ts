@@ -23,7 +23,7 @@ export const PROBE_ROWS = 4096;
 /** What a sample stream knows before its first samples. */
 export interface SampleStreamHeader {
 	sampleRateHz: number;
-	channels: Pick<Channel, 'name' | 'unit' | 'quantity' | 'phase' | 'scaling'>[];
+	channels: Pick<Channel, 'name' | 'unit' | 'quantity' | 'phase' | 'scaling' | 'range'>[];
 	nominalFrequencyHz?: number;
 	startTime?: string;
 	/** Everything detected or assumed so far (layout, channels, time base of the first rows). */
@@ -238,6 +238,7 @@ export class CsvSampleStream {
 				quantity: p.quantity,
 				...(p.phase !== undefined ? { phase: p.phase } : {}),
 				...(p.scaling ? { scaling: p.scaling } : {}),
+				...(p.range ? { range: p.range } : {}),
 			})),
 			diagnostics,
 		};

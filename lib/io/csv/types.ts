@@ -2,7 +2,7 @@
  * Options and detected layout of the CSV importer. Every detection has an override here; every override
  * and every detection is reported as a Diagnostic on the capture.
  */
-import type { Diagnostic, Quantity } from '../../capture.js';
+import type { ChannelRange, Diagnostic, Quantity } from '../../capture.js';
 
 /** Per-channel settings, keyed by channel name (without unit, as in the header) or `col<N>` (1-based). */
 export interface CsvChannelOptions {
@@ -24,6 +24,8 @@ export interface CsvChannelOptions {
 	ctRatio?: number;
 	/** VT ratio primary/secondary (e.g. 11000/110 = 100): the file holds secondary volts. */
 	vtRatio?: number;
+	/** The range the file states for the values as written (a scope's vertical range); scaled with them. */
+	range?: ChannelRange;
 }
 
 export interface CsvOptions {
