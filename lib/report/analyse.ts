@@ -82,13 +82,16 @@ function checkOptions(o: AnalysisOptions): void {
 export function analyseCapture(capture: Capture, options: AnalysisOptions = {}): AnalysisReport {
 	checkOptions(options);
 	const progress = progressReporter(options.onProgress);
+	progress('reference', 0, 1);
 	const plan = planAnalysis(capture, options);
 	progress('reference', 1, 1);
 	const { window, slots } = plan;
 	const fs = capture.sampleRateHz;
+	progress('events', 0, 1);
 	const ev = captureEvents(capture, plan.nominalHz, options.declaredV);
 	progress('events', 1, 1);
 	const spectra = harmonicSpectra(capture, slots, plan.maxOrder, (done, total) => progress('harmonics', done, total));
+	progress('channels', 0, capture.channels.length);
 	const ctx: ChannelContext = { ...plan, fs, span: options.span ?? 'whole-cycles', options, ev, spectra };
 	ctx.flagged = flaggedSlots(slots, fs, ev.events?.events ?? []);
 	const channels = capture.channels.map((c, i) => {
@@ -100,6 +103,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		);
 	});
 	const report = reportShell(capture, plan, channels, options.span ?? 'whole-cycles');
+	progress('relations', 0, 1);
 	if (window && plan.ref.index >= 0) addRelations(report, capture, ctx);
 	else if (plan.fitted && plan.ref.index >= 0) {
 		report.pairs = fittedPairs(capture, plan.ref.index, plan.fitted);
@@ -110,6 +114,7 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 		plan.warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}
 	progress('relations', 1, 1);
+	progress('flicker', 0, 1);
 	report.flicker = flickerReport(capture, plan.nominalHz, options.nominalV, undefined);
 	progress('flicker', 1, 1);
 	report.nextSteps = nextStepsSection(report, options.site);

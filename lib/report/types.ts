@@ -80,8 +80,8 @@ export interface AnalysisOptions {
 	/** Declared supply voltage for voltage events, V (line-to-neutral for phase channels); inferred when absent. */
 	declaredV?: number;
 	/**
-	 * Hears the analysis advance (not part of the report; front ends show it): after each stage, and after
-	 * every harmonic window. Called synchronously from inside analyseCapture; keep it cheap.
+	 * Hears the analysis advance (not part of the report; front ends show it): as each stage starts and
+	 * ends, after every harmonic window and after every channel. Called synchronously from inside analyseCapture; keep it cheap.
 	 */
 	onProgress?: (progress: AnalysisProgress) => void;
 }

@@ -38,12 +38,16 @@ describe('analyseCapture(capture, { onProgress })', () => {
 		expect(report.window.harmonicWindows).toBe(10);
 	});
 
-	it('reports each channel once, then the later stages, with a fraction that never decreases and ends at 1', () => {
-		expect(seen.filter((p) => p.stage === 'channels').map((p) => `${p.done}/${p.total}`)).toEqual(['1/2', '2/2']);
+	it('announces each stage as it starts, counts the channels, then the later stages, with a fraction that never decreases and ends at 1', () => {
+		expect(seen.filter((p) => p.stage === 'channels').map((p) => `${p.done}/${p.total}`)).toEqual([
+			'0/2',
+			'1/2',
+			'2/2',
+		]);
 		const stages = [...new Set(seen.map((p) => p.stage))];
 		expect(stages).toEqual(['reference', 'events', 'harmonics', 'channels', 'relations', 'flicker']);
 		for (let k = 1; k < seen.length; k++) expect(seen[k].fraction).toBeGreaterThanOrEqual(seen[k - 1].fraction);
-		expect(seen[0].fraction).toBeGreaterThan(0);
+		expect(seen[0]).toMatchObject({ stage: 'reference', done: 0, fraction: 0 });
 		expect(seen.at(-1)!.fraction).toBe(1);
 	});
 
