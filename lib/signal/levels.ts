@@ -110,14 +110,7 @@ export interface WaveformFigures {
 export function waveformFigures(
 	samples: Float64Array,
 	sampleRateHz: number,
-	opts: {
-		span?: 'whole-cycles' | 'whole-record';
-		window?: CycleWindow;
-		frequencyHz?: number;
-		nominalHz?: number;
-		maxOrder?: number;
-		peakAccuracyPercent?: number;
-	} = {},
+	opts: WaveformOptions = {},
 ): WaveformFigures {
 	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
 		throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
@@ -127,6 +120,46 @@ export function waveformFigures(
 		warnings.push({ code: 'no-samples', message: 'The channel has no samples: no figures.', severity: 'warning' });
 		return nanFigures('whole-record', 0, -1, NaN, warnings);
 	}
+	const { cycleWindow, frequencyHz } = figuresWindow(samples, sampleRateHz, opts, warnings);
+	warnings.push(
+		...signalWarnings(samples, sampleRateHz, {
+			frequencyHz,
+			cycles: cycleWindow?.cycles,
+			nominalHz: opts.nominalHz,
+			maxOrder: opts.maxOrder,
+			peakAccuracyPercent: opts.peakAccuracyPercent,
+		}),
+	);
+	const span = cycleWindow ? 'whole-cycles' : 'whole-record';
+	const startIndex = cycleWindow ? cycleWindow.startIndex : 0;
+	const endIndex = cycleWindow ? cycleWindow.endIndex : n - 1;
+	const cycles = cycleWindow ? cycleWindow.cycles : frequencyHz !== undefined ? (n * frequencyHz) / sampleRateHz : NaN;
+	if (hasNonFinite(samples)) return nanFigures(span, startIndex, endIndex, cycles, warnings);
+	return { ...levelsOver(samples, cycleWindow), span, startIndex, endIndex, cycles, warnings };
+}
+
+/** Options of waveformFigures. */
+export interface WaveformOptions {
+	span?: 'whole-cycles' | 'whole-record';
+	window?: CycleWindow;
+	frequencyHz?: number;
+	nominalHz?: number;
+	maxOrder?: number;
+	peakAccuracyPercent?: number;
+}
+
+/**
+ * The whole cycles the figures cover (given, found here, or none for the whole record) and the frequency
+ * known; pushes the fallback and bridging warnings.
+ * @throws RangeError for a given window outside the record
+ */
+function figuresWindow(
+	samples: Float64Array,
+	sampleRateHz: number,
+	opts: WaveformOptions,
+	warnings: Diagnostic[],
+): { cycleWindow: CycleWindow | undefined; frequencyHz: number | undefined } {
+	const n = samples.length;
 	let frequencyHz = opts.window?.frequencyHz ?? opts.frequencyHz;
 	let cycleWindow = opts.window;
 	if (opts.span !== 'whole-record' && cycleWindow === undefined) {
@@ -164,21 +197,17 @@ export function waveformFigures(
 			severity: 'warning',
 		});
 	}
-	warnings.push(
-		...signalWarnings(samples, sampleRateHz, {
-			frequencyHz,
-			cycles: cycleWindow?.cycles,
-			nominalHz: opts.nominalHz,
-			maxOrder: opts.maxOrder,
-			peakAccuracyPercent: opts.peakAccuracyPercent,
-		}),
-	);
-	const span = cycleWindow ? 'whole-cycles' : 'whole-record';
+	return { cycleWindow, frequencyHz };
+}
+
+/** The level figures over the window (or the whole record): means, RMS, peaks, ratios and the meter reading. */
+function levelsOver(
+	samples: Float64Array,
+	cycleWindow: CycleWindow | undefined,
+): Omit<WaveformFigures, 'span' | 'startIndex' | 'endIndex' | 'cycles' | 'warnings'> {
+	const n = samples.length;
 	const startIndex = cycleWindow ? cycleWindow.startIndex : 0;
 	const endIndex = cycleWindow ? cycleWindow.endIndex : n - 1;
-	const cycles = cycleWindow ? cycleWindow.cycles : frequencyHz !== undefined ? (n * frequencyHz) / sampleRateHz : NaN;
-	if (hasNonFinite(samples)) return nanFigures(span, startIndex, endIndex, cycles, warnings);
-
 	// Whole record: each sample weighs 1/N. Whole cycles: trapezoid over the fractional window; a window
 	// ending past the last sample (at most at N) takes the value there one period earlier.
 	const periodSamples =
@@ -208,11 +237,6 @@ export function waveformFigures(
 			errorPercent: 100 * (ratio(reading, rms) - 1),
 			errorPercentAc: 100 * (ratio(reading, acRms) - 1),
 		},
-		span,
-		startIndex,
-		endIndex,
-		cycles,
-		warnings,
 	};
 }
 
