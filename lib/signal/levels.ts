@@ -1,7 +1,14 @@
 import type { Diagnostic } from '../capture.js';
 import { findWholeCycles, type CycleWindow } from './cycles.js';
 import { signalWarnings } from './warnings.js';
-import { extremaIn, windowIntegral, type InnerSum } from './window-integral.js';
+import {
+	extremaIn,
+	innerSumRange,
+	squaresAndAbsAbout,
+	sumAndSquares,
+	windowIntegral,
+	type GivenInnerSum,
+} from './window-integral.js';
 
 /**
  * Scale factor of a sine-calibrated average-responding meter: K = π / (2√2) ≈ 1.110720735, the form
@@ -213,13 +220,17 @@ function levelsOver(
 	const periodSamples =
 		cycleWindow && cycleWindow.cycles >= 1 ? (endIndex - startIndex) / cycleWindow.cycles : endIndex - startIndex;
 	const average = cycleWindow
-		? (g: (x: number) => number, inner: InnerSum) =>
+		? (g: (x: number) => number, inner: GivenInnerSum) =>
 				windowIntegral(samples, startIndex, endIndex, g, periodSamples, inner) / (endIndex - startIndex)
-		: (g: (x: number) => number, inner: InnerSum) => windowIntegral(samples, 0, n, g, n, inner) / n;
-	const mean = average((x) => x, { kind: 'x' });
-	const rms = Math.sqrt(average((x) => x * x, { kind: 'square', about: 0 }));
-	const acRms = Math.sqrt(average((x) => (x - mean) * (x - mean), { kind: 'square', about: mean }));
-	const rectifiedMean = average((x) => Math.abs(x - mean), { kind: 'abs', about: mean });
+		: (g: (x: number) => number, inner: GivenInnerSum) => windowIntegral(samples, 0, n, g, n, inner) / n;
+	// two passes over the samples instead of four: the inner sums of x and x², then of (x − mean)² and |x − mean|
+	const { from, to } = cycleWindow ? innerSumRange(startIndex, endIndex) : innerSumRange(0, n);
+	const plain = sumAndSquares(samples, from, to);
+	const mean = average((x) => x, { kind: 'given', sum: plain.sum });
+	const rms = Math.sqrt(average((x) => x * x, { kind: 'given', sum: plain.squares }));
+	const about = squaresAndAbsAbout(samples, from, to, mean);
+	const acRms = Math.sqrt(average((x) => (x - mean) * (x - mean), { kind: 'given', sum: about.squares }));
+	const rectifiedMean = average((x) => Math.abs(x - mean), { kind: 'given', sum: about.abs });
 	const { max: peak, min: peakNegative } = extremaIn(samples, startIndex, endIndex);
 	const reading = averageRespondingReading(rectifiedMean);
 	return {
