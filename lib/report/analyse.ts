@@ -4,12 +4,12 @@
  */
 import { basicWindowCycles, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import { durationS, type Capture, type Diagnostic } from '../capture.js';
-import { findWholeCycles } from '../signal/cycles.js';
+import { findWholeCycles, type CycleWindow } from '../signal/cycles.js';
 import { waveformFigures } from '../signal/levels.js';
 import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
 import { captureEvents } from './events.js';
-import { digitalSummary, neutralCurrent, threePhasePower, worstCycle } from './extras.js';
+import { digitalSummary, neutralCurrent, threePhasePower, worstCycle, type DerivedScratch } from './extras.js';
 import { channelIntervals, flaggedSlots, powerFactorIntervals } from './intervals.js';
 import { applyLimits } from './limits-report.js';
 import { flickerReport } from './flicker-report.js';
@@ -20,12 +20,18 @@ import { meterModel, shapeFigures } from './meter.js';
 import { VERDICT_THRESHOLDS } from './thresholds.js';
 import { chooseReference } from './reference.js';
 import { channelResolution } from '../signal/code-step.js';
-import { fittedPairs, fittedPower, fitShortRecord, FITTED_NOTE } from './short-record.js';
+import { fittedPairs, fittedPower, fitShortRecord, FITTED_NOTE, type ShortRecordResult } from './short-record.js';
 import { fittedChannel, fittedPeriods, markBelowResolution } from './short-record-channel.js';
 import { fittedThreePhase } from './short-record-three-phase.js';
 import { alignedFundamentals, pairChannels, pairPower, pairsAgainstReference, threePhaseSets } from './relations.js';
-import { channelSpectrum, planWindows, type ChannelSpectrum } from './spectra.js';
-import { REPORT_SCHEMA_VERSION, type AnalysisOptions, type AnalysisReport, type ReportChannel } from './types.js';
+import { channelSpectrum, planWindows, type ChannelSpectrum, type WindowSlot } from './spectra.js';
+import {
+	REPORT_SCHEMA_VERSION,
+	type AnalysisOptions,
+	type AnalysisReport,
+	type AnalysisStage,
+	type ReportChannel,
+} from './types.js';
 
 /** Highest harmonic order reported by default: lib/spectrum's MAX_HARMONIC_ORDER. */
 export const REPORT_DEFAULT_MAX_ORDER = MAX_HARMONIC_ORDER;
@@ -76,13 +82,114 @@ function checkOptions(o: AnalysisOptions): void {
  */
 export function analyseCapture(capture: Capture, options: AnalysisOptions = {}): AnalysisReport {
 	checkOptions(options);
+	const progress = progressReporter(options.onProgress);
+	progress('reference', 0, 1);
+	const plan = planAnalysis(capture, options);
+	progress('reference', 1, 1);
+	const { window, slots } = plan;
+	const fs = capture.sampleRateHz;
+	progress('events', 0, 1);
+	const ev = captureEvents(capture, plan.nominalHz, options.declaredV);
+	progress('events', 1, 1);
+	const spectra = harmonicSpectra(capture, slots, plan.maxOrder, (done, total) => progress('harmonics', done, total));
+	progress('channels', 0, capture.channels.length);
+	const ctx: ChannelContext = { ...plan, fs, span: options.span ?? 'whole-cycles', options, ev, spectra };
+	ctx.flagged = flaggedSlots(slots, fs, ev.events?.events ?? []);
+	const channels = capture.channels.map((c, i) => {
+		const figures = channelFigures(capture, i, ctx);
+		progress('channels', i + 1, capture.channels.length);
+		return markBelowResolution(
+			plan.fitted
+				? fittedChannel(figures, c.samples, fs, plan.fitted, i, plan.nominalHz, plan.maxOrder, {
+						range: c.range,
+						startS: capture.startS,
+					})
+				: figures,
+			plan.resolutions[i],
+		);
+	});
+	const report = reportShell(capture, plan, channels, options.span ?? 'whole-cycles');
+	progress('relations', 0, 1);
+	if (window && plan.ref.index >= 0) addRelations(report, capture, ctx);
+	else if (plan.fitted && plan.ref.index >= 0) {
+		report.pairs = fittedPairs(capture, plan.ref.index, plan.fitted);
+		const fp = fittedPower(capture, plan.fitted, options.pairs);
+		report.power = fp.power;
+		plan.assumptions.push(...fp.assumptions);
+		const three = fittedThreePhase(capture, plan.ref.index, plan.fitted, options.pairs);
+		report.threePhaseSets = three.sets;
+		report.threePhase = three.sets[0] ?? null;
+		report.neutral = three.neutral;
+		report.threePhasePower = three.power;
+		plan.assumptions.push(...three.assumptions);
+	} else if (options.pairs && options.pairs.length > 0) {
+		plan.warnings.push('Pairs were given but no fundamental was found: no power figures.');
+	}
+	progress('relations', 1, 1);
+	progress('flicker', 0, 1);
+	report.flicker = flickerReport(capture, plan.nominalHz, options.nominalV, undefined);
+	progress('flicker', 1, 1);
+	report.nextSteps = nextStepsSection(report, options.site);
+	report.events = ev.events;
+	plan.assumptions.push(...ev.notes);
+	// the limit step after the analysis (a pure function of the report; the UI re-runs it alone), then the
+	// findings, which read the limits (applyLimits rebuilds them)
+	return applyLimits(report, options);
+}
+
+/**
+ * Share of the analysis time each stage takes, in the order they run (measured on long three-phase
+ * records at 10 kS/s; the harmonic windows report their own count inside their share).
+ */
+const STAGE_WEIGHTS: Record<AnalysisStage, number> = {
+	reference: 0.08,
+	events: 0.12,
+	harmonics: 0.3,
+	channels: 0.25,
+	relations: 0.13,
+	flicker: 0.12,
+};
+const STAGE_ORDER = Object.keys(STAGE_WEIGHTS) as AnalysisStage[];
+
+/** The progress callback with the overall fraction filled in (stages in STAGE_ORDER, each by its weight). */
+function progressReporter(
+	onProgress: AnalysisOptions['onProgress'],
+): (stage: AnalysisStage, done: number, total: number) => void {
+	if (!onProgress) return () => {};
+	return (stage, done, total) => {
+		let before = 0;
+		for (const s of STAGE_ORDER) {
+			if (s === stage) break;
+			before += STAGE_WEIGHTS[s];
+		}
+		const within = total > 0 ? Math.min(1, done / total) : 1;
+		onProgress({ stage, done, total, fraction: Math.min(1, before + STAGE_WEIGHTS[stage] * within) });
+	};
+}
+
+/** What every part of the analysis shares: the reference, its window and harmonic slots, the fit of a short record. */
+interface AnalysisPlan {
+	ref: ReturnType<typeof chooseReference>;
+	window: CycleWindow | undefined;
+	fitted: ShortRecordResult | undefined;
+	frequencyHz: number;
+	nominalHz: number | undefined;
+	searchHz: number | undefined;
+	maxOrder: number;
+	slots: WindowSlot[];
+	periods: CycleWindow | undefined;
+	resolutions: ReturnType<typeof channelResolution>[];
+	assumptions: string[];
+	warnings: string[];
+}
+
+/** Reference channel, its whole cycles (or the short-record fit), nominal frequency and harmonic windows. */
+function planAnalysis(capture: Capture, options: AnalysisOptions): AnalysisPlan {
 	const fs = capture.sampleRateHz;
 	const maxOrder = options.maxOrder ?? REPORT_DEFAULT_MAX_ORDER;
-	const span = options.span ?? 'whole-cycles';
 	const assumptions = capture.diagnostics.map(diagnosticText);
 	const warnings: string[] = [];
 	const n = capture.channels[0]?.samples.length ?? 0;
-
 	const searchHz = options.nominalHz ?? capture.nominalFrequencyHz;
 	const ref = chooseReference(capture, options.refChannel, searchHz);
 	assumptions.push(...ref.assumptions);
@@ -104,7 +211,6 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			`Nominal frequency taken as ${nominalHz} Hz (nearest to the measured ${frequencyHz.toFixed(3)} Hz).`,
 		);
 	}
-	const windowCycles = options.windowCycles ?? basicWindowCycles(nominalHz);
 	if (timeBaseIrregular(capture)) warnings.push('The time base is not uniform; figures assume the mean sample rate.');
 	const periods = fitted ? fittedPeriods(n, fs, fitted.fit.frequencyHz) : undefined;
 	if (fitted) warnings.push(shortRecordSentence(fitted.fit, n, fs, periods?.cycles ?? 0));
@@ -113,6 +219,21 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			`No periodic fundamental found (${ref.failure ?? 'no channels'}${typeof short === 'string' ? `; ${short}` : ''}): figures cover the whole record; harmonics, phase and power are not given.`,
 		);
 	}
+	const slots = harmonicSlots(window, fs, options.windowCycles ?? basicWindowCycles(nominalHz), assumptions, warnings);
+	return {
+		...{ ref, window, fitted, frequencyHz, nominalHz, searchHz, maxOrder, slots, periods, resolutions },
+		...{ assumptions, warnings },
+	};
+}
+
+/** The harmonic windows on the reference cycles, with a sentence when they do not cover every cycle. */
+function harmonicSlots(
+	window: CycleWindow | undefined,
+	fs: number,
+	windowCycles: number,
+	assumptions: string[],
+	warnings: string[],
+): WindowSlot[] {
 	const slots = window ? planWindows(window, fs, windowCycles) : [];
 	if (window && window.cycles < windowCycles) {
 		warnings.push(
@@ -123,58 +244,101 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			`Harmonics from ${slots.length} window(s) of ${windowCycles} cycles; the last ${window.cycles - slots.length * windowCycles} cycle(s) are not in a full window.`,
 		);
 	}
-	const ev = captureEvents(capture, nominalHz, options.declaredV);
-	const flagged = flaggedSlots(slots, fs, ev.events?.events ?? []);
-	const spectra: (ChannelSpectrum | undefined)[] = capture.channels.map((c) =>
-		slots.length > 0 ? channelSpectrum(c.samples, fs, slots, maxOrder) : undefined,
-	);
+	return slots;
+}
 
-	const wholeRecord: ReportChannel[] = capture.channels.map((c, i) => {
-		const figs = waveformFigures(c.samples, fs, {
-			...(window && span === 'whole-cycles'
-				? { span, window, nominalHz, maxOrder }
-				: { span: 'whole-record' as const, frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder }),
-			range: c.range,
-			startS: capture.startS,
-		});
-		const own =
-			i === ref.index && window
-				? { ok: true as const, frequencyHz: window.frequencyHz }
-				: findWholeCycles(
-						c.samples,
-						fs,
-						window ? { frequencyHz } : searchHz !== undefined ? { nominalHz: searchHz } : {},
-					);
-		const channelHz = own.ok ? own.frequencyHz : NaN;
-		const agg = spectra[i]?.aggregate;
-		const set = agg?.set;
-		const rmsByOrder = set ? set.orders.map((o) => o.rms) : [];
-		const h1 = rmsByOrder[1] ?? NaN;
-		const thdOrder = Math.min(maxOrder, MAX_HARMONIC_ORDER, agg?.highestValidOrder ?? MAX_HARMONIC_ORDER);
-		const chWarnings = figs.warnings.map((d) => d.message);
-		const meter = meterModel(c.samples, figs, window && span === 'whole-cycles' ? window : undefined);
-		const shape = shapeFigures(figs);
-		const intervals = channelIntervals(c.samples, fs, slots, flagged);
-		// the whole-record error differs from every interval's: levels changed over the record
-		const levelChanges =
-			intervals !== null &&
-			intervals.count >= 2 &&
-			Math.abs(intervals.meterErrorPercent.worst - meter.errorPercent) >= 0.05;
-		return {
-			name: c.name,
-			unit: c.unit,
-			quantity: c.quantity,
-			phase: c.phase ?? null,
-			mean: figs.mean,
-			rms: figs.rms,
-			acRms: figs.acRms,
-			rectifiedMean: figs.rectifiedMean,
-			peak: figs.peak,
-			peakNegative: figs.peakNegative,
-			peakToPeak: figs.peakToPeak,
-			crestFactor: shape.crestFactor,
-			formFactor: shape.formFactor,
-			frequencyHz: channelHz,
+/** Every channel's harmonic windows and their aggregate; `onWindows` hears windows done of the total. */
+function harmonicSpectra(
+	capture: Capture,
+	slots: WindowSlot[],
+	maxOrder: number,
+	onWindows: (done: number, total: number) => void,
+): (ChannelSpectrum | undefined)[] {
+	if (slots.length === 0) return capture.channels.map(() => undefined);
+	const total = slots.length * capture.channels.length;
+	let done = 0;
+	return capture.channels.map((c) =>
+		channelSpectrum(c.samples, capture.sampleRateHz, slots, maxOrder, () => onWindows(++done, total)),
+	);
+}
+
+/** The plan and what the per-channel and relation parts read from the analysis so far. */
+interface ChannelContext extends AnalysisPlan {
+	fs: number;
+	span: 'whole-cycles' | 'whole-record';
+	options: AnalysisOptions;
+	ev: ReturnType<typeof captureEvents>;
+	spectra: (ChannelSpectrum | undefined)[];
+	flagged?: ReturnType<typeof flaggedSlots>;
+}
+
+/** One channel's time-domain figures, own frequency, meter model, intervals and harmonic fields. */
+function channelFigures(capture: Capture, i: number, ctx: ChannelContext): ReportChannel {
+	const c = capture.channels[i];
+	const { window, fs, span, maxOrder, nominalHz, frequencyHz } = ctx;
+	const onCycles = window && span === 'whole-cycles' ? window : undefined;
+	const figs = waveformFigures(c.samples, fs, {
+		...(onCycles
+			? { span, window: onCycles, nominalHz, maxOrder }
+			: { span: 'whole-record' as const, frequencyHz: window ? frequencyHz : undefined, nominalHz, maxOrder }),
+		range: c.range,
+		startS: capture.startS,
+	});
+	const own =
+		i === ctx.ref.index && window
+			? { ok: true as const, frequencyHz: window.frequencyHz }
+			: findWholeCycles(
+					c.samples,
+					fs,
+					window ? { frequencyHz } : ctx.searchHz !== undefined ? { nominalHz: ctx.searchHz } : {},
+				);
+	const meter = meterModel(c.samples, figs, onCycles);
+	const shape = shapeFigures(figs);
+	const intervals = channelIntervals(c.samples, fs, ctx.slots, ctx.flagged ?? []);
+	const harmonic = harmonicFields(ctx.spectra[i], c, maxOrder, ctx.options);
+	// the whole-record error differs from every interval's: levels changed over the record
+	const levelChanges =
+		intervals !== null &&
+		intervals.count >= 2 &&
+		Math.abs(intervals.meterErrorPercent.worst - meter.errorPercent) >= 0.05;
+	const set = ctx.spectra[i]?.aggregate.set;
+	return {
+		...{ name: c.name, unit: c.unit, quantity: c.quantity, phase: c.phase ?? null },
+		...{ mean: figs.mean, rms: figs.rms, acRms: figs.acRms, rectifiedMean: figs.rectifiedMean },
+		...{ peak: figs.peak, peakNegative: figs.peakNegative, peakToPeak: figs.peakToPeak },
+		crestFactor: shape.crestFactor,
+		formFactor: shape.formFactor,
+		frequencyHz: own.ok ? own.frequencyHz : NaN,
+		...harmonic.figures,
+		averageResponding: {
+			...meter,
+			...(set ? { explanation: meterExplanation(set, meter, c.unit, undefined, levelChanges) } : {}),
+		},
+		intervals,
+		harmonics: harmonic.harmonics,
+		groups: harmonic.groups,
+		thdVariants: harmonic.thdVariants,
+		worstCycle: window ? worstCycle(c.samples, window, fs) : null,
+		warnings: figs.warnings.map((d) => d.message),
+	};
+}
+
+/** A channel's THD, K-factor, TDD, harmonic list, groups and THD variants from its aggregate (NaN/empty without). */
+function harmonicFields(
+	spectrum: ChannelSpectrum | undefined,
+	c: Capture['channels'][number],
+	maxOrder: number,
+	options: AnalysisOptions,
+): Pick<ReportChannel, 'harmonics' | 'groups' | 'thdVariants'> & {
+	figures: Pick<ReportChannel, 'thdPercent' | 'thdRPercent' | 'thdMaxOrder' | 'kFactor' | 'tddPercent'>;
+} {
+	const agg = spectrum?.aggregate;
+	const set = agg?.set;
+	const rmsByOrder = set ? set.orders.map((o) => o.rms) : [];
+	const h1 = rmsByOrder[1] ?? NaN;
+	const thdOrder = Math.min(maxOrder, MAX_HARMONIC_ORDER, agg?.highestValidOrder ?? MAX_HARMONIC_ORDER);
+	return {
+		figures: {
 			thdPercent: set ? thdFPercent(rmsByOrder, thdOrder) : NaN,
 			thdRPercent: set ? thdRPercent(rmsByOrder, thdOrder) : NaN,
 			thdMaxOrder: thdOrder,
@@ -183,60 +347,54 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 				set && c.quantity === 'current' && options.ilA !== undefined
 					? tddPercent(rmsByOrder, options.ilA, thdOrder)
 					: NaN,
-			averageResponding: {
-				...meter,
-				...(set ? { explanation: meterExplanation(set, meter, c.unit, undefined, levelChanges) } : {}),
-			},
-			intervals,
-			harmonics: set
-				? set.orders.map((o) => ({
-						order: o.order,
-						rms: o.rms,
-						percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN,
-						phaseDeg: o.phaseDeg,
-					}))
-				: [],
-			groups: agg
-				? {
-						harmonicGroupRms: Array.from(agg.groups.harmonicGroupRms),
-						harmonicSubgroupRms: Array.from(agg.groups.harmonicSubgroupRms),
-						interharmonicGroupRms: Array.from(agg.groups.interharmonicGroupRms),
-						interharmonicSubgroupRms: Array.from(agg.groups.interharmonicSubgroupRms),
-					}
-				: null,
-			thdVariants: agg ? { ...agg.thd } : null,
-			worstCycle: window ? worstCycle(c.samples, window, fs) : null,
-			warnings: chWarnings,
-		};
-	});
-	const channels = wholeRecord.map((c, i) =>
-		markBelowResolution(
-			fitted
-				? fittedChannel(c, capture.channels[i].samples, fs, fitted, i, nominalHz, maxOrder, {
-						range: capture.channels[i].range,
-						startS: capture.startS,
-					})
-				: c,
-			resolutions[i],
-		),
-	);
+		},
+		harmonics: set
+			? set.orders.map((o) => ({
+					order: o.order,
+					rms: o.rms,
+					percentOfFundamental: h1 > 0 ? (100 * o.rms) / h1 : NaN,
+					phaseDeg: o.phaseDeg,
+				}))
+			: [],
+		groups: agg
+			? {
+					harmonicGroupRms: Array.from(agg.groups.harmonicGroupRms),
+					harmonicSubgroupRms: Array.from(agg.groups.harmonicSubgroupRms),
+					interharmonicGroupRms: Array.from(agg.groups.interharmonicGroupRms),
+					interharmonicSubgroupRms: Array.from(agg.groups.interharmonicSubgroupRms),
+				}
+			: null,
+		thdVariants: agg ? { ...agg.thd } : null,
+	};
+}
 
-	const report: AnalysisReport = {
+/** The report with its capture-wide fields and channels; relations, flicker and events are filled in after. */
+function reportShell(
+	capture: Capture,
+	plan: AnalysisPlan,
+	channels: ReportChannel[],
+	span: 'whole-cycles' | 'whole-record',
+): AnalysisReport {
+	const fs = capture.sampleRateHz;
+	const n = capture.channels[0]?.samples.length ?? 0;
+	const { window, periods, slots, ref } = plan;
+	const onCycles = window && span === 'whole-cycles';
+	return {
 		schemaVersion: REPORT_SCHEMA_VERSION,
 		file: capture.source,
 		sampleRateHz: fs,
 		durationS: durationS(capture),
 		cyclesAnalysed: window?.cycles ?? periods?.cycles ?? 0,
-		frequencyHz,
+		frequencyHz: plan.frequencyHz,
 		referenceChannel: ref.index >= 0 ? capture.channels[ref.index].name : null,
 		window: {
-			startS: window && span === 'whole-cycles' ? window.startIndex / fs : 0,
-			endS: window && span === 'whole-cycles' ? window.endIndex / fs : periods ? periods.endIndex / fs : n / fs,
+			startS: onCycles ? window.startIndex / fs : 0,
+			endS: onCycles ? window.endIndex / fs : periods ? periods.endIndex / fs : n / fs,
 			span: window ? span : periods ? 'whole-cycles' : 'whole-record',
 			harmonicWindowCycles: slots[0]?.cycles ?? NaN,
 			harmonicWindows: slots.length,
 		},
-		assumptions,
+		assumptions: plan.assumptions,
 		diagnostics: capture.diagnostics.map((d) => ({
 			code: d.code,
 			message: d.message,
@@ -244,85 +402,53 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 			line: d.line ?? null,
 			column: d.column ?? null,
 		})),
-		warnings,
+		warnings: plan.warnings,
 		channels,
-		pairs: [],
-		power: [],
-		threePhase: null,
-		threePhaseSets: [],
-		threePhasePower: null,
-		neutral: null,
+		...{ pairs: [], power: [], threePhase: null, threePhaseSets: [], threePhasePower: null, neutral: null },
 		digital: digitalSummary(capture),
-		shortRecord: fitted?.info ?? null,
+		shortRecord: plan.fitted?.info ?? null,
 		events: null,
 		findings: [],
 		thresholds: Object.values(VERDICT_THRESHOLDS),
 	};
-	if (window && ref.index >= 0) {
-		const phasors = alignedFundamentals(spectra, ref.index);
-		const powerWindow = { startIndex: window.startIndex, endIndex: window.endIndex, cycles: window.cycles };
-		report.pairs = pairsAgainstReference(capture, ref.index, phasors, powerWindow);
-		const pairing = pairChannels(capture.channels, options.pairs);
-		assumptions.push(...pairing.assumptions);
-		report.power = pairing.pairs.map((p) => {
-			const pw = pairPower(capture, p, spectra, powerWindow);
-			const words = loadWords(pw.displacementPowerFactor, pw.reactiveVar, channels[p.current].thdPercent);
-			const pfIntervals = powerFactorIntervals(
-				capture.channels[p.voltage].samples,
-				capture.channels[p.current].samples,
-				fs,
-				slots,
-				flagged,
-			);
-			return {
-				...pw,
-				character: words.character,
-				relation: words.relation,
-				loadSentence: words.sentence,
-				powerFactorIntervals: pfIntervals,
-			};
-		});
-		const three = threePhaseSets(capture.channels, pairing.pairing, phasors);
-		assumptions.push(...three.assumptions);
-		report.threePhaseSets = three.sets;
-		report.threePhase = three.sets[0] ?? null;
-		report.threePhasePower = threePhasePower(capture, pairing.pairs, spectra, powerWindow) ?? null;
-		const currentSet = three.sets.findIndex((t) => t.quantity === 'current');
-		if (currentSet >= 0) {
-			const neutralName = pairing.pairing.neutralCurrent;
-			const neutralIndex =
-				neutralName === undefined ? undefined : capture.channels.findIndex((c) => c.name === neutralName);
-			report.neutral = neutralCurrent(
-				capture,
-				three.members[currentSet],
-				neutralIndex,
-				spectra,
-				slots,
-				powerWindow,
-				maxOrder,
-			);
-		}
-	} else if (fitted && ref.index >= 0) {
-		report.pairs = fittedPairs(capture, ref.index, fitted);
-		const fp = fittedPower(capture, fitted, options.pairs);
-		report.power = fp.power;
-		assumptions.push(...fp.assumptions);
-		const three = fittedThreePhase(capture, ref.index, fitted, options.pairs);
-		report.threePhaseSets = three.sets;
-		report.threePhase = three.sets[0] ?? null;
-		report.neutral = three.neutral;
-		report.threePhasePower = three.power;
-		assumptions.push(...three.assumptions);
-	} else if (options.pairs && options.pairs.length > 0) {
-		warnings.push('Pairs were given but no fundamental was found: no power figures.');
-	}
-	report.flicker = flickerReport(capture, nominalHz, options.nominalV, undefined);
-	report.nextSteps = nextStepsSection(report, options.site);
-	report.events = ev.events;
-	assumptions.push(...ev.notes);
-	// the limit step after the analysis (a pure function of the report; the UI re-runs it alone), then the
-	// findings, which read the limits (applyLimits rebuilds them)
-	return applyLimits(report, options);
+}
+
+/** Lag against the reference, power of each V/I pair, three-phase sets and power, the neutral current. */
+function addRelations(report: AnalysisReport, capture: Capture, ctx: ChannelContext): void {
+	const window = ctx.window!;
+	const { spectra, slots, fs, assumptions } = ctx;
+	const phasors = alignedFundamentals(spectra, ctx.ref.index);
+	const powerWindow = { startIndex: window.startIndex, endIndex: window.endIndex, cycles: window.cycles };
+	report.pairs = pairsAgainstReference(capture, ctx.ref.index, phasors, powerWindow);
+	const pairing = pairChannels(capture.channels, ctx.options.pairs);
+	assumptions.push(...pairing.assumptions);
+	report.power = pairing.pairs.map((p) => {
+		const pw = pairPower(capture, p, spectra, powerWindow);
+		const words = loadWords(pw.displacementPowerFactor, pw.reactiveVar, report.channels[p.current].thdPercent);
+		const v = capture.channels[p.voltage].samples;
+		const i = capture.channels[p.current].samples;
+		const pfIntervals = powerFactorIntervals(v, i, fs, slots, ctx.flagged ?? []);
+		return {
+			...pw,
+			character: words.character,
+			relation: words.relation,
+			loadSentence: words.sentence,
+			powerFactorIntervals: pfIntervals,
+		};
+	});
+	const three = threePhaseSets(capture.channels, pairing.pairing, phasors);
+	assumptions.push(...three.assumptions);
+	report.threePhaseSets = three.sets;
+	report.threePhase = three.sets[0] ?? null;
+	const derived: DerivedScratch = {};
+	report.threePhasePower = threePhasePower(capture, pairing.pairs, spectra, powerWindow, derived) ?? null;
+	const currentSet = three.sets.findIndex((t) => t.quantity === 'current');
+	if (currentSet < 0) return;
+	const neutralName = pairing.pairing.neutralCurrent;
+	const neutralIndex =
+		neutralName === undefined ? undefined : capture.channels.findIndex((c) => c.name === neutralName);
+	const members = three.members[currentSet];
+	report.neutral = neutralCurrent(capture, members, neutralIndex, spectra, slots, powerWindow, ctx.maxOrder, derived);
 }
 
 function timeBaseIrregular(capture: Capture): boolean {

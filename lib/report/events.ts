@@ -131,6 +131,8 @@ export function captureEvents(
 			nominalHz: nominalHz === 50 || nominalHz === 60 ? nominalHz : undefined,
 			declaredV,
 			thd: false,
+			// the report's flicker section has its own flickermeter; events need only the Urms(1/2) values
+			flicker: false,
 			keep: { cycles10: false, cycles150: false, min10: false },
 			onHalfCycle: (ch, startS, v) => {
 				let s = series.get(names[ch]);

@@ -4,8 +4,7 @@
  * current of a three-phase current set.
  */
 import type { Capture } from '../capture.js';
-import { lineToLineSamples } from '../polyphase/line-voltages.js';
-import { neutralCurrentFigures, sumPhaseCurrents } from '../polyphase/neutral.js';
+import { neutralCurrentFigures } from '../polyphase/neutral.js';
 import { threePhasePowerFromHarmonics, type ThreePhaseInputPhase } from '../power/three-phase.js';
 import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
 import type { CycleWindow } from '../signal/cycles.js';
@@ -31,6 +30,39 @@ export function worstCycle(samples: Float64Array, window: CycleWindow, sampleRat
 }
 
 /**
+ * One buffer for the sample series derived here (line-to-line voltages, the sum of the phase currents),
+ * shared by the calls of one analysis: each series is used and dropped before the next is written, and
+ * a fresh array per series would cost its first touch of memory every time.
+ */
+export interface DerivedScratch {
+	buffer?: Float64Array;
+}
+
+function scratch(owner: DerivedScratch, length: number): Float64Array {
+	if (owner.buffer?.length !== length) owner.buffer = new Float64Array(length);
+	return owner.buffer;
+}
+
+function checkLengths(...xs: Float64Array[]): void {
+	if (xs.some((x) => x.length !== xs[0].length))
+		throw new RangeError(`channels differ in length: ${xs.map((x) => x.length).join(', ')} samples`);
+}
+
+/** v_xy[n] = v_x[n] − v_y[n] written into `out` (as lib/polyphase lineToLineSamples, without a new array). */
+function lineToLineInto(out: Float64Array, from: Float64Array, to: Float64Array): Float64Array {
+	checkLengths(out, from, to);
+	for (let n = 0; n < out.length; n++) out[n] = from[n] - to[n];
+	return out;
+}
+
+/** i_N[n] = i1[n] + i2[n] + i3[n] written into `out` (as lib/polyphase sumPhaseCurrents, without a new array). */
+function sumPhaseCurrentsInto(out: Float64Array, i1: Float64Array, i2: Float64Array, i3: Float64Array): Float64Array {
+	checkLengths(out, i1, i2, i3);
+	for (let n = 0; n < out.length; n++) out[n] = i1[n] + i2[n] + i3[n];
+	return out;
+}
+
+/**
  * IEEE 1459 three-phase quantities of three V/I pairs labelled phases 1, 2, 3 (pairing by label), per
  * window of the shared harmonic windows, time-domain P and RMS over the whole cycles. 4-wire when the
  * capture has phase-to-neutral voltages (the only kind paired here).
@@ -40,6 +72,7 @@ export function threePhasePower(
 	pairs: { voltage: number; current: number; phase: number | null }[],
 	spectra: (ChannelSpectrum | undefined)[],
 	window: PowerSampleWindow,
+	scratchOwner: DerivedScratch = {},
 ): ReportThreePhasePower | undefined {
 	const byPhase = [1, 2, 3].map((ph) => pairs.find((p) => p.phase === ph));
 	if (byPhase.some((p) => p === undefined)) return undefined;
@@ -60,12 +93,11 @@ export function threePhasePower(
 	// from the sets would also stumble on orders whose phase is undefined (RMS at rounding level).
 	const v = byPhase.map((p) => capture.channels[p!.voltage].samples);
 	const i = byPhase.map((p) => capture.channels[p!.current].samples);
-	const lineVoltageRmsV = [0, 1, 2].map((k) => powerWindowRms(lineToLineSamples(v[k], v[(k + 1) % 3]), window)) as [
-		number,
-		number,
-		number,
-	];
-	const neutralCurrentRmsA = powerWindowRms(sumPhaseCurrents(i[0], i[1], i[2]), window);
+	const derived = scratch(scratchOwner, v[0].length);
+	const lineVoltageRmsV = [0, 1, 2].map((k) =>
+		powerWindowRms(lineToLineInto(derived, v[k], v[(k + 1) % 3]), window),
+	) as [number, number, number];
+	const neutralCurrentRmsA = powerWindowRms(sumPhaseCurrentsInto(derived, i[0], i[1], i[2]), window);
 	const q = threePhasePowerFromHarmonics('4-wire', phases, { lineVoltageRmsV, neutralCurrentRmsA });
 	// Scalar figures only: lib/power's result also holds phasors, per-phase sets and words.
 	const figures: Record<string, number> = {};
@@ -87,6 +119,7 @@ export function neutralCurrent(
 	slots: WindowSlot[],
 	window: PowerSampleWindow,
 	maxOrder: number,
+	scratchOwner: DerivedScratch = {},
 ): ReportNeutral {
 	const phaseRms = currents.map((k) => powerWindowRms(capture.channels[k].samples, window)) as [number, number, number];
 	if (neutralIndex !== undefined) {
@@ -98,8 +131,10 @@ export function neutralCurrent(
 		);
 		return { channel: capture.channels[neutralIndex].name, ...f };
 	}
-	const sum = sumPhaseCurrents(
-		capture.channels[currents[0]].samples,
+	const i1 = capture.channels[currents[0]].samples;
+	const sum = sumPhaseCurrentsInto(
+		scratch(scratchOwner, i1.length),
+		i1,
 		capture.channels[currents[1]].samples,
 		capture.channels[currents[2]].samples,
 	);

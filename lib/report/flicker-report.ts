@@ -106,11 +106,14 @@ export function flickerReport(
 function rms(x: Float64Array): number {
 	let s = 0,
 		n = 0;
-	for (const v of x)
+	// indexed, not for…of: the iterator costs several times the sum on a record of 1e7 samples
+	for (let i = 0; i < x.length; i++) {
+		const v = x[i];
 		if (Number.isFinite(v)) {
 			s += v * v;
 			n++;
 		}
+	}
 	return n > 0 ? Math.sqrt(s / n) : NaN;
 }
 

@@ -6,6 +6,8 @@ export {
 	REPORT_SCHEMA_VERSION,
 	REPORT_LIMIT_TABLE_IDS,
 	type AnalysisOptions,
+	type AnalysisProgress,
+	type AnalysisStage,
 	type AnalysisReport,
 	type ReportChannel,
 	type ReportHarmonic,

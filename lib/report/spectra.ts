@@ -4,9 +4,8 @@
  * measured cycle length, and their aggregate.
  */
 import type { CycleWindow } from '../signal/cycles.js';
-import { harmonicWindow } from '../spectrum/harmonics.js';
+import { harmonicWindowCore, type HarmonicWindowCore } from '../spectrum/harmonics.js';
 import { aggregateHarmonicWindows, type HarmonicAggregate } from '../spectrum/harmonic-analysis.js';
-import type { HarmonicWindow } from '../spectrum/types.js';
 
 /** Where each harmonic window sits: start (fractional sample index), cycles and the cycle-synchronous fundamental. */
 export interface WindowSlot {
@@ -32,7 +31,8 @@ export function planWindows(window: CycleWindow, sampleRateHz: number, windowCyc
 }
 
 export interface ChannelSpectrum {
-	windows: HarmonicWindow[];
+	/** Each window's orders, bins and RMS (lib/spectrum harmonicWindowCore: no per-window groups or THD). */
+	windows: HarmonicWindowCore[];
 	/**
 	 * Aggregate of the windows (lib/spectrum aggregateHarmonicWindows): magnitudes are the RMS of the
 	 * window values (IEC 61000-4-30 aggregation), phases the angle of the windows' phasor sum, at the first
@@ -48,23 +48,26 @@ export interface ChannelSpectrum {
  */
 export const HARMONIC_RATE_HZ = 400_000;
 
-/** Every window of one channel, and their aggregate. `slots` must not be empty. */
+/** Every window of one channel, and their aggregate; `onWindow` after each window. `slots` must not be empty. */
 export function channelSpectrum(
 	samples: Float64Array,
 	sampleRateHz: number,
 	slots: WindowSlot[],
 	maxOrder: number,
+	onWindow?: () => void,
 ): ChannelSpectrum {
 	const m = Math.floor(sampleRateHz / HARMONIC_RATE_HZ);
-	if (m >= 2) return decimatedSpectrum(samples, sampleRateHz, slots, maxOrder, m);
-	const windows = slots.map((s) =>
-		harmonicWindow(samples, sampleRateHz, {
+	if (m >= 2) return decimatedSpectrum(samples, sampleRateHz, slots, maxOrder, m, onWindow);
+	const windows = slots.map((s) => {
+		const w = harmonicWindowCore(samples, sampleRateHz, {
 			fundamentalHz: s.fundamentalHz,
 			startIndex: s.startIndex,
 			cycles: s.cycles,
 			maxOrder,
-		}),
-	);
+		});
+		onWindow?.();
+		return w;
+	});
 	return { windows, aggregate: aggregateHarmonicWindows(windows) };
 }
 
@@ -79,6 +82,7 @@ function decimatedSpectrum(
 	slots: WindowSlot[],
 	maxOrder: number,
 	m: number,
+	onWindow?: () => void,
 ): ChannelSpectrum {
 	const count = Math.floor(samples.length / m);
 	const y = new Float64Array(count);
@@ -89,12 +93,13 @@ function decimatedSpectrum(
 	}
 	const shift = (m - 1) / 2;
 	const windows = slots.map((s) => {
-		const w = harmonicWindow(y, sampleRateHz / m, {
+		const w = harmonicWindowCore(y, sampleRateHz / m, {
 			fundamentalHz: s.fundamentalHz,
 			startIndex: Math.max(0, (s.startIndex - shift) / m),
 			cycles: s.cycles,
 			maxOrder,
 		});
+		onWindow?.();
 		return { ...w, startIndex: w.startIndex * m + shift, endIndex: w.endIndex * m + shift };
 	});
 	return { windows, aggregate: aggregateHarmonicWindows(windows) };

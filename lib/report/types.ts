@@ -79,6 +79,23 @@ export interface AnalysisOptions {
 	harmonicBasis?: ReportHarmonicBasis;
 	/** Declared supply voltage for voltage events, V (line-to-neutral for phase channels); inferred when absent. */
 	declaredV?: number;
+	/**
+	 * Hears the analysis advance (not part of the report; front ends show it): as each stage starts and
+	 * ends, after every harmonic window and after every channel. Called synchronously from inside analyseCapture; keep it cheap.
+	 */
+	onProgress?: (progress: AnalysisProgress) => void;
+}
+
+/** The parts of analyseCapture, in the order they run. */
+export type AnalysisStage = 'reference' | 'events' | 'harmonics' | 'channels' | 'relations' | 'flicker';
+
+/** Where analyseCapture stands: the stage, its work done of its total (windows, channels), and the whole analysis's fraction. */
+export interface AnalysisProgress {
+	stage: AnalysisStage;
+	done: number;
+	total: number;
+	/** 0…1 over the whole analysis, each stage weighted by its usual share of the time; never decreases. */
+	fraction: number;
 }
 
 export interface ReportHarmonic {

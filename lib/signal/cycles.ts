@@ -88,13 +88,50 @@ const MAX_PERIOD_SPREAD = 0.1;
 export function findWholeCycles(
 	samples: Float64Array,
 	sampleRateHz: number,
-	opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number; toRecordEnd?: boolean } = {},
+	opts: FindCyclesOptions = {},
 ): ({ ok: true } & CycleWindow) | SignalFailure {
 	const bad = checkParameters(sampleRateHz, opts);
 	if (bad) return fail('bad-parameter', bad);
 	const n = samples.length;
 	if (n < 8)
 		return fail('too-short', `The record has ${n} sample${n === 1 ? '' : 's'}; at least two whole cycles are needed.`);
+	const unusable = recordFailure(samples);
+	if (unusable) return unusable;
+
+	if (opts.frequencyHz === undefined && opts.nominalHz !== undefined && (n * 1.3 * opts.nominalHz) / sampleRateHz < 1.8)
+		return tooShortBlind(n, sampleRateHz);
+	const block = Math.floor(sampleRateHz / CROSSING_RATE_HZ);
+	if (block >= 2 && n >= 16 * block) return onBlockMeans(samples, sampleRateHz, opts, block);
+	const frequencyHz = opts.frequencyHz ?? coarseFrequencyHz(samples, sampleRateHz, { nominalHz: opts.nominalHz });
+	if (!Number.isFinite(frequencyHz) || frequencyHz <= 0) {
+		// a record under two cycles of the lowest mains frequency searched (0.7 × 50 Hz): its peak lies below the search
+		if (opts.frequencyHz === undefined && n / sampleRateHz < 2 / (0.7 * (opts.nominalHz ?? 50)))
+			return tooShortBlind(n, sampleRateHz);
+		return fail('no-fundamental', 'No periodic fundamental stands out in the spectrum of this record.');
+	}
+	const recordCycles = (n * frequencyHz) / sampleRateHz;
+	// without a nominal frequency the search starts at 1.8 cycles per record: below it nothing was measured
+	const blind = opts.frequencyHz === undefined && opts.nominalHz === undefined;
+	if (recordCycles < 1.8) return blind ? tooShortBlind(n, sampleRateHz) : tooShort(recordCycles, frequencyHz);
+	const settled = settleCrossings(samples, sampleRateHz, frequencyHz, opts);
+	if ('tooFew' in settled)
+		return blind && recordCycles < 2.2
+			? tooShortBlind(n, sampleRateHz)
+			: tooShort(recordCycles, settled.frequencyHz, settled.tooFew - 1);
+	return acceptTrack(settled.track, settled.frequencyHz, sampleRateHz, opts.maxCycles);
+}
+
+/** Options of findWholeCycles (see there). */
+export interface FindCyclesOptions {
+	frequencyHz?: number;
+	nominalHz?: number;
+	maxCycles?: number;
+	toRecordEnd?: boolean;
+}
+
+/** A NaN/infinite sample, sums beyond the largest double, or a constant record; undefined when usable. */
+function recordFailure(samples: Float64Array): SignalFailure | undefined {
+	const n = samples.length;
 	let mean = 0;
 	for (let i = 0; i < n; i++) {
 		if (!Number.isFinite(samples[i])) {
@@ -113,35 +150,27 @@ export function findWholeCycles(
 	if (!(acRms > 1e-9 * Math.abs(mean))) {
 		return fail('dc-only', `The record is constant (${fmt(mean)}): no alternating signal, so no cycles or frequency.`);
 	}
+	return undefined;
+}
 
-	if (opts.frequencyHz === undefined && opts.nominalHz !== undefined && (n * 1.3 * opts.nominalHz) / sampleRateHz < 1.8)
-		return tooShortBlind(n, sampleRateHz);
-	const block = Math.floor(sampleRateHz / CROSSING_RATE_HZ);
-	if (block >= 2 && n >= 16 * block) return onBlockMeans(samples, sampleRateHz, opts, block);
-	let frequencyHz = opts.frequencyHz ?? coarseFrequencyHz(samples, sampleRateHz, { nominalHz: opts.nominalHz });
-	if (!Number.isFinite(frequencyHz) || frequencyHz <= 0) {
-		// a record under two cycles of the lowest mains frequency searched (0.7 × 50 Hz): its peak lies below the search
-		if (opts.frequencyHz === undefined && n / sampleRateHz < 2 / (0.7 * (opts.nominalHz ?? 50)))
-			return tooShortBlind(n, sampleRateHz);
-		return fail('no-fundamental', 'No periodic fundamental stands out in the spectrum of this record.');
-	}
-	const recordCycles = (n * frequencyHz) / sampleRateHz;
-	// without a nominal frequency the search starts at 1.8 cycles per record: below it nothing was measured
-	const blind = opts.frequencyHz === undefined && opts.nominalHz === undefined;
-	if (recordCycles < 1.8) return blind ? tooShortBlind(n, sampleRateHz) : tooShort(recordCycles, frequencyHz);
-
-	// The crossings depend slightly on the fit frequency (windows near the record's ends are off-centre),
-	// so f_crossings(f_fit) = f is solved by the secant method: ~3 passes to 1e-12 instead of ~12 by plain
-	// iteration.
+/**
+ * The crossings depend slightly on the fit frequency (windows near the record's ends are off-centre),
+ * so f_crossings(f_fit) = f is solved by the secant method: ~3 passes to 1e-12 instead of ~12 by plain
+ * iteration. `tooFew` (the crossings found) when a pass finds under three.
+ */
+function settleCrossings(
+	samples: Float64Array,
+	sampleRateHz: number,
+	startHz: number,
+	opts: FindCyclesOptions,
+): { track: Track; frequencyHz: number } | { tooFew: number; frequencyHz: number } {
+	let frequencyHz = startHz;
 	let track: Track | undefined;
 	let previous: { fitHz: number; gapHz: number } | undefined;
 	for (let pass = 0; pass < 8; pass++) {
 		track = trackCrossings(samples, sampleRateHz / frequencyHz, opts.maxCycles, opts.toRecordEnd === true);
 		if (track.irregular) break;
-		if (track.crossings.length < 3)
-			return blind && recordCycles < 2.2
-				? tooShortBlind(n, sampleRateHz)
-				: tooShort(recordCycles, frequencyHz, track.crossings.length - 1);
+		if (track.crossings.length < 3) return { tooFew: track.crossings.length, frequencyHz };
 		const c = track.crossings;
 		const measuredHz = ((c.length - 1) * sampleRateHz) / (c[c.length - 1] - c[0]);
 		const gapHz = measuredHz - frequencyHz;
@@ -154,7 +183,16 @@ export function findWholeCycles(
 		previous = { fitHz: frequencyHz, gapHz };
 		frequencyHz = nextHz;
 	}
-	const t = track as Track;
+	return { track: track as Track, frequencyHz };
+}
+
+/** The window of a settled track, or why it is not a steady fundamental (spread of periods, weak fundamental). */
+function acceptTrack(
+	t: Track,
+	frequencyHz: number,
+	sampleRateHz: number,
+	maxCycles: number | undefined,
+): ({ ok: true } & CycleWindow) | SignalFailure {
 	if (t.irregular || !(t.periodSpread <= MAX_PERIOD_SPREAD)) {
 		const spread = t.irregular
 			? 'successive zero crossings jump by more than half a cycle'
@@ -172,8 +210,7 @@ export function findWholeCycles(
 		);
 	}
 	let crossings = Float64Array.from(t.crossings);
-	if (opts.maxCycles !== undefined && crossings.length - 1 > opts.maxCycles)
-		crossings = crossings.slice(0, opts.maxCycles + 1);
+	if (maxCycles !== undefined && crossings.length - 1 > maxCycles) crossings = crossings.slice(0, maxCycles + 1);
 	const cycles = crossings.length - 1;
 	const startIndex = crossings[0];
 	const endIndex = crossings[cycles];
@@ -244,7 +281,7 @@ const CROSSING_RATE_HZ = 51_200;
 function onBlockMeans(
 	samples: Float64Array,
 	sampleRateHz: number,
-	opts: { frequencyHz?: number; nominalHz?: number; maxCycles?: number; toRecordEnd?: boolean },
+	opts: FindCyclesOptions,
 	m: number,
 ): ({ ok: true } & CycleWindow) | SignalFailure {
 	const n = samples.length;

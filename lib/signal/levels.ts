@@ -1,7 +1,14 @@
 import type { ChannelRange, Diagnostic } from '../capture.js';
 import { findWholeCycles, type CycleWindow } from './cycles.js';
 import { signalWarnings } from './warnings.js';
-import { extremaIn, windowIntegral, type InnerSum } from './window-integral.js';
+import {
+	extremaIn,
+	innerSumRange,
+	squaresAndAbsAbout,
+	sumAndSquares,
+	windowIntegral,
+	type GivenInnerSum,
+} from './window-integral.js';
 
 /**
  * Scale factor of a sine-calibrated average-responding meter: K = π / (2√2) ≈ 1.110720735, the form
@@ -110,17 +117,7 @@ export interface WaveformFigures {
 export function waveformFigures(
 	samples: Float64Array,
 	sampleRateHz: number,
-	opts: {
-		span?: 'whole-cycles' | 'whole-record';
-		window?: CycleWindow;
-		frequencyHz?: number;
-		nominalHz?: number;
-		maxOrder?: number;
-		peakAccuracyPercent?: number;
-		/** The range the file states and the first sample's time, for the clipping warning (see `signalWarnings`). */
-		range?: ChannelRange;
-		startS?: number;
-	} = {},
+	opts: WaveformOptions = {},
 ): WaveformFigures {
 	if (!(sampleRateHz > 0 && Number.isFinite(sampleRateHz)))
 		throw new RangeError(`sampleRateHz must be positive, got ${sampleRateHz}`);
@@ -130,6 +127,51 @@ export function waveformFigures(
 		warnings.push({ code: 'no-samples', message: 'The channel has no samples: no figures.', severity: 'warning' });
 		return nanFigures('whole-record', 0, -1, NaN, warnings);
 	}
+	const { cycleWindow, frequencyHz } = figuresWindow(samples, sampleRateHz, opts, warnings);
+	warnings.push(
+		...signalWarnings(samples, sampleRateHz, {
+			frequencyHz,
+			cycles: cycleWindow?.cycles,
+			nominalHz: opts.nominalHz,
+			maxOrder: opts.maxOrder,
+			peakAccuracyPercent: opts.peakAccuracyPercent,
+			range: opts.range,
+			startS: opts.startS,
+		}),
+	);
+	const span = cycleWindow ? 'whole-cycles' : 'whole-record';
+	const startIndex = cycleWindow ? cycleWindow.startIndex : 0;
+	const endIndex = cycleWindow ? cycleWindow.endIndex : n - 1;
+	const cycles = cycleWindow ? cycleWindow.cycles : frequencyHz !== undefined ? (n * frequencyHz) / sampleRateHz : NaN;
+	if (hasNonFinite(samples)) return nanFigures(span, startIndex, endIndex, cycles, warnings);
+	return { ...levelsOver(samples, cycleWindow), span, startIndex, endIndex, cycles, warnings };
+}
+
+/** Options of waveformFigures. */
+export interface WaveformOptions {
+	span?: 'whole-cycles' | 'whole-record';
+	window?: CycleWindow;
+	frequencyHz?: number;
+	nominalHz?: number;
+	maxOrder?: number;
+	peakAccuracyPercent?: number;
+	/** The range the file states and the first sample's time, for the clipping warning (see `signalWarnings`). */
+	range?: ChannelRange;
+	startS?: number;
+}
+
+/**
+ * The whole cycles the figures cover (given, found here, or none for the whole record) and the frequency
+ * known; pushes the fallback and bridging warnings.
+ * @throws RangeError for a given window outside the record
+ */
+function figuresWindow(
+	samples: Float64Array,
+	sampleRateHz: number,
+	opts: WaveformOptions,
+	warnings: Diagnostic[],
+): { cycleWindow: CycleWindow | undefined; frequencyHz: number | undefined } {
+	const n = samples.length;
 	let frequencyHz = opts.window?.frequencyHz ?? opts.frequencyHz;
 	let cycleWindow = opts.window;
 	if (opts.span !== 'whole-record' && cycleWindow === undefined) {
@@ -167,35 +209,33 @@ export function waveformFigures(
 			severity: 'warning',
 		});
 	}
-	warnings.push(
-		...signalWarnings(samples, sampleRateHz, {
-			frequencyHz,
-			cycles: cycleWindow?.cycles,
-			nominalHz: opts.nominalHz,
-			maxOrder: opts.maxOrder,
-			peakAccuracyPercent: opts.peakAccuracyPercent,
-			range: opts.range,
-			startS: opts.startS,
-		}),
-	);
-	const span = cycleWindow ? 'whole-cycles' : 'whole-record';
+	return { cycleWindow, frequencyHz };
+}
+
+/** The level figures over the window (or the whole record): means, RMS, peaks, ratios and the meter reading. */
+function levelsOver(
+	samples: Float64Array,
+	cycleWindow: CycleWindow | undefined,
+): Omit<WaveformFigures, 'span' | 'startIndex' | 'endIndex' | 'cycles' | 'warnings'> {
+	const n = samples.length;
 	const startIndex = cycleWindow ? cycleWindow.startIndex : 0;
 	const endIndex = cycleWindow ? cycleWindow.endIndex : n - 1;
-	const cycles = cycleWindow ? cycleWindow.cycles : frequencyHz !== undefined ? (n * frequencyHz) / sampleRateHz : NaN;
-	if (hasNonFinite(samples)) return nanFigures(span, startIndex, endIndex, cycles, warnings);
-
 	// Whole record: each sample weighs 1/N. Whole cycles: trapezoid over the fractional window; a window
 	// ending past the last sample (at most at N) takes the value there one period earlier.
 	const periodSamples =
 		cycleWindow && cycleWindow.cycles >= 1 ? (endIndex - startIndex) / cycleWindow.cycles : endIndex - startIndex;
 	const average = cycleWindow
-		? (g: (x: number) => number, inner: InnerSum) =>
+		? (g: (x: number) => number, inner: GivenInnerSum) =>
 				windowIntegral(samples, startIndex, endIndex, g, periodSamples, inner) / (endIndex - startIndex)
-		: (g: (x: number) => number, inner: InnerSum) => windowIntegral(samples, 0, n, g, n, inner) / n;
-	const mean = average((x) => x, { kind: 'x' });
-	const rms = Math.sqrt(average((x) => x * x, { kind: 'square', about: 0 }));
-	const acRms = Math.sqrt(average((x) => (x - mean) * (x - mean), { kind: 'square', about: mean }));
-	const rectifiedMean = average((x) => Math.abs(x - mean), { kind: 'abs', about: mean });
+		: (g: (x: number) => number, inner: GivenInnerSum) => windowIntegral(samples, 0, n, g, n, inner) / n;
+	// two passes over the samples instead of four: the inner sums of x and x², then of (x − mean)² and |x − mean|
+	const { from, to } = cycleWindow ? innerSumRange(startIndex, endIndex) : innerSumRange(0, n);
+	const plain = sumAndSquares(samples, from, to);
+	const mean = average((x) => x, { kind: 'given', sum: plain.sum });
+	const rms = Math.sqrt(average((x) => x * x, { kind: 'given', sum: plain.squares }));
+	const about = squaresAndAbsAbout(samples, from, to, mean);
+	const acRms = Math.sqrt(average((x) => (x - mean) * (x - mean), { kind: 'given', sum: about.squares }));
+	const rectifiedMean = average((x) => Math.abs(x - mean), { kind: 'given', sum: about.abs });
 	const { max: peak, min: peakNegative } = extremaIn(samples, startIndex, endIndex);
 	const reading = averageRespondingReading(rectifiedMean);
 	return {
@@ -213,11 +253,6 @@ export function waveformFigures(
 			errorPercent: 100 * (ratio(reading, rms) - 1),
 			errorPercentAc: 100 * (ratio(reading, acRms) - 1),
 		},
-		span,
-		startIndex,
-		endIndex,
-		cycles,
-		warnings,
 	};
 }
 

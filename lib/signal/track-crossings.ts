@@ -46,92 +46,143 @@ export function trackCrossings(
 ): Track {
 	const n = samples.length;
 	const last = n - 1;
-	const end = toRecordEnd ? n : last;
-	let fundamentalSquares = 0;
-	let residualSquares = 0;
-	let previousAmplitude = NaN;
-	let previousQuality = NaN;
-	/** What the fit leaves relative to what it explains: near 0 for a clean sine, jumps at a step. */
-	const quality = (g: FundamentalFit) => g.residualRms / Math.max(g.amplitude, 1e-300);
-	/** Centred fit; `strongest` is compared with its amplitude (bridging) before any one-sided refit. */
-	const fit = (expected: number, period: number, centredAmplitude?: { value: number }) => {
-		let f = fitFundamental(samples, expected, period);
-		if (centredAmplitude) centredAmplitude.value = f.amplitude;
-		// A sudden change of amplitude (dip, swell, interruption edge) inside the window biases the phase of a
-		// centred fit; the fit from the side the step is not on, one period off-centre, is then cleaner.
-		if (Math.abs(f.amplitude / previousAmplitude - 1) > 0.02 || quality(f) > 1.5 * previousQuality + 1e-9) {
-			for (const side of [-period, period]) {
-				const g = fitFundamental(samples, expected, period, expected + side);
-				if (quality(g) < 0.5 * quality(f)) f = g; // only a clearly cleaner fit: off-centre ones extrapolate
-			}
-		}
-		fundamentalSquares += (f.amplitude * f.amplitude) / 2;
-		residualSquares += f.residualRms * f.residualRms;
-		return f;
-	};
+	const fitter = new CrossingFitter(samples);
 	// Anchor near the start (one period in), refit once so the anchor's own window is centred on it.
-	const first = fit(Math.min(periodSamples, last / 2), periodSamples);
-	const anchorFit = fit(first.crossingIndex, periodSamples);
+	const first = fitter.fit(Math.min(periodSamples, last / 2), periodSamples);
+	const anchorFit = fitter.fit(first.crossingIndex, periodSamples);
 	const anchor = anchorFit.crossingIndex;
-	previousAmplitude = anchorFit.amplitude;
-	previousQuality = quality(anchorFit);
-	let strongest = anchorFit.amplitude;
-	const bridged: number[] = [];
-	const forward: number[] = [];
-	const backward: number[] = [];
-	let irregular = false;
-	// Each step fits with the local period (mean of the last few cycles), so a drifting frequency is followed
-	// and the off-centre windows at the record's ends extrapolate the phase at the right rate. Four cycles
-	// average out noise on single intervals while lagging a 0.1 Hz/s ramp by under 1e-4 of a period.
-	const recent = 4;
-	// Each step moves at least half a period (a smaller one is irregular and stops), so no direction takes
-	// more than 2n / periodSamples + 2 steps; the bound also stops the loop if a NaN ever slips through.
-	const maxSteps = Math.ceil((2 * n) / periodSamples) + 2;
 	if (!(Number.isFinite(anchor) && periodSamples > 0 && Number.isFinite(periodSamples))) {
 		return { crossings: [], fundamentalRatio: NaN, irregular: true, bridged: [], periodSpread: NaN };
 	}
-	for (const direction of [1, -1]) {
-		const out = direction > 0 ? forward : backward;
-		// Backwards, start from the first cycles measured forwards: the anchor sits one period in.
-		const seen = direction < 0 ? [anchor, ...forward.slice(0, recent)] : [anchor];
-		let period = seen.length > 1 ? (seen[seen.length - 1] - seen[0]) / (seen.length - 1) : periodSamples;
-		let prev = anchor;
-		previousAmplitude = anchorFit.amplitude;
-		previousQuality = quality(anchorFit);
-		for (let steps = 0; ; steps++) {
-			const guess = prev + direction * period;
-			if (!Number.isFinite(guess) || steps > maxSteps) {
-				irregular = true;
-				break;
+	const state: TrackState = { strongest: anchorFit.amplitude, bridged: [], irregular: false };
+	const forward = trackDirection(fitter, anchorFit, 1, [anchor], periodSamples, maxCycles, state);
+	// Backwards, start from the first cycles measured forwards: the anchor sits one period in.
+	const backward = trackDirection(
+		fitter,
+		anchorFit,
+		-1,
+		[anchor, ...forward.slice(0, RECENT_CYCLES)],
+		periodSamples,
+		undefined,
+		state,
+	);
+	return finishTrack(backward, anchor, forward, toRecordEnd ? n : last, fitter, state);
+}
+
+/**
+ * Each step fits with the local period (mean of the last few cycles), so a drifting frequency is followed
+ * and the off-centre windows at the record's ends extrapolate the phase at the right rate. Four cycles
+ * average out noise on single intervals while lagging a 0.1 Hz/s ramp by under 1e-4 of a period.
+ */
+const RECENT_CYCLES = 4;
+
+/** What the two directions of one tracking pass share. */
+interface TrackState {
+	strongest: number;
+	bridged: number[];
+	irregular: boolean;
+}
+
+/** fitFundamental with the step check against the last good fit and the pooled fundamental/residual sums. */
+class CrossingFitter {
+	fundamentalSquares = 0;
+	residualSquares = 0;
+	previousAmplitude = NaN;
+	previousQuality = NaN;
+	constructor(readonly samples: Float64Array) {}
+
+	/** Centred fit; `centredAmplitude` receives its amplitude (bridging) before any one-sided refit. */
+	fit(expected: number, period: number, centredAmplitude?: { value: number }): FundamentalFit {
+		let f = fitFundamental(this.samples, expected, period);
+		if (centredAmplitude) centredAmplitude.value = f.amplitude;
+		// A sudden change of amplitude (dip, swell, interruption edge) inside the window biases the phase of a
+		// centred fit; the fit from the side the step is not on, one period off-centre, is then cleaner.
+		if (Math.abs(f.amplitude / this.previousAmplitude - 1) > 0.02 || quality(f) > 1.5 * this.previousQuality + 1e-9) {
+			for (const side of [-period, period]) {
+				const g = fitFundamental(this.samples, expected, period, expected + side);
+				if (quality(g) < 0.5 * quality(f)) f = g; // only a clearly cleaner fit: off-centre ones extrapolate
 			}
-			if (guess > last + period / 2 || guess < -period / 2) break;
-			const centred = { value: 0 };
-			const f = fit(guess, period, centred);
-			strongest = Math.max(strongest, centred.value);
-			const step = direction * (f.crossingIndex - prev);
-			const regular = step > periodSamples / 2 && step < 1.5 * periodSamples;
-			// Where the fundamental vanishes (an interruption: under 5 % of the strongest fit, or a wild step
-			// under half of it) its phase means nothing: carry the crossings on at the last period.
-			if (centred.value < BRIDGE_BELOW * strongest || (!regular && f.amplitude < 0.5 * strongest)) {
-				out.push(guess);
-				bridged.push(guess);
-				prev = guess;
-				continue;
-			}
-			if (!regular) {
-				irregular = true;
-				break;
-			}
-			const c = f.crossingIndex;
-			previousAmplitude = f.amplitude;
-			previousQuality = quality(f);
-			out.push(c);
-			const k = Math.min(out.length, recent);
-			period = (direction * (c - (out.length > k ? out[out.length - 1 - k] : anchor))) / k;
-			prev = c;
-			if (direction > 0 && maxCycles !== undefined && out.length > maxCycles) break;
 		}
+		this.fundamentalSquares += (f.amplitude * f.amplitude) / 2;
+		this.residualSquares += f.residualRms * f.residualRms;
+		return f;
 	}
+
+	/** The last good fit the next step is compared with. */
+	accept(f: FundamentalFit): void {
+		this.previousAmplitude = f.amplitude;
+		this.previousQuality = quality(f);
+	}
+}
+
+/** What the fit leaves relative to what it explains: near 0 for a clean sine, jumps at a step. */
+function quality(g: FundamentalFit): number {
+	return g.residualRms / Math.max(g.amplitude, 1e-300);
+}
+
+/** Crossings one period at a time from the anchor in one direction, to the record's end or `maxCycles`. */
+function trackDirection(
+	fitter: CrossingFitter,
+	anchorFit: FundamentalFit,
+	direction: 1 | -1,
+	seen: number[],
+	periodSamples: number,
+	maxCycles: number | undefined,
+	state: TrackState,
+): number[] {
+	const last = fitter.samples.length - 1;
+	const anchor = anchorFit.crossingIndex;
+	const out: number[] = [];
+	let period = seen.length > 1 ? (seen[seen.length - 1] - seen[0]) / (seen.length - 1) : periodSamples;
+	let prev = anchor;
+	fitter.accept(anchorFit);
+	// Each step moves at least half a period (a smaller one is irregular and stops), so no direction takes
+	// more than 2n / periodSamples + 2 steps; the bound also stops the loop if a NaN ever slips through.
+	const maxSteps = Math.ceil((2 * (last + 1)) / periodSamples) + 2;
+	for (let steps = 0; ; steps++) {
+		const guess = prev + direction * period;
+		if (!Number.isFinite(guess) || steps > maxSteps) {
+			state.irregular = true;
+			break;
+		}
+		if (guess > last + period / 2 || guess < -period / 2) break;
+		const centred = { value: 0 };
+		const f = fitter.fit(guess, period, centred);
+		state.strongest = Math.max(state.strongest, centred.value);
+		const step = direction * (f.crossingIndex - prev);
+		const regular = step > periodSamples / 2 && step < 1.5 * periodSamples;
+		// Where the fundamental vanishes (an interruption: under 5 % of the strongest fit, or a wild step
+		// under half of it) its phase means nothing: carry the crossings on at the last period.
+		if (centred.value < BRIDGE_BELOW * state.strongest || (!regular && f.amplitude < 0.5 * state.strongest)) {
+			out.push(guess);
+			state.bridged.push(guess);
+			prev = guess;
+			continue;
+		}
+		if (!regular) {
+			state.irregular = true;
+			break;
+		}
+		const c = f.crossingIndex;
+		fitter.accept(f);
+		out.push(c);
+		const k = Math.min(out.length, RECENT_CYCLES);
+		period = (direction * (c - (out.length > k ? out[out.length - 1 - k] : anchor))) / k;
+		prev = c;
+		if (direction > 0 && maxCycles !== undefined && out.length > maxCycles) break;
+	}
+	return out;
+}
+
+/** The crossings inside the record (ends snapped), the spread of their intervals and the pooled ratio. */
+function finishTrack(
+	backward: number[],
+	anchor: number,
+	forward: number[],
+	end: number,
+	fitter: CrossingFitter,
+	state: TrackState,
+): Track {
 	// The record covers [0, N) in sample intervals (sample n stands for [n, n + 1)), so a crossing may lie
 	// anywhere in [0, N]: one at N closes the last whole cycle of a record of exactly k cycles (kept when
 	// `toRecordEnd`; otherwise crossings stop at N − 1, the last sample). A crossing within 1e-6 sample
@@ -152,12 +203,12 @@ export function trackCrossings(
 	const k = all.length - 1;
 	const meanPeriod = sum / k;
 	const spread = k > 0 ? Math.sqrt(Math.max(0, sumSquares / k - meanPeriod * meanPeriod)) / meanPeriod : NaN;
-	const bridgedInside = bridged.filter((c) => c >= 0 && c <= end);
+	const bridgedInside = state.bridged.filter((c) => c >= 0 && c <= end);
 	return {
 		crossings: all,
-		fundamentalRatio: Math.sqrt(fundamentalSquares / Math.max(residualSquares, 1e-300)),
+		fundamentalRatio: Math.sqrt(fitter.fundamentalSquares / Math.max(fitter.residualSquares, 1e-300)),
 		// mostly bridged = mostly no fundamental
-		irregular: irregular || bridgedInside.length > all.length / 2,
+		irregular: state.irregular || bridgedInside.length > all.length / 2,
 		bridged: bridgedInside,
 		periodSpread: spread,
 	};

@@ -200,23 +200,35 @@ function clippingWarning(samples: Float64Array, periodSamples: number | undefine
 	let runs = 0;
 	let longest = 0;
 	let shortest = Infinity;
-	// A signal resting at exactly zero (a rectifier or a switched load that is off) is not clipped.
-	for (const level of [max, min].filter((v) => v !== 0)) {
-		let run = 0;
-		const side = level === max ? 1 : -1;
-		for (let i = 0; i <= n; i++) {
-			if (i < n && samples[i] === level) run++;
-			else {
-				// a slow crest sits on its top code for long: only a run the wave meets at a slope break is a clip
-				if (run >= minRun && runShowsSlopeBreak(samples, i - run, i - 1, side, level, step)) {
-					runs++;
-					longest = Math.max(longest, run);
-					shortest = Math.min(shortest, run);
-				}
-				run = 0;
-			}
+	const judge = (first: number, run: number, side: 1 | -1, level: number) => {
+		// a slow crest sits on its top code for long: only a run the wave meets at a slope break is a clip
+		if (run >= minRun && runShowsSlopeBreak(samples, first, first + run - 1, side, level, step)) {
+			runs++;
+			longest = Math.max(longest, run);
+			shortest = Math.min(shortest, run);
+		}
+	};
+	// Runs at the top and at the bottom in one pass (NaN matches no sample). A signal resting at exactly
+	// zero (a rectifier or a switched load that is off) is not clipped.
+	const top = max !== 0 ? max : NaN;
+	const bottom = min !== 0 ? min : NaN;
+	let runTop = 0;
+	let runBottom = 0;
+	for (let i = 0; i < n; i++) {
+		const x = samples[i];
+		if (x === top) runTop++;
+		else if (runTop > 0) {
+			judge(i - runTop, runTop, 1, top);
+			runTop = 0;
+		}
+		if (x === bottom) runBottom++;
+		else if (runBottom > 0) {
+			judge(i - runBottom, runBottom, -1, bottom);
+			runBottom = 0;
 		}
 	}
+	if (runTop > 0) judge(n - runTop, runTop, 1, top);
+	if (runBottom > 0) judge(n - runBottom, runBottom, -1, bottom);
 	if (runs === 0) return undefined;
 	return (
 		`Possible clipping: ${runs} flat run(s) of ${shortest === longest ? longest : `${shortest} to ${longest}`} equal samples at the extreme values ${fmt(max)} / ${fmt(min)}; ` +

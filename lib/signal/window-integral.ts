@@ -41,7 +41,7 @@ export function windowIntegral(
 	endIndex: number,
 	g: (x: number) => number,
 	periodSamples: number = endIndex - startIndex,
-	inner?: InnerSum,
+	inner?: InnerSum | GivenInnerSum,
 ): number {
 	const n = samples.length;
 	const last = n - 1;
@@ -73,13 +73,58 @@ export function windowIntegral(
 	const g1 = at(i1);
 	if (i1 > first) {
 		sum +=
-			(inner ? innerSum(samples, first + 1, i1, inner) : innerGeneric(samples, first + 1, i1, g)) + (gFirst + g1) / 2;
+			(inner === undefined
+				? innerGeneric(samples, first + 1, i1, g)
+				: inner.kind === 'given'
+					? inner.sum
+					: innerSum(samples, first + 1, i1, inner)) +
+			(gFirst + g1) / 2;
 	}
 	return sum + ((g1 + gEnd) / 2) * (endIndex - i1);
 }
 
 /** g named for the inner sum: x, (x − about)², |x − about|. */
 export type InnerSum = { kind: 'x' } | { kind: 'square'; about: number } | { kind: 'abs'; about: number };
+
+/**
+ * The inner sum already taken over `innerSumRange(startIndex, endIndex)` (e.g. two integrands in one pass,
+ * `sumAndSquares`, `squaresAndAbsAbout`): windowIntegral then only adds the end pieces.
+ */
+export type GivenInnerSum = { kind: 'given'; sum: number };
+
+/** The samples [from, to) windowIntegral sums in its inner loop for a window (empty when to ≤ from). */
+export function innerSumRange(startIndex: number, endIndex: number): { from: number; to: number } {
+	return { from: Math.floor(startIndex) + 2, to: Math.floor(endIndex) };
+}
+
+/** Σ x and Σ x² over [from, to) in one pass, each added in index order (as innerSum 'x' and 'square' about 0). */
+export function sumAndSquares(samples: Float64Array, from: number, to: number): { sum: number; squares: number } {
+	let sum = 0;
+	let squares = 0;
+	for (let j = from; j < to; j++) {
+		const x = samples[j];
+		sum += x;
+		squares += x * x;
+	}
+	return { sum, squares };
+}
+
+/** Σ (x − m)² and Σ |x − m| over [from, to) in one pass, each added in index order (as innerSum). */
+export function squaresAndAbsAbout(
+	samples: Float64Array,
+	from: number,
+	to: number,
+	m: number,
+): { squares: number; abs: number } {
+	let squares = 0;
+	let abs = 0;
+	for (let j = from; j < to; j++) {
+		const d = samples[j] - m;
+		squares += d * d;
+		abs += Math.abs(d);
+	}
+	return { squares, abs };
+}
 
 function innerGeneric(samples: Float64Array, from: number, to: number, g: (x: number) => number): number {
 	let s = 0;

@@ -2,7 +2,13 @@
  * Consecutive gapless harmonic windows over a capture, and their aggregate (IEC 61000-4-30 style).
  */
 import { wrapAngleDeg } from '../phasor/phasor.js';
-import { defaultWindowCycles, harmonicWindow, percentOf, relativePhases } from './harmonics.js';
+import {
+	defaultWindowCycles,
+	harmonicWindow,
+	percentOf,
+	relativePhases,
+	type HarmonicWindowCore,
+} from './harmonics.js';
 import { iecHarmonicGroups } from './groups.js';
 import { thdFigures } from './thd.js';
 import type { HarmonicPhasor, HarmonicWindow } from './types.js';
@@ -76,9 +82,11 @@ export function harmonicAnalysis(
 
 /**
  * Aggregate of windows analysed with the same cycles and maxOrder (see harmonicAnalysis for the rules).
+ * Takes full windows (harmonicWindow) or their cores (harmonicWindowCore): only the orders, bins and
+ * window RMS enter the aggregate; its groups and THD come from the aggregated bins.
  * @throws RangeError when the list is empty or the windows differ in cycles or order count
  */
-export function aggregateHarmonicWindows(windows: HarmonicWindow[]): HarmonicAggregate {
+export function aggregateHarmonicWindows(windows: HarmonicWindowCore[]): HarmonicAggregate {
 	if (windows.length === 0) throw new RangeError('no windows to aggregate');
 	const first = windows[0];
 	const c = first.set.cycles;
@@ -89,17 +97,16 @@ export function aggregateHarmonicWindows(windows: HarmonicWindow[]): HarmonicAgg
 			throw new RangeError('windows differ in cycles or orders');
 	}
 	const n = windows.length;
-	const meanSquare = (pick: (w: HarmonicWindow) => ArrayLike<number>, size: number) => {
-		const out = new Float64Array(size);
-		for (const w of windows) {
-			const a = pick(w);
-			for (let i = 0; i < size; i++) out[i] += a[i] * a[i];
-		}
-		for (let i = 0; i < size; i++) out[i] = Math.sqrt(out[i] / n);
-		return out;
-	};
-	const orderRms = meanSquare((w) => w.set.orders.map((o) => o.rms), nOrders);
-	const binRms = meanSquare((w) => w.binRms, nBins);
+	const orderRms = new Float64Array(nOrders);
+	const binRms = new Float64Array(nBins);
+	for (const w of windows) {
+		const orders = w.set.orders;
+		for (let h = 0; h < nOrders; h++) orderRms[h] += orders[h].rms * orders[h].rms;
+		const b = w.binRms;
+		for (let k = 0; k < nBins; k++) binRms[k] += b[k] * b[k];
+	}
+	for (let h = 0; h < nOrders; h++) orderRms[h] = Math.sqrt(orderRms[h] / n);
+	for (let k = 0; k < nBins; k++) binRms[k] = Math.sqrt(binRms[k] / n);
 	const orders: HarmonicPhasor[] = [];
 	for (let h = 0; h < nOrders; h++) {
 		let re = 0;

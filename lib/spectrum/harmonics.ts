@@ -109,8 +109,41 @@ export function harmonicWindow(
 	sampleRateHz: number,
 	opts: HarmonicWindowOptions,
 ): HarmonicWindow {
+	const core = harmonicWindowCore(samples, sampleRateHz, opts);
+	const { orders } = core.set;
+	const orderRms = new Float64Array(orders.length);
+	for (let h = 0; h < orders.length; h++) orderRms[h] = orders[h].rms;
+	const groups = iecHarmonicGroups(core.binRms, core.set.cycles, orders.length - 1);
+	return {
+		...core,
+		phaseRelDeg: relativePhases(orders),
+		percentOfFundamental: percentOf(orderRms),
+		groups,
+		thd: thdFigures(orderRms, groups.harmonicGroupRms, groups.harmonicSubgroupRms),
+	};
+}
+
+/**
+ * The part of a harmonic window that aggregation needs: orders (RMS, absolute phase), bin RMS, window
+ * RMS and where the window lies, without the per-window groups, THD, relative phases and percentages
+ * (harmonicWindow adds those). Same figures as harmonicWindow, same checks and errors.
+ */
+export type HarmonicWindowCore = Omit<HarmonicWindow, 'phaseRelDeg' | 'percentOfFundamental' | 'groups' | 'thd'>;
+
+/** The checked parameters of one window. */
+interface WindowPlan {
+	f1: number;
+	fs: number;
+	c: number;
+	maxOrder: number;
+	start: number;
+	/** Window length in samples, c·fs/f1 (fractional). */
+	len: number;
+	nBins: number;
+}
+
+function planWindow(samples: Float64Array, fs: number, opts: HarmonicWindowOptions): WindowPlan {
 	const f1 = opts.fundamentalHz;
-	const fs = sampleRateHz;
 	if (!(fs > 0) || !Number.isFinite(fs)) throw new RangeError(`sampleRateHz must be a positive number, got ${fs}`);
 	if (!(f1 > 0) || !(f1 < fs / 2)) throw new RangeError(`fundamentalHz must be in (0, ${fs / 2}) Hz, got ${f1}`);
 	const c = opts.cycles ?? defaultWindowCycles(f1);
@@ -126,50 +159,73 @@ export function harmonicWindow(
 			`a window of ${c} cycles at ${f1} Hz needs ${len.toFixed(3)} samples from index ${start}; the capture has ${samples.length}`,
 		);
 	}
-	const nBins = c * (maxOrder + 1) + 1;
-	const nearest = Math.round(len);
-	const whole = Math.abs(len - nearest) <= WHOLE_SAMPLES_TOLERANCE && nearest >= 2;
+	return { f1, fs, c, maxOrder, start, len, nBins: c * (maxOrder + 1) + 1 };
+}
+
+/** The window's DFT in the shared work buffers: direct on whole samples, else after resampling. */
+interface WindowTransform {
+	m: number;
+	input: Float64Array;
+	/** Samples the DFT's start lies after the requested start (direct path only). */
+	shift: number;
+	whole: boolean;
+	w: Work;
+}
+
+function transformWindow(samples: Float64Array, p: WindowPlan): WindowTransform {
+	const nearest = Math.round(p.len);
+	const whole = Math.abs(p.len - nearest) <= WHOLE_SAMPLES_TOLERANCE && nearest >= 2;
 	let m: number;
 	let input: Float64Array;
-	let shift = 0; // samples the DFT's start lies after the requested start (direct path only)
+	let shift = 0;
 	let w: Work;
 	if (whole) {
 		m = nearest;
-		let s0 = Math.round(start);
+		let s0 = Math.round(p.start);
 		if (s0 + m > samples.length) s0 = samples.length - m;
-		shift = s0 - start;
+		shift = s0 - p.start;
 		input = samples.subarray(s0, s0 + m);
 		w = work(m);
 	} else {
 		m = 4;
-		while (m < len || m < 2 * nBins) m *= 2;
+		while (m < p.len || m < 2 * p.nBins) m *= 2;
 		w = work(m);
 		// keep every reported bin, up to order maxOrder + 1, inside the interpolator's passband
-		input = syncResample(samples, start, len, w.resampled, Math.min(0.49, ((maxOrder + 1) * f1) / fs));
+		input = syncResample(samples, p.start, p.len, w.resampled, Math.min(0.49, ((p.maxOrder + 1) * p.f1) / p.fs));
 	}
 	dftPlan(m).forward(input, w.re, w.im);
+	return { m, input, shift, whole, w };
+}
 
-	let sumSquares = 0;
-	for (let i = 0; i < m; i++) sumSquares += input[i] * input[i];
-	const windowRms = Math.sqrt(sumSquares / m);
-	const binHz = f1 / c;
-	const binRms = new Float64Array(nBins);
-	for (let k = 0; k < nBins; k++) {
-		const valid = k * binHz < fs / 2 && k <= m >> 1;
-		binRms[k] = valid ? ((k === 0 ? 1 : Math.SQRT2) * Math.sqrt(w.re[k] * w.re[k] + w.im[k] * w.im[k])) / m : NaN;
+/** C_0 = |X_0|/M, C_k = √2·|X_k|/M; NaN at or above fs/2. */
+function binRmsOf(p: WindowPlan, t: WindowTransform): Float64Array {
+	const { re, im } = t.w;
+	const binHz = p.f1 / p.c;
+	const binRms = new Float64Array(p.nBins);
+	for (let k = 0; k < p.nBins; k++) {
+		const valid = k * binHz < p.fs / 2 && k <= t.m >> 1;
+		binRms[k] = valid ? ((k === 0 ? 1 : Math.SQRT2) * Math.sqrt(re[k] * re[k] + im[k] * im[k])) / t.m : NaN;
 	}
+	return binRms;
+}
 
-	const orders: HarmonicPhasor[] = new Array(maxOrder + 1);
-	const orderRms = new Float64Array(maxOrder + 1);
+/** Each order's RMS and absolute phase (the direct path's start shift undone by the shift theorem). */
+function orderPhasors(
+	p: WindowPlan,
+	t: WindowTransform,
+	binRms: Float64Array,
+	windowRms: number,
+): { orders: HarmonicPhasor[]; highestValidOrder: number } {
+	const orders: HarmonicPhasor[] = new Array(p.maxOrder + 1);
 	const floor = PHASE_FLOOR * windowRms;
 	let highestValidOrder = 0;
-	for (let h = 0; h <= maxOrder; h++) {
-		const k = c * h;
+	for (let h = 0; h <= p.maxOrder; h++) {
+		const k = p.c * h;
 		const rms = binRms[k];
-		let re = w.re[k];
-		let im = w.im[k];
-		if (shift !== 0 && h > 0) {
-			const a = (-2 * Math.PI * k * shift) / m;
+		let re = t.w.re[k];
+		let im = t.w.im[k];
+		if (t.shift !== 0 && h > 0) {
+			const a = (-2 * Math.PI * k * t.shift) / t.m;
 			const cr = Math.cos(a);
 			const ci = Math.sin(a);
 			const r2 = re * cr - im * ci;
@@ -182,25 +238,34 @@ export function harmonicWindow(
 		else phaseDeg = wrapAngleDeg((Math.atan2(im, re) * 180) / Math.PI);
 		if (!Number.isNaN(rms)) highestValidOrder = h;
 		orders[h] = { order: h, rms, phaseDeg };
-		orderRms[h] = rms;
 	}
-	const groups = iecHarmonicGroups(binRms, c, maxOrder);
-	const result: HarmonicWindow = {
-		set: { fundamentalHz: f1, startS: start / fs, cycles: c, orders },
-		phaseRelDeg: relativePhases(orders),
-		percentOfFundamental: percentOf(orderRms),
+	return { orders, highestValidOrder };
+}
+
+/** harmonicWindow without the per-window groups, THD, relative phases and percentages (see HarmonicWindowCore). */
+export function harmonicWindowCore(
+	samples: Float64Array,
+	sampleRateHz: number,
+	opts: HarmonicWindowOptions,
+): HarmonicWindowCore {
+	const p = planWindow(samples, sampleRateHz, opts);
+	const t = transformWindow(samples, p);
+	let sumSquares = 0;
+	for (let i = 0; i < t.m; i++) sumSquares += t.input[i] * t.input[i];
+	const windowRms = Math.sqrt(sumSquares / t.m);
+	const binRms = binRmsOf(p, t);
+	const { orders, highestValidOrder } = orderPhasors(p, t, binRms, windowRms);
+	return {
+		set: { fundamentalHz: p.f1, startS: p.start / p.fs, cycles: p.c, orders },
 		binRms,
-		binHz,
-		groups,
-		thd: thdFigures(orderRms, groups.harmonicGroupRms, groups.harmonicSubgroupRms),
+		binHz: p.f1 / p.c,
 		windowRms,
-		startIndex: start,
-		endIndex: start + len,
-		dftLength: m,
-		resampled: !whole,
+		startIndex: p.start,
+		endIndex: p.start + p.len,
+		dftLength: t.m,
+		resampled: !t.whole,
 		highestValidOrder,
 	};
-	return result;
 }
 
 /** φ_h − h·φ_1 wrapped to (−180, 180]; NaN where either phase is NaN. */

@@ -5,6 +5,8 @@ export { iecHarmonicGroups } from './groups.js';
 export { thdFPercent, thdRPercent, thdFigures } from './thd.js';
 export {
 	harmonicWindow,
+	harmonicWindowCore,
+	type HarmonicWindowCore,
 	defaultWindowCycles,
 	basicWindowCycles,
 	MAX_HARMONIC_ORDER,

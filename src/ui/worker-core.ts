@@ -7,7 +7,7 @@
 import type { Capture } from '../../lib/capture.js';
 import { gapFreeSpan, isImportError } from '../../lib/io/index.js';
 import { analyseCapture, chooseReference } from '../../lib/report/index.js';
-import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
+import type { AnalysisOptions, AnalysisProgress, AnalysisReport, AnalysisStage } from '../../lib/report/types.js';
 import { analyseTrend } from '../../lib/trend/index.js';
 import { eventsCountedOnce } from '../../lib/report/index.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
@@ -188,34 +188,43 @@ function analyseSpan(
 	return { report, extras, analysed: span.capture };
 }
 
-/** Captures shorter than this are analysed without a time estimate (they take well under a second). */
-const ESTIMATE_FROM_S = 20;
+/** Words for each part of the analysis in the progress line. */
+const STAGE_WORDS: Record<AnalysisStage, string> = {
+	reference: 'finding whole cycles',
+	events: 'voltage events',
+	harmonics: 'harmonics',
+	channels: 'levels of each channel',
+	relations: 'power and phase',
+	flicker: 'flicker',
+};
 
 /**
- * Expected seconds for analyseSpan on the whole capture: the time it takes on its first twentieth (at least
- * 2 s of the record), scaled by length (its cost grows linearly with the number of samples), plus 10 %.
- * Null for short captures.
+ * Analysis options that post lib/report's own progress (stage, windows or channels done of their total,
+ * fraction of the whole analysis) with a time left from the rate so far; at most one message per 1 % or
+ * stage change.
  */
-function analysisEstimateS(capture: Capture, analysis: AnalysisOptions): number | null {
-	const n = capture.channels[0]?.samples.length ?? 0;
-	if (n / capture.sampleRateHz < ESTIMATE_FROM_S || capture.gaps?.length) return null;
-	const m = Math.max(Math.round(2 * capture.sampleRateHz), Math.round(n / 20));
-	const probe: Capture = {
-		...capture,
-		timeS: capture.timeS?.subarray(0, m),
-		channels: capture.channels.map((c) => ({ ...c, samples: c.samples.subarray(0, m) })),
-		digital: capture.digital?.map((d) => ({ ...d, states: d.states.subarray(0, m) })),
-	};
+function withProgress(
+	analysis: AnalysisOptions,
+	source: string,
+	post: (stage: string, fraction: number, etaS: number | null) => void,
+): AnalysisOptions {
 	const t0 = performance.now();
-	try {
-		analyseSpan(probe, analysis);
-	} catch {
-		return null;
-	}
-	return ((performance.now() - t0) / 1000) * (n / m) * 1.1;
+	let last = -1;
+	let lastStage = '';
+	return {
+		...analysis,
+		onProgress: (p: AnalysisProgress) => {
+			if (p.stage === lastStage && p.fraction - last < 0.01 && p.done < p.total) return;
+			last = p.fraction;
+			lastStage = p.stage;
+			const count = p.total > 1 ? ` (${p.done} of ${p.total})` : '';
+			const etaS = etaFrom(p.fraction, 1, (performance.now() - t0) / 1000);
+			post(`Analysing ${source}: ${STAGE_WORDS[p.stage]}${count}`, p.fraction, etaS);
+		},
+	};
 }
 
-/** The 'open' request: read (streamed for one CSV), analyse, trends; progress and a time estimate at every stage. */
+/** The 'open' request: read (streamed for one CSV), analyse, trends; progress with a fraction and time left at every stage. */
 async function openAndAnalyse(msg: Extract<ToWorker, { type: 'open' }>, post: Post): Promise<void> {
 	const names = msg.files.map((f) => f.name).join(', ');
 	const progress = (stage: string, fraction: number | null, etaS: number | null = null, expectS?: number) =>
@@ -238,10 +247,8 @@ async function openAndAnalyse(msg: Extract<ToWorker, { type: 'open' }>, post: Po
 	}
 	const capture = captures[0];
 	try {
-		progress(`Analysing ${capture.source}`, null);
-		const expectS = analysisEstimateS(capture, msg.analysis);
-		if (expectS !== null) progress(`Analysing ${capture.source}`, 0.1, expectS * 0.9, expectS * 0.9);
-		const { report, extras, analysed } = analyseSpan(capture, msg.analysis);
+		progress(`Analysing ${capture.source}`, 0);
+		const { report, extras, analysed } = analyseSpan(capture, withProgress(msg.analysis, capture.source, progress));
 		cache.set(msg.captureKey, capture);
 		progress(`Trends and events of ${capture.source}`, 0);
 		const trend = trendFor(analysed, (f, eta) => progress(`Trends and events of ${capture.source}`, f, eta));
@@ -280,8 +287,11 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 				return;
 			}
 			try {
-				post({ type: 'progress', jobId: msg.jobId, stage: `Analysing ${capture.source}`, fraction: null });
-				const { report, extras: plotExtras, analysed } = analyseSpan(capture, msg.analysis);
+				const progress = (stage: string, fraction: number, etaS: number | null) =>
+					post({ type: 'progress', jobId: msg.jobId, stage, fraction, etaS });
+				progress(`Analysing ${capture.source}`, 0, null);
+				const analysis = withProgress(msg.analysis, capture.source, progress);
+				const { report, extras: plotExtras, analysed } = analyseSpan(capture, analysis);
 				if (!trends.has(msg.captureKey)) trends.set(msg.captureKey, trendFor(analysed));
 				const extras = { ...plotExtras, trend: trends.get(msg.captureKey) ?? null };
 				post({ type: 'analysed', jobId: msg.jobId, captureKey: msg.captureKey, report, extras });
