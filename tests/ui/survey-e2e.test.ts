@@ -8,7 +8,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import type { Page } from 'playwright-core';
@@ -119,7 +119,7 @@ describe.skipIf(!hasChromium)('the supply survey in Chromium', () => {
 		const l3 = rows.find((r) => r[1] === 'Supply voltage, 10-minute means' && r[2] === 'L3')!;
 		const lowest = Number(/lowest ([\d.]+) V/.exec(l3[4])?.[1]);
 		expect(Math.abs(lowest - SURVEY_RMS_V[2])).toBeLessThanOrEqual(0.05 + 0.1);
-		expect(await page.textContent('[data-testid=survey-coverage]')).toMatch(/1 values/);
+		expect(await page.textContent('[data-testid=survey-coverage]')).toMatch(/\(1 value, /);
 	});
 
 	it('draws the trends with clock-time axes, and says nothing in option names', async () => {
@@ -132,9 +132,18 @@ describe.skipIf(!hasChromium)('the supply survey in Chromium', () => {
 		expect(text).not.toMatch(/--[a-z]/);
 		await page.screenshot({ path: join(ARTIFACTS, 'ui-survey-desktop.png'), fullPage: true });
 		await page.locator('[data-testid=survey-summary]').screenshot({ path: join(ARTIFACTS, 'ui-survey-summary.png') });
+		await page.locator('[data-testid=chart-rms]').screenshot({ path: join(ARTIFACTS, 'ui-survey-chart.png') });
+		await page.locator('[data-testid=survey-setup]').screenshot({ path: join(ARTIFACTS, 'ui-survey-setup.png') });
 		await page.setViewportSize({ width: 390, height: 844 });
 		await page.waitForTimeout(300);
 		await page.screenshot({ path: join(ARTIFACTS, 'ui-survey-phone.png'), fullPage: true });
+		// nothing wider than the phone's screen (a chart drawn at the desktop's width would be)
+		expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+		await page
+			.locator('[data-testid=survey-summary]')
+			.screenshot({ path: join(ARTIFACTS, 'ui-survey-phone-summary.png') });
+		await page.locator('[data-testid=survey-rules]').screenshot({ path: join(ARTIFACTS, 'ui-survey-phone-rules.png') });
+		await page.locator('[data-testid=chart-rms]').screenshot({ path: join(ARTIFACTS, 'ui-survey-phone-chart.png') });
 		await page.setViewportSize({ width: 1400, height: 900 });
 	});
 
@@ -145,6 +154,7 @@ describe.skipIf(!hasChromium)('the supply survey in Chromium', () => {
 			await page.pdf({ path: pdf, format: 'A4', printBackground: true, preferCSSPageSize: false });
 			const flat = execFileSync(PDFTOTEXT, ['-layout', pdf, '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
 			writeFileSync(join(ARTIFACTS, 'survey-A4.txt'), flat);
+			copyFileSync(pdf, join(ARTIFACTS, 'survey-A4.pdf'));
 			for (const words of [
 				'Each rule, as measured',
 				'Supply voltage, 10-minute means',
