@@ -171,4 +171,17 @@ describe.skipIf(!hasChromium)('the supply survey in Chromium', () => {
 			expect(h).toBeGreaterThan(w);
 		},
 	);
+	// last: choosing files again clears the survey the other checks read
+	it('a chosen folder gives its recordings and leaves other files out, saying how many', async () => {
+		const folder = join(work, 'logger');
+		mkdirSync(folder, { recursive: true });
+		for (const f of files) copyFileSync(f, join(folder, f.replace(/^.*[\\/]/, '')));
+		writeFileSync(join(folder, 'site-notes.md'), 'Tallowmere Joinery, incomer, week 19\n');
+		await page.setInputFiles('[data-testid=survey-folder-input]', folder);
+		expect(await page.textContent('[data-testid=survey-chosen]')).toContain(
+			'3 files chosen (1 other file in the folder left out)',
+		);
+		// new files chosen: the survey of the old ones is no longer shown
+		expect(await page.locator('[data-testid=survey-report]').count()).toBe(0);
+	});
 });
