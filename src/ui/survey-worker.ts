@@ -237,7 +237,7 @@ export async function runSurvey(
 		if (e instanceof SurveyMergeError) {
 			const p = toProblem(e, e.source);
 			p.code = 'not-one-recording';
-			p.expected = `a file of the same recording as the others: it ${e.message}`;
+			p.expected = `a file of the same recording as the others: it ${e.message.replace(/\.$/, '')}`;
 			return { survey: null, problems: [...problems, p] };
 		}
 		throw e;
