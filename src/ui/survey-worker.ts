@@ -9,9 +9,14 @@ import {
 	csvOptionsWithSettings,
 	CsvSampleStream,
 	DETECT_HEAD_BYTES,
+	ComtradeSampleStream,
+	decodeText,
 	detectFileKind,
 	ImportError,
 	openCapture,
+	parseComtradeCfg,
+	streamableRate,
+	type ComtradeConfig,
 	type SampleSink,
 	type SampleStreamHeader,
 } from '../../lib/io/index.js';
@@ -102,18 +107,20 @@ function checkLimits(source: string, rateHz: number, channels: number): void {
 	if (limit) throw new ImportError(source, 0, 0, 'out-of-range', limit.got, limit.expected);
 }
 
-/** One CSV streamed from the picked file into a trend analyser, slice by slice. */
-async function csvDocument(
-	f: FileBytes,
+type OnSamples = (n: number, bytes: number) => void;
+
+/** The sink that makes the analyser once a stream's header is known (bounds checked first) and feeds it. */
+function trendSink(
+	source: string,
 	settings: Settings,
-	onSamples: (n: number, bytes: number) => void,
-): Promise<TrendDocument> {
+	onSamples: OnSamples,
+): SampleSink & { finish(late: Diagnostic[]): TrendDocument } {
 	let a: TrendAnalyser | undefined;
 	let header: SampleStreamHeader | undefined;
 	const views: Float64Array[] = [];
-	const sink: SampleSink = {
+	return {
 		start(h) {
-			checkLimits(f.name, h.sampleRateHz, h.channels.length);
+			checkLimits(source, h.sampleRateHz, h.channels.length);
 			header = h;
 			const specs = h.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit }));
 			a = analyser(settings, h.sampleRateHz, specs, h.nominalFrequencyHz, h.startTime);
@@ -124,24 +131,64 @@ async function csvDocument(
 			a!.push(views);
 			onSamples(n, 0);
 		},
+		finish(late) {
+			const result = a!.finish();
+			result.diagnostics = [...(header?.diagnostics ?? []), ...late, ...result.diagnostics];
+			return trendDocumentOf(source, result);
+		},
 	};
-	const total = sizeOf(f);
-	const stream = new CsvSampleStream(f.name, csvOptionsWithSettings({}), sink, {
-		totalBytes: total,
-		maxChannels: TREND_MAX_CHANNELS,
-	});
-	for (let at = 0; at < total; at += READ_SLICE_BYTES) {
-		const end = Math.min(total, at + READ_SLICE_BYTES);
-		stream.push(await slice(f, at, end));
-		onSamples(0, end - at);
-	}
-	const late = stream.end();
-	const result = a!.finish();
-	result.diagnostics = [...(header?.diagnostics ?? []), ...late, ...result.diagnostics];
-	return trendDocumentOf(f.name, result);
 }
 
-/** A WAV or COMTRADE record (its .cfg with the .dat) opened whole by lib/io, then fed to the analyser in blocks. */
+/** Pushes a picked file to `push` in READ_SLICE_BYTES slices (the page never holds it whole). */
+async function streamSlices(f: FileBytes, push: (chunk: Uint8Array) => void, onSamples: OnSamples): Promise<void> {
+	const total = sizeOf(f);
+	for (let at = 0; at < total; at += READ_SLICE_BYTES) {
+		const end = Math.min(total, at + READ_SLICE_BYTES);
+		push(await slice(f, at, end));
+		onSamples(0, end - at);
+	}
+}
+
+/** One CSV streamed from the picked file into a trend analyser, slice by slice. */
+async function csvDocument(f: FileBytes, settings: Settings, onSamples: OnSamples): Promise<TrendDocument> {
+	const sink = trendSink(f.name, settings, onSamples);
+	const stream = new CsvSampleStream(f.name, csvOptionsWithSettings({}), sink, {
+		totalBytes: sizeOf(f),
+		maxChannels: TREND_MAX_CHANNELS,
+	});
+	await streamSlices(f, (c) => stream.push(c), onSamples);
+	return sink.finish(stream.end());
+}
+
+/** The configuration of a COMTRADE .cfg (read whole: a few lines per channel). */
+async function cfgOf(f: FileBytes): Promise<ComtradeConfig> {
+	return parseComtradeCfg(decodeText(await bytesOf(f)).text, f.name);
+}
+
+/**
+ * A COMTRADE .cfg with its .dat and one sampling rate: the .dat streamed slice by slice. Undefined when the
+ * record has several rates or time stamps only (then it is read whole).
+ */
+async function comtradeDocument(
+	group: FileBytes[],
+	settings: Settings,
+	onSamples: OnSamples,
+): Promise<TrendDocument | undefined> {
+	const cfgFile = group[0];
+	const dat = group.find((f) => /\.dat$/i.test(f.name));
+	if (!/\.cfg$/i.test(cfgFile.name) || !dat) return undefined;
+	const cfg = await cfgOf(cfgFile);
+	if (!streamableRate(cfg)) return undefined;
+	if (cfg.analog.length > TREND_MAX_CHANNELS)
+		checkLimits(cfgFile.name, streamableRate(cfg)!.sampleRateHz, cfg.analog.length);
+	const sink = trendSink(cfgFile.name, settings, onSamples);
+	const stream = new ComtradeSampleStream(cfg, cfgFile.name, dat.name, {}, sink);
+	onSamples(0, sizeOf(cfgFile));
+	await streamSlices(dat, (c) => stream.push(c), onSamples);
+	return sink.finish(stream.end());
+}
+
+/** A WAV, or a COMTRADE record that cannot be streamed, opened whole by lib/io, then fed to the analyser in blocks. */
 async function wholeDocument(
 	group: FileBytes[],
 	settings: Settings,
@@ -174,7 +221,16 @@ async function ordered(files: FileBytes[]): Promise<{ group: FileBytes[]; name: 
 		name: groupLabel(group),
 		startS: undefined as number | undefined,
 	}));
-	for (const g of groups) if (g.group.length === 1 && (await isCsv(g.group[0]))) g.startS = await csvStartS(g.group[0]);
+	for (const g of groups) {
+		if (g.group.length === 1 && (await isCsv(g.group[0]))) g.startS = await csvStartS(g.group[0]);
+		else if (/\.cfg$/i.test(g.group[0].name)) {
+			try {
+				g.startS = clockTimeOf((await cfgOf(g.group[0])).firstData?.iso)?.unixS;
+			} catch {
+				// an unreadable .cfg is reported, with its place, when the record is read
+			}
+		}
+	}
 	const key = (s: number | undefined) => (s === undefined ? Infinity : s);
 	return groups.sort((a, b) => key(a.startS) - key(b.startS) || a.name.localeCompare(b.name, 'en', { numeric: true }));
 }
@@ -214,7 +270,8 @@ export async function runSurvey(
 			const one = r.group.length === 1 && (await isCsv(r.group[0]));
 			const doc = one
 				? await csvDocument(r.group[0], { declaredV }, onSamples)
-				: await wholeDocument(r.group, { declaredV }, onSamples);
+				: ((await comtradeDocument(r.group, { declaredV }, onSamples)) ??
+					(await wholeDocument(r.group, { declaredV }, onSamples)));
 			docs.push(doc);
 			lines.push({ name: r.name, startS: doc.clockStartS ?? null, durationS: doc.durationS });
 		} catch (e) {

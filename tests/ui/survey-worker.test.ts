@@ -4,6 +4,8 @@
  * unreadable file beside it, and a file of another recording.
  */
 import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import { runSurvey, type SurveyProgress } from '../../src/ui/survey-worker.js';
 import { toProblem } from '../../src/ui/worker-core.js';
 import {
@@ -62,5 +64,23 @@ describe('runSurvey', () => {
 		expect(problems[0].code).toBe('not-one-recording');
 		expect(problems[0].source).toBe('other-board.csv');
 		expect(problems[0].expected).toContain('voltage channels');
+	});
+
+	it('streams a COMTRADE record (.cfg with its .dat): the demo incomer dip, phase B to 55 % for 6 cycles (sample-waves ground truth), lands in the 70-40 % x 10-200 ms cell', async () => {
+		const dir = resolve(__dirname, '../../sample-waves');
+		const file = (name: string) => ({ name, blob: new Blob([readFileSync(join(dir, name))]) });
+		const { survey, problems } = await runSurvey(
+			[file('incomer-dip.dat'), file('incomer-dip.cfg')],
+			'en50160',
+			undefined,
+			() => undefined,
+			toProblem,
+		);
+		expect(problems).toEqual([]);
+		expect(survey!.input.clockAligned).toBe(true);
+		// 3840 samples per channel in the record (sample-waves/ground-truth.json)
+		expect(survey!.samples).toBe(3840);
+		expect(survey!.result.dips.counts[2][0]).toBe(1);
+		expect(survey!.result.dips.counts.flat().reduce((a, b) => a + b, 0)).toBe(1);
 	});
 });
