@@ -119,7 +119,7 @@ describe.skipIf(!hasChromium)('the supply survey in Chromium', () => {
 		const l3 = rows.find((r) => r[1] === 'Supply voltage, 10-minute means' && r[2] === 'L3')!;
 		const lowest = Number(/lowest ([\d.]+) V/.exec(l3[4])?.[1]);
 		expect(Math.abs(lowest - SURVEY_RMS_V[2])).toBeLessThanOrEqual(0.05 + 0.1);
-		expect(await page.textContent('[data-testid=survey-coverage]')).toMatch(/\(1 value, /);
+		expect(await page.textContent('[data-testid=survey-coverage]')).toMatch(/: 1 complete 10-minute value, /);
 	});
 
 	it('draws the trends with clock-time axes, and says nothing in option names', async () => {
