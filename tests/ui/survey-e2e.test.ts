@@ -148,27 +148,31 @@ describe.skipIf(!hasChromium)('the supply survey in Chromium', () => {
 	});
 
 	it.skipIf(!existsSync(PDFTOTEXT))(
-		'prints the survey on portrait A4 with the rule table, the dip table, the sources and the safety caution',
+		'prints the survey on portrait A4 and Letter with the rule table, the dip table, the sources and the safety caution',
 		async () => {
-			const pdf = join(work, 'survey-A4.pdf');
-			await page.pdf({ path: pdf, format: 'A4', printBackground: true, preferCSSPageSize: false });
-			const flat = execFileSync(PDFTOTEXT, ['-layout', pdf, '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
-			writeFileSync(join(ARTIFACTS, 'survey-A4.txt'), flat);
-			copyFileSync(pdf, join(ARTIFACTS, 'survey-A4.pdf'));
-			for (const words of [
-				'Each rule, as measured',
-				'Supply voltage, 10-minute means',
-				'EN 50160:2010, 4.2.2 (supply voltage variations)',
-				'Voltage unbalance',
-				'70 % > u ≥ 40 %',
-				'EN 50160:2010, Table 5 (classification of dips)',
-				'Safety first',
-			])
-				expect(flat, words).toContain(words);
-			expect(flat).not.toContain('Choose files');
-			const info = execFileSync('/usr/bin/pdfinfo', [pdf], { encoding: 'utf8' });
-			const [w, h] = (/Page size:\s+([\d.]+) x ([\d.]+)/.exec(info) ?? []).slice(1).map(Number);
-			expect(h).toBeGreaterThan(w);
+			for (const format of ['A4', 'Letter'] as const) {
+				const pdf = join(work, `survey-${format}.pdf`);
+				await page.pdf({ path: pdf, format, printBackground: true, preferCSSPageSize: false });
+				const flat = execFileSync(PDFTOTEXT, ['-layout', pdf, '-'], { encoding: 'utf8' }).replace(/\s+/g, ' ');
+				if (format === 'A4') {
+					writeFileSync(join(ARTIFACTS, 'survey-A4.txt'), flat);
+					copyFileSync(pdf, join(ARTIFACTS, 'survey-A4.pdf'));
+				}
+				for (const words of [
+					'Each rule, as measured',
+					'Supply voltage, 10-minute means',
+					'EN 50160:2010, 4.2.2 (supply voltage variations)',
+					'Voltage unbalance',
+					'70 % > u ≥ 40 %',
+					'EN 50160:2010, Table 5 (classification of dips)',
+					'Safety first',
+				])
+					expect(flat, `${format}: ${words}`).toContain(words);
+				expect(flat).not.toContain('Choose files');
+				const info = execFileSync('/usr/bin/pdfinfo', [pdf], { encoding: 'utf8' });
+				const [w, h] = (/Page size:\s+([\d.]+) x ([\d.]+)/.exec(info) ?? []).slice(1).map(Number);
+				expect(h, `${format} portrait`).toBeGreaterThan(w);
+			}
 		},
 	);
 	// last: choosing files again clears the survey the other checks read
