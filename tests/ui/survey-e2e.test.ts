@@ -137,6 +137,8 @@ describe.skipIf(!hasChromium)('the supply survey in Chromium', () => {
 		await page.setViewportSize({ width: 390, height: 844 });
 		await page.waitForTimeout(300);
 		await page.screenshot({ path: join(ARTIFACTS, 'ui-survey-phone.png'), fullPage: true });
+		await page.evaluate(() => window.scrollTo(0, 0));
+		await page.screenshot({ path: join(ARTIFACTS, 'ui-survey-phone-top.png') });
 		// nothing wider than the phone's screen (a chart drawn at the desktop's width would be)
 		expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
 		await page
