@@ -6,6 +6,7 @@ import type { Capture, CaptureGap } from '../../lib/capture.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
 import type { OpenOptions } from '../../lib/io/open.js';
 import type { TrendResult } from '../../lib/trend/types.js';
+import type { SurveyInput, SurveyResult, SurveyStandardId } from '../../lib/survey/types.js';
 
 /** What the user overrode on import (CSV layout, per-channel unit, quantity and scale): lib/io's options. */
 export type ImportOverrides = Omit<OpenOptions, 'onProgress'>;
@@ -41,7 +42,8 @@ export type ToWorker =
 	  }
 	| { type: 'analyse'; jobId: number; captureKey: string; analysis: AnalysisOptions }
 	| { type: 'seed'; captureKey: string; capture: Capture }
-	| { type: 'forget'; captureKey: string };
+	| { type: 'forget'; captureKey: string }
+	| { type: 'survey'; jobId: number; files: FileBytes[]; standard: SurveyStandardId; declaredV?: number };
 
 export type FromWorker =
 	| { type: 'progress'; jobId: number; stage: string; fraction: number | null; etaS?: number | null; expectS?: number }
@@ -56,7 +58,29 @@ export type FromWorker =
 	| { type: 'import-failed'; jobId: number; captureKey: string; problems: ImportProblem[] }
 	| { type: 'analysed'; jobId: number; captureKey: string; report: AnalysisReport; extras: ReportExtras }
 	| { type: 'missing'; jobId: number; captureKey: string }
-	| { type: 'failed'; jobId: number; message: string };
+	| { type: 'failed'; jobId: number; message: string }
+	| { type: 'surveyed'; jobId: number; survey: SurveyView | null; problems: ImportProblem[] };
+
+/** One record of a survey: its name, where it starts on the clock (Unix s; null when it states none), its length. */
+export interface SurveyFileLine {
+	name: string;
+	startS: number | null;
+	durationS: number;
+	/** Why it could not be read (then it adds nothing to the survey). */
+	problem?: string;
+}
+
+/** A supply survey as lib/survey made it: the verdicts, the merged 10-minute and 10-s values it judged, notes. */
+export interface SurveyView {
+	result: SurveyResult;
+	input: SurveyInput;
+	/** What the merge found or assumed (gaps, overlaps, missing start times), in words. */
+	notes: string[];
+	/** The records in the order they were read (start-time order). */
+	files: SurveyFileLine[];
+	/** Samples per channel read over all records. */
+	samples: number;
+}
 
 /**
  * Figures the worker gets from lib beyond the report itself, for drawing: the whole-cycle boundaries of the

@@ -13,6 +13,7 @@ import { eventsCountedOnce } from '../../lib/report/index.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
 import { minOf } from '../../lib/signal/index.js';
 import { etaFrom, lineOfFile, readCaptures } from './worker-open.js';
+import { runSurvey, type SurveyProgress } from './survey-worker.js';
 
 export type Post = (msg: FromWorker, transfer?: Transferable[]) => void;
 
@@ -270,6 +271,38 @@ async function openAndAnalyse(msg: Extract<ToWorker, { type: 'open' }>, post: Po
 	}
 }
 
+/** 'Record 2 of 3 (week-02.csv), 1,240,000 samples per channel read', with the share of bytes read. */
+function surveyStage(p: SurveyProgress): string {
+	const at =
+		p.filesDone < p.files ? `record ${p.filesDone + 1} of ${p.files} (${p.file})` : `all ${p.files} records read`;
+	return `Supply survey: ${at}, ${p.samplesDone.toLocaleString()} samples per channel read`;
+}
+
+/** The 'survey' request: every record through lib/trend, then lib/survey's merge and rules. */
+async function survey(msg: Extract<ToWorker, { type: 'survey' }>, post: Post): Promise<void> {
+	try {
+		const t0 = performance.now();
+		const { survey, problems } = await runSurvey(
+			msg.files,
+			msg.standard,
+			msg.declaredV,
+			(p) => {
+				const f = p.bytesTotal > 0 ? p.bytesDone / p.bytesTotal : null;
+				const eta = f === null ? null : etaFrom(p.bytesDone, p.bytesTotal, (performance.now() - t0) / 1000);
+				post({ type: 'progress', jobId: msg.jobId, stage: surveyStage(p), fraction: f, etaS: eta });
+			},
+			toProblem,
+		);
+		for (const p of problems) {
+			const f = msg.files.find((x) => x.name === p.source);
+			if (f && p.line > 0) p.lineText = await lineOfFile(f, p.line);
+		}
+		post({ type: 'surveyed', jobId: msg.jobId, survey, problems });
+	} catch (e) {
+		post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
+	}
+}
+
 /** Handles one message from the page. */
 export function handleMessage(msg: ToWorker, post: Post): void {
 	switch (msg.type) {
@@ -302,6 +335,9 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 		}
 		case 'open':
 			void openAndAnalyse(msg, post);
+			return;
+		case 'survey':
+			void survey(msg, post);
 			return;
 	}
 }

@@ -5,7 +5,16 @@
  */
 import type { Capture } from '../../../lib/capture.js';
 import type { AnalysisOptions, AnalysisReport } from '../../../lib/report/types.js';
-import type { FileBytes, FromWorker, ImportOverrides, ImportProblem, ReportExtras, ToWorker } from '../protocol.js';
+import type {
+	FileBytes,
+	FromWorker,
+	ImportOverrides,
+	ImportProblem,
+	ReportExtras,
+	SurveyView,
+	ToWorker,
+} from '../protocol.js';
+import type { SurveyStandardId } from '../../../lib/survey/types.js';
 
 /** The part of a Worker the client uses (a real Worker, or an in-process fake in tests). */
 export interface WorkerLike {
@@ -113,6 +122,22 @@ export class AnalysisClient {
 			throw new Error(msg.type === 'failed' ? msg.message : `unexpected reply ${msg.type}`);
 		}
 		throw new Error('the analysis worker lost the capture twice');
+	}
+
+	/** A supply survey of many records of one recording (files moved to the worker, or read there in slices). */
+	async survey(
+		files: FileBytes[],
+		standard: SurveyStandardId,
+		declaredV: number | undefined,
+		onProgress?: (p: Progress) => void,
+	): Promise<{ survey: SurveyView | null; problems: ImportProblem[] }> {
+		const msg = await this.#request(
+			(jobId) => ({ type: 'survey', jobId, files, standard, declaredV }),
+			files.flatMap((f) => (f.bytes ? [f.bytes] : [])),
+			onProgress,
+		);
+		if (msg.type === 'surveyed') return { survey: msg.survey, problems: msg.problems };
+		throw new Error(msg.type === 'failed' ? msg.message : `unexpected reply ${msg.type}`);
 	}
 
 	/** Stops whatever runs now: terminates the worker; every pending request rejects with CancelledError. */

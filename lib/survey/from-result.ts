@@ -1,0 +1,80 @@
+/**
+ * The per-file step of a survey without a detour through text: one file's TrendResult (lib/trend) as the
+ * TrendDocument the merge step (`surveyInputFromTrend`) reads. The browser runs the trend analyser over
+ * each picked file and hands these documents to the merge; the CLI writes the same fields as JSON.
+ * Flicker rides along: each 10-minute row gets its Pst and the document its 2-hour Plt values, in the
+ * order of every channel (null for a channel that is not a voltage).
+ */
+import type { TrendResult } from '../trend/types.js';
+import type { TrendDocument } from './from-trend.js';
+
+/** Two interval starts closer than this (s) are the same interval (they come from the same clock ticks). */
+const SAME_START_S = 1e-3;
+
+/** Per-channel values of a flicker row spread over every channel of the file, null where none was measured. */
+function perChannel(result: TrendResult, voltageNames: string[], values: number[]): (number | null)[] {
+	return result.channels.map((c) => {
+		const k = voltageNames.indexOf(c.name);
+		return k < 0 || !Number.isFinite(values[k]) ? null : values[k];
+	});
+}
+
+const orNull = (x: number): number | null => (Number.isFinite(x) ? x : null);
+
+/**
+ * The TrendDocument of one analysed file: its 10-minute rows (with Pst), 10-s frequency values, voltage
+ * events (rapid voltage changes are not survey events and are left out), Plt, and where it sits on the clock.
+ * @param source  the file's name as the user knows it (shown in merge messages)
+ * @example surveyInputFromTrend(files.map((f) => trendDocumentOf(f.name, analyseTrend(f.capture)))).input
+ */
+export function trendDocumentOf(source: string, result: TrendResult): TrendDocument {
+	const flicker = result.flicker;
+	const names = flicker?.channels ?? [];
+	const pstAt = (startS: number) => flicker?.pst.find((p) => Math.abs(p.startS - startS) < SAME_START_S);
+	return {
+		source,
+		startTime: result.clockStartS === undefined ? null : new Date(result.clockStartS * 1000).toISOString(),
+		clockStartS: result.clockStartS ?? null,
+		declaredV: orNull(result.declaredV),
+		nominalHz: result.nominalHz,
+		durationS: result.durationS,
+		channels: result.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
+		aggregates: result.min10.map((r) => {
+			const pst = r.complete ? pstAt(r.startS) : undefined;
+			return {
+				interval: r.interval,
+				startS: r.startS,
+				durationS: r.durationS,
+				complete: r.complete,
+				flagged: r.flagged,
+				rms: r.rms.map(orNull),
+				thdPercent: r.thdPercent.map(orNull),
+				harmonicsPercent: r.harmonicsPercent?.map((h) => h.map(orNull)),
+				unbalancePercent: r.unbalancePercent === undefined ? undefined : orNull(r.unbalancePercent),
+				pst: pst ? perChannel(result, names, pst.values) : undefined,
+			};
+		}),
+		frequency: result.frequency.map((f) => ({
+			startS: f.startS,
+			durationS: f.durationS,
+			frequencyHz: orNull(f.frequencyHz),
+			complete: f.complete,
+			flagged: f.flagged,
+		})),
+		events: result.events
+			.filter((e) => e.kind !== 'rvc')
+			.map((e) => ({
+				kind: e.kind,
+				startS: e.startS,
+				durationS: e.durationS,
+				percentOfDeclared: e.percentOfDeclared,
+				channels: [...e.channels],
+				ended: e.ended,
+			})),
+		plt: flicker?.plt.map((p) => ({
+			startS: p.startS,
+			plt: perChannel(result, names, p.values),
+			flagged: p.flagged,
+		})),
+	};
+}

@@ -1,0 +1,86 @@
+/**
+ * The worker's survey (src/ui/survey-worker.ts) in-process on Blobs, as the page hands picked files over:
+ * the closed-form three-file recording (tests/helpers/survey-recording.ts) given out of order, with an
+ * unreadable file beside it, and a file of another recording.
+ */
+import { describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { runSurvey, type SurveyProgress } from '../../src/ui/survey-worker.js';
+import { toProblem } from '../../src/ui/worker-core.js';
+import {
+	SURVEY_FILE_S,
+	SURVEY_FILES,
+	SURVEY_RATE_HZ,
+	surveyFileCsv,
+	surveyFileStart,
+} from '../helpers/survey-recording.js';
+
+const parts = Array.from({ length: SURVEY_FILES }, (_, k) => ({
+	name: `part${k + 1}.csv`,
+	blob: new Blob([surveyFileCsv(k)]),
+}));
+
+describe('runSurvey', () => {
+	it('reads the records in start-time order, counts every sample, and lists an unreadable file without losing the rest', async () => {
+		const bad = { name: 'aaa-notes.csv', blob: new Blob(['time (s),L1 (V)\n0,1\n0.001,abc\n']) };
+		const seen: SurveyProgress[] = [];
+		const { survey, problems } = await runSurvey(
+			[parts[2], bad, parts[0], parts[1]],
+			'en50160',
+			230,
+			(p) => seen.push(p),
+			toProblem,
+		);
+		expect(survey).not.toBeNull();
+		// the three parts by their stated start times; the file that states none comes last
+		expect(survey!.files.map((f) => f.name)).toEqual(['part1.csv', 'part2.csv', 'part3.csv', 'aaa-notes.csv']);
+		expect(survey!.files[1].startS).toBe(Date.parse(surveyFileStart(1)) / 1000);
+		expect(survey!.files[3].problem).toBeTruthy();
+		expect(problems.map((p) => p.source)).toEqual(['aaa-notes.csv']);
+		expect(problems[0].line).toBe(3);
+		// samples per channel of the readable parts: 3 x 240 s x 1000 S/s (the signal's length)
+		expect(survey!.samples).toBe(SURVEY_FILES * SURVEY_FILE_S * SURVEY_RATE_HZ);
+		expect(seen[seen.length - 1].filesDone).toBe(4);
+		expect(seen.some((p) => p.filesDone === 1 && p.samplesDone > 0)).toBe(true);
+		expect(survey!.result.dips.counts[2][1]).toBe(1);
+	});
+
+	it('a file with other voltage channels is refused as not the same recording, naming it', async () => {
+		const other = {
+			name: 'other-board.csv',
+			blob: new Blob([
+				`Start time,${surveyFileStart(3)}\ntime (s),L1 (V)\n` +
+					Array.from(
+						{ length: 2000 },
+						(_, i) => `${(i / 1000).toFixed(3)},${(325 * Math.sin(0.1 * Math.PI * i)).toFixed(2)}`,
+					).join('\n') +
+					'\n',
+			]),
+		};
+		const { survey, problems } = await runSurvey([parts[0], other], 'en50160', 230, () => undefined, toProblem);
+		expect(survey).toBeNull();
+		expect(problems).toHaveLength(1);
+		expect(problems[0].code).toBe('not-one-recording');
+		expect(problems[0].source).toBe('other-board.csv');
+		expect(problems[0].expected).toContain('voltage channels');
+	});
+
+	it('streams a COMTRADE record (.cfg with its .dat): the demo incomer dip, phase B to 55 % for 6 cycles (sample-waves ground truth), lands in the 70-40 % x 10-200 ms cell', async () => {
+		const dir = resolve(__dirname, '../../sample-waves');
+		const file = (name: string) => ({ name, blob: new Blob([readFileSync(join(dir, name))]) });
+		const { survey, problems } = await runSurvey(
+			[file('incomer-dip.dat'), file('incomer-dip.cfg')],
+			'en50160',
+			undefined,
+			() => undefined,
+			toProblem,
+		);
+		expect(problems).toEqual([]);
+		expect(survey!.input.clockAligned).toBe(true);
+		// 3840 samples per channel in the record (sample-waves/ground-truth.json)
+		expect(survey!.samples).toBe(3840);
+		expect(survey!.result.dips.counts[2][0]).toBe(1);
+		expect(survey!.result.dips.counts.flat().reduce((a, b) => a + b, 0)).toBe(1);
+	});
+});
