@@ -120,7 +120,15 @@ function readBinary(
 	for (let c = 0; c < nA; c++)
 		out.missing[c] = readColumn(view, out.raw[c], n, RECORD_HEADER_BYTES + c * valueBytes, recordBytes, cfg.fileType);
 	const statusAt = RECORD_HEADER_BYTES + nA * valueBytes;
-	for (let c = 0; c < nD; c++) readDigital(view, out.digital[c], n, statusAt + DIGITAL_WORD_BYTES * Math.floor(c / DIGITALS_PER_WORD), c % DIGITALS_PER_WORD, recordBytes);
+	for (let c = 0; c < nD; c++)
+		readDigital(
+			view,
+			out.digital[c],
+			n,
+			statusAt + DIGITAL_WORD_BYTES * Math.floor(c / DIGITALS_PER_WORD),
+			c % DIGITALS_PER_WORD,
+			recordBytes,
+		);
 	return {
 		...out,
 		records: n,

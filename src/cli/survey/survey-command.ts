@@ -9,7 +9,12 @@ import { readFileSync, statSync } from 'node:fs';
 import { extname } from 'node:path';
 import type { OpenOptions } from '../../../lib/io/open.js';
 import { assessSurvey } from '../../../lib/survey/index.js';
-import { SurveyMergeError, surveyInputFromTrend, type TrendDocument } from '../../../lib/survey/index.js';
+import {
+	SurveyMergeError,
+	surveyInputFromTrend,
+	trendDocumentOf,
+	type TrendDocument,
+} from '../../../lib/survey/index.js';
 import type { SurveyStandardId } from '../../../lib/survey/types.js';
 import { collectUnits } from '../collect-files.js';
 import { ERROR_PREFIX, errorLine } from '../error-line.js';
@@ -134,7 +139,13 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 			failed++;
 			err.write(`${errorLine(f.error, f.source)}\n`);
 		}
-		if (result) docs.push(trendJson(files.length === 1 ? files[0].source : paths.join(', '), result) as TrendDocument);
+		if (result) {
+			// the merge's document with each interval's Pst and the Plt values (trendDocumentOf), and the
+			// recording's files and gaps
+			const source = files.length === 1 ? files[0].source : paths.join(', ');
+			const { parts, gaps } = trendJson(source, result) as TrendDocument;
+			docs.push({ ...trendDocumentOf(source, result), parts, gaps });
+		}
 	}
 	if (docs.length === 0) {
 		err.write(`${ERROR_PREFIX}survey: no recording could be read\n`);
