@@ -10,6 +10,8 @@
  */
 import type { Capture } from '../capture.js';
 import { analyseTrend } from '../trend/analyse-capture.js';
+import { blockMeans } from '../signal/block-mean.js';
+import { HARMONIC_RATE_HZ } from './spectra.js';
 import type { TrendEvent, TrendResult } from '../trend/types.js';
 import { classifyEvents, type ReportEventTable } from './events-table.js';
 
@@ -113,6 +115,31 @@ function toReportEvent(e: TrendEvent & { dip?: TrendEvent }, r: TrendResult, ser
 }
 
 /**
+ * The capture the event detection reads: above HARMONIC_RATE_HZ (a scope's MS/s), every channel averaged
+ * in blocks down to that rate, as the harmonic windows are (spectra.ts): Urms(1/2) needs the harmonics up
+ * to order 50, which the averaging keeps within 1e-4, not every sample of a 10 MS/s record. The blocks'
+ * times are kept (block j stands at sample jM + (M − 1)/2).
+ */
+function eventRateCapture(capture: Capture): { capture: Capture; note?: string } {
+	const m = Math.floor(capture.sampleRateHz / HARMONIC_RATE_HZ);
+	if (m < 2 || capture.gaps?.length) return { capture };
+	const fs = capture.sampleRateHz / m;
+	return {
+		capture: {
+			...capture,
+			sampleRateHz: fs,
+			startS: capture.startS + (m - 1) / 2 / capture.sampleRateHz,
+			channels: capture.channels.map((c) => ({ ...c, samples: blockMeans(c.samples, m) })),
+			// per-sample side data does not apply at the new rate; events read only the analog channels
+			timeS: undefined,
+			digital: undefined,
+			gaps: undefined,
+		},
+		note: `Voltage events are looked for in the Urms(1/2) of the record averaged in blocks of ${m} samples (${(fs / 1000).toFixed(0)} kS/s).`,
+	};
+}
+
+/**
  * Events of a capture's voltage channels; null without a voltage channel.
  * @param declaredV  declared supply voltage (line-to-neutral for phase channels); inferred when absent
  * @returns the events and their tables, and the trend analyser's notes (as sentences) for the assumptions
@@ -126,8 +153,9 @@ export function captureEvents(
 	const series = new Map<string, Series>();
 	const names = capture.channels.map((c) => c.name);
 	let r: TrendResult;
+	const { capture: atRate, note } = eventRateCapture(capture);
 	try {
-		r = analyseTrend(capture, {
+		r = analyseTrend(atRate, {
 			nominalHz: nominalHz === 50 || nominalHz === 60 ? nominalHz : undefined,
 			declaredV,
 			thd: false,
@@ -151,6 +179,7 @@ export function captureEvents(
 	const events = foldInterruptions(r.events.filter((e) => e.kind !== 'rvc')).map((e) => toReportEvent(e, r, series));
 	const t = r.thresholds;
 	const notes = r.diagnostics.filter((d) => d.code === 'declared-voltage-inferred').map((d) => d.message);
+	if (note) notes.push(note);
 	return {
 		events: {
 			declaredV: r.declaredV,

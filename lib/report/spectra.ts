@@ -3,6 +3,7 @@
  * `windowCycles` whole cycles (IEC 61000-4-7: 10 at 50 Hz, 12 at 60 Hz), each synchronised to its own
  * measured cycle length, and their aggregate.
  */
+import { blockMeans } from '../signal/block-mean.js';
 import type { CycleWindow } from '../signal/cycles.js';
 import { harmonicWindowCore, type HarmonicWindowCore } from '../spectrum/harmonics.js';
 import { aggregateHarmonicWindows, type HarmonicAggregate } from '../spectrum/harmonic-analysis.js';
@@ -84,13 +85,7 @@ function decimatedSpectrum(
 	m: number,
 	onWindow?: () => void,
 ): ChannelSpectrum {
-	const count = Math.floor(samples.length / m);
-	const y = new Float64Array(count);
-	for (let j = 0; j < count; j++) {
-		let acc = 0;
-		for (let k = j * m, end = k + m; k < end; k++) acc += samples[k];
-		y[j] = acc / m;
-	}
+	const y = blockMeans(samples, m);
 	const shift = (m - 1) / 2;
 	const windows = slots.map((s) => {
 		const w = harmonicWindowCore(y, sampleRateHz / m, {
