@@ -24,6 +24,7 @@ function dipRecord(fs: number): Capture {
 		sampleRateHz: fs,
 		startS: 0,
 		channels: [{ name: 'U1', unit: 'V', quantity: 'voltage', samples: u }],
+		metadata: {},
 		diagnostics: [],
 	};
 }
