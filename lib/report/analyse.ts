@@ -9,6 +9,7 @@ import { waveformFigures } from '../signal/levels.js';
 import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
 import { captureEvents } from './events.js';
+import type { CaptureTrend, TrendViewRequest } from './trend-view.js';
 import { digitalSummary, neutralCurrent, threePhasePower, worstCycle, type DerivedScratch } from './extras.js';
 import { channelIntervals, flaggedSlots, powerFactorIntervals } from './intervals.js';
 import { applyLimits } from './limits-report.js';
@@ -81,6 +82,32 @@ function checkOptions(o: AnalysisOptions): void {
  * @example analyseCapture(capture).channels[0].thdPercent // 5.00 for a 230 V sine with an 11.5 V 5th
  */
 export function analyseCapture(capture: Capture, options: AnalysisOptions = {}): AnalysisReport {
+	return analyseCaptureParts(capture, options).report;
+}
+
+/** What a front end draws beside the report, from the analysis's own passes (never in the JSON report). */
+export interface AnalysisParts {
+	report: AnalysisReport;
+	/**
+	 * Rising zero crossings of the reference channel's fundamental bounding the analysed whole cycles, as
+	 * fractional sample indices (null without whole cycles, e.g. a short record's fit).
+	 */
+	referenceCrossings: Float64Array | null;
+	/** The trend view from the event step's lib/trend pass, when asked for (null: no voltage or current channel). */
+	trend?: CaptureTrend | null;
+}
+
+/**
+ * `analyseCapture` with the reference crossings it found and, with `want.trend`, the trend view from the
+ * same lib/trend pass its event step makes (Urms(1/2) series, 10/12-cycle THD and frequency, flicker with
+ * Pinst, events), so a front end runs neither again. The report is the same with or without `want`.
+ * @example analyseCaptureParts(capture, {}, { trend: {} }).trend?.result?.events // the dips lib/trend found
+ */
+export function analyseCaptureParts(
+	capture: Capture,
+	options: AnalysisOptions = {},
+	want: { trend?: TrendViewRequest } = {},
+): AnalysisParts {
 	checkOptions(options);
 	const progress = progressReporter(options.onProgress);
 	progress('reference', 0, 1);
@@ -89,7 +116,13 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	const { window, slots } = plan;
 	const fs = capture.sampleRateHz;
 	progress('events', 0, 1);
-	const ev = captureEvents(capture, plan.nominalHz, options.declaredV);
+	const trendProgress = want.trend && {
+		onFraction: (f: number) => {
+			progress('events', f, 1);
+			want.trend?.onFraction?.(f);
+		},
+	};
+	const ev = captureEvents(capture, plan.nominalHz, options.declaredV, trendProgress || undefined);
 	progress('events', 1, 1);
 	const spectra = harmonicSpectra(capture, slots, plan.maxOrder, (done, total) => progress('harmonics', done, total));
 	progress('channels', 0, capture.channels.length);
@@ -134,7 +167,11 @@ export function analyseCapture(capture: Capture, options: AnalysisOptions = {}):
 	plan.assumptions.push(...ev.notes);
 	// the limit step after the analysis (a pure function of the report; the UI re-runs it alone), then the
 	// findings, which read the limits (applyLimits rebuilds them)
-	return applyLimits(report, options);
+	return {
+		report: applyLimits(report, options),
+		referenceCrossings: window?.crossings ?? null,
+		...(want.trend ? { trend: ev.trend ?? null } : {}),
+	};
 }
 
 /**

@@ -14,6 +14,7 @@ import { blockMeans } from '../signal/block-mean.js';
 import { HARMONIC_RATE_HZ } from './spectra.js';
 import type { TrendEvent, TrendResult } from '../trend/types.js';
 import { classifyEvents, type ReportEventTable } from './events-table.js';
+import { halfCycleCollector, refusedTrend, type CaptureTrend, type TrendViewRequest } from './trend-view.js';
 
 export interface ReportEventChannel {
 	channel: string;
@@ -114,6 +115,73 @@ function toReportEvent(e: TrendEvent & { dip?: TrendEvent }, r: TrendResult, ser
 	};
 }
 
+/** The lib/trend options of the report's event step: Urms(1/2) and events only, or also what the trend view draws. */
+function trendOptions(
+	nominalHz: number | undefined,
+	declaredV: number | undefined,
+	onHalfCycle: (ch: number, startS: number, v: number) => void,
+	view: boolean,
+): Parameters<typeof analyseTrend>[1] {
+	const nominal: 50 | 60 | undefined = nominalHz === 50 || nominalHz === 60 ? nominalHz : undefined;
+	const common = { nominalHz: nominal, declaredV, onHalfCycle };
+	// the view draws THD and frequency per 10/12 cycles and flicker with Pinst; the report's flicker section
+	// has its own flickermeter, so the events alone need only the Urms(1/2) values
+	if (view) return { ...common, flickerPinst: true };
+	return { ...common, thd: false, flicker: false, keep: { cycles10: false, cycles150: false, min10: false } };
+}
+
+/** One lib/trend pass over the capture (with the view's extras when asked; without them if those are refused). */
+function runTrend(
+	capture: Capture,
+	nominalHz: number | undefined,
+	declaredV: number | undefined,
+	view: TrendViewRequest | undefined,
+): { r: TrendResult | null; problem?: string; collector: ReturnType<typeof halfCycleCollector> } {
+	let collector = halfCycleCollector(capture, view?.onFraction);
+	if (view) {
+		try {
+			return { r: analyseTrend(capture, trendOptions(nominalHz, declaredV, collector.onHalfCycle, true)), collector };
+		} catch (e) {
+			if (!capture.channels.some((c) => c.quantity === 'voltage')) throw e;
+			// the events must not depend on the view: run again without its extras
+			collector = halfCycleCollector(capture);
+			const problem = e instanceof Error ? e.message : String(e);
+			const r = analyseTrend(capture, trendOptions(nominalHz, declaredV, collector.onHalfCycle, false));
+			return { r, problem, collector };
+		}
+	}
+	return { r: analyseTrend(capture, trendOptions(nominalHz, declaredV, collector.onHalfCycle, false)), collector };
+}
+
+/** The report's Urms(1/2) series by channel name (channels sharing a name share one series). */
+function seriesByName(capture: Capture, collector: ReturnType<typeof halfCycleCollector>): Map<string, Series> {
+	const series = new Map<string, Series>();
+	capture.channels.forEach((c, k) => {
+		if (collector.values[k].length === 0) return;
+		const s = series.get(c.name);
+		if (!s) return void series.set(c.name, { t: collector.times[k], v: collector.values[k] });
+		// a copy: the collector's arrays stay each channel's own (the trend view reads them)
+		const t = s.t.slice();
+		const v = s.v.slice();
+		for (let j = 0; j < collector.values[k].length; j++) {
+			t.push(collector.times[k][j]);
+			v.push(collector.values[k][j]);
+		}
+		series.set(c.name, { t, v });
+	});
+	return series;
+}
+
+/** The trend view of one pass: lib/trend's result with each all-phase interruption once, and the Urms(1/2) series. */
+function viewOf(
+	r: TrendResult | null,
+	problem: string | undefined,
+	collector: ReturnType<typeof halfCycleCollector>,
+): CaptureTrend {
+	if (!r || problem !== undefined) return refusedTrend(problem ?? 'no trend');
+	return { result: { ...r, events: eventsCountedOnce(r.events) }, halfCycle: collector.halfCycle() };
+}
+
 /**
  * The capture the event detection reads: above HARMONIC_RATE_HZ (a scope's MS/s), every channel averaged
  * in blocks down to that rate, as the harmonic windows are (spectra.ts): Urms(1/2) needs the harmonics up
@@ -142,40 +210,33 @@ function eventRateCapture(capture: Capture): { capture: Capture; note?: string }
 /**
  * Events of a capture's voltage channels; null without a voltage channel.
  * @param declaredV  declared supply voltage (line-to-neutral for phase channels); inferred when absent
+ * @param view  also keep the trend view (`trend`) from the same lib/trend pass: Urms(1/2) series, THD and
+ *   frequency rows, flicker with Pinst; null when the capture has no voltage or current channel
  * @returns the events and their tables, and the trend analyser's notes (as sentences) for the assumptions
  */
 export function captureEvents(
 	capture: Capture,
 	nominalHz: number | undefined,
 	declaredV?: number,
-): { events: ReportEvents | null; notes: string[] } {
-	if (!capture.channels.some((c) => c.quantity === 'voltage')) return { events: null, notes: [] };
-	const series = new Map<string, Series>();
-	const names = capture.channels.map((c) => c.name);
-	let r: TrendResult;
+	view?: TrendViewRequest,
+): { events: ReportEvents | null; notes: string[]; trend?: CaptureTrend | null } {
+	const hasVoltage = capture.channels.some((c) => c.quantity === 'voltage');
+	const wantsView = view !== undefined && capture.channels.some((c) => c.quantity !== 'other');
+	if (!hasVoltage && !wantsView) return { events: null, notes: [], ...(view ? { trend: null } : {}) };
+	let run: ReturnType<typeof runTrend>;
+	// above HARMONIC_RATE_HZ the pass reads block averages (eventRateCapture); the view then shows those
 	const { capture: atRate, note } = eventRateCapture(capture);
 	try {
-		r = analyseTrend(atRate, {
-			nominalHz: nominalHz === 50 || nominalHz === 60 ? nominalHz : undefined,
-			declaredV,
-			thd: false,
-			// the report's flicker section has its own flickermeter; events need only the Urms(1/2) values
-			flicker: false,
-			keep: { cycles10: false, cycles150: false, min10: false },
-			onHalfCycle: (ch, startS, v) => {
-				let s = series.get(names[ch]);
-				if (!s) series.set(names[ch], (s = { t: [], v: [] }));
-				s.t.push(startS);
-				s.v.push(v);
-			},
-		});
+		run = runTrend(atRate, nominalHz, declaredV, wantsView ? view : undefined);
 	} catch (e) {
-		return {
-			events: null,
-			notes: [`Voltage events were not looked for: ${e instanceof Error ? e.message : String(e)}`],
-		};
+		const message = e instanceof Error ? e.message : String(e);
+		const notes = hasVoltage ? [`Voltage events were not looked for: ${message}`] : [];
+		return { events: null, notes, ...(view ? { trend: refusedTrend(message) } : {}) };
 	}
-	if (!Number.isFinite(r.declaredV)) return { events: null, notes: [] };
+	const { r, problem, collector } = run;
+	const trend = view ? { trend: viewOf(r, problem, collector) } : {};
+	if (!hasVoltage || !r || !Number.isFinite(r.declaredV)) return { events: null, notes: [], ...trend };
+	const series = seriesByName(atRate, collector);
 	const events = foldInterruptions(r.events.filter((e) => e.kind !== 'rvc')).map((e) => toReportEvent(e, r, series));
 	const t = r.thresholds;
 	const notes = r.diagnostics.filter((d) => d.code === 'declared-voltage-inferred').map((d) => d.message);
@@ -194,5 +255,6 @@ export function captureEvents(
 			...classifyEvents(events),
 		},
 		notes,
+		...trend,
 	};
 }

@@ -1,6 +1,7 @@
 // Public API of lib/report: re-exports only. Analysis results -> plain objects (the JSON contract of
 // report.schema.json, shared by the CLI and the UI).
-export { analyseCapture, REPORT_DEFAULT_MAX_ORDER } from './analyse.js';
+export { analyseCapture, analyseCaptureParts, REPORT_DEFAULT_MAX_ORDER, type AnalysisParts } from './analyse.js';
+export { type CaptureTrend, type TrendViewRequest } from './trend-view.js';
 export { applyLimits, LIMIT_STEP_OPTIONS } from './limits-report.js';
 export {
 	REPORT_SCHEMA_VERSION,

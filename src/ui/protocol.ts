@@ -4,8 +4,8 @@
  */
 import type { Capture, CaptureGap } from '../../lib/capture.js';
 import type { AnalysisOptions, AnalysisReport } from '../../lib/report/types.js';
+import type { CaptureTrend } from '../../lib/report/index.js';
 import type { OpenOptions } from '../../lib/io/open.js';
-import type { TrendResult } from '../../lib/trend/types.js';
 import type { SurveyInput, SurveyResult, SurveyStandardId } from '../../lib/survey/types.js';
 
 /** What the user overrode on import (CSV layout, per-channel unit, quantity and scale): lib/io's options. */
@@ -109,11 +109,5 @@ export interface GapView {
 	cells: (CaptureGap & { timeS: number })[];
 }
 
-/** lib/trend's result plus the RMS over one cycle refreshed every half cycle, per channel. */
-export interface TrendView {
-	/** Null when the trend analyser refused the capture (see `problem`). */
-	result: TrendResult | null;
-	halfCycle: { timeS: Float64Array; rms: Float64Array[]; channels: string[] };
-	/** Why there is no trend when the analyser refused the capture. */
-	problem?: string;
-}
+/** lib/trend's result plus the RMS over one cycle refreshed every half cycle, per channel (lib/report's trend view). */
+export type TrendView = CaptureTrend;

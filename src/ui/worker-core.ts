@@ -6,12 +6,9 @@
  */
 import type { Capture } from '../../lib/capture.js';
 import { gapFreeSpan, isImportError } from '../../lib/io/index.js';
-import { analyseCapture, chooseReference } from '../../lib/report/index.js';
+import { analyseCaptureParts } from '../../lib/report/index.js';
 import type { AnalysisOptions, AnalysisProgress, AnalysisReport, AnalysisStage } from '../../lib/report/types.js';
-import { analyseTrend } from '../../lib/trend/index.js';
-import { eventsCountedOnce } from '../../lib/report/index.js';
 import type { FromWorker, ImportProblem, ReportExtras, ToWorker, TrendView } from './protocol.js';
-import { minOf } from '../../lib/signal/index.js';
 import { etaFrom, lineOfFile, readCaptures } from './worker-open.js';
 import { runSurvey, type SurveyProgress } from './survey-worker.js';
 
@@ -19,53 +16,6 @@ export type Post = (msg: FromWorker, transfer?: Transferable[]) => void;
 
 const cache = new Map<string, Capture>();
 const trends = new Map<string, TrendView | null>();
-
-/**
- * Trends and events of a capture (lib/trend), collecting the Urms(1/2) values it reports per half cycle.
- * Null with no voltage or current channel; a refusal by the analyser becomes `problem`.
- */
-export function trendFor(
-	capture: Capture,
-	onProgress?: (fraction: number, etaS: number | null) => void,
-): TrendView | null {
-	const channels = capture.channels.filter((c) => c.quantity !== 'other');
-	if (channels.length === 0) return null;
-	const times: number[][] = capture.channels.map(() => []);
-	const values: number[][] = capture.channels.map(() => []);
-	const endS = (capture.channels[0]?.samples.length ?? 0) / capture.sampleRateHz;
-	const t0 = performance.now();
-	let next = 0.02;
-	try {
-		const result = analyseTrend(capture, {
-			flickerPinst: true,
-			onHalfCycle: (channel, startS, rmsV) => {
-				times[channel].push(startS);
-				values[channel].push(rmsV);
-				const f = endS > 0 ? startS / endS : 0;
-				if (onProgress && f >= next) {
-					next = f + 0.02;
-					onProgress(f, etaFrom(f, 1, (performance.now() - t0) / 1000));
-				}
-			},
-		});
-		// each all-phase interruption once, as the analysis report counts it (not also as the dip containing it)
-		result.events = eventsCountedOnce(result.events);
-		const used = capture.channels.map((c, k) => ({ c, k })).filter(({ k }) => values[k].length > 0);
-		const n = minOf(used.map(({ k }) => values[k].length));
-		const first = used[0]?.k ?? 0;
-		return {
-			result,
-			halfCycle: {
-				timeS: Float64Array.from(times[first].slice(0, n)),
-				rms: used.map(({ k }) => Float64Array.from(values[k].slice(0, n))),
-				channels: used.map(({ c }) => c.name),
-			},
-		};
-	} catch (e) {
-		const problem = e instanceof Error ? e.message : String(e);
-		return { result: null, halfCycle: { timeS: new Float64Array(0), rms: [], channels: [] }, problem };
-	}
-}
 
 /** An importer failure (or any other thrown value) as data the page can show in place. */
 export function toProblem(e: unknown, fallbackSource: string): ImportProblem {
@@ -139,10 +89,14 @@ function peakIndices(x: Float64Array, i0: number, i1: number): { max: number; mi
 
 /**
  * What the plots need beside the report: where the analysed window's peaks sit and the whole-cycle
- * boundaries (the reference crossings lib/report used, found again by the same call). Everything the
- * report carries (harmonics, groups, THD variants) is taken from the report, never recomputed here.
+ * boundaries (the reference crossings lib/report measured, handed back by `analyseCaptureParts`).
+ * Everything the report carries (harmonics, groups, THD variants) is taken from the report, never recomputed here.
  */
-export function extrasFor(capture: Capture, report: AnalysisReport, analysis: AnalysisOptions): ReportExtras {
+export function extrasFor(
+	capture: Capture,
+	report: AnalysisReport,
+	referenceCrossings: ArrayLike<number> | null,
+): ReportExtras {
 	const fs = capture.sampleRateHz;
 	const n = capture.channels[0]?.samples.length ?? 0;
 	const i0 = Math.max(0, Math.floor(report.window.startS * fs));
@@ -150,28 +104,31 @@ export function extrasFor(capture: Capture, report: AnalysisReport, analysis: An
 	const peakIndex: ReportExtras['peakIndex'] = {};
 	for (const ch of capture.channels) peakIndex[ch.name] = peakIndices(ch.samples, i0, i1);
 	const cycleBoundariesS: number[] = [];
-	if (report.cyclesAnalysed > 0 && report.referenceChannel !== null) {
-		const ref = chooseReference(capture, report.referenceChannel, analysis.nominalHz ?? capture.nominalFrequencyHz);
-		if (ref.window) for (const x of ref.window.crossings) cycleBoundariesS.push(x / fs);
+	if (report.cyclesAnalysed > 0 && report.referenceChannel !== null && referenceCrossings) {
+		for (let k = 0; k < referenceCrossings.length; k++) cycleBoundariesS.push(referenceCrossings[k] / fs);
 	}
 	return { cycleBoundariesS, peakIndex, trend: null };
 }
 
 /**
  * The report of a capture, and the plot extras, on its longest stretch without gaps (the whole capture when
- * it has none); times in the extras count from that stretch like the report's, peak indices from the first sample.
+ * it has none); times in the extras count from that stretch like the report's, peak indices from the first
+ * sample. With `withTrend`, the trend view comes from the analysis's own lib/trend pass (`trend`).
  */
-function analyseSpan(
+export function analyseSpan(
 	capture: Capture,
 	analysis: AnalysisOptions,
-): { report: AnalysisReport; extras: ReportExtras; analysed: Capture } {
+	withTrend = false,
+): { report: AnalysisReport; extras: ReportExtras; trend?: TrendView | null } {
+	const want = withTrend ? { trend: {} } : {};
 	if (!capture.gaps?.length) {
-		const report = analyseCapture(capture, analysis);
-		return { report, extras: extrasFor(capture, report, analysis), analysed: capture };
+		const parts = analyseCaptureParts(capture, analysis, want);
+		const extras = extrasFor(capture, parts.report, parts.referenceCrossings);
+		return { report: parts.report, extras, trend: parts.trend };
 	}
 	const span = gapFreeSpan(capture);
-	const report = analyseCapture(span.capture, analysis);
-	const extras = extrasFor(span.capture, report, analysis);
+	const parts = analyseCaptureParts(span.capture, analysis, want);
+	const extras = extrasFor(span.capture, parts.report, parts.referenceCrossings);
 	for (const k of Object.keys(extras.peakIndex)) {
 		const p = extras.peakIndex[k];
 		extras.peakIndex[k] = {
@@ -186,13 +143,13 @@ function analyseSpan(
 		endIndex: span.endIndex,
 		cells: capture.gaps.map((g) => ({ ...g, timeS: g.sampleIndex / capture.sampleRateHz - offsetS })),
 	};
-	return { report, extras, analysed: span.capture };
+	return { report: parts.report, extras, trend: parts.trend };
 }
 
 /** Words for each part of the analysis in the progress line. */
 const STAGE_WORDS: Record<AnalysisStage, string> = {
 	reference: 'finding whole cycles',
-	events: 'voltage events',
+	events: 'voltage events and trends',
 	harmonics: 'harmonics',
 	channels: 'levels of each channel',
 	relations: 'power and phase',
@@ -249,10 +206,12 @@ async function openAndAnalyse(msg: Extract<ToWorker, { type: 'open' }>, post: Po
 	const capture = captures[0];
 	try {
 		progress(`Analysing ${capture.source}`, 0);
-		const { report, extras, analysed } = analyseSpan(capture, withProgress(msg.analysis, capture.source, progress));
+		const {
+			report,
+			extras,
+			trend = null,
+		} = analyseSpan(capture, withProgress(msg.analysis, capture.source, progress), true);
 		cache.set(msg.captureKey, capture);
-		progress(`Trends and events of ${capture.source}`, 0);
-		const trend = trendFor(analysed, (f, eta) => progress(`Trends and events of ${capture.source}`, f, eta));
 		trends.set(msg.captureKey, trend);
 		const { capture: copy, transfer } = transferableCopy(capture);
 		post(
@@ -324,8 +283,9 @@ export function handleMessage(msg: ToWorker, post: Post): void {
 					post({ type: 'progress', jobId: msg.jobId, stage, fraction, etaS });
 				progress(`Analysing ${capture.source}`, 0, null);
 				const analysis = withProgress(msg.analysis, capture.source, progress);
-				const { report, extras: plotExtras, analysed } = analyseSpan(capture, analysis);
-				if (!trends.has(msg.captureKey)) trends.set(msg.captureKey, trendFor(analysed));
+				const known = trends.has(msg.captureKey);
+				const { report, extras: plotExtras, trend } = analyseSpan(capture, analysis, !known);
+				if (!known) trends.set(msg.captureKey, trend ?? null);
 				const extras = { ...plotExtras, trend: trends.get(msg.captureKey) ?? null };
 				post({ type: 'analysed', jobId: msg.jobId, captureKey: msg.captureKey, report, extras });
 			} catch (e) {

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { Capture } from '../../lib/capture.js';
-import { analyseCapture } from '../../lib/report/analyse.js';
 import { overlayFor, scaleKey } from '../../src/ui/charts/wave-overlay.js';
-import { extrasFor, trendFor } from '../../src/ui/worker-core.js';
+import { analyseCapture } from '../../lib/report/analyse.js';
+import { analyseSpan } from '../../src/ui/worker-core.js';
 import { setDisplayLocale } from '../../src/ui/format.js';
 import { sineSamples } from '../helpers/synth.js';
 import { captureOf } from '../helpers/capture.js';
@@ -27,8 +27,9 @@ function capture(): Capture {
 
 describe('overlayFor', () => {
 	const c = capture();
-	const report = analyseCapture(c);
-	const extras = { ...extrasFor(c, report, {}), trend: trendFor(c) };
+	// the worker's one pass: the report, its plot extras and the trend view from the same analysis
+	const { report, extras: plot, trend } = analyseSpan(c, {}, true);
+	const extras = { ...plot, trend: trend ?? null };
 	const chans = c.channels.map((ch) => ({
 		name: ch.name,
 		unit: ch.unit,
