@@ -60,17 +60,17 @@ export function lineOf(bytes: ArrayBuffer, line: number): string | undefined {
 	return new TextDecoder('utf-8').decode(view.subarray(start, end)).slice(0, 160);
 }
 
-/** Copy of a capture whose sample buffers can be moved to the page (the cached original stays intact). */
-function transferableCopy(c: Capture): { capture: Capture; transfer: Transferable[] } {
-	const transfer: Transferable[] = [];
-	const channels = c.channels.map((ch) => {
-		const samples = ch.samples.slice();
-		transfer.push(samples.buffer);
-		return { ...ch, samples };
-	});
-	const timeS = c.timeS?.slice();
-	if (timeS) transfer.push(timeS.buffer);
-	return { capture: { ...c, channels, timeS }, transfer };
+/**
+ * The buffers of a capture's samples, to be moved (not copied) to the page: after the post the worker's
+ * arrays are empty, so the capture is not kept here. A later analysis of it gets 'missing' and the page
+ * sends it back ('seed', analysis-client.ts): a 279 MB file is not copied on the way in, and the worker
+ * does not hold a second copy of the samples.
+ */
+function sampleBuffers(c: Capture): Transferable[] {
+	const transfer = new Set<ArrayBufferLike>(c.channels.map((ch) => ch.samples.buffer));
+	if (c.timeS) transfer.add(c.timeS.buffer);
+	for (const d of c.digital ?? []) transfer.add(d.states.buffer);
+	return [...transfer] as Transferable[];
 }
 
 /** Sample index of the largest and smallest value of `x` between i0 and i1 (-1 when all NaN). */
@@ -211,19 +211,18 @@ async function openAndAnalyse(msg: Extract<ToWorker, { type: 'open' }>, post: Po
 			extras,
 			trend = null,
 		} = analyseSpan(capture, withProgress(msg.analysis, capture.source, progress), true);
-		cache.set(msg.captureKey, capture);
+		cache.delete(msg.captureKey);
 		trends.set(msg.captureKey, trend);
-		const { capture: copy, transfer } = transferableCopy(capture);
 		post(
 			{
 				type: 'opened',
 				jobId: msg.jobId,
 				captureKey: msg.captureKey,
-				capture: copy,
+				capture,
 				report,
 				extras: { ...extras, trend },
 			},
-			transfer,
+			sampleBuffers(capture),
 		);
 	} catch (e) {
 		post({ type: 'failed', jobId: msg.jobId, message: e instanceof Error ? e.message : String(e) });
