@@ -1,6 +1,6 @@
 #!/usr/bin/env node
 // Entry of the sinecheck command: wiring only. Commands return exit codes; this file sets them.
-import { cac } from 'cac';
+import { cac, type Command } from 'cac';
 import { fsErrorWords } from './file-checks.js';
 import { ANALYSE_EXAMPLES, EXIT_CODES, SAFETY_CAUTION, TREND_EXAMPLES, wrap } from './help-text.js';
 import { limitsFrom, settingsFromOptions } from './options.js';
@@ -8,6 +8,34 @@ import { printable } from './printable.js';
 import { UsageError } from './usage-error.js';
 
 const cli = cac('sinecheck');
+
+/**
+ * The channel settings `analyse` and `trend` both take, in this order in their help (applied to any format by
+ * lib/io/import-settings.ts).
+ */
+function withChannelSettings(command: Command): Command {
+	return command
+		.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
+		.option(
+			'--scale <channel=factor>',
+			'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable',
+			{ type: [String] },
+		)
+		.option(
+			'--probe <channel=ratio>',
+			"A voltage probe's attenuation on a channel (x10, x100): multiplies it and makes it a voltage; repeatable",
+			{ type: [String] },
+		)
+		.option(
+			'--clamp <channel=mV/A>',
+			"A current clamp's output on a channel in mV per A: divides by it and makes it a current in A; repeatable",
+			{ type: [String] },
+		)
+		.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
+		.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', {
+			type: [String],
+		});
+}
 
 /** Paths after `--` are paths even when they start with a dash (cac keeps them under options['--']). */
 function withAfterDashes(paths: string[], options: Record<string, unknown>): string[] {
@@ -23,59 +51,44 @@ for (const stream of [process.stdout, process.stderr]) {
 	});
 }
 
-cli
-	.command(
-		'analyse [...paths]',
-		'Analyse capture files and folders (CSV, WAV, COMTRADE): RMS, harmonics, THD, phase, power, three-phase, limits',
-	)
-	.alias('analyze')
-	.option(
-		'--json',
-		'One JSON report per file on stdout, one line each (JSON Lines); schema: lib/report/report.schema.json',
-	)
-	.option('--csv', 'One summary row per channel per file, for spreadsheets')
-	.option(
-		'--limits <table>',
-		'Evaluate harmonics against a limit table: en50160, iec61000-2-2, ieee519 (sets exit code 1 on a failure)',
-	)
-	.option(
-		'--isc-il <ratio>',
-		'IEEE 519: short-circuit to maximum demand load current ratio at the point of common coupling',
-	)
-	.option('--il <A>', 'IEEE 519: maximum demand load current I_L in A (for TDD)')
-	.option(
-		'--single-bins',
-		"Judge limits on each order's single DFT bin instead of the harmonic subgroups the tables' standards use",
-	)
-	.option(
-		'--declared <V>',
-		'Declared supply voltage for dips, swells and interruptions, V (line-to-neutral for phase channels); inferred when absent',
-	)
-	.option(
-		'--ieee519-edition <year>',
-		'IEEE 519 even-harmonic current rule: 2022 (default; 50 % of the odd limit up to h6) or 2014 (25 %)',
-	)
-	.option('--ref <channel>', 'Reference channel for frequency, window and phase (default: the first voltage channel)')
-	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
-	.option(
-		'--scale <channel=factor>',
-		'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable',
-		{ type: [String] },
-	)
-	.option(
-		'--probe <channel=ratio>',
-		"A voltage probe's attenuation on a channel (x10, x100): multiplies it and makes it a voltage; repeatable",
-		{ type: [String] },
-	)
-	.option(
-		'--clamp <channel=mV/A>',
-		"A current clamp's output on a channel in mV per A: divides by it and makes it a current in A; repeatable",
-		{ type: [String] },
-	)
-	.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
-	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', {
-		type: [String],
-	})
+withChannelSettings(
+	cli
+		.command(
+			'analyse [...paths]',
+			'Analyse capture files and folders (CSV, WAV, COMTRADE): RMS, harmonics, THD, phase, power, three-phase, limits',
+		)
+		.alias('analyze')
+		.option(
+			'--json',
+			'One JSON report per file on stdout, one line each (JSON Lines); schema: lib/report/report.schema.json',
+		)
+		.option('--csv', 'One summary row per channel per file, for spreadsheets')
+		.option(
+			'--limits <table>',
+			'Evaluate harmonics against a limit table: en50160, iec61000-2-2, ieee519 (sets exit code 1 on a failure)',
+		)
+		.option(
+			'--isc-il <ratio>',
+			'IEEE 519: short-circuit to maximum demand load current ratio at the point of common coupling',
+		)
+		.option('--il <A>', 'IEEE 519: maximum demand load current I_L in A (for TDD)')
+		.option(
+			'--single-bins',
+			"Judge limits on each order's single DFT bin instead of the harmonic subgroups the tables' standards use",
+		)
+		.option(
+			'--declared <V>',
+			'Declared supply voltage for dips, swells and interruptions, V (line-to-neutral for phase channels); inferred when absent',
+		)
+		.option(
+			'--ieee519-edition <year>',
+			'IEEE 519 even-harmonic current rule: 2022 (default; 50 % of the odd limit up to h6) or 2014 (25 %)',
+		)
+		.option(
+			'--ref <channel>',
+			'Reference channel for frequency, window and phase (default: the first voltage channel)',
+		),
+)
 	.option('--delimiter <which>', 'CSV column separator when detection guesses wrong: comma, semicolon, tab or space')
 	.option('--decimal <mark>', 'CSV decimal mark: point or comma (e.g. 0,707)')
 	.option('--time-column <n>', 'CSV column (from 1) holding the time, or none')
@@ -138,45 +151,27 @@ cli
 		process.exitCode = await analyseCommand(withAfterDashes(paths, options), options);
 	});
 
-cli
-	.command(
-		'trend [...paths]',
-		'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings; folders are walked',
-	)
-	.usage('trend [...paths]  (recording files or folders; folders are walked for .csv .tsv .txt .wav .cfg .cff)')
-	.option('--json', 'One JSON document per file instead of CSV rows')
-	.option(
-		'--interval <which>',
-		'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s), 10-min (10min), or flicker (Pst per 10 min and Plt per 2 h per voltage channel)',
-	)
-	.option('--nominal <V>', 'Declared voltage Udin in V (line-to-neutral when the channels are); inferred when absent')
-	.option('--frequency <Hz>', 'Nominal frequency, 50 or 60; from the file or the first cycles when absent')
-	.option('--dip-percent <pct>', 'Dip threshold, % of the declared voltage')
-	.option('--swell-percent <pct>', 'Swell threshold, % of the declared voltage')
-	.option('--interruption-percent <pct>', 'Interruption threshold, % of the declared voltage')
-	.option('--hysteresis-percent <pct>', 'Hysteresis, % of the declared voltage')
-	.option('--no-thd', 'Skip the harmonic analysis (THD columns empty; faster)')
-	.option('--harmonics', 'Also every harmonic order 2-50 per channel, % of the fundamental')
-	.option('--rate <Hz>', 'Sample rate, for files without a time column or rate in their header')
-	.option(
-		'--scale <channel=factor>',
-		'Multiply a channel by a factor (probe ratio, CT ratio, A per V of a clamp); repeatable',
-		{ type: [String] },
-	)
-	.option(
-		'--probe <channel=ratio>',
-		"A voltage probe's attenuation on a channel (x10, x100): multiplies it and makes it a voltage; repeatable",
-		{ type: [String] },
-	)
-	.option(
-		'--clamp <channel=mV/A>',
-		"A current clamp's output on a channel in mV per A: divides by it and makes it a current in A; repeatable",
-		{ type: [String] },
-	)
-	.option('--unit <channel=unit>', 'Set the unit of a channel (V, mV, kV, A, mA, kA); repeatable', { type: [String] })
-	.option('--quantity <channel=kind>', 'Say what a channel measures: voltage, current or other; repeatable', {
-		type: [String],
-	})
+withChannelSettings(
+	cli
+		.command(
+			'trend [...paths]',
+			'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings; folders are walked',
+		)
+		.usage('trend [...paths]  (recording files or folders; folders are walked for .csv .tsv .txt .wav .cfg .cff)')
+		.option('--json', 'One JSON document per file instead of CSV rows')
+		.option(
+			'--interval <which>',
+			'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s), 10-min (10min), or flicker (Pst per 10 min and Plt per 2 h per voltage channel)',
+		)
+		.option('--nominal <V>', 'Declared voltage Udin in V (line-to-neutral when the channels are); inferred when absent')
+		.option('--frequency <Hz>', 'Nominal frequency, 50 or 60; from the file or the first cycles when absent')
+		.option('--dip-percent <pct>', 'Dip threshold, % of the declared voltage')
+		.option('--swell-percent <pct>', 'Swell threshold, % of the declared voltage')
+		.option('--interruption-percent <pct>', 'Interruption threshold, % of the declared voltage')
+		.option('--hysteresis-percent <pct>', 'Hysteresis, % of the declared voltage')
+		.option('--no-thd', 'Skip the harmonic analysis (THD columns empty; faster)')
+		.option('--harmonics', 'Also every harmonic order 2-50 per channel, % of the fundamental'),
+)
 	.option('--time-limit <s>', 'Give up on a file after this many seconds (default: 60 s plus 1 s per MiB of the file)')
 	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine)')
 	.option(

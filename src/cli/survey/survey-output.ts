@@ -189,37 +189,27 @@ export function surveyCsv(r: SurveyResult): string {
 			),
 		);
 	}
-	out += row([
-		'interruptions',
-		'short',
-		'up to 3 min',
-		'all',
-		'',
-		`${r.interruptions.short} event(s)`,
-		String(r.interruptions.short),
-		'',
-		'',
-		'',
-		'',
-		'',
-		'',
-		r.interruptions.source,
-	]);
-	out += row([
-		'interruptions',
-		'long',
-		'over 3 min',
-		'all',
-		'',
-		`${r.interruptions.long} event(s)`,
-		String(r.interruptions.long),
-		'',
-		'',
-		'',
-		'',
-		'',
-		'',
-		r.interruptions.source,
-	]);
+	for (const [kind, span] of [
+		['short', 'up to 3 min'],
+		['long', 'over 3 min'],
+	] as const) {
+		const count = r.interruptions[kind];
+		out += row([
+			'interruptions',
+			kind,
+			span,
+			'all',
+			'',
+			`${count} event(s)`,
+			String(count),
+			'',
+			'',
+			'',
+			'',
+			'',
+			'',
+			r.interruptions.source,
+		]);
+	}
 	return out;
 }
