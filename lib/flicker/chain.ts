@@ -1,7 +1,7 @@
 /**
- * The per-sample kernel of blocks 1-4 (adaptor, squaring demodulator, band filters, weighting, squaring,
- * smoothing) over one stretch of samples, with the Pinst classification of block 5 folded in.
- * One loop over local variables: this is the hot path of the flickermeter.
+ * The kernel of blocks 1-4 (adaptor, squaring demodulator, band filters, weighting, squaring, smoothing)
+ * over one stretch of the block squares (lib/flicker/block-squares.ts: mean squares at the chain rate),
+ * with the Pinst classification of block 5 folded in. One loop over local variables.
  */
 import type { FlickerDesign } from './design.js';
 import { pinstClass } from './classifier.js';
@@ -26,7 +26,6 @@ const ADAPTOR = 0,
 export interface ChainStretch {
 	max: number;
 	sum: number;
-	nonFinite: number;
 }
 
 export class FlickerChain {
@@ -81,11 +80,10 @@ export class FlickerChain {
 	}
 
 	/**
-	 * Runs samples [from, to) of `x` through the chain, adds each Pinst to `counts` and returns the
-	 * stretch's max and sum of Pinst in `out`. A non-finite sample repeats the previous demodulator value
-	 * (counted in out.nonFinite).
+	 * Runs the mean squares [from, to) of `sq` (finite, ≥ 0) through the chain, adds each Pinst to `counts`
+	 * and returns the stretch's max and sum of Pinst in `out`.
 	 */
-	run(x: Float64Array, from: number, to: number, counts: Uint32Array, out: ChainStretch): void {
+	run(sq: Float64Array, from: number, to: number, counts: Uint32Array, out: ChainStretch): void {
 		const c = this.c,
 			s = this.state;
 		// Coefficients and states into locals, one row per filter section (the order of the constructor):
@@ -104,15 +102,11 @@ export class FlickerChain {
 			ua = s[W], ub = s[W + 1], va = s[W + 2], vb = s[W + 3],
 			sm = s[SMOOTH], u = s[LAST_U];
 		let max = out.max,
-			sum = out.sum,
-			bad = 0;
+			sum = out.sum;
 		for (let i = from; i < to; i++) {
-			const v = x[i];
-			if (v - v === 0) {
-				const sq = v * v;
-				ms += aA * (sq - ms);
-				u = sq < MAX_NORMALISED_SQUARE * ms ? sq / ms : sq > 0 ? MAX_NORMALISED_SQUARE : 0;
-			} else bad++;
+			const m = sq[i];
+			ms += aA * (m - ms);
+			u = m < MAX_NORMALISED_SQUARE * ms ? m / ms : m > 0 ? MAX_NORMALISED_SQUARE : 0;
 			const y = hb0 * u + h1;
 			h1 = hb1 * u - ha1 * y;
 			const yp = p0 * y + pa;
@@ -139,7 +133,6 @@ export class FlickerChain {
 		this.store(ms, h1, pa, pb, qa, qb, ra, rb, ua, ub, va, vb, sm, u);
 		out.max = max;
 		out.sum = sum;
-		out.nonFinite += bad;
 	}
 
 	/** Keeps the filter states for the next stretch (the order of the locals in `run`). */

@@ -10,8 +10,10 @@ import {
 	FLICKER_REFERENCE,
 	FLICKER_SMOOTHING_TIME_CONSTANT_S,
 	FLICKER_WEIGHTING,
+	PST_INTERVAL_S,
 	type FlickerLamp,
 } from './constants.js';
+import { blockSquaresGain } from './block-squares.js';
 import { bilinear, biquadGain, butterworthLowPass, type Biquad } from './iir.js';
 
 /** What a flickermeter is built for. */
@@ -26,7 +28,12 @@ export interface FlickerSettings {
 
 /** Coefficients of every block; all sections are direct-form, a0 = 1. */
 export interface FlickerDesign {
+	/** Input samples per second. */
 	sampleRateHz: number;
+	/** D: input samples per value of the block squares (lib/flicker/block-squares.ts); 1 = none. */
+	decimation: number;
+	/** Rate blocks 1-5 run at, sampleRateHz / decimation; every filter below is designed for it. */
+	chainRateHz: number;
 	nominalHz: 50 | 60;
 	lamp: FlickerLamp;
 	/** Block 1: y += α (x² − y), the running mean square (τ ≈ 27.3 s). */
@@ -41,6 +48,18 @@ export interface FlickerDesign {
 	smoothingAlpha: number;
 	/** Block 4 gain: Pinst = scale · smoothed(w²). */
 	scale: number;
+}
+
+/**
+ * D for an input rate: the largest integer that keeps the chain at or above 1600 S/s (the rate every
+ * IEC 61000-4-15 table check in tests/flicker runs the chain at, so the filters' accuracy there is measured)
+ * and divides the samples of a 10-minute interval (so intervals end on a chain sample). Our own choice; the
+ * aliasing it allows is bounded in docs/flicker.md, "Block squares".
+ */
+export function flickerDecimation(sampleRateHz: number): number {
+	const interval = Math.round(PST_INTERVAL_S * sampleRateHz);
+	for (let d = Math.floor(sampleRateHz / FLICKER_MIN_SAMPLE_RATE_HZ); d > 1; d--) if (interval % d === 0) return d;
+	return 1;
 }
 
 /** α of a first-order lag y[n] = y[n−1] + α (x[n] − y[n−1]) whose step response matches e^(−t/τ) at every sample. */
@@ -68,31 +87,39 @@ export function weightingSections(lamp: FlickerLamp, sampleRateHz: number): [Biq
 }
 
 /**
- * Designs blocks 1-4. The Pinst scale follows from the digital responses at the reference point: a
+ * Designs the block squares and blocks 1-4. The Pinst scale follows from the digital responses at the reference point: a
  * modulation of relative depth d at fm leaves the demodulator as d·sin(2π fm t); after the band filters
  * of gain g it is squared to (g d)²/2 · (1 − cos 4π fm t), and the smoothing (gain h at 2 fm) keeps a
  * ripple, so max Pinst = scale · (g d)²/2 · (1 + h). Setting that to 1 at 8.8 Hz, d = 0.25 % with the
- * 230 V lamp's filter fixes the block-4 gain, used for both lamps.
+ * 230 V lamp's filter fixes the block-4 gain, used for both lamps; g includes the block squares' kernel gain at 8.8 Hz.
  * Ref: IEC 61000-4-15:2010, 5.5 and Table 1 (reference point; from memory).
  *
  * @throws RangeError when the sample rate is below 1600 S/s or not finite
  */
 export function designFlickermeter(settings: FlickerSettings): FlickerDesign {
-	const fs = settings.sampleRateHz;
-	if (!Number.isFinite(fs) || fs < FLICKER_MIN_SAMPLE_RATE_HZ) {
-		throw new RangeError(`flickermeter needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second, got ${fs}`);
+	const inputHz = settings.sampleRateHz;
+	if (!Number.isFinite(inputHz) || inputHz < FLICKER_MIN_SAMPLE_RATE_HZ) {
+		throw new RangeError(
+			`flickermeter needs at least ${FLICKER_MIN_SAMPLE_RATE_HZ} samples per second, got ${inputHz}`,
+		);
 	}
 	if (settings.nominalHz !== 50 && settings.nominalHz !== 60)
 		throw new RangeError(`nominal frequency must be 50 or 60 Hz, got ${settings.nominalHz}`);
 	const lamp = settings.lamp ?? (settings.nominalHz === 50 ? '230V' : '120V');
+	const decimation = flickerDecimation(settings.sampleRateHz);
+	const fs = settings.sampleRateHz / decimation;
 	const wc = 2 * Math.PI * FLICKER_HIGH_PASS_HZ;
 	const highPass = bilinear([0, 1, 0], [0, 1, wc], fs, FLICKER_HIGH_PASS_HZ);
 	const lowPass = butterworthLowPass(FLICKER_LOW_PASS_ORDER, FLICKER_LOW_PASS_HZ[settings.nominalHz], fs);
 	const weighting = weightingSections(lamp, fs);
 	const smoothingAlpha = lagAlpha(FLICKER_SMOOTHING_TIME_CONSTANT_S, fs);
-	const scale = referenceScale(fs, highPass, lowPass, weightingSections('230V', fs), smoothingAlpha);
+	const kernelGain = blockSquaresGain(FLICKER_REFERENCE.frequencyHz, decimation, inputHz);
+	const scale =
+		referenceScale(fs, highPass, lowPass, weightingSections('230V', fs), smoothingAlpha) / (kernelGain * kernelGain);
 	return {
-		sampleRateHz: fs,
+		sampleRateHz: inputHz,
+		decimation,
+		chainRateHz: fs,
 		nominalHz: settings.nominalHz,
 		lamp,
 		adaptorAlpha: lagAlpha(FLICKER_ADAPTOR_TIME_CONSTANT_S, fs),

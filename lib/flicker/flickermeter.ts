@@ -4,6 +4,7 @@
  * fixed (two class tables of 128 KB and a 10-cycle start buffer) besides the results kept.
  */
 import { PINST_CLASSES, pltFromPst, pstFromHistogram, pinstLevelExceeded, type PstFigures } from './classifier.js';
+import { BlockSquares } from './block-squares.js';
 import { FlickerChain, type ChainStretch } from './chain.js';
 import { PLT_PST_COUNT, PST_INTERVAL_S } from './constants.js';
 import { designFlickermeter, type FlickerDesign, type FlickerSettings } from './design.js';
@@ -78,6 +79,9 @@ export interface Flickermeter {
 /** Fundamental cycles averaged for the adaptor's starting mean square. */
 const START_CYCLES = 10;
 
+/** Chain values per pass of the block squares: the size of the one buffer between them (64 KB). */
+const CHAIN_BUFFER = 8192;
+
 /**
  * Seconds at the start of a record whose Pinst is left out of every statistic: the band filters meet the
  * mains ripple abruptly at the first sample and the 300 ms smoothing carries that transient for ~3 s
@@ -104,13 +108,16 @@ export function createFlickermeter(options: FlickermeterOptions): Flickermeter {
 class StreamingFlickermeter implements Flickermeter {
 	readonly design: FlickerDesign;
 	private chain: FlickerChain | null = null;
+	private squares: BlockSquares | null = null;
+	private readonly squaresOut = new Float64Array(CHAIN_BUFFER + 1);
 	private readonly startBuffer: Float64Array;
 	private startFill = 0;
 	private readonly interval = new Uint32Array(PINST_CLASSES);
 	private readonly record = new Uint32Array(PINST_CLASSES);
 	private intervalCount = 0;
 	private recordCount = 0;
-	private n = 0; // samples through the chain
+	private n = 0; // values through the chain (at the chain rate)
+	private samplesIn = 0; // input samples taken
 	private readonly intervalSamples: number;
 	/** Samples past a clock tick at the first sample (0 when intervals count from the first sample). */
 	private readonly offsetSamples: number;
@@ -119,7 +126,7 @@ class StreamingFlickermeter implements Flickermeter {
 	private readonly blockS: number;
 	private block = 0;
 	private blockStartN = 0;
-	private readonly stretch: ChainStretch = { max: 0, sum: 0, nonFinite: 0 };
+	private readonly stretch: ChainStretch = { max: 0, sum: 0 };
 	private recordMax = 0;
 	private recordSum = 0;
 	private readonly pst: PstInterval[] = [];
@@ -128,8 +135,8 @@ class StreamingFlickermeter implements Flickermeter {
 
 	constructor(private readonly options: FlickermeterOptions) {
 		this.design = designFlickermeter(options);
-		const fs = this.design.sampleRateHz;
-		this.startBuffer = new Float64Array(Math.round((START_CYCLES * fs) / options.nominalHz));
+		this.startBuffer = new Float64Array(Math.round((START_CYCLES * this.design.sampleRateHz) / options.nominalHz));
+		const fs = this.design.chainRateHz;
 		this.intervalSamples = Math.round(PST_INTERVAL_S * fs);
 		const offsetS = options.intervalOffsetS ?? 0;
 		if (!(offsetS >= 0 && offsetS < PST_INTERVAL_S))
@@ -143,6 +150,7 @@ class StreamingFlickermeter implements Flickermeter {
 
 	push(samples: Float64Array): void {
 		if (this.finished) throw new Error('flickermeter already finished');
+		this.samplesIn += samples.length;
 		let from = 0;
 		if (!this.chain) {
 			const take = Math.min(samples.length, this.startBuffer.length - this.startFill);
@@ -155,7 +163,7 @@ class StreamingFlickermeter implements Flickermeter {
 		if (from < samples.length) this.feed(samples, from, samples.length);
 	}
 
-	/** Builds the chain from the start buffer's mean square, then runs the buffer through it. */
+	/** Builds the block squares and the chain from the start buffer's mean square, then runs the buffer through them. */
 	private start(): void {
 		const b = this.startBuffer.subarray(0, this.startFill);
 		let sumSq = 0,
@@ -165,13 +173,24 @@ class StreamingFlickermeter implements Flickermeter {
 				sumSq += v * v;
 				finite++;
 			}
-		this.chain = new FlickerChain(this.design, finite > 0 ? sumSq / finite : 0);
+		const meanSquare = finite > 0 ? sumSq / finite : 0;
+		this.squares = new BlockSquares(this.design.decimation, meanSquare);
+		this.chain = new FlickerChain(this.design, meanSquare);
 		if (b.length > 0) this.feed(b, 0, b.length);
 	}
 
-	/** Splits [from, to) at block and interval boundaries and runs each stretch. */
+	/** Input samples [from, to) through the block squares, a buffer at a time, and on through the chain. */
 	private feed(x: Float64Array, from: number, to: number): void {
-		const fs = this.design.sampleRateHz;
+		const step = CHAIN_BUFFER * this.design.decimation;
+		for (let i = from; i < to; i += step) {
+			const count = this.squares!.run(x, i, Math.min(to, i + step), this.squaresOut);
+			this.feedChain(this.squaresOut, 0, count);
+		}
+	}
+
+	/** Splits chain values [from, to) at block and interval boundaries and runs each stretch. */
+	private feedChain(x: Float64Array, from: number, to: number): void {
+		const fs = this.design.chainRateHz;
 		let i = from;
 		while (i < to) {
 			const blockEnd = Math.round((this.block + 1) * this.blockS * fs);
@@ -196,20 +215,19 @@ class StreamingFlickermeter implements Flickermeter {
 
 	/** Runs the settling stretch: the chain's states move on, its Pinst is neither classified nor summarised. */
 	private settle(x: Float64Array, from: number, to: number): void {
-		const scratch: ChainStretch = { max: 0, sum: 0, nonFinite: 0 };
+		const scratch: ChainStretch = { max: 0, sum: 0 };
 		this.settlingCounts ??= new Uint32Array(PINST_CLASSES);
 		this.chain!.run(x, from, to, this.settlingCounts, scratch);
-		this.stretch.nonFinite += scratch.nonFinite;
 		this.n += to - from;
 		if (this.n >= this.settlingSamples) {
 			this.settlingCounts = undefined;
-			this.block = Math.floor(this.n / (this.blockS * this.design.sampleRateHz));
+			this.block = Math.floor(this.n / (this.blockS * this.design.chainRateHz));
 			this.blockStartN = this.n;
 		}
 	}
 
 	private closeBlock(): void {
-		const fs = this.design.sampleRateHz;
+		const fs = this.design.chainRateHz;
 		const startN = this.blockStartN;
 		const count = this.n - startN;
 		const st = this.stretch;
@@ -232,7 +250,7 @@ class StreamingFlickermeter implements Flickermeter {
 	}
 
 	private closeInterval(): void {
-		const fs = this.design.sampleRateHz;
+		const fs = this.design.chainRateHz;
 		const figures = pstFromHistogram(this.interval, this.intervalCount);
 		const startN = this.n - this.intervalSamples;
 		// A first interval cut by a clock tick is partial: its Pinst counts in the record, it gives no Pst.
@@ -254,20 +272,19 @@ class StreamingFlickermeter implements Flickermeter {
 	finish(): FlickerResult {
 		if (this.finished) throw new Error('flickermeter already finished');
 		if (!this.chain && this.startFill > 0) this.start();
-		const fs = this.design.sampleRateHz;
 		if (this.n > this.blockStartN) this.closeBlock();
 		this.mergeInterval();
 		this.finished = true;
 		return {
-			sampleRateHz: fs,
+			sampleRateHz: this.design.sampleRateHz,
 			nominalHz: this.design.nominalHz,
 			lamp: this.design.lamp,
-			durationS: this.n / fs,
+			durationS: this.samplesIn / this.design.sampleRateHz,
 			pst: this.pst,
 			plt: pltIntervals(this.pst),
 			pinst: this.statistics(),
 			pinstBlocks: this.blocks,
-			nonFiniteSamples: this.stretch.nonFinite,
+			nonFiniteSamples: this.squares?.nonFinite ?? 0,
 		};
 	}
 
@@ -275,7 +292,7 @@ class StreamingFlickermeter implements Flickermeter {
 		const level = (p: number) => pinstLevelExceeded(this.record, this.recordCount, p);
 		const empty = this.recordCount === 0;
 		return {
-			durationS: this.n / this.design.sampleRateHz,
+			durationS: this.samplesIn / this.design.sampleRateHz,
 			max: empty ? NaN : this.recordMax,
 			mean: empty ? NaN : this.recordSum / this.recordCount,
 			p1: level(1),

@@ -1,7 +1,14 @@
 // Public API of lib/flicker: re-exports only.
 export * from './constants.js';
 export { bilinear, biquadGain, butterworthLowPass, type Biquad } from './iir.js';
-export { designFlickermeter, weightingSections, type FlickerDesign, type FlickerSettings } from './design.js';
+export {
+	designFlickermeter,
+	flickerDecimation,
+	weightingSections,
+	type FlickerDesign,
+	type FlickerSettings,
+} from './design.js';
+export { BlockSquares, blockSquaresGain } from './block-squares.js';
 export {
 	pinstLevelExceeded,
 	pinstClass,
