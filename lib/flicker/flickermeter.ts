@@ -23,8 +23,8 @@ export interface PltInterval {
 }
 
 /**
- * Pinst over the whole record (every sample): NOT a Pst. Levels are those exceeded the given % of the
- * time. All NaN for an empty record.
+ * Pinst over the whole record (every chain value, fs/D per second): NOT a Pst. Levels are those exceeded
+ * the given % of the time. All NaN for an empty record.
  */
 export interface PinstStatistics {
 	durationS: number;
@@ -64,7 +64,7 @@ export interface FlickerResult {
 	pinst: PinstStatistics;
 	/** With keepPinstBlocks: per block, max and mean Pinst. */
 	pinstBlocks?: { blockS: number; startS: number[]; max: number[]; mean: number[] };
-	/** Samples that were NaN or infinite (each repeated the previous demodulator value). */
+	/** Samples that were NaN or infinite (each repeated the previous finite square). */
 	nonFiniteSamples: number;
 }
 

@@ -1,12 +1,14 @@
 /**
  * `npm run bench -- flicker`: the IEC 61000-4-15 flickermeter on one channel at 6400 S/s, 10 minutes of
  * a 230 V, 50 Hz supply with 7 changes/min rectangular modulation (3.84 million samples, generated once
- * into one array), pushed in 65536-sample chunks: blocks 1-4 per sample, classification, Pst.
+ * into one array), pushed in 65536-sample chunks: the block squares per sample (a square, an addition and a
+ * multiply-add), blocks 1-4 and the classification once per 4 samples (at 1600 S/s), Pst.
  *
  * Target: >= 2000x real time per channel on one core (10 minutes in < 0.3 s).
  * Reference measured in the same run over the same samples: one bare second-order IIR section (direct
- * form II transposed), the cheapest recursive filter there is; the flickermeter runs eight sections, a
- * division and a classification per sample, so a ratio of ~8-15x that kernel is the expected cost.
+ * form II transposed), the cheapest recursive filter there is. Blocks 1-4 run eight sections, a division and
+ * a classification per chain value (~6x that kernel per value when they ran at the input rate); at a quarter
+ * of the input rate, plus the block squares, a ratio of ~2-3x is the expected cost.
  */
 import { cpus, loadavg } from 'node:os';
 import { createFlickermeter } from '../../lib/flicker/index.js';
@@ -94,7 +96,7 @@ printTable(
 	['kernel', 'wall ms', 'cpu ms', 'ns/sample (cpu)', 'x real time (cpu)', 'x real time (wall)'],
 	[
 		[
-			'flickermeter (blocks 1-5, Pst)',
+			'flickermeter (block squares, blocks 1-5 at fs/4, Pst)',
 			flicker.wall,
 			flicker.cpu,
 			nsPer(flicker.cpu),

@@ -142,8 +142,8 @@ function distorted(f0: number, nominalHz: 50 | 60, lamp: FlickerLamp, cpm: numbe
 describe('flickermeter with block squares: a distorted supply (12.8 kS/s, D = 8, chain at 1600 S/s)', () => {
 	// f0 = 50.275 Hz puts 32·f0 = 1608.8 Hz, the fundamental's products with the 31st and 33rd harmonics,
 	// 8.8 Hz from the chain rate: it folds onto the lamp filter's peak. docs/flicker-alias-bound.py bounds what
-	// the triangle kernel lets through at Pinst < 1e-6; a plain block mean of 8 samples would add Pinst ≈ 1.4e-3
-	// (Pst 0.028). Besides the fold, the standard's chain itself passes a little of the 2·f0 ripple: an
+	// the triangle kernel lets through at Pinst 2.6e-7 (phases aligned); a plain block mean of 8 samples in its
+	// place measured Pst 0.028 here (bound 0.069). Besides the fold, the standard's chain itself passes a little of the 2·f0 ripple: an
 	// undistorted 50 Hz sine reads Pst ≈ 0.01 (0.004 at 60 Hz). The limits sit between the two.
 	it('unmodulated, 50.275 Hz, 230 V lamp: Pst < 0.015 (no fluctuation: Pst = 0 ideally)', () => {
 		expect(distorted(50.275, 50, '230V', 0, 0).pst[0].pst).toBeLessThan(0.015);
