@@ -33,14 +33,40 @@ export function createHalfPeriodRms(
 	const st = new Float64Array(6);
 	return {
 		push(samples: Float64Array): void {
-			let n = st[0],
-				edge = st[1],
+			const n0 = st[0],
+				len = samples.length;
+			let edge = st[1],
 				count = st[2],
 				sumSq = st[3],
 				prev = st[4],
 				seenCrossing = st[5] !== 0;
-			for (let i = 0; i < samples.length; i++, n++) {
-				const v = samples[i];
+			for (let i = 0; i < len;) {
+				// Fast run: finite samples on prev's side of zero that end nothing (no crossing, and no
+				// timeout once a crossing was seen) only add to the sum. Same order of additions as one by one.
+				const lim = seenCrossing ? Math.min(len, i + Math.max(0, maxGap - count)) : len;
+				let j = i;
+				if (prev < 0)
+					for (; j < lim; j++) {
+						const v = samples[j];
+						if (!(v < 0 && v > -Infinity)) break;
+						sumSq += v * v;
+					}
+				else
+					for (; j < lim; j++) {
+						const v = samples[j];
+						if (!(v >= 0 && v < Infinity)) break;
+						sumSq += v * v;
+					}
+				if (j > i) {
+					count += j - i;
+					prev = samples[j - 1];
+					i = j;
+					if (i === len) break;
+				}
+				// One sample that may end a window (or is not finite), as the definition reads.
+				const v = samples[i],
+					n = n0 + i;
+				i++;
 				if (!(v - v === 0)) continue; // not finite
 				const crossed = (prev < 0 && v >= 0) || (prev >= 0 && v < 0);
 				if (crossed && (count >= minGap || !seenCrossing)) {
@@ -60,7 +86,7 @@ export function createHalfPeriodRms(
 				count++;
 				sumSq += v * v;
 			}
-			st[0] = n;
+			st[0] = n0 + len;
 			st[1] = edge;
 			st[2] = count;
 			st[3] = sumSq;

@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 /**
  * IEC 61000-3-3 voltage change parameters on half-cycle RMS sequences whose dc, dmax and Tmax follow by
  * arithmetic (definitions: IEC 61000-4-15:2010, 3.1 and IEC 61000-3-3:2013, 3; from memory).
@@ -111,5 +112,45 @@ describe('createHalfPeriodRms', () => {
 		h.push(sineSamples({ amplitude: 230 * Math.SQRT2, frequencyHz: 50, sampleRateHz: 6400, cycles: 20 }));
 		expect(values.length).toBeGreaterThanOrEqual(38);
 		for (const v of values) expect(Math.abs(v / 230 - 1)).toBeLessThan(5e-4);
+	});
+
+	it('a channel that stops crossing zero (a steady 5 V after 3 cycles) keeps giving values: 5 V every 1.5 nominal half periods (RMS of a constant; the timeout of the module note)', () => {
+		const values: { t: number; v: number }[] = [];
+		const h = createHalfPeriodRms(6400, 50, (t, v) => values.push({ t, v }));
+		const x = new Float64Array(6400 * 3);
+		x.set(sineSamples({ amplitude: 325, frequencyHz: 50, sampleRateHz: 6400, cycles: 3, phaseDeg: 10 }));
+		x.fill(5, 384);
+		h.push(x);
+		const late = values.filter((p) => p.t > 0.1);
+		// 1.5 half periods of 64 samples: a value every 96 samples, 2.9 s / 15 ms ≈ 193 of them
+		expect(late.length).toBeGreaterThan(180);
+		for (const p of late) expect(p.v).toBeCloseTo(5, 9);
+		expect(late[1].t - late[0].t).toBeCloseTo(96 / 6400, 9);
+	});
+
+	it('property: any chunking gives the identical values, with noise and non-finite samples (fast-check)', () => {
+		const x = new Float64Array(20000);
+		for (let i = 0; i < x.length; i++) x[i] = 325 * Math.sin((2 * Math.PI * 50.3 * i) / 6400) + 30 * Math.sin(i * 2.1);
+		x[777] = NaN;
+		x[5000] = Infinity;
+		x.fill(0, 9000, 9400);
+		const run = (sizes: number[]) => {
+			const out: number[] = [];
+			const h = createHalfPeriodRms(6400, 50, (t, v) => out.push(t, v));
+			for (let i = 0, k = 0; i < x.length; k++) {
+				const stop = Math.min(x.length, i + sizes[k % sizes.length]);
+				h.push(x.subarray(i, stop));
+				i = stop;
+			}
+			return out;
+		};
+		const whole = run([x.length]);
+		expect(whole.length).toBeGreaterThan(2 * 300);
+		fc.assert(
+			fc.property(fc.array(fc.integer({ min: 1, max: 3000 }), { minLength: 1, maxLength: 6 }), (sizes) => {
+				expect(run(sizes)).toEqual(whole);
+			}),
+			{ numRuns: 30 },
+		);
 	});
 });
