@@ -19,10 +19,9 @@ PST_WEIGHT_SUM = 0.0314 + 0.0525 + 0.0657 + 0.28 + 0.08
 
 
 def decimation(fs):
-    """Largest D with fs/D >= 1600 that divides the samples of 10 minutes (lib/flicker/design.ts)."""
-    interval = round(600 * fs)
+    """Largest D with fs/D >= 1600 that divides the (whole) rate (lib/flicker/design.ts)."""
     for d in range(int(fs // MIN_CHAIN_HZ), 1, -1):
-        if interval % d == 0:
+        if fs % d == 0:
             return d
     return 1
 

@@ -53,12 +53,13 @@ export interface FlickerDesign {
 /**
  * D for an input rate: the largest integer that keeps the chain at or above 1600 S/s (the rate every
  * IEC 61000-4-15 table check in tests/flicker runs the chain at, so the filters' accuracy there is measured)
- * and divides the samples of a 10-minute interval (so intervals end on a chain sample). Our own choice; the
- * aliasing it allows is bounded in docs/flicker.md, "Block squares".
+ * and divides the rate (so the chain rate is a whole number and every 1 s block, the 5 s settling and every
+ * 10-minute interval end on a chain value; for a rate that is not a whole number, D divides the samples of
+ * 10 minutes). Our own choice; the aliasing it allows is bounded in docs/flicker.md, "Block squares".
  */
 export function flickerDecimation(sampleRateHz: number): number {
-	const interval = Math.round(PST_INTERVAL_S * sampleRateHz);
-	for (let d = Math.floor(sampleRateHz / FLICKER_MIN_SAMPLE_RATE_HZ); d > 1; d--) if (interval % d === 0) return d;
+	const whole = Number.isInteger(sampleRateHz) ? sampleRateHz : Math.round(PST_INTERVAL_S * sampleRateHz);
+	for (let d = Math.floor(sampleRateHz / FLICKER_MIN_SAMPLE_RATE_HZ); d > 1; d--) if (whole % d === 0) return d;
 	return 1;
 }
 

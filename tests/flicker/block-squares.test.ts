@@ -118,25 +118,33 @@ describe('BlockSquares', () => {
 });
 
 describe('flickerDecimation', () => {
-	it('keeps the chain at ≥ 1600 S/s: 1 below 3200 S/s, 4 at 6400, 6 at 10 kS/s, 8 at 12.8 kS/s, 625 at 1 MS/s', () => {
+	it('keeps the chain at ≥ 1600 S/s on a whole rate: 1 below 3200 S/s, 4 at 6400, 5 at 10 kS/s, 8 at 12.8 kS/s, 25 at 44.1 kS/s, 625 at 1 MS/s', () => {
 		expect(flickerDecimation(1600)).toBe(1);
 		expect(flickerDecimation(3199)).toBe(1);
 		expect(flickerDecimation(3200)).toBe(2);
 		expect(flickerDecimation(6400)).toBe(4);
-		expect(flickerDecimation(10000)).toBe(6);
+		expect(flickerDecimation(10000)).toBe(5);
 		expect(flickerDecimation(12800)).toBe(8);
+		expect(flickerDecimation(44100)).toBe(25);
 		expect(flickerDecimation(1e6)).toBe(625);
 	});
 
-	it('property: the chain rate is ≥ 1600 S/s and D divides the samples of 10 minutes (intervals end on a chain value)', () => {
+	it('property: the chain rate is ≥ 1600 S/s and a whole number for a whole input rate (D divides it)', () => {
 		fc.assert(
 			fc.property(fc.integer({ min: 1600, max: 5_000_000 }), (fsHz) => {
 				const dd = flickerDecimation(fsHz);
 				expect(Number.isInteger(dd) && dd >= 1).toBe(true);
 				expect(fsHz / dd).toBeGreaterThanOrEqual(1600);
-				expect((600 * fsHz) % dd).toBe(0);
+				expect(fsHz % dd).toBe(0);
 			}),
 			{ numRuns: 200 },
 		);
+	});
+
+	it('a rate that is not a whole number: D divides the samples of 10 minutes (6400.5 S/s: 600 × 6400.5 = 3 840 300 = 4 × 960 075)', () => {
+		const dd = flickerDecimation(6400.5);
+		expect(6400.5 / dd).toBeGreaterThanOrEqual(1600);
+		expect(3_840_300 % dd).toBe(0);
+		expect(dd).toBe(4); // 3 840 300 = 4 × 960 075, and 6400.5 / 4 ≥ 1600
 	});
 });
