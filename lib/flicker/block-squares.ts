@@ -7,11 +7,15 @@
  * Kernel for D ≥ 2: a triangle of 2D taps, the convolution of two D-sample boxcars and a 2-tap mean,
  *   H(f) = (sin(π f D/fs) / (D sin(π f/fs)))² · cos(π f/fs),
  * with double zeros at every multiple of fs/D, the frequencies whose neighbourhood folds into the flicker
- * band (Dirichlet kernel, closed form; e.g. Oppenheim & Schafer, Discrete-Time Signal Processing, 3rd ed.,
- * 2.7). For D = 1 the squares pass unchanged (the chain as it ran at the full rate).
+ * band (the moving average's Dirichlet kernel, closed form; Oppenheim & Schafer, Discrete-Time Signal
+ * Processing, 3rd ed., ch. 2, from memory). For D = 1 the squares pass unchanged (the chain as it ran at
+ * the full rate).
  */
 
-/** State indices: the block's sum of squares and rising part so far, position in the block, previous block's rising part, last finite square. */
+/**
+ * State indices: the block's sum of squares and rising part so far, the position in the block, the previous
+ * block's rising part, the last finite square.
+ */
 const SUM = 0,
 	RISING_SO_FAR = 1,
 	POSITION = 2,
@@ -28,6 +32,11 @@ export function blockSquaresGain(frequencyHz: number, d: number, sampleRateHz: n
 	return box * box * Math.cos(x);
 }
 
+/**
+ * Streaming block squares of one channel: state carried between calls, so the output does not depend on
+ * how the input is chunked.
+ * @example D = 4 on a 230 V sine at 6400 S/s: 1600 values per second, each ≈ 52 900 V² (the mean square)
+ */
 export class BlockSquares {
 	readonly state = new Float64Array(STATE_LENGTH);
 	/** Samples that were NaN or infinite (each repeated the previous finite square). */
@@ -51,7 +60,8 @@ export class BlockSquares {
 	 * ceil((to − from)/D) + 1 values. A non-finite sample repeats the previous finite square.
 	 *
 	 * Per block of squares sq_p (p = 0 … D−1): S = Σ sq_p and the rising part R = Σ (p + ½) sq_p; the
-	 * falling part is Σ (D − p − ½) sq_p = D·S − R, and the output is (R of the previous block + D·S − R) / D².
+	 * falling part is Σ (D − p − ½) sq_p = D·S − R, and the output is
+	 * (R of the previous block + D·S − R) / D².
 	 */
 	run(x: Float64Array, from: number, to: number, out: Float64Array): number {
 		if (this.factor === 1) return this.copy(x, from, to, out);

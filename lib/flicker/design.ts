@@ -88,11 +88,12 @@ export function weightingSections(lamp: FlickerLamp, sampleRateHz: number): [Biq
 }
 
 /**
- * Designs the block squares and blocks 1-4. The Pinst scale follows from the digital responses at the reference point: a
- * modulation of relative depth d at fm leaves the demodulator as d·sin(2π fm t); after the band filters
- * of gain g it is squared to (g d)²/2 · (1 − cos 4π fm t), and the smoothing (gain h at 2 fm) keeps a
- * ripple, so max Pinst = scale · (g d)²/2 · (1 + h). Setting that to 1 at 8.8 Hz, d = 0.25 % with the
- * 230 V lamp's filter fixes the block-4 gain, used for both lamps; g includes the block squares' kernel gain at 8.8 Hz.
+ * Designs the block squares and blocks 1-4 (the filters at the chain rate fs/D). The Pinst scale follows
+ * from the digital responses at the reference point: a modulation of relative depth d at fm leaves the
+ * demodulator as d·sin(2π fm t); after the band filters of gain g it is squared to
+ * (g d)²/2 · (1 − cos 4π fm t), and the smoothing (gain h at 2 fm) keeps a ripple, so
+ * max Pinst = scale · (g d)²/2 · (1 + h). Setting that to 1 at 8.8 Hz, d = 0.25 % with the 230 V lamp's
+ * filter fixes the block-4 gain, used for both lamps; g includes the block squares' kernel gain at 8.8 Hz.
  * Ref: IEC 61000-4-15:2010, 5.5 and Table 1 (reference point; from memory).
  *
  * @throws RangeError when the sample rate is below 1600 S/s or not finite

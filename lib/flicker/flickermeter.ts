@@ -119,7 +119,7 @@ class StreamingFlickermeter implements Flickermeter {
 	private n = 0; // values through the chain (at the chain rate)
 	private samplesIn = 0; // input samples taken
 	private readonly intervalSamples: number;
-	/** Samples past a clock tick at the first sample (0 when intervals count from the first sample). */
+	/** Chain values past a clock tick at the first sample (0 when intervals count from the first sample). */
 	private readonly offsetSamples: number;
 	private readonly settlingSamples: number;
 	private settlingCounts?: Uint32Array;
@@ -163,7 +163,7 @@ class StreamingFlickermeter implements Flickermeter {
 		if (from < samples.length) this.feed(samples, from, samples.length);
 	}
 
-	/** Builds the block squares and the chain from the start buffer's mean square, then runs the buffer through them. */
+	/** Builds the block squares and the chain from the start buffer's mean square; runs the buffer through them. */
 	private start(): void {
 		const b = this.startBuffer.subarray(0, this.startFill);
 		let sumSq = 0,
