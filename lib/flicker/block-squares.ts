@@ -35,7 +35,8 @@ export function blockSquaresGain(frequencyHz: number, d: number, sampleRateHz: n
 /**
  * Streaming block squares of one channel: state carried between calls, so the output does not depend on
  * how the input is chunked.
- * @example D = 4 on a 230 V sine at 6400 S/s: 1600 values per second, each ≈ 52 900 V² (the mean square)
+ * @example D = 4 on a 230 V, 50 Hz sine at 6400 S/s: 1600 values per second averaging 52 900 V² (the mean
+ * square), the 100 Hz ripple of v² still in them (|H(100 Hz)| = 0.99) for the band filters to remove
  */
 export class BlockSquares {
 	readonly state = new Float64Array(STATE_LENGTH);
