@@ -19,11 +19,18 @@ PST_WEIGHT_SUM = 0.0314 + 0.0525 + 0.0657 + 0.28 + 0.08
 
 
 def decimation(fs):
-    """Largest D with fs/D >= 1600 that divides the (whole) rate (lib/flicker/design.ts)."""
-    for d in range(int(fs // MIN_CHAIN_HZ), 1, -1):
-        if fs % d == 0:
-            return d
-    return 1
+    """The rule of lib/flicker/design.ts: the largest D with fs/D >= 1600 that divides the (whole) rate,
+    unless that leaves the chain at 3200 S/s or more: then the largest that divides 10 minutes of samples."""
+    most = int(fs // MIN_CHAIN_HZ)
+
+    def largest_dividing(n):
+        for d in range(most, 1, -1):
+            if n % d == 0:
+                return d
+        return 1
+
+    d = largest_dividing(fs)
+    return d if 2 * d > most else max(d, largest_dividing(round(600 * fs)))
 
 
 def kernel(f, d, fs, order):

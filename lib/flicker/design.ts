@@ -53,14 +53,20 @@ export interface FlickerDesign {
 /**
  * D for an input rate: the largest integer that keeps the chain at or above 1600 S/s (the rate every
  * IEC 61000-4-15 table check in tests/flicker runs the chain at, so the filters' accuracy there is measured)
- * and divides the rate (so the chain rate is a whole number and every 1 s block, the 5 s settling and every
- * 10-minute interval end on a chain value; for a rate that is not a whole number, D divides the samples of
- * 10 minutes). Our own choice; the aliasing it allows is bounded in docs/flicker.md, "Block squares".
+ * and divides the rate, so the chain rate is a whole number and every 1 s block, the 5 s settling and every
+ * 10-minute interval end on a chain value. When no such D keeps the chain below 3200 S/s (a rate with few
+ * divisors, or not a whole number), D divides the samples of 10 minutes instead (intervals stay exact,
+ * 1 s blocks round to a chain value). Our own choice; the aliasing it allows is bounded in docs/flicker.md,
+ * "Block squares".
  */
 export function flickerDecimation(sampleRateHz: number): number {
-	const whole = Number.isInteger(sampleRateHz) ? sampleRateHz : Math.round(PST_INTERVAL_S * sampleRateHz);
-	for (let d = Math.floor(sampleRateHz / FLICKER_MIN_SAMPLE_RATE_HZ); d > 1; d--) if (whole % d === 0) return d;
-	return 1;
+	const most = Math.floor(sampleRateHz / FLICKER_MIN_SAMPLE_RATE_HZ);
+	const largestDividing = (n: number) => {
+		for (let d = most; d > 1; d--) if (n % d === 0) return d;
+		return 1;
+	};
+	const d = Number.isInteger(sampleRateHz) ? largestDividing(sampleRateHz) : 1;
+	return 2 * d > most ? d : Math.max(d, largestDividing(Math.round(PST_INTERVAL_S * sampleRateHz)));
 }
 
 /** α of a first-order lag y[n] = y[n−1] + α (x[n] − y[n−1]) whose step response matches e^(−t/τ) at every sample. */

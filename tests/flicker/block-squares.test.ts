@@ -129,16 +129,21 @@ describe('flickerDecimation', () => {
 		expect(flickerDecimation(1e6)).toBe(625);
 	});
 
-	it('property: the chain rate is ≥ 1600 S/s and a whole number for a whole input rate (D divides it)', () => {
+	it('property: the chain rate is ≥ 1600 S/s and below 3200 S/s from 3200 S/s on; D divides the rate, or else the samples of 10 minutes (intervals end on a chain value)', () => {
 		fc.assert(
-			fc.property(fc.integer({ min: 1600, max: 5_000_000 }), (fsHz) => {
+			fc.property(fc.integer({ min: 1600, max: 900_000 }), (fsHz) => {
 				const dd = flickerDecimation(fsHz);
 				expect(Number.isInteger(dd) && dd >= 1).toBe(true);
 				expect(fsHz / dd).toBeGreaterThanOrEqual(1600);
-				expect(fsHz % dd).toBe(0);
+				if (fsHz >= 3200) expect(fsHz / dd).toBeLessThan(3200);
+				expect(fsHz % dd === 0 || (600 * fsHz) % dd === 0).toBe(true);
 			}),
-			{ numRuns: 200 },
+			{ numRuns: 300 },
 		);
+	});
+
+	it('a prime rate (10 007 S/s) has no divisor to use: D = 6 divides its 10 minutes (6 004 200 samples = 6 × 1 000 700)', () => {
+		expect(flickerDecimation(10007)).toBe(6);
 	});
 
 	it('a rate that is not a whole number: D divides the samples of 10 minutes (6400.5 S/s: 600 × 6400.5 = 3 840 300 = 4 × 960 075)', () => {

@@ -5,6 +5,7 @@
  * docs/flicker.md, "Block squares", and docs/flicker-alias-bound.py. Tolerance: class F1, 5 % (Ed.2, 6.2,
  * from memory).
  */
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
 	createFlickermeter,
@@ -103,6 +104,18 @@ describe('flickermeter with block squares: IEC 61000-4-15 Ed.2 Table 1 (sinusoid
 			expect(Math.abs(r.pinst.max - 1)).toBeLessThanOrEqual(0.05);
 		});
 	}
+});
+
+describe('flickermeter with block squares: any whole input rate', () => {
+	it('property: from 3200 to 40 000 S/s (D from 2 to 25, chain from 1600 to 3200 S/s, prime rates included), 8.8 Hz at 0.25 % gives max Pinst 1.00 within 5 % (Ed.2 Table 1, from memory; fast-check)', () => {
+		fc.assert(
+			fc.property(fc.integer({ min: 3200, max: 40_000 }), (fs) => {
+				const r = measure(fs, 50, '230V', 230, 20, { shape: 'sine', frequencyHz: 8.8, deltaVOverV: 0.0025 });
+				expect(Math.abs(r.pinst.max - 1)).toBeLessThanOrEqual(0.05);
+			}),
+			{ numRuns: 6 },
+		);
+	});
 });
 
 /**
