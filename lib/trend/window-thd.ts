@@ -1,13 +1,21 @@
 /**
- * THD of one 10/12-cycle window straight from a channel's ring buffer, fast enough to run on every
- * window of every channel of a long recording (about 1/7 of the cost of lib/spectrum's harmonicWindow,
+ * THD of one 10/12-cycle window on every channel at once, straight from the channels' ring buffers, fast
+ * enough to run on every window of a long recording (a few % of the cost of lib/spectrum's harmonicWindow,
  * whose 24-tap sinc resampler is exact to 1e-6 but costs ~0.2 ms per window).
  *
  * Method (IEC 61000-4-7 synchronised window): the window from zero crossing startT to endT (c whole
  * cycles, fractional samples) is resampled onto M = 2048 points by 8-point Lagrange interpolation, so
- * DFT bin c·h is harmonic h exactly; then a radix-2 real FFT (fft.js); C_k = √2·|X_k|/M; harmonic
+ * DFT bin c·h is harmonic h exactly; then a radix-2 FFT (fft.js); C_k = √2·|X_k|/M; harmonic
  * subgroups G_sg,h² = C²_{ch−1} + C²_{ch} + C²_{ch+1}; THDS = √(Σ_{h=2..50} G_sg,h²) / G_sg,1 · 100 %.
  * Orders at or above fs/2 are left out.
+ *
+ * Speed: the points' places and interpolation weights are worked out once per window and serve every
+ * channel; two channels go through one complex FFT (x_a + i·x_b), split afterwards by conjugate symmetry
+ * X_a[k] = (Z[k] + Z*[M−k]) / 2, X_b[k] = (Z[k] − Z*[M−k]) / 2i (common practice: two real DFTs for the
+ * price of one complex DFT). Only channels with finite, non-zero RMS within PAIR_MAX_RATIO of each other
+ * are paired, so the split's rounding (~1e-16 of the larger channel) stays below 1e-9 of the smaller
+ * one's fundamental; any other channel gets its own real FFT, exactly as before. Samples are read from the
+ * ring in place unless the window wraps round its end.
  *
  * Accuracy of the interpolation (worst fractional position; computed from the 8-point Lagrange
  * frequency response): magnitude error < 0.003 % up to 0.1·fs, < 0.06 % up to 0.15·fs, < 0.5 % at
@@ -26,6 +34,12 @@ const PHASES = 1024;
 /** Highest harmonic order analysed: lib/spectrum's MAX_HARMONIC_ORDER (IEC 61000-4-30 class A: 50). */
 export const TREND_MAX_ORDER = MAX_HARMONIC_ORDER;
 const MAX_ORDER = TREND_MAX_ORDER;
+/**
+ * Largest RMS ratio of two channels sharing one complex FFT. The split leaves rounding of ~1e-16·√(log₂M)
+ * of the larger channel's spectrum in the smaller one's (common practice: floating-point FFT error
+ * grows as ε·√log N), so ≤ 1e4 keeps it below ~1e-11 of the smaller channel's fundamental.
+ */
+export const PAIR_MAX_RATIO = 1e4;
 
 let weights: Float64Array | undefined;
 
@@ -46,24 +60,123 @@ function weightTable(): Float64Array {
 	return w;
 }
 
+/** What `thdWindow` fills for channel c. */
+export interface WindowThdOut {
+	/** THDS in % at [c]; NaN when the fundamental is 0 (or a sample is not finite). */
+	thd: Float64Array;
+	/**
+	 * When given, [c] (length ≥ 51) receives each order's subgroup in % of the fundamental's subgroup
+	 * (index = order; [1] = 100; NaN at or above fs/2 and for order 0).
+	 */
+	harmonics?: Float64Array[];
+	/**
+	 * When given, [2c], [2c + 1] receive the fundamental's DFT bin (re, im): a phasor in the window's time
+	 * frame, the same frame for every channel of the window.
+	 */
+	fundamentals?: Float64Array;
+}
+
+/** Whether two channels of RMS `a` and `b` may share one complex FFT (both finite, non-zero, within PAIR_MAX_RATIO). */
+export function pairable(a: number, b: number): boolean {
+	return a > 0 && b > 0 && a < Infinity && b < Infinity && a <= b * PAIR_MAX_RATIO && b <= a * PAIR_MAX_RATIO;
+}
+
 export class WindowThd {
 	private readonly fft = new FFT(M);
 	private readonly input = new Float64Array(M);
+	private readonly packed = new Float64Array(2 * M);
 	private readonly spectrum = new Float64Array(2 * M);
-	private raw = new Float64Array(M + 64);
-	/** Per output point: the first tap's index into the copied window and its weights' row; same for every channel of a window. */
+	/** Power |X_k|² of the bins in use (k ≤ c·51 + 1 ≤ M/2), for the channel(s) just transformed. */
+	private readonly powerA = new Float64Array(M / 2 + 1);
+	private readonly powerB = new Float64Array(M / 2 + 1);
+	private readonly fund = new Float64Array(4);
+	/** Copies of a window that wraps round the ring's end (with the taps' margin). */
+	private rawA = new Float64Array(M + 64);
+	private rawB = new Float64Array(M + 64);
+	/** Per output point: the first tap's index from the window's first tap, and its weights' row; same for every channel of a window. */
 	private readonly tapAt = new Int32Array(M);
 	private readonly tapPhase = new Int32Array(M);
 	private placedStartT = NaN;
 	private placedEndT = NaN;
+	/** Of the window placed: the first tap's sample index, taps' sample count, highest order below fs/2. */
+	private first = 0;
+	private count = 0;
+	private hMax = 0;
+	/** Index of the first tap in the array `source` returned last. */
+	private runStart = 0;
 
 	constructor(readonly cycles: number) {
 		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2)
 			throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
 	}
 
+	/**
+	 * THDS in % of every channel's window [startT, endT) (sample indices, fractional) of `rings`
+	 * (power-of-two length, index & mask), into `out`; needs samples from startT − 4 to endT + 5 in the
+	 * rings. `rms` (the channels' RMS over the window) decides which channels share an FFT (`pairable`).
+	 */
+	thdWindow(
+		rings: readonly Float64Array[],
+		mask: number,
+		startT: number,
+		endT: number,
+		sampleRateHz: number,
+		rms: ArrayLike<number>,
+		out: WindowThdOut,
+	): void {
+		this.place(startT, endT, sampleRateHz);
+		let held = -1;
+		for (let c = 0; c < rings.length; c++) {
+			if (!pairable(rms[c], rms[c])) this.single(rings, mask, c, out);
+			else if (held < 0) held = c;
+			else if (pairable(rms[held], rms[c])) {
+				this.pair(rings, mask, held, c, out);
+				held = -1;
+			} else {
+				this.single(rings, mask, held, out);
+				held = c;
+			}
+		}
+		if (held >= 0) this.single(rings, mask, held, out);
+	}
+
+	/**
+	 * THDS in % of one channel's window, as `thdWindow` (always its own real FFT); NaN when the fundamental is 0.
+	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the docs/methods.md §1.3 mix
+	 */
+	thdPercent(
+		ring: Float64Array,
+		mask: number,
+		startT: number,
+		endT: number,
+		sampleRateHz: number,
+		harmonicsOut?: Float64Array,
+		fundamentalOut?: Float64Array,
+	): number {
+		const out: WindowThdOut = {
+			thd: new Float64Array(1),
+			harmonics: harmonicsOut && [harmonicsOut],
+			fundamentals: fundamentalOut && new Float64Array(2),
+		};
+		this.place(startT, endT, sampleRateHz);
+		this.single([ring], mask, 0, out);
+		if (fundamentalOut) fundamentalOut.set(out.fundamentals!);
+		return out.thd[0];
+	}
+
 	/** Where each of the M points of the window startT..endT falls (computed once for all channels of a window). */
-	private place(startT: number, endT: number): void {
+	private place(startT: number, endT: number, sampleRateHz: number): void {
+		const c = this.cycles;
+		const f1 = (c * sampleRateHz) / (endT - startT);
+		let h = 1;
+		while (h < MAX_ORDER && (h + 1) * f1 < sampleRateHz / 2) h++;
+		this.hMax = h;
+		this.first = Math.floor(startT) - 3;
+		this.count = Math.floor(endT) + 5 - this.first;
+		if (this.rawA.length < this.count) {
+			this.rawA = new Float64Array(this.count);
+			this.rawB = new Float64Array(this.count);
+		}
 		if (startT === this.placedStartT && endT === this.placedEndT) return;
 		const step = (endT - startT) / M;
 		const t0 = startT - (Math.floor(startT) - 3) - 3;
@@ -78,36 +191,29 @@ export class WindowThd {
 	}
 
 	/**
-	 * THDS in % of the window [startT, endT) (sample indices, fractional) of `ring` (power-of-two length,
-	 * index & mask); needs samples from startT − 4 to endT + 5 in the ring. NaN when the fundamental is 0.
-	 * When `harmonicsOut` (length ≥ 51) is given it receives each order's subgroup in % of the
-	 * fundamental's subgroup (index = order; [1] = 100; NaN at or above fs/2 and for order 0).
-	 * When `fundamentalOut` (length ≥ 2) is given it receives the fundamental's DFT bin (re, im; a phasor in
-	 * the window's time frame, the same frame for every channel windowed on the same crossings).
-	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the docs/methods.md §1.3 mix
+	 * The window's taps of `ring` in one run: the ring itself unless they wrap round its end, else a copy
+	 * in `raw`; the run's first tap is at `runStart`.
 	 */
-	thdPercent(
-		ring: Float64Array,
-		mask: number,
-		startT: number,
-		endT: number,
-		sampleRateHz: number,
-		harmonicsOut?: Float64Array,
-		fundamentalOut?: Float64Array,
-	): number {
-		// Copy the window (with the taps' margin) out of the ring once, so the tap loop needs no masking.
-		const first = Math.floor(startT) - 3;
-		const count = Math.floor(endT) + 5 - first;
-		if (this.raw.length < count) this.raw = new Float64Array(count);
-		const w = this.raw;
-		for (let j = 0; j < count; j++) w[j] = ring[(first + j) & mask];
-		this.place(startT, endT);
+	private source(ring: Float64Array, mask: number, raw: Float64Array): Float64Array {
+		const at = this.first & mask;
+		const count = this.count;
+		this.runStart = at;
+		if (at + count <= ring.length) return ring;
+		for (let j = 0; j < count; j++) raw[j] = ring[(this.first + j) & mask];
+		this.runStart = 0;
+		return raw;
+	}
+
+	/** Channel c alone: resampled, real FFT, subgroups. */
+	private single(rings: readonly Float64Array[], mask: number, c: number, out: WindowThdOut): void {
+		const w = this.source(rings[c], mask, this.rawA);
+		const off = this.runStart;
 		const tab = weightTable();
 		const at = this.tapAt;
 		const phase = this.tapPhase;
 		const x = this.input;
 		for (let m = 0; m < M; m++) {
-			const i = at[m];
+			const i = at[m] + off;
 			const p = phase[m];
 			x[m] =
 				tab[p] * w[i] +
@@ -121,24 +227,111 @@ export class WindowThd {
 		}
 		this.fft.realTransform(this.spectrum, x);
 		const s = this.spectrum;
-		const c = this.cycles;
-		const f1 = (c * sampleRateHz) / (endT - startT);
-		const power = (k: number) => s[2 * k] * s[2 * k] + s[2 * k + 1] * s[2 * k + 1];
-		if (fundamentalOut) {
-			fundamentalOut[0] = s[2 * c];
-			fundamentalOut[1] = s[2 * c + 1];
+		const pw = this.powerA;
+		const cy = this.cycles;
+		for (let h = 1; h <= this.hMax; h++) {
+			for (let k = cy * h - 1; k <= cy * h + 1; k++) pw[k] = s[2 * k] * s[2 * k] + s[2 * k + 1] * s[2 * k + 1];
 		}
-		const g1 = power(c - 1) + power(c) + power(c + 1);
+		this.fund[0] = s[2 * cy];
+		this.fund[1] = s[2 * cy + 1];
+		this.subgroups(pw, 0, c, out);
+	}
+
+	/** Channels a and b in one complex FFT (x_a + i·x_b), split by conjugate symmetry. */
+	private pair(rings: readonly Float64Array[], mask: number, a: number, b: number, out: WindowThdOut): void {
+		const wa = this.source(rings[a], mask, this.rawA);
+		const oa = this.runStart;
+		const wb = this.source(rings[b], mask, this.rawB);
+		const ob = this.runStart;
+		const tab = weightTable();
+		const at = this.tapAt;
+		const phase = this.tapPhase;
+		const z = this.packed;
+		for (let m = 0; m < M; m++) {
+			const p = phase[m];
+			const t0 = tab[p];
+			const t1 = tab[p + 1];
+			const t2 = tab[p + 2];
+			const t3 = tab[p + 3];
+			const t4 = tab[p + 4];
+			const t5 = tab[p + 5];
+			const t6 = tab[p + 6];
+			const t7 = tab[p + 7];
+			const i = at[m] + oa;
+			const j = at[m] + ob;
+			z[2 * m] =
+				t0 * wa[i] +
+				t1 * wa[i + 1] +
+				t2 * wa[i + 2] +
+				t3 * wa[i + 3] +
+				t4 * wa[i + 4] +
+				t5 * wa[i + 5] +
+				t6 * wa[i + 6] +
+				t7 * wa[i + 7];
+			z[2 * m + 1] =
+				t0 * wb[j] +
+				t1 * wb[j + 1] +
+				t2 * wb[j + 2] +
+				t3 * wb[j + 3] +
+				t4 * wb[j + 4] +
+				t5 * wb[j + 5] +
+				t6 * wb[j + 6] +
+				t7 * wb[j + 7];
+		}
+		this.fft.transform(this.spectrum, z);
+		this.split();
+		this.subgroups(this.powerA, 0, a, out);
+		this.subgroups(this.powerB, 2, b, out);
+	}
+
+	/** The two channels' bin powers (and fundamentals) from the packed spectrum Z: X_a = (Z_k + Z*_{M−k})/2, X_b = (Z_k − Z*_{M−k})/2i. */
+	private split(): void {
+		const s = this.spectrum;
+		const pa = this.powerA;
+		const pb = this.powerB;
+		const cy = this.cycles;
+		for (let h = 1; h <= this.hMax; h++) {
+			for (let k = cy * h - 1; k <= cy * h + 1; k++) {
+				const n = (M - k) & (M - 1);
+				const zr = s[2 * k];
+				const zi = s[2 * k + 1];
+				const wr = s[2 * n];
+				const wi = s[2 * n + 1];
+				const ar = (zr + wr) / 2;
+				const ai = (zi - wi) / 2;
+				const br = (zi + wi) / 2;
+				const bi = (wr - zr) / 2;
+				pa[k] = ar * ar + ai * ai;
+				pb[k] = br * br + bi * bi;
+				if (k === cy) {
+					this.fund[0] = ar;
+					this.fund[1] = ai;
+					this.fund[2] = br;
+					this.fund[3] = bi;
+				}
+			}
+		}
+	}
+
+	/** THDS (and the orders, the fundamental) of channel c from its bin powers `pw`; its fundamental at this.fund[f], [f + 1]. */
+	private subgroups(pw: Float64Array, f: number, c: number, out: WindowThdOut): void {
+		const cy = this.cycles;
+		if (out.fundamentals) {
+			out.fundamentals[2 * c] = this.fund[f];
+			out.fundamentals[2 * c + 1] = this.fund[f + 1];
+		}
+		const g1 = pw[cy - 1] + pw[cy] + pw[cy + 1];
+		const harmonicsOut = out.harmonics?.[c];
 		let gh = 0;
 		if (harmonicsOut) {
 			harmonicsOut.fill(NaN);
 			harmonicsOut[1] = g1 > 0 ? 100 : NaN;
 		}
-		for (let h = 2; h <= MAX_ORDER && h * f1 < sampleRateHz / 2; h++) {
-			const g = power(c * h - 1) + power(c * h) + power(c * h + 1);
+		for (let h = 2; h <= this.hMax; h++) {
+			const g = pw[cy * h - 1] + pw[cy * h] + pw[cy * h + 1];
 			gh += g;
 			if (harmonicsOut) harmonicsOut[h] = g1 > 0 ? 100 * Math.sqrt(g / g1) : NaN;
 		}
-		return g1 > 0 ? 100 * Math.sqrt(gh / g1) : NaN;
+		out.thd[c] = g1 > 0 ? 100 * Math.sqrt(gh / g1) : NaN;
 	}
 }
