@@ -82,6 +82,24 @@ export class CrossingTracker {
 		let deadline = this.last >= 0 ? this.last + 1.5 * this.halfPeriod : Infinity;
 		const off = abs0 - from;
 		for (let k = from; k < to; k++) {
+			// Fast run: samples on the side of the current polarity, up to the free-run deadline, only raise the peak.
+			const runEnd = Math.min(to, Math.floor(deadline - off) + 1);
+			const k0 = k;
+			if (polarity > 0) {
+				for (; k < runEnd; k++) {
+					const v = xs[k];
+					if (!(v >= 0)) break;
+					if (v > peak) peak = v;
+				}
+			} else if (polarity < 0) {
+				for (; k < runEnd; k++) {
+					const v = -xs[k];
+					if (!(v > 0)) break;
+					if (v > peak) peak = v;
+				}
+			}
+			if (k > k0) prev = xs[k - 1];
+			if (k >= to) break;
 			const x = xs[k];
 			const i = k + off;
 			const ax = x < 0 ? -x : x;

@@ -110,10 +110,12 @@ export class WindowMeter {
 		const va = ring[ja & mask];
 		const vb = ring[jb & mask];
 		let s = (ja + 0.5 - startT) * va * va + (endT - jb + 0.5) * vb * vb;
-		for (let j = ja + 1; j < jb; j++) {
-			const v = ring[j & mask];
-			s += v * v;
-		}
+		// Samples ja + 1 … jb − 1 in order, in one or two runs of the ring (no masking per sample).
+		const a = (ja + 1) & mask;
+		const n = jb - ja - 1;
+		const first = Math.min(n, ring.length - a);
+		for (let j = a; j < a + first; j++) s += ring[j] * ring[j];
+		for (let j = 0; j < n - first; j++) s += ring[j] * ring[j];
 		return Math.sqrt(s / (endT - startT));
 	}
 
