@@ -104,45 +104,25 @@ export class CrossingTracker {
 			const i = k + off;
 			const ax = x < 0 ? -x : x;
 			if (ax > peak) peak = ax;
-			if (polarity > 0) {
-				if (x < 0) {
-					if (prev >= 0) {
-						cand = i;
-						candT = i - 1 + prev / (prev - x);
-					}
-					if (ax > h && cand >= 0) {
-						if (cand >= earliest) {
-							this.halfPeak = peak;
-							this.commit(cand, candT, false, false);
-							peak = 0;
-							polarity = -1;
-							h = this.h;
-							earliest = this.last + 0.5 * this.halfPeriod;
-							deadline = this.last + 1.5 * this.halfPeriod;
-						}
-						cand = -1;
-					}
+			// A sign change against the polarity: a candidate boundary, committed once past the hysteresis band.
+			if (polarity > 0 ? x < 0 : polarity < 0 && x >= 0) {
+				if (polarity > 0 ? prev >= 0 : prev < 0) {
+					cand = i;
+					candT = i - 1 + prev / (prev - x);
 				}
-			} else if (polarity < 0) {
-				if (x >= 0) {
-					if (prev < 0) {
-						cand = i;
-						candT = i - 1 + prev / (prev - x);
+				if (ax > h && cand >= 0) {
+					if (cand >= earliest) {
+						this.halfPeak = peak;
+						this.commit(cand, candT, polarity < 0, false);
+						peak = 0;
+						polarity = -polarity;
+						h = this.h;
+						earliest = this.last + 0.5 * this.halfPeriod;
+						deadline = this.last + 1.5 * this.halfPeriod;
 					}
-					if (ax > h && cand >= 0) {
-						if (cand >= earliest) {
-							this.halfPeak = peak;
-							this.commit(cand, candT, true, false);
-							peak = 0;
-							polarity = 1;
-							h = this.h;
-							earliest = this.last + 0.5 * this.halfPeriod;
-							deadline = this.last + 1.5 * this.halfPeriod;
-						}
-						cand = -1;
-					}
+					cand = -1;
 				}
-			} else if (x !== 0) {
+			} else if (polarity === 0 && x !== 0) {
 				polarity = x > 0 ? 1 : -1;
 			}
 			if (i > deadline) {
