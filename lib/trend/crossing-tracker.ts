@@ -151,12 +151,12 @@ export class CrossingTracker {
 		const last = this.last;
 		if (last >= 0 && this.wantHalfCycles) {
 			const ring = this.ring;
-			const mask = ring.length - 1;
+			// Samples last … b − 1 in order, in one or two runs of the ring (no masking per sample).
+			const a = last & (ring.length - 1);
+			const first = Math.min(b - last, ring.length - a);
 			let s = 0;
-			for (let j = last; j < b; j++) {
-				const v = ring[j & mask];
-				s += v * v;
-			}
+			for (let j = a; j < a + first; j++) s += ring[j] * ring[j];
+			for (let j = 0; j < b - last - first; j++) s += ring[j] * ring[j];
 			// Divide by the interpolated duration, not the sample count: samples next to a crossing hold
 			// almost no energy, so this keeps a one-cycle window exact when fs/f is not a whole number.
 			const n = t - this.lastT;

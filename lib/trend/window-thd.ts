@@ -85,6 +85,9 @@ export class WindowThd {
 	private readonly fft = new FFT(M);
 	private readonly input = new Float64Array(M);
 	private readonly packed = new Float64Array(2 * M);
+	private readonly packed2 = new Float64Array(2 * M);
+	/** Channels of the pairs of the window being measured: [a0, b0, a1, b1, …]. */
+	private pairs: number[] = [0, 0, 0, 0];
 	private readonly spectrum = new Float64Array(2 * M);
 	/** Power |X_k|² of the bins in use (k ≤ c·51 + 1 ≤ M/2), for the channel(s) just transformed. */
 	private readonly powerA = new Float64Array(M / 2 + 1);
@@ -93,6 +96,8 @@ export class WindowThd {
 	/** Copies of a window that wraps round the ring's end (with the taps' margin). */
 	private rawA = new Float64Array(M + 64);
 	private rawB = new Float64Array(M + 64);
+	private rawC = new Float64Array(M + 64);
+	private rawD = new Float64Array(M + 64);
 	/** Per output point: the first tap's index from the window's first tap, and its weights' row; same for every channel of a window. */
 	private readonly tapAt = new Int32Array(M);
 	private readonly tapPhase = new Int32Array(M);
@@ -125,12 +130,16 @@ export class WindowThd {
 		out: WindowThdOut,
 	): void {
 		this.place(startT, endT, sampleRateHz);
+		const pairs = this.pairs;
+		let n = 0;
 		let held = -1;
 		for (let c = 0; c < rings.length; c++) {
 			if (!pairable(rms[c], rms[c])) this.single(rings, mask, c, out);
 			else if (held < 0) held = c;
 			else if (pairable(rms[held], rms[c])) {
-				this.pair(rings, mask, held, c, out);
+				if (n + 2 > pairs.length) this.pairs = pairs.concat(pairs);
+				this.pairs[n++] = held;
+				this.pairs[n++] = c;
 				held = -1;
 			} else {
 				this.single(rings, mask, held, out);
@@ -138,6 +147,10 @@ export class WindowThd {
 			}
 		}
 		if (held >= 0) this.single(rings, mask, held, out);
+		// Two pairs at a time share each point's weights; a last pair alone.
+		let k = 0;
+		for (; k + 4 <= n; k += 4) this.quad(rings, mask, k, out);
+		if (k < n) this.pair(rings, mask, this.pairs[k], this.pairs[k + 1], out);
 	}
 
 	/**
@@ -176,6 +189,8 @@ export class WindowThd {
 		if (this.rawA.length < this.count) {
 			this.rawA = new Float64Array(this.count);
 			this.rawB = new Float64Array(this.count);
+			this.rawC = new Float64Array(this.count);
+			this.rawD = new Float64Array(this.count);
 		}
 		if (startT === this.placedStartT && endT === this.placedEndT) return;
 		const step = (endT - startT) / M;
@@ -278,6 +293,85 @@ export class WindowThd {
 				t6 * wb[j + 6] +
 				t7 * wb[j + 7];
 		}
+		this.finishPair(z, a, b, out);
+	}
+
+	/** The pairs at this.pairs[k … k + 3] together: each point's weights loaded once for four channels. */
+	private quad(rings: readonly Float64Array[], mask: number, k: number, out: WindowThdOut): void {
+		const a = this.pairs[k];
+		const b = this.pairs[k + 1];
+		const c = this.pairs[k + 2];
+		const d = this.pairs[k + 3];
+		const wa = this.source(rings[a], mask, this.rawA);
+		const oa = this.runStart;
+		const wb = this.source(rings[b], mask, this.rawB);
+		const ob = this.runStart;
+		const wc = this.source(rings[c], mask, this.rawC);
+		const oc = this.runStart;
+		const wd = this.source(rings[d], mask, this.rawD);
+		const od = this.runStart;
+		const tab = weightTable();
+		const at = this.tapAt;
+		const phase = this.tapPhase;
+		const z = this.packed;
+		const y = this.packed2;
+		for (let m = 0; m < M; m++) {
+			const p = phase[m];
+			const t0 = tab[p];
+			const t1 = tab[p + 1];
+			const t2 = tab[p + 2];
+			const t3 = tab[p + 3];
+			const t4 = tab[p + 4];
+			const t5 = tab[p + 5];
+			const t6 = tab[p + 6];
+			const t7 = tab[p + 7];
+			let i = at[m] + oa;
+			z[2 * m] =
+				t0 * wa[i] +
+				t1 * wa[i + 1] +
+				t2 * wa[i + 2] +
+				t3 * wa[i + 3] +
+				t4 * wa[i + 4] +
+				t5 * wa[i + 5] +
+				t6 * wa[i + 6] +
+				t7 * wa[i + 7];
+			i = at[m] + ob;
+			z[2 * m + 1] =
+				t0 * wb[i] +
+				t1 * wb[i + 1] +
+				t2 * wb[i + 2] +
+				t3 * wb[i + 3] +
+				t4 * wb[i + 4] +
+				t5 * wb[i + 5] +
+				t6 * wb[i + 6] +
+				t7 * wb[i + 7];
+			i = at[m] + oc;
+			y[2 * m] =
+				t0 * wc[i] +
+				t1 * wc[i + 1] +
+				t2 * wc[i + 2] +
+				t3 * wc[i + 3] +
+				t4 * wc[i + 4] +
+				t5 * wc[i + 5] +
+				t6 * wc[i + 6] +
+				t7 * wc[i + 7];
+			i = at[m] + od;
+			y[2 * m + 1] =
+				t0 * wd[i] +
+				t1 * wd[i + 1] +
+				t2 * wd[i + 2] +
+				t3 * wd[i + 3] +
+				t4 * wd[i + 4] +
+				t5 * wd[i + 5] +
+				t6 * wd[i + 6] +
+				t7 * wd[i + 7];
+		}
+		this.finishPair(z, a, b, out);
+		this.finishPair(y, c, d, out);
+	}
+
+	/** FFT of the packed pair `z` (channels a + i·b), split, subgroups of both. */
+	private finishPair(z: Float64Array, a: number, b: number, out: WindowThdOut): void {
 		this.fft.transform(this.spectrum, z);
 		this.split();
 		this.subgroups(this.powerA, 0, a, out);

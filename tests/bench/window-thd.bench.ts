@@ -4,7 +4,8 @@
  * analyser runs it once per window (lib/trend/window-thd.ts `thdWindow`: shared placement, two channels
  * per complex FFT), beside references measured in this run over the same window:
  * - per channel: `thdPercent` on each channel alone (own resampling, own real FFT: the earlier way);
- * - the bare FFTs: fft.js realTransform of 2048 points, 4 times (what the earlier way spent on FFTs).
+ * - the bare FFTs: fft.js transform of 2048 complex points twice (what thdWindow spends on FFTs), and
+ *   realTransform of 2048 points 4 times (what the earlier way spent).
  * Cases are timed in CPU time in interleaved passes; the best pass counts (a shared machine disturbs the
  * figures least that way). The load average is printed.
  */
@@ -57,6 +58,7 @@ const out: WindowThdOut = { thd: new Float64Array(CHANNELS), fundamentals: new F
 const fft = new FFT(2048);
 const fftIn = new Float64Array(2048).map((_, i) => Math.sin(i * 0.0307) + 0.05 * Math.sin(i * 0.7));
 const fftOut = new Float64Array(4096);
+const fftPacked = new Float64Array(4096).map((_, i) => fftIn[i >> 1]);
 let sink = 0;
 
 const cases: [string, (i: number) => void][] = [
@@ -73,6 +75,13 @@ const cases: [string, (i: number) => void][] = [
 		(i) => {
 			const s = starts[i & 63];
 			for (let c = 0; c < CHANNELS; c++) sink += thd.thdPercent(rs[c], mask, s, s + lengthT, FS);
+		},
+	],
+	[
+		'ref: fft.js transform 2048 (complex), 2 times',
+		() => {
+			for (let c = 0; c < CHANNELS / 2; c++) fft.transform(fftOut, fftPacked);
+			sink += fftOut[2];
 		},
 	],
 	[

@@ -75,13 +75,15 @@ describe('WindowThd.thdWindow: two channels in one complex FFT, split by conjuga
 		}
 	});
 
-	it('the split equals each channel alone through fft.js realTransform (thdPercent) to 1e-9, wrapped window included', () => {
-		const rings = [ring(U_TONES), ring(I_TONES), ring(U_TONES, 1.01), ring(I_TONES, 0.5)];
-		const rms = [rmsOf(U_TONES), rmsOf(I_TONES), rmsOf(U_TONES, 1.01), rmsOf(I_TONES, 0.5)];
+	it('the split equals each channel alone through fft.js realTransform (thdPercent) to 1e-9: 6 channels (two pairs together, one pair alone), wrapped window included', () => {
+		const scales = [1, 1, 1.01, 0.5, 0.98, 2];
+		const tones = [U_TONES, I_TONES, U_TONES, I_TONES, U_TONES, I_TONES];
+		const rings = tones.map((t, c) => ring(t, scales[c]));
+		const rms = tones.map((t, c) => rmsOf(t, scales[c]));
 		const alone = new WindowThd(CYCLES);
 		for (const s of STARTS) {
 			const out = windowOf(rings, s, rms);
-			for (let c = 0; c < 4; c++) {
+			for (let c = 0; c < 6; c++) {
 				const fund = new Float64Array(2);
 				const thd = alone.thdPercent(rings[c], RING - 1, s, s + LENGTH_T, FS, undefined, fund);
 				expect(Math.abs(out.thd[c] - thd) / thd).toBeLessThan(1e-9);
