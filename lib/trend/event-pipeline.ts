@@ -1,8 +1,8 @@
 /**
  * The event pipeline of the trend analyser: Urms(1/2) values of every voltage channel arrive from the
- * crossing trackers as each half cycle ends, are merged across channels in (window start, channel) order
- * and fed to the dip/swell/interruption detector (event-detector.ts) and, when asked, the rapid voltage
- * change detector (rvc-detector.ts). Detection waits for the declared voltage: given, or inferred from
+ * crossing trackers as each half cycle ends, are queued per channel (typed arrays, reused) and merged
+ * across channels in (window start, channel) order into the dip/swell/interruption detector
+ * (event-detector.ts) and, when asked, the rapid voltage change detector (rvc-detector.ts). Detection waits for the declared voltage: given, or inferred from
  * the first second of values (declared-voltage.ts). It also answers whether a stretch overlaps an event,
  * for the flags of the aggregates.
  *
