@@ -34,8 +34,7 @@ export class WindowMeter {
 	firstNonFinite = { channel: 0, startS: 0 };
 	private readonly sinc: boolean;
 	private readonly scratch: Float64Array | undefined;
-	/** Per window, reused: each channel's RMS, and what window-thd.ts fills (THD, orders, fundamentals). */
-	private readonly rmsNow: Float64Array;
+	/** What window-thd.ts fills per window (THD, orders, fundamentals), reused. */
 	private readonly fastOut: WindowThdOut;
 	/** Fundamental bins (re, im) of the three voltage channels, for the unbalance. */
 	private readonly phasors: Float64Array | undefined;
@@ -54,7 +53,6 @@ export class WindowMeter {
 		const lagrange = this.wantThd && method === 'lagrange';
 		this.scratch = this.sinc ? new Float64Array(ringLen) : undefined;
 		const nCh = o.rings.length;
-		this.rmsNow = new Float64Array(nCh);
 		// Unbalance per window from the fundamentals of exactly three voltage channels (IEC 61000-4-30:2015,
 		// 5.7.2; from memory): u2 = |U2| / |U1| in the channels' order, the smaller over the larger sequence.
 		this.phasors = lagrange && o.voltage.length === 3 ? new Float64Array(6) : undefined;
@@ -74,7 +72,7 @@ export class WindowMeter {
 		const rms: number[] = new Array(nCh);
 		const thd: number[] = new Array(nCh);
 		for (let c = 0; c < nCh; c++) {
-			rms[c] = this.rmsNow[c] = this.rms(c, w.startT, w.endT);
+			rms[c] = this.rms(c, w.startT, w.endT);
 			if (!Number.isFinite(rms[c]) && this.nonFiniteWindows++ === 0)
 				this.firstNonFinite = { channel: c, startS: w.startT / fs };
 		}
@@ -123,7 +121,7 @@ export class WindowMeter {
 	private fastThdOf(w: WindowSpan, cycles: number): void {
 		if (!this.fastThd || this.fastThd.cycles !== cycles) this.fastThd = new WindowThd(cycles);
 		const out = this.fastOut;
-		this.fastThd.thdWindow(this.o.rings, this.mask, w.startT, w.endT, this.o.sampleRateHz, this.rmsNow, out);
+		this.fastThd.thdWindow(this.o.rings, this.mask, w.startT, w.endT, this.o.sampleRateHz, out);
 		const ph = this.phasors;
 		const f = out.fundamentals;
 		if (!ph || !f) return;

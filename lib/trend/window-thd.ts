@@ -9,14 +9,12 @@
  * subgroups G_sg,h² = C²_{ch−1} + C²_{ch} + C²_{ch+1}; THDS = √(Σ_{h=2..50} G_sg,h²) / G_sg,1 · 100 %.
  * Orders at or above fs/2 are left out.
  *
- * Speed (the figures are those of each channel alone, to rounding): the points' places and weights are
- * worked out once per window and serve every channel, two pairs of channels at a time; each pair goes
- * through one complex FFT (x_a + i·x_b) and is split by conjugate symmetry, X_a[k] = (Z[k] + Z*[M−k]) / 2,
- * X_b[k] = (Z[k] − Z*[M−k]) / 2i (common practice: two real DFTs for the price of one complex DFT), only
- * at the bins the subgroups use. Only channels of finite, non-zero RMS within PAIR_MAX_RATIO of each
- * other are paired; any other channel gets its own real FFT. Samples are read from the ring in place
- * unless the window wraps round its end. A pair's figures equal each channel's alone to rounding (~1e-13
- * relative; tests/trend/window-thd.test.ts holds them to 1e-9).
+ * Speed (the figures are those of the plain method to rounding, ~1e-13 relative): the points' places
+ * and weights are worked out once per window and serve every channel, up to four channels per pass over
+ * the points; each channel's 2048 real points go through fft.js as 1024 complex points z_n = x_2n + i·x_2n+1
+ * and X_k = E_k + W^k·O_k with E_k = (Z_k + Z*_{N−k}) / 2, O_k = (Z_k − Z*_{N−k}) / 2i, W = e^{−2πi/M}
+ * (common practice: a real DFT of 2N points from a complex DFT of N), only at the bins the subgroups
+ * use. Samples are read from the ring in place unless the window wraps round its end.
  *
  * Accuracy of the interpolation (worst fractional position; computed from the 8-point Lagrange
  * frequency response): magnitude error < 0.003 % up to 0.1·fs, < 0.06 % up to 0.15·fs, < 0.5 % at
@@ -35,12 +33,10 @@ const PHASES = 1024;
 /** Highest harmonic order analysed: lib/spectrum's MAX_HARMONIC_ORDER (IEC 61000-4-30 class A: 50). */
 export const TREND_MAX_ORDER = MAX_HARMONIC_ORDER;
 const MAX_ORDER = TREND_MAX_ORDER;
-/**
- * Largest RMS ratio of two channels sharing one complex FFT. The split leaves rounding of ~1e-16·√(log₂M)
- * of the larger channel's spectrum in the smaller one's (common practice: floating-point FFT error
- * grows as ε·√log N), so ≤ 1e4 keeps it below ~1e-11 of the smaller channel's fundamental.
- */
-export const PAIR_MAX_RATIO = 1e4;
+/** Complex points of the half-length transform that gives the M-point real DFT. */
+const N = M / 2;
+/** Channels resampled per pass over the points (each point's weights loaded once for all of them). */
+const LANES = 4;
 
 let weights: Float64Array | undefined;
 
@@ -77,28 +73,26 @@ export interface WindowThdOut {
 	fundamentals?: Float64Array;
 }
 
-/** Whether two channels of RMS `a` and `b` may share one complex FFT (both finite, non-zero, within PAIR_MAX_RATIO). */
-export function pairable(a: number, b: number): boolean {
-	return a > 0 && b > 0 && a < Infinity && b < Infinity && a <= b * PAIR_MAX_RATIO && b <= a * PAIR_MAX_RATIO;
-}
+/** W^k = e^{−2πik/M} for k < N, as (cos, −sin) pairs: the twiddles joining the even and odd halves. */
+const twiddles = (() => {
+	const t = new Float64Array(2 * N);
+	for (let k = 0; k < N; k++) {
+		t[2 * k] = Math.cos((2 * Math.PI * k) / M);
+		t[2 * k + 1] = -Math.sin((2 * Math.PI * k) / M);
+	}
+	return t;
+})();
 
 export class WindowThd {
-	private readonly fft = new FFT(M);
-	private readonly input = new Float64Array(M);
-	private readonly packed = new Float64Array(2 * M);
-	private readonly packed2 = new Float64Array(2 * M);
-	/** Channels of the pairs of the window being measured: [a0, b0, a1, b1, …]. */
-	private pairs: number[] = [0, 0, 0, 0];
-	private readonly spectrum = new Float64Array(2 * M);
-	/** Power |X_k|² of the bins in use (k ≤ c·51 + 1 ≤ M/2), for the channel(s) just transformed. */
-	private readonly powerA = new Float64Array(M / 2 + 1);
-	private readonly powerB = new Float64Array(M / 2 + 1);
-	private readonly fund = new Float64Array(4);
-	/** Copies of a window that wraps round the ring's end (with the taps' margin). */
-	private rawA = new Float64Array(M + 64);
-	private rawB = new Float64Array(M + 64);
-	private rawC = new Float64Array(M + 64);
-	private rawD = new Float64Array(M + 64);
+	private readonly fft = new FFT(N);
+	/** Resampled points of up to LANES channels of the window. */
+	private readonly points = Array.from({ length: LANES }, () => new Float64Array(M));
+	private readonly spectrum = new Float64Array(2 * N);
+	/** Power |X_k|² of the bins in use (k ≤ c·51 + 1 ≤ M/2), of the channel just transformed; its fundamental bin. */
+	private readonly power = new Float64Array(N + 1);
+	private readonly fund = new Float64Array(2);
+	/** Copies of windows that wrap round the ring's end (with the taps' margin), one per lane. */
+	private raw = Array.from({ length: LANES }, () => new Float64Array(M + 64));
 	/** Per output point: the first tap's index from the window's first tap, and its weights' row; same for every channel of a window. */
 	private readonly tapAt = new Int32Array(M);
 	private readonly tapPhase = new Int32Array(M);
@@ -119,7 +113,7 @@ export class WindowThd {
 	/**
 	 * THDS in % of every channel's window [startT, endT) (sample indices, fractional) of `rings`
 	 * (power-of-two length, index & mask), into `out`; needs samples from startT − 4 to endT + 5 in the
-	 * rings. `rms` (the channels' RMS over the window) decides which channels share an FFT (`pairable`).
+	 * rings. Each channel's figures are its own (no channel's samples reach another's).
 	 */
 	thdWindow(
 		rings: readonly Float64Array[],
@@ -127,35 +121,22 @@ export class WindowThd {
 		startT: number,
 		endT: number,
 		sampleRateHz: number,
-		rms: ArrayLike<number>,
 		out: WindowThdOut,
 	): void {
 		this.place(startT, endT, sampleRateHz);
-		const pairs = this.pairs;
-		let n = 0;
-		let held = -1;
-		for (let c = 0; c < rings.length; c++) {
-			if (!pairable(rms[c], rms[c])) this.single(rings, mask, c, out);
-			else if (held < 0) held = c;
-			else if (pairable(rms[held], rms[c])) {
-				if (n + 2 > pairs.length) this.pairs = pairs.concat(pairs);
-				this.pairs[n++] = held;
-				this.pairs[n++] = c;
-				held = -1;
-			} else {
-				this.single(rings, mask, held, out);
-				held = c;
+		for (let c = 0; c < rings.length; c += LANES) {
+			const lanes = Math.min(LANES, rings.length - c);
+			if (lanes === LANES) this.resample4(rings, mask, c);
+			else for (let j = 0; j < lanes; j++) this.resample1(rings[c + j], mask, j);
+			for (let j = 0; j < lanes; j++) {
+				this.transform(this.points[j]);
+				this.subgroups(c + j, out);
 			}
 		}
-		if (held >= 0) this.single(rings, mask, held, out);
-		// Two pairs at a time share each point's weights; a last pair alone.
-		let k = 0;
-		for (; k + 4 <= n; k += 4) this.quad(rings, mask, k, out);
-		if (k < n) this.pair(rings, mask, this.pairs[k], this.pairs[k + 1], out);
 	}
 
 	/**
-	 * THDS in % of one channel's window, as `thdWindow` (always its own real FFT); NaN when the fundamental is 0.
+	 * THDS in % of one channel's window, as `thdWindow`; NaN when the fundamental is 0.
 	 * @example thdPercent(ringOfU1, mask, 1234.56, 3235.1, 10_000) // 6.16441 for the docs/methods.md §1.3 mix
 	 */
 	thdPercent(
@@ -170,11 +151,9 @@ export class WindowThd {
 		const out: WindowThdOut = {
 			thd: new Float64Array(1),
 			harmonics: harmonicsOut && [harmonicsOut],
-			fundamentals: fundamentalOut && new Float64Array(2),
+			fundamentals: fundamentalOut,
 		};
-		this.place(startT, endT, sampleRateHz);
-		this.single([ring], mask, 0, out);
-		if (fundamentalOut) fundamentalOut.set(out.fundamentals!);
+		this.thdWindow([ring], mask, startT, endT, sampleRateHz, out);
 		return out.thd[0];
 	}
 
@@ -187,12 +166,7 @@ export class WindowThd {
 		this.hMax = h;
 		this.first = Math.floor(startT) - 3;
 		this.count = Math.floor(endT) + 5 - this.first;
-		if (this.rawA.length < this.count) {
-			this.rawA = new Float64Array(this.count);
-			this.rawB = new Float64Array(this.count);
-			this.rawC = new Float64Array(this.count);
-			this.rawD = new Float64Array(this.count);
-		}
+		if (this.raw[0].length < this.count) this.raw = this.raw.map(() => new Float64Array(this.count));
 		if (startT === this.placedStartT && endT === this.placedEndT) return;
 		const step = (endT - startT) / M;
 		const t0 = startT - (Math.floor(startT) - 3) - 3;
@@ -220,14 +194,14 @@ export class WindowThd {
 		return raw;
 	}
 
-	/** Channel c alone: resampled, real FFT, subgroups. */
-	private single(rings: readonly Float64Array[], mask: number, c: number, out: WindowThdOut): void {
-		const w = this.source(rings[c], mask, this.rawA);
+	/** One channel resampled into points[lane]. */
+	private resample1(ring: Float64Array, mask: number, lane: number): void {
+		const w = this.source(ring, mask, this.raw[lane]);
 		const off = this.runStart;
 		const tab = weightTable();
 		const at = this.tapAt;
 		const phase = this.tapPhase;
-		const x = this.input;
+		const x = this.points[lane];
 		for (let m = 0; m < M; m++) {
 			const i = at[m] + off;
 			const p = phase[m];
@@ -241,81 +215,22 @@ export class WindowThd {
 				tab[p + 6] * w[i + 6] +
 				tab[p + 7] * w[i + 7];
 		}
-		this.fft.realTransform(this.spectrum, x);
-		const s = this.spectrum;
-		const pw = this.powerA;
-		const cy = this.cycles;
-		for (let h = 1; h <= this.hMax; h++) {
-			for (let k = cy * h - 1; k <= cy * h + 1; k++) pw[k] = s[2 * k] * s[2 * k] + s[2 * k + 1] * s[2 * k + 1];
-		}
-		this.fund[0] = s[2 * cy];
-		this.fund[1] = s[2 * cy + 1];
-		this.subgroups(pw, 0, c, out);
 	}
 
-	/** Channels a and b in one complex FFT (x_a + i·x_b), split by conjugate symmetry. */
-	private pair(rings: readonly Float64Array[], mask: number, a: number, b: number, out: WindowThdOut): void {
-		const wa = this.source(rings[a], mask, this.rawA);
+	/** Channels c … c + 3 resampled into points[0 … 3]: each point's weights loaded once for the four. */
+	private resample4(rings: readonly Float64Array[], mask: number, c: number): void {
+		const wa = this.source(rings[c], mask, this.raw[0]);
 		const oa = this.runStart;
-		const wb = this.source(rings[b], mask, this.rawB);
+		const wb = this.source(rings[c + 1], mask, this.raw[1]);
 		const ob = this.runStart;
-		const tab = weightTable();
-		const at = this.tapAt;
-		const phase = this.tapPhase;
-		const z = this.packed;
-		for (let m = 0; m < M; m++) {
-			const p = phase[m];
-			const t0 = tab[p];
-			const t1 = tab[p + 1];
-			const t2 = tab[p + 2];
-			const t3 = tab[p + 3];
-			const t4 = tab[p + 4];
-			const t5 = tab[p + 5];
-			const t6 = tab[p + 6];
-			const t7 = tab[p + 7];
-			const i = at[m] + oa;
-			const j = at[m] + ob;
-			z[2 * m] =
-				t0 * wa[i] +
-				t1 * wa[i + 1] +
-				t2 * wa[i + 2] +
-				t3 * wa[i + 3] +
-				t4 * wa[i + 4] +
-				t5 * wa[i + 5] +
-				t6 * wa[i + 6] +
-				t7 * wa[i + 7];
-			z[2 * m + 1] =
-				t0 * wb[j] +
-				t1 * wb[j + 1] +
-				t2 * wb[j + 2] +
-				t3 * wb[j + 3] +
-				t4 * wb[j + 4] +
-				t5 * wb[j + 5] +
-				t6 * wb[j + 6] +
-				t7 * wb[j + 7];
-		}
-		this.finishPair(z, a, b, out);
-	}
-
-	/** The pairs at this.pairs[k … k + 3] together: each point's weights loaded once for four channels. */
-	private quad(rings: readonly Float64Array[], mask: number, k: number, out: WindowThdOut): void {
-		const a = this.pairs[k];
-		const b = this.pairs[k + 1];
-		const c = this.pairs[k + 2];
-		const d = this.pairs[k + 3];
-		const wa = this.source(rings[a], mask, this.rawA);
-		const oa = this.runStart;
-		const wb = this.source(rings[b], mask, this.rawB);
-		const ob = this.runStart;
-		const wc = this.source(rings[c], mask, this.rawC);
+		const wc = this.source(rings[c + 2], mask, this.raw[2]);
 		const oc = this.runStart;
-		const wd = this.source(rings[d], mask, this.rawD);
+		const wd = this.source(rings[c + 3], mask, this.raw[3]);
 		const od = this.runStart;
 		const tab = weightTable();
 		const at = this.tapAt;
 		const phase = this.tapPhase;
-		const z = this.packed;
-		const y = this.packed2;
+		const [xa, xb, xc, xd] = this.points;
 		for (let m = 0; m < M; m++) {
 			const p = phase[m];
 			const t0 = tab[p];
@@ -327,7 +242,7 @@ export class WindowThd {
 			const t6 = tab[p + 6];
 			const t7 = tab[p + 7];
 			let i = at[m] + oa;
-			z[2 * m] =
+			xa[m] =
 				t0 * wa[i] +
 				t1 * wa[i + 1] +
 				t2 * wa[i + 2] +
@@ -337,7 +252,7 @@ export class WindowThd {
 				t6 * wa[i + 6] +
 				t7 * wa[i + 7];
 			i = at[m] + ob;
-			z[2 * m + 1] =
+			xb[m] =
 				t0 * wb[i] +
 				t1 * wb[i + 1] +
 				t2 * wb[i + 2] +
@@ -347,7 +262,7 @@ export class WindowThd {
 				t6 * wb[i + 6] +
 				t7 * wb[i + 7];
 			i = at[m] + oc;
-			y[2 * m] =
+			xc[m] =
 				t0 * wc[i] +
 				t1 * wc[i + 1] +
 				t2 * wc[i + 2] +
@@ -357,7 +272,7 @@ export class WindowThd {
 				t6 * wc[i + 6] +
 				t7 * wc[i + 7];
 			i = at[m] + od;
-			y[2 * m + 1] =
+			xd[m] =
 				t0 * wd[i] +
 				t1 * wd[i + 1] +
 				t2 * wd[i + 2] +
@@ -367,53 +282,48 @@ export class WindowThd {
 				t6 * wd[i + 6] +
 				t7 * wd[i + 7];
 		}
-		this.finishPair(z, a, b, out);
-		this.finishPair(y, c, d, out);
 	}
 
-	/** FFT of the packed pair `z` (channels a + i·b), split, subgroups of both. */
-	private finishPair(z: Float64Array, a: number, b: number, out: WindowThdOut): void {
-		this.fft.transform(this.spectrum, z);
-		this.split();
-		this.subgroups(this.powerA, 0, a, out);
-		this.subgroups(this.powerB, 2, b, out);
-	}
-
-	/** The two channels' bin powers (and fundamentals) from the packed spectrum Z: X_a = (Z_k + Z*_{M−k})/2, X_b = (Z_k − Z*_{M−k})/2i. */
-	private split(): void {
+	/**
+	 * The real DFT of the M points `x` at the bins the subgroups use, into `power` (and the fundamental
+	 * into `fund`): x read as N complex points, X_k = E_k + W^k·O_k (see the file header).
+	 */
+	private transform(x: Float64Array): void {
+		this.fft.transform(this.spectrum, x);
 		const s = this.spectrum;
-		const pa = this.powerA;
-		const pb = this.powerB;
+		const pw = this.power;
 		const cy = this.cycles;
 		for (let h = 1; h <= this.hMax; h++) {
 			for (let k = cy * h - 1; k <= cy * h + 1; k++) {
-				const n = (M - k) & (M - 1);
+				const n = (N - k) & (N - 1);
 				const zr = s[2 * k];
 				const zi = s[2 * k + 1];
 				const wr = s[2 * n];
 				const wi = s[2 * n + 1];
-				const ar = (zr + wr) / 2;
-				const ai = (zi - wi) / 2;
-				const br = (zi + wi) / 2;
-				const bi = (wr - zr) / 2;
-				pa[k] = ar * ar + ai * ai;
-				pb[k] = br * br + bi * bi;
+				const er = (zr + wr) / 2;
+				const ei = (zi - wi) / 2;
+				const or = (zi + wi) / 2;
+				const oi = (wr - zr) / 2;
+				const cr = twiddles[2 * k];
+				const ci = twiddles[2 * k + 1];
+				const xr = er + cr * or - ci * oi;
+				const xi = ei + cr * oi + ci * or;
+				pw[k] = xr * xr + xi * xi;
 				if (k === cy) {
-					this.fund[0] = ar;
-					this.fund[1] = ai;
-					this.fund[2] = br;
-					this.fund[3] = bi;
+					this.fund[0] = xr;
+					this.fund[1] = xi;
 				}
 			}
 		}
 	}
 
-	/** THDS (and the orders, the fundamental) of channel c from its bin powers `pw`; its fundamental at this.fund[f], [f + 1]. */
-	private subgroups(pw: Float64Array, f: number, c: number, out: WindowThdOut): void {
+	/** THDS (and the orders, the fundamental) of channel c from `power` and `fund`. */
+	private subgroups(c: number, out: WindowThdOut): void {
+		const pw = this.power;
 		const cy = this.cycles;
 		if (out.fundamentals) {
-			out.fundamentals[2 * c] = this.fund[f];
-			out.fundamentals[2 * c + 1] = this.fund[f + 1];
+			out.fundamentals[2 * c] = this.fund[0];
+			out.fundamentals[2 * c + 1] = this.fund[1];
 		}
 		const g1 = pw[cy - 1] + pw[cy] + pw[cy + 1];
 		const harmonicsOut = out.harmonics?.[c];
