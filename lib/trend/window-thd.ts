@@ -10,8 +10,8 @@
  * Orders at or above fs/2 are left out.
  *
  * Speed (the figures are those of the plain method to rounding, ~1e-13 relative): the points' places
- * and weights are worked out once per window and serve every channel, up to four channels per pass over
- * the points; each channel's 2048 real points go through fft.js as 1024 complex points z_n = x_2n + i·x_2n+1
+ * and weights are worked out once per window and serve every channel, four (or two) channels per pass
+ * over the points; each channel's 2048 real points go through fft.js as 1024 complex points z_n = x_2n + i·x_2n+1
  * and X_k = E_k + W^k·O_k with E_k = (Z_k + Z*_{N−k}) / 2, O_k = (Z_k − Z*_{N−k}) / 2i, W = e^{−2πi/M}
  * (common practice: a real DFT of 2N points from a complex DFT of N), only at the bins the subgroups
  * use. Samples are read from the ring in place unless the window wraps round its end.
@@ -127,7 +127,8 @@ export class WindowThd {
 		for (let c = 0; c < rings.length; c += LANES) {
 			const lanes = Math.min(LANES, rings.length - c);
 			if (lanes === LANES) this.resample4(rings, mask, c);
-			else for (let j = 0; j < lanes; j++) this.resample1(rings[c + j], mask, j);
+			else if (lanes >= 2) this.resample2(rings, mask, c);
+			if (lanes === 1 || lanes === 3) this.resample1(rings[c + lanes - 1], mask, lanes - 1);
 			for (let j = 0; j < lanes; j++) {
 				this.transform(this.points[j]);
 				this.subgroups(c + j, out);
@@ -214,6 +215,49 @@ export class WindowThd {
 				tab[p + 5] * w[i + 5] +
 				tab[p + 6] * w[i + 6] +
 				tab[p + 7] * w[i + 7];
+		}
+	}
+
+	/** Channels c and c + 1 resampled into points[0] and points[1]: each point's weights loaded once for the two. */
+	private resample2(rings: readonly Float64Array[], mask: number, c: number): void {
+		const wa = this.source(rings[c], mask, this.raw[0]);
+		const oa = this.runStart;
+		const wb = this.source(rings[c + 1], mask, this.raw[1]);
+		const ob = this.runStart;
+		const tab = weightTable();
+		const at = this.tapAt;
+		const phase = this.tapPhase;
+		const [xa, xb] = this.points;
+		for (let m = 0; m < M; m++) {
+			const p = phase[m];
+			const t0 = tab[p];
+			const t1 = tab[p + 1];
+			const t2 = tab[p + 2];
+			const t3 = tab[p + 3];
+			const t4 = tab[p + 4];
+			const t5 = tab[p + 5];
+			const t6 = tab[p + 6];
+			const t7 = tab[p + 7];
+			let i = at[m] + oa;
+			xa[m] =
+				t0 * wa[i] +
+				t1 * wa[i + 1] +
+				t2 * wa[i + 2] +
+				t3 * wa[i + 3] +
+				t4 * wa[i + 4] +
+				t5 * wa[i + 5] +
+				t6 * wa[i + 6] +
+				t7 * wa[i + 7];
+			i = at[m] + ob;
+			xb[m] =
+				t0 * wb[i] +
+				t1 * wb[i + 1] +
+				t2 * wb[i + 2] +
+				t3 * wb[i + 3] +
+				t4 * wb[i + 4] +
+				t5 * wb[i + 5] +
+				t6 * wb[i + 6] +
+				t7 * wb[i + 7];
 		}
 	}
 

@@ -111,14 +111,14 @@ describe('WindowThd.thdWindow: every channel of a window in one placement, real 
 		}
 	});
 
-	it('six channels (four resampled together, two alone) give each channel what it gives alone (thdPercent), wrapped window included', () => {
-		const scales = [1, 1, 1.01, 0.5, 0.98, 2];
-		const tones = [U_TONES, I_TONES, U_TONES, I_TONES, U_TONES, I_TONES];
+	it('seven channels (four resampled together, then two, then one) give each channel what it gives alone (thdPercent), wrapped window included', () => {
+		const scales = [1, 1, 1.01, 0.5, 0.98, 2, 1.02];
+		const tones = [U_TONES, I_TONES, U_TONES, I_TONES, U_TONES, I_TONES, U_TONES];
 		const rings = tones.map((t, c) => ring(t, scales[c]));
 		const alone = new WindowThd(CYCLES);
 		for (const s of STARTS) {
 			const out = windowOf(rings, s);
-			for (let c = 0; c < 6; c++) {
+			for (let c = 0; c < 7; c++) {
 				const fund = new Float64Array(2);
 				const thd = alone.thdPercent(rings[c], RING - 1, s, s + LENGTH_T, FS, undefined, fund);
 				expect(Math.abs(out.thd[c] - thd) / thd).toBeLessThan(1e-12);
