@@ -13,6 +13,15 @@
  * docs/methods.md §3.2).
  */
 
+/**
+ * `s` plus the squares of x[from … to − 1], added in order. One function for both runs of a ring (so the
+ * run after a wrap, rarely taken, shares the optimised code of the first).
+ */
+export function addSquares(x: Float64Array, from: number, to: number, s: number): number {
+	for (let j = from; j < to; j++) s += x[j] * x[j];
+	return s;
+}
+
 /** Receives what the tracker finds. Indices are absolute sample indices from the recording start. */
 export interface CrossingSink {
 	/**
@@ -154,9 +163,7 @@ export class CrossingTracker {
 			// Samples last … b − 1 in order, in one or two runs of the ring (no masking per sample).
 			const a = last & (ring.length - 1);
 			const first = Math.min(b - last, ring.length - a);
-			let s = 0;
-			for (let j = a; j < a + first; j++) s += ring[j] * ring[j];
-			for (let j = 0; j < b - last - first; j++) s += ring[j] * ring[j];
+			const s = addSquares(ring, 0, b - last - first, addSquares(ring, a, a + first, 0));
 			// Divide by the interpolated duration, not the sample count: samples next to a crossing hold
 			// almost no energy, so this keeps a one-cycle window exact when fs/f is not a whole number.
 			const n = t - this.lastT;

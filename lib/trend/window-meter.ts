@@ -8,6 +8,7 @@
  * subgroups) (from memory); docs/methods.md §2.2, §3.2, §7.
  */
 import { harmonicWindow, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
+import { addSquares } from './crossing-tracker.js';
 import { TREND_MAX_ORDER, WindowThd, type WindowThdOut } from './window-thd.js';
 import { windowUnbalancePercent } from './window-unbalance.js';
 import type { TrendOptions, TrendRow } from './types.js';
@@ -112,8 +113,7 @@ export class WindowMeter {
 		const a = (ja + 1) & mask;
 		const n = jb - ja - 1;
 		const first = Math.min(n, ring.length - a);
-		for (let j = a; j < a + first; j++) s += ring[j] * ring[j];
-		for (let j = 0; j < n - first; j++) s += ring[j] * ring[j];
+		s = addSquares(ring, 0, n - first, addSquares(ring, a, a + first, s));
 		return Math.sqrt(s / (endT - startT));
 	}
 
