@@ -13,6 +13,15 @@
  * docs/methods.md §3.2).
  */
 
+/**
+ * `s` plus the squares of x[from … to − 1], added in order. One function for both runs of a ring (so the
+ * run after a wrap, rarely taken, shares the optimised code of the first).
+ */
+export function addSquares(x: Float64Array, from: number, to: number, s: number): number {
+	for (let j = from; j < to; j++) s += x[j] * x[j];
+	return s;
+}
+
 /** Receives what the tracker finds. Indices are absolute sample indices from the recording start. */
 export interface CrossingSink {
 	/**
@@ -82,49 +91,47 @@ export class CrossingTracker {
 		let deadline = this.last >= 0 ? this.last + 1.5 * this.halfPeriod : Infinity;
 		const off = abs0 - from;
 		for (let k = from; k < to; k++) {
+			// Fast run: samples on the side of the current polarity, up to the free-run deadline, only raise the peak.
+			const runEnd = Math.min(to, Math.floor(deadline - off) + 1);
+			const k0 = k;
+			if (polarity > 0) {
+				for (; k < runEnd; k++) {
+					const v = xs[k];
+					if (!(v >= 0)) break;
+					if (v > peak) peak = v;
+				}
+			} else if (polarity < 0) {
+				for (; k < runEnd; k++) {
+					const v = -xs[k];
+					if (!(v > 0)) break;
+					if (v > peak) peak = v;
+				}
+			}
+			if (k > k0) prev = xs[k - 1];
+			if (k >= to) break;
 			const x = xs[k];
 			const i = k + off;
 			const ax = x < 0 ? -x : x;
 			if (ax > peak) peak = ax;
-			if (polarity > 0) {
-				if (x < 0) {
-					if (prev >= 0) {
-						cand = i;
-						candT = i - 1 + prev / (prev - x);
-					}
-					if (ax > h && cand >= 0) {
-						if (cand >= earliest) {
-							this.halfPeak = peak;
-							this.commit(cand, candT, false, false);
-							peak = 0;
-							polarity = -1;
-							h = this.h;
-							earliest = this.last + 0.5 * this.halfPeriod;
-							deadline = this.last + 1.5 * this.halfPeriod;
-						}
-						cand = -1;
-					}
+			// A sign change against the polarity: a candidate boundary, committed once past the hysteresis band.
+			if (polarity > 0 ? x < 0 : polarity < 0 && x >= 0) {
+				if (polarity > 0 ? prev >= 0 : prev < 0) {
+					cand = i;
+					candT = i - 1 + prev / (prev - x);
 				}
-			} else if (polarity < 0) {
-				if (x >= 0) {
-					if (prev < 0) {
-						cand = i;
-						candT = i - 1 + prev / (prev - x);
+				if (ax > h && cand >= 0) {
+					if (cand >= earliest) {
+						this.halfPeak = peak;
+						this.commit(cand, candT, polarity < 0, false);
+						peak = 0;
+						polarity = -polarity;
+						h = this.h;
+						earliest = this.last + 0.5 * this.halfPeriod;
+						deadline = this.last + 1.5 * this.halfPeriod;
 					}
-					if (ax > h && cand >= 0) {
-						if (cand >= earliest) {
-							this.halfPeak = peak;
-							this.commit(cand, candT, true, false);
-							peak = 0;
-							polarity = 1;
-							h = this.h;
-							earliest = this.last + 0.5 * this.halfPeriod;
-							deadline = this.last + 1.5 * this.halfPeriod;
-						}
-						cand = -1;
-					}
+					cand = -1;
 				}
-			} else if (x !== 0) {
+			} else if (polarity === 0 && x !== 0) {
 				polarity = x > 0 ? 1 : -1;
 			}
 			if (i > deadline) {
@@ -153,12 +160,10 @@ export class CrossingTracker {
 		const last = this.last;
 		if (last >= 0 && this.wantHalfCycles) {
 			const ring = this.ring;
-			const mask = ring.length - 1;
-			let s = 0;
-			for (let j = last; j < b; j++) {
-				const v = ring[j & mask];
-				s += v * v;
-			}
+			// Samples last … b − 1 in order, in one or two runs of the ring (no masking per sample).
+			const a = last & (ring.length - 1);
+			const first = Math.min(b - last, ring.length - a);
+			const s = addSquares(ring, 0, b - last - first, addSquares(ring, a, a + first, 0));
 			// Divide by the interpolated duration, not the sample count: samples next to a crossing hold
 			// almost no energy, so this keeps a one-cycle window exact when fs/f is not a whole number.
 			const n = t - this.lastT;

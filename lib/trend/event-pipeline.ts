@@ -1,8 +1,8 @@
 /**
  * The event pipeline of the trend analyser: Urms(1/2) values of every voltage channel arrive from the
- * crossing trackers as each half cycle ends, are merged across channels in (window start, channel) order
- * and fed to the dip/swell/interruption detector (event-detector.ts) and, when asked, the rapid voltage
- * change detector (rvc-detector.ts). Detection waits for the declared voltage: given, or inferred from
+ * crossing trackers as each half cycle ends, are queued per channel (typed arrays, reused) and merged
+ * across channels in (window start, channel) order into the dip/swell/interruption detector
+ * (event-detector.ts) and, when asked, the rapid voltage change detector (rvc-detector.ts). Detection waits for the declared voltage: given, or inferred from
  * the first second of values (declared-voltage.ts). It also answers whether a stretch overlaps an event,
  * for the flags of the aggregates.
  *
@@ -57,10 +57,39 @@ function checkedRvc(rvc: TrendOptions['rvc']): { thresholdPercent: number; hyste
 	return { thresholdPercent: t, hysteresisPercent: hy };
 }
 
-interface HalfRecord {
-	start: number;
-	ch: number;
-	rms: number;
+/**
+ * One voltage channel's Urms(1/2) values waiting to be fed, in arrival order (which is start order: a
+ * channel's windows start at its successive crossings), as (start, rms) in reused typed arrays.
+ */
+class HalfQueue {
+	start = new Float64Array(256);
+	rms = new Float64Array(256);
+	head = 0;
+	tail = 0;
+
+	push(start: number, rms: number): void {
+		if (this.tail === this.start.length) this.makeRoom();
+		this.start[this.tail] = start;
+		this.rms[this.tail++] = rms;
+	}
+
+	/** Moves the waiting values to the front, or doubles the arrays when they are more than half full. */
+	private makeRoom(): void {
+		const n = this.tail - this.head;
+		if (n > this.start.length / 2) {
+			const start = new Float64Array(2 * this.start.length);
+			const rms = new Float64Array(2 * this.start.length);
+			start.set(this.start.subarray(this.head, this.tail));
+			rms.set(this.rms.subarray(this.head, this.tail));
+			this.start = start;
+			this.rms = rms;
+		} else {
+			this.start.copyWithin(0, this.head, this.tail);
+			this.rms.copyWithin(0, this.head, this.tail);
+		}
+		this.head = 0;
+		this.tail = n;
+	}
 }
 
 export interface EventPipelineOptions {
@@ -79,7 +108,8 @@ export class EventPipeline {
 	declaredV: number;
 	/** False when there is no voltage channel or no declared voltage could be found. */
 	detectEvents: boolean;
-	private records: HalfRecord[] = [];
+	/** Per voltage channel, the values not yet fed. */
+	private readonly queues: HalfQueue[];
 	private detector: EventDetector | undefined;
 	private rvc: RvcDetector | undefined;
 	private readonly rvcSettings: { thresholdPercent: number; hysteresisPercent: number } | undefined;
@@ -90,11 +120,16 @@ export class EventPipeline {
 		this.declaredV = o.declaredV ?? NaN;
 		this.detectEvents = o.voltageCount > 0;
 		this.rvcSettings = checkedRvc(o.rvc);
+		this.queues = Array.from({ length: o.voltageCount }, () => new HalfQueue());
 	}
 
-	/** A Urms(1/2) value of voltage channel `ch` (index among the voltage channels) over a window from `start`. */
+	/**
+	 * A Urms(1/2) value of voltage channel `ch` (index among the voltage channels) over a window from
+	 * `start`. A value without a finite start (a crossing interpolated between infinite samples) has no
+	 * place in time and is dropped.
+	 */
 	halfCycle(ch: number, start: number, rms: number): void {
-		this.records.push({ start, ch, rms });
+		if (Number.isFinite(start)) this.queues[ch].push(start, rms);
 	}
 
 	/**
@@ -107,19 +142,26 @@ export class EventPipeline {
 			if (!final && pos < this.o.inferenceEnd && Number.isNaN(this.declaredV)) return false;
 			this.detector = this.makeDetector(nominalHz ?? 50);
 		}
-		const records = this.records;
-		records.sort((a, b) => a.start - b.start || a.ch - b.ch);
-		let k = 0;
+		// Merge the channels' queues in (start, channel) order.
 		const d = this.detector;
-		while (k < records.length && records[k].start <= pos) {
-			const r = records[k++];
+		const queues = this.queues;
+		for (;;) {
+			let ch = -1;
+			let start = pos;
+			for (let c = 0; c < queues.length; c++) {
+				const q = queues[c];
+				if (q.head < q.tail && (q.start[q.head] < start || (ch < 0 && q.start[q.head] === start))) {
+					ch = c;
+					start = q.start[q.head];
+				}
+			}
+			if (ch < 0) return true;
+			const rms = queues[ch].rms[queues[ch].head++];
 			if (this.detectEvents) {
-				d.update(r.ch, r.start, r.rms);
-				this.rvc?.update(r.ch, r.start, r.rms);
+				d.update(ch, start, rms);
+				this.rvc?.update(ch, start, rms);
 			}
 		}
-		this.records = k === records.length ? [] : records.slice(k);
-		return true;
 	}
 
 	/** Whether samples [start, end) overlap a dip, swell or interruption found so far. */
@@ -156,7 +198,9 @@ export class EventPipeline {
 			return new EventDetector(0, NO_LEVELS);
 		}
 		if (Number.isNaN(this.declaredV)) {
-			const early = this.records.filter((r) => r.start < this.o.inferenceEnd).map((r) => r.rms);
+			const early: number[] = [];
+			for (const q of this.queues)
+				for (let k = q.head; k < q.tail; k++) if (q.start[k] < this.o.inferenceEnd) early.push(q.rms[k]);
 			const d = declaredVoltageFromRms(early);
 			this.declaredV = d.declaredV;
 			diagnostics.push(d.diagnostic);

@@ -8,7 +8,8 @@
  * subgroups) (from memory); docs/methods.md §2.2, §3.2, §7.
  */
 import { harmonicWindow, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
-import { TREND_MAX_ORDER, WindowThd } from './window-thd.js';
+import { addSquares } from './crossing-tracker.js';
+import { TREND_MAX_ORDER, WindowThd, type WindowThdOut } from './window-thd.js';
 import { windowUnbalancePercent } from './window-unbalance.js';
 import type { TrendOptions, TrendRow } from './types.js';
 import type { WindowSpan } from './window-clock.js';
@@ -34,10 +35,10 @@ export class WindowMeter {
 	firstNonFinite = { channel: 0, startS: 0 };
 	private readonly sinc: boolean;
 	private readonly scratch: Float64Array | undefined;
-	private readonly harmScratch: Float64Array | undefined;
-	/** Fundamental bins (re, im) of the three voltage channels, for the unbalance; and each channel's slot. */
+	/** What window-thd.ts fills per window (THD, orders, fundamentals), reused. */
+	private readonly fastOut: WindowThdOut;
+	/** Fundamental bins (re, im) of the three voltage channels, for the unbalance. */
 	private readonly phasors: Float64Array | undefined;
-	private readonly phasorSlot: Int32Array;
 	private fastThd: WindowThd | undefined;
 	private readonly mask: number;
 
@@ -52,12 +53,16 @@ export class WindowMeter {
 		this.sinc = this.wantThd && method === 'sinc';
 		const lagrange = this.wantThd && method === 'lagrange';
 		this.scratch = this.sinc ? new Float64Array(ringLen) : undefined;
-		this.harmScratch = lagrange && o.harmonics === true ? new Float64Array(TREND_MAX_ORDER + 1) : undefined;
+		const nCh = o.rings.length;
 		// Unbalance per window from the fundamentals of exactly three voltage channels (IEC 61000-4-30:2015,
 		// 5.7.2; from memory): u2 = |U2| / |U1| in the channels' order, the smaller over the larger sequence.
 		this.phasors = lagrange && o.voltage.length === 3 ? new Float64Array(6) : undefined;
-		this.phasorSlot = new Int32Array(o.rings.length).fill(-1);
-		if (this.phasors) o.voltage.forEach((c, k) => (this.phasorSlot[c] = k));
+		this.fastOut = {
+			thd: new Float64Array(nCh).fill(NaN),
+			harmonics:
+				lagrange && o.harmonics === true ? o.rings.map(() => new Float64Array(TREND_MAX_ORDER + 1)) : undefined,
+			fundamentals: this.phasors ? new Float64Array(2 * nCh) : undefined,
+		};
 	}
 
 	/** The row of window `w` (`samples` pushed so far) of `cycles` cycles, unflagged. */
@@ -67,14 +72,16 @@ export class WindowMeter {
 		const lengthT = w.endT - w.startT;
 		const rms: number[] = new Array(nCh);
 		const thd: number[] = new Array(nCh);
-		const harm: number[][] | undefined = this.harmScratch ? [] : undefined;
 		for (let c = 0; c < nCh; c++) {
 			rms[c] = this.rms(c, w.startT, w.endT);
 			if (!Number.isFinite(rms[c]) && this.nonFiniteWindows++ === 0)
 				this.firstNonFinite = { channel: c, startS: w.startT / fs };
-			thd[c] = this.sinc ? this.sincThd(c, w, cycles, samples) : this.wantThd ? this.fastThdOf(c, w, cycles) : NaN;
-			if (harm) harm.push(Array.from(this.harmScratch!));
 		}
+		const fast = this.fastOut;
+		if (this.wantThd && !this.sinc) this.fastThdOf(w, cycles);
+		for (let c = 0; c < nCh; c++)
+			thd[c] = this.sinc ? this.sincThd(c, w, cycles, samples) : this.wantThd ? fast.thd[c] : NaN;
+		const harm = fast.harmonics?.map((h) => Array.from(h));
 		const row: TrendRow = {
 			interval: '10/12-cycle',
 			startS: w.startT / fs,
@@ -102,25 +109,27 @@ export class WindowMeter {
 		const va = ring[ja & mask];
 		const vb = ring[jb & mask];
 		let s = (ja + 0.5 - startT) * va * va + (endT - jb + 0.5) * vb * vb;
-		for (let j = ja + 1; j < jb; j++) {
-			const v = ring[j & mask];
-			s += v * v;
-		}
+		// Samples ja + 1 … jb − 1 in order, in one or two runs of the ring (no masking per sample).
+		const a = (ja + 1) & mask;
+		const n = jb - ja - 1;
+		const first = Math.min(n, ring.length - a);
+		s = addSquares(ring, 0, n - first, addSquares(ring, a, a + first, s));
 		return Math.sqrt(s / (endT - startT));
 	}
 
-	private fastThdOf(c: number, w: WindowSpan, cycles: number): number {
+	/** THD (and orders, fundamentals) of every channel's window into `fastOut`; the voltage fundamentals into `phasors`. */
+	private fastThdOf(w: WindowSpan, cycles: number): void {
 		if (!this.fastThd || this.fastThd.cycles !== cycles) this.fastThd = new WindowThd(cycles);
-		const k = this.phasorSlot[c];
-		return this.fastThd.thdPercent(
-			this.o.rings[c],
-			this.mask,
-			w.startT,
-			w.endT,
-			this.o.sampleRateHz,
-			this.harmScratch,
-			k >= 0 ? this.phasors!.subarray(2 * k, 2 * k + 2) : undefined,
-		);
+		const out = this.fastOut;
+		this.fastThd.thdWindow(this.o.rings, this.mask, w.startT, w.endT, this.o.sampleRateHz, out);
+		const ph = this.phasors;
+		const f = out.fundamentals;
+		if (!ph || !f) return;
+		for (let k = 0; k < 3; k++) {
+			const c = this.o.voltage[k];
+			ph[2 * k] = f[2 * c];
+			ph[2 * k + 1] = f[2 * c + 1];
+		}
 	}
 
 	private sincThd(c: number, w: WindowSpan, cycles: number, samples: number): number {
