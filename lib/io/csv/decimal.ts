@@ -78,6 +78,15 @@ export function readDecimal(buf: Uint8Array, p: number, dec: number): number {
 	return p;
 }
 
+/**
+ * The value of the unsigned number at buf[p] that the caller has already found well formed (digits, at most
+ * one mark `dec`, an optional exponent with digits): readDecimal's value, for a caller that needs no end offset.
+ */
+export function unsignedDecimal(buf: Uint8Array, p: number, dec: number): number {
+	readDecimal(buf, p, dec);
+	return decimalValue[0];
+}
+
 /** True when m * 10^e10 is one correctly rounded operation on exact operands (Clinger's fast path). */
 export function isFastDecimal(m: number, e10: number): boolean {
 	return m <= MAX_EXACT && e10 >= -MAX_EXACT_POW10 && e10 <= MAX_EXACT_POW10;

@@ -11,7 +11,15 @@
  */
 import { ImportError } from '../import-error.js';
 import { ClockCounter } from './clock-time.js';
-import { decimalValue, fastDecimal, isFastDecimal, NO_DIGITS, readDecimal, slowDecimal } from './decimal.js';
+import {
+	decimalValue,
+	fastDecimal,
+	isFastDecimal,
+	NO_DIGITS,
+	readDecimal,
+	slowDecimal,
+	unsignedDecimal,
+} from './decimal.js';
 
 // Byte values of the ASCII characters the scanner looks at (ANSI X3.4-1986 code chart; UTF-8 and
 // Windows-1252 keep them as single bytes, RFC 3629 section 3). Module-local on purpose: V8 folds a module's
@@ -32,6 +40,8 @@ const LOWER_Z = 0x7a;
 /** OR-ing this bit into an ASCII capital gives its small letter ('E' | 0x20 = 'e'). */
 const ASCII_CASE_BIT = 0x20;
 
+/** Significand digits read in int32 arithmetic: 10^9 − 1 < 2^31 − 1, so nine digits cannot overflow. */
+const INT_DIGITS = 9;
 /** EXPONENT_CAP of decimal.ts, written out module-local (folded into the loop, as above). */
 const EXPONENT_LIMIT = 100_000;
 
@@ -160,9 +170,11 @@ export class RowScanner {
 				const neg = b === MINUS;
 				if (neg || b === PLUS) b = buf[++p];
 				const numStart = p;
+				// the significand in int32 arithmetic (a multiply-add chain in doubles costs several times
+				// more per digit); exact up to INT_DIGITS digits, longer numbers are read again below
 				let m = 0;
 				while (b >= DIGIT_0 && b <= DIGIT_9) {
-					m = m * 10 + (b - DIGIT_0);
+					m = (m * 10 + (b - DIGIT_0)) | 0;
 					b = buf[++p];
 				}
 				let digits = p - numStart;
@@ -171,7 +183,7 @@ export class RowScanner {
 					const fracStart = ++p;
 					b = buf[p];
 					while (b >= DIGIT_0 && b <= DIGIT_9) {
-						m = m * 10 + (b - DIGIT_0);
+						m = (m * 10 + (b - DIGIT_0)) | 0;
 						b = buf[++p];
 					}
 					digits += p - fracStart;
@@ -196,7 +208,12 @@ export class RowScanner {
 					}
 					e10 += eneg ? -e : e;
 				}
-				const v = isFastDecimal(m, e10) ? fastDecimal(m, e10) : slowDecimal(buf, numStart, p, dec);
+				const v =
+					digits > INT_DIGITS
+						? unsignedDecimal(buf, numStart, dec)
+						: isFastDecimal(m, e10)
+							? fastDecimal(m, e10)
+							: slowDecimal(buf, numStart, p, dec);
 				cols[c][n] = neg ? -v : v;
 				if (c < K - 1) {
 					if (b !== delim) {
