@@ -1,6 +1,8 @@
 /**
  * COMTRADE data (.dat) reader: ASCII, BINARY (int16), BINARY32 (int32) and FLOAT32 records -> raw
  * per-channel columns (before a*x+b), time stamps and digital states. Missing values become NaN and are counted.
+ * The binary column decoders (decodeColumn: a·x + b fused, missing marks found from the column minimum) and
+ * the sample-number check are shared with the streaming reader (dat-stream.ts).
  * Ref: IEEE C37.111-1999/2013, data file (from memory; record layouts as in docs/methods.md §8.2).
  */
 import { ImportError } from '../import-error.js';

@@ -2,7 +2,8 @@
  * A COMTRADE record as a stream of sample blocks for consumers that keep running state only (lib/trend):
  * the .cfg is read whole (it is small), the .dat is pushed in chunks of any size and each run of whole
  * records (ASCII lines, or fixed-size BINARY / BINARY32 / FLOAT32 records) is read, scaled and handed on;
- * nothing is kept, so memory does not grow with the record. Records with one sampling rate only (the
+ * nothing is kept, so memory does not grow with the record. Binary records are read straight from each
+ * chunk by dat-stream.ts; ASCII lines through dat-ascii.ts, as the whole-file reader. Records with one sampling rate only (the
  * usual case); a record with several rates or with time stamps as its only time base is read whole by
  * `parseComtrade` instead (`streamableRate` says which).
  * Ref: IEEE C37.111-1999/2013 (from memory).

@@ -1,7 +1,9 @@
 /**
  * The time column of a streamed CSV, checked as it passes: the sample rate from the first rows (as
  * `timeBaseFromColumn` finds it for a whole file), then every later step against that rate. Only counts
- * and the first places are kept, so memory does not grow with the file.
+ * and the first places are kept, so memory does not grow with the file. Each block of rows is first
+ * bounded (its smallest and largest step) and read step by step only when a bound is out of band, which
+ * gives the same counts and places as reading every step.
  */
 import type { Diagnostic } from '../../capture.js';
 import { timeBaseFromColumn } from './timebase.js';
