@@ -79,12 +79,13 @@ export function readDecimal(buf: Uint8Array, p: number, dec: number): number {
 }
 
 /**
- * The value of the unsigned number at buf[p] that the caller has already found well formed (digits, at most
- * one mark `dec`, an optional exponent with digits): readDecimal's value, for a caller that needs no end offset.
+ * The digits of buf[from, to) (the mark `dec` skipped) summed as readDecimal sums them: m · 10 + digit in
+ * doubles, exact while below 2^53 and rounded alike above it.
  */
-export function unsignedDecimal(buf: Uint8Array, p: number, dec: number): number {
-	readDecimal(buf, p, dec);
-	return decimalValue[0];
+export function significand(buf: Uint8Array, from: number, to: number, dec: number): number {
+	let m = 0;
+	for (let i = from; i < to; i++) if (buf[i] !== dec) m = m * 10 + (buf[i] - DIGIT_0);
+	return m;
 }
 
 /** True when m * 10^e10 is one correctly rounded operation on exact operands (Clinger's fast path). */

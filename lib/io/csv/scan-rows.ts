@@ -17,8 +17,8 @@ import {
 	isFastDecimal,
 	NO_DIGITS,
 	readDecimal,
+	significand,
 	slowDecimal,
-	unsignedDecimal,
 } from './decimal.js';
 
 // Byte values of the ASCII characters the scanner looks at (ANSI X3.4-1986 code chart; UTF-8 and
@@ -170,8 +170,8 @@ export class RowScanner {
 				const neg = b === MINUS;
 				if (neg || b === PLUS) b = buf[++p];
 				const numStart = p;
-				// the significand in int32 arithmetic (a multiply-add chain in doubles costs several times
-				// more per digit); exact up to INT_DIGITS digits, longer numbers are read again below
+				// the significand in int32 arithmetic (a multiply-add chain in doubles costs more per digit);
+				// exact up to INT_DIGITS digits, longer significands are summed again in doubles below
 				let m = 0;
 				while (b >= DIGIT_0 && b <= DIGIT_9) {
 					m = (m * 10 + (b - DIGIT_0)) | 0;
@@ -193,6 +193,8 @@ export class RowScanner {
 					p = lineStart;
 					break rows;
 				}
+				// more digits than int32 holds: the significand again, in doubles as readDecimal sums it
+				if (digits > INT_DIGITS) m = significand(buf, numStart, p, dec);
 				if ((b | ASCII_CASE_BIT) === LOWER_E) {
 					b = buf[++p];
 					const eneg = b === MINUS;
@@ -208,12 +210,7 @@ export class RowScanner {
 					}
 					e10 += eneg ? -e : e;
 				}
-				const v =
-					digits > INT_DIGITS
-						? unsignedDecimal(buf, numStart, dec)
-						: isFastDecimal(m, e10)
-							? fastDecimal(m, e10)
-							: slowDecimal(buf, numStart, p, dec);
+				const v = isFastDecimal(m, e10) ? fastDecimal(m, e10) : slowDecimal(buf, numStart, p, dec);
 				cols[c][n] = neg ? -v : v;
 				if (c < K - 1) {
 					if (b !== delim) {
