@@ -14,7 +14,7 @@ import { readComtradeDat, sampleNumberBreaks } from '../../lib/io/comtrade/dat.j
 import { ComtradeSampleStream } from '../../lib/io/comtrade/sample-stream.js';
 import type { SampleStreamHeader } from '../../lib/io/csv/sample-stream.js';
 
-type BinType = 'BINARY' | 'BINARY32' | 'FLOAT32';
+type BinType = 'BINARY' | 'BINARY32' | 'FLOAT32' | 'ASCII';
 
 /** A 1999 .cfg of two voltage channels (a = 0.5, b = −1 and a = 2, b = 0), 1000 Hz, `records` records. */
 function cfgText(type: BinType, records: number): string {
@@ -127,6 +127,24 @@ describe('ComtradeSampleStream, binary records split across pushes', () => {
 			}
 		});
 	}
+
+	it('ASCII (missing mark 99999): every split point and 1- to 25-byte chunks give the hand-worked values', () => {
+		const text = records('BINARY')
+			.map(([n, x, y], r) => [n, r, x, y].map((v) => (v === -0x8000 ? 99999 : v)).join(','))
+			.join('\r\n');
+		const bytes = new TextEncoder().encode(`${text}\r\n`);
+		const splits = [...Array(bytes.length + 1).keys()].map((at) => splitUnaligned(bytes, at));
+		for (let size = 1; size <= 25; size++) {
+			const chunks: Uint8Array[] = [];
+			for (let p = 0; p < bytes.length; p += size) chunks.push(bytes.slice(p, p + size));
+			splits.push(chunks);
+		}
+		for (const chunks of splits) {
+			const { u, late } = stream('ASCII', 6, chunks);
+			expect(u).toEqual([U1, U2]);
+			expect(late.filter((d) => d.code === 'comtrade-missing-values').length).toBe(2);
+		}
+	});
 
 	it('FLOAT32: +Infinity and -Infinity are missing too', () => {
 		const bytes = datBytes('FLOAT32', [

@@ -44,11 +44,19 @@ export function readComtradeDat(
 	source: string,
 	expected: number | undefined,
 	offsets: { line?: number; byte?: number } = {},
+	reuse?: DatColumns,
 ): DatContent {
 	return cfg.fileType === 'ASCII'
-		? readAsciiDat(cfg, bytes, source, expected, offsets.line ?? 0)
+		? readAsciiDat(cfg, bytes, source, expected, offsets.line ?? 0, reuse)
 		: readBinary(cfg, bytes, source, expected, offsets.byte ?? 0);
 }
+
+/**
+ * Columns a streaming reader hands back to be filled again (ASCII): the next chunk's values go into them
+ * when they are long enough, so no fresh memory is touched per chunk; the result's columns may then be
+ * longer than `records`.
+ */
+export type DatColumns = Pick<DatContent, 'raw' | 'digital' | 'stamps'>;
 
 function allocate(nA: number, nD: number, n: number): Pick<DatContent, 'raw' | 'digital' | 'stamps' | 'missing'> {
 	return {

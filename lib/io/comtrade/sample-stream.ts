@@ -12,7 +12,7 @@ import type { Diagnostic } from '../../capture.js';
 import { ImportError } from '../import-error.js';
 import type { SampleSink, SampleStreamHeader } from '../csv/sample-stream.js';
 import type { ComtradeConfig } from './cfg.js';
-import { readComtradeDat } from './dat.js';
+import { readComtradeDat, type DatColumns } from './dat.js';
 import { BinaryDatStream } from './dat-stream.js';
 import { binaryRecordBytes, checkDatType, DAT_TYPE_HEAD_BYTES } from './dat-type.js';
 import { scaleChannel, uniqueNames, valuesNote, type ComtradeOptions } from './parse.js';
@@ -46,6 +46,8 @@ export class ComtradeSampleStream {
 	private readonly missing: number[];
 	private breaks = 0;
 	private firstBreak = 0;
+	/** The last chunk's columns of an ASCII .dat, filled again by the next: no fresh memory per chunk. */
+	private asciiColumns: DatColumns | undefined;
 	/** The decoder of a binary .dat (undefined for ASCII). */
 	private readonly binary: BinaryDatStream | undefined;
 
@@ -251,10 +253,15 @@ export class ComtradeSampleStream {
 	/** Reads whole lines of an ASCII .dat, scales them and hands them on. */
 	private read(bytes: Uint8Array): void {
 		if (!this.checked) this.checkType(bytes);
-		const dat = readComtradeDat(this.cfg, bytes, this.datSource, undefined, {
-			line: this.linesDone,
-			byte: this.byteBase + this.bytesDone,
-		});
+		const dat = readComtradeDat(
+			this.cfg,
+			bytes,
+			this.datSource,
+			undefined,
+			{ line: this.linesDone, byte: this.byteBase + this.bytesDone },
+			this.asciiColumns,
+		);
+		this.asciiColumns = dat;
 		this.linesDone += dat.records;
 		this.bytesDone += bytes.length;
 		const take = Math.max(0, Math.min(dat.records, this.expected - this.records));
