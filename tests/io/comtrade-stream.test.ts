@@ -83,9 +83,9 @@ function splitUnaligned(bytes: Uint8Array, at: number): Uint8Array[] {
 	});
 }
 
-const MISSING: Record<BinType, number> = { BINARY: -0x8000, BINARY32: -0x80000000, FLOAT32: NaN };
+const MISSING: Record<Exclude<BinType, 'ASCII'>, number> = { BINARY: -0x8000, BINARY32: -0x80000000, FLOAT32: NaN };
 /** Sample numbers 1 2 3 5 6 7 (one break, at record 4, 1-based), U1 and U2 raw values with a missing mark each. */
-function records(type: BinType): [number, number, number][] {
+function records(type: Exclude<BinType, 'ASCII'>): [number, number, number][] {
 	const m = MISSING[type];
 	return [
 		[1, 0, 0],

@@ -74,9 +74,9 @@ describe('CSV number scanner', () => {
 		expect([got[4], got[5], got[3]]).toEqual([0.5, 1, 2 ** 53]);
 	});
 
-	it('parseCsv reads numerals around nine significand digits (the int32 sum of the plain-row path) as parseFloat does', () => {
-		// nine digits fit int32 (10^9 − 1 < 2^31 − 1), ten may not: both sides of the boundary, leading zeros
-		// (they count as digits), signs, exponents, and 2^31 − 1, 2^31, 2^32 themselves
+	it('parseCsv reads numerals around nine and ten significand digits and 2^31, 2^32 as parseFloat does', () => {
+		// where a reader summing digits in int32 would overflow (10^9 − 1 < 2^31 − 1 < 10^10): both sides,
+		// leading zeros (they count as digits), signs, exponents, and 2^31 − 1, 2^31, 2^32 themselves
 		const cells = [
 			'999999999',
 			'9999999999',

@@ -78,16 +78,6 @@ export function readDecimal(buf: Uint8Array, p: number, dec: number): number {
 	return p;
 }
 
-/**
- * The digits of buf[from, to) (the mark `dec` skipped) summed as readDecimal sums them: m · 10 + digit in
- * doubles, exact while below 2^53 and rounded alike above it.
- */
-export function significand(buf: Uint8Array, from: number, to: number, dec: number): number {
-	let m = 0;
-	for (let i = from; i < to; i++) if (buf[i] !== dec) m = m * 10 + (buf[i] - DIGIT_0);
-	return m;
-}
-
 /** True when m * 10^e10 is one correctly rounded operation on exact operands (Clinger's fast path). */
 export function isFastDecimal(m: number, e10: number): boolean {
 	return m <= MAX_EXACT && e10 >= -MAX_EXACT_POW10 && e10 <= MAX_EXACT_POW10;

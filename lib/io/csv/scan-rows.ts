@@ -11,15 +11,7 @@
  */
 import { ImportError } from '../import-error.js';
 import { ClockCounter } from './clock-time.js';
-import {
-	decimalValue,
-	fastDecimal,
-	isFastDecimal,
-	NO_DIGITS,
-	readDecimal,
-	significand,
-	slowDecimal,
-} from './decimal.js';
+import { decimalValue, fastDecimal, isFastDecimal, NO_DIGITS, readDecimal, slowDecimal } from './decimal.js';
 
 // Byte values of the ASCII characters the scanner looks at (ANSI X3.4-1986 code chart; UTF-8 and
 // Windows-1252 keep them as single bytes, RFC 3629 section 3). Module-local on purpose: V8 folds a module's
@@ -40,8 +32,6 @@ const LOWER_Z = 0x7a;
 /** OR-ing this bit into an ASCII capital gives its small letter ('E' | 0x20 = 'e'). */
 const ASCII_CASE_BIT = 0x20;
 
-/** Significand digits read in int32 arithmetic: 10^9 − 1 < 2^31 − 1, so nine digits cannot overflow. */
-const INT_DIGITS = 9;
 /** EXPONENT_CAP of decimal.ts, written out module-local (folded into the loop, as above). */
 const EXPONENT_LIMIT = 100_000;
 
@@ -170,11 +160,9 @@ export class RowScanner {
 				const neg = b === MINUS;
 				if (neg || b === PLUS) b = buf[++p];
 				const numStart = p;
-				// the significand in int32 arithmetic (a multiply-add chain in doubles costs more per digit);
-				// exact up to INT_DIGITS digits, longer significands are summed again in doubles below
 				let m = 0;
 				while (b >= DIGIT_0 && b <= DIGIT_9) {
-					m = (m * 10 + (b - DIGIT_0)) | 0;
+					m = m * 10 + (b - DIGIT_0);
 					b = buf[++p];
 				}
 				let digits = p - numStart;
@@ -183,7 +171,7 @@ export class RowScanner {
 					const fracStart = ++p;
 					b = buf[p];
 					while (b >= DIGIT_0 && b <= DIGIT_9) {
-						m = (m * 10 + (b - DIGIT_0)) | 0;
+						m = m * 10 + (b - DIGIT_0);
 						b = buf[++p];
 					}
 					digits += p - fracStart;
@@ -193,8 +181,6 @@ export class RowScanner {
 					p = lineStart;
 					break rows;
 				}
-				// more digits than int32 holds: the significand again, in doubles as readDecimal sums it
-				if (digits > INT_DIGITS) m = significand(buf, numStart, p, dec);
 				if ((b | ASCII_CASE_BIT) === LOWER_E) {
 					b = buf[++p];
 					const eneg = b === MINUS;
