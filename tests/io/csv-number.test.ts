@@ -74,6 +74,38 @@ describe('CSV number scanner', () => {
 		expect([got[4], got[5], got[3]]).toEqual([0.5, 1, 2 ** 53]);
 	});
 
+	it('parseCsv reads numerals around nine and ten significand digits and 2^31, 2^32 as parseFloat does', () => {
+		// where a reader summing digits in int32 would overflow (10^9 − 1 < 2^31 − 1 < 10^10): both sides,
+		// leading zeros (they count as digits), signs, exponents, and 2^31 − 1, 2^31, 2^32 themselves
+		const cells = [
+			'999999999',
+			'9999999999',
+			'-999999999',
+			'+123456789',
+			'2147483647',
+			'2147483648',
+			'-4294967296.5',
+			'0.000000001',
+			'0.0000000001',
+			'000000000123',
+			'99999.9999',
+			'99999.99999',
+			'-12345.6789e-3',
+			'-12345.67891e-3',
+			'123456789E22',
+			'1234567890e-25',
+			'3599.9999',
+		];
+		for (const comma of [false, true]) {
+			const got = readColumn(cells, comma);
+			cells.forEach((c, i) => expect(Object.is(got[i], parseFloat(c)), `${c} -> ${got[i]}`).toBe(true));
+		}
+		// stated literally (ECMA-262 number values of the numerals)
+		expect(readColumn(['9999999999', '2147483648', '-4294967296.5'], false)).toEqual(
+			Float64Array.from([9999999999, 2147483648, -4294967296.5]),
+		);
+	});
+
 	it('parseCsv keeps NaN and Infinity cells as such and says so in a warning', () => {
 		const c = parseCsv('t,U1\n0,NaN\n1,-Infinity\n2,inf\n3,1\n', 'n.csv');
 		expect(Array.from(c.channels[0].samples)).toEqual([NaN, -Infinity, Infinity, 1]);

@@ -26,6 +26,9 @@ const MAX_EXACT_DIGITS = 15;
 /** ASCII missing-value marker. Ref: docs/methods.md §8.2 (read in python-comtrade's test files). */
 const MISSING_ASCII = 99999;
 
+/** Columns made for a streaming reader hold this many times the first chunk's records. */
+const REUSE_SLACK = 1.125;
+
 const isBlank = (b: number) => b === SPACE || b === TAB;
 const isDigit = (b: number) => b >= DIGIT_0 && b <= DIGIT_9;
 
@@ -240,12 +243,17 @@ function fieldError(
 	return syntaxError(at, t.lineNo, column, '', fieldName(cfg, 0));
 }
 
+/**
+ * @param reuse  columns of an earlier call, filled again when long enough (a streaming reader's: no fresh
+ *   memory per chunk); the result's columns may then be longer than its record count
+ */
 export function readAsciiDat(
 	cfg: ComtradeConfig,
 	bytes: Uint8Array,
 	source: string,
 	expected: number | undefined,
 	lineOffset: number,
+	reuse?: Pick<DatContent, 'raw' | 'digital' | 'stamps'>,
 ): DatContent {
 	const nA = cfg.analog.length;
 	const nD = cfg.digital.length;
@@ -261,10 +269,13 @@ export function readAsciiDat(
 		);
 	}
 	const n = expected ?? lineCount;
+	const fits = reuse !== undefined && reuse.stamps.length >= n;
+	// a streaming reader's chunks vary by a few lines: room for them, so the columns are made once
+	const size = reuse ? Math.ceil(n * REUSE_SLACK) : n;
 	const out: AsciiColumns = {
-		raw: Array.from({ length: nA }, () => new Float64Array(n)),
-		digital: Array.from({ length: nD }, () => new Uint8Array(n)),
-		stamps: new Float64Array(n),
+		raw: fits ? reuse.raw : Array.from({ length: nA }, () => new Float64Array(size)),
+		digital: fits ? reuse.digital : Array.from({ length: nD }, () => new Uint8Array(size)),
+		stamps: fits ? reuse.stamps : new Float64Array(size),
 		missing: new Array<number>(nA).fill(0),
 	};
 	const { breaks, firstBreak } = scanRecords(cfg, bytes, n, out, { source, lineOffset });

@@ -9,7 +9,7 @@ import { ImportError } from '../import-error.js';
 import type { ComtradeConfig } from './cfg.js';
 
 /** Bytes of the .dat looked at. */
-const HEAD_BYTES = 4096;
+export const DAT_TYPE_HEAD_BYTES = 4096;
 
 /** Bytes of one binary record: sample number and time stamp (uint32 each), analog values, status words. */
 export function binaryRecordBytes(cfg: Pick<ComtradeConfig, 'fileType' | 'analog' | 'digital'>): number {
@@ -27,7 +27,7 @@ function looksLikeText(head: Uint8Array): boolean {
 		else if (b === 10 || b === 13) lineBreak = true;
 		else if (b !== 9 && (b < 32 || b > 126)) return false;
 	}
-	return comma && (lineBreak || head.length < HEAD_BYTES);
+	return comma && (lineBreak || head.length < DAT_TYPE_HEAD_BYTES);
 }
 
 /**
@@ -43,7 +43,7 @@ export function checkDatType(
 	cfgSource: string,
 	byteOffset = 0,
 ): void {
-	const h = head.subarray(0, Math.min(head.length, HEAD_BYTES));
+	const h = head.subarray(0, Math.min(head.length, DAT_TYPE_HEAD_BYTES));
 	if (h.length === 0) return;
 	const declared = `the .cfg declares ${cfg.fileType} (${cfgSource} line ${cfg.fileTypeLine})`;
 	if (cfg.fileType === 'ASCII') {

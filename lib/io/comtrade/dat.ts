@@ -1,6 +1,8 @@
 /**
  * COMTRADE data (.dat) reader: ASCII, BINARY (int16), BINARY32 (int32) and FLOAT32 records -> raw
  * per-channel columns (before a*x+b), time stamps and digital states. Missing values become NaN and are counted.
+ * The binary column decoders (decodeColumn: a·x + b fused, missing marks found from the column minimum) and
+ * the sample-number check are shared with the streaming reader (dat-stream.ts).
  * Ref: IEEE C37.111-1999/2013, data file (from memory; record layouts as in docs/methods.md §8.2).
  */
 import { ImportError } from '../import-error.js';
@@ -45,31 +47,23 @@ export function readComtradeDat(
 	reuse?: DatColumns,
 ): DatContent {
 	return cfg.fileType === 'ASCII'
-		? readAsciiDat(cfg, bytes, source, expected, offsets.line ?? 0)
-		: readBinary(cfg, bytes, source, expected, offsets.byte ?? 0, reuse);
+		? readAsciiDat(cfg, bytes, source, expected, offsets.line ?? 0, reuse)
+		: readBinary(cfg, bytes, source, expected, offsets.byte ?? 0);
 }
 
 /**
- * Columns a streaming reader hands back to `readComtradeDat` to be filled again (BINARY types): the next
- * block's values go into them when they are long enough, so no fresh memory is touched per block. The
- * result's columns may then be longer than `records`.
+ * Columns a streaming reader hands back to be filled again (ASCII): the next chunk's values go into them
+ * when they are long enough, so no fresh memory is touched per chunk; the result's columns may then be
+ * longer than `records`.
  */
 export type DatColumns = Pick<DatContent, 'raw' | 'digital' | 'stamps'>;
 
-function allocate(
-	nA: number,
-	nD: number,
-	n: number,
-	reuse?: DatColumns,
-): Pick<DatContent, 'raw' | 'digital' | 'stamps' | 'missing'> {
-	const missing = new Array<number>(nA).fill(0);
-	if (reuse && reuse.stamps.length >= n && reuse.raw.length === nA && reuse.digital.length === nD)
-		return { raw: reuse.raw, digital: reuse.digital, stamps: reuse.stamps, missing };
+function allocate(nA: number, nD: number, n: number): Pick<DatContent, 'raw' | 'digital' | 'stamps' | 'missing'> {
 	return {
 		raw: Array.from({ length: nA }, () => new Float64Array(n)),
 		digital: Array.from({ length: nD }, () => new Uint8Array(n)),
 		stamps: new Float64Array(n),
-		missing,
+		missing: new Array<number>(nA).fill(0),
 	};
 }
 
@@ -111,14 +105,18 @@ function readBinary(
 	source: string,
 	expected: number | undefined,
 	byteOffset: number,
-	reuse?: DatColumns,
 ): DatContent {
 	const { nA, nD, valueBytes, recordBytes, available, n } = binaryLayout(cfg, bytes, source, expected, byteOffset);
-	const out = allocate(nA, nD, n, reuse);
+	const out = allocate(nA, nD, n);
 	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	const { breaks, firstBreak } = readStamps(view, out.stamps, n, recordBytes);
 	for (let c = 0; c < nA; c++)
-		out.missing[c] = readColumn(view, out.raw[c], n, RECORD_HEADER_BYTES + c * valueBytes, recordBytes, cfg.fileType);
+		out.missing[c] = decodeColumn(
+			view,
+			{ col: out.raw[c], row: 0, n, at: RECORD_HEADER_BYTES + c * valueBytes, recordBytes },
+			cfg.fileType,
+			RAW_SCALE,
+		);
 	const statusAt = RECORD_HEADER_BYTES + nA * valueBytes;
 	for (let c = 0; c < nD; c++)
 		readDigital(
@@ -141,8 +139,8 @@ function readBinary(
 
 /**
  * Time stamps of `n` records into `stamps` (NaN for the 0xFFFFFFFF 'missing' mark) and the records whose
- * sample number does not run on by one. Its own function (as is readColumn) so that each hot loop is
- * optimised whole, not entered half-way with the code after it still unseen.
+ * sample number does not run on by one. Its own function (as is each column decoder) so that each hot loop
+ * is optimised whole, not entered half-way with the code after it still unseen.
  */
 function readStamps(
 	view: DataView,
@@ -152,51 +150,166 @@ function readStamps(
 ): { breaks: number; firstBreak: number } {
 	let breaks = 0;
 	let firstBreak = 0;
-	for (let r = 0; r < n; r++) {
-		const ts = view.getUint32(r * recordBytes + 4, true);
+	let prev = n > 0 ? view.getUint32(0, true) : 0;
+	for (let r = 0, p = 0; r < n; r++, p += recordBytes) {
+		const ts = view.getUint32(p + 4, true);
 		stamps[r] = ts === 0xffffffff ? NaN : ts;
-		if (r > 0 && view.getUint32(r * recordBytes, true) !== view.getUint32((r - 1) * recordBytes, true) + 1) {
-			if (breaks++ === 0) firstBreak = r + 1;
-		}
+		const sample = view.getUint32(p, true);
+		if (r > 0 && sample !== prev + 1 && breaks++ === 0) firstBreak = r + 1;
+		prev = sample;
 	}
 	return { breaks, firstBreak };
 }
 
-/** One analog channel of `n` records from byte `p` on into `col` (NaN where marked missing); returns the missing count. */
-function readColumn(
+/**
+ * Records among `n` from byte 0 of `view` whose sample number is not the one before + 1 (uint32, no
+ * wrap-around: 0 after 0xFFFFFFFF is a break), `prev` being the sample number before the first (-1: none,
+ * the first record is not checked). Returns the count, the 0-based record of the first, and the last number.
+ */
+export function sampleNumberBreaks(
+	view: DataView,
+	n: number,
+	recordBytes: number,
+	prev: number,
+): { breaks: number; first: number; last: number } {
+	if (n === 0) return { breaks: 0, first: -1, last: prev };
+	const from = prev < 0 ? 1 : 0;
+	const { breaks, first } = int32Breaks(view, n, recordBytes, from, from === 1 ? view.getInt32(0, true) : prev | 0);
+	return { breaks, first, last: view.getUint32((n - 1) * recordBytes, true) };
+}
+
+/**
+ * The loop of sampleNumberBreaks in int32 arithmetic (V8 keeps it in registers; uint32 values above 2^31
+ * would be doubles): (s − prev) | 0 is 1 exactly when s = prev + 1 modulo 2^32, so the one wrap-around
+ * case, s = 0, is a break of its own.
+ */
+function int32Breaks(
+	view: DataView,
+	n: number,
+	recordBytes: number,
+	from: number,
+	prev: number,
+): { breaks: number; first: number } {
+	let breaks = 0;
+	let first = -1;
+	for (let r = from, p = from * recordBytes; r < n; r++, p += recordBytes) {
+		const s = view.getInt32(p, true);
+		if ((((s - prev) | 0) !== 1 || s === 0) && breaks++ === 0) first = r;
+		prev = s;
+	}
+	return { breaks, first };
+}
+
+/** Where a column decoder writes: `n` records' values from byte `at` of the first into col[row…row + n). */
+export interface ColumnSpan {
+	col: Float64Array;
+	row: number;
+	n: number;
+	at: number;
+	recordBytes: number;
+}
+
+/** The scaling a·x + b that keeps every raw value bit for bit (x + (−0) is x, even for x = −0). */
+export const RAW_SCALE = { a: 1, b: -0 } as const;
+
+/**
+ * One analog channel of a binary .dat, scaled: col[row + r] = a·x + b for the value x of record r, NaN
+ * where x is the 'missing' mark; returns the count of those. a = 1, b = −0 (RAW_SCALE) stores x itself.
+ */
+export function decodeColumn(
+	view: DataView,
+	span: ColumnSpan,
+	type: ComtradeConfig['fileType'],
+	scale: { a: number; b: number },
+): number {
+	const { col, row, n, at, recordBytes } = span;
+	// One loop per type and its own function: the inner loop has no branch on the type.
+	if (type === 'BINARY') {
+		if (decodeInt16(view, col, row, n, at, recordBytes, scale.a, scale.b) !== MISSING_INT16) return 0;
+		return markMissing(view, span, 2);
+	}
+	if (type === 'BINARY32') {
+		if (decodeInt32(view, col, row, n, at, recordBytes, scale.a, scale.b) !== MISSING_INT32) return 0;
+		return markMissing(view, span, 4);
+	}
+	return decodeFloat32(view, col, row, n, at, recordBytes, scale.a, scale.b);
+}
+
+/*
+ * The integer 'missing' marks are the smallest values of their types (int16 −32768, int32 −2^31), so the
+ * loops below keep the running minimum instead of testing every value (a branch in the loop costs about as
+ * much as the rest of it, measured): a column whose minimum is the mark is read again by markMissing.
+ */
+
+function decodeInt16(
 	view: DataView,
 	col: Float64Array,
+	row: number,
 	n: number,
 	p: number,
-	recordBytes: number,
-	type: ComtradeConfig['fileType'],
+	rb: number,
+	a: number,
+	b: number,
+): number {
+	let lo = 0;
+	for (let r = row, end = row + n; r < end; r++, p += rb) {
+		const v = view.getInt16(p, true);
+		col[r] = a * v + b;
+		lo = v < lo ? v : lo;
+	}
+	return lo;
+}
+
+function decodeInt32(
+	view: DataView,
+	col: Float64Array,
+	row: number,
+	n: number,
+	p: number,
+	rb: number,
+	a: number,
+	b: number,
+): number {
+	let lo = 0;
+	for (let r = row, end = row + n; r < end; r++, p += rb) {
+		const v = view.getInt32(p, true);
+		col[r] = a * v + b;
+		lo = v < lo ? v : lo;
+	}
+	return lo;
+}
+
+/** FLOAT32: NaN and ±Infinity are missing (no finite value marks it); returns their count. */
+function decodeFloat32(
+	view: DataView,
+	col: Float64Array,
+	row: number,
+	n: number,
+	p: number,
+	rb: number,
+	a: number,
+	b: number,
 ): number {
 	let miss = 0;
-	// One loop per type: keeps the inner loop free of branches on the file type.
-	if (type === 'BINARY') {
-		for (let r = 0; r < n; r++, p += recordBytes) {
-			const v = view.getInt16(p, true);
-			if (v === MISSING_INT16) {
-				col[r] = NaN;
-				miss++;
-			} else col[r] = v;
+	for (let r = row, end = row + n; r < end; r++, p += rb) {
+		const v = view.getFloat32(p, true);
+		if (Number.isFinite(v)) col[r] = a * v + b;
+		else {
+			col[r] = NaN;
+			miss++;
 		}
-	} else if (type === 'BINARY32') {
-		for (let r = 0; r < n; r++, p += recordBytes) {
-			const v = view.getInt32(p, true);
-			if (v === MISSING_INT32) {
-				col[r] = NaN;
-				miss++;
-			} else col[r] = v;
-		}
-	} else {
-		for (let r = 0; r < n; r++, p += recordBytes) {
-			const v = view.getFloat32(p, true);
-			if (Number.isFinite(v)) col[r] = v;
-			else {
-				col[r] = NaN;
-				miss++;
-			}
+	}
+	return miss;
+}
+
+/** NaN where the span's int16 (`bytes` 2) or int32 (4) value is the 'missing' mark; returns their count. */
+function markMissing(view: DataView, span: ColumnSpan, bytes: 2 | 4): number {
+	let miss = 0;
+	for (let r = 0, p = span.at; r < span.n; r++, p += span.recordBytes) {
+		const v = bytes === 2 ? view.getInt16(p, true) : view.getInt32(p, true);
+		if (v === (bytes === 2 ? MISSING_INT16 : MISSING_INT32)) {
+			span.col[span.row + r] = NaN;
+			miss++;
 		}
 	}
 	return miss;

@@ -2,7 +2,8 @@
  * A COMTRADE record as a stream of sample blocks for consumers that keep running state only (lib/trend):
  * the .cfg is read whole (it is small), the .dat is pushed in chunks of any size and each run of whole
  * records (ASCII lines, or fixed-size BINARY / BINARY32 / FLOAT32 records) is read, scaled and handed on;
- * nothing is kept, so memory does not grow with the record. Records with one sampling rate only (the
+ * nothing is kept, so memory does not grow with the record. Binary records are read straight from each
+ * chunk by dat-stream.ts; ASCII lines through dat-ascii.ts, as the whole-file reader. Records with one sampling rate only (the
  * usual case); a record with several rates or with time stamps as its only time base is read whole by
  * `parseComtrade` instead (`streamableRate` says which).
  * Ref: IEEE C37.111-1999/2013 (from memory).
@@ -12,7 +13,8 @@ import { ImportError } from '../import-error.js';
 import type { SampleSink, SampleStreamHeader } from '../csv/sample-stream.js';
 import type { ComtradeConfig } from './cfg.js';
 import { readComtradeDat, type DatColumns } from './dat.js';
-import { binaryRecordBytes, checkDatType } from './dat-type.js';
+import { BinaryDatStream } from './dat-stream.js';
+import { binaryRecordBytes, checkDatType, DAT_TYPE_HEAD_BYTES } from './dat-type.js';
 import { scaleChannel, uniqueNames, valuesNote, type ComtradeOptions } from './parse.js';
 
 /** The one sampling rate of a record (with its .cfg line), or undefined when it has several or none. */
@@ -44,8 +46,10 @@ export class ComtradeSampleStream {
 	private readonly missing: number[];
 	private breaks = 0;
 	private firstBreak = 0;
-	/** The last block's columns, filled again by the next (BINARY types): no fresh memory per block. */
-	private columns: DatColumns | undefined;
+	/** The last chunk's columns of an ASCII .dat, filled again by the next: no fresh memory per chunk. */
+	private asciiColumns: DatColumns | undefined;
+	/** The decoder of a binary .dat (undefined for ASCII). */
+	private readonly binary: BinaryDatStream | undefined;
 
 	/**
 	 * @param cfg  the parsed .cfg (parseComtradeCfg) of a record with one sampling rate
@@ -110,6 +114,12 @@ export class ComtradeSampleStream {
 		this.names = channels.map((c) => c.name);
 		this.missing = channels.map(() => 0);
 		if (channels.length === 0) throw new ImportError(source, 2, 0, 'no-data', '', 'at least one analog channel');
+		if (!this.ascii)
+			this.binary = new BinaryDatStream(
+				cfg,
+				channels.map((c) => ({ a: c.scaling!.factor, b: c.scaling!.offset })),
+				this.expected,
+			);
 		const header: SampleStreamHeader = {
 			sampleRateHz: rate.sampleRateHz,
 			channels: channels.map(({ name, unit, quantity, phase, scaling }) => ({
@@ -128,26 +138,54 @@ export class ComtradeSampleStream {
 
 	/** The next bytes of the .dat. @throws ImportError as the whole-file reader would, at the same place */
 	push(chunk: Uint8Array): void {
-		// the partial record left over and the chunk, in one buffer reused from push to push
+		if (this.binary) return this.pushBinary(this.binary, chunk);
+		// the partial line left over and the chunk, in one buffer reused from push to push
 		const total = this.carry.length + chunk.length;
 		if (this.work.length < total) this.work = new Uint8Array(Math.max(total, 2 * this.work.length));
 		this.work.set(this.carry);
 		this.work.set(chunk, this.carry.length);
 		const bytes = this.work.subarray(0, total);
-		if (!this.checked && bytes.length >= 4096) this.checkType(bytes);
-		const cut = this.ascii ? lastLineEnd(bytes) : bytes.length - (bytes.length % this.recordBytes);
+		if (!this.checked && bytes.length >= DAT_TYPE_HEAD_BYTES) this.checkType(bytes);
+		const cut = lastLineEnd(bytes);
 		if (cut > 0) this.read(bytes.subarray(0, cut));
 		this.carry = bytes.slice(cut);
 	}
 
+	/**
+	 * Binary records straight from the chunk. The type is checked on the same bytes as for an ASCII .dat:
+	 * the first 4 KiB once that many have arrived, else the whole records of the first push that holds one.
+	 */
+	private pushBinary(bin: BinaryDatStream, chunk: Uint8Array): void {
+		if (!this.checked) {
+			const pending = bin.pending;
+			const total = pending.length + chunk.length;
+			const upTo = total >= DAT_TYPE_HEAD_BYTES ? DAT_TYPE_HEAD_BYTES : total - (total % this.recordBytes);
+			if (upTo > 0) {
+				const head = new Uint8Array(upTo);
+				head.set(pending.subarray(0, upTo));
+				if (upTo > pending.length) head.set(chunk.subarray(0, upTo - pending.length), pending.length);
+				this.checkType(head);
+			}
+		}
+		const rows = bin.push(chunk);
+		this.bytesDone = (bin.records + bin.extra) * this.recordBytes;
+		this.extra = bin.extra;
+		this.breaks = bin.breaks;
+		this.firstBreak = bin.firstBreak;
+		if (rows === 0) return;
+		this.records += rows;
+		this.sink.samples(bin.columns, rows);
+	}
+
 	/** Ends the .dat; returns what was found in it. @throws ImportError 'dat-too-short', 'no-data' */
 	end(): Diagnostic[] {
-		if (!this.checked && this.carry.length > 0) this.checkType(this.carry);
+		const carry = this.binary ? this.binary.pending : this.carry;
+		if (!this.checked && carry.length > 0) this.checkType(carry);
 		const notes: Diagnostic[] = [];
-		if (this.carry.length > 0) {
-			if (this.ascii) this.read(this.carry);
+		if (carry.length > 0) {
+			if (this.ascii) this.read(carry);
 			else if (this.records < this.expected) {
-				const total = this.bytesDone + this.carry.length;
+				const total = this.bytesDone + carry.length;
 				throw new ImportError(
 					this.datSource,
 					0,
@@ -160,7 +198,7 @@ export class ComtradeSampleStream {
 				notes.push({
 					code: 'comtrade-trailing-bytes',
 					severity: 'warning',
-					message: `The data ends with ${this.carry.length} byte(s) that do not make a whole record; they are ignored.`,
+					message: `The data ends with ${carry.length} byte(s) that do not make a whole record; they are ignored.`,
 				});
 		}
 		if (this.records < this.expected) {
@@ -195,7 +233,7 @@ export class ComtradeSampleStream {
 				severity: 'warning',
 				message: `Sample numbers do not run on by one from record ${this.firstBreak} of ${this.datSource}, ${this.breaks} place(s) in all: records may be missing; times follow the sample rate.`,
 			});
-		this.missing.forEach((m, c) => {
+		(this.binary?.missing ?? this.missing).forEach((m, c) => {
 			if (m > 0)
 				notes.push({
 					code: 'comtrade-missing-values',
@@ -212,7 +250,7 @@ export class ComtradeSampleStream {
 		checkDatType(this.cfg, head, this.datSource, this.source, this.byteBase);
 	}
 
-	/** Reads whole records, scales them and hands them on. */
+	/** Reads whole lines of an ASCII .dat, scales them and hands them on. */
 	private read(bytes: Uint8Array): void {
 		if (!this.checked) this.checkType(bytes);
 		const dat = readComtradeDat(
@@ -221,10 +259,10 @@ export class ComtradeSampleStream {
 			this.datSource,
 			undefined,
 			{ line: this.linesDone, byte: this.byteBase + this.bytesDone },
-			this.columns,
+			this.asciiColumns,
 		);
-		if (!this.ascii) this.columns = dat;
-		this.linesDone += this.ascii ? dat.records : 0;
+		this.asciiColumns = dat;
+		this.linesDone += dat.records;
 		this.bytesDone += bytes.length;
 		const take = Math.max(0, Math.min(dat.records, this.expected - this.records));
 		this.extra += dat.records - take;
