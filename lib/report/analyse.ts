@@ -8,12 +8,13 @@ import { findWholeCycles, type CycleWindow } from '../signal/cycles.js';
 import { waveformFigures } from '../signal/levels.js';
 import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
-import { captureEvents } from './events.js';
+import { captureEvents, eventsReadEverySample } from './events.js';
 import type { CaptureTrend, TrendViewRequest } from './trend-view.js';
 import { digitalSummary, neutralCurrent, threePhasePower, worstCycle, type DerivedScratch } from './extras.js';
 import { channelIntervals, flaggedSlots, powerFactorIntervals } from './intervals.js';
 import { applyLimits } from './limits-report.js';
-import { flickerReport } from './flicker-report.js';
+import { measureFlicker } from './flicker-report.js';
+import { flickerShareable, withRunsFlicker } from './trend-flicker.js';
 import { checkSiteInputs, nextStepsSection } from '../next-steps/report-section.js';
 import { loadWords } from './load-words.js';
 import { meterExplanation } from './meter-explanation.js';
@@ -122,7 +123,9 @@ export function analyseCaptureParts(
 			want.trend?.onFraction?.(f);
 		},
 	};
-	const ev = captureEvents(capture, plan.nominalHz, options.declaredV, trendProgress || undefined);
+	// one flickermeter pass: with the view asked for, the report's flicker runs serve its trend too
+	const shareFlicker = !!want.trend && flickerShareable(capture, plan.nominalHz, eventsReadEverySample(capture));
+	const ev = captureEvents(capture, plan.nominalHz, options.declaredV, trendProgress || undefined, !shareFlicker);
 	progress('events', 1, 1);
 	const spectra = harmonicSpectra(capture, slots, plan.maxOrder, (done, total) => progress('harmonics', done, total));
 	progress('channels', 0, capture.channels.length);
@@ -159,9 +162,7 @@ export function analyseCaptureParts(
 		plan.warnings.push('Pairs were given but no fundamental was found: no power figures.');
 	}
 	progress('relations', 1, 1);
-	progress('flicker', 0, 1);
-	report.flicker = flickerReport(capture, plan.nominalHz, options.nominalV, undefined);
-	progress('flicker', 1, 1);
+	report.flicker = flickerStep(capture, plan.nominalHz, options.nominalV, ev, shareFlicker, progress);
 	report.nextSteps = nextStepsSection(report, options.site);
 	report.events = ev.events;
 	plan.assumptions.push(...ev.notes);
@@ -172,6 +173,31 @@ export function analyseCaptureParts(
 		referenceCrossings: window?.crossings ?? null,
 		...(want.trend ? { trend: ev.trend ?? null } : {}),
 	};
+}
+
+/**
+ * The report's flicker section; with `share`, its flickermeter runs also become the trend view's flicker
+ * (`ev.trend`, whose lib/trend pass ran without one). Progress by voltage channel.
+ */
+function flickerStep(
+	capture: Capture,
+	nominalHz: number | undefined,
+	nominalV: number | undefined,
+	ev: ReturnType<typeof captureEvents>,
+	share: boolean,
+	progress: (stage: AnalysisStage, done: number, total: number) => void,
+): AnalysisReport['flicker'] {
+	progress('flicker', 0, 1);
+	const { report, runs } = measureFlicker(capture, nominalHz, nominalV, undefined, share, (done, total) =>
+		progress('flicker', done, total),
+	);
+	const view = ev.trend?.result;
+	if (share && view && ev.trendEvents) {
+		const result = withRunsFlicker(view, runs, ev.trendEvents);
+		if (result) ev.trend = { ...ev.trend!, result };
+	}
+	progress('flicker', 1, 1);
+	return report;
 }
 
 /**
