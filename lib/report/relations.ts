@@ -20,7 +20,8 @@ import {
 } from '../phasor/phasor.js';
 import { ieee1459FromComponents } from '../power/single-phase.js';
 import { crossCorrelationLag } from '../power/time-lag.js';
-import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
+import type { PowerSampleWindow } from '../power/window.js';
+import { PowerWindowSums } from './window-sums.js';
 import type { ChannelSpectrum } from './spectra.js';
 import type { ReportPairOverride, ReportPair, ReportPower, ReportThreePhase } from './types.js';
 
@@ -111,6 +112,7 @@ export function pairPower(
 	pair: PairingResult['pairs'][number],
 	spectra: (ChannelSpectrum | undefined)[],
 	window: PowerSampleWindow,
+	sums = new PowerWindowSums(window),
 ): Omit<ReportPower, 'relation' | 'loadSentence' | 'powerFactorIntervals'> {
 	const v = capture.channels[pair.voltage];
 	const i = capture.channels[pair.current];
@@ -133,12 +135,12 @@ export function pairPower(
 		i1 = si.aggregate.set.orders[1].rms;
 	}
 	const q = ieee1459FromComponents({
-		voltageRmsV: powerWindowRms(v.samples, window),
-		currentRmsA: powerWindowRms(i.samples, window),
+		voltageRmsV: sums.rms(v.samples),
+		currentRmsA: sums.rms(i.samples),
 		v1RmsV: v1,
 		i1RmsA: i1,
 		theta1Deg,
-		activePowerW: activePowerFromSamplesW(v.samples, i.samples, window),
+		activePowerW: sums.activePowerW(v.samples, i.samples),
 	});
 	const ch = loadCharacterFromAngle(theta1Deg);
 	const all: Record<string, number> = {};
