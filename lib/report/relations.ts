@@ -36,8 +36,8 @@ export function alignedFundamentals(
 ): (ComplexPhasor | undefined)[] {
 	const ref = spectra[refIndex];
 	if (!ref) return spectra.map(() => undefined);
-	const turns = ref.windows.map((w) => {
-		const a = phasorArgDeg(phasorFromHarmonic(w.set.orders[1]));
+	const turns = ref.fundamentals.map((f) => {
+		const a = phasorArgDeg(phasorFromHarmonic(f));
 		const rad = Number.isNaN(a) ? 0 : (-a * Math.PI) / 180;
 		return { re: Math.cos(rad), im: Math.sin(rad) };
 	});
@@ -45,12 +45,12 @@ export function alignedFundamentals(
 		if (!s) return undefined;
 		let re = 0;
 		let im = 0;
-		s.windows.forEach((w, k) => {
-			const p = phasorMul(phasorFromHarmonic(w.set.orders[1]), turns[k]);
+		s.fundamentals.forEach((f, k) => {
+			const p = phasorMul(phasorFromHarmonic(f), turns[k]);
 			re += p.re;
 			im += p.im;
 		});
-		return { re: re / s.windows.length, im: im / s.windows.length };
+		return { re: re / s.fundamentals.length, im: im / s.fundamentals.length };
 	});
 }
 
@@ -125,8 +125,8 @@ export function pairPower(
 		// Fundamental complex power averaged over the windows: θ1 = its angle (P1 + jQ1 = V1·I1*).
 		let re = 0;
 		let im = 0;
-		sv.windows.forEach((w, k) => {
-			const s = complexPower(phasorFromHarmonic(w.set.orders[1]), phasorFromHarmonic(si.windows[k].set.orders[1]));
+		sv.fundamentals.forEach((f, k) => {
+			const s = complexPower(phasorFromHarmonic(f), phasorFromHarmonic(si.fundamentals[k]));
 			re += s.re;
 			im += s.im;
 		});
