@@ -9,7 +9,9 @@ import * as flicker from '../../lib/flicker/index.js';
 import { analyseCapture, analyseCaptureParts, eventsCountedOnce, reportToJson } from '../../lib/report/index.js';
 import { analyseTrend } from '../../lib/trend/index.js';
 import type { Capture } from '../../lib/capture.js';
+import { captureOf } from '../helpers/capture.js';
 import { flickerCapture } from '../helpers/flicker-signals.js';
+import { sineSamples } from '../helpers/synth.js';
 
 vi.mock('../../lib/flicker/index.js', async (importOriginal) => {
 	const original = await importOriginal<typeof import('../../lib/flicker/index.js')>();
@@ -32,8 +34,8 @@ function meterAlone(c: Capture) {
 }
 
 /** lib/trend alone as the trend view runs it (Pinst per second kept), its events counted once. */
-function trendAlone(c: Capture) {
-	const r = analyseTrend(c, { nominalHz: 50, flickerPinst: true });
+function trendAlone(c: Capture, nominalHz: 50 | 60 = 50) {
+	const r = analyseTrend(c, { nominalHz, flickerPinst: true });
 	return { ...r, events: eventsCountedOnce(r.events) };
 }
 
@@ -80,6 +82,31 @@ describe('analyseCaptureParts with the trend view: one flickermeter pass for the
 		expect(view).toEqual(trendAlone(c));
 		// and the report is the one analyseCapture gives without the view
 		expect(reportToJson(parts.report)).toEqual(reportToJson(analyseCapture(c, { nominalV: 240 })));
+	});
+
+	it('three 120 V, 60 Hz phases with a missing sample: one meter each, the view as lib/trend gives it (its warning last)', () => {
+		const fs = 3840;
+		const cycles = 60 * 8;
+		const phase = (deg: number) =>
+			sineSamples({ amplitude: 120 * Math.SQRT2, frequencyHz: 60, sampleRateHz: fs, cycles, phaseDeg: deg });
+		const u = [phase(0), phase(-120), phase(120)];
+		u[1][3 * fs] = NaN;
+		const c = captureOf(
+			u.map((samples, k) => ({ name: `L${k + 1}`, unit: 'V', quantity: 'voltage' as const, samples })),
+			fs,
+			'sixty-hertz.csv',
+		);
+		created.mockClear();
+		const view = analyseCaptureParts(c, {}, { trend: {} }).trend!.result!;
+		expect(created).toHaveBeenCalledTimes(3);
+		// 60 Hz takes the 120 V lamp model (IEC 61000-4-15, from memory); an unmodulated sine has a constant
+		// envelope, so no flicker (closed form) in the phases without the gap
+		expect(view.flicker!.lamp).toBe('120V');
+		expect(view.flicker!.pinstMax[0]).toBeLessThan(0.01);
+		expect(view.flicker!.pinstMax[2]).toBeLessThan(0.01);
+		expect(view.flicker!.channels).toEqual(['L1', 'L2', 'L3']);
+		expect(view.diagnostics.at(-1)?.code).toBe('flicker-non-finite');
+		expect(view).toEqual(trendAlone(c, 60));
 	});
 
 	it('without the view the report still runs one meter per voltage channel', () => {
