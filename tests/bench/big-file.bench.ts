@@ -6,7 +6,8 @@
  * (readFileSync, openCaptures, analyseCapture; no trends). Target: under 6 s for the worker path
  * on a ~279 MB, 24 M-value CSV on this machine. Also printed: the stages the progress reported (each with
  * a fraction or an estimate), the analysis's own steps (the fraction the bar showed as each began against
- * the share of the analysing time gone by then: how honest the bar is), CPU seconds of both runs (the
+ * the share of the analysing time gone by then: how honest the bar is), CPU seconds of both runs and of
+ * each stage (the
  * machine is shared: CPU time moves less with the load than wall time), peak memory, and the load average
  * (compare ratios).
  * The file (time + 6 channels x 4,000,000 rows, ~282 MB) is written once to a temporary folder and removed.
@@ -46,7 +47,15 @@ try {
 	const blob = await openAsBlob(path);
 	const stages = new Map<
 		string,
-		{ firstMs: number; lastMs: number; updates: number; withFraction: number; withEstimate: number }
+		{
+			firstMs: number;
+			lastMs: number;
+			firstCpuUs: number;
+			lastCpuUs: number;
+			updates: number;
+			withFraction: number;
+			withEstimate: number;
+		}
 	>();
 	// each analysis step as it begins: time and the fraction shown
 	const steps: { step: string; atMs: number; fraction: number }[] = [];
@@ -66,8 +75,14 @@ try {
 				const now = performance.now() - t0;
 				if (msg.type === 'progress') {
 					const key = msg.stage.replace(/ of .*| big-recording\.csv.*/, '');
-					const s = stages.get(key) ?? { firstMs: now, lastMs: now, updates: 0, withFraction: 0, withEstimate: 0 };
+					const c = process.cpuUsage(cpu0);
+					const cpuUs = c.user + c.system;
+					const s = stages.get(key) ?? {
+						...{ firstMs: now, lastMs: now, firstCpuUs: cpuUs, lastCpuUs: cpuUs },
+						...{ updates: 0, withFraction: 0, withEstimate: 0 },
+					};
 					s.lastMs = now;
+					s.lastCpuUs = cpuUs;
 					s.updates++;
 					if (msg.fraction !== null) s.withFraction++;
 					if (msg.etaS != null || msg.expectS !== undefined) s.withEstimate++;
@@ -96,8 +111,16 @@ try {
 	const cliCpuS = Number(/cpu-s ([\d.]+)/.exec(cli.stderr)?.[1] ?? NaN);
 
 	printTable(
-		['stage (progress messages)', 'from s', 'to s', 'updates', 'with fraction', 'with estimate'],
-		[...stages].map(([k, s]) => [k, s.firstMs / 1000, s.lastMs / 1000, s.updates, s.withFraction, s.withEstimate]),
+		['stage (progress messages)', 'from s', 'to s', 'CPU s', 'updates', 'with fraction', 'with estimate'],
+		[...stages].map(([k, s]) => [
+			k,
+			s.firstMs / 1000,
+			s.lastMs / 1000,
+			(s.lastCpuUs - s.firstCpuUs) / 1e6,
+			s.updates,
+			s.withFraction,
+			s.withEstimate,
+		]),
 	);
 	printTable(
 		['run', 'wall s', 'CPU s', 'MB/s'],
