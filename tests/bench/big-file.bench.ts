@@ -7,9 +7,8 @@
  * on a ~279 MB, 24 M-value CSV on this machine. Also printed: the stages the progress reported (each with
  * a fraction or an estimate), the analysis's own steps (the fraction the bar showed as each began against
  * the share of the analysing time gone by then: how honest the bar is), CPU seconds of both runs and of
- * each stage (the
- * machine is shared: CPU time moves less with the load than wall time), peak memory, and the load average
- * (compare ratios).
+ * each stage (the machine is shared: CPU time moves less with the load than wall time), peak memory, and
+ * the load average (compare ratios).
  * The file (time + 6 channels x 4,000,000 rows, ~282 MB) is written once to a temporary folder and removed.
  */
 import { spawnSync } from 'node:child_process';
