@@ -115,18 +115,22 @@ function toReportEvent(e: TrendEvent & { dip?: TrendEvent }, r: TrendResult, ser
 	};
 }
 
-/** The lib/trend options of the report's event step: Urms(1/2) and events only, or also what the trend view draws. */
+/**
+ * The lib/trend options of the report's event step: Urms(1/2) and events only, or also what the trend view
+ * draws (with its own flickermeter unless `viewFlicker` is false: the report's then serves the view).
+ */
 function trendOptions(
 	nominalHz: number | undefined,
 	declaredV: number | undefined,
 	onHalfCycle: (ch: number, startS: number, v: number) => void,
 	view: boolean,
+	viewFlicker = true,
 ): Parameters<typeof analyseTrend>[1] {
 	const nominal: 50 | 60 | undefined = nominalHz === 50 || nominalHz === 60 ? nominalHz : undefined;
 	const common = { nominalHz: nominal, declaredV, onHalfCycle };
 	// the view draws THD and frequency per 10/12 cycles and flicker with Pinst; the report's flicker section
 	// has its own flickermeter, so the events alone need only the Urms(1/2) values
-	if (view) return { ...common, flickerPinst: true };
+	if (view) return viewFlicker ? { ...common, flickerPinst: true } : { ...common, flicker: false };
 	return { ...common, thd: false, flicker: false, keep: { cycles10: false, cycles150: false, min10: false } };
 }
 
@@ -136,11 +140,13 @@ function runTrend(
 	nominalHz: number | undefined,
 	declaredV: number | undefined,
 	view: TrendViewRequest | undefined,
+	viewFlicker: boolean,
 ): { r: TrendResult | null; problem?: string; collector: ReturnType<typeof halfCycleCollector> } {
 	let collector = halfCycleCollector(capture, view?.onFraction);
 	if (view) {
 		try {
-			return { r: analyseTrend(capture, trendOptions(nominalHz, declaredV, collector.onHalfCycle, true)), collector };
+			const options = trendOptions(nominalHz, declaredV, collector.onHalfCycle, true, viewFlicker);
+			return { r: analyseTrend(capture, options), collector };
 		} catch (e) {
 			if (!capture.channels.some((c) => c.quantity === 'voltage')) throw e;
 			// the events must not depend on the view: run again without its extras
@@ -189,8 +195,8 @@ function viewOf(
  * times are kept (block j stands at sample jM + (M − 1)/2).
  */
 function eventRateCapture(capture: Capture): { capture: Capture; note?: string } {
+	if (eventsReadEverySample(capture)) return { capture };
 	const m = Math.floor(capture.sampleRateHz / HARMONIC_RATE_HZ);
-	if (m < 2 || capture.gaps?.length) return { capture };
 	const fs = capture.sampleRateHz / m;
 	return {
 		capture: {
@@ -207,11 +213,18 @@ function eventRateCapture(capture: Capture): { capture: Capture; note?: string }
 	};
 }
 
+/** Whether the event step reads every sample of the capture (else block averages: eventRateCapture). */
+export function eventsReadEverySample(capture: Capture): boolean {
+	return Math.floor(capture.sampleRateHz / HARMONIC_RATE_HZ) < 2 || (capture.gaps?.length ?? 0) > 0;
+}
+
 /**
  * Events of a capture's voltage channels; null without a voltage channel.
  * @param declaredV  declared supply voltage (line-to-neutral for phase channels); inferred when absent
  * @param view  also keep the trend view (`trend`) from the same lib/trend pass: Urms(1/2) series, THD and
  *   frequency rows, flicker with Pinst; null when the capture has no voltage or current channel
+ * @param viewFlicker  false: the view's lib/trend pass runs no flickermeter (the caller adds the report's,
+ *   trend-flicker.ts, flagged by `trendEvents`, lib/trend's events as it found them)
  * @returns the events and their tables, and the trend analyser's notes (as sentences) for the assumptions
  */
 export function captureEvents(
@@ -219,7 +232,13 @@ export function captureEvents(
 	nominalHz: number | undefined,
 	declaredV?: number,
 	view?: TrendViewRequest,
-): { events: ReportEvents | null; notes: string[]; trend?: CaptureTrend | null } {
+	viewFlicker = true,
+): {
+	events: ReportEvents | null;
+	notes: string[];
+	trend?: CaptureTrend | null;
+	trendEvents?: TrendEvent[];
+} {
 	const hasVoltage = capture.channels.some((c) => c.quantity === 'voltage');
 	const wantsView = view !== undefined && capture.channels.some((c) => c.quantity !== 'other');
 	if (!hasVoltage && !wantsView) return { events: null, notes: [], ...(view ? { trend: null } : {}) };
@@ -227,14 +246,14 @@ export function captureEvents(
 	// above HARMONIC_RATE_HZ the pass reads block averages (eventRateCapture); the view then shows those
 	const { capture: atRate, note } = eventRateCapture(capture);
 	try {
-		run = runTrend(atRate, nominalHz, declaredV, wantsView ? view : undefined);
+		run = runTrend(atRate, nominalHz, declaredV, wantsView ? view : undefined, viewFlicker);
 	} catch (e) {
 		const message = e instanceof Error ? e.message : String(e);
 		const notes = hasVoltage ? [`Voltage events were not looked for: ${message}`] : [];
 		return { events: null, notes, ...(view ? { trend: refusedTrend(message) } : {}) };
 	}
 	const { r, problem, collector } = run;
-	const trend = view ? { trend: viewOf(r, problem, collector) } : {};
+	const trend = view ? { trend: viewOf(r, problem, collector), ...(r ? { trendEvents: r.events } : {}) } : {};
 	if (!hasVoltage || !r || !Number.isFinite(r.declaredV)) return { events: null, notes: [], ...trend };
 	const series = seriesByName(atRate, collector);
 	const events = foldInterruptions(r.events.filter((e) => e.kind !== 'rvc')).map((e) => toReportEvent(e, r, series));

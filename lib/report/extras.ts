@@ -6,7 +6,8 @@
 import type { Capture } from '../capture.js';
 import { neutralCurrentFigures } from '../polyphase/neutral.js';
 import { threePhasePowerFromHarmonics, type ThreePhaseInputPhase } from '../power/three-phase.js';
-import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
+import { powerWindowRms, type PowerSampleWindow } from '../power/window.js';
+import { PowerWindowSums } from './window-sums.js';
 import type { CycleWindow } from '../signal/cycles.js';
 import { perCycleFigures } from '../signal/per-cycle.js';
 import { channelSpectrum, type ChannelSpectrum, type WindowSlot } from './spectra.js';
@@ -73,6 +74,7 @@ export function threePhasePower(
 	spectra: (ChannelSpectrum | undefined)[],
 	window: PowerSampleWindow,
 	scratchOwner: DerivedScratch = {},
+	sums = new PowerWindowSums(window),
 ): ReportThreePhasePower | undefined {
 	const byPhase = [1, 2, 3].map((ph) => pairs.find((p) => p.phase === ph));
 	if (byPhase.some((p) => p === undefined)) return undefined;
@@ -83,9 +85,9 @@ export function threePhasePower(
 			voltage: spectra[p!.voltage]!.aggregate.set,
 			current: spectra[p!.current]!.aggregate.set,
 			totals: {
-				voltageRmsV: powerWindowRms(v.samples, window),
-				currentRmsA: powerWindowRms(i.samples, window),
-				activePowerW: activePowerFromSamplesW(v.samples, i.samples, window),
+				voltageRmsV: sums.rms(v.samples),
+				currentRmsA: sums.rms(i.samples),
+				activePowerW: sums.activePowerW(v.samples, i.samples),
 			},
 		};
 	}) as [ThreePhaseInputPhase, ThreePhaseInputPhase, ThreePhaseInputPhase];
@@ -120,12 +122,13 @@ export function neutralCurrent(
 	window: PowerSampleWindow,
 	maxOrder: number,
 	scratchOwner: DerivedScratch = {},
+	sums = new PowerWindowSums(window),
 ): ReportNeutral {
-	const phaseRms = currents.map((k) => powerWindowRms(capture.channels[k].samples, window)) as [number, number, number];
+	const phaseRms = currents.map((k) => sums.rms(capture.channels[k].samples)) as [number, number, number];
 	if (neutralIndex !== undefined) {
 		const f = neutralCurrentFigures(
 			'measured',
-			powerWindowRms(capture.channels[neutralIndex].samples, window),
+			sums.rms(capture.channels[neutralIndex].samples),
 			phaseRms,
 			spectra[neutralIndex]?.aggregate.set,
 		);

@@ -20,7 +20,8 @@ import {
 } from '../phasor/phasor.js';
 import { ieee1459FromComponents } from '../power/single-phase.js';
 import { crossCorrelationLag } from '../power/time-lag.js';
-import { activePowerFromSamplesW, powerWindowRms, type PowerSampleWindow } from '../power/window.js';
+import type { PowerSampleWindow } from '../power/window.js';
+import { PowerWindowSums } from './window-sums.js';
 import type { ChannelSpectrum } from './spectra.js';
 import type { ReportPairOverride, ReportPair, ReportPower, ReportThreePhase } from './types.js';
 
@@ -35,8 +36,8 @@ export function alignedFundamentals(
 ): (ComplexPhasor | undefined)[] {
 	const ref = spectra[refIndex];
 	if (!ref) return spectra.map(() => undefined);
-	const turns = ref.windows.map((w) => {
-		const a = phasorArgDeg(phasorFromHarmonic(w.set.orders[1]));
+	const turns = ref.fundamentals.map((f) => {
+		const a = phasorArgDeg(phasorFromHarmonic(f));
 		const rad = Number.isNaN(a) ? 0 : (-a * Math.PI) / 180;
 		return { re: Math.cos(rad), im: Math.sin(rad) };
 	});
@@ -44,12 +45,12 @@ export function alignedFundamentals(
 		if (!s) return undefined;
 		let re = 0;
 		let im = 0;
-		s.windows.forEach((w, k) => {
-			const p = phasorMul(phasorFromHarmonic(w.set.orders[1]), turns[k]);
+		s.fundamentals.forEach((f, k) => {
+			const p = phasorMul(phasorFromHarmonic(f), turns[k]);
 			re += p.re;
 			im += p.im;
 		});
-		return { re: re / s.windows.length, im: im / s.windows.length };
+		return { re: re / s.fundamentals.length, im: im / s.fundamentals.length };
 	});
 }
 
@@ -111,6 +112,7 @@ export function pairPower(
 	pair: PairingResult['pairs'][number],
 	spectra: (ChannelSpectrum | undefined)[],
 	window: PowerSampleWindow,
+	sums = new PowerWindowSums(window),
 ): Omit<ReportPower, 'relation' | 'loadSentence' | 'powerFactorIntervals'> {
 	const v = capture.channels[pair.voltage];
 	const i = capture.channels[pair.current];
@@ -123,8 +125,8 @@ export function pairPower(
 		// Fundamental complex power averaged over the windows: θ1 = its angle (P1 + jQ1 = V1·I1*).
 		let re = 0;
 		let im = 0;
-		sv.windows.forEach((w, k) => {
-			const s = complexPower(phasorFromHarmonic(w.set.orders[1]), phasorFromHarmonic(si.windows[k].set.orders[1]));
+		sv.fundamentals.forEach((f, k) => {
+			const s = complexPower(phasorFromHarmonic(f), phasorFromHarmonic(si.fundamentals[k]));
 			re += s.re;
 			im += s.im;
 		});
@@ -133,12 +135,12 @@ export function pairPower(
 		i1 = si.aggregate.set.orders[1].rms;
 	}
 	const q = ieee1459FromComponents({
-		voltageRmsV: powerWindowRms(v.samples, window),
-		currentRmsA: powerWindowRms(i.samples, window),
+		voltageRmsV: sums.rms(v.samples),
+		currentRmsA: sums.rms(i.samples),
 		v1RmsV: v1,
 		i1RmsA: i1,
 		theta1Deg,
-		activePowerW: activePowerFromSamplesW(v.samples, i.samples, window),
+		activePowerW: sums.activePowerW(v.samples, i.samples),
 	});
 	const ch = loadCharacterFromAngle(theta1Deg);
 	const all: Record<string, number> = {};

@@ -7,6 +7,7 @@ import { blockMeans } from '../signal/block-mean.js';
 import type { CycleWindow } from '../signal/cycles.js';
 import { harmonicWindowCore, type HarmonicWindowCore } from '../spectrum/harmonics.js';
 import { aggregateHarmonicWindows, type HarmonicAggregate } from '../spectrum/harmonic-analysis.js';
+import type { HarmonicPhasor } from '../spectrum/types.js';
 
 /** Where each harmonic window sits: start (fractional sample index), cycles and the cycle-synchronous fundamental. */
 export interface WindowSlot {
@@ -32,8 +33,13 @@ export function planWindows(window: CycleWindow, sampleRateHz: number, windowCyc
 }
 
 export interface ChannelSpectrum {
-	/** Each window's orders, bins and RMS (lib/spectrum harmonicWindowCore: no per-window groups or THD). */
-	windows: HarmonicWindowCore[];
+	/**
+	 * Each window's fundamental (order 1 of lib/spectrum harmonicWindowCore: RMS, phase at the window start),
+	 * all the relations read of single windows. The rest of each window (51 orders, 511 bins: about 8 KB)
+	 * is let go once the aggregate is made, so a long record's windows do not pile up (6 channels × 2,000
+	 * windows would hold ~100 MB).
+	 */
+	fundamentals: HarmonicPhasor[];
 	/**
 	 * Aggregate of the windows (lib/spectrum aggregateHarmonicWindows): magnitudes are the RMS of the
 	 * window values (IEC 61000-4-30 aggregation), phases the angle of the windows' phasor sum, at the first
@@ -69,7 +75,12 @@ export function channelSpectrum(
 		onWindow?.();
 		return w;
 	});
-	return { windows, aggregate: aggregateHarmonicWindows(windows) };
+	return spectrumOf(windows);
+}
+
+/** The aggregate of a channel's windows and each window's fundamental, the windows themselves dropped. */
+function spectrumOf(windows: HarmonicWindowCore[]): ChannelSpectrum {
+	return { fundamentals: windows.map((w) => w.set.orders[1]), aggregate: aggregateHarmonicWindows(windows) };
 }
 
 /**
@@ -97,5 +108,5 @@ function decimatedSpectrum(
 		onWindow?.();
 		return { ...w, startIndex: w.startIndex * m + shift, endIndex: w.endIndex * m + shift };
 	});
-	return { windows, aggregate: aggregateHarmonicWindows(windows) };
+	return spectrumOf(windows);
 }

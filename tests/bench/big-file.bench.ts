@@ -5,7 +5,10 @@
  * message. Reference measured in the same run on the same file: the CLI, `sinecheck analyse --json --jobs 0`
  * (readFileSync, openCaptures, analyseCapture; no trends). Target: under 6 s for the worker path
  * on a ~279 MB, 24 M-value CSV on this machine. Also printed: the stages the progress reported (each with
- * a fraction or an estimate), peak memory, and the load average (the machine is shared: compare ratios).
+ * a fraction or an estimate), the analysis's own steps (the fraction the bar showed as each began against
+ * the share of the analysing time gone by then: how honest the bar is), CPU seconds of both runs and of
+ * each stage (the machine is shared: CPU time moves less with the load than wall time), peak memory, and
+ * the load average (compare ratios).
  * The file (time + 6 channels x 4,000,000 rows, ~282 MB) is written once to a temporary folder and removed.
  */
 import { spawnSync } from 'node:child_process';
@@ -19,6 +22,9 @@ import { BIG_CHANNELS, BIG_ROWS, writeBigCsv } from './big-file.js';
 import { peakRssMB, printTable } from './measure.js';
 
 const TARGET_S = 6;
+/** Loaded before the CLI: prints its CPU seconds to stderr as it exits. */
+const CPU_AT_EXIT =
+	'data:text/javascript,process.on("exit",()=>{const c=process.cpuUsage();process.stderr.write("cpu-s "+(c.user+c.system)/1e6+"\\n")})';
 
 await ensureBuiltCli();
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-big-'));
@@ -40,8 +46,18 @@ try {
 	const blob = await openAsBlob(path);
 	const stages = new Map<
 		string,
-		{ firstMs: number; lastMs: number; updates: number; withFraction: number; withEstimate: number }
+		{
+			firstMs: number;
+			lastMs: number;
+			firstCpuUs: number;
+			lastCpuUs: number;
+			updates: number;
+			withFraction: number;
+			withEstimate: number;
+		}
 	>();
+	// each analysis step as it begins: time and the fraction shown
+	const steps: { step: string; atMs: number; fraction: number }[] = [];
 	const t0 = performance.now();
 	const cpu0 = process.cpuUsage();
 	const done = await new Promise<FromWorker>((resolve) => {
@@ -58,12 +74,20 @@ try {
 				const now = performance.now() - t0;
 				if (msg.type === 'progress') {
 					const key = msg.stage.replace(/ of .*| big-recording\.csv.*/, '');
-					const s = stages.get(key) ?? { firstMs: now, lastMs: now, updates: 0, withFraction: 0, withEstimate: 0 };
+					const c = process.cpuUsage(cpu0);
+					const cpuUs = c.user + c.system;
+					const s = stages.get(key) ?? {
+						...{ firstMs: now, lastMs: now, firstCpuUs: cpuUs, lastCpuUs: cpuUs },
+						...{ updates: 0, withFraction: 0, withEstimate: 0 },
+					};
 					s.lastMs = now;
+					s.lastCpuUs = cpuUs;
 					s.updates++;
 					if (msg.fraction !== null) s.withFraction++;
 					if (msg.etaS != null || msg.expectS !== undefined) s.withEstimate++;
 					stages.set(key, s);
+					const step = /^Analysing .*?: ([^(]*)/.exec(msg.stage)?.[1].trim();
+					if (step && step !== steps.at(-1)?.step) steps.push({ step, atMs: now, fraction: msg.fraction ?? NaN });
 				} else resolve(msg);
 			},
 		);
@@ -74,18 +98,28 @@ try {
 		throw new Error(`worker path ended with ${done.type}: ${JSON.stringify(done).slice(0, 300)}`);
 	const workerPeak = peakRssMB();
 
-	// the reference: the CLI on the same file
+	// the reference: the CLI on the same file (its CPU seconds written to stderr as it exits)
 	const tc = performance.now();
-	const cli = spawnSync(process.execPath, [mainJs, 'analyse', '--json', '--quiet', '--jobs', '0', path], {
-		encoding: 'utf8',
-		maxBuffer: 1 << 28,
-	});
+	const cli = spawnSync(
+		process.execPath,
+		['--import', CPU_AT_EXIT, mainJs, 'analyse', '--json', '--quiet', '--jobs', '0', path],
+		{ encoding: 'utf8', maxBuffer: 1 << 28 },
+	);
 	const cliMs = performance.now() - tc;
 	if (cli.status !== 0) throw new Error(`CLI exited ${cli.status}: ${cli.stderr}`);
+	const cliCpuS = Number(/cpu-s ([\d.]+)/.exec(cli.stderr)?.[1] ?? NaN);
 
 	printTable(
-		['stage (progress messages)', 'from s', 'to s', 'updates', 'with fraction', 'with estimate'],
-		[...stages].map(([k, s]) => [k, s.firstMs / 1000, s.lastMs / 1000, s.updates, s.withFraction, s.withEstimate]),
+		['stage (progress messages)', 'from s', 'to s', 'CPU s', 'updates', 'with fraction', 'with estimate'],
+		[...stages].map(([k, s]) => [
+			k,
+			s.firstMs / 1000,
+			s.lastMs / 1000,
+			(s.lastCpuUs - s.firstCpuUs) / 1e6,
+			s.updates,
+			s.withFraction,
+			s.withEstimate,
+		]),
 	);
 	printTable(
 		['run', 'wall s', 'CPU s', 'MB/s'],
@@ -96,11 +130,19 @@ try {
 				(cpu.user + cpu.system) / 1e6,
 				sizeMB / (workerMs / 1000),
 			],
-			['CLI analyse --jobs 0, reference', cliMs / 1000, NaN, sizeMB / (cliMs / 1000)],
+			['CLI analyse --jobs 0, reference', cliMs / 1000, cliCpuS, sizeMB / (cliMs / 1000)],
 		],
 	);
+	const analysing = stages.get('Analysing');
+	if (analysing) {
+		const spanMs = workerMs - analysing.firstMs;
+		printTable(
+			['analysis step', 'from s', 'fraction shown', 'share of analysing time'],
+			steps.map((s) => [s.step, s.atMs / 1000, s.fraction, (s.atMs - analysing.firstMs) / spanMs]),
+		);
+	}
 	console.log(
-		`worker path / CLI: ${(workerMs / cliMs).toFixed(2)}x; target ${TARGET_S} s for the worker path: ${workerMs / 1000 <= TARGET_S ? 'met' : `NOT met (${(workerMs / 1000 / TARGET_S).toFixed(1)}x over)`}`,
+		`worker path / CLI: ${(workerMs / cliMs).toFixed(2)}x wall, ${((cpu.user + cpu.system) / 1e6 / cliCpuS).toFixed(2)}x CPU; target ${TARGET_S} s for the worker path: ${workerMs / 1000 <= TARGET_S ? 'met' : `NOT met (${(workerMs / 1000 / TARGET_S).toFixed(1)}x over)`}`,
 	);
 	console.log(
 		`peak memory of this process: ${workerPeak.toFixed(0)} MB (file ${sizeMB.toFixed(0)} MB; samples as Float64 ${((BIG_ROWS * (BIG_CHANNELS + 1) * 8) / 1e6).toFixed(0)} MB)`,
