@@ -2,9 +2,12 @@
  * The per-file step of a survey without a detour through text: one file's TrendResult (lib/trend) as the
  * TrendDocument the merge step (`surveyInputFromTrend`) reads. The browser runs the trend analyser over
  * each picked file and hands these documents to the merge; the CLI writes the same fields as JSON.
+ * A recording of several files (lib/trend's recording analyser) also gives its files and gaps.
  * Flicker rides along: each 10-minute row gets its Pst and the document its 2-hour Plt values, in the
  * order of every channel (null for a channel that is not a voltage).
  */
+import type { Diagnostic } from '../capture.js';
+import type { RecordingResult } from '../trend/recording-types.js';
 import type { TrendResult } from '../trend/types.js';
 import type { TrendDocument } from './from-trend.js';
 
@@ -27,7 +30,7 @@ const orNull = (x: number): number | null => (Number.isFinite(x) ? x : null);
  * @param source  the file's name as the user knows it (shown in merge messages)
  * @example surveyInputFromTrend(files.map((f) => trendDocumentOf(f.name, analyseTrend(f.capture)))).input
  */
-export function trendDocumentOf(source: string, result: TrendResult): TrendDocument {
+export function trendDocumentOf(source: string, result: TrendResult | RecordingResult): TrendDocument {
 	const flicker = result.flicker;
 	const names = flicker?.channels ?? [];
 	const pstAt = (startS: number) => flicker?.pst.find((p) => Math.abs(p.startS - startS) < SAME_START_S);
@@ -76,5 +79,21 @@ export function trendDocumentOf(source: string, result: TrendResult): TrendDocum
 			plt: perChannel(result, names, p.values),
 			flagged: p.flagged,
 		})),
+		// a recording of several files read through one analyser: its files and the gaps between them
+		...('parts' in result
+			? {
+					parts: result.parts.map((p) => ({ ...p })),
+					gaps: result.gaps.map((g) => ({ ...g })),
+				}
+			: {}),
 	};
+}
+
+/**
+ * What the survey says beside its figures about a recording read through lib/trend: what each file's
+ * reader detected or assumed, overlaps, files taken in name order, events cut by a gap. The gaps
+ * themselves are left out: the merge (`surveyInputFromTrend`) reports each from the document's `gaps`.
+ */
+export function recordingNotesOf(result: TrendResult | RecordingResult): Diagnostic[] {
+	return result.diagnostics.filter((d) => d.code !== 'recording-gap');
 }

@@ -37,7 +37,7 @@ import {
 import { createRecordingAnalyser, RecordingMismatch, type RecordingAnalyser } from '../../../lib/trend/index.js';
 import type { RecordingResult } from '../../../lib/trend/index.js';
 import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/index.js';
-import { clockTimeOf } from '../../../lib/trend/index.js';
+import { clockTimeOf, orderRecordingParts } from '../../../lib/trend/index.js';
 import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
 import { openWavStream } from './wav-stream.js';
 
@@ -502,8 +502,10 @@ export interface RecordingFailure {
 }
 
 /**
- * The files in recording order: by stated start time when every file states one, else as given (and
- * that is reported). A file whose head cannot be read is a failure and left out.
+ * The files in recording order (lib/trend's orderRecordingParts, as the browser orders them): by stated
+ * start time when every file states one; by name when none does (reported); a file that states none while
+ * the others do is refused (it cannot be placed on their clock). A file whose head cannot be read is a
+ * failure and left out.
  */
 function orderFiles(
 	files: RecordingFile[],
@@ -512,25 +514,22 @@ function orderFiles(
 	notes: Diagnostic[],
 ): { ordered: RecordingFile[]; placement: 'clock' | 'sequence' } {
 	if (files.length < 2) return { ordered: files, placement: 'clock' };
-	const withStart: { f: RecordingFile; t: number | undefined }[] = [];
+	const infos: { file: RecordingFile; source: string; clockStartS?: number }[] = [];
 	for (const f of files) {
 		try {
-			withStart.push({ f, t: clockTimeOf(startOf(f.path, f.source, open))?.unixS });
+			infos.push({ file: f, source: f.source, clockStartS: clockTimeOf(startOf(f.path, f.source, open))?.unixS });
 		} catch (error) {
 			failures.push({ source: f.source, error });
 		}
 	}
-	const unstated = withStart.filter((x) => x.t === undefined);
-	if (unstated.length === 0) {
-		withStart.sort((a, b) => a.t! - b.t!);
-		return { ordered: withStart.map((x) => x.f), placement: 'clock' };
-	}
-	notes.push({
-		code: 'recording-order-as-given',
-		severity: 'assumption',
-		message: `${unstated.length} of ${withStart.length} files state no start time (the first: ${unstated[0].f.source}): the files are taken as one recording without gaps, one after another in the order given.`,
-	});
-	return { ordered: withStart.map((x) => x.f), placement: 'sequence' };
+	const order = orderRecordingParts(infos);
+	for (const { part, expected } of order.refused)
+		failures.push({
+			source: part.source,
+			error: new ImportError(part.source, 0, 0, 'not-same-recording', 'no start time', expected),
+		});
+	notes.push(...order.notes);
+	return { ordered: order.ordered.map((x) => x.file), placement: order.placement };
 }
 
 /** The target of one file: the bounds, then the recording's own checks, as located ImportErrors. */
