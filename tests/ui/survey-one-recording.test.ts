@@ -119,7 +119,7 @@ function cut(
 		if (skip.includes(k)) continue;
 		for (const f of record(format, k, edges[k], edges[k + 1])) {
 			writeFileSync(join(folder, f.name), f.bytes);
-			picked.unshift({ name: f.name, blob: new Blob([f.bytes]) });
+			picked.unshift({ name: f.name, blob: new Blob([new Uint8Array(f.bytes)]) });
 		}
 	}
 	return { folder, picked };

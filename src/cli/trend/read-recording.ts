@@ -37,7 +37,7 @@ import {
 import { createRecordingAnalyser, RecordingMismatch, type RecordingAnalyser } from '../../../lib/trend/index.js';
 import type { RecordingResult } from '../../../lib/trend/index.js';
 import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/index.js';
-import { clockTimeOf, orderRecordingParts } from '../../../lib/trend/index.js';
+import { clockTimeOf, orderRecordingParts, type RecordingPartInfo } from '../../../lib/trend/index.js';
 import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
 import { openWavStream } from './wav-stream.js';
 
@@ -487,6 +487,88 @@ function startOf(path: string, source: string, open: OpenOptions): string | unde
 		if (!(e instanceof HeaderFound)) throw e;
 	}
 	return found?.startTime;
+}
+
+/** Bytes of a CSV read to estimate its length from its rows' mean size. */
+const CSV_ESTIMATE_BYTES = 1 << 20;
+
+/**
+ * A CSV's length in s from its size: the data rows in its first MiB give the mean bytes per row (exact
+ * when the whole file is in that MiB). `bodyLine` is the 1-based line of the first data row.
+ */
+function csvDurationS(path: string, size: number, bodyLine: number, rateHz: number): { s: number; exact: boolean } {
+	const h = head(path, Math.min(size, CSV_ESTIMATE_BYTES));
+	let line = 1;
+	let body = 0;
+	let rows = 0;
+	let lastEnd = 0;
+	for (let i = 0; i < h.length; i++) {
+		if (h[i] !== 10) continue;
+		line++;
+		if (line === bodyLine) body = i + 1;
+		else if (line > bodyLine) rows++;
+		lastEnd = i + 1;
+	}
+	const whole = h.length === size;
+	if (whole) return { s: (rows + (lastEnd < size ? 1 : 0)) / rateHz, exact: true };
+	if (rows === 0) return { s: NaN, exact: false };
+	return { s: (size - body) / ((lastEnd - body) / rows) / rateHz, exact: false };
+}
+
+/**
+ * What a file says about itself before its samples: start time, sample rate, channels and length (exact
+ * from a COMTRADE sample count, estimated from the size for a CSV). A WAV states no start time: only its
+ * name. Reads the head of the file only (for a CSV, until its channels and rate are known).
+ * @throws ImportError when the head cannot be read
+ */
+export function probePart(path: string, source: string, open: OpenOptions): RecordingPartInfo {
+	const size = statSync(path).size;
+	const { kind } = detectFileKind(path, head(path, DETECT_HEAD_BYTES));
+	if (kind === 'wav' || kind === 'binary' || kind === 'comtrade-part') return { source };
+	if (kind === 'comtrade-cfg' || kind === 'comtrade-cff') {
+		if (kind === 'comtrade-cfg' && size > CFG_MAX_BYTES) return { source };
+		const cfg =
+			kind === 'comtrade-cfg'
+				? parseComtradeCfg(decodeText(new Uint8Array(readFileSync(path))).text, source)
+				: cffLayout(head(path, Math.min(size, CFF_HEAD_BYTES)), source, size).cfg;
+		let header: SampleStreamHeader | undefined;
+		const rate = streamableRate(cfg);
+		if (rate)
+			new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, { start: (h) => (header = h), samples() {} });
+		const last = cfg.rates[cfg.rates.length - 1];
+		return {
+			source,
+			clockStartS: clockTimeOf(cfg.firstData?.iso)?.unixS,
+			sampleRateHz: rate?.sampleRateHz,
+			channels: header?.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
+			durationS: rate && last ? last.endSample / rate.sampleRateHz : undefined,
+			durationExact: true,
+		};
+	}
+	let found: SampleStreamHeader | undefined;
+	const stream = new CsvSampleStream(source, csvOptionsWithSettings(open), {
+		start(h) {
+			found = h;
+			throw new HeaderFound();
+		},
+		samples() {},
+	});
+	try {
+		streamFile(path, (chunk) => stream.push(chunk));
+		stream.end();
+	} catch (e) {
+		if (!(e instanceof HeaderFound)) throw e;
+	}
+	if (!found) return { source };
+	const d = csvDurationS(path, size, stream.layout?.bodyLine ?? 1, found.sampleRateHz);
+	return {
+		source,
+		clockStartS: clockTimeOf(found.startTime)?.unixS,
+		sampleRateHz: found.sampleRateHz,
+		channels: found.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
+		durationS: Number.isFinite(d.s) ? d.s : undefined,
+		durationExact: d.exact,
+	};
 }
 
 /** One file of a recording: its path on disk and its name in messages. */
