@@ -11,8 +11,12 @@ import type { RecordingResult } from '../trend/recording-types.js';
 import type { TrendResult } from '../trend/types.js';
 import type { TrendDocument } from './from-trend.js';
 
-/** Two interval starts closer than this (s) are the same interval (they come from the same clock ticks). */
-const SAME_START_S = 1e-3;
+/**
+ * A 10-minute row and a Pst interval closer than this (s) are the same interval: both start at the same
+ * clock tick, the row at the first whole cycle from it (a cycle or two later), the Pst at the tick itself.
+ * Intervals are 600 s apart, so 1 s cannot pair two different ones.
+ */
+const SAME_START_S = 1;
 
 /** Per-channel values of a flicker row spread over every channel of the file, null where none was measured. */
 function perChannel(result: TrendResult, voltageNames: string[], values: number[]): (number | null)[] {
@@ -43,7 +47,9 @@ export function trendDocumentOf(source: string, result: TrendResult | RecordingR
 		durationS: result.durationS,
 		channels: result.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
 		aggregates: result.min10.map((r) => {
-			const pst = r.complete ? pstAt(r.startS) : undefined;
+			// the flickermeter's Pst of the interval, when it measured the whole 10 minutes (a row can be partial
+			// only because the 10/12-cycle window at a file's end was cut: the merge may complete it)
+			const pst = pstAt(r.startS);
 			return {
 				interval: r.interval,
 				startS: r.startS,

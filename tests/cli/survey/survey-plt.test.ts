@@ -14,78 +14,23 @@
  * A flickermeter of class F1 reads these test points to 5 % (IEC 61000-4-15:2010, performance tests; from
  * memory), so each Pst, and Plt, is checked to 5 %.
  */
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { surveyCommand } from '../../../src/cli/survey/index.js';
 import { trendCommand } from '../../../src/cli/trend/index.js';
-import { comtradeCfgText, comtradeDatBytes, type WriterSpec } from '../../../sample-waves/writers/comtrade.js';
-import { forEachChunk } from '../../helpers/flicker-signals.js';
+import { LEAD_S, writePltRecording } from '../../helpers/plt-recording.js';
 import { textSink } from '../trend/text-sink.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'sinecheck-plt-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-const FS = 1600;
-const LEAD_S = 10; // 07:59:50 to the 08:00:00 tick
-const FIRST_S = LEAD_S + 3600; // to 09:00:00, ΔV/V = 0.725 %
-const SECOND_S = 3605; // to 10:00:05, ΔV/V = 0.3625 %
-const START_MS = Date.parse('2026-05-04T07:59:50Z');
 const CUTS_S = [1234.5, 3610.25, 5000]; // four files; none on a 10-minute tick
-const DV = 0.00725;
-
-/** The whole signal: 50 Hz × 3610 s is a whole number of cycles, so the second part continues the wave. */
-function signal(): Float64Array {
-	const x = new Float64Array(Math.round((FIRST_S + SECOND_S) * FS));
-	let at = 0;
-	for (const [durationS, dv] of [
-		[FIRST_S, DV],
-		[SECOND_S, DV / 2],
-	])
-		forEachChunk(
-			{
-				sampleRateHz: FS,
-				mainsHz: 50,
-				rmsV: 230,
-				durationS,
-				modulation: { shape: 'rectangular', changesPerMinute: 110, deltaVOverV: dv },
-			},
-			(c) => {
-				x.set(c, at);
-				at += c.length;
-			},
-		);
-	return x;
-}
-
-function stamp(sample: number): string {
-	const d = new Date(START_MS + (sample * 1000) / FS);
-	const p = (v: number, w = 2) => String(v).padStart(w, '0');
-	const us = Math.round(((sample * 1e6) / FS) % 1e6);
-	return `${p(d.getUTCDate())}/${p(d.getUTCMonth() + 1)}/${d.getUTCFullYear()},${p(d.getUTCHours())}:${p(d.getUTCMinutes())}:${p(d.getUTCSeconds())}.${p(us, 6)}`;
-}
 
 function writeFiles(): string {
-	const x = signal();
 	const folder = join(dir, 'week');
-	mkdirSync(folder, { recursive: true });
-	const edges = [0, ...CUTS_S.map((t) => Math.round(t * FS)), x.length];
-	for (let k = 0; k + 1 < edges.length; k++) {
-		const spec: WriterSpec = {
-			station: 'Tallowmere Joinery',
-			device: 'flicker logger',
-			revYear: 2013,
-			lineFrequencyHz: 50,
-			rates: [{ sampleRateHz: FS, endSample: edges[k + 1] - edges[k] }],
-			firstData: stamp(edges[k]),
-			trigger: stamp(edges[k]),
-			fileType: 'BINARY32',
-			analog: [{ name: 'L1', phase: 'A', unit: 'V', a: 1e-6, values: x.subarray(edges[k], edges[k + 1]) }],
-		};
-		writeFileSync(join(folder, `part${k + 1}.cfg`), comtradeCfgText(spec));
-		writeFileSync(join(folder, `part${k + 1}.dat`), comtradeDatBytes(spec));
-	}
+	writePltRecording(folder, CUTS_S);
 	return folder;
 }
 
