@@ -70,7 +70,12 @@ export function orderRecordingParts<T extends RecordingPartInfo>(parts: readonly
 	const ordered = [...stated].sort((a, b) => a.clockStartS! - b.clockStartS! || byName(a.source, b.source));
 	const refused = unstated.map((part) => ({
 		part,
-		expected: `a start time, as the other files of this recording state (${ordered[0].source} starts at ${new Date(ordered[0].clockStartS! * 1000).toISOString()}): a file without one cannot be placed on the recording's clock, so it is left out`,
+		expected: `a start time, as the other files of this recording state (${ordered[0].source} starts at ${new Date(
+			ordered[0].clockStartS! * 1000,
+		)
+			.toISOString()
+			.replace('T', ' ')
+			.replace(/\.\d+Z$/, '')}): a file without one cannot be placed on the recording's clock, so it is left out`,
 	}));
 	return { ordered, placement: 'clock', refused, notes: [] };
 }

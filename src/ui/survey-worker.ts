@@ -263,6 +263,13 @@ function recordingName(parts: Part[]): string {
 	return `${parts[0].source} to ${parts[parts.length - 1].source} (${parts.length} files)`;
 }
 
+/** Why a record is not used, in words for its line in the file list (the problem list gives the details). */
+function notUsed(p: ImportProblem): string {
+	if (p.code === 'unreadable') return p.message;
+	const at = p.line > 0 ? ` (line ${p.line}${p.column > 0 ? `, column ${p.column}` : ''})` : '';
+	return `expected ${p.expected}${p.text ? `; it has ${p.text}` : ''}${at}`;
+}
+
 interface Read {
 	problems: ImportProblem[];
 	lines: SurveyFileLine[];
@@ -281,7 +288,7 @@ async function orderedParts(
 		} catch (e) {
 			const problem = toProblem(e, groupLabel(group));
 			read.problems.push(problem);
-			read.lines.push({ name: groupLabel(group), startS: null, durationS: 0, problem: problem.message });
+			read.lines.push({ name: groupLabel(group), startS: null, durationS: 0, problem: notUsed(problem) });
 		}
 	}
 	const order = orderRecordingParts(probed);
@@ -291,7 +298,7 @@ async function orderedParts(
 			part.source,
 		);
 		read.problems.push(problem);
-		read.lines.push({ name: part.source, startS: null, durationS: 0, problem: problem.message });
+		read.lines.push({ name: part.source, startS: null, durationS: 0, problem: notUsed(problem) });
 	}
 	return { parts: order.ordered, placement: order.placement, notes: order.notes };
 }
@@ -348,7 +355,7 @@ export async function runSurvey(
 		} catch (e) {
 			const problem = toProblem(e, part.source);
 			read.problems.push(problem);
-			failed.set(part.source, problem.message);
+			failed.set(part.source, notUsed(problem));
 		}
 		p.filesDone++;
 		onProgress({ ...p });

@@ -43,7 +43,7 @@ describe('orderRecordingParts', () => {
 		expect(o.placement).toBe('clock');
 		expect(o.ordered.map((p) => p.source)).toEqual(['h0.cfg', 'h1.cfg']);
 		expect(o.refused.map((r) => r.part.source)).toEqual(['extra.wav']);
-		expect(o.refused[0].expected).toContain('2026-05-04T08:00:00');
+		expect(o.refused[0].expected).toContain('starts at 2026-05-04 08:00:00)');
 	});
 });
 
