@@ -180,6 +180,8 @@ async function joinPlan(recordings: string[], open: OpenOptions): Promise<{ one:
 	const infos = [];
 	for (const r of recordings) {
 		try {
+			// only regular files are read (a FIFO would block); the others fail with their line when trended
+			if (regularFileProblem(r).message !== undefined) throw new Error('not a regular file');
 			infos.push(probePart(r, r, open));
 		} catch {
 			return {
