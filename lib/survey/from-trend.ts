@@ -5,6 +5,7 @@
  * parts are on the clock; an event cut by a file boundary becomes one event.
  */
 import type { Diagnostic } from '../capture.js';
+import { pltFromPst } from '../flicker/classifier.js';
 import { clockTimeOf } from '../trend/clock.js';
 import type { SurveyEvent, SurveyFrequency, SurveyInput, SurveyInterval, SurveyPlt } from './types.js';
 
@@ -207,6 +208,67 @@ function mergeEvents(placed: Placed[]): SurveyEvent[] {
 	return out.map(({ open: _open, ...e }) => e);
 }
 
+/** 10-minute values in one 2-hour long-term flicker value (IEC 61000-4-15:2010, 5.7.3; from memory). */
+const PLT_PST_COUNT = 12;
+
+/**
+ * Plt of documents merged from several files: from the merged 10-minute Pst values, in groups of 12
+ * consecutive complete intervals (each starting 10 minutes after the one before; a gap, a partial or an
+ * unmeasured interval starts a new group, an incomplete group is dropped), the cubic mean of each
+ * (lib/flicker's pltFromPst). A group is flagged when one of its intervals is. A file's own 2-hour values
+ * cannot be used: a file of an hour holds none, and a file boundary may cut one.
+ */
+function pltOfIntervals(intervals: readonly SurveyInterval[], channels: number): SurveyPlt[] {
+	const out: SurveyPlt[] = [];
+	let run: SurveyInterval[] = [];
+	for (const iv of intervals) {
+		const prev = run[run.length - 1];
+		const follows = prev && Math.abs(iv.startS - prev.startS - TEN_MIN_S) <= 1;
+		if (!iv.complete || !iv.pst || !iv.pst.every(Number.isFinite)) {
+			run = [];
+			continue;
+		}
+		if (!follows) run = [];
+		run.push(iv);
+		if (run.length === PLT_PST_COUNT) {
+			out.push({
+				startS: run[0].startS,
+				flagged: run.some((r) => r.flagged),
+				plt: Array.from({ length: channels }, (_, c) => pltFromPst(run.map((r) => r.pst![c]))),
+			});
+			run = [];
+		}
+	}
+	return out;
+}
+
+/**
+ * A document's last 10-minute value that ends on a clock tick where the next document continues without a
+ * gap is partial only because its last 10/12-cycle window was cut by the file boundary (that window's
+ * samples are in the next file's first value): it is taken as complete when it holds all but 1 s of the
+ * interval, the leniency joinParts gives a joined interval.
+ */
+function completeAtBoundaries(placed: readonly Placed[], lists: SurveyInterval[][]): void {
+	for (let k = 0; k + 1 < placed.length; k++) {
+		const last = lists[k][lists[k].length - 1];
+		const end = placed[k].baseS + placed[k].doc.durationS;
+		if (!last || last.complete || Math.abs(placed[k + 1].baseS - end) > JOIN_TOLERANCE_S) continue;
+		const tick = (Math.floor((last.startS + 1e-6) / TEN_MIN_S) + 1) * TEN_MIN_S;
+		if (Math.abs(end - tick) <= 1 && last.durationS >= TEN_MIN_S - 1)
+			lists[k][lists[k].length - 1] = { ...last, complete: true };
+	}
+}
+
+/** One document (one recording, however many files): its own Plt; several: Plt from the merged Pst. */
+function pltOf(placed: readonly Placed[], intervals: readonly SurveyInterval[], channels: number): SurveyPlt[] {
+	if (placed.length > 1) return pltOfIntervals(intervals, channels);
+	return (placed[0].doc.plt ?? []).map((r) => ({
+		startS: placed[0].baseS + r.startS,
+		flagged: r.flagged,
+		plt: placed[0].volts.map((i) => num(r.plt[i])),
+	}));
+}
+
 /**
  * One SurveyInput from the `trend` documents of consecutive files of one recording.
  * @throws SurveyMergeError when the files do not form one recording (different voltage channels or
@@ -255,6 +317,7 @@ export function surveyInputFromTrend(
 				message: `No data for ${g.durationS.toFixed(1)} s between ${g.after} and ${g.before}.`,
 			});
 	const lists = placed.map(intervalsOf);
+	if (clockAligned) completeAtBoundaries(placed, lists);
 	let covered = -Infinity;
 	const deduped = lists.map((list) => {
 		const kept = list.filter((iv) => iv.startS >= covered - JOIN_TOLERANCE_S);
@@ -266,13 +329,8 @@ export function surveyInputFromTrend(
 			.filter((f) => f.complete)
 			.map((f) => ({ startS: p.baseS + f.startS, frequencyHz: num(f.frequencyHz), flagged: f.flagged })),
 	);
-	const plt: SurveyPlt[] = placed.flatMap((p) =>
-		(p.doc.plt ?? []).map((r) => ({
-			startS: p.baseS + r.startS,
-			flagged: r.flagged,
-			plt: p.volts.map((i) => num(r.plt[i])),
-		})),
-	);
+	const intervals = mergeIntervals(deduped, clockAligned);
+	const plt = pltOf(placed, intervals, names.length);
 	const nominal = placed[0].doc.nominalHz === 60 ? 60 : 50;
 	const last = placed[placed.length - 1];
 	return {
@@ -283,7 +341,7 @@ export function surveyInputFromTrend(
 			spanStartS: placed[0].baseS,
 			spanEndS: placed.reduce((m, p) => Math.max(m, p.baseS + p.doc.durationS), last.baseS),
 			clockAligned,
-			intervals: mergeIntervals(deduped, clockAligned),
+			intervals,
 			frequency,
 			plt: plt.length ? plt : undefined,
 			events: mergeEvents(placed),

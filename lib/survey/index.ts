@@ -20,4 +20,4 @@ export {
 } from './event-table.js';
 export { shareWithinPercent, percentileNearestRank, finiteRange } from './statistics.js';
 export { surveyInputFromTrend, SurveyMergeError, type TrendDocument } from './from-trend.js';
-export { trendDocumentOf } from './from-result.js';
+export { recordingNotesOf, trendDocumentOf } from './from-result.js';

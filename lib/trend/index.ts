@@ -23,3 +23,11 @@ export {
 	type RecordingPartHeader,
 } from './recording.js';
 export type { RecordingGap, RecordingOverlap, RecordingPart, RecordingResult } from './recording-types.js';
+export {
+	byName,
+	orderRecordingParts,
+	planRecording,
+	type RecordingOrder,
+	type RecordingPartInfo,
+	type RecordingPlan,
+} from './recording-order.js';

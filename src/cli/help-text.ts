@@ -35,8 +35,10 @@ export const TREND_EXAMPLES: string[] = [
 	'sinecheck trend incomer.cfg --interval 10-min --dip-percent 85 --json',
 	'# flicker: Pst per 10 minutes and Plt per 2 hours per voltage channel, flagged around dips',
 	'sinecheck trend logger/week1.csv --nominal 230 --interval flicker > week1-flicker.csv',
-	'# a folder of hourly files that are one recording: read in start-time order as one, gaps reported',
-	'sinecheck trend logger/week2/ --one-recording --nominal 230 --interval 10-min > week2-10min.csv',
+	'# a folder of hourly files of one recording: read in start-time order as one, gaps reported (a note says so)',
+	'sinecheck trend logger/week2/ --nominal 230 --interval 10-min > week2-10min.csv',
+	'# the same files, one set of rows per file',
+	'sinecheck trend logger/week2/ --each-file --nominal 230 --interval 10-min > week2-per-file.csv',
 ];
 
 export const EXIT_CODES =

@@ -158,7 +158,7 @@ withChannelSettings(
 			'Per-cycle RMS trends (10/12-cycle, 150/180-cycle, 10-min) and dips, swells, interruptions of long recordings; folders are walked',
 		)
 		.usage('trend [...paths]  (recording files or folders; folders are walked for .csv .tsv .txt .wav .cfg .cff)')
-		.option('--json', 'One JSON document per file instead of CSV rows')
+		.option('--json', 'One JSON document per recording instead of CSV rows (an array when there are several)')
 		.option(
 			'--interval <which>',
 			'Rows in the CSV: 10/12-cycle (default, also 200ms), 150/180-cycle (3s), 10-min (10min), or flicker (Pst per 10 min and Plt per 2 h per voltage channel)',
@@ -176,8 +176,9 @@ withChannelSettings(
 	.option('--memory-limit <MiB>', 'Memory one file may use for its analysis, MiB (default: up to half the machine)')
 	.option(
 		'--one-recording',
-		'The files and folders given are one recording cut into many files: read in start-time order as one, gaps and overlaps between the files reported',
+		'The files and folders given are one recording cut into many files, even when they do not look it: read as one, gaps and overlaps between the files reported (files of one recording, with the same sample rate and channels and start times that follow on, are read as one without it)',
 	)
+	.option('--each-file', 'Each file is its own recording, with its own rows, even when the files make one recording')
 	.action(async (given: string[], options: Record<string, unknown>) => {
 		const files = withAfterDashes(given, options);
 		const settings = settingsFromOptions({
@@ -204,6 +205,7 @@ withChannelSettings(
 			thd: options.thd !== false,
 			harmonics: options.harmonics === true,
 			oneRecording: options.oneRecording === true,
+			eachFile: options.eachFile === true,
 			open,
 			timeLimitS: limits.timeLimitS,
 			memoryLimitMiB: limits.heapMiB,

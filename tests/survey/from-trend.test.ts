@@ -129,3 +129,43 @@ describe('surveyInputFromTrend', () => {
 		expect(() => surveyInputFromTrend([a, b])).toThrow(/L2/);
 	});
 });
+
+describe('surveyInputFromTrend: Plt and file boundaries on a tick (several documents)', () => {
+	/** An hour from `startTime`: six 10-min rows with Pst `pst(k)`; with `short`, the last row 0.2 s short at the file end. */
+	const hour = (source: string, startTime: string, pst: (k: number) => number, short = true): TrendDocument => {
+		const d = doc(
+			source,
+			startTime,
+			3600,
+			Array.from({ length: 6 }, (_, k) => ({
+				startS: 600 * k,
+				durationS: k === 5 && short ? 599.8 : 600,
+				v: 230,
+				complete: k < 5 || !short,
+			})),
+		);
+		d.aggregates.forEach((a, k) => (a.pst = [pst(k), null]));
+		return d;
+	};
+
+	it('the last row of an hourly file, short only by the window the boundary cut, counts; Plt is the cubic mean of the 12 merged Pst', () => {
+		const a = hour('h08.cfg', '2026-05-04T08:00:00Z', () => 1);
+		const b = hour('h09.cfg', '2026-05-04T09:00:00Z', (k) => 0.2 * (k + 1), false);
+		const { input } = surveyInputFromTrend([b, a]);
+		// 12 complete intervals: the 08:50 row of h08 continues without a gap into h09 at the 09:00 tick
+		expect(input.intervals.filter((i) => i.complete)).toHaveLength(12);
+		expect(input.plt).toHaveLength(1);
+		// Plt = ∛(Σ Pst³ / 12) (IEC 61000-4-15:2010, 5.7.3; from memory), by hand:
+		// 6 · 1 + 0.2³ + 0.4³ + 0.6³ + 0.8³ + 1.0³ + 1.2³ = 6 + 0.008 + 0.064 + 0.216 + 0.512 + 1 + 1.728 = 9.528
+		expect(input.plt![0].plt[0]).toBeCloseTo(Math.cbrt(9.528 / 12), 12);
+		expect(input.plt![0].startS).toBe(Date.parse('2026-05-04T08:00:00Z') / 1000);
+	});
+
+	it('with a gap after the first file its last row stays partial and no Plt is made (12 consecutive Pst are needed)', () => {
+		const a = hour('h08.cfg', '2026-05-04T08:00:00Z', () => 1);
+		const b = hour('h09.cfg', '2026-05-04T09:00:05Z', () => 1, false);
+		const { input } = surveyInputFromTrend([a, b]);
+		expect(input.intervals.filter((i) => i.complete).length).toBeLessThan(12);
+		expect(input.plt ?? []).toEqual([]);
+	});
+});

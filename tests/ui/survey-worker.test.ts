@@ -46,7 +46,7 @@ describe('runSurvey', () => {
 		expect(survey!.result.dips.counts[2][1]).toBe(1);
 	});
 
-	it('a file with other voltage channels is refused as not the same recording, naming it', async () => {
+	it('a file with other voltage channels is refused as not the same recording, naming it; the rest is surveyed', async () => {
 		const other = {
 			name: 'other-board.csv',
 			blob: new Blob([
@@ -59,11 +59,36 @@ describe('runSurvey', () => {
 			]),
 		};
 		const { survey, problems } = await runSurvey([parts[0], other], 'en50160', 230, () => undefined, toProblem);
-		expect(survey).toBeNull();
 		expect(problems).toHaveLength(1);
-		expect(problems[0].code).toBe('not-one-recording');
+		expect(problems[0].code).toBe('not-same-recording');
 		expect(problems[0].source).toBe('other-board.csv');
-		expect(problems[0].expected).toContain('voltage channels');
+		expect(problems[0].expected).toContain('channels of part1.csv');
+		expect(survey!.files.map((f) => [f.name, !!f.problem])).toEqual([
+			['part1.csv', false],
+			['other-board.csv', true],
+		]);
+		// only part1's 240 s x 1000 S/s went into the survey
+		expect(survey!.samples).toBe(SURVEY_FILE_S * SURVEY_RATE_HZ);
+	});
+
+	it('a file that states no start time beside files that do is refused by name (it cannot be placed on their clock); the rest is surveyed', async () => {
+		const rows = Array.from({ length: 2000 }, (_, i) => `${(i / 1000).toFixed(3)},325,325,310`).join('\n');
+		const unstated = { name: 'scope-export.csv', blob: new Blob([`time (s),L1 (V),L2 (V),L3 (V)\n${rows}\n`]) };
+		const { survey, problems } = await runSurvey(
+			[unstated, parts[1], parts[0]],
+			'en50160',
+			230,
+			() => undefined,
+			toProblem,
+		);
+		expect(problems.map((p) => [p.source, p.code])).toEqual([['scope-export.csv', 'not-same-recording']]);
+		expect(problems[0].expected).toContain('start time');
+		expect(survey!.files.map((f) => [f.name, !!f.problem])).toEqual([
+			['part1.csv', false],
+			['part2.csv', false],
+			['scope-export.csv', true],
+		]);
+		expect(survey!.samples).toBe(2 * SURVEY_FILE_S * SURVEY_RATE_HZ);
 	});
 
 	it('streams a COMTRADE record (.cfg with its .dat): the demo incomer dip, phase B to 55 % for 6 cycles (sample-waves ground truth), lands in the 70-40 % x 10-200 ms cell', async () => {

@@ -10,17 +10,18 @@ import { extname } from 'node:path';
 import type { OpenOptions } from '../../../lib/io/open.js';
 import { assessSurvey } from '../../../lib/survey/index.js';
 import {
+	recordingNotesOf,
 	SurveyMergeError,
 	surveyInputFromTrend,
 	trendDocumentOf,
 	type TrendDocument,
 } from '../../../lib/survey/index.js';
+import type { Diagnostic } from '../../../lib/capture.js';
 import type { SurveyStandardId } from '../../../lib/survey/types.js';
 import { collectUnits } from '../collect-files.js';
 import { ERROR_PREFIX, errorLine } from '../error-line.js';
 import { UsageError } from '../usage-error.js';
 import { analyseRecording, type RecordingFile } from '../trend/read-recording.js';
-import { trendJson } from '../trend/trend-output.js';
 import { surveyCsv, surveyJson, surveyTable } from './survey-output.js';
 
 export interface SurveyCommandOptions {
@@ -115,6 +116,7 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 		return 2;
 	}
 	const docs: TrendDocument[] = [];
+	const recordingNotes: Diagnostic[] = [];
 	const files: RecordingFile[] = [];
 	let failed = 0;
 	for (const path of paths) {
@@ -140,11 +142,10 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 			err.write(`${errorLine(f.error, f.source)}\n`);
 		}
 		if (result) {
-			// the merge's document with each interval's Pst and the Plt values (trendDocumentOf), and the
-			// recording's files and gaps
+			// the merge's document with each interval's Pst, the Plt values and the recording's files and gaps
 			const source = files.length === 1 ? files[0].source : paths.join(', ');
-			const { parts, gaps } = trendJson(source, result) as TrendDocument;
-			docs.push({ ...trendDocumentOf(source, result), parts, gaps });
+			docs.push(trendDocumentOf(source, result));
+			recordingNotes.push(...recordingNotesOf(result));
 		}
 	}
 	if (docs.length === 0) {
@@ -152,7 +153,10 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 		return 2;
 	}
 	try {
-		const { input, diagnostics } = surveyInputFromTrend(docs, declaredV);
+		const merged = surveyInputFromTrend(docs, declaredV);
+		const input = merged.input;
+		// what the readers detected or assumed and what the recording found (overlaps, order), then the merge's notes
+		const diagnostics = [...recordingNotes, ...merged.diagnostics];
 		const result = assessSurvey(input, standard);
 		const notes = diagnostics.map((d) => d.message);
 		if (options.json)

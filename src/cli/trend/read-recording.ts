@@ -37,7 +37,7 @@ import {
 import { createRecordingAnalyser, RecordingMismatch, type RecordingAnalyser } from '../../../lib/trend/index.js';
 import type { RecordingResult } from '../../../lib/trend/index.js';
 import { TREND_MAX_CHANNELS, trendLimitProblem } from '../../../lib/trend/index.js';
-import { clockTimeOf } from '../../../lib/trend/index.js';
+import { clockTimeOf, orderRecordingParts, type RecordingPartInfo } from '../../../lib/trend/index.js';
 import type { TrendChannelSpec, TrendOptions, TrendResult } from '../../../lib/trend/types.js';
 import { openWavStream } from './wav-stream.js';
 
@@ -489,6 +489,88 @@ function startOf(path: string, source: string, open: OpenOptions): string | unde
 	return found?.startTime;
 }
 
+/** Bytes of a CSV read to estimate its length from its rows' mean size. */
+const CSV_ESTIMATE_BYTES = 1 << 20;
+
+/**
+ * A CSV's length in s from its size: the data rows in its first MiB give the mean bytes per row (exact
+ * when the whole file is in that MiB). `bodyLine` is the 1-based line of the first data row.
+ */
+function csvDurationS(path: string, size: number, bodyLine: number, rateHz: number): { s: number; exact: boolean } {
+	const h = head(path, Math.min(size, CSV_ESTIMATE_BYTES));
+	let line = 1;
+	let body = 0;
+	let rows = 0;
+	let lastEnd = 0;
+	for (let i = 0; i < h.length; i++) {
+		if (h[i] !== 10) continue;
+		line++;
+		if (line === bodyLine) body = i + 1;
+		else if (line > bodyLine) rows++;
+		lastEnd = i + 1;
+	}
+	const whole = h.length === size;
+	if (whole) return { s: (rows + (lastEnd < size ? 1 : 0)) / rateHz, exact: true };
+	if (rows === 0) return { s: NaN, exact: false };
+	return { s: (size - body) / ((lastEnd - body) / rows) / rateHz, exact: false };
+}
+
+/**
+ * What a file says about itself before its samples: start time, sample rate, channels and length (exact
+ * from a COMTRADE sample count, estimated from the size for a CSV). A WAV states no start time: only its
+ * name. Reads the head of the file only (for a CSV, until its channels and rate are known).
+ * @throws ImportError when the head cannot be read
+ */
+export function probePart(path: string, source: string, open: OpenOptions): RecordingPartInfo {
+	const size = statSync(path).size;
+	const { kind } = detectFileKind(path, head(path, DETECT_HEAD_BYTES));
+	if (kind === 'wav' || kind === 'binary' || kind === 'comtrade-part') return { source };
+	if (kind === 'comtrade-cfg' || kind === 'comtrade-cff') {
+		if (kind === 'comtrade-cfg' && size > CFG_MAX_BYTES) return { source };
+		const cfg =
+			kind === 'comtrade-cfg'
+				? parseComtradeCfg(decodeText(new Uint8Array(readFileSync(path))).text, source)
+				: cffLayout(head(path, Math.min(size, CFF_HEAD_BYTES)), source, size).cfg;
+		let header: SampleStreamHeader | undefined;
+		const rate = streamableRate(cfg);
+		if (rate)
+			new ComtradeSampleStream(cfg, source, source, open.comtrade ?? {}, { start: (h) => (header = h), samples() {} });
+		const last = cfg.rates[cfg.rates.length - 1];
+		return {
+			source,
+			clockStartS: clockTimeOf(cfg.firstData?.iso)?.unixS,
+			sampleRateHz: rate?.sampleRateHz,
+			channels: header?.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
+			durationS: rate && last ? last.endSample / rate.sampleRateHz : undefined,
+			durationExact: true,
+		};
+	}
+	let found: SampleStreamHeader | undefined;
+	const stream = new CsvSampleStream(source, csvOptionsWithSettings(open), {
+		start(h) {
+			found = h;
+			throw new HeaderFound();
+		},
+		samples() {},
+	});
+	try {
+		streamFile(path, (chunk) => stream.push(chunk));
+		stream.end();
+	} catch (e) {
+		if (!(e instanceof HeaderFound)) throw e;
+	}
+	if (!found) return { source };
+	const d = csvDurationS(path, size, stream.layout?.bodyLine ?? 1, found.sampleRateHz);
+	return {
+		source,
+		clockStartS: clockTimeOf(found.startTime)?.unixS,
+		sampleRateHz: found.sampleRateHz,
+		channels: found.channels.map((c) => ({ name: c.name, quantity: c.quantity, unit: c.unit })),
+		durationS: Number.isFinite(d.s) ? d.s : undefined,
+		durationExact: d.exact,
+	};
+}
+
 /** One file of a recording: its path on disk and its name in messages. */
 export interface RecordingFile {
 	path: string;
@@ -502,8 +584,10 @@ export interface RecordingFailure {
 }
 
 /**
- * The files in recording order: by stated start time when every file states one, else as given (and
- * that is reported). A file whose head cannot be read is a failure and left out.
+ * The files in recording order (lib/trend's orderRecordingParts, as the browser orders them): by stated
+ * start time when every file states one; by name when none does (reported); a file that states none while
+ * the others do is refused (it cannot be placed on their clock). A file whose head cannot be read is a
+ * failure and left out.
  */
 function orderFiles(
 	files: RecordingFile[],
@@ -512,25 +596,22 @@ function orderFiles(
 	notes: Diagnostic[],
 ): { ordered: RecordingFile[]; placement: 'clock' | 'sequence' } {
 	if (files.length < 2) return { ordered: files, placement: 'clock' };
-	const withStart: { f: RecordingFile; t: number | undefined }[] = [];
+	const infos: { file: RecordingFile; source: string; clockStartS?: number }[] = [];
 	for (const f of files) {
 		try {
-			withStart.push({ f, t: clockTimeOf(startOf(f.path, f.source, open))?.unixS });
+			infos.push({ file: f, source: f.source, clockStartS: clockTimeOf(startOf(f.path, f.source, open))?.unixS });
 		} catch (error) {
 			failures.push({ source: f.source, error });
 		}
 	}
-	const unstated = withStart.filter((x) => x.t === undefined);
-	if (unstated.length === 0) {
-		withStart.sort((a, b) => a.t! - b.t!);
-		return { ordered: withStart.map((x) => x.f), placement: 'clock' };
-	}
-	notes.push({
-		code: 'recording-order-as-given',
-		severity: 'assumption',
-		message: `${unstated.length} of ${withStart.length} files state no start time (the first: ${unstated[0].f.source}): the files are taken as one recording without gaps, one after another in the order given.`,
-	});
-	return { ordered: withStart.map((x) => x.f), placement: 'sequence' };
+	const order = orderRecordingParts(infos);
+	for (const { part, expected } of order.refused)
+		failures.push({
+			source: part.source,
+			error: new ImportError(part.source, 0, 0, 'not-same-recording', 'no start time', expected),
+		});
+	notes.push(...order.notes);
+	return { ordered: order.ordered.map((x) => x.file), placement: order.placement };
 }
 
 /** The target of one file: the bounds, then the recording's own checks, as located ImportErrors. */

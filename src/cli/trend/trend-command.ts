@@ -1,8 +1,11 @@
 /**
  * `sinecheck trend <file...>`: per-cycle trends and voltage events of long recordings.
  * CSV of the aggregates on stdout (rows written as they are measured), or with --json one JSON document
- * per file. Events, diagnostics and errors go to stderr, one line each; progress only on a terminal.
- * A folder is walked as `analyse` walks it (collect-files.ts); a COMTRADE .cfg takes its .dat.
+ * per recording. Events, diagnostics and errors go to stderr, one line each; progress only on a terminal.
+ * A folder is walked as `analyse` walks it (collect-files.ts); a COMTRADE .cfg takes its .dat. Several
+ * files are ONE recording (one analyser, in start-time order) when they fit one (same sample rate and
+ * channels, start times stated, each following the one before: joinPlan), or with `oneRecording`;
+ * otherwise, or with `eachFile`, each file is its own recording. A note on stderr says which was assumed.
  * Error lines have the `analyse` command's shape: `sinecheck: <path as given>[:line[:column]]: message`
  * (`sinecheck: <path>: byte N: message` for an offset in a binary file).
  * Returns the exit code: 0 ok, 2 usage or input error.
@@ -45,9 +48,12 @@ export interface TrendCommandOptions {
 	memoryLimitMiB?: number;
 	/**
 	 * The files and folders given are ONE recording split over many files: ordered by start time, fed
-	 * through one analyser (state carried across the files), gaps and overlaps reported.
+	 * through one analyser (state carried across the files), gaps and overlaps reported. Without it (and
+	 * without `eachFile`) the files are one recording when they fit one (joinPlan).
 	 */
 	oneRecording?: boolean;
+	/** Each file is its own recording (its own rows or JSON document), even when the files fit one recording. */
+	eachFile?: boolean;
 	/** Trend in this process, without the time and memory limits of a helper process. */
 	inProcess?: boolean;
 	/** Output streams (tests); default process.stdout / process.stderr. */
@@ -162,6 +168,37 @@ async function trendInHelper(
 	return stopped === undefined ? line : `${problemLine({ file: job.file, code: 'stopped', message: stopped })}`;
 }
 
+/**
+ * Whether the recording files given fit one recording (lib/trend's planRecording: the same sample rate and
+ * channels, every start time stated, each file following the one before on the clock), read from each
+ * file's head; a file whose head cannot be read makes them separate (its error comes when it is trended).
+ * @returns whether to join them, and the note saying what was assumed
+ */
+async function joinPlan(recordings: string[], open: OpenOptions): Promise<{ one: boolean; note: string }> {
+	const { probePart } = await import('./read-recording.js');
+	const { planRecording } = await import('../../../lib/trend/index.js');
+	const infos = [];
+	for (const r of recordings) {
+		try {
+			// only regular files are read (a FIFO would block); the others fail with their line when trended
+			if (regularFileProblem(r).message !== undefined) throw new Error('not a regular file');
+			infos.push(probePart(r, r, open));
+		} catch {
+			return {
+				one: false,
+				note: `the ${recordings.length} files are trended one by one (${r} could not be read before trending)`,
+			};
+		}
+	}
+	const plan = planRecording(infos);
+	return plan.one
+		? { one: true, note: `${plan.summary} (--each-file trends each file on its own)` }
+		: {
+				one: false,
+				note: `the ${recordings.length} files are trended one by one, as separate recordings: ${plan.reason} (--one-recording reads them as one recording anyway)`,
+			};
+}
+
 /** Runs the trend command over `files`; see the module comment. */
 export async function trendCommand(files: string[], options: TrendCommandOptions = {}): Promise<number> {
 	const out = options.stdout ?? process.stdout;
@@ -204,7 +241,17 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 			err.write(`${trendErrorLine(e, path)}\n`);
 		}
 	}
-	if (options.oneRecording && recordings.length > 1) {
+	if (options.oneRecording && options.eachFile) {
+		err.write(`${PREFIX}trend: give --one-recording or --each-file, not both\n`);
+		return 2;
+	}
+	let join = options.oneRecording === true;
+	if (!join && !options.eachFile && recordings.length > 1) {
+		const plan = await joinPlan(recordings, options.open ?? {});
+		join = plan.one;
+		err.write(`${printable(`note: ${plan.note}`)}\n`);
+	}
+	if (join && recordings.length > 1) {
 		// one recording: its name is the paths given; every file of it is checked and read in one job
 		const label = files.join(', ');
 		unitFiles.set(

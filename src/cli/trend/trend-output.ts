@@ -4,6 +4,7 @@ import type { TrendChannelSpec, TrendEvent, TrendResult, TrendRow } from '../../
 import type { TrendFlicker } from '../../../lib/trend/flicker-tracker.js';
 import type { RecordingResult } from '../../../lib/trend/recording-types.js';
 import { maxOf } from '../../../lib/signal/index.js';
+import { trendDocumentOf } from '../../../lib/survey/index.js';
 
 /** CSV cell: the shared formula guard and RFC 4180 quoting (lib/report/csv-cell.ts). */
 const cell = (text: string): string => csvCell(text);
@@ -62,13 +63,16 @@ export function eventLine(e: TrendEvent, declaredV: number): string {
  * { source, declaredV, declaredVSource, nominalHz, sampleRateHz, durationS, startTime (ISO 8601, UTC or the
  *   recorder's clock as written; null when the file states none), clockStartS, referenceChannel, thresholds,
  *   channels: [{name, quantity, unit}], aggregates: [TrendRow...] (10/12-cycle, then 150/180-cycle,
- *   then 10-min; rms/thdPercent in channel order), frequency: [10 s rows], events: [{ kind, channels,
+ *   then 10-min; rms/thdPercent in channel order; a complete 10-min row also pst, per channel, null where
+ *   not a voltage), frequency: [10 s rows], events: [{ kind, channels,
  *   startS, durationS, residualV | maximumV, percentOfDeclared, ended }], diagnostics }; for a recording
  *   read through read-recording.ts also parts: [{ source, startS, samples }], gaps: [{ startS, durationS,
  *   after, before }], overlaps: [{ source, startS, durationS, droppedSamples }].
  * Times in s from the first sample (of the first file). NaN becomes null.
  */
 export function trendJson(source: string, r: TrendResult | RecordingResult): unknown {
+	// each complete 10-min row with its Pst per channel (null where not a voltage), as the survey's merge reads it
+	const min10 = trendDocumentOf(source, r).aggregates;
 	return {
 		source,
 		declaredV: r.declaredV,
@@ -81,7 +85,11 @@ export function trendJson(source: string, r: TrendResult | RecordingResult): unk
 		referenceChannel: r.referenceChannel,
 		thresholds: r.thresholds,
 		channels: r.channels,
-		aggregates: [...r.cycles10, ...r.cycles150, ...r.min10],
+		aggregates: [
+			...r.cycles10,
+			...r.cycles150,
+			...r.min10.map((row, k) => (min10[k].pst ? { ...row, pst: min10[k].pst } : row)),
+		],
 		frequency: r.frequency,
 		events: r.events,
 		flicker: r.flicker ?? null,
