@@ -24,10 +24,12 @@ import { checkedThresholds, EventPipeline } from './event-pipeline.js';
 import { FrequencyAggregator } from './frequency-aggregator.js';
 import { trendLimitProblem, trendRingLength } from './limits.js';
 import { RowEmitter } from './row-emitter.js';
-import { TrendFlickerTracker } from './flicker-tracker.js';
-import type { TrendChannelSpec, TrendOptions, TrendResult } from './types.js';
+import { flagFlicker, TrendFlickerTracker, type TrendFlicker } from './flicker-tracker.js';
+import type { TrendChannelSpec, TrendEvent, TrendOptions, TrendResult } from './types.js';
 import { recordingTicks, WindowClock } from './window-clock.js';
 import { WINDOW_PAD, WindowMeter } from './window-meter.js';
+import { TrendHelperLink } from './helper-link.js';
+import type { PendingRow } from './row-emitter.js';
 
 export { TREND_DEFAULT_THRESHOLDS } from './event-pipeline.js';
 
@@ -43,6 +45,9 @@ export interface TrendAnalyser {
 
 /** Samples per channel scanned between two rounds of window measuring and event detection. */
 const BLOCK = 4096;
+
+/** Smallest ring when a helper thread shares the work (2^17 samples: 13 s at 10 kS/s), so it can fall behind a little. */
+const HELPER_RING = 1 << 17;
 
 /**
  * A window must not start before the interpolation taps of the THD have samples: 8-point Lagrange reads
@@ -111,6 +116,13 @@ class StreamingTrend implements TrendAnalyser {
 	private readonly flicker: TrendFlickerTracker | null;
 	private readonly events: EventPipeline;
 	private readonly trackers: CrossingTracker[] = [];
+	/** The helper thread's session, when one was given and free. */
+	private readonly link: TrendHelperLink | undefined;
+	private readonly wantFlicker: boolean;
+	/** The views of one block handed to the flickermeters (reused). */
+	private readonly flickerPart: Float64Array[] = [];
+	/** Per pending row measured `later`: the helper's ticket. */
+	private readonly tickets = new Map<PendingRow, number>();
 	/** Samples the event detection stays behind the newest sample. */
 	private readonly lag: number;
 	private abs = 0;
@@ -120,7 +132,11 @@ class StreamingTrend implements TrendAnalyser {
 		const o = (this.o = checkedOptions(opts));
 		const { fs, voltage, vIndex, ref } = o;
 		const diagnostics = this.diagnostics;
-		const rings = (this.rings = o.channels.map(() => new Float64Array(trendRingLength(fs, BLOCK))));
+		const ticks = (this.ticks = recordingTicks(fs, opts.clockStartS));
+		// asked quietly here (the helper needs to know); the note, if any, comes in its place below
+		this.wantFlicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, []);
+		this.link = this.openLink(this.wantFlicker, ticks.tenMinutes.offset / fs);
+		const rings = (this.rings = this.link?.rings ?? o.channels.map(() => new Float64Array(trendRingLength(fs, BLOCK))));
 		this.meter = new WindowMeter({
 			sampleRateHz: fs,
 			rings,
@@ -129,12 +145,11 @@ class StreamingTrend implements TrendAnalyser {
 			thdMethod: opts.thdMethod,
 			harmonics: opts.harmonics,
 		});
-		const ticks = (this.ticks = recordingTicks(fs, opts.clockStartS));
 		const clock = (this.clock = new WindowClock(fs, opts.nominalHz, ticks.tenMinutes, diagnostics));
 		const frequency = (this.frequency = new FrequencyAggregator(fs, ticks.frequency));
 		this.rows = new RowEmitter(o.nCh, opts.keep, opts.onRow, (s) => clock.tickOf(s), ticks.tenMinutes.offset === 0);
 		this.flicker =
-			opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics)
+			opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) && !this.link
 				? new TrendFlickerTracker(
 						fs,
 						o.channels,
@@ -187,6 +202,7 @@ class StreamingTrend implements TrendAnalyser {
 		for (let off = 0; off < n; off += BLOCK) {
 			const m = Math.min(BLOCK, n - off);
 			const pos = this.abs & (ringLen - 1);
+			this.link?.beforeWrite(this.abs + m - ringLen);
 			for (let c = 0; c < nCh; c++) {
 				const first = Math.min(m, ringLen - pos);
 				rings[c].set(chunk[c].subarray(off, off + first), pos);
@@ -195,8 +211,19 @@ class StreamingTrend implements TrendAnalyser {
 			for (const t of this.trackers) t.scan(chunk[t.channel], off, off + m, this.abs);
 			this.abs += m;
 			this.afterBlock(false);
+			this.flickerBlock(chunk, off, m);
 		}
-		this.flicker?.push(chunk, this.clock.nominalHz, this.events.declaredV);
+	}
+
+	/** The block just pushed (chunk[c][off, off + m)) to the flickermeters, here or on the helper. */
+	private flickerBlock(chunk: Float64Array[], off: number, m: number): void {
+		const { nominalHz } = this.clock;
+		const { declaredV } = this.events;
+		if (this.link && this.wantFlicker) this.link.flicker(this.abs - m, m, nominalHz, declaredV);
+		if (!this.flicker) return;
+		const part = this.flickerPart;
+		for (let c = 0; c < chunk.length; c++) part[c] = chunk[c].subarray(off, off + m);
+		this.flicker.push(part, nominalHz, declaredV);
 	}
 
 	/** Measures the windows whose samples (and the pad after them) are in, then detects and releases rows. */
@@ -205,16 +232,66 @@ class StreamingTrend implements TrendAnalyser {
 		const windows = clock.windows;
 		while (windows.length > 0 && (final || windows[0].end + WINDOW_PAD <= abs)) {
 			const w = windows.shift()!;
-			rows.pending.push({ start: w.start, end: w.end, row: this.meter.measure(w, clock.cyclesPerWindow, abs) });
+			const cycles = clock.cyclesPerWindow;
+			const later = this.link !== undefined && this.meter.sharesWindows && this.link.takesWindow;
+			const p: PendingRow = { start: w.start, end: w.end, row: this.meter.measure(w, cycles, abs, later) };
+			if (later) this.tickets.set(p, this.link!.window(w.startT, w.endT, cycles));
+			rows.pending.push(p);
 		}
 		const pos = final ? Infinity : abs - this.lag;
 		if (!events.advance(pos, final, clock.nominalHz)) return;
-		rows.release(pos, frequency.pending, (s, e) => events.overlaps(s, e));
+		if (this.tickets.size > 0) this.completeRows(pos, final);
+		rows.release(
+			pos,
+			frequency.pending,
+			(s, e) => events.overlaps(s, e),
+			this.tickets.size > 0 ? this.tickets : undefined,
+		);
 		// A window not yet measured can start up to a ring length back (an overlapping restart at a tick).
 		const ringLen = this.rings[0].length;
 		events.forgetBefore(
 			Math.min(rows.oldestPending, frequency.pending[0]?.start ?? Infinity, frequency.openStart, abs - ringLen),
 		);
+	}
+
+	/**
+	 * Adds the helper's harmonic figures to the rows ready to go out (up to `pos`), in order, while they
+	 * are done; waits for them at the end or when the helper holds its most windows.
+	 */
+	private completeRows(pos: number, final: boolean): void {
+		const link = this.link!;
+		for (const p of this.rows.pending) {
+			if (p.end > pos) return;
+			const ticket = this.tickets.get(p);
+			if (ticket === undefined) continue;
+			if (!final && !link.ready(ticket)) return;
+			this.meter.complete(p.row, link.take(ticket));
+			this.tickets.delete(p);
+		}
+	}
+
+	/** A helper session for the flickermeters and harmonic windows, when a helper was given and is free. */
+	private openLink(wantFlicker: boolean, intervalOffsetS: number): TrendHelperLink | undefined {
+		const { opts, o } = this;
+		const fs = o.fs;
+		const fastThd = opts.thd !== false && (opts.thdMethod ?? 'lagrange') === 'lagrange';
+		return TrendHelperLink.open(opts.helper, {
+			ringLength: Math.max(trendRingLength(fs, BLOCK), HELPER_RING),
+			channelCount: o.nCh,
+			sampleRateHz: fs,
+			thd: fastThd ? { harmonics: opts.harmonics === true } : null,
+			flicker: wantFlicker
+				? { channels: o.channels, voltage: o.voltage, keepPinst: opts.flickerPinst === true, intervalOffsetS }
+				: null,
+		});
+	}
+
+	/** Ends the helper's session: its notes, and its flicker result flagged by `events`. */
+	private endLink(nominalHz: number, events: TrendEvent[]): TrendFlicker | undefined {
+		const r = this.link!.end(nominalHz, this.events.declaredV);
+		this.diagnostics.push(...r.diagnostics);
+		if (r.flicker) flagFlicker(r.flicker, events);
+		return r.flicker;
 	}
 
 	finish(): TrendResult {
@@ -234,7 +311,9 @@ class StreamingTrend implements TrendAnalyser {
 		this.diagnostics.push(...this.endNotes());
 		const voltageNames = o.voltage.map((c) => o.channels[c].name);
 		const found = events.events(abs, o.fs, voltageNames);
-		const flickerResult = this.flicker?.finish(nominalHz, found, events.declaredV);
+		const flickerResult = this.link
+			? this.endLink(nominalHz, found)
+			: this.flicker?.finish(nominalHz, found, events.declaredV);
 		return {
 			sampleRateHz: o.fs,
 			nominalHz,

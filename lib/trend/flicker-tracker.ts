@@ -94,15 +94,23 @@ export class TrendFlickerTracker {
 	 */
 	push(chunk: Float64Array[], nominalHz: number | undefined, declaredV = NaN): void {
 		this.declaredV = declaredV;
+		let from = 0;
 		if (!this.meters) {
-			if (nominalHz === undefined && this.pendingSamples < INFERENCE_BUFFER_S * this.sampleRateHz) {
-				this.pending.push(this.voltage.map((c) => chunk[c].slice()));
-				this.pendingSamples += chunk[0].length;
-				return;
+			// At most INFERENCE_BUFFER_S wait, cut at that sample: the same however the samples are chunked.
+			const room = Math.ceil(INFERENCE_BUFFER_S * this.sampleRateHz) - this.pendingSamples;
+			const n = chunk[this.voltage[0]].length;
+			if (nominalHz === undefined && room > 0) {
+				from = Math.min(room, n);
+				this.pending.push(this.voltage.map((c) => chunk[c].slice(0, from)));
+				this.pendingSamples += from;
+				if (from === n && from < room) return;
 			}
 			this.start(nominalHz === 60 ? 60 : 50);
 		}
-		for (let k = 0; k < this.voltage.length; k++) this.feed(k, chunk[this.voltage[k]]);
+		for (let k = 0; k < this.voltage.length; k++) {
+			const x = chunk[this.voltage[k]];
+			this.feed(k, from === 0 ? x : x.subarray(from));
+		}
 	}
 
 	private feed(k: number, x: Float64Array): void {
@@ -173,9 +181,6 @@ export class TrendFlickerTracker {
 		if (!this.meters) this.start(nominalHz === 60 ? 60 : 50);
 		this.startChanges(nominalHz === 60 ? 60 : 50);
 		const results = this.meters!.map((m) => m.finish());
-		const flagging = events.filter((e) => e.kind !== 'rvc');
-		const flagged = (startS: number, durationS: number) =>
-			flagging.some((e) => e.startS < startS + durationS && e.startS + e.durationS > startS);
 		const rows = (
 			pick: (r: FlickerResult) => { startS: number; durationS: number; value: number }[],
 		): TrendFlickerRow[] =>
@@ -183,7 +188,7 @@ export class TrendFlickerTracker {
 				startS: first.startS,
 				durationS: first.durationS,
 				values: results.map((r) => pick(r)[k].value),
-				flagged: flagged(first.startS, first.durationS),
+				flagged: false,
 			}));
 		if (results.some((r) => r.nonFiniteSamples > 0)) {
 			this.diagnostics.push({
@@ -193,7 +198,7 @@ export class TrendFlickerTracker {
 					'Flicker: missing or non-finite samples were bridged by repeating the previous value; the Pst around them is doubtful.',
 			});
 		}
-		return {
+		const out: TrendFlicker = {
 			channels: this.voltage.map((c) => this.channels[c].name),
 			lamp: results[0].lamp,
 			pst: rows((r) => r.pst.map((p) => ({ startS: p.startS, durationS: p.durationS, value: p.pst }))),
@@ -204,5 +209,14 @@ export class TrendFlickerTracker {
 				? { pinst: { startS: results[0].pinstBlocks?.startS ?? [], max: results.map((r) => r.pinstBlocks?.max ?? []) } }
 				: {}),
 		};
+		flagFlicker(out, events);
+		return out;
 	}
+}
+
+/** Flags each Pst and Plt row of `f` that a dip, swell or interruption of `events` overlaps. */
+export function flagFlicker(f: TrendFlicker, events: readonly TrendEvent[]): void {
+	const flagging = events.filter((e) => e.kind !== 'rvc');
+	for (const r of [...f.pst, ...f.plt])
+		r.flagged = flagging.some((e) => e.startS < r.startS + r.durationS && e.startS + e.durationS > r.startS);
 }

@@ -31,3 +31,9 @@ export {
 	type RecordingPartInfo,
 	type RecordingPlan,
 } from './recording-order.js';
+export {
+	runTrendHelperSession,
+	type TrendHelperChannel,
+	type TrendHelperInit,
+	type TrendHelperResult,
+} from './helper-link.js';

@@ -54,10 +54,18 @@ export class RowEmitter {
 		this.groupAligned = startsOnTick;
 	}
 
-	/** Sends out, flagged by `overlaps`, the rows and frequency values ending at or before sample `pos`. */
-	release(pos: number, frequency: PendingFrequency[], overlaps: (start: number, end: number) => boolean): void {
+	/**
+	 * Sends out, flagged by `overlaps`, the rows and frequency values ending at or before sample `pos`; the
+	 * rows stop at the first one still in `waiting` (its harmonic figures not yet in).
+	 */
+	release(
+		pos: number,
+		frequency: PendingFrequency[],
+		overlaps: (start: number, end: number) => boolean,
+		waiting?: ReadonlyMap<PendingRow, unknown>,
+	): void {
 		const pending = this.pending;
-		while (pending.length > 0 && pending[0].end <= pos) {
+		while (pending.length > 0 && pending[0].end <= pos && !waiting?.has(pending[0])) {
 			const p = pending.shift()!;
 			p.row.flagged = overlaps(p.start, p.end);
 			this.emit10(p.start, p.row);

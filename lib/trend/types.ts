@@ -4,6 +4,7 @@
  */
 import type { Diagnostic, Quantity } from '../capture.js';
 import type { TrendFlicker } from './flicker-tracker.js';
+import type { TrendHelperChannel } from './helper-link.js';
 
 /** One channel as the analyser sees it: samples arrive through `push`, in this order. */
 export interface TrendChannelSpec {
@@ -83,6 +84,11 @@ export interface TrendOptions {
 	flicker?: boolean;
 	/** Keep the highest Pinst of every second per voltage channel in `flicker.pinst` (for plots). Default false. */
 	flickerPinst?: boolean;
+	/**
+	 * A second thread to share the work with (lib/trend/helper-link.ts; the front end makes it): the
+	 * flickermeters and some harmonic windows run there. The result is the same to the last bit.
+	 */
+	helper?: TrendHelperChannel;
 }
 
 /** Aggregation interval kinds of IEC 61000-4-30 (docs/methods.md §3.2). */

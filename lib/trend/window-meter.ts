@@ -11,6 +11,7 @@ import { harmonicWindow, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import { addSquares } from './crossing-tracker.js';
 import { TREND_MAX_ORDER, WindowThd, type WindowThdOut } from './window-thd.js';
 import { windowUnbalancePercent } from './window-unbalance.js';
+import { unpackWindow } from './helper-link.js';
 import type { TrendOptions, TrendRow } from './types.js';
 import type { WindowSpan } from './window-clock.js';
 
@@ -34,6 +35,7 @@ export class WindowMeter {
 	nonFiniteWindows = 0;
 	firstNonFinite = { channel: 0, startS: 0 };
 	private readonly sinc: boolean;
+	private readonly lagrange: boolean;
 	private readonly scratch: Float64Array | undefined;
 	/** What window-thd.ts fills per window (THD, orders, fundamentals), reused. */
 	private readonly fastOut: WindowThdOut;
@@ -51,7 +53,7 @@ export class WindowMeter {
 		this.mask = ringLen - 1;
 		this.wantThd = o.thd ?? true;
 		this.sinc = this.wantThd && method === 'sinc';
-		const lagrange = this.wantThd && method === 'lagrange';
+		const lagrange = (this.lagrange = this.wantThd && method === 'lagrange');
 		this.scratch = this.sinc ? new Float64Array(ringLen) : undefined;
 		const nCh = o.rings.length;
 		// Unbalance per window from the fundamentals of exactly three voltage channels (IEC 61000-4-30:2015,
@@ -65,8 +67,11 @@ export class WindowMeter {
 		};
 	}
 
-	/** The row of window `w` (`samples` pushed so far) of `cycles` cycles, unflagged. */
-	measure(w: WindowSpan, cycles: number, samples: number): TrendRow {
+	/**
+	 * The row of window `w` (`samples` pushed so far) of `cycles` cycles, unflagged. With `later`, the
+	 * harmonic figures are left out (THD NaN) for `complete` to add from a helper's result.
+	 */
+	measure(w: WindowSpan, cycles: number, samples: number, later = false): TrendRow {
 		const nCh = this.o.rings.length;
 		const fs = this.o.sampleRateHz;
 		const lengthT = w.endT - w.startT;
@@ -77,11 +82,7 @@ export class WindowMeter {
 			if (!Number.isFinite(rms[c]) && this.nonFiniteWindows++ === 0)
 				this.firstNonFinite = { channel: c, startS: w.startT / fs };
 		}
-		const fast = this.fastOut;
-		if (this.wantThd && !this.sinc) this.fastThdOf(w, cycles);
-		for (let c = 0; c < nCh; c++)
-			thd[c] = this.sinc ? this.sincThd(c, w, cycles, samples) : this.wantThd ? fast.thd[c] : NaN;
-		const harm = fast.harmonics?.map((h) => Array.from(h));
+		for (let c = 0; c < nCh; c++) thd[c] = this.sinc ? this.sincThd(c, w, cycles, samples) : NaN;
 		const row: TrendRow = {
 			interval: '10/12-cycle',
 			startS: w.startT / fs,
@@ -93,9 +94,31 @@ export class WindowMeter {
 			rms,
 			thdPercent: thd,
 		};
+		if (!this.lagrange || later) return row;
+		this.fastThdOf(w, cycles);
+		this.addFast(row);
+		return row;
+	}
+
+	/** Whether windows may be measured `later` (the fast THD method is on). */
+	get sharesWindows(): boolean {
+		return this.lagrange;
+	}
+
+	/** Adds to a row measured `later` the harmonic figures of `packed` (helper-link.ts's packWindow layout). */
+	complete(row: TrendRow, packed: Float64Array): void {
+		unpackWindow(packed, this.fastOut, this.o.rings.length);
+		this.copyPhasors();
+		this.addFast(row);
+	}
+
+	/** THD, orders and unbalance from `fastOut` into the row. */
+	private addFast(row: TrendRow): void {
+		const fast = this.fastOut;
+		for (let c = 0; c < row.thdPercent.length; c++) row.thdPercent[c] = fast.thd[c];
+		const harm = fast.harmonics?.map((h) => Array.from(h));
 		if (harm) row.harmonicsPercent = harm;
 		if (this.phasors) row.unbalancePercent = windowUnbalancePercent(this.phasors);
-		return row;
 	}
 
 	/** RMS of channel `c` over exactly startT..endT: sample j stands for [j − ½, j + ½). */
@@ -122,8 +145,13 @@ export class WindowMeter {
 		if (!this.fastThd || this.fastThd.cycles !== cycles) this.fastThd = new WindowThd(cycles);
 		const out = this.fastOut;
 		this.fastThd.thdWindow(this.o.rings, this.mask, w.startT, w.endT, this.o.sampleRateHz, out);
+		this.copyPhasors();
+	}
+
+	/** The voltage channels' fundamentals from `fastOut` into `phasors`. */
+	private copyPhasors(): void {
 		const ph = this.phasors;
-		const f = out.fundamentals;
+		const f = this.fastOut.fundamentals;
 		if (!ph || !f) return;
 		for (let k = 0; k < 3; k++) {
 			const c = this.o.voltage[k];

@@ -179,6 +179,10 @@ withChannelSettings(
 		'The files and folders given are one recording cut into many files, even when they do not look it: read as one, gaps and overlaps between the files reported (files of one recording, with the same sample rate and channels and start times that follow on, are read as one without it)',
 	)
 	.option('--each-file', 'Each file is its own recording, with its own rows, even when the files make one recording')
+	.option(
+		'--threads <n>',
+		'1, or 2 to share the analysis of a recording with a second thread (default 2 on a machine with 2 or more cores; the figures are the same)',
+	)
 	.action(async (given: string[], options: Record<string, unknown>) => {
 		const files = withAfterDashes(given, options);
 		const settings = settingsFromOptions({
@@ -206,6 +210,7 @@ withChannelSettings(
 			harmonics: options.harmonics === true,
 			oneRecording: options.oneRecording === true,
 			eachFile: options.eachFile === true,
+			threads: options.threads as string | undefined,
 			open,
 			timeLimitS: limits.timeLimitS,
 			memoryLimitMiB: limits.heapMiB,

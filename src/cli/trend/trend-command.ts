@@ -56,6 +56,8 @@ export interface TrendCommandOptions {
 	eachFile?: boolean;
 	/** Trend in this process, without the time and memory limits of a helper process. */
 	inProcess?: boolean;
+	/** Threads per recording: 1, or 2 (default) to share the work with a second thread on a machine with 2 or more cores. */
+	threads?: number | string;
 	/** Output streams (tests); default process.stdout / process.stderr. */
 	stdout?: NodeJS.WritableStream;
 	stderr?: NodeJS.WritableStream & { isTTY?: boolean };
@@ -205,9 +207,11 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	const err = options.stderr ?? process.stderr;
 	const tty = (err as { isTTY?: boolean }).isTTY === true;
 	let parsed: ReturnType<typeof settingsFrom>;
+	let threads: number;
 	try {
 		if (files.length === 0) throw new TrendUsageError('trend: give at least one recording file or folder');
 		parsed = settingsFrom(options);
+		threads = num('threads', options.threads, (x) => x === 1 || x === 2, '1 or 2 (threads)') ?? 2;
 	} catch (e) {
 		err.write(`${printable(`${PREFIX}${e instanceof Error ? e.message : String(e)}`)}\n`);
 		return 2;
@@ -304,6 +308,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 				flickerCsv,
 				several,
 				progress: tty,
+				threads,
 			};
 			let line: string | undefined;
 			try {

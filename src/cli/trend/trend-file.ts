@@ -8,6 +8,7 @@ import type { OpenOptions } from '../../../lib/io/open.js';
 import type { TrendChannelSpec, TrendInterval, TrendResult } from '../../../lib/trend/types.js';
 import { analyseRecording, type AnalyserSettings } from './read-recording.js';
 import { errorLine } from '../error-line.js';
+import { helperThread, settleHelperThread } from './helper-thread.js';
 import { csvRow, eventLine, flickerCsvHeader, flickerCsvRows, flickerLine, trendJson } from './trend-output.js';
 
 export interface TrendJob {
@@ -26,6 +27,8 @@ export interface TrendJob {
 	several: boolean;
 	/** Report progress (only when stderr is a terminal). */
 	progress: boolean;
+	/** Threads to analyse with: 2 shares the work with a second thread (helper-thread.ts) where there are 2 cores. */
+	threads?: number;
 }
 
 /** Where the pieces of one file's trend go, in order. */
@@ -68,29 +71,37 @@ export function trendFile(job: TrendJob, sink: TrendSink): void {
 			}
 		: undefined;
 	const parts = job.parts ?? [file];
-	const { result: read, failures } = analyseRecording(
-		parts.map((f) => ({ path: f, source: f })),
-		job.open,
-		{
-			...job.settings,
-			// CSV rows go out as they are measured, so nothing accumulates; JSON keeps them all.
-			keep: json ? undefined : { cycles10: false, cycles150: false, min10: false },
-			onRow: json
-				? undefined
-				: (row) => {
-						if (flickerCsv || row.interval !== interval) return;
-						pending.push(csvRow(row, several ? file : undefined));
-						if (pending.length >= ROWS_PER_WRITE) flush();
-					},
-		},
-		{
-			onProgress,
-			onChannels: (chs) => {
-				flush();
-				sink.channels(chs);
+	const helper = helperThread(job.threads ?? 1);
+	let analysed: ReturnType<typeof analyseRecording>;
+	try {
+		analysed = analyseRecording(
+			parts.map((f) => ({ path: f, source: f })),
+			job.open,
+			{
+				...job.settings,
+				helper,
+				// CSV rows go out as they are measured, so nothing accumulates; JSON keeps them all.
+				keep: json ? undefined : { cycles10: false, cycles150: false, min10: false },
+				onRow: json
+					? undefined
+					: (row) => {
+							if (flickerCsv || row.interval !== interval) return;
+							pending.push(csvRow(row, several ? file : undefined));
+							if (pending.length >= ROWS_PER_WRITE) flush();
+						},
 			},
-		},
-	);
+			{
+				onProgress,
+				onChannels: (chs) => {
+					flush();
+					sink.channels(chs);
+				},
+			},
+		);
+	} finally {
+		settleHelperThread();
+	}
+	const { result: read, failures } = analysed;
 	flush();
 	// one file: its error is the job's; of several, each failed file is a line and the rest still counts
 	if (!read || (parts.length === 1 && failures.length > 0)) {
