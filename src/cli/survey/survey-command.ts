@@ -22,6 +22,7 @@ import { collectUnits } from '../collect-files.js';
 import { ERROR_PREFIX, errorLine } from '../error-line.js';
 import { UsageError } from '../usage-error.js';
 import { analyseRecording, type RecordingFile } from '../trend/read-recording.js';
+import { helperThread, settleHelperThread } from '../trend/helper-thread.js';
 import { surveyCsv, surveyJson, surveyTable } from './survey-output.js';
 
 export interface SurveyCommandOptions {
@@ -33,6 +34,8 @@ export interface SurveyCommandOptions {
 	/** One CSV row per rule line and per event-table cell. */
 	csv?: boolean;
 	open?: OpenOptions;
+	/** Threads per recording: 1, or 2 (default) to share the work with a second thread where there are 2 or more cores. */
+	threads?: number | string;
 	stdout?: NodeJS.WritableStream;
 	stderr?: NodeJS.WritableStream;
 }
@@ -97,6 +100,7 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 	let standard: SurveyStandardId;
 	let declaredV: number | undefined;
 	let nominalHz: number | undefined;
+	let threads: number;
 	try {
 		if (paths.length === 0)
 			throw new UsageError('survey: give the recording files or folders (or trend JSON files) of one recording');
@@ -110,6 +114,7 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 			'the declared supply voltage in V (line-to-neutral for line-to-neutral channels)',
 		);
 		nominalHz = number('frequency', options.frequency, (x) => x === 50 || x === 60, '50 or 60 (Hz)');
+		threads = number('threads', options.threads, (x) => x === 1 || x === 2, '1 or 2 (threads)') ?? 2;
 		if (options.json && options.csv) throw new UsageError('survey: give --json or --csv, not both');
 	} catch (e) {
 		err.write(`${ERROR_PREFIX}${(e as Error).message}\n`);
@@ -131,12 +136,19 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 	}
 	if (files.length > 0) {
 		// every recording file given is one recording: one analyser, fed in start-time order
-		const { result, failures } = analyseRecording(files, options.open ?? {}, {
-			declaredV,
-			nominalHz: nominalHz as 50 | 60 | undefined,
-			harmonics: true,
-			keep: { cycles10: false, cycles150: false, min10: true },
-		});
+		let analysed: ReturnType<typeof analyseRecording>;
+		try {
+			analysed = analyseRecording(files, options.open ?? {}, {
+				declaredV,
+				nominalHz: nominalHz as 50 | 60 | undefined,
+				harmonics: true,
+				keep: { cycles10: false, cycles150: false, min10: true },
+				helper: helperThread(threads),
+			});
+		} finally {
+			settleHelperThread();
+		}
+		const { result, failures } = analysed;
 		for (const f of failures) {
 			failed++;
 			err.write(`${errorLine(f.error, f.source)}\n`);

@@ -149,4 +149,15 @@ describe('second analysis thread', () => {
 		expect(usage.status).toBe(2);
 		expect(usage.stderr).toMatch(/--threads 3: expected 1 or 2/);
 	}, 120_000);
+
+	it('survey prints the same with 1 and 2 threads', () => {
+		const run = (threads: string) =>
+			spawnSync(process.execPath, [mainJs, 'survey', '--json', '--threads', threads, wav], { encoding: 'utf8' });
+		const one = run('1');
+		const two = run('2');
+		expect(one.status).toBe(0);
+		expect(JSON.parse(one.stdout)).toBeTruthy();
+		expect(two.stdout).toBe(one.stdout);
+		expect(two.stderr).toBe(one.stderr);
+	}, 120_000);
 });
