@@ -79,10 +79,11 @@ const FLICKER = 1,
 /** Result slots: the most harmonic windows handed over and not yet taken back. */
 const SLOTS = 64;
 /**
- * The most harmonic windows the helper may have waiting: beyond, the analyser measures the window itself
- * rather than wait (the helper also runs the flickermeters, so its share finds its own level).
+ * How far behind the analyser the helper may be, s of recording, and still be handed a harmonic window:
+ * beyond, the analyser measures the window itself rather than wait. The helper also runs the
+ * flickermeters, so its share of the windows finds its own level.
  */
-const HELPER_BACKLOG = 16;
+const HELPER_LAG_S = 0.4;
 
 /** How long one wait sleeps before it looks for a failed helper again, ms. */
 const WAIT_SLICE_MS = 2000;
@@ -114,6 +115,9 @@ export class TrendHelperLink {
 	private submitted = 0;
 	private done = 0;
 	private readonly lowest = new Float64Array(CMD_CAP);
+	/** Per queue slot, the newest sample the command needs (how far the helper has come). */
+	private readonly upTo = new Float64Array(CMD_CAP);
+	private readonly lagLimit: number;
 	/** Tickets of the harmonic windows submitted and not yet taken back, oldest first, and their result slots. */
 	private readonly windowTickets: number[] = [];
 	private readonly windowSlots: number[] = [];
@@ -144,6 +148,7 @@ export class TrendHelperLink {
 	) {
 		this.v = views(init);
 		this.rings = this.v.rings;
+		this.lagLimit = HELPER_LAG_S * init.sampleRateHz;
 	}
 
 	/** Waits until every command still reading ring samples below `sample` is done (before they are overwritten). */
@@ -156,23 +161,22 @@ export class TrendHelperLink {
 
 	/** Samples [start, start + n) (in the rings) to the flickermeters, with what the analyser knows now. */
 	flicker(start: number, n: number, nominalHz: number | undefined, declaredV: number): void {
-		this.submit(FLICKER, start, n, nominalHz ?? NaN, declaredV, start);
+		this.submit(FLICKER, start, n, nominalHz ?? NaN, declaredV, start, start + n);
 	}
 
-	/** Whether the helper should take another harmonic window now (few waiting there, a result slot free). */
+	/** Whether the helper should take another harmonic window now (not far behind, a result slot free). */
 	get takesWindow(): boolean {
-		const t = this.windowTickets;
-		if (t.length >= SLOTS) return false;
+		if (this.windowTickets.length >= SLOTS) return false;
 		const done = this.poll();
-		let waiting = 0;
-		for (let k = t.length - 1; k >= 0 && t[k] >= done; k--) waiting++;
-		return waiting < HELPER_BACKLOG;
+		if (done === this.submitted) return true;
+		const newest = this.upTo[(this.submitted - 1) % CMD_CAP];
+		return newest - this.upTo[done % CMD_CAP] < this.lagLimit;
 	}
 
 	/** The harmonic window startT..endT (sample indices) of `cycles` cycles; returns its ticket. */
 	window(startT: number, endT: number, cycles: number): number {
 		const slot = this.freeSlots.pop()!;
-		const ticket = this.submit(HARMONICS, startT, endT, cycles, slot, Math.floor(startT) - 4);
+		const ticket = this.submit(HARMONICS, startT, endT, cycles, slot, Math.floor(startT) - 4, endT);
 		this.windowTickets.push(ticket);
 		this.windowSlots.push(slot);
 		return ticket;
@@ -200,7 +204,7 @@ export class TrendHelperLink {
 
 	/** Ends the session: the flicker result (flags not set) and the helper's notes. */
 	end(nominalHz: number, declaredV: number): TrendHelperResult {
-		const ticket = this.submit(END, nominalHz, declaredV, 0, 0, Infinity);
+		const ticket = this.submit(END, nominalHz, declaredV, 0, 0, Infinity, Infinity);
 		this.waitDone(ticket);
 		return this.channel.result();
 	}
@@ -209,7 +213,7 @@ export class TrendHelperLink {
 		return (this.done = Atomics.load(this.v.control, DONE));
 	}
 
-	private submit(kind: number, a: number, b: number, c: number, d: number, lowest: number): number {
+	private submit(kind: number, a: number, b: number, c: number, d: number, lowest: number, upTo: number): number {
 		const ticket = this.submitted;
 		if (ticket - this.poll() >= CMD_CAP) this.waitDone(ticket - CMD_CAP);
 		const at = (ticket % CMD_CAP) * CMD_WIDTH;
@@ -220,6 +224,7 @@ export class TrendHelperLink {
 		q[at + 3] = c;
 		q[at + 4] = d;
 		this.lowest[ticket % CMD_CAP] = lowest;
+		this.upTo[ticket % CMD_CAP] = upTo;
 		const ctl = this.v.control;
 		Atomics.store(ctl, SUBMITTED, ++this.submitted);
 		if (Atomics.load(ctl, HELPER_WAITING) === 1) Atomics.notify(ctl, SUBMITTED);
