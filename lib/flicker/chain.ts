@@ -4,7 +4,7 @@
  * with the Pinst classification of block 5 folded in. One loop over local variables.
  */
 import type { FlickerDesign } from './design.js';
-import { pinstClass } from './classifier.js';
+import { PINST_CLASS_SHIFT, PINST_CLASS_VIEWS } from './classifier.js';
 
 /**
  * Largest normalised square the demodulator passes: (v/Vrms)² above 10⁴ (a voltage 100 times its running
@@ -103,6 +103,8 @@ export class FlickerChain {
 			sm = s[SMOOTH], u = s[LAST_U];
 		let max = out.max,
 			sum = out.sum;
+		// Pinst classified inline (classifier.ts pinstClass): no call per value
+		const { f32, u32 } = PINST_CLASS_VIEWS;
 		for (let i = from; i < to; i++) {
 			const m = sq[i];
 			ms += aA * (m - ms);
@@ -126,7 +128,8 @@ export class FlickerChain {
 			vb = v2 * yu - v4 * yv;
 			sm += aS * (yv * yv - sm);
 			const pinst = scale * sm;
-			counts[pinstClass(pinst)]++;
+			f32[0] = pinst;
+			counts[u32[0] >>> PINST_CLASS_SHIFT]++;
 			if (pinst > max) max = pinst;
 			sum += pinst;
 		}
