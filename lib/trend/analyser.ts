@@ -46,8 +46,12 @@ export interface TrendAnalyser {
 /** Samples per channel scanned between two rounds of window measuring and event detection. */
 const BLOCK = 4096;
 
-/** Smallest ring when a helper thread shares the work (2^17 samples: 13 s at 10 kS/s), so it can fall behind a little. */
+/**
+ * Smallest ring when a helper thread shares the work (2^17 samples: 13 s at 10 kS/s), so it can fall
+ * behind a little; not beyond HELPER_RING_BYTES for all channels (then the usual length).
+ */
 const HELPER_RING = 1 << 17;
+const HELPER_RING_BYTES = 64 * 2 ** 20;
 
 /**
  * A window must not start before the interpolation taps of the THD have samples: 8-point Lagrange reads
@@ -276,7 +280,7 @@ class StreamingTrend implements TrendAnalyser {
 		const fs = o.fs;
 		const fastThd = opts.thd !== false && (opts.thdMethod ?? 'lagrange') === 'lagrange';
 		return TrendHelperLink.open(opts.helper, {
-			ringLength: Math.max(trendRingLength(fs, BLOCK), HELPER_RING),
+			ringLength: Math.max(trendRingLength(fs, BLOCK), o.nCh * HELPER_RING * 8 <= HELPER_RING_BYTES ? HELPER_RING : 0),
 			channelCount: o.nCh,
 			sampleRateHz: fs,
 			thd: fastThd ? { harmonics: opts.harmonics === true } : null,
