@@ -91,7 +91,7 @@ function sequenceNote(docs: readonly TrendDocument[], onClock: (d: TrendDocument
 	const message =
 		unstated.length === files.length
 			? `None of these files states when it started: ${fileList(files)}. They are ${placed}.`
-			: `${fileList(unstated)} ${unstated.length === 1 ? 'states' : 'state'} no start time, so the start times of the other files are not used either: all ${files.length} files (${fileList(files)}) are ${placed}.`;
+			: `${fileList(unstated)} ${unstated.length === 1 ? 'states' : 'state'} no start time, so the start times of the other files are not used either. All ${files.length} files are ${placed}: ${fileList(files)}.`;
 	return { code: 'survey-no-start-time', severity: 'assumption', message };
 }
 

@@ -62,7 +62,7 @@ export function orderRecordingParts<T extends RecordingPartInfo>(parts: readonly
 						{
 							code: 'recording-order-by-name',
 							severity: 'assumption',
-							message: `None of the ${parts.length} files states its start time (${fileList(ordered.map((p) => p.source))}): they are taken as one recording without gaps, one right after another in the order of their names.`,
+							message: `None of the ${parts.length} files states its start time: ${fileList(ordered.map((p) => p.source))}. They are taken as one recording without gaps, one right after another in the order of their names.`,
 						},
 					]
 				: [];

@@ -152,7 +152,8 @@ describe('surveyInputFromTrend', () => {
 		const b = doc('a.csv', null, 600, [{ startS: 0, durationS: 600, v: 230, complete: true }]);
 		const [note] = surveyInputFromTrend([a, b]).diagnostics.filter((d) => d.code === 'survey-no-start-time');
 		expect(note.message).toMatch(/^a\.csv states no start time/);
-		expect(note.message).toContain('all 2 files (b.cfg and a.csv)');
+		expect(note.message).toContain('All 2 files are');
+		expect(note.message).toMatch(/: b\.cfg and a\.csv\.$/);
 		expect(note.message).toContain('in the order they were given');
 	});
 
