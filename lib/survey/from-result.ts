@@ -97,9 +97,10 @@ export function trendDocumentOf(source: string, result: TrendResult | RecordingR
 
 /**
  * What the survey says beside its figures about a recording read through lib/trend: what each file's
- * reader detected or assumed, overlaps, files taken in name order, events cut by a gap. The gaps
- * themselves are left out: the merge (`surveyInputFromTrend`) reports each from the document's `gaps`.
+ * reader detected or assumed, overlaps, events cut by a gap. Left out, because the merge
+ * (`surveyInputFromTrend`) reports them from the document's `gaps` and `parts`: the gaps themselves, and
+ * the files taken one after another in name order (the merge names each of them).
  */
 export function recordingNotesOf(result: TrendResult | RecordingResult): Diagnostic[] {
-	return result.diagnostics.filter((d) => d.code !== 'recording-gap');
+	return result.diagnostics.filter((d) => d.code !== 'recording-gap' && d.code !== 'recording-order-by-name');
 }

@@ -7,6 +7,8 @@
 import type { Diagnostic } from '../capture.js';
 import { pltFromPst } from '../flicker/classifier.js';
 import { clockTimeOf } from '../trend/clock.js';
+import { fileList } from '../trend/file-list.js';
+import { byName } from '../trend/recording-order.js';
 import type { SurveyEvent, SurveyFrequency, SurveyInput, SurveyInterval, SurveyPlt } from './types.js';
 
 /** The fields of a `trend` JSON document the survey reads (other fields are ignored). */
@@ -69,6 +71,30 @@ interface Placed {
 	volts: number[];
 }
 
+/** The files of a document in recording order: the parts of a recording of several files, or the file. */
+const filesOf = (d: TrendDocument): string[] =>
+	d.parts && d.parts.length > 0 ? d.parts.map((p) => p.source) : [d.source];
+
+/**
+ * The note when the documents are placed one after another (not every one is on the clock), naming each
+ * file so placed, compactly (lib/trend's fileList, as the recording's own notes name them). One file
+ * alone needs none: the assessment says its intervals count from its first sample.
+ */
+function sequenceNote(docs: readonly TrendDocument[], onClock: (d: TrendDocument) => boolean): Diagnostic | undefined {
+	const files = docs.flatMap(filesOf);
+	if (files.length < 2) return undefined;
+	const unstated = docs.filter((d) => !onClock(d)).flatMap(filesOf);
+	const order = files.every((f, k) => k === 0 || byName(files[k - 1], f) <= 0)
+		? 'in the order of their names'
+		: 'in the order they were given';
+	const placed = `taken as one recording with nothing missing between them, each file starting where the one before it ends, ${order}`;
+	const message =
+		unstated.length === files.length
+			? `None of these files states when it started: ${fileList(files)}. They are ${placed}.`
+			: `${fileList(unstated)} ${unstated.length === 1 ? 'states' : 'state'} no start time, so the start times of the other files are not used either. All ${files.length} files are ${placed}: ${fileList(files)}.`;
+	return { code: 'survey-no-start-time', severity: 'assumption', message };
+}
+
 function place(docs: readonly TrendDocument[], diagnostics: Diagnostic[]): { placed: Placed[]; clockAligned: boolean } {
 	const clockOf = (d: TrendDocument) =>
 		typeof d.clockStartS === 'number' ? d.clockStartS : clockTimeOf(d.startTime)?.unixS;
@@ -76,20 +102,15 @@ function place(docs: readonly TrendDocument[], diagnostics: Diagnostic[]): { pla
 	let next = 0;
 	const placed = docs.map((doc) => {
 		const volts = doc.channels.flatMap((c, i) => (c.quantity === 'voltage' ? [i] : []));
-		let baseS: number;
-		if (clockAligned) baseS = clockOf(doc)!;
-		else {
-			baseS = next;
-			diagnostics.push({
-				code: 'survey-no-start-time',
-				severity: 'assumption',
-				message: `${doc.source} states no start time: placed right after the file before it, in the order given.`,
-			});
-		}
+		const baseS = clockAligned ? clockOf(doc)! : next;
 		next = baseS + doc.durationS;
 		return { doc, baseS, volts };
 	});
 	if (clockAligned) placed.sort((a, b) => a.baseS - b.baseS);
+	else {
+		const note = sequenceNote(docs, (d) => clockOf(d) !== undefined);
+		if (note) diagnostics.push(note);
+	}
 	return { placed, clockAligned };
 }
 

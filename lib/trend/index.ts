@@ -37,3 +37,4 @@ export {
 	type TrendHelperInit,
 	type TrendHelperResult,
 } from './helper-link.js';
+export { fileList } from './file-list.js';

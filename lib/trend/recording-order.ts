@@ -14,6 +14,7 @@
  *   a second long and hours apart, are not one).
  */
 import type { Diagnostic } from '../capture.js';
+import { fileList } from './file-list.js';
 import type { TrendChannelSpec } from './types.js';
 
 /** What a file of a recording says about itself before its samples. */
@@ -61,7 +62,7 @@ export function orderRecordingParts<T extends RecordingPartInfo>(parts: readonly
 						{
 							code: 'recording-order-by-name',
 							severity: 'assumption',
-							message: `None of the ${parts.length} files states its start time: they are taken as one recording without gaps, one right after another in the order of their names (${ordered[0].source} first).`,
+							message: `None of the ${parts.length} files states its start time: ${fileList(ordered.map((p) => p.source))}. They are taken as one recording without gaps, one right after another in the order of their names.`,
 						},
 					]
 				: [];

@@ -116,7 +116,51 @@ describe('surveyInputFromTrend', () => {
 		const { input, diagnostics } = surveyInputFromTrend([a, b]);
 		expect(input.clockAligned).toBe(false);
 		expect(input.intervals.map((i) => i.startS)).toEqual([0, 600]);
-		expect(diagnostics.filter((d) => d.code === 'survey-no-start-time')).toHaveLength(2);
+		const notes = diagnostics.filter((d) => d.code === 'survey-no-start-time');
+		expect(notes).toHaveLength(1);
+		expect(notes[0].message).toContain('a.csv and b.csv');
+		expect(notes[0].message).toContain('in the order of their names');
+	});
+
+	it('one document of a folder read as one recording without start times: the note names each of its files, never the folder', () => {
+		const folder = {
+			...doc('hx', null, 1800, [{ startS: 0, durationS: 600, v: 230, complete: true }]),
+			parts: ['hx/h1.csv', 'hx/h2.csv', 'hx/h10.csv'].map((source, k) => ({ source, startS: 600 * k, samples: 6e5 })),
+		};
+		const { diagnostics } = surveyInputFromTrend([folder]);
+		const notes = diagnostics.filter((d) => d.code === 'survey-no-start-time');
+		expect(notes).toHaveLength(1);
+		// h2 before h10: names with numbers in numeric order (common practice for numbered files)
+		expect(notes[0].message).toContain('h1.csv, h2.csv and h10.csv (in hx)');
+		expect(notes[0].message).not.toMatch(/^hx /);
+		expect(notes[0].message).toContain('in the order of their names');
+	});
+
+	it('a week of hourly files without start times: the note names the first few, how many more, and the last', () => {
+		const names = Array.from({ length: 168 }, (_, k) => `h${k + 1}.csv`);
+		const week = {
+			...doc('week', null, 168 * 3600, []),
+			parts: names.map((source, k) => ({ source, startS: 3600 * k, samples: 36e5 })),
+		};
+		const [note] = surveyInputFromTrend([week]).diagnostics.filter((d) => d.code === 'survey-no-start-time');
+		// 168 = 3 named + 164 counted + the last
+		expect(note.message).toContain('h1.csv, h2.csv, h3.csv and 164 more, up to h168.csv');
+	});
+
+	it('one file without a start time beside files with one: that file is named as the one stating none, and the order given is said', () => {
+		const a = doc('b.cfg', '2026-05-04T08:00:00Z', 600, [{ startS: 0, durationS: 600, v: 230, complete: true }]);
+		const b = doc('a.csv', null, 600, [{ startS: 0, durationS: 600, v: 230, complete: true }]);
+		const [note] = surveyInputFromTrend([a, b]).diagnostics.filter((d) => d.code === 'survey-no-start-time');
+		expect(note.message).toMatch(/^a\.csv states no start time/);
+		expect(note.message).toContain('All 2 files are');
+		expect(note.message).toMatch(/: b\.cfg and a\.csv\.$/);
+		expect(note.message).toContain('in the order they were given');
+	});
+
+	it('one file without a start time gets no placement note (the assessment says its intervals count from its first sample)', () => {
+		const a = doc('a.csv', null, 600, [{ startS: 0, durationS: 600, v: 230, complete: true }]);
+		expect(surveyInputFromTrend([a]).diagnostics.filter((d) => d.code === 'survey-no-start-time')).toEqual([]);
+		expect(assessSurvey(surveyInputFromTrend([a]).input, 'en50160').notes.join(' ')).toContain('states no start time');
 	});
 
 	it('files with different voltage channels are refused, naming the file', () => {

@@ -36,6 +36,7 @@ describe('orderRecordingParts', () => {
 		expect(o.ordered.map((p) => p.source)).toEqual(['h1.wav', 'h2.wav', 'h10.wav']);
 		expect(o.notes[0].severity).toBe('assumption');
 		expect(o.notes[0].message).toContain('order of their names');
+		expect(o.notes[0].message).toContain('h1.wav, h2.wav and h10.wav');
 	});
 
 	it('a file without a start time beside files with one is refused, named, and not placed', () => {

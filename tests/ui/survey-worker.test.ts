@@ -21,7 +21,30 @@ const parts = Array.from({ length: SURVEY_FILES }, (_, k) => ({
 	blob: new Blob([surveyFileCsv(k)]),
 }));
 
+/** `seconds` of a 230 V, 50 Hz sine at 1000 S/s with no start time, as a logger without a clock writes it. */
+function unstatedCsv(seconds: number): string {
+	const rows = Array.from({ length: seconds * 1000 }, (_, i) => {
+		const t = i / 1000;
+		return `${t.toFixed(3)},${(230 * Math.SQRT2 * Math.sin(2 * Math.PI * 50 * t)).toFixed(2)}`;
+	});
+	return `time (s),V1 (V)\n${rows.join('\n')}\n`;
+}
+
 describe('runSurvey', () => {
+	it('files without start times: one note names each file in name order (h2 before h10), as the CLI does', async () => {
+		const picked = ['h10.csv', 'h2.csv', 'h1.csv'].map((name) => ({ name, blob: new Blob([unstatedCsv(3)]) }));
+		const { survey, problems } = await runSurvey(picked, 'en50160', 230, () => undefined, toProblem);
+		expect(problems).toEqual([]);
+		const notes = survey!.notes.filter((n) => n.includes('start'));
+		// numbered files in numeric order (common practice for a logger's numbered files); the same words as
+		// tests/cli/survey/survey-command.test.ts finds in the CLI's note (there with the folder said once)
+		expect(
+			notes.filter((n) => n.includes('None of these files states when it started: h1.csv, h2.csv and h10.csv.')),
+		).toHaveLength(1);
+		// the recording's name ("h1.csv to h10.csv (3 files)") is not taken for a file
+		expect(notes.filter((n) => n.includes('3 files) states'))).toEqual([]);
+	});
+
 	it('reads the records in start-time order, counts every sample, and lists an unreadable file without losing the rest', async () => {
 		const bad = { name: 'aaa-notes.csv', blob: new Blob(['time (s),L1 (V)\n0,1\n0.001,abc\n']) };
 		const seen: SurveyProgress[] = [];

@@ -3,7 +3,7 @@
  * as the merge step over JSON documents in the shape `trend --json` writes.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Papa from 'papaparse';
@@ -49,7 +49,34 @@ function hour(source: string, startTime: string, thd: (k: number) => number) {
 	};
 }
 
+/**
+ * A CSV of `seconds` of a 230 V, 50 Hz sine at 1000 S/s with no start time (no preamble, the time column
+ * in seconds from 0): what a scope or a logger without a clock writes.
+ */
+function unstatedCsv(seconds: number): string {
+	const rows = Array.from({ length: seconds * 1000 }, (_, i) => {
+		const t = i / 1000;
+		return `${t.toFixed(3)},${(230 * Math.SQRT2 * Math.sin(2 * Math.PI * 50 * t)).toFixed(2)}`;
+	});
+	return `time (s),V1 (V)\n${rows.join('\n')}\n`;
+}
+
 describe('sinecheck survey', () => {
+	it('a folder of files without start times: the note names each file (h2 before h10), never the folder', () => {
+		mkdirSync(join(dir, 'hx'));
+		for (const name of ['h10.csv', 'h2.csv', 'h1.csv']) writeFileSync(join(dir, 'hx', name), unstatedCsv(3));
+		const r = spawnSync(process.execPath, [mainJs, 'survey', 'hx', '--nominal', '230'], {
+			cwd: dir,
+			encoding: 'utf8',
+			timeout: 120_000,
+		});
+		const notes = `${r.stdout}\n${r.stderr}`.split('\n').filter((l) => l.includes('start'));
+		expect(r.status).toBe(0);
+		// numbered files in numeric order, the folder said once (common practice for a logger's numbered files)
+		expect(notes.filter((l) => l.includes('h1.csv, h2.csv and h10.csv (in hx)'))).toHaveLength(1);
+		expect(notes.filter((l) => /\bhx states\b/.test(l))).toEqual([]);
+	});
+
 	it('on the demo incomer record: its one dip (phase B to 55 % for 6 cycles, sample-waves ground truth) is counted once in the 70-40 % x 10-200 ms cell of EN 50160 Table 5', () => {
 		const r = run('sample-waves/incomer-dip.cfg', '--json');
 		expect(r.stderr).not.toMatch(/\n\s+at /);
