@@ -5,7 +5,7 @@
  */
 import { PINST_CLASSES, pltFromPst, pstFromHistogram, pinstLevelExceeded, type PstFigures } from './classifier.js';
 import { BlockSquares } from './block-squares.js';
-import { FlickerChain, type ChainStretch } from './chain.js';
+import { chainStretch, FlickerChain, type ChainStretch } from './chain.js';
 import { PLT_PST_COUNT, PST_INTERVAL_S } from './constants.js';
 import { designFlickermeter, type FlickerDesign, type FlickerSettings } from './design.js';
 
@@ -126,7 +126,7 @@ class StreamingFlickermeter implements Flickermeter {
 	private readonly blockS: number;
 	private block = 0;
 	private blockStartN = 0;
-	private readonly stretch: ChainStretch = { max: 0, sum: 0 };
+	private readonly stretch: ChainStretch = chainStretch();
 	private recordMax = 0;
 	private recordSum = 0;
 	private readonly pst: PstInterval[] = [];
@@ -215,7 +215,7 @@ class StreamingFlickermeter implements Flickermeter {
 
 	/** Runs the settling stretch: the chain's states move on, its Pinst is neither classified nor summarised. */
 	private settle(x: Float64Array, from: number, to: number): void {
-		const scratch: ChainStretch = { max: 0, sum: 0 };
+		const scratch = chainStretch();
 		this.settlingCounts ??= new Uint32Array(PINST_CLASSES);
 		this.chain!.run(x, from, to, this.settlingCounts, scratch);
 		this.n += to - from;
