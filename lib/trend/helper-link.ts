@@ -83,7 +83,7 @@ const SLOTS = 64;
  * beyond, the analyser measures the window itself rather than wait. The helper also runs the
  * flickermeters, so its share of the windows finds its own level.
  */
-const HELPER_LAG_S = 0.4;
+const HELPER_LAG_S = 2.5;
 
 /** How long one wait sleeps before it looks for a failed helper again, ms. */
 const WAIT_SLICE_MS = 2000;
