@@ -79,10 +79,17 @@ export class HelperProcess {
 	constructor(
 		private readonly heapMiB: number,
 		private readonly longRecordingHint = '',
+		/** What the helper loads as it starts, before the first request (worker.ts): e.g. ['trend', '2']. */
+		private readonly preload: string[] = [],
 	) {}
 
+	/** Starts the helper now (it loads its code while this process goes on), not at the first `run`. */
+	start(): void {
+		this.child ??= this.spawn();
+	}
+
 	private spawn(): ChildProcess {
-		const child = fork(fileURLToPath(workerUrl), [], {
+		const child = fork(fileURLToPath(workerUrl), this.preload, {
 			execArgv: [`--max-old-space-size=${this.heapMiB}`],
 			serialization: 'advanced',
 			stdio: ['ignore', 'ignore', 'pipe', 'ipc'],

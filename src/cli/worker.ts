@@ -4,22 +4,34 @@
  * (a stream of messages: header, rows, notes, then 'done' or 'error'), and answers with plain data. The
  * parent caps its heap and its time per file; when the parent goes away, so does the helper.
  */
-import { analyseUnit } from './analyse-unit.js';
 import { errorLine } from './error-line.js';
 import type { CommandSettings } from './options.js';
-import { messageSink, trendFile, type TrendJob, type TrendMessage } from './trend/trend-file.js';
+import type { TrendJob, TrendMessage } from './trend/trend-file.js';
 
 export type WorkRequest =
 	{ kind: 'analyse'; id: number; files: string[]; settings: CommandSettings } | { kind: 'trend'; job: TrendJob };
 
 const send = (m: unknown) => process.send?.(m);
 
-process.on('message', (req: WorkRequest) => {
+// Each command's code loads on its first request, or at once when the parent says which command it runs
+// (argv: 'trend' and the threads): the loading then overlaps the parent's own start. A trend helper
+// with 2 threads also starts its analysis thread now.
+const trendCode =
+	process.argv[2] === 'trend'
+		? import('./trend/trend-file.js').then(async (m) => {
+				if (Number(process.argv[3]) >= 2) (await import('./trend/helper-thread.js')).helperThread(2);
+				return m;
+			})
+		: undefined;
+
+process.on('message', async (req: WorkRequest) => {
 	if (req.kind === 'analyse') {
+		const { analyseUnit } = await import('./analyse-unit.js');
 		send({ id: req.id, result: analyseUnit(req.files, req.settings) });
 		return;
 	}
 	try {
+		const { messageSink, trendFile } = await (trendCode ?? import('./trend/trend-file.js'));
 		trendFile(
 			req.job,
 			messageSink((m: TrendMessage) => send(m)),

@@ -20,7 +20,6 @@ import { UsageError } from '../usage-error.js';
 import { defaultHeapMiB, helperAvailable, HelperProcess, timeLimitFor } from '../helper-process.js';
 import type { AnalyserSettings } from './read-recording.js';
 import type { TrendJob, TrendMessage, TrendSink } from './trend-file.js';
-import { csvHeader } from './trend-output.js';
 
 export interface TrendCommandOptions {
 	/** Declared voltage Udin in V (line-to-neutral when the channels are). Inferred when absent. */
@@ -217,6 +216,13 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 		return 2;
 	}
 	const { settings, interval, flickerCsv } = parsed;
+	// The helper process starts now and loads the trend code while this one walks the paths and loads its own.
+	const useHelper = options.inProcess !== true && helperAvailable();
+	const helper = useHelper
+		? new HelperProcess(options.memoryLimitMiB ?? defaultHeapMiB(1), '', ['trend', String(threads)])
+		: undefined;
+	helper?.start();
+	const { csvHeader } = await import('./trend-output.js');
 	// Paths -> recordings: folders walked and COMTRADE companions grouped as `analyse` does; a path that
 	// does not exist is an error line of its own, and the others still run.
 	const recordings: string[] = [];
@@ -247,6 +253,7 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 	}
 	if (options.oneRecording && options.eachFile) {
 		err.write(`${PREFIX}trend: give --one-recording or --each-file, not both\n`);
+		helper?.close();
 		return 2;
 	}
 	let join = options.oneRecording === true;
@@ -293,8 +300,6 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 			err.write(`${printable(line)}\n`);
 		},
 	};
-	const useHelper = options.inProcess !== true && helperAvailable();
-	const helper = useHelper ? new HelperProcess(options.memoryLimitMiB ?? defaultHeapMiB(1)) : undefined;
 	try {
 		for (const file of recordings) {
 			recordingNow = file;
