@@ -115,6 +115,43 @@ describe('createFlickermeterGroup: bit-identical to one meter per channel', () =
 		expect(four.group[3].pst).toHaveLength(1);
 	});
 
+	it('calls onPst and onPinstBlock with the channel and what a meter of its own passes', () => {
+		const seen = (): unknown[][] => [[], [], []];
+		const fromGroup = { pst: seen(), blocks: seen() },
+			alone = { pst: seen(), blocks: seen() };
+		const options = { sampleRateHz: 1600, nominalHz: 50 as const };
+		const g = createFlickermeterGroup(3, {
+			...options,
+			onPst: (k, p) => fromGroup.pst[k].push(p),
+			onPinstBlock: (k, ...b) => fromGroup.blocks[k].push(b),
+		});
+		const meters = [0, 1, 2].map((k) =>
+			createFlickermeter({
+				...options,
+				onPst: (p) => alone.pst[k].push(p),
+				onPinstBlock: (...b) => alone.blocks[k].push(b),
+			}),
+		);
+		const buffers = [0, 1, 2].map(() => new Float64Array(32_000));
+		for (let i = 0; i < 620 * 1600; i += 32_000) {
+			// 1600 S/s: the same envelopes as above, each sample i/1600 s apart
+			buffers.forEach((b, k) => {
+				for (let j = 0; j < b.length; j++) {
+					const t = (i + j) / 1600;
+					const up = Math.floor((t * CHANNELS[k].cpm) / 60) % 2 === 0;
+					b[j] = 325 * (up ? 1.005 : 0.995) * Math.sin(2 * Math.PI * 50 * t);
+				}
+			});
+			g.push(buffers);
+			buffers.forEach((b, k) => meters[k].push(b));
+		}
+		g.finish();
+		meters.forEach((m) => m.finish());
+		expect(fromGroup.pst.map((l) => l.length)).toEqual([1, 1, 1]);
+		expect(fromGroup.blocks[2]).toHaveLength(620 - 5);
+		expect(fromGroup).toEqual(alone);
+	});
+
 	it('refuses a channel count below 1 and arrays of unequal length (RangeError)', () => {
 		expect(() => createFlickermeterGroup(0, { sampleRateHz: FS, nominalHz: 50 })).toThrow(RangeError);
 		const g = createFlickermeterGroup(2, { sampleRateHz: FS, nominalHz: 50 });
