@@ -11,14 +11,11 @@
  * passes go through two small buffers, the channels interleaved (value k of channel j at 3k + j).
  */
 import { FlickerChain, MAX_NORMALISED_SQUARE, chainCoefficients, type ChainStretch } from './chain.js';
+import { PINST_CLASS_SHIFT, PINST_CLASS_VIEWS } from './classifier.js';
 import type { FlickerDesign } from './design.js';
 
 /** Chain values per pass: three channels' interleaved values fit 12 KB, within the first-level cache. */
 const SUB = 512;
-
-/** The Pinst class of classifier.ts `pinstClass` (top 16 bits of the float32), written out in the loop. */
-const F32 = new Float32Array(1);
-const U32 = new Uint32Array(F32.buffer);
 
 /** Per-channel state block in `FlickerTriple.state` (channel j from LANE · j). */
 const LANE = 16;
@@ -232,8 +229,9 @@ function weightSmoothCount(
 		so = SECTIONS + 8;
 	// prettier-ignore
 	const v0 = c[o], v1 = c[o + 1], v2 = c[o + 2], v3 = c[o + 3], v4 = c[o + 4], aS = c[29], scale = c[30];
-	const f = F32,
-		w = U32;
+	// Pinst classified inline (classifier.ts pinstClass): no call per value
+	const { f32: f, u32: w } = PINST_CLASS_VIEWS,
+		shift = PINST_CLASS_SHIFT;
 	// prettier-ignore
 	let a0 = s[so], b0 = s[so + 1], m0 = s[SMOOTH], a1 = s[LANE + so], b1 = s[LANE + so + 1], m1 = s[LANE + SMOOTH],
 		a2 = s[2 * LANE + so], b2 = s[2 * LANE + so + 1], m2 = s[2 * LANE + SMOOTH];
@@ -247,7 +245,7 @@ function weightSmoothCount(
 		m0 += aS * (y0 * y0 - m0);
 		const p0 = scale * m0;
 		f[0] = p0;
-		k0[w[0] >>> 16]++;
+		k0[w[0] >>> shift]++;
 		if (p0 > max0) max0 = p0;
 		sum0 += p0;
 		const x1 = x[j + 1];
@@ -257,7 +255,7 @@ function weightSmoothCount(
 		m1 += aS * (y1 * y1 - m1);
 		const p1 = scale * m1;
 		f[0] = p1;
-		k1[w[0] >>> 16]++;
+		k1[w[0] >>> shift]++;
 		if (p1 > max1) max1 = p1;
 		sum1 += p1;
 		const x2 = x[j + 2];
@@ -267,7 +265,7 @@ function weightSmoothCount(
 		m2 += aS * (y2 * y2 - m2);
 		const p2 = scale * m2;
 		f[0] = p2;
-		k2[w[0] >>> 16]++;
+		k2[w[0] >>> shift]++;
 		if (p2 > max2) max2 = p2;
 		sum2 += p2;
 	}
