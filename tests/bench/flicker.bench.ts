@@ -11,7 +11,15 @@
  * of the input rate, plus the block squares, a ratio of ~2-3x is the expected cost.
  */
 import { cpus, loadavg } from 'node:os';
-import { createFlickermeter, createFlickermeterGroup } from '../../lib/flicker/index.js';
+import {
+	BlockSquares,
+	createFlickermeter,
+	createFlickermeterGroup,
+	designFlickermeter,
+} from '../../lib/flicker/index.js';
+import { chainStretch, FlickerChain } from '../../lib/flicker/chain.js';
+import { ChainGroup } from '../../lib/flicker/chain-group.js';
+import { PINST_CLASSES } from '../../lib/flicker/classifier.js';
 import { printTable } from './measure.js';
 
 const FS = 6400;
@@ -182,4 +190,44 @@ printTable(
 const same = pstSeparate.every((p, k) => Object.is(p, pstGroup[k]));
 console.log(
 	`separate / group time ratio: ${(sepMs / groupMs).toFixed(2)}x; Pst ${pstGroup.map((p) => p.toFixed(3)).join(', ')} (${same ? 'bit-identical to the separate meters' : 'DIFFERENT from the separate meters'})`,
+);
+
+// The chains alone (blocks 1-5 on the block squares of the same three channels, computed once): three
+// FlickerChain one after another against one ChainGroup of three.
+const design3 = designFlickermeter({ sampleRateHz: FS3, nominalHz: 50 });
+const squares3 = x3.map((x) => {
+	const out = new Float64Array(Math.ceil(N3 / design3.decimation) + 1);
+	return out.subarray(0, new BlockSquares(design3.decimation, 52_900).run(x, 0, N3, out));
+});
+const M3 = squares3[0].length;
+const counts3 = [0, 1, 2].map(() => new Uint32Array(PINST_CLASSES));
+const STRETCH = 2000; // chain values per call: the 1 s blocks the meter cuts at
+let chainSums: number[] = [];
+function chainsApart(): void {
+	const chains = [0, 1, 2].map(() => new FlickerChain(design3, 52_900));
+	const st = [0, 1, 2].map(() => chainStretch());
+	for (let i = 0; i < M3; i += STRETCH)
+		for (let k = 0; k < 3; k++) chains[k].run(squares3[k], i, Math.min(M3, i + STRETCH), counts3[k], st[k]);
+	chainSums = st.map((s) => s.sum);
+}
+let groupSums: number[] = [];
+function chainsTogether(): void {
+	const g = new ChainGroup(design3, [52_900, 52_900, 52_900]);
+	const st = [0, 1, 2].map(() => chainStretch());
+	for (let i = 0; i < M3; i += STRETCH) g.run(squares3, i, Math.min(M3, i + STRETCH), counts3, st);
+	groupSums = st.map((s) => s.sum);
+}
+const [apartMs, togetherMs] = alternate([chainsApart, chainsTogether]);
+const nsPerChainValue = (ms: number) => (ms * 1e6) / (3 * M3);
+printTable(
+	['blocks 1-5 alone (3 channels)', 'cpu ms', 'ns/chain value/channel'],
+	[
+		['three FlickerChain (reference)', apartMs, nsPerChainValue(apartMs)],
+		['one ChainGroup of three', togetherMs, nsPerChainValue(togetherMs)],
+	],
+);
+console.log(
+	`chains: apart / together time ratio ${(apartMs / togetherMs).toFixed(2)}x (${chainSums.every((v, k) => Object.is(v, groupSums[k])) ? 'Pinst sums bit-identical' : 'Pinst sums DIFFER'}); load average ${loadavg()
+		.map((l) => l.toFixed(2))
+		.join(' ')}`,
 );
