@@ -9,6 +9,13 @@
  * form II transposed), the cheapest recursive filter there is. Blocks 1-4 run eight sections, a division and
  * a classification per chain value (~6x that kernel per value when they ran at the input rate); at a quarter
  * of the input rate, plus the block squares, a ratio of ~2-3x is the expected cost.
+ *
+ * Then three voltage channels as `sinecheck trend` meets them: 10 minutes x 3 channels at 10 kS/s (the
+ * trend bench's rate; D = 5, the chain at 2000 S/s), a different modulation per channel, through three
+ * separate meters and through one group of three (createFlickermeterGroup: each three channels' chains in
+ * one set of short loops), alternated in the same run after warm-up; the ratio is separate / group (> 1:
+ * the group is faster). Both give bit-identical figures (tests/flicker/group.test.ts); the bench checks the
+ * Pst. Last, blocks 1-5 alone on the same channels' block squares: three FlickerChain against one ChainGroup.
  */
 import { cpus, loadavg } from 'node:os';
 import {
