@@ -77,38 +77,34 @@ export class BlockSquares {
 			bad = 0,
 			k = 0,
 			i = from;
-		// A block carried over from the previous call, then whole blocks, then the start of the next one.
-		for (; p > 0 && p < d && i < to; i++, p++) {
-			const v = x[i];
-			if (v - v === 0) last = v * v;
-			else bad++;
-			s += last;
-			r += (p + 0.5) * last;
-		}
-		if (p === d) {
-			out[k++] = (rising + d * s - r) * norm;
-			rising = r;
-			s = r = p = 0;
-		}
-		for (; i + d <= to; i += d) {
-			let bs = 0,
-				br = 0;
-			for (let q = 0; q < d; q++) {
-				const v = x[i + q];
-				if (v - v === 0) last = v * v;
-				else bad++;
-				bs += last;
-				br += (q + 0.5) * last;
+		// Whole blocks in the inner loop; the samples of a block cut by a call's start or end one at a time,
+		// by the same code at either end (so the optimised code has seen that path on the first cut).
+		while (i < to) {
+			if (p === 0 && i + d <= to) {
+				let bs = 0,
+					br = 0;
+				for (let q = 0; q < d; q++) {
+					const v = x[i + q];
+					if (v - v === 0) last = v * v;
+					else bad++;
+					bs += last;
+					br += (q + 0.5) * last;
+				}
+				out[k++] = (rising + d * bs - br) * norm;
+				rising = br;
+				i += d;
+				continue;
 			}
-			out[k++] = (rising + d * bs - br) * norm;
-			rising = br;
-		}
-		for (; i < to; i++, p++) {
-			const v = x[i];
+			const v = x[i++];
 			if (v - v === 0) last = v * v;
 			else bad++;
 			s += last;
 			r += (p + 0.5) * last;
+			if (++p === d) {
+				out[k++] = (rising + d * s - r) * norm;
+				rising = r;
+				s = r = p = 0;
+			}
 		}
 		st.set([s, r, p, rising, last]);
 		this.nonFinite += bad;

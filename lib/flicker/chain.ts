@@ -11,7 +11,7 @@ import { PINST_CLASS_SHIFT, PINST_CLASS_VIEWS } from './classifier.js';
  * RMS) only arises when the running RMS is near zero (a record starting dead), and is clipped there so
  * the filters stay finite.
  */
-const MAX_NORMALISED_SQUARE = 1e4;
+export const MAX_NORMALISED_SQUARE = 1e4;
 
 /** Filter states, indices into FlickerChain.state. */
 const ADAPTOR = 0,
@@ -21,6 +21,24 @@ const ADAPTOR = 0,
 	SMOOTH = 12,
 	LAST_U = 13,
 	STATE_LENGTH = 14;
+
+/**
+ * Every coefficient of blocks 1-4 in one array, in the order the kernels read them: adaptor α; high-pass
+ * b0, b1, a1; the three low-pass and two weighting sections as b0, b1, b2, a1, a2 (from index 4, 5 per
+ * section); smoothing α (29); Pinst scale (30).
+ */
+export function chainCoefficients(d: FlickerDesign): Float64Array {
+	const sections = [...d.lowPass, ...d.weighting].flatMap((q) => [q.b0, q.b1, q.b2, q.a1, q.a2]);
+	return Float64Array.from([
+		d.adaptorAlpha,
+		d.highPass.b0,
+		d.highPass.b1,
+		d.highPass.a1,
+		...sections,
+		d.smoothingAlpha,
+		d.scale,
+	]);
+}
 
 /** Running statistics of one stretch: written by `run`. Make them with `chainStretch`. */
 export interface ChainStretch {
@@ -50,41 +68,7 @@ export class FlickerChain {
 		initialMeanSquare: number,
 	) {
 		const d = design;
-		const [l0, l1, l2] = d.lowPass;
-		const [w0, w1] = d.weighting;
-		this.c = Float64Array.from([
-			d.adaptorAlpha,
-			d.highPass.b0,
-			d.highPass.b1,
-			d.highPass.a1,
-			l0.b0,
-			l0.b1,
-			l0.b2,
-			l0.a1,
-			l0.a2,
-			l1.b0,
-			l1.b1,
-			l1.b2,
-			l1.a1,
-			l1.a2,
-			l2.b0,
-			l2.b1,
-			l2.b2,
-			l2.a1,
-			l2.a2,
-			w0.b0,
-			w0.b1,
-			w0.b2,
-			w0.a1,
-			w0.a2,
-			w1.b0,
-			w1.b1,
-			w1.b2,
-			w1.a1,
-			w1.a2,
-			d.smoothingAlpha,
-			d.scale,
-		]);
+		this.c = chainCoefficients(d);
 		// Start in the steady state of an unmodulated supply: running mean square known, demodulator
 		// output 1 already blocked by the high-pass (its state holds −b0), every later filter at rest.
 		this.state[ADAPTOR] = initialMeanSquare;

@@ -19,8 +19,11 @@ export {
 } from './classifier.js';
 export {
 	createFlickermeter,
+	createFlickermeterGroup,
 	pltIntervals,
 	type Flickermeter,
+	type FlickermeterGroup,
+	type FlickermeterGroupOptions,
 	type FlickermeterOptions,
 	type FlickerResult,
 	type PinstStatistics,

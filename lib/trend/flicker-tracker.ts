@@ -1,13 +1,14 @@
 /**
- * Flicker beside the trend: one IEC 61000-4-15 flickermeter (lib/flicker) per voltage channel, fed the
- * same chunks as the analyser, giving Pst per 10 minutes and Plt per 2 hours, each flagged when a dip,
- * swell or interruption overlaps it (IEC 61000-4-30 flagging, from memory).
+ * Flicker beside the trend: IEC 61000-4-15 flickermeters (lib/flicker) for the voltage channels, run as one
+ * group (createFlickermeterGroup: the figures of a meter per channel, in less time), fed the same chunks
+ * as the analyser, giving Pst per 10 minutes and Plt per 2 hours, each flagged when a dip, swell or
+ * interruption overlaps it (IEC 61000-4-30 flagging, from memory).
  */
 import type { Diagnostic } from '../capture.js';
 import {
-	createFlickermeter,
+	createFlickermeterGroup,
 	FLICKER_MIN_SAMPLE_RATE_HZ,
-	type Flickermeter,
+	type FlickermeterGroup,
 	type FlickerResult,
 } from '../flicker/index.js';
 import {
@@ -55,7 +56,7 @@ const DECLARED_WAIT_S = 10;
 const INFERENCE_BUFFER_S = 2;
 
 export class TrendFlickerTracker {
-	private meters: Flickermeter[] | null = null;
+	private meters: FlickermeterGroup | null = null;
 	private pending: Float64Array[][] = [];
 	private pendingSamples = 0;
 	private halves: HalfPeriodRms[] = [];
@@ -107,31 +108,27 @@ export class TrendFlickerTracker {
 			}
 			this.start(nominalHz === 60 ? 60 : 50);
 		}
-		for (let k = 0; k < this.voltage.length; k++) {
-			const x = chunk[this.voltage[k]];
-			this.feed(k, from === 0 ? x : x.subarray(from));
-		}
+		this.feed(this.voltage.map((c) => (from === 0 ? chunk[c] : chunk[c].subarray(from))));
 	}
 
-	private feed(k: number, x: Float64Array): void {
-		this.meters![k].push(x);
-		this.halves[k].push(x);
+	/** One chunk of the voltage channels (in `voltage` order): to the flickermeters and the half-period RMS. */
+	private feed(x: Float64Array[]): void {
+		this.meters!.push(x);
+		for (let k = 0; k < x.length; k++) this.halves[k].push(x[k]);
 	}
 
 	private start(nominalHz: 50 | 60): void {
-		this.meters = this.voltage.map(() =>
-			createFlickermeter({
-				sampleRateHz: this.sampleRateHz,
-				nominalHz,
-				keepPinstBlocks: this.keepPinst,
-				intervalOffsetS: this.intervalOffsetS,
-			}),
-		);
+		this.meters = createFlickermeterGroup(this.voltage.length, {
+			sampleRateHz: this.sampleRateHz,
+			nominalHz,
+			keepPinstBlocks: this.keepPinst,
+			intervalOffsetS: this.intervalOffsetS,
+		});
 		this.uhpWaiting = this.voltage.map(() => []);
 		this.halves = this.voltage.map((_, k) =>
 			createHalfPeriodRms(this.sampleRateHz, nominalHz, (t, v) => this.halfPeriod(k, t, v, nominalHz)),
 		);
-		for (const p of this.pending) for (let k = 0; k < p.length; k++) this.feed(k, p[k]);
+		for (const p of this.pending) this.feed(p);
 		this.pending = [];
 	}
 
@@ -180,7 +177,7 @@ export class TrendFlickerTracker {
 		this.declaredV = declaredV;
 		if (!this.meters) this.start(nominalHz === 60 ? 60 : 50);
 		this.startChanges(nominalHz === 60 ? 60 : 50);
-		const results = this.meters!.map((m) => m.finish());
+		const results = this.meters!.finish();
 		const rows = (
 			pick: (r: FlickerResult) => { startS: number; durationS: number; value: number }[],
 		): TrendFlickerRow[] =>
