@@ -184,6 +184,8 @@ withChannelSettings(
 		'1, or 2 to share the analysis of a recording with a second thread (default 2 on a machine with 2 or more cores; the figures are the same)',
 	)
 	.action(async (given: string[], options: Record<string, unknown>) => {
+		// the helper process that does the work starts first (trend/prestart.ts)
+		const helper = (await import('./trend/prestart.js')).prestartTrendHelper(options.memoryLimit, options.threads);
 		const files = withAfterDashes(given, options);
 		const settings = settingsFromOptions({
 			rate: options.rate,
@@ -211,6 +213,7 @@ withChannelSettings(
 			oneRecording: options.oneRecording === true,
 			eachFile: options.eachFile === true,
 			threads: options.threads as string | undefined,
+			helper,
 			open,
 			timeLimitS: limits.timeLimitS,
 			memoryLimitMiB: limits.heapMiB,

@@ -4,7 +4,6 @@
  * (a stream of messages: header, rows, notes, then 'done' or 'error'), and answers with plain data. The
  * parent caps its heap and its time per file; when the parent goes away, so does the helper.
  */
-import { errorLine } from './error-line.js';
 import type { CommandSettings } from './options.js';
 import type { TrendJob, TrendMessage } from './trend/trend-file.js';
 
@@ -38,6 +37,7 @@ process.on('message', async (req: WorkRequest) => {
 		);
 		send({ t: 'done' } satisfies TrendMessage);
 	} catch (e) {
+		const { errorLine } = await import('./error-line.js');
 		send({ t: 'error', line: errorLine(e, req.job.file) } satisfies TrendMessage);
 	}
 });

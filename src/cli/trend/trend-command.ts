@@ -57,6 +57,8 @@ export interface TrendCommandOptions {
 	inProcess?: boolean;
 	/** Threads per recording: 1, or 2 (default) to share the work with a second thread on a machine with 2 or more cores. */
 	threads?: number | string;
+	/** A helper process already started for this command (prestart.ts); closed when not used. */
+	helper?: HelperProcess;
 	/** Output streams (tests); default process.stdout / process.stderr. */
 	stdout?: NodeJS.WritableStream;
 	stderr?: NodeJS.WritableStream & { isTTY?: boolean };
@@ -212,14 +214,16 @@ export async function trendCommand(files: string[], options: TrendCommandOptions
 		parsed = settingsFrom(options);
 		threads = num('threads', options.threads, (x) => x === 1 || x === 2, '1 or 2 (threads)') ?? 2;
 	} catch (e) {
+		options.helper?.close();
 		err.write(`${printable(`${PREFIX}${e instanceof Error ? e.message : String(e)}`)}\n`);
 		return 2;
 	}
 	const { settings, interval, flickerCsv } = parsed;
 	// The helper process starts now and loads the trend code while this one walks the paths and loads its own.
 	const useHelper = options.inProcess !== true && helperAvailable();
+	if (!useHelper) options.helper?.close();
 	const helper = useHelper
-		? new HelperProcess(options.memoryLimitMiB ?? defaultHeapMiB(1), '', ['trend', String(threads)])
+		? (options.helper ?? new HelperProcess(options.memoryLimitMiB ?? defaultHeapMiB(1), '', ['trend', String(threads)]))
 		: undefined;
 	helper?.start();
 	const { csvHeader } = await import('./trend-output.js');
