@@ -3,7 +3,6 @@
 import { cac, type Command } from 'cac';
 import { fsErrorWords } from './file-checks.js';
 import { ANALYSE_EXAMPLES, EXIT_CODES, SAFETY_CAUTION, TREND_EXAMPLES, wrap } from './help-text.js';
-import { limitsFrom, settingsFromOptions } from './options.js';
 import { printable } from './printable.js';
 import { UsageError } from './usage-error.js';
 
@@ -186,6 +185,7 @@ withChannelSettings(
 	.action(async (given: string[], options: Record<string, unknown>) => {
 		// the helper process that does the work starts first (trend/prestart.ts)
 		const helper = (await import('./trend/prestart.js')).prestartTrendHelper(options.memoryLimit, options.threads);
+		const { limitsFrom, settingsFromOptions } = await import('./options.js');
 		const files = withAfterDashes(given, options);
 		const settings = settingsFromOptions({
 			rate: options.rate,
@@ -240,6 +240,7 @@ cli
 		'1, or 2 to share the analysis of the recording with a second thread (default 2 on a machine with 2 or more cores; the figures are the same)',
 	)
 	.action(async (paths: string[], options: Record<string, unknown>) => {
+		const { settingsFromOptions } = await import('./options.js');
 		const { importOptionsFrom } = await import('./import-settings.js');
 		const { surveyCommand } = await import('./survey/index.js');
 		const open = importOptionsFrom(settingsFromOptions({ rate: options.rate }).import);
