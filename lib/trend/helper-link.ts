@@ -67,6 +67,8 @@ const SUBMITTED = 0,
 	FAILED = 2,
 	HELPER_WAITING = 3,
 	ANALYSER_WAITING = 4,
+	/** Set by the helper as its session starts. */
+	STARTED = 5,
 	CONTROL_WORDS = 16;
 
 /** Command kinds and the queue's shape: each command is [kind, a, b, c, d]. */
@@ -87,6 +89,8 @@ const HELPER_LAG_S = 2.5;
 
 /** How long one wait sleeps before it looks for a failed helper again, ms. */
 const WAIT_SLICE_MS = 2000;
+/** How long the analyser waits for a session that has not started (a thread that could not start), ms. */
+const START_WAIT_MS = 30_000;
 
 /** Doubles per result slot: THD, fundamentals (re, im) and with `harmonics` each order, per channel. */
 function slotLength(channelCount: number, harmonics: boolean): number {
@@ -234,8 +238,12 @@ export class TrendHelperLink {
 	/** Sleeps until command `ticket` is done; @throws Error when the helper failed. */
 	private waitDone(ticket: number): void {
 		const ctl = this.v.control;
+		let waitedMs = 0;
 		while (this.poll() <= ticket) {
 			if (Atomics.load(ctl, FAILED) === 1) this.channel.result();
+			if (Atomics.load(ctl, STARTED) === 0 && waitedMs >= START_WAIT_MS)
+				throw new Error(`the second analysis thread did not start within ${START_WAIT_MS / 1000} s`);
+			waitedMs += WAIT_SLICE_MS;
 			Atomics.store(ctl, ANALYSER_WAITING, 1);
 			const d = Atomics.load(ctl, DONE);
 			if (d <= ticket) Atomics.wait(ctl, DONE, d, WAIT_SLICE_MS);
@@ -250,6 +258,7 @@ export class TrendHelperLink {
  */
 export function runTrendHelperSession(init: TrendHelperInit, send: (r: TrendHelperResult) => void): void {
 	const v = views(init);
+	Atomics.store(v.control, STARTED, 1);
 	try {
 		new HelperSession(init, v).run(send);
 	} catch (error) {

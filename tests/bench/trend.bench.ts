@@ -11,14 +11,15 @@
  *   ComtradeSampleStream, 1 MiB chunks, as the CLI reads it) into a sum of squares, in this process;
  * - the bare kernel: a sum of squares over 144 million samples already in memory (~0.6 ns/sample).
  * And, from binary COMTRADE, the built analyser in a bare Node process: whole, without flicker, and without
- * flicker and THD, to show where the time goes. The verdict is by wall time (recording length ÷ elapsed time,
+ * flicker and THD, to show where the time goes; and, timed inside its process after a warm-up on the 10-minute
+ * file, on 2 threads and on 1 (the difference to the CLI is the CLI's start and V8's first compilations). The verdict is by wall time (recording length ÷ elapsed time,
  * the median of three runs), as a user waits for it: `trend` shares a recording's work with a second thread
  * (--threads, default 2), so its CPU time (user + system of all its threads and processes, also printed)
  * is more than its wall time. On a shared machine wall time also counts waiting for a core: the load
  * average is printed, and a run on one thread (--threads 1) is shown beside it.
  * SINECHECK_BENCH_SCALE=0.1 scales the durations down for a quick look (the targets are for scale 1).
  */
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { closeSync, mkdtempSync, openSync, readFileSync, readSync, rmSync, statSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
@@ -134,6 +135,27 @@ function builtAnalyser(cfg: string, settings: { flicker?: boolean; thd?: boolean
 	return timed(['--input-type=module', '-e', script, cfg]);
 }
 
+/**
+ * The built analyser in a bare Node process on `cfg`, timed inside the process after a warm-up on
+ * `warmCfg` (so neither the process's start nor V8's first compilations count), with `threads` 1 or 2
+ * (the CLI's second thread): what the CLI's own start and warm-up cost, by difference.
+ */
+function warmAnalyser(warmCfg: string, cfg: string, threads: 1 | 2): { wallS: number; cpuS: number } {
+	const dist = dirname(mainJs);
+	const reader = pathToFileURL(join(dist, 'trend', 'read-recording.js')).href;
+	const thread = pathToFileURL(join(dist, 'trend', 'helper-thread.js')).href;
+	const script = `import { analyseFile } from ${JSON.stringify(reader)}; import { helperThread } from ${JSON.stringify(thread)};
+const s = { helper: helperThread(${threads}), keep: { cycles10: false, cycles150: false, min10: false }, onRow: () => {} };
+analyseFile(process.argv[1], 'bench.cfg', {}, s);
+const c0 = process.cpuUsage(), t0 = performance.now();
+analyseFile(process.argv[2], 'bench.cfg', {}, s);
+const c = process.cpuUsage(c0);
+console.log(JSON.stringify({ wallS: (performance.now() - t0) / 1000, cpuS: (c.user + c.system) / 1e6 }));`;
+	const r = spawnSync(process.execPath, ['--input-type=module', '-e', script, warmCfg, cfg], { encoding: 'utf8' });
+	if (r.status !== 0) throw new Error(`warm analyser exited with ${r.status}: ${r.stderr.slice(0, 400)}`);
+	return JSON.parse(r.stdout.trim().split('\n').pop()!);
+}
+
 async function main(): Promise<void> {
 	await ensureBuiltCli();
 	const scale = Number(process.env.SINECHECK_BENCH_SCALE ?? 1) || 1;
@@ -204,6 +226,11 @@ async function main(): Promise<void> {
 		['  without flicker and THD', await builtAnalyser(hour.cfg, { flicker: false, thd: false })],
 	] as const;
 	for (const [name, r] of parts) rows.push([name, r.wallS, r.cpuS, nsPer(r.cpuS), rt(r.cpuS), rt(r.wallS), r.peakMB]);
+	for (const threads of [2, 1] as const) {
+		const r = warmAnalyser(files(shortS).cfg, hour.cfg, threads);
+		const name = `built analyser, COMTRADE, warm, ${threads} thread${threads > 1 ? 's' : ''} (timed inside)`;
+		rows.push([name, r.wallS, r.cpuS, nsPer(r.cpuS), rt(r.cpuS), rt(r.wallS), '']);
+	}
 	console.log(`\n${hourS} s x ${CHANNELS} channels @ ${BENCH_FS} S/s = ${(samples / 1e6).toFixed(0)} million samples`);
 	printTable(
 		['pass', 'wall s', 'cpu s', 'ns/sample (cpu)', 'x real time (cpu)', 'x real time (wall)', 'peak RSS MB'],

@@ -21,7 +21,8 @@ class HelperThread implements TrendHelperChannel {
 
 	constructor(entry: URL) {
 		const { port1, port2 } = new MessageChannel();
-		this.worker = new Worker(entry, { workerData: { port: port2 }, transferList: [port2] });
+		// execArgv: none of this process's flags (`--input-type` with `-e`, seen, keeps the thread from starting)
+		this.worker = new Worker(entry, { workerData: { port: port2 }, transferList: [port2], execArgv: [] });
 		this.worker.unref();
 		this.port = port1;
 		this.port.unref();

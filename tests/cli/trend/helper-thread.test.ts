@@ -160,4 +160,21 @@ describe('second analysis thread', () => {
 		expect(two.stdout).toBe(one.stdout);
 		expect(two.stderr).toBe(one.stderr);
 	}, 120_000);
+
+	it('starts its thread also in a process run with flags a thread cannot take (node --input-type=module -e)', () => {
+		// the thread once inherited --input-type and never started: the analyser then waited for it for ever
+		const url = (p: string) => JSON.stringify(pathToFileURL(join(root, 'dist', p)).href);
+		const script = `import { analyseFile } from ${url('src/cli/trend/read-recording.js')};
+import { helperThread } from ${url('src/cli/trend/helper-thread.js')};
+const r = analyseFile(process.argv[1], 'site.wav', {}, { helper: helperThread(2), flicker: false });
+console.log(r.cycles10.length);`;
+		const r = spawnSync(process.execPath, ['--input-type=module', '-e', script, wav], {
+			encoding: 'utf8',
+			timeout: 60_000,
+		});
+		expect(r.signal).toBeNull();
+		expect(r.status).toBe(0);
+		// 620 s of 10-cycle windows at 50 Hz: 3100, less the last partial one
+		expect(Number(r.stdout.trim())).toBeGreaterThanOrEqual(3098);
+	}, 120_000);
 });
