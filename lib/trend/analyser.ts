@@ -137,8 +137,9 @@ class StreamingTrend implements TrendAnalyser {
 		const { fs, voltage, vIndex, ref } = o;
 		const diagnostics = this.diagnostics;
 		const ticks = (this.ticks = recordingTicks(fs, opts.clockStartS));
-		// asked quietly here (the helper needs to know); the note, if any, comes in its place below
-		this.wantFlicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, []);
+		// asked here (the helper needs to know); its note, if any, goes out in its place below
+		const flickerNotes: Diagnostic[] = [];
+		this.wantFlicker = opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, flickerNotes);
 		this.link = this.openLink(this.wantFlicker, ticks.tenMinutes.offset / fs);
 		const rings = (this.rings = this.link?.rings ?? o.channels.map(() => new Float64Array(trendRingLength(fs, BLOCK))));
 		this.meter = new WindowMeter({
@@ -152,8 +153,9 @@ class StreamingTrend implements TrendAnalyser {
 		const clock = (this.clock = new WindowClock(fs, opts.nominalHz, ticks.tenMinutes, diagnostics));
 		const frequency = (this.frequency = new FrequencyAggregator(fs, ticks.frequency));
 		this.rows = new RowEmitter(o.nCh, opts.keep, opts.onRow, (s) => clock.tickOf(s), ticks.tenMinutes.offset === 0);
+		diagnostics.push(...flickerNotes);
 		this.flicker =
-			opts.flicker !== false && TrendFlickerTracker.wanted(fs, voltage, diagnostics) && !this.link
+			this.wantFlicker && !this.link
 				? new TrendFlickerTracker(
 						fs,
 						o.channels,

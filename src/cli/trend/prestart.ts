@@ -4,6 +4,7 @@
  * the paths. The command takes it over (trend-command.ts `helper`) or closes it.
  */
 import { defaultHeapMiB, helperAvailable, HelperProcess } from '../helper-process.js';
+import { limitsFrom } from '../limits-options.js';
 
 /**
  * @param memoryLimit  the --memory-limit value as given
@@ -13,9 +14,12 @@ import { defaultHeapMiB, helperAvailable, HelperProcess } from '../helper-proces
  */
 export function prestartTrendHelper(memoryLimit: unknown, threads: unknown): HelperProcess | undefined {
 	if (!helperAvailable()) return undefined;
-	// the same checks as options.ts limitsFrom and trend-command.ts (not loaded here: they load the signal library)
-	const heapMiB = memoryLimit === undefined ? undefined : Number(memoryLimit);
-	if (heapMiB !== undefined && !(Number.isInteger(heapMiB) && heapMiB >= 64)) return undefined;
+	let heapMiB: number | undefined;
+	try {
+		heapMiB = limitsFrom(undefined, memoryLimit).heapMiB;
+	} catch {
+		return undefined;
+	}
 	const t = threads === undefined ? 2 : Number(threads);
 	if (t !== 1 && t !== 2) return undefined;
 	const helper = new HelperProcess(heapMiB ?? defaultHeapMiB(1), '', ['trend', String(t)]);
