@@ -19,7 +19,7 @@ import {
 import type { Diagnostic } from '../../../lib/capture.js';
 import type { SurveyStandardId } from '../../../lib/survey/types.js';
 import { collectUnits } from '../collect-files.js';
-import { ERROR_PREFIX, errorLine } from '../error-line.js';
+import { ERROR_PREFIX, errorLine, problemLine } from '../error-line.js';
 import { UsageError } from '../usage-error.js';
 import { analyseRecording, type RecordingFile } from '../trend/read-recording.js';
 import { helperThread, settleHelperThread } from '../trend/helper-thread.js';
@@ -128,7 +128,15 @@ export async function surveyCommand(paths: string[], options: SurveyCommandOptio
 		try {
 			const isJson = ['.json', '.jsonl'].includes(extname(path).toLowerCase()) && statSync(path).isFile();
 			if (isJson) docs.push(...documentsIn(path));
-			else for (const u of collectUnits([path]).units) files.push({ path: u.files[0], source: u.files[0] });
+			else {
+				// a FIFO, a dangling link or an unreadable entry is said by name, as trend and analyse say it
+				const { units, problems } = collectUnits([path]);
+				for (const p of problems) {
+					failed++;
+					err.write(`${problemLine(p)}\n`);
+				}
+				for (const u of units) files.push({ path: u.files[0], source: u.files[0] });
+			}
 		} catch (e) {
 			failed++;
 			err.write(`${errorLine(e, path)}\n`);

@@ -3,7 +3,7 @@
  * as the merge step over JSON documents in the shape `trend --json` writes.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Papa from 'papaparse';
@@ -132,5 +132,21 @@ describe('sinecheck survey', () => {
 		expect(r.stderr).toContain('other.json');
 		expect(r.stderr).toContain('trend --json');
 		expect(r.stderr).not.toMatch(/\n\s+at /);
+	});
+
+	it('names a FIFO and a dangling link in a folder it surveys, and still surveys the recording', () => {
+		const f = join(dir, 'with-oddities');
+		mkdirSync(f, { recursive: true });
+		const rows = ['time (s),L1 (V)'];
+		for (let i = 0; i < 2000; i++)
+			rows.push(`${(i / 1000).toFixed(3)},${(325 * Math.sin((2 * Math.PI * 50 * i) / 1000)).toFixed(2)}`);
+		writeFileSync(join(f, 'a.csv'), rows.join('\n') + '\n');
+		spawnSync('mkfifo', [join(f, 'pipe.csv')]);
+		symlinkSync(join(f, 'nowhere.csv'), join(f, 'dangling.csv'));
+		const r = run(f);
+		expect(r.stderr).toMatch(/pipe\.csv: a named pipe/);
+		expect(r.stderr).toMatch(/dangling\.csv: a symbolic link to something that does not exist/);
+		expect(r.stderr).not.toMatch(/\n\s+at /); // no stack trace
+		expect(r.stdout).toMatch(/\S/);
 	});
 });
