@@ -1,5 +1,5 @@
 /**
- * One helper process (dist/src/cli/worker.js, started with fork) that does one file's work at a time with
+ * One helper process (worker.js beside this module: dist/bin/worker.js, started with fork) that does one file's work at a time with
  * a heap cap (--max-old-space-size) and a time limit. A file that crashes the helper, exhausts its heap or
  * runs out of time ends as words for that file's error line; the helper is then replaced.
  * A process, not a worker thread: a V8 fatal out-of-memory error in a worker thread aborts the whole

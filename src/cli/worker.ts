@@ -1,5 +1,5 @@
 /**
- * Helper process entry (compiled to dist/src/cli/worker.js, started by helper-process.ts with fork):
+ * Helper process entry (bundled to dist/bin/worker.js, started by helper-process.ts with fork):
  * does one file's work per request, `analyse` (one answer: the unit's reports and problems) or `trend`
  * (a stream of messages: header, rows, notes, then 'done' or 'error'), and answers with plain data. The
  * parent caps its heap and its time per file; when the parent goes away, so does the helper.
@@ -14,14 +14,10 @@ const send = (m: unknown) => process.send?.(m);
 
 // Each command's code loads on its first request, or at once when the parent says which command it runs
 // (argv: 'trend' and the threads): the loading then overlaps the parent's own start. A trend helper
-// with 2 threads also starts its analysis thread now.
-const trendCode =
-	process.argv[2] === 'trend'
-		? import('./trend/trend-file.js').then(async (m) => {
-				if (Number(process.argv[3]) >= 2) (await import('./trend/helper-thread.js')).helperThread(2);
-				return m;
-			})
-		: undefined;
+// with 2 threads also starts its analysis thread now, beside the loading (the thread loads its own code).
+if (process.argv[2] === 'trend' && Number(process.argv[3]) >= 2)
+	void import('./trend/helper-thread.js').then((t) => t.helperThread(2));
+const trendCode = process.argv[2] === 'trend' ? import('./trend/trend-file.js') : undefined;
 
 process.on('message', async (req: WorkRequest) => {
 	if (req.kind === 'analyse') {

@@ -1,5 +1,5 @@
 /**
- * End-to-end: the BUILT command (node dist/src/cli/main.js) run as a child process on capture files
+ * End-to-end: the BUILT command (node dist/bin/sinecheck.js, the bundle of dist/src/cli) run as a child process on capture files
  * written here from closed-form signals. Expected figures come from formulas (named beside each check),
  * from docs/methods.md's computed vectors, or from the library called in this process on the same file.
  */

@@ -1,14 +1,15 @@
 /**
  * The built CLI for the end-to-end tests and the CLI bench. `npm test` builds it before vitest runs, so
- * in CI dist/ is always fresh. It is never rebuilt here: rewriting dist/ in place while another process
- * runs dist/src/cli/main.js (a bench, another test file, a worker thread loading worker.js) would hand
+ * in CI dist/ is always fresh. `mainJs` is what `sinecheck` runs: dist/bin/sinecheck.js, the bundle of
+ * tsc's dist/src/cli (src/cli/build-bundle.ts). It is never rebuilt here: rewriting dist/ in place while another process
+ * runs it (a bench, another test file, a worker thread loading worker.js) would hand
  * that process half-written modules. A missing or stale build is a clear failure instead.
  */
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 
 export const root = join(import.meta.dirname, '..', '..');
-export const mainJs = join(root, 'dist', 'src', 'cli', 'main.js');
+export const mainJs = join(root, 'dist', 'bin', 'sinecheck.js');
 
 /** The newest .ts file under `dir`, with its modification time. */
 function newestSource(dir: string): { path: string; ms: number } {
@@ -23,8 +24,8 @@ function newestSource(dir: string): { path: string; ms: number } {
 }
 
 /**
- * Throws, telling to run `npm run build:cli`, when dist/src/cli/main.js is missing or older than a source
- * file of lib/ or src/cli/ (tsc -p tsconfig.cli.json rewrites every output file, main.js included).
+ * Throws, telling to run `npm run build:cli`, when dist/bin/sinecheck.js is missing or older than a source
+ * file of lib/ or src/cli/ (build:cli rewrites every output file: tsc's, then the bundle's).
  */
 export async function ensureBuiltCli(): Promise<void> {
 	const fix = 'run `npm run build:cli` (npm test does it before the tests)';

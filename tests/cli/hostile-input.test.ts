@@ -1,5 +1,5 @@
 /**
- * Hostile and huge input through the BUILT command (node dist/src/cli/main.js) in child processes with a
+ * Hostile and huge input through the BUILT command (node dist/bin/sinecheck.js, the bundle of dist/src/cli) in child processes with a
  * heap cap (--max-old-space-size), an address-space cap (prlimit --as, when the machine has prlimit) and
  * a wall-clock limit (the whole process group is killed when it runs over). Every run must end with a
  * report or a located error line per file (`sinecheck: <path>[:line[:column]]: ...`), never a crash
@@ -59,6 +59,7 @@ interface Run {
 /**
  * Runs the built CLI with the caps above. `closeStdoutAfter` closes our end of its stdout after that
  * many bytes (like `| head -c N`). `uid` runs it as another user (when this test runs as root).
+ * `termAfterMs` sends it SIGTERM that long after its first helper process appears.
  */
 function runCli(
 	args: string[],
@@ -87,10 +88,20 @@ function runCli(
 			timedOut = true;
 			process.kill(-child.pid!, 'SIGKILL'); // the whole group: the CLI and its helper processes
 		}, WALL_LIMIT_MS);
-		const term = opts.termAfterMs === undefined ? undefined : setTimeout(() => child.kill('SIGTERM'), opts.termAfterMs);
+		// SIGTERM `termAfterMs` after a helper process appears in the CLI's group (it then works on the file,
+		// however fast this machine is); polled every 50 ms.
+		let term: NodeJS.Timeout | undefined;
+		const watch =
+			opts.termAfterMs === undefined
+				? undefined
+				: setInterval(() => {
+						if (term || groupMembers(child.pid!).filter((pid) => pid !== child.pid).length === 0) return;
+						term = setTimeout(() => child.kill('SIGTERM'), opts.termAfterMs);
+					}, 50);
 		child.on('close', (code, signal) => {
 			clearTimeout(timer);
 			clearTimeout(term);
+			clearInterval(watch);
 			// Processes still in the CLI's process group (helpers left behind), then none are left for later tests.
 			const left = spawnSync('ps', ['-eo', 'pgid=,pid=,args='], { encoding: 'utf8' })
 				.stdout.split('\n')
@@ -100,6 +111,15 @@ function runCli(
 			resolve({ code, signal, stdout, stderr, timedOut, ms: Date.now() - t0, leftInGroup: left });
 		});
 	});
+}
+
+/** Process ids in process group `pgid` (zombies left out). */
+function groupMembers(pgid: number): number[] {
+	return spawnSync('ps', ['-eo', 'pgid=,pid=,stat='], { encoding: 'utf8' })
+		.stdout.split('\n')
+		.map((l) => l.trim().split(/\s+/))
+		.filter(([g, , stat]) => g === String(pgid) && !stat?.startsWith('Z'))
+		.map(([, pid]) => Number(pid));
 }
 
 /** The run ended by itself, with a documented exit code, and printed nothing a user should never see. */
@@ -205,8 +225,8 @@ beforeAll(async () => {
 		SINE,
 	);
 	writeCsvCapture(join(dir, '-2+3.csv'), U1, SINE);
-	// A long, ordinary record (1.5 M rows x 3 channels, ~45 MB): its analysis takes seconds, so a signal
-	// sent 2 s after the start arrives while a helper works on it (about 3.4 s of CPU here).
+	// A long, ordinary record (1.5 M rows x 3 channels, ~45 MB): its analysis takes over a second, so a
+	// signal sent 0.3 s after its helper process starts arrives while the helper works on it.
 	writeCsvCapture(
 		join(dir, 'long.csv'),
 		['U1', 'U2', 'U3'].map((n) => ({ header: `${n} (V)`, tones: [{ order: 1, rms: 230 }] })),
@@ -278,7 +298,7 @@ describe('sinecheck under hostile input (built CLI, capped child processes)', ()
 	}, 60_000);
 
 	it('analyse <file> stopped with SIGTERM mid-file leaves no helper process running', async () => {
-		const r = await runCli(['analyse', 'long.csv', '--time-limit', '40'], { termAfterMs: 2000 });
+		const r = await runCli(['analyse', 'long.csv', '--time-limit', '40'], { termAfterMs: 300 });
 		expect(r.timedOut).toBe(false);
 		expect(r.code).toBe(143); // 128 + SIGTERM (15), common practice for a command ended by a signal
 		expect(r.leftInGroup).toBe('');

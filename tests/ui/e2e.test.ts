@@ -18,7 +18,7 @@ import { sineSamples } from '../helpers/synth.js';
 
 const ROOT = resolve(__dirname, '../..');
 const DIST = join(ROOT, 'dist-ui');
-const CLI = join(ROOT, 'dist/src/cli/main.js');
+const CLI = join(ROOT, 'dist/bin/sinecheck.js');
 const ARTIFACTS = join(ROOT, 'test-artifacts');
 if (!hasChromium) console.warn('SKIPPED browser tests: /usr/bin/chromium is absent (apt-get install -y chromium)');
 
@@ -212,7 +212,7 @@ describe.skipIf(!hasChromium)('the analyser in Chromium', () => {
 		const fromUi = JSON.parse(readFileSync(saved, 'utf8'));
 		expect(fromUi.referenceChannel).toBe('I1');
 		if (!existsSync(CLI)) {
-			console.warn('SKIPPED CLI comparison: dist/src/cli/main.js is not built (npm test builds it)');
+			console.warn('SKIPPED CLI comparison: dist/bin/sinecheck.js is not built (npm test builds it)');
 			return;
 		}
 		const cli = spawnSync(
