@@ -22,10 +22,10 @@
 import { spawn, spawnSync } from 'node:child_process';
 import { closeSync, mkdtempSync, openSync, readFileSync, readSync, rmSync, statSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
+import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { ComtradeSampleStream, CsvSampleStream, parseComtradeCfg, type SampleSink } from '../../lib/io/index.js';
-import { ensureBuiltCli, mainJs } from '../cli/built-cli.js';
+import { compiledCli, ensureBuiltCli, mainJs } from '../cli/built-cli.js';
 import { printTable } from './measure.js';
 import { BENCH_FS, writeComtrade, writeCsv } from './trend-files.js';
 
@@ -130,7 +130,7 @@ function cliTrend(file: string, threads?: string): Promise<Run> {
  * on and none kept: the parts of the analyser's time.
  */
 function builtAnalyser(cfg: string, settings: { flicker?: boolean; thd?: boolean }): Promise<Run> {
-	const reader = pathToFileURL(join(dirname(mainJs), 'trend', 'read-recording.js')).href;
+	const reader = pathToFileURL(join(compiledCli, 'trend', 'read-recording.js')).href;
 	const script = `import { analyseFile } from ${JSON.stringify(reader)}; analyseFile(process.argv[1], 'bench.cfg', {}, { ...${JSON.stringify(settings)}, keep: { cycles10: false, cycles150: false, min10: false }, onRow: () => {} });`;
 	return timed(['--input-type=module', '-e', script, cfg]);
 }
@@ -141,7 +141,7 @@ function builtAnalyser(cfg: string, settings: { flicker?: boolean; thd?: boolean
  * (the CLI's second thread): what the CLI's own start and warm-up cost, by difference.
  */
 function warmAnalyser(warmCfg: string, cfg: string, threads: 1 | 2): { wallS: number; cpuS: number } {
-	const dist = dirname(mainJs);
+	const dist = compiledCli;
 	const reader = pathToFileURL(join(dist, 'trend', 'read-recording.js')).href;
 	const thread = pathToFileURL(join(dist, 'trend', 'helper-thread.js')).href;
 	const script = `import { analyseFile } from ${JSON.stringify(reader)}; import { helperThread } from ${JSON.stringify(thread)};

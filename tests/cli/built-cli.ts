@@ -10,6 +10,8 @@ import { join, relative } from 'node:path';
 
 export const root = join(import.meta.dirname, '..', '..');
 export const mainJs = join(root, 'dist', 'bin', 'sinecheck.js');
+/** tsc's output of src/cli, module by module (what the bundle is made from), for benches that import one part. */
+export const compiledCli = join(root, 'dist', 'src', 'cli');
 
 /** The newest .ts file under `dir`, with its modification time. */
 function newestSource(dir: string): { path: string; ms: number } {
