@@ -546,7 +546,7 @@ function shortRecordSentence(
 			? `RMS, rectified mean, form factor and meter error cover its first ${periods} whole period(s) of the fitted frequency`
 			: 'it holds no whole period, so mean and RMS come from the fit and rectified mean, form factor and meter error are not given';
 	return (
-		`Short record: ${r((1000 * n) / fs, 3)} ms holds ${r(fit.cycles, 3)} cycles at the fitted ${r(fit.frequencyHz, 3)} Hz (± ${Number(fit.frequencyStdHz.toPrecision(2))} Hz). ` +
+		`Short record: ${r((1000 * n) / fs, 3)} ms holds ${r(fit.cycles, 3)} cycle${r(fit.cycles, 3) === '1' ? '' : 's'} at the fitted ${r(fit.frequencyHz, 3)} Hz (± ${Number(fit.frequencyStdHz.toPrecision(2))} Hz). ` +
 		`Frequency, harmonics (to order ${fit.highestOrder}), THD, lag and power are ${FITTED_NOTE}, each with its uncertainty; ${span}.`
 	);
 }

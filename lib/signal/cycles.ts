@@ -1,5 +1,5 @@
 import { coarseFrequencyHz } from './coarse-frequency.js';
-import { fmt } from './format.js';
+import { cyclesText, fmt } from './format.js';
 import { trackCrossings, type Track } from './track-crossings.js';
 
 /**
@@ -248,7 +248,7 @@ function tooShort(recordCycles: number, frequencyHz: number, wholeCycles?: numbe
 		wholeCycles === undefined ? '' : `, of which ${Math.max(0, wholeCycles)} whole between rising zero crossings`;
 	return fail(
 		'too-short',
-		`The record holds about ${fmt(recordCycles)} cycles of ${fmt(frequencyHz)} Hz${found}; at least two whole cycles are needed.`,
+		`The record holds about ${cyclesText(fmt(recordCycles))} of ${fmt(frequencyHz)} Hz${found}; at least two whole cycles are needed.`,
 	);
 }
 

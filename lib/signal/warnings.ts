@@ -1,5 +1,5 @@
 import type { ChannelRange, Diagnostic } from '../capture.js';
-import { fmt } from './format.js';
+import { cyclesText, fmt } from './format.js';
 import { runShowsSlopeBreak } from './clip-check.js';
 import { rangeClippingMessage } from './clip-range.js';
 import { windowIntegral } from './window-integral.js';
@@ -127,7 +127,7 @@ function fewCyclesWarning(n: number, sampleRateHz: number, f: number, cycles: nu
 		const analysed = cycles !== undefined ? `, ${cycles} whole cycle(s) analysed` : '';
 		warn(
 			'few-cycles',
-			`The record holds only ${fmt(recordCycles)} cycles (${fmt((1000 * n) / sampleRateHz)} ms at ${fmt(f)} Hz${analysed}); ` +
+			`The record holds only ${cyclesText(fmt(recordCycles))} (${fmt((1000 * n) / sampleRateHz)} ms at ${fmt(f)} Hz${analysed}); ` +
 				`IEC 61000-4-30 basic values use 10 cycles at 50 Hz or 12 at 60 Hz, so these figures may vary more between captures.`,
 		);
 	}

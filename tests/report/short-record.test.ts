@@ -104,6 +104,13 @@ describe('analyseCapture short-record rules', () => {
 		expect(reportToJson(r).channels[0].formFactor).toBeNull();
 	});
 
+	it("says '1 cycle', not '1 cycles', for a record of exactly one cycle (English grammar)", () => {
+		// unquantised 230 V / 50.2 Hz, exactly one period at 100 kS/s: the fit holds 1.000 cycles
+		const r = analyseCapture(scopeCapture(1, 100_000, false));
+		expect(r.shortRecord).not.toBeNull();
+		expect(r.warnings.join(' ')).toMatch(/holds 1 cycle at the fitted 50\.2/);
+	});
+
 	it('marks a harmonic under the rounding floor q/√12 as below resolution', () => {
 		// 8-bit voltage channel (q = 3.125 V, floor 0.90 V RMS) with a 0.5 V RMS 5th: under the floor
 		const fs = 1e6;
