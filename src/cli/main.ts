@@ -272,9 +272,27 @@ cli.help((sections) => {
 });
 cli.version('0.1.0');
 
+/**
+ * cac (7.1.0) tells its parser (mri) which options are flags by their camelCase names (eachFile), while the
+ * command line spells them in kebab case (--each-file): mri then took the word after such a flag as its
+ * value, so `sinecheck trend --each-file a.csv` lost a.csv. Flags of more than one word are handed on in
+ * the spelling the parser knows as a flag; nothing after `--` is touched (those are paths).
+ */
+function flagsAsParsed(argv: string[]): string[] {
+	const flags = new Set<string>();
+	for (const command of [cli.globalCommand, ...cli.commands])
+		for (const o of command.options) if (o.isBoolean && !o.negated) for (const n of o.names) flags.add(n);
+	const end = argv.indexOf('--');
+	return argv.map((a, i) => {
+		if ((end >= 0 && i > end) || !/^--[a-z]+(-[a-z]+)+$/.test(a)) return a;
+		const camel = a.slice(2).replace(/-([a-z])/g, (_, c: string) => c.toUpperCase());
+		return flags.has(camel) ? `--${camel}` : a;
+	});
+}
+
 async function main(): Promise<number> {
 	try {
-		cli.parse(process.argv, { run: false });
+		cli.parse(flagsAsParsed(process.argv), { run: false });
 		if (cli.options.help || cli.options.version) return 0;
 		if (!cli.matchedCommand) {
 			if (cli.args.length > 0)
