@@ -13,7 +13,7 @@
  * And, from binary COMTRADE, the built analyser in a bare Node process: whole, without flicker, and without
  * flicker and THD, to show where the time goes; and, timed inside its process after a warm-up on the 10-minute
  * file, on 2 threads and on 1 (the difference to the CLI is the CLI's start and V8's first compilations). The verdict is by wall time (recording length ÷ elapsed time,
- * the median of three runs), as a user waits for it: `trend` shares a recording's work with a second thread
+ * the median of five runs), as a user waits for it: `trend` shares a recording's work with a second thread
  * (--threads, default 2), so its CPU time (user + system of all its threads and processes, also printed)
  * is more than its wall time. On a shared machine wall time also counts waiting for a core: the load
  * average is printed, and a run on one thread (--threads 1) is shown beside it.
@@ -118,7 +118,7 @@ function timed(args: string[]): Promise<Run> {
 }
 
 /** Runs of the trend CLI per file; the verdict takes the median by wall time. */
-const RUNS = 3;
+const RUNS = 5;
 
 /** `sinecheck trend <file>`, the built CLI (with its default of 2 threads, or `threads`). */
 function cliTrend(file: string, threads?: string): Promise<Run> {
