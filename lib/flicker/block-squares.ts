@@ -81,15 +81,28 @@ export class BlockSquares {
 		// by the same code at either end (so the optimised code has seen that path on the first cut).
 		while (i < to) {
 			if (p === 0 && i + d <= to) {
+				// Finite samples (the rule): each square added as it is; a block whose sum is not finite
+				// (a NaN or infinite sample, or a square past the largest double) is summed again below with
+				// the check per sample, which for finite samples adds exactly the same terms.
 				let bs = 0,
-					br = 0;
-				for (let q = 0; q < d; q++) {
+					br = 0,
+					h = 0.5;
+				for (let q = 0; q < d; q++, h++) {
 					const v = x[i + q];
-					if (v - v === 0) last = v * v;
-					else bad++;
-					bs += last;
-					br += (q + 0.5) * last;
+					const sq = v * v;
+					bs += sq;
+					br += h * sq;
 				}
+				if (bs - bs !== 0) {
+					bs = br = 0;
+					for (let q = 0; q < d; q++) {
+						const v = x[i + q];
+						if (v - v === 0) last = v * v;
+						else bad++;
+						bs += last;
+						br += (q + 0.5) * last;
+					}
+				} else last = x[i + d - 1] * x[i + d - 1];
 				out[k++] = (rising + d * bs - br) * norm;
 				rising = br;
 				i += d;

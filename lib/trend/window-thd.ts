@@ -171,11 +171,13 @@ export class WindowThd {
 		if (startT === this.placedStartT && endT === this.placedEndT) return;
 		const step = (endT - startT) / M;
 		const t0 = startT - (Math.floor(startT) - 3) - 3;
+		const at = this.tapAt;
+		const phase = this.tapPhase;
 		for (let m = 0; m < M; m++) {
 			const t = t0 + m * step;
 			const i = Math.floor(t);
-			this.tapAt[m] = i;
-			this.tapPhase[m] = Math.round((t - i) * PHASES) * TAPS;
+			at[m] = i;
+			phase[m] = Math.round((t - i) * PHASES) * TAPS;
 		}
 		this.placedStartT = startT;
 		this.placedEndT = endT;
