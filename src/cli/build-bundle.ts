@@ -34,6 +34,8 @@ await build({
 	platform: 'node',
 	target: 'node20',
 	logLevel: 'warning',
+	// read only when SINECHECK_DEBUG is set (main.ts, worker.ts): a stack then names tsc's modules and lines
+	sourcemap: 'linked',
 	banner: {
 		js: "import { createRequire as bundleRequire } from 'node:module'; const require = bundleRequire(import.meta.url);",
 	},

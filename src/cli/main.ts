@@ -6,6 +6,9 @@ import { ANALYSE_EXAMPLES, EXIT_CODES, SAFETY_CAUTION, TREND_EXAMPLES, wrap } fr
 import { printable } from './printable.js';
 import { UsageError } from './usage-error.js';
 
+// A stack asked for with SINECHECK_DEBUG names the modules (dist/src/cli/...) through the bundle's source maps.
+if (process.env.SINECHECK_DEBUG) process.setSourceMapsEnabled(true);
+
 const cli = cac('sinecheck');
 
 /**

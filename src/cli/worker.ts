@@ -12,6 +12,9 @@ export type WorkRequest =
 
 const send = (m: unknown) => process.send?.(m);
 
+// A stack asked for with SINECHECK_DEBUG names the modules (dist/src/cli/...) through the bundle's source maps.
+if (process.env.SINECHECK_DEBUG) process.setSourceMapsEnabled(true);
+
 // Each command's code loads on its first request, or at once when the parent says which command it runs
 // (argv: 'trend' and the threads): the loading then overlaps the parent's own start. A trend helper
 // with 2 threads also starts its analysis thread now, beside the loading (the thread loads its own code).
