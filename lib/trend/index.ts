@@ -38,3 +38,5 @@ export {
 	type TrendHelperResult,
 } from './helper-link.js';
 export { fileList } from './file-list.js';
+// the window resampler's WebAssembly text, for the build step that compiles it (src/cli/build-resample-simd.ts)
+export { resampleSimdWat } from './resample-simd-source.js';

@@ -14,7 +14,10 @@
  * over the points; each channel's 2048 real points go through fft.js as 1024 complex points z_n = x_2n + i·x_2n+1
  * and X_k = E_k + W^k·O_k with E_k = (Z_k + Z*_{N−k}) / 2, O_k = (Z_k − Z*_{N−k}) / 2i, W = e^{−2πi/M}
  * (common practice: a real DFT of 2N points from a complex DFT of N), only at the bins the subgroups
- * use. Samples are read from the ring in place unless the window wraps round its end.
+ * use. Samples are read from the ring in place unless the window wraps round its end. Where WebAssembly
+ * SIMD is available (browsers and Node alike), the resampling runs in resample-simd.ts instead (the
+ * window's samples copied in, four channels per pass, ~4× the speed of the loops here; the same terms
+ * summed in another order, so the points agree with these loops to ~1e-16 relative).
  *
  * Accuracy of the interpolation (worst fractional position; computed from the 8-point Lagrange
  * frequency response): magnitude error < 0.003 % up to 0.1·fs, < 0.06 % up to 0.15·fs, < 0.5 % at
@@ -26,6 +29,7 @@
  */
 import { MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import FFT from 'fft.js';
+import { SimdResampler } from './resample-simd.js';
 
 const M = 2048;
 const TAPS = 8;
@@ -85,8 +89,8 @@ const twiddles = (() => {
 
 export class WindowThd {
 	private readonly fft = new FFT(N);
-	/** Resampled points of up to LANES channels of the window. */
-	private readonly points = Array.from({ length: LANES }, () => new Float64Array(M));
+	/** Resampled points of up to LANES channels of the window (in the SIMD resampler's memory when it runs). */
+	private points = Array.from({ length: LANES }, () => new Float64Array(M));
 	private readonly spectrum = new Float64Array(2 * N);
 	/** Power |X_k|² of the bins in use (k ≤ c·51 + 1 ≤ M/2), of the channel just transformed; its fundamental bin. */
 	private readonly power = new Float64Array(N + 1);
@@ -94,8 +98,10 @@ export class WindowThd {
 	/** Copies of windows that wrap round the ring's end (with the taps' margin), one per lane. */
 	private raw = Array.from({ length: LANES }, () => new Float64Array(M + 64));
 	/** Per output point: the first tap's index from the window's first tap, and its weights' row; same for every channel of a window. */
-	private readonly tapAt = new Int32Array(M);
-	private readonly tapPhase = new Int32Array(M);
+	private tapAt = new Int32Array(M);
+	private tapPhase = new Int32Array(M);
+	/** The resampling in WebAssembly SIMD (resample-simd.ts), where the platform has it; else the loops below. */
+	private readonly simd: SimdResampler | undefined;
 	private placedStartT = NaN;
 	private placedEndT = NaN;
 	/** Of the window placed: the first tap's sample index, taps' sample count, highest order below fs/2. */
@@ -105,9 +111,22 @@ export class WindowThd {
 	/** Index of the first tap in the array `source` returned last. */
 	private runStart = 0;
 
-	constructor(readonly cycles: number) {
+	/**
+	 * @param cycles  fundamental cycles per window (10 at 50 Hz, 12 at 60 Hz)
+	 * @param simd    resample in WebAssembly SIMD where available (false: the JavaScript loops, as where it is not)
+	 */
+	constructor(
+		readonly cycles: number,
+		simd = true,
+	) {
 		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2)
 			throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
+		this.simd = simd ? SimdResampler.create(weightTable()) : undefined;
+		if (this.simd) {
+			this.tapAt = this.simd.tapAt;
+			this.tapPhase = this.simd.tapPhase;
+			this.points = this.simd.points;
+		}
 	}
 
 	/**
@@ -126,9 +145,12 @@ export class WindowThd {
 		this.place(startT, endT, sampleRateHz);
 		for (let c = 0; c < rings.length; c += LANES) {
 			const lanes = Math.min(LANES, rings.length - c);
-			if (lanes === LANES) this.resample4(rings, mask, c);
-			else if (lanes >= 2) this.resample2(rings, mask, c);
-			if (lanes === 1 || lanes === 3) this.resample1(rings[c + lanes - 1], mask, lanes - 1);
+			if (this.simd) this.resampleSimd(this.simd, rings, mask, c, lanes);
+			else {
+				if (lanes === LANES) this.resample4(rings, mask, c);
+				else if (lanes >= 2) this.resample2(rings, mask, c);
+				if (lanes === 1 || lanes === 3) this.resample1(rings[c + lanes - 1], mask, lanes - 1);
+			}
 			for (let j = 0; j < lanes; j++) {
 				this.transform(this.points[j]);
 				this.subgroups(c + j, out);
@@ -167,7 +189,14 @@ export class WindowThd {
 		this.hMax = h;
 		this.first = Math.floor(startT) - 3;
 		this.count = Math.floor(endT) + 5 - this.first;
-		if (this.raw[0].length < this.count) this.raw = this.raw.map(() => new Float64Array(this.count));
+		if (this.simd?.reserve(this.count)) {
+			// the resampler's memory grew: its views are new, and the points' places must be written again
+			this.tapAt = this.simd.tapAt;
+			this.tapPhase = this.simd.tapPhase;
+			this.points = this.simd.points;
+			this.placedStartT = NaN;
+		} else if (!this.simd && this.raw[0].length < this.count)
+			this.raw = this.raw.map(() => new Float64Array(this.count));
 		if (startT === this.placedStartT && endT === this.placedEndT) return;
 		const step = (endT - startT) / M;
 		const t0 = startT - (Math.floor(startT) - 3) - 3;
@@ -195,6 +224,26 @@ export class WindowThd {
 		for (let j = 0; j < count; j++) raw[j] = ring[(this.first + j) & mask];
 		this.runStart = 0;
 		return raw;
+	}
+
+	/** Channels c … c + lanes − 1 resampled into points[0 …] by the SIMD module: each window's taps copied in first. */
+	private resampleSimd(
+		simd: SimdResampler,
+		rings: readonly Float64Array[],
+		mask: number,
+		c: number,
+		lanes: number,
+	): void {
+		const at = this.first & mask;
+		const count = this.count;
+		for (let j = 0; j < lanes; j++) {
+			const ring = rings[c + j];
+			const lane = simd.lane(j);
+			const first = Math.min(count, ring.length - at);
+			lane.set(ring.subarray(at, at + first));
+			if (first < count) lane.set(ring.subarray(0, count - first), first);
+		}
+		simd.run(lanes);
 	}
 
 	/** One channel resampled into points[lane]. */
