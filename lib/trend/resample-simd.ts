@@ -78,15 +78,24 @@ export class SimdResampler {
 		this.reserve(4096);
 	}
 
-	/** A resampler with `weights` (8 per phase); undefined where WebAssembly SIMD is missing. */
+	/**
+	 * A resampler with `weights` (8 per phase); undefined where WebAssembly SIMD is missing or its memory
+	 * cannot be had (a WebAssembly memory reserves gigabytes of address space: under `ulimit -v` it fails).
+	 */
 	static create(weights: Float64Array): SimdResampler | undefined {
 		const module = moduleOnce();
-		return module ? new SimdResampler(module, weights) : undefined;
+		if (!module) return undefined;
+		try {
+			return new SimdResampler(module, weights);
+		} catch {
+			return undefined;
+		}
 	}
 
 	/**
 	 * Room for `count` samples per channel; true when the views (`tapAt`, `tapPhase`, `points`) are new.
 	 * More room is a new memory and instance, never a grown memory (see resample-simd-source.ts).
+	 * @throws RangeError when the memory cannot be had (the caller goes on without this resampler)
 	 */
 	reserve(count: number): boolean {
 		const stride = roundUp16(count * 8);

@@ -101,7 +101,7 @@ export class WindowThd {
 	private tapAt = new Int32Array(M);
 	private tapPhase = new Int32Array(M);
 	/** The resampling in WebAssembly SIMD (resample-simd.ts), where the platform has it; else the loops below. */
-	private readonly simd: SimdResampler | undefined;
+	private simd: SimdResampler | undefined;
 	private placedStartT = NaN;
 	private placedEndT = NaN;
 	/** Of the window placed: the first tap's sample index, taps' sample count, highest order below fs/2. */
@@ -189,11 +189,11 @@ export class WindowThd {
 		this.hMax = h;
 		this.first = Math.floor(startT) - 3;
 		this.count = Math.floor(endT) + 5 - this.first;
-		if (this.simd?.reserve(this.count)) {
-			// the resampler's memory grew: its views are new, and the points' places must be written again
-			this.tapAt = this.simd.tapAt;
-			this.tapPhase = this.simd.tapPhase;
-			this.points = this.simd.points;
+		if (this.simdRoom(this.count)) {
+			// the resampler's memory is new: so are its views, and the points' places must be written again
+			this.tapAt = this.simd!.tapAt;
+			this.tapPhase = this.simd!.tapPhase;
+			this.points = this.simd!.points;
 			this.placedStartT = NaN;
 		} else if (!this.simd && this.raw[0].length < this.count)
 			this.raw = this.raw.map(() => new Float64Array(this.count));
@@ -224,6 +224,24 @@ export class WindowThd {
 		for (let j = 0; j < count; j++) raw[j] = ring[(this.first + j) & mask];
 		this.runStart = 0;
 		return raw;
+	}
+
+	/**
+	 * Whether the SIMD resampler has new views after making room for `count` samples; when it cannot have
+	 * the memory, it is dropped and the JavaScript loops take over (with arrays of their own).
+	 */
+	private simdRoom(count: number): boolean {
+		if (!this.simd) return false;
+		try {
+			return this.simd.reserve(count);
+		} catch {
+			this.simd = undefined;
+			this.tapAt = new Int32Array(M);
+			this.tapPhase = new Int32Array(M);
+			this.points = Array.from({ length: LANES }, () => new Float64Array(M));
+			this.placedStartT = NaN;
+			return false;
+		}
 	}
 
 	/** Channels c … c + lanes − 1 resampled into points[0 …] by the SIMD module: each window's taps copied in first. */

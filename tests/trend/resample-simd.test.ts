@@ -73,3 +73,48 @@ describe('a window longer than the first memory (10 cycles at 100 kS/s, 20 000 s
 		}
 	});
 });
+
+describe('where a WebAssembly memory cannot be had (a capped address space: each reserves gigabytes)', () => {
+	const realMemory = WebAssembly.Memory;
+	const failing = class {
+		constructor() {
+			throw new RangeError('WebAssembly.Memory(): could not allocate memory');
+		}
+	};
+	const mix = (fs: number, samples: number) =>
+		harmonicSamples(
+			[
+				{ order: 1, rms: 230 },
+				{ order: 5, rms: 11.5, phaseDeg: -75 },
+			],
+			{ frequencyHz: 49.97, sampleRateHz: fs, samples },
+		);
+	const want = (100 * 11.5) / 230; // closed form: V5 / V1
+
+	it('there is no SIMD resampler, and the THD comes from the JavaScript loops, 5 % as the closed form', () => {
+		(WebAssembly as { Memory: unknown }).Memory = failing;
+		try {
+			expect(SimdResampler.create(weights())).toBeUndefined();
+			const out: WindowThdOut = { thd: new Float64Array(1) };
+			new WindowThd(10).thdWindow([mix(10_000, 1 << 13)], (1 << 13) - 1, 100.5, 100.5 + 100_000 / 49.97, 10_000, out);
+			expect(Math.abs(out.thd[0] - want)).toBeLessThan(3e-5 * want);
+		} finally {
+			(WebAssembly as { Memory: unknown }).Memory = realMemory;
+		}
+	});
+
+	it('a window that needs a new memory part-way falls back to the loops, the THD still the closed form', () => {
+		const thd = new WindowThd(10);
+		const out: WindowThdOut = { thd: new Float64Array(1) };
+		thd.thdWindow([mix(10_000, 1 << 13)], (1 << 13) - 1, 100.5, 100.5 + 100_000 / 49.97, 10_000, out);
+		expect(Math.abs(out.thd[0] - want)).toBeLessThan(3e-5 * want);
+		(WebAssembly as { Memory: unknown }).Memory = failing;
+		try {
+			// 10 cycles at 100 kS/s: 20 000 samples, more than the first memory holds
+			thd.thdWindow([mix(100_000, 1 << 16)], (1 << 16) - 1, 1000.25, 1000.25 + 1_000_000 / 49.97, 100_000, out);
+			expect(Math.abs(out.thd[0] - want)).toBeLessThan(3e-5 * want);
+		} finally {
+			(WebAssembly as { Memory: unknown }).Memory = realMemory;
+		}
+	});
+});
