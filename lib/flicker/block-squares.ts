@@ -81,9 +81,9 @@ export class BlockSquares {
 		// by the same code at either end (so the optimised code has seen that path on the first cut).
 		while (i < to) {
 			if (p === 0 && i + d <= to) {
-				// Finite samples (the rule): each square added as it is; a block whose sum is not finite
-				// (a NaN or infinite sample, or a square past the largest double) is summed again below with
-				// the check per sample, which for finite samples adds exactly the same terms.
+				// Finite samples (the rule): each square added as it is. A block whose sum is not finite (a NaN
+				// or infinite sample, or a square past the largest double) goes through the per-sample code
+				// below instead, which for finite samples adds exactly the same terms in the same order.
 				let bs = 0,
 					br = 0,
 					h = 0.5;
@@ -93,20 +93,13 @@ export class BlockSquares {
 					bs += sq;
 					br += h * sq;
 				}
-				if (bs - bs !== 0) {
-					bs = br = 0;
-					for (let q = 0; q < d; q++) {
-						const v = x[i + q];
-						if (v - v === 0) last = v * v;
-						else bad++;
-						bs += last;
-						br += (q + 0.5) * last;
-					}
-				} else last = x[i + d - 1] * x[i + d - 1];
-				out[k++] = (rising + d * bs - br) * norm;
-				rising = br;
-				i += d;
-				continue;
+				if (bs - bs === 0) {
+					last = x[i + d - 1] * x[i + d - 1];
+					out[k++] = (rising + d * bs - br) * norm;
+					rising = br;
+					i += d;
+					continue;
+				}
 			}
 			const v = x[i++];
 			if (v - v === 0) last = v * v;

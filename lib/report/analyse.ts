@@ -5,6 +5,7 @@
 import { basicWindowCycles, MAX_HARMONIC_ORDER } from '../spectrum/harmonics.js';
 import { durationS, type Capture, type Diagnostic } from '../capture.js';
 import { findWholeCycles, type CycleWindow } from '../signal/cycles.js';
+import { cyclesText } from '../signal/format.js';
 import { waveformFigures } from '../signal/levels.js';
 import { tddPercent, ulKFactor } from '../spectrum/distortion.js';
 import { thdFPercent, thdRPercent } from '../spectrum/thd.js';
@@ -546,7 +547,7 @@ function shortRecordSentence(
 			? `RMS, rectified mean, form factor and meter error cover its first ${periods} whole period(s) of the fitted frequency`
 			: 'it holds no whole period, so mean and RMS come from the fit and rectified mean, form factor and meter error are not given';
 	return (
-		`Short record: ${r((1000 * n) / fs, 3)} ms holds ${r(fit.cycles, 3)} cycle${r(fit.cycles, 3) === '1' ? '' : 's'} at the fitted ${r(fit.frequencyHz, 3)} Hz (± ${Number(fit.frequencyStdHz.toPrecision(2))} Hz). ` +
+		`Short record: ${r((1000 * n) / fs, 3)} ms holds ${cyclesText(r(fit.cycles, 3))} at the fitted ${r(fit.frequencyHz, 3)} Hz (± ${Number(fit.frequencyStdHz.toPrecision(2))} Hz). ` +
 		`Frequency, harmonics (to order ${fit.highestOrder}), THD, lag and power are ${FITTED_NOTE}, each with its uncertainty; ${span}.`
 	);
 }

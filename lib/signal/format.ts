@@ -1,4 +1,4 @@
-/** Numbers in user-facing messages: 4 significant digits, plain notation. Internal to lib/signal. */
+/** Numbers in user-facing messages: 4 significant digits, plain notation. Internal to lib/signal (cyclesText is exported). */
 export function fmt(x: number): string {
 	if (!Number.isFinite(x)) return String(x);
 	return Number(x.toPrecision(4)).toString();

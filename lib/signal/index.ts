@@ -17,3 +17,4 @@ export {
 } from './warnings.js';
 export { fitSharedSine, type SineFit, type SineFitChannel, type SineFitFailure } from './sine-fit.js';
 export { channelResolution, type ChannelResolution } from './code-step.js';
+export { cyclesText } from './format.js';

@@ -18,23 +18,9 @@ const LANES = 4;
 const PAGE_BYTES = 65536;
 let compiled: WebAssembly.Module | null | undefined;
 
-/** Bytes of a base64 text (RFC 4648 alphabet, with padding). */
+/** Bytes of a base64 text (the platform's atob: browsers and Node alike). */
 export function base64Bytes(text: string): Uint8Array<ArrayBuffer> {
-	const digits = 'ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789+/';
-	const clean = text.replace(/=+$/, '');
-	const out = new Uint8Array(Math.floor((clean.length * 3) / 4));
-	let bits = 0;
-	let value = 0;
-	let n = 0;
-	for (const ch of clean) {
-		value = (value << 6) | digits.indexOf(ch);
-		bits += 6;
-		if (bits >= 8) {
-			bits -= 8;
-			out[n++] = (value >> bits) & 255;
-		}
-	}
-	return out;
+	return Uint8Array.from(atob(text), (ch) => ch.charCodeAt(0));
 }
 
 /** The compiled module, once per thread; null where WebAssembly SIMD is not available. */

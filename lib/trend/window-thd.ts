@@ -122,11 +122,7 @@ export class WindowThd {
 		if (!Number.isInteger(cycles) || cycles < 1 || cycles * (MAX_ORDER + 1) + 1 > M / 2)
 			throw new RangeError(`cycles must be an integer 1…20, got ${cycles}`);
 		this.simd = simd ? SimdResampler.create(weightTable()) : undefined;
-		if (this.simd) {
-			this.tapAt = this.simd.tapAt;
-			this.tapPhase = this.simd.tapPhase;
-			this.points = this.simd.points;
-		}
+		if (this.simd) this.takeViews();
 	}
 
 	/**
@@ -189,14 +185,8 @@ export class WindowThd {
 		this.hMax = h;
 		this.first = Math.floor(startT) - 3;
 		this.count = Math.floor(endT) + 5 - this.first;
-		if (this.simdRoom(this.count)) {
-			// the resampler's memory is new: so are its views, and the points' places must be written again
-			this.tapAt = this.simd!.tapAt;
-			this.tapPhase = this.simd!.tapPhase;
-			this.points = this.simd!.points;
-			this.placedStartT = NaN;
-		} else if (!this.simd && this.raw[0].length < this.count)
-			this.raw = this.raw.map(() => new Float64Array(this.count));
+		if (this.simd) this.simdRoom(this.count);
+		if (!this.simd && this.raw[0].length < this.count) this.raw = this.raw.map(() => new Float64Array(this.count));
 		if (startT === this.placedStartT && endT === this.placedEndT) return;
 		const step = (endT - startT) / M;
 		const t0 = startT - (Math.floor(startT) - 3) - 3;
@@ -227,21 +217,28 @@ export class WindowThd {
 	}
 
 	/**
-	 * Whether the SIMD resampler has new views after making room for `count` samples; when it cannot have
-	 * the memory, it is dropped and the JavaScript loops take over (with arrays of their own).
+	 * Room for `count` samples in the SIMD resampler, taking its new views when it made a new memory; when
+	 * it cannot have the memory, it is dropped and the JavaScript loops take over.
 	 */
-	private simdRoom(count: number): boolean {
-		if (!this.simd) return false;
+	private simdRoom(count: number): void {
 		try {
-			return this.simd.reserve(count);
+			if (this.simd!.reserve(count)) this.takeViews();
 		} catch {
 			this.simd = undefined;
-			this.tapAt = new Int32Array(M);
-			this.tapPhase = new Int32Array(M);
-			this.points = Array.from({ length: LANES }, () => new Float64Array(M));
-			this.placedStartT = NaN;
-			return false;
+			this.takeViews();
 		}
+	}
+
+	/**
+	 * The arrays the points' places and the points live in: the SIMD resampler's views, or arrays of our
+	 * own without it; the places are written again at the next window.
+	 */
+	private takeViews(): void {
+		const simd = this.simd;
+		this.tapAt = simd ? simd.tapAt : new Int32Array(M);
+		this.tapPhase = simd ? simd.tapPhase : new Int32Array(M);
+		this.points = simd ? simd.points : Array.from({ length: LANES }, () => new Float64Array(M));
+		this.placedStartT = NaN;
 	}
 
 	/** Channels c … c + lanes − 1 resampled into points[0 …] by the SIMD module: each window's taps copied in first. */

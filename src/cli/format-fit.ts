@@ -3,6 +3,7 @@
  * and for each channel's resolution.
  */
 import type { ReportJson } from '../../lib/report/to-json.js';
+import { cyclesText } from '../../lib/signal/index.js';
 
 type Num = number | null | undefined;
 
@@ -15,19 +16,13 @@ export function withUncertainty(x: Num, u: Num, unit = ''): string {
 	return `${x.toFixed(decimals)} ± ${u.toFixed(decimals)}${tail}`;
 }
 
-/** Cycles held, to 3 decimals, with the noun: '1 cycle', '1.004 cycles'. */
-function cyclesHeld(cycles: number): string {
-	const n = Number(cycles.toFixed(3)).toString();
-	return `${n} ${n === '1' ? 'cycle' : 'cycles'}`;
-}
-
 /** Lines of the 'from a fit of a short record' block; none when the report has no fit. */
 export function fitLines(r: ReportJson): string[] {
 	const s = r.shortRecord;
 	if (!s) return [];
 	const out = ['', `  ${s.note} (± one standard deviation from the fit's residual):`];
 	out.push(
-		`    frequency ${withUncertainty(s.frequencyHz, s.frequencyUncertaintyHz, 'Hz')}; the record holds ${cyclesHeld(s.cyclesHeld ?? 0)}; harmonics fitted to order ${s.highestOrder}`,
+		`    frequency ${withUncertainty(s.frequencyHz, s.frequencyUncertaintyHz, 'Hz')}; the record holds ${cyclesText(String(Number((s.cyclesHeld ?? 0).toFixed(3))))}; harmonics fitted to order ${s.highestOrder}`,
 	);
 	for (const c of r.channels) {
 		if (!c.fit) continue;

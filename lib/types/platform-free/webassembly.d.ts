@@ -12,7 +12,6 @@ declare namespace WebAssembly {
 	class Memory {
 		constructor(descriptor: { initial: number; maximum?: number });
 		readonly buffer: ArrayBuffer;
-		grow(deltaPages: number): number;
 	}
 	function validate(bytes: ArrayBufferView | ArrayBuffer): boolean;
 }
