@@ -154,7 +154,7 @@ export function formatReport(r: ReportJson): string[] {
 	// a short record: every fitted figure below says so; its uncertainties are in the block 'from a fit of a short record'
 	const fitted = r.shortRecord ? ` (${r.shortRecord.note}; ± in the block below)` : '';
 	out.push(
-		`  ${fixed(r.frequencyHz, 3)} Hz${r.shortRecord ? ' (fitted)' : ''} on ${ref}; ${r.cyclesAnalysed} whole cycles analysed ` +
+		`  ${fixed(r.frequencyHz, 3)} Hz${r.shortRecord ? ' (fitted)' : ''} on ${ref}; ${r.cyclesAnalysed} whole cycle${r.cyclesAnalysed === 1 ? '' : 's'} analysed ` +
 			`(${fixed(r.window.startS, 4)}-${fixed(r.window.endS, 4)} s of ${formatNumber(r.durationS)} s) at ${formatNumber(r.sampleRateHz)} samples/s`,
 	);
 	if ((r.findings ?? []).length > 0) {

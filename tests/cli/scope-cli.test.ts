@@ -39,4 +39,10 @@ describe('sinecheck analyse on a one-cycle 8-bit scope capture', () => {
 		expect(r.stdout).toMatch(/from a fit of a short record/);
 		expect(r.stdout).not.toMatch(/clipping/i);
 	});
+
+	it("the header says '1 whole cycle analysed' for the capture's one cycle (English grammar, not '1 whole cycles')", () => {
+		const r = run(['analyse', file]);
+		expect(r.status, r.stderr).toBe(0);
+		expect(r.stdout).toMatch(/; 1 whole cycle analysed /);
+	});
 });

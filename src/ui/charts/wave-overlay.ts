@@ -48,7 +48,7 @@ export function overlayFor(
 		kind: 'window',
 		startS: report.window.startS,
 		endS: report.window.endS,
-		label: `${report.cyclesAnalysed} whole cycles analysed`,
+		label: `${report.cyclesAnalysed} whole cycle${report.cyclesAnalysed === 1 ? '' : 's'} analysed`,
 	});
 	if (extras.cycleBoundariesS.length > 1) items.push({ kind: 'cycle-ticks', timesS: extras.cycleBoundariesS });
 	for (const name of focus) {
